@@ -1,0 +1,195 @@
+//! Ranking: the keys trains are ordered by, the total order they make (ties broken by the
+//! canonical stage sequence, so results never depend on thread timing), and the bounded top-K
+//! store that keeps the best and only counts the rest.
+
+use std::cmp::Ordering;
+
+use crate::error::{Error, Result};
+use crate::pool::MAX_STAGES;
+use crate::rational::RelError;
+
+/// One ranking key; smaller is better for each.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum RankKey {
+    /// Magnitude of the relative ratio error.
+    Error,
+    /// Number of meshes (stages).
+    Meshes,
+    /// Sum of all tooth counts.
+    Size,
+    /// Largest pitch diameter, mm.
+    Span,
+}
+
+impl RankKey {
+    /// The key's name on the command line and in reports.
+    pub fn name(self) -> &'static str {
+        match self {
+            RankKey::Error => "error",
+            RankKey::Meshes => "meshes",
+            RankKey::Size => "size",
+            RankKey::Span => "span",
+        }
+    }
+}
+
+/// The default ranking, `error,meshes,size`.
+pub const DEFAULT_RANK: [RankKey; 3] = [RankKey::Error, RankKey::Meshes, RankKey::Size];
+
+/// Parse a comma list such as `error,meshes,size`.
+pub fn parse_rank(text: &str, flag: &str) -> Result<Vec<RankKey>> {
+    let mut keys = Vec::new();
+    for part in text.split(',').map(str::trim) {
+        let key = match part {
+            "error" => RankKey::Error,
+            "meshes" => RankKey::Meshes,
+            "size" => RankKey::Size,
+            "span" => RankKey::Span,
+            _ => {
+                return Err(Error::flag(
+                    flag,
+                    format!("unknown key \"{part}\"; wanted a comma list of error, meshes, size, span"),
+                ))
+            }
+        };
+        if keys.contains(&key) {
+            return Err(Error::flag(flag, format!("key \"{part}\" is given twice")));
+        }
+        keys.push(key);
+    }
+    Ok(keys)
+}
+
+/// A train as the search holds it: indices into the stage table plus its ranking keys.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct Candidate {
+    /// Stage-table indices, non-decreasing; only the first `len` are used.
+    pub stages: [u32; MAX_STAGES],
+    /// Number of stages.
+    pub len: u8,
+    /// Exact relative error.
+    pub error: RelError,
+    /// Sum of teeth.
+    pub size: u32,
+    /// Largest pitch diameter, mm.
+    pub span_mm: f64,
+}
+
+impl Candidate {
+    /// The used stage indices.
+    pub fn stage_indices(&self) -> &[u32] {
+        &self.stages[..self.len as usize]
+    }
+}
+
+/// Order two candidates by `keys`, then by their stage sequence (a total order).
+pub fn compare(keys: &[RankKey], a: &Candidate, b: &Candidate) -> Ordering {
+    for k in keys {
+        let o = match k {
+            RankKey::Error => a.error.cmp_abs(&b.error),
+            RankKey::Meshes => a.len.cmp(&b.len),
+            RankKey::Size => a.size.cmp(&b.size),
+            RankKey::Span => a.span_mm.total_cmp(&b.span_mm),
+        };
+        if o != Ordering::Equal {
+            return o;
+        }
+    }
+    // Equal on every key: fewer meshes first, then the signed error (low before high), then the
+    // canonical stage sequence. Index order equals the order of the stages' values.
+    a.len
+        .cmp(&b.len)
+        .then_with(|| a.error.cmp_abs(&b.error))
+        .then_with(|| a.error.sign.cmp(&b.error.sign))
+        .then_with(|| a.stage_indices().cmp(b.stage_indices()))
+}
+
+/// The best `k` candidates seen, in a bounded buffer (at most `2k` held), plus a count of all.
+#[derive(Debug, Clone)]
+pub struct TopK {
+    k: usize,
+    keys: Vec<RankKey>,
+    held: Vec<Candidate>,
+    /// Every candidate offered.
+    pub count: u64,
+}
+
+impl TopK {
+    /// An empty store keeping the best `k` by `keys`.
+    pub fn new(k: usize, keys: &[RankKey]) -> TopK {
+        TopK { k, keys: keys.to_vec(), held: Vec::new(), count: 0 }
+    }
+
+    /// Offer one candidate.
+    pub fn push(&mut self, c: Candidate) {
+        self.count += 1;
+        if self.k == 0 {
+            return;
+        }
+        self.held.push(c);
+        if self.held.len() >= 2 * self.k.max(16) {
+            self.shrink();
+        }
+    }
+
+    fn shrink(&mut self) {
+        let keys = &self.keys;
+        if self.held.len() > self.k {
+            self.held.select_nth_unstable_by(self.k, |a, b| compare(keys, a, b));
+            self.held.truncate(self.k);
+        }
+    }
+
+    /// Combine with another store of the same `k` and keys.
+    pub fn merge(mut self, other: TopK) -> TopK {
+        self.count += other.count;
+        self.held.extend(other.held);
+        self.shrink();
+        self
+    }
+
+    /// The best `k`, best first.
+    pub fn into_sorted(mut self) -> (u64, Vec<Candidate>) {
+        self.shrink();
+        let keys = self.keys.clone();
+        self.held.sort_by(|a, b| compare(&keys, a, b));
+        (self.count, self.held)
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::rational::Ratio;
+
+    fn cand(first: u32, len: u8, p: u64, q: u64, size: u32) -> Candidate {
+        let mut stages = [0; MAX_STAGES];
+        stages[0] = first;
+        Candidate { stages, len, error: RelError::of(p, q, Ratio::integer(10)), size, span_mm: 0.0 }
+    }
+
+    #[test]
+    fn parses_keys() {
+        assert_eq!(parse_rank("size, error", "--rank").unwrap(), vec![RankKey::Size, RankKey::Error]);
+        assert!(parse_rank("error,colour", "--rank").is_err());
+        assert!(parse_rank("error,error", "--rank").is_err());
+        assert!(parse_rank("", "--rank").is_err());
+    }
+
+    #[test]
+    fn topk_keeps_the_best_whatever_the_order() {
+        let all: Vec<Candidate> = (0..500).map(|i| cand(i, 1 + (i % 3) as u8, 1000 + (i as u64 * 7919) % 97, 100, i)).collect();
+        let mut a = TopK::new(10, &DEFAULT_RANK);
+        all.iter().for_each(|c| a.push(*c));
+        let mut b1 = TopK::new(10, &DEFAULT_RANK);
+        let mut b2 = TopK::new(10, &DEFAULT_RANK);
+        all.iter().rev().enumerate().for_each(|(i, c)| if i % 2 == 0 { b1.push(*c) } else { b2.push(*c) });
+        let (na, va) = a.into_sorted();
+        let (nb, vb) = b1.merge(b2).into_sorted();
+        assert_eq!((na, nb), (500, 500));
+        assert_eq!(va, vb);
+        let mut sorted = all.clone();
+        sorted.sort_by(|x, y| compare(&DEFAULT_RANK, x, y));
+        assert_eq!(va, sorted[..10].to_vec());
+    }
+}
