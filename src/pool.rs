@@ -84,7 +84,9 @@ pub struct Pool {
 pub fn check_module(module_mm: f64, place: &dyn Fn(String) -> Error) -> Result<f64> {
     let (lo, hi) = MODULE_RANGE_MM;
     if !module_mm.is_finite() || module_mm < lo || module_mm > hi {
-        return Err(place(format!("module must be a number of mm from {lo} to {hi}, found {module_mm}")));
+        return Err(place(format!(
+            "module must be a number of mm from {lo} to {hi}, found {module_mm}"
+        )));
     }
     Ok(module_mm)
 }
@@ -93,24 +95,43 @@ pub fn check_module(module_mm: f64, place: &dyn Fn(String) -> Error) -> Result<f
 pub fn check_pressure_angle(deg: f64, place: &dyn Fn(String) -> Error) -> Result<f64> {
     let (lo, hi) = PRESSURE_ANGLE_RANGE_DEG;
     if !deg.is_finite() || deg < lo || deg > hi {
-        return Err(place(format!("pressure angle must be from {lo}° to {hi}°, found {deg}")));
+        return Err(place(format!(
+            "pressure angle must be from {lo}° to {hi}°, found {deg}"
+        )));
     }
     Ok(deg)
 }
 
 impl Pool {
     /// Gears to be cut: every tooth count in `teeth`, any number of each, one module.
-    pub fn to_cut(teeth: IntRange, module_mm: f64, pressure_angle_deg: f64, diametral_pitch: Option<f64>) -> Result<Pool> {
+    pub fn to_cut(
+        teeth: IntRange,
+        module_mm: f64,
+        pressure_angle_deg: f64,
+        diametral_pitch: Option<f64>,
+    ) -> Result<Pool> {
         check_module(module_mm, &|m| Error::flag("--module", m))?;
         check_pressure_angle(pressure_angle_deg, &|m| Error::flag("--pressure-angle", m))?;
         if teeth.lo < MIN_TEETH || teeth.hi > MAX_TEETH {
-            return Err(Error::flag("--teeth", format!("teeth must lie within {MIN_TEETH}..{MAX_TEETH}")));
+            return Err(Error::flag(
+                "--teeth",
+                format!("teeth must lie within {MIN_TEETH}..{MAX_TEETH}"),
+            ));
         }
         let gears = (teeth.lo..=teeth.hi)
-            .map(|t| GearKind { teeth: t, group: 0, quantity: None, labels: Vec::new() })
+            .map(|t| GearKind {
+                teeth: t,
+                group: 0,
+                quantity: None,
+                labels: Vec::new(),
+            })
             .collect();
         let pool = Pool {
-            groups: vec![MeshGroup { module_mm, pressure_angle_deg, diametral_pitch }],
+            groups: vec![MeshGroup {
+                module_mm,
+                pressure_angle_deg,
+                diametral_pitch,
+            }],
             gears,
             from_stock: false,
         };
@@ -124,7 +145,10 @@ impl Pool {
         let mut groups: Vec<MeshGroup> = Vec::new();
         let mut gears: Vec<GearKind> = Vec::new();
         for g in stock {
-            let group = match groups.iter().position(|m| m.meshes_with(g.module_mm, g.pressure_angle_deg)) {
+            let group = match groups
+                .iter()
+                .position(|m| m.meshes_with(g.module_mm, g.pressure_angle_deg))
+            {
                 Some(i) => i,
                 None => {
                     groups.push(MeshGroup {
@@ -135,7 +159,10 @@ impl Pool {
                     groups.len() - 1
                 }
             };
-            match gears.iter_mut().find(|k| k.group == group && k.teeth == g.teeth) {
+            match gears
+                .iter_mut()
+                .find(|k| k.group == group && k.teeth == g.teeth)
+            {
                 Some(k) => {
                     let q = k.quantity.unwrap_or(0).saturating_add(g.quantity);
                     k.quantity = Some(q);
@@ -147,7 +174,11 @@ impl Pool {
                     teeth: g.teeth,
                     group,
                     quantity: Some(g.quantity),
-                    labels: if g.label.is_empty() { Vec::new() } else { vec![g.label.clone()] },
+                    labels: if g.label.is_empty() {
+                        Vec::new()
+                    } else {
+                        vec![g.label.clone()]
+                    },
                 }),
             }
         }
@@ -155,7 +186,11 @@ impl Pool {
             return Err(Error::Problem(format!("{source}: no gears in stock")));
         }
         gears.sort_by_key(|k| (k.group, k.teeth));
-        let pool = Pool { groups, gears, from_stock: true };
+        let pool = Pool {
+            groups,
+            gears,
+            from_stock: true,
+        };
         pool.check_can_mesh(source)?;
         Ok(pool)
     }
@@ -163,7 +198,9 @@ impl Pool {
     /// Refuse a pool in which no two gears of different tooth counts share a mesh group.
     fn check_can_mesh(&self, source: &str) -> Result<()> {
         let ok = self.gears.iter().any(|a| {
-            self.gears.iter().any(|b| a.group == b.group && a.teeth != b.teeth)
+            self.gears
+                .iter()
+                .any(|b| a.group == b.group && a.teeth != b.teeth)
         });
         if ok {
             Ok(())
@@ -184,12 +221,24 @@ impl Pool {
     pub fn describe(&self) -> String {
         let groups: Vec<String> = self.groups.iter().map(describe_group).collect();
         if self.from_stock {
-            let total: u64 = self.gears.iter().map(|g| g.quantity.unwrap_or(0) as u64).sum();
-            format!("{} gears on hand ({} kinds) in {}", total, self.gears.len(), groups.join("; "))
+            let total: u64 = self
+                .gears
+                .iter()
+                .map(|g| g.quantity.unwrap_or(0) as u64)
+                .sum();
+            format!(
+                "{} gears on hand ({} kinds) in {}",
+                total,
+                self.gears.len(),
+                groups.join("; ")
+            )
         } else {
             let lo = self.gears.first().map_or(0, |g| g.teeth);
             let hi = self.gears.last().map_or(0, |g| g.teeth);
-            format!("any number of gears of {lo}..{hi} teeth, {}", groups.join("; "))
+            format!(
+                "any number of gears of {lo}..{hi} teeth, {}",
+                groups.join("; ")
+            )
         }
     }
 }
@@ -197,8 +246,17 @@ impl Pool {
 /// `module 1.5 mm, 20°` or `16 DP (module 1.5875 mm), 14.5°`.
 pub fn describe_group(g: &MeshGroup) -> String {
     match g.diametral_pitch {
-        Some(p) => format!("{} DP (module {} mm), {}°", fmt_num(p), fmt_num(g.module_mm), fmt_num(g.pressure_angle_deg)),
-        None => format!("module {} mm, {}°", fmt_num(g.module_mm), fmt_num(g.pressure_angle_deg)),
+        Some(p) => format!(
+            "{} DP (module {} mm), {}°",
+            fmt_num(p),
+            fmt_num(g.module_mm),
+            fmt_num(g.pressure_angle_deg)
+        ),
+        None => format!(
+            "module {} mm, {}°",
+            fmt_num(g.module_mm),
+            fmt_num(g.pressure_angle_deg)
+        ),
     }
 }
 
@@ -206,7 +264,11 @@ pub fn describe_group(g: &MeshGroup) -> String {
 pub fn fmt_num(v: f64) -> String {
     let s = format!("{v:.4}");
     let s = s.trim_end_matches('0').trim_end_matches('.');
-    if s == "-0" { "0".to_string() } else { s.to_string() }
+    if s == "-0" {
+        "0".to_string()
+    } else {
+        s.to_string()
+    }
 }
 
 #[cfg(test)]
@@ -214,12 +276,23 @@ mod tests {
     use super::*;
 
     fn g(teeth: u32, module_mm: f64, q: u32) -> StockGear {
-        StockGear { teeth, module_mm, diametral_pitch: None, pressure_angle_deg: 20.0, quantity: q, label: String::new() }
+        StockGear {
+            teeth,
+            module_mm,
+            diametral_pitch: None,
+            pressure_angle_deg: 20.0,
+            quantity: q,
+            label: String::new(),
+        }
     }
 
     #[test]
     fn stock_merges_interchangeable_gears() {
-        let p = Pool::from_stock(&[g(20, 1.0, 1), g(40, 1.0, 1), g(20, 1.0, 2), g(20, 1.5, 1)], "t").unwrap();
+        let p = Pool::from_stock(
+            &[g(20, 1.0, 1), g(40, 1.0, 1), g(20, 1.0, 2), g(20, 1.5, 1)],
+            "t",
+        )
+        .unwrap();
         assert_eq!(p.groups.len(), 2);
         let k20: Vec<_> = p.gears.iter().filter(|k| k.teeth == 20).collect();
         assert_eq!(k20.len(), 2);

@@ -53,12 +53,26 @@ impl Problem {
         limit: usize,
     ) -> Result<Problem> {
         if stages.lo < 1 || stages.hi as usize > MAX_STAGES {
-            return Err(Error::flag("--stages", format!("stages must lie within 1..{MAX_STAGES}")));
+            return Err(Error::flag(
+                "--stages",
+                format!("stages must lie within 1..{MAX_STAGES}"),
+            ));
         }
         if rank.is_empty() {
-            return Err(Error::flag("--rank", "give at least one key of error, meshes, size, span"));
+            return Err(Error::flag(
+                "--rank",
+                "give at least one key of error, meshes, size, span",
+            ));
         }
-        let p = Problem { target, pool, stages, limits, direction, rank, limit };
+        let p = Problem {
+            target,
+            pool,
+            stages,
+            limits,
+            direction,
+            rank,
+            limit,
+        };
         if p.stage_counts().is_empty() {
             return Err(Error::flag(
                 "--direction",
@@ -76,7 +90,10 @@ impl Problem {
     /// The stage counts searched, ascending, after the direction requirement.
     pub fn stage_counts(&self) -> Vec<usize> {
         (self.stages.lo as usize..=self.stages.hi as usize)
-            .filter(|&n| self.direction.is_none_or(|d| Direction::after_meshes(n) == d))
+            .filter(|&n| {
+                self.direction
+                    .is_none_or(|d| Direction::after_meshes(n) == d)
+            })
             .collect()
     }
 }

@@ -40,18 +40,19 @@ pub const DEFAULT_RANK: [RankKey; 3] = [RankKey::Error, RankKey::Meshes, RankKey
 pub fn parse_rank(text: &str, flag: &str) -> Result<Vec<RankKey>> {
     let mut keys = Vec::new();
     for part in text.split(',').map(str::trim) {
-        let key = match part {
-            "error" => RankKey::Error,
-            "meshes" => RankKey::Meshes,
-            "size" => RankKey::Size,
-            "span" => RankKey::Span,
-            _ => {
-                return Err(Error::flag(
+        let key =
+            match part {
+                "error" => RankKey::Error,
+                "meshes" => RankKey::Meshes,
+                "size" => RankKey::Size,
+                "span" => RankKey::Span,
+                _ => return Err(Error::flag(
                     flag,
-                    format!("unknown key \"{part}\"; wanted a comma list of error, meshes, size, span"),
-                ))
-            }
-        };
+                    format!(
+                        "unknown key \"{part}\"; wanted a comma list of error, meshes, size, span"
+                    ),
+                )),
+            };
         if keys.contains(&key) {
             return Err(Error::flag(flag, format!("key \"{part}\" is given twice")));
         }
@@ -117,7 +118,12 @@ pub struct TopK {
 impl TopK {
     /// An empty store keeping the best `k` by `keys`.
     pub fn new(k: usize, keys: &[RankKey]) -> TopK {
-        TopK { k, keys: keys.to_vec(), held: Vec::new(), count: 0 }
+        TopK {
+            k,
+            keys: keys.to_vec(),
+            held: Vec::new(),
+            count: 0,
+        }
     }
 
     /// Offer one candidate.
@@ -135,7 +141,8 @@ impl TopK {
     fn shrink(&mut self) {
         let keys = &self.keys;
         if self.held.len() > self.k {
-            self.held.select_nth_unstable_by(self.k, |a, b| compare(keys, a, b));
+            self.held
+                .select_nth_unstable_by(self.k, |a, b| compare(keys, a, b));
             self.held.truncate(self.k);
         }
     }
@@ -165,12 +172,21 @@ mod tests {
     fn cand(first: u32, len: u8, p: u64, q: u64, size: u32) -> Candidate {
         let mut stages = [0; MAX_STAGES];
         stages[0] = first;
-        Candidate { stages, len, error: RelError::of(p, q, Ratio::integer(10)), size, span_mm: 0.0 }
+        Candidate {
+            stages,
+            len,
+            error: RelError::of(p, q, Ratio::integer(10)),
+            size,
+            span_mm: 0.0,
+        }
     }
 
     #[test]
     fn parses_keys() {
-        assert_eq!(parse_rank("size, error", "--rank").unwrap(), vec![RankKey::Size, RankKey::Error]);
+        assert_eq!(
+            parse_rank("size, error", "--rank").unwrap(),
+            vec![RankKey::Size, RankKey::Error]
+        );
         assert!(parse_rank("error,colour", "--rank").is_err());
         assert!(parse_rank("error,error", "--rank").is_err());
         assert!(parse_rank("", "--rank").is_err());
@@ -178,12 +194,17 @@ mod tests {
 
     #[test]
     fn topk_keeps_the_best_whatever_the_order() {
-        let all: Vec<Candidate> = (0..500).map(|i| cand(i, 1 + (i % 3) as u8, 1000 + (i as u64 * 7919) % 97, 100, i)).collect();
+        let all: Vec<Candidate> = (0..500)
+            .map(|i| cand(i, 1 + (i % 3) as u8, 1000 + (i as u64 * 7919) % 97, 100, i))
+            .collect();
         let mut a = TopK::new(10, &DEFAULT_RANK);
         all.iter().for_each(|c| a.push(*c));
         let mut b1 = TopK::new(10, &DEFAULT_RANK);
         let mut b2 = TopK::new(10, &DEFAULT_RANK);
-        all.iter().rev().enumerate().for_each(|(i, c)| if i % 2 == 0 { b1.push(*c) } else { b2.push(*c) });
+        all.iter()
+            .rev()
+            .enumerate()
+            .for_each(|(i, c)| if i % 2 == 0 { b1.push(*c) } else { b2.push(*c) });
         let (na, va) = a.into_sorted();
         let (nb, vb) = b1.merge(b2).into_sorted();
         assert_eq!((na, nb), (500, 500));

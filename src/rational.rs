@@ -31,7 +31,10 @@ impl Ratio {
         }
         let g = gcd(num, den).max(1);
         let (n, d) = (num / g, den / g);
-        Some(Ratio { num: u64::try_from(n).ok()?, den: u64::try_from(d).ok()? })
+        Some(Ratio {
+            num: u64::try_from(n).ok()?,
+            den: u64::try_from(d).ok()?,
+        })
     }
 
     /// `num/den` if it is already reduced with `den > 0` (usable in constants).
@@ -143,7 +146,11 @@ impl RelError {
             Ordering::Less => (rhs - lhs, -1),
             Ordering::Equal => (0, 0),
         };
-        RelError { abs_num, sign, den: rhs }
+        RelError {
+            abs_num,
+            sign,
+            den: rhs,
+        }
     }
 
     /// `|e| ≤ tol`, decided exactly: `|pQ − qP|·td ≤ tn·qP`.
@@ -198,14 +205,20 @@ mod tests {
         // (2^128 − 1)^2 = 2^256 − 2^129 + 1
         assert_eq!(w, Wide { hi: m - 1, lo: 1 });
         assert_eq!(mul_wide(1 << 64, 1 << 64), Wide { hi: 1, lo: 0 });
-        assert_eq!(mul_wide(12345, 67890), Wide { hi: 0, lo: 12345 * 67890 });
+        assert_eq!(
+            mul_wide(12345, 67890),
+            Wide {
+                hi: 0,
+                lo: 12345 * 67890
+            }
+        );
     }
 
     #[test]
     fn tolerance_is_decided_exactly_at_the_edge() {
         let target = Ratio::integer(100);
         let tol = Ratio::new(1, 100).unwrap(); // 1 %
-        // 101/1 is exactly 1 % high: inside. 10101/100 is just above: outside.
+                                               // 101/1 is exactly 1 % high: inside. 10101/100 is just above: outside.
         assert!(RelError::of(101, 1, target).within(tol));
         assert!(RelError::of(99, 1, target).within(tol));
         assert!(!RelError::of(10101, 100, target).within(tol));

@@ -72,7 +72,8 @@ impl Stage {
 
     /// The stage's own ratio, driven / driver, reduced.
     pub fn ratio(&self) -> Ratio {
-        Ratio::new(self.driven.teeth as u128, self.driver.teeth as u128).expect("teeth are positive")
+        Ratio::new(self.driven.teeth as u128, self.driver.teeth as u128)
+            .expect("teeth are positive")
     }
 }
 
@@ -105,7 +106,10 @@ impl Train {
 
     /// Sum of all tooth counts (a proxy for cost and bulk).
     pub fn size(&self) -> u32 {
-        self.stages.iter().map(|s| s.driver.teeth + s.driven.teeth).sum()
+        self.stages
+            .iter()
+            .map(|s| s.driver.teeth + s.driven.teeth)
+            .sum()
     }
 
     /// Largest pitch diameter in the train, mm.
@@ -132,8 +136,17 @@ mod tests {
     use super::*;
 
     fn stage(a: u32, b: u32) -> Stage {
-        let g = |t| Gear { teeth: t, labels: vec![] };
-        Stage { driver: g(a), driven: g(b), module_mm: 1.5, pressure_angle_deg: 20.0, diametral_pitch: None }
+        let g = |t| Gear {
+            teeth: t,
+            labels: vec![],
+        };
+        Stage {
+            driver: g(a),
+            driven: g(b),
+            module_mm: 1.5,
+            pressure_angle_deg: 20.0,
+            diametral_pitch: None,
+        }
     }
 
     #[test]

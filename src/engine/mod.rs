@@ -71,11 +71,18 @@ impl<'p> SearchSpace<'p> {
                 if lim.driven_teeth.is_some_and(|r| !r.contains(b.teeth)) {
                     continue;
                 }
-                if lim.stage_ratio.is_some_and(|r| !r.contains(b.teeth as u64, a.teeth as u64)) {
+                if lim
+                    .stage_ratio
+                    .is_some_and(|r| !r.contains(b.teeth as u64, a.teeth as u64))
+                {
                     continue;
                 }
                 if let Some(cd) = lim.centre_distance_mm {
-                    let a_mm = crate::train::standard_centre_distance_mm(pool.module_of(i), a.teeth, b.teeth);
+                    let a_mm = crate::train::standard_centre_distance_mm(
+                        pool.module_of(i),
+                        a.teeth,
+                        b.teeth,
+                    );
                     if !cd.contains(a_mm, 1e-9 * a_mm) {
                         continue;
                     }
@@ -143,9 +150,16 @@ impl<'p> SearchSpace<'p> {
         for &i in idx {
             let s = &self.stages[i as usize];
             size += s.driver_teeth + s.driven_teeth;
-            span = span.max(pool.module_of(s.driver as usize) * s.driver_teeth.max(s.driven_teeth) as f64);
+            span = span
+                .max(pool.module_of(s.driver as usize) * s.driver_teeth.max(s.driven_teeth) as f64);
         }
-        Some(Candidate { stages, len: idx.len() as u8, error, size, span_mm: span })
+        Some(Candidate {
+            stages,
+            len: idx.len() as u8,
+            error,
+            size,
+            span_mm: span,
+        })
     }
 
     /// Does the stock hold every gear the sequence uses, counting repeats across the train?
@@ -165,7 +179,9 @@ impl<'p> SearchSpace<'p> {
                 }
             }
         }
-        used[..n].iter().all(|&(g, c)| gears[g as usize].quantity.is_none_or(|q| c <= q))
+        used[..n]
+            .iter()
+            .all(|&(g, c)| gears[g as usize].quantity.is_none_or(|q| c <= q))
     }
 
     /// Turn a candidate into a full train for reporting.
@@ -173,7 +189,10 @@ impl<'p> SearchSpace<'p> {
         let pool = &self.problem.pool;
         let gear = |k: u32| {
             let g = &pool.gears[k as usize];
-            Gear { teeth: g.teeth, labels: g.labels.clone() }
+            Gear {
+                teeth: g.teeth,
+                labels: g.labels.clone(),
+            }
         };
         let stages = c
             .stage_indices()
@@ -195,7 +214,11 @@ impl<'p> SearchSpace<'p> {
             p *= self.stages[i as usize].driven_teeth as u128;
             q *= self.stages[i as usize].driver_teeth as u128;
         }
-        Train { stages, ratio: Ratio::new(p, q).expect("fits"), error: c.error }
+        Train {
+            stages,
+            ratio: Ratio::new(p, q).expect("fits"),
+            error: c.error,
+        }
     }
 }
 
@@ -207,7 +230,13 @@ pub trait Engine: Sync {
     /// Call `visit` with every non-decreasing sequence of `n` stage indices starting with
     /// `first` that might satisfy the problem. Visiting extra sequences is allowed (the driver
     /// judges each exactly); missing one that satisfies is a bug.
-    fn visit_unit(&self, space: &SearchSpace, n: usize, first: usize, visit: &mut dyn FnMut(&[u32]));
+    fn visit_unit(
+        &self,
+        space: &SearchSpace,
+        n: usize,
+        first: usize,
+        visit: &mut dyn FnMut(&[u32]),
+    );
 }
 
 /// The engines gearsieve ships.

@@ -1,0 +1,90 @@
+//! The command line: clap-derive structs mirroring the arguments, each subcommand in its own
+//! file turning its arguments into a library problem (`TryFrom`), and the shared edge work —
+//! exit codes, the progress bar, Ctrl-C, writing output safely.
+
+mod output;
+mod progress;
+mod search;
+
+use std::sync::atomic::AtomicBool;
+
+use clap::{Parser, Subcommand};
+
+/// Exit status: a train (or the asked-for result) was found.
+pub const EXIT_OK: i32 = 0;
+/// Exit status: the input was fine but nothing met every constraint.
+pub const EXIT_NOTHING_FOUND: i32 = 1;
+/// Exit status: bad input (flags, files); the message names the place.
+pub const EXIT_BAD_INPUT: i32 = 2;
+/// Exit status: interrupted with Ctrl-C; what was found so far was printed.
+pub const EXIT_INTERRUPTED: i32 = 130;
+
+/// Set by Ctrl-C; the search stops at the next unit of work.
+pub static CANCEL: AtomicBool = AtomicBool::new(false);
+
+#[derive(Parser)]
+#[command(
+    name = "gearsieve",
+    version,
+    about = "Find gear trains: compound spur trains that hit a speed ratio from gears to be cut or on hand",
+    long_about = "Find gear trains: compound spur trains that hit a speed ratio from gears to be cut \
+                  or on hand.\n\nRatio convention (ISO 1122-1): i = input turns per output turn = \
+                  product of driven teeth / product of driver teeth; a reducer's ratio is above 1."
+)]
+struct Cli {
+    #[command(subcommand)]
+    command: Command,
+}
+
+#[derive(Subcommand)]
+enum Command {
+    /// Search every multi-stage train for a ratio within a tolerance.
+    Search(Box<search::SearchArgs>),
+}
+
+/// Parse the command line, run, and return the exit status.
+pub fn run() -> i32 {
+    let cli = match Cli::try_parse() {
+        Ok(c) => c,
+        Err(e) => {
+            let code = if e.use_stderr() {
+                EXIT_BAD_INPUT
+            } else {
+                EXIT_OK
+            };
+            let _ = e.print();
+            return code;
+        }
+    };
+    // A second Ctrl-C (or a failure to install the handler) falls back to the default: abort.
+    let _ = ctrlc::set_handler(|| {
+        if CANCEL.swap(true, std::sync::atomic::Ordering::SeqCst) {
+            std::process::exit(EXIT_INTERRUPTED);
+        }
+    });
+    let result = match cli.command {
+        Command::Search(args) => search::run(*args),
+    };
+    match result {
+        Ok(code) => code,
+        Err(e) => {
+            eprintln!("gearsieve: {e}");
+            EXIT_BAD_INPUT
+        }
+    }
+}
+
+/// Build a rayon pool of `threads` threads (all cores when `None`) and run `f` in it.
+fn with_threads<T: Send>(
+    threads: Option<usize>,
+    f: impl FnOnce() -> T + Send,
+) -> anyhow::Result<T> {
+    let mut b = rayon::ThreadPoolBuilder::new();
+    if let Some(n) = threads {
+        b = b.num_threads(n);
+    }
+    let pool = b
+        .build()
+        .map_err(|e| anyhow::anyhow!("--threads: cannot start worker threads: {e}"))?;
+    Ok(pool.install(f))
+}

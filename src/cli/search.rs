@@ -1,0 +1,272 @@
+//! `gearsieve search`: the general search. The clap struct mirrors the flags; `TryFrom` turns it
+//! into a validated [`Problem`] plus how to run and print it.
+
+use std::path::PathBuf;
+
+use clap::{Args, ValueEnum};
+use gearsieve::catalog::{self, CatalogueDefaults};
+use gearsieve::output::{render, Format, Report};
+use gearsieve::pool::{Pool, MAX_STAGES, MAX_TEETH, MIN_TEETH};
+use gearsieve::range::{parse_float_range, parse_int_range, parse_ratio_range};
+use gearsieve::rank::parse_rank;
+use gearsieve::target::Target;
+use gearsieve::train::Direction;
+use gearsieve::{EngineKind, Error, Problem, RunOptions, StageLimits};
+
+use super::progress::Bar;
+use super::{EXIT_INTERRUPTED, EXIT_NOTHING_FOUND, EXIT_OK};
+
+/// Tooth range used when neither `--teeth` nor `--stock` is given.
+pub const DEFAULT_TEETH: &str = "12..120";
+
+/// The output format flag.
+#[derive(Clone, Copy, Debug, ValueEnum)]
+pub enum FormatArg {
+    /// Aligned text.
+    Table,
+    /// One row per train.
+    Csv,
+    /// The documented JSON contract.
+    Json,
+}
+
+impl From<FormatArg> for Format {
+    fn from(f: FormatArg) -> Format {
+        match f {
+            FormatArg::Table => Format::Table,
+            FormatArg::Csv => Format::Csv,
+            FormatArg::Json => Format::Json,
+        }
+    }
+}
+
+/// The engine flag.
+#[derive(Clone, Copy, Debug, ValueEnum)]
+pub enum EngineArg {
+    /// Depth-first with ratio bounds (fast, default).
+    Sieve,
+    /// Every combination (slow reference).
+    Exhaustive,
+}
+
+/// The direction flag.
+#[derive(Clone, Copy, Debug, ValueEnum)]
+pub enum DirectionArg {
+    /// Output turns the same way as the input (even number of meshes).
+    Same,
+    /// Output turns the opposite way (odd number of meshes).
+    Opposite,
+}
+
+/// Flags shared by every command that prints results.
+#[derive(Args, Debug, Clone)]
+pub struct PrintArgs {
+    /// Output format.
+    #[arg(long, value_enum, default_value = "table")]
+    pub format: FormatArg,
+    /// Write results to FILE (atomically: complete or not at all) instead of standard output.
+    #[arg(long, value_name = "FILE")]
+    pub output: Option<PathBuf>,
+    /// Worker threads (default: all cores). Results do not depend on it.
+    #[arg(long, value_name = "N", value_parser = clap::value_parser!(u16).range(1..=1024))]
+    pub threads: Option<u16>,
+    /// No progress bar.
+    #[arg(long, short)]
+    pub quiet: bool,
+}
+
+/// Search every compound train of external spur stages for a ratio.
+///
+/// Ratio convention (ISO 1122-1): i = input turns per output turn = product of driven teeth /
+/// product of driver teeth; a reducer's ratio is above 1, a speed-up's below 1.
+#[derive(Args, Debug)]
+pub struct SearchArgs {
+    /// Ratio wanted, input turns per output turn: 12, 1.0583, 127/120, 37.5:1 or pi. Decimals
+    /// and fractions are held exactly.
+    #[arg(long, short, value_name = "R", allow_hyphen_values = true)]
+    pub ratio: String,
+    /// Relative tolerance |i/R − 1| ≤ T: 0 (exact), 1e-4, 0.01% or 50ppm.
+    #[arg(
+        long,
+        value_name = "T",
+        default_value = "0",
+        allow_hyphen_values = true
+    )]
+    pub tol: String,
+    /// Stages (meshes): N or A..B inclusive. Fewer meshes rank first among equal errors.
+    #[arg(long, value_name = "N|A..B", default_value = "1..3")]
+    pub stages: String,
+    /// Gears to be cut: every tooth count in LO..HI, any number of each [default: 12..120
+    /// when no --stock is given].
+    #[arg(long, value_name = "LO..HI", conflicts_with = "stock")]
+    pub teeth: Option<String>,
+    /// Gears on hand, from a CSV catalogue (repeatable). Each gear is used at most its quantity.
+    #[arg(long, value_name = "FILE")]
+    pub stock: Vec<PathBuf>,
+    /// Module in mm for --teeth (default 1), or for catalogue rows that give none.
+    #[arg(long, value_name = "MM", conflicts_with = "diametral_pitch")]
+    pub module: Option<f64>,
+    /// Diametral pitch (teeth per inch of pitch diameter) instead of a module: m = 25.4 / P.
+    #[arg(long, value_name = "P")]
+    pub diametral_pitch: Option<f64>,
+    /// Pressure angle in degrees for --teeth, and for catalogue rows that give none.
+    #[arg(long, value_name = "DEG", default_value_t = 20.0)]
+    pub pressure_angle: f64,
+    /// Allowed driver teeth per stage (e.g. clock pinions 6..12).
+    #[arg(long, value_name = "LO..HI")]
+    pub driver_teeth: Option<String>,
+    /// Allowed driven teeth per stage.
+    #[arg(long, value_name = "LO..HI")]
+    pub driven_teeth: Option<String>,
+    /// Allowed ratio of each stage, driven/driver: e.g. 1..6, 1/6..6 or ..6.
+    #[arg(long, value_name = "LO..HI")]
+    pub stage_ratio: Option<String>,
+    /// Allowed standard centre distance of each stage, mm: LO..HI.
+    #[arg(long, value_name = "LO..HI")]
+    pub centre_distance: Option<String>,
+    /// Required output direction relative to the input.
+    #[arg(long, value_enum)]
+    pub direction: Option<DirectionArg>,
+    /// Ranking keys, most important first: error, meshes, size (sum of teeth), span (largest
+    /// pitch diameter).
+    #[arg(long, value_name = "KEYS", default_value = "error,meshes,size")]
+    pub rank: String,
+    /// Trains to list; all are counted.
+    #[arg(long, value_name = "K", default_value_t = 20)]
+    pub limit: usize,
+    /// Search engine; the exhaustive one is a slow reference.
+    #[arg(long, value_enum, default_value = "sieve")]
+    pub engine: EngineArg,
+    #[command(flatten)]
+    pub print: PrintArgs,
+}
+
+/// A validated search, ready to run.
+pub struct SearchJob {
+    problem: Problem,
+    engine: EngineKind,
+    print: PrintArgs,
+}
+
+/// Load every `--stock` file into one pool.
+pub fn load_stock(files: &[PathBuf], defaults: CatalogueDefaults) -> Result<Pool, Error> {
+    let mut gears = Vec::new();
+    for f in files {
+        gears.extend(catalog::load(f, defaults)?);
+    }
+    let names: Vec<String> = files.iter().map(|f| f.display().to_string()).collect();
+    Pool::from_stock(&gears, &format!("catalogue {}", names.join(", ")))
+}
+
+fn module_from_flags(
+    module: Option<f64>,
+    dp: Option<f64>,
+) -> Result<Option<(f64, Option<f64>)>, Error> {
+    match (module, dp) {
+        (Some(m), _) => Ok(Some((m, None))),
+        (None, Some(p)) if p.is_finite() && p > 0.0 => Ok(Some((25.4 / p, Some(p)))),
+        (None, Some(p)) => Err(Error::flag(
+            "--diametral-pitch",
+            format!("wanted a positive number of teeth per inch, found {p}"),
+        )),
+        (None, None) => Ok(None),
+    }
+}
+
+impl TryFrom<SearchArgs> for SearchJob {
+    type Error = Error;
+
+    fn try_from(a: SearchArgs) -> Result<SearchJob, Error> {
+        let target = Target::parse(&a.ratio, &a.tol, "--ratio", "--tol")?;
+        let module = module_from_flags(a.module, a.diametral_pitch)?;
+        let pool = if a.stock.is_empty() {
+            let teeth = a.teeth.as_deref().unwrap_or(DEFAULT_TEETH);
+            let teeth = parse_int_range(teeth, "--teeth", "teeth", MIN_TEETH, MAX_TEETH)?;
+            let (m, dp) = module.unwrap_or((1.0, None));
+            Pool::to_cut(teeth, m, a.pressure_angle, dp)?
+        } else {
+            let defaults = CatalogueDefaults {
+                module_mm: module.map(|m| m.0),
+                pressure_angle_deg: a.pressure_angle,
+            };
+            load_stock(&a.stock, defaults)?
+        };
+        let tooth_range = |s: &Option<String>, flag: &str| {
+            s.as_deref()
+                .map(|s| parse_int_range(s, flag, "teeth", MIN_TEETH, MAX_TEETH))
+                .transpose()
+        };
+        let limits = StageLimits {
+            driver_teeth: tooth_range(&a.driver_teeth, "--driver-teeth")?,
+            driven_teeth: tooth_range(&a.driven_teeth, "--driven-teeth")?,
+            stage_ratio: a
+                .stage_ratio
+                .as_deref()
+                .map(|s| parse_ratio_range(s, "--stage-ratio"))
+                .transpose()?,
+            centre_distance_mm: a
+                .centre_distance
+                .as_deref()
+                .map(|s| parse_float_range(s, "--centre-distance", "mm"))
+                .transpose()?,
+        };
+        let stages = parse_int_range(&a.stages, "--stages", "stages", 1, MAX_STAGES as u32)?;
+        let direction = a.direction.map(|d| match d {
+            DirectionArg::Same => Direction::Same,
+            DirectionArg::Opposite => Direction::Opposite,
+        });
+        let rank = parse_rank(&a.rank, "--rank")?;
+        let problem = Problem::new(target, pool, stages, limits, direction, rank, a.limit)?;
+        let engine = match a.engine {
+            EngineArg::Sieve => EngineKind::Sieve,
+            EngineArg::Exhaustive => EngineKind::Exhaustive,
+        };
+        Ok(SearchJob {
+            problem,
+            engine,
+            print: a.print,
+        })
+    }
+}
+
+/// Run `gearsieve search`.
+pub fn run(args: SearchArgs) -> anyhow::Result<i32> {
+    let job = SearchJob::try_from(args)?;
+    let bar = Bar::new(job.print.quiet);
+    let progress = |p| bar.update(p);
+    let options = RunOptions {
+        progress: Some(&progress),
+        cancel: Some(&super::CANCEL),
+    };
+    let outcome = super::with_threads(job.print.threads.map(usize::from), || {
+        gearsieve::search(&job.problem, job.engine, &options)
+    })?;
+    bar.finish();
+    let report = Report {
+        problem: &job.problem,
+        outcome: &outcome,
+    };
+    finish(&report, &job.print)
+}
+
+/// Render, write, and choose the exit status; shared by the commands that print a search.
+pub fn finish(report: &Report, print: &PrintArgs) -> anyhow::Result<i32> {
+    let mut buf = Vec::new();
+    render(print.format.into(), report, &mut buf)?;
+    if !super::output::emit(print.output.as_deref(), &buf)? {
+        return Ok(EXIT_OK);
+    }
+    let o = report.outcome;
+    if !o.complete {
+        eprintln!("gearsieve: interrupted; the trains above are the best found so far and the count is a lower bound");
+        return Ok(EXIT_INTERRUPTED);
+    }
+    if o.count == 0 {
+        eprintln!(
+            "gearsieve: no train meets every constraint. Try a looser --tol, more --stages, a wider \
+             --teeth range or more stock, or fewer per-stage limits."
+        );
+        return Ok(EXIT_NOTHING_FOUND);
+    }
+    Ok(EXIT_OK)
+}

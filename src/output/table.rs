@@ -1,0 +1,184 @@
+//! The table format: a short header saying what was searched, the count, the best trains in
+//! aligned columns, and the convention and caution as a footer.
+
+use std::io::{self, Write};
+
+use super::{describe_error, describe_tolerance, Report, CAUTION, CONVENTION};
+use crate::pool::fmt_num;
+use crate::train::Train;
+
+/// Write the report as a table for people.
+pub fn write(report: &Report, w: &mut dyn Write) -> io::Result<()> {
+    let p = report.problem;
+    let o = report.outcome;
+    let t = &p.target;
+    let exact = t.ratio.to_string();
+    if exact == t.text {
+        writeln!(
+            w,
+            "Target ratio {}, tolerance {}",
+            t.text,
+            describe_tolerance(t.tolerance.to_f64())
+        )?;
+    } else {
+        writeln!(
+            w,
+            "Target ratio {} (= {} ≈ {}), tolerance {}",
+            t.text,
+            exact,
+            fmt_value(t.ratio.to_f64()),
+            describe_tolerance(t.tolerance.to_f64())
+        )?;
+    }
+    writeln!(w, "Gears: {}", p.pool.describe())?;
+    let counts: Vec<String> = p.stage_counts().iter().map(|n| n.to_string()).collect();
+    writeln!(
+        w,
+        "Stages: {} ({} allowed stage pairings)",
+        counts.join(", "),
+        o.stage_options
+    )?;
+    writeln!(w)?;
+    let keys: Vec<&str> = p.rank.iter().map(|k| k.name()).collect();
+    let status = if o.complete {
+        ""
+    } else {
+        "INCOMPLETE (interrupted): at least "
+    };
+    match o.count {
+        0 => writeln!(w, "{status}No train meets every constraint.")?,
+        1 => writeln!(w, "{status}1 train meets every constraint.")?,
+        n => writeln!(
+            w,
+            "{status}{} trains meet every constraint; {} by {}:",
+            group_thousands(n),
+            if o.trains.len() as u64 == n {
+                "all listed".to_string()
+            } else {
+                format!("the best {} listed", o.trains.len())
+            },
+            keys.join(", then ")
+        )?,
+    }
+    if !o.trains.is_empty() {
+        writeln!(w)?;
+        let rows: Vec<[String; 6]> = o
+            .trains
+            .iter()
+            .enumerate()
+            .map(|(i, tr)| {
+                [
+                    (i + 1).to_string(),
+                    tr.ratio.to_string(),
+                    describe_error(&tr.error),
+                    tr.direction().as_str().to_string(),
+                    tr.size().to_string(),
+                    stages_text(tr),
+                ]
+            })
+            .collect();
+        let head = [
+            "#",
+            "ratio",
+            "error",
+            "output",
+            "teeth",
+            "stages: driver→driven (centre distance mm)",
+        ];
+        let mut width = head.map(|h| h.chars().count());
+        for r in &rows {
+            for (c, cell) in r.iter().enumerate() {
+                width[c] = width[c].max(cell.chars().count());
+            }
+        }
+        let line = |cells: &[String; 6]| {
+            format!(
+                "{:>w0$}  {:<w1$}  {:>w2$}  {:<w3$}  {:>w4$}  {}",
+                cells[0],
+                cells[1],
+                cells[2],
+                cells[3],
+                cells[4],
+                cells[5],
+                w0 = width[0],
+                w1 = width[1],
+                w2 = width[2],
+                w3 = width[3],
+                w4 = width[4]
+            )
+        };
+        writeln!(w, "{}", line(&head.map(String::from)).trim_end())?;
+        for r in &rows {
+            writeln!(w, "{}", line(r).trim_end())?;
+        }
+    }
+    writeln!(w)?;
+    writeln!(w, "{CONVENTION}.")?;
+    writeln!(w, "{CAUTION}")?;
+    Ok(())
+}
+
+/// `20→75 (47.5)  12→120 (66)`; module shown per stage when the train mixes modules; labels in
+/// brackets when the stock has them.
+fn stages_text(t: &Train) -> String {
+    let mixed = t.stages.windows(2).any(|w| {
+        w[0].module_mm != w[1].module_mm || w[0].pressure_angle_deg != w[1].pressure_angle_deg
+    });
+    t.stages
+        .iter()
+        .map(|s| {
+            let label = |l: &Vec<String>| {
+                if l.is_empty() {
+                    String::new()
+                } else {
+                    format!("[{}]", l.join("/"))
+                }
+            };
+            let module = if mixed {
+                format!("m{} ", fmt_num(s.module_mm))
+            } else {
+                String::new()
+            };
+            format!(
+                "{module}{}{}→{}{} ({})",
+                s.driver.teeth,
+                label(&s.driver.labels),
+                s.driven.teeth,
+                label(&s.driven.labels),
+                fmt_num(s.centre_distance_mm())
+            )
+        })
+        .collect::<Vec<_>>()
+        .join("  ")
+}
+
+fn fmt_value(v: f64) -> String {
+    let s = format!("{v:.10}");
+    s.trim_end_matches('0').trim_end_matches('.').to_string()
+}
+
+/// `1234567` → `1,234,567`.
+pub fn group_thousands(n: u64) -> String {
+    let s = n.to_string();
+    let mut out = String::new();
+    for (i, c) in s.chars().enumerate() {
+        if i > 0 && (s.len() - i) % 3 == 0 {
+            out.push(',');
+        }
+        out.push(c);
+    }
+    out
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn thousands() {
+        assert_eq!(group_thousands(0), "0");
+        assert_eq!(group_thousands(999), "999");
+        assert_eq!(group_thousands(1000), "1,000");
+        assert_eq!(group_thousands(1234567), "1,234,567");
+    }
+}
