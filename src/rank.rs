@@ -40,19 +40,20 @@ pub const DEFAULT_RANK: [RankKey; 3] = [RankKey::Error, RankKey::Meshes, RankKey
 pub fn parse_rank(text: &str, flag: &str) -> Result<Vec<RankKey>> {
     let mut keys = Vec::new();
     for part in text.split(',').map(str::trim) {
-        let key =
-            match part {
-                "error" => RankKey::Error,
-                "meshes" => RankKey::Meshes,
-                "size" => RankKey::Size,
-                "span" => RankKey::Span,
-                _ => return Err(Error::flag(
+        let key = match part {
+            "error" => RankKey::Error,
+            "meshes" => RankKey::Meshes,
+            "size" => RankKey::Size,
+            "span" => RankKey::Span,
+            _ => {
+                return Err(Error::flag(
                     flag,
                     format!(
                         "unknown key \"{part}\"; wanted a comma list of error, meshes, size, span"
                     ),
-                )),
-            };
+                ))
+            }
+        };
         if keys.contains(&key) {
             return Err(Error::flag(flag, format!("key \"{part}\" is given twice")));
         }

@@ -69,8 +69,8 @@ impl Walk<'_, '_> {
         if k == 1 {
             let (lo, hi) = (self.space.lo / prefix, self.space.hi / prefix);
             let from = start + v[start..].partition_point(|&x| x < lo);
-            for i in from..v.len() {
-                if v[i] > hi {
+            for (i, &r) in v.iter().enumerate().skip(from) {
+                if r > hi {
                     break;
                 }
                 if self.stock.take(self.space, i) {
@@ -86,8 +86,7 @@ impl Walk<'_, '_> {
         }
         let need = self.space.lo / (prefix * self.vmax.powi(k - 1));
         let from = start + v[start..].partition_point(|&x| x < need);
-        for i in from..v.len() {
-            let r = v[i];
+        for (i, &r) in v.iter().enumerate().skip(from) {
             if prefix * r.powi(k) > self.space.hi {
                 break;
             }
