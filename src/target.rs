@@ -68,11 +68,11 @@ pub fn parse_ratio(text: &str, flag: &str) -> Result<Ratio> {
         (t, None, ' ')
     };
     let bad = |why: &str| Error::flag(flag, format!("\"{t}\" {why}; {wanted}"));
-    let a = parse_decimal(a.trim()).map_err(|why| bad(why))?;
+    let a = parse_decimal(a.trim()).map_err(&bad)?;
     let value = match b {
         None => a,
         Some(b) => {
-            let b = parse_decimal(b.trim()).map_err(|why| bad(why))?;
+            let b = parse_decimal(b.trim()).map_err(&bad)?;
             if b.0 == 0 {
                 return Err(bad(&format!("divides by zero after '{sep}'")));
             }
@@ -122,7 +122,7 @@ pub fn parse_tolerance(text: &str, flag: &str) -> Result<Ratio> {
     if mantissa.starts_with('-') {
         return Err(bad("is negative"));
     }
-    let (mut num, mut den) = parse_decimal(mantissa).map_err(|why| bad(why))?;
+    let (mut num, mut den) = parse_decimal(mantissa).map_err(&bad)?;
     let pow = 10u128.pow(exponent.unsigned_abs());
     let overflow = || bad("has too many digits to hold exactly");
     if exponent >= 0 {
