@@ -104,13 +104,23 @@ pub struct SearchArgs {
     #[arg(long, value_name = "FILE")]
     pub stock: Vec<PathBuf>,
     /// Module in mm for --teeth (default 1), or for catalogue rows that give none.
-    #[arg(long, value_name = "MM", conflicts_with = "diametral_pitch")]
+    #[arg(
+        long,
+        value_name = "MM",
+        conflicts_with = "diametral_pitch",
+        allow_negative_numbers = true
+    )]
     pub module: Option<f64>,
     /// Diametral pitch (teeth per inch of pitch diameter) instead of a module: m = 25.4 / P.
-    #[arg(long, value_name = "P")]
+    #[arg(long, value_name = "P", allow_negative_numbers = true)]
     pub diametral_pitch: Option<f64>,
     /// Pressure angle in degrees for --teeth, and for catalogue rows that give none.
-    #[arg(long, value_name = "DEG", default_value_t = 20.0)]
+    #[arg(
+        long,
+        value_name = "DEG",
+        default_value_t = 20.0,
+        allow_negative_numbers = true
+    )]
     pub pressure_angle: f64,
     /// Allowed driver teeth per stage (e.g. clock pinions 6..12).
     #[arg(long, value_name = "LO..HI")]

@@ -1,0 +1,37 @@
+//! Mesh geometry of external involute spur gears: the ISO 21771 relations between module,
+//! pressure angle, tooth counts, profile shift and centre distance, with the checks that tell
+//! whether a pair would run (undercut, pointed tips, interference, contact ratio).
+//!
+//! Pure arithmetic: nothing here prints, parses or does I/O, and nothing depends on the rest of
+//! the crate except that a [`MeshDefect`] converts into the crate's error. It does not choose
+//! gears or trains; the search asks it about one pair at a time.
+//!
+//! - [`involute`]: `inv α = tan α − α` and its inverse, to full double precision.
+//! - [`system`]: the [`ToothSystem`] (module, pressure angle, [`RackProfile`]) and one gear's
+//!   circles, undercut limit and tooth thickness.
+//! - [`pair`]: centre distance, working pressure angle, shift sum and its split between the
+//!   gears, tip shortening, contact ratio, backlash.
+//! - [`mesh`]: a whole [`MeshGeometry`] from a [`Mounting`], and [`shift_for_centre_distance`]
+//!   for a search.
+//! - [`check`]: [`MeshLimits`], [`MeshDefect`] and [`check_mesh`].
+//! - [`modules`]: DIN 780 module series and diametral pitch.
+//!
+//! Units: lengths in mm, angles in degrees at the interface (radians where the name says
+//! `_rad`), profile shift, tip shortening and rack dimensions in modules. Gears are external
+//! spur gears; the basic rack defaults to ISO 53 type A.
+
+pub mod check;
+pub mod involute;
+pub mod mesh;
+pub mod modules;
+pub mod pair;
+pub mod system;
+
+pub use check::{check_mesh, GearRef, MeshDefect, MeshLimits, Role};
+pub use involute::{inv, inv_inverse};
+pub use mesh::{mesh_geometry, shift_for_centre_distance, MeshGeometry, Mounting};
+pub use modules::{
+    is_standard_module, module_from_diametral_pitch, Series, MM_PER_INCH, MODULE_SERIES_I,
+    MODULE_SERIES_II,
+};
+pub use system::{RackProfile, ToothSystem};

@@ -1,0 +1,221 @@
+//! Property tests: on small random problems the sieve engine finds exactly the trains the
+//! exhaustive engine finds, with the same count and order; every reported train's ratio,
+//! recomputed from its teeth, is what it claims and meets every constraint; stock quantities are
+//! never exceeded.
+
+use std::collections::HashMap;
+
+use gearsieve::pool::{Pool, StockGear};
+use gearsieve::range::{FloatRange, IntRange, RatioRange};
+use gearsieve::rank::{RankKey, DEFAULT_RANK};
+use gearsieve::rational::{Ratio, RelError};
+use gearsieve::target::Target;
+use gearsieve::train::{Direction, Train};
+use gearsieve::{search, EngineKind, Outcome, Problem, RunOptions, StageLimits};
+use proptest::prelude::*;
+
+fn run(p: &Problem, e: EngineKind) -> Outcome {
+    search(p, e, &RunOptions::default())
+}
+
+/// Check everything a reported train claims, from its teeth alone.
+fn check_train(p: &Problem, t: &Train) {
+    assert_eq!(t.ratio_from_teeth(), t.ratio, "ratio recomputed from teeth");
+    let e = RelError::of(t.ratio.num(), t.ratio.den(), p.target.ratio);
+    assert_eq!(e.cmp_abs(&t.error), std::cmp::Ordering::Equal);
+    assert!(
+        e.within(p.target.tolerance),
+        "train {} outside tolerance",
+        t.ratio
+    );
+    assert!(p.stages.contains(t.meshes() as u32));
+    if let Some(d) = p.direction {
+        assert_eq!(t.direction(), d);
+    }
+    for s in &t.stages {
+        assert_ne!(s.driver.teeth, s.driven.teeth, "a 1:1 stage is never used");
+        let l = &p.limits;
+        assert!(l.driver_teeth.is_none_or(|r| r.contains(s.driver.teeth)));
+        assert!(l.driven_teeth.is_none_or(|r| r.contains(s.driven.teeth)));
+        assert!(l
+            .stage_ratio
+            .is_none_or(|r| r.contains(s.driven.teeth as u64, s.driver.teeth as u64)));
+        assert!(l
+            .centre_distance_mm
+            .is_none_or(|r| r.contains(s.centre_distance_mm(), 1e-9)));
+        assert!(p
+            .pool
+            .groups
+            .iter()
+            .any(|g| g.meshes_with(s.module_mm, s.pressure_angle_deg)));
+    }
+    if p.pool.from_stock {
+        let mut used: HashMap<(u32, u64), u32> = HashMap::new();
+        for s in &t.stages {
+            for z in [s.driver.teeth, s.driven.teeth] {
+                *used.entry((z, s.module_mm.to_bits())).or_default() += 1;
+            }
+        }
+        for ((z, m), n) in used {
+            let have: u32 = p
+                .pool
+                .gears
+                .iter()
+                .filter(|g| g.teeth == z && p.pool.groups[g.group].module_mm.to_bits() == m)
+                .map(|g| g.quantity.unwrap_or(0))
+                .sum();
+            assert!(n <= have, "{n} of the {z}-tooth gear used, {have} on hand");
+        }
+    }
+}
+
+fn problem_strategy() -> impl Strategy<Value = Problem> {
+    // Targets built as ratios of tooth products, so exact and near hits are common.
+    let target = (
+        (6u64..40, 6u64..40),
+        (6u64..40, 1u64..40),
+        prop_oneof![1 => Just(0u64), 3 => 1u64..4000],
+    )
+        .prop_map(|((a, b), (c, e), tol)| (a * b, c * e, tol));
+    let pool = prop_oneof![
+        (6u32..30, 2u32..10).prop_map(|(lo, w)| Pool::to_cut(
+            IntRange { lo, hi: lo + w },
+            1.0,
+            20.0,
+            None
+        )
+        .unwrap()),
+        prop::collection::vec(
+            (
+                6u32..40,
+                prop_oneof![3 => Just(1.0), 1 => Just(1.5)],
+                1u32..4
+            ),
+            4..16
+        )
+        .prop_filter_map("pool must mesh", |gears| {
+            let stock: Vec<StockGear> = gears
+                .into_iter()
+                .map(|(teeth, module_mm, quantity)| StockGear {
+                    teeth,
+                    module_mm,
+                    diametral_pitch: None,
+                    pressure_angle_deg: 20.0,
+                    quantity,
+                    label: String::new(),
+                })
+                .collect();
+            Pool::from_stock(&stock, "random").ok()
+        }),
+    ];
+    let stages = (1u32..=3, 0u32..=2).prop_map(|(lo, extra)| IntRange {
+        lo,
+        hi: (lo + extra).min(3),
+    });
+    let limits = (
+        proptest::option::weighted(
+            0.3,
+            (6u32..20, 0u32..15).prop_map(|(lo, w)| IntRange { lo, hi: lo + w }),
+        ),
+        proptest::option::weighted(
+            0.3,
+            (2u64..6, 2u64..8).prop_map(|(a, b)| RatioRange {
+                lo: Some(Ratio::new(1, a as u128).unwrap()),
+                hi: Some(Ratio::new(b as u128, 1).unwrap()),
+            }),
+        ),
+        proptest::option::weighted(
+            0.3,
+            (5.0f64..20.0, 0.0f64..20.0).prop_map(|(lo, w)| FloatRange { lo, hi: lo + w }),
+        ),
+    );
+    let direction = proptest::option::weighted(
+        0.3,
+        prop_oneof![Just(Direction::Same), Just(Direction::Opposite)],
+    );
+    let rank = prop_oneof![
+        Just(DEFAULT_RANK.to_vec()),
+        Just(vec![RankKey::Size, RankKey::Error]),
+        Just(vec![RankKey::Span]),
+    ];
+    (target, pool, stages, limits, direction, rank, 0usize..8).prop_filter_map(
+        "direction must allow a stage count",
+        |((n, d, tol_ppm), pool, stages, (driver, ratio, cd), direction, rank, limit)| {
+            let target = Target::exact(
+                format!("{n}/{d}"),
+                Ratio::new(n as u128, d as u128)?,
+                Ratio::new(tol_ppm as u128 * 50, 1_000_000)?,
+            );
+            let limits = StageLimits {
+                driver_teeth: driver,
+                driven_teeth: None,
+                stage_ratio: ratio,
+                centre_distance_mm: cd,
+            };
+            Problem::new(target, pool, stages, limits, direction, rank, limit).ok()
+        },
+    )
+}
+
+proptest! {
+    #![proptest_config(ProptestConfig { cases: 200, ..ProptestConfig::default() })]
+
+    #[test]
+    fn sieve_equals_exhaustive(p in problem_strategy()) {
+        let fast = run(&p, EngineKind::Sieve);
+        let slow = run(&p, EngineKind::Exhaustive);
+        prop_assert_eq!(fast.count, slow.count);
+        if std::env::var_os("GEARSIEVE_PROP_STATS").is_some() {
+            eprintln!("count {} stages {} target {} tol {} n {} limits {:?} stock {}", fast.count, fast.stage_options, p.target.ratio, p.target.tolerance, p.stages, p.limits, p.pool.from_stock);
+        }
+        prop_assert_eq!(&fast.trains, &slow.trains);
+        prop_assert!(fast.trains.len() <= p.limit);
+        for t in &fast.trains {
+            check_train(&p, t);
+        }
+    }
+
+    #[test]
+    fn every_listed_train_is_what_it_claims(p in problem_strategy()) {
+        let mut p = p;
+        p.limit = 1000;
+        let out = run(&p, EngineKind::Sieve);
+        prop_assert!(out.trains.len() as u64 == out.count.min(1000));
+        for t in &out.trains {
+            check_train(&p, t);
+        }
+        // Listed once each: no two trains are the same multiset of stages.
+        let mut seen = std::collections::HashSet::new();
+        for t in &out.trains {
+            let key: Vec<(u32, u32, u64)> = t.stages.iter().map(|s| (s.driver.teeth, s.driven.teeth, s.module_mm.to_bits())).collect();
+            prop_assert!(seen.insert(key));
+        }
+    }
+}
+
+#[test]
+fn results_do_not_depend_on_thread_count() {
+    let pool = Pool::to_cut(IntRange { lo: 12, hi: 80 }, 1.0, 20.0, None).unwrap();
+    let target = Target::parse("29.530588", "100ppm", "--ratio", "--tol").unwrap();
+    let p = Problem::new(
+        target,
+        pool,
+        IntRange { lo: 1, hi: 3 },
+        StageLimits::default(),
+        None,
+        DEFAULT_RANK.to_vec(),
+        50,
+    )
+    .unwrap();
+    let with = |n| {
+        rayon::ThreadPoolBuilder::new()
+            .num_threads(n)
+            .build()
+            .unwrap()
+            .install(|| run(&p, EngineKind::Sieve))
+    };
+    let one = with(1);
+    assert!(one.count > 50);
+    assert_eq!(one, with(2));
+    assert_eq!(one, with(3));
+}
