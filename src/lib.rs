@@ -6,6 +6,25 @@
 //! [`engine::search`], and render the [`engine::Outcome`] with one of the [`output`] sinks.
 //! Nothing here parses arguments, prints or touches the terminal.
 //!
+//! ```
+//! use gearsieve::pool::Pool;
+//! use gearsieve::range::IntRange;
+//! use gearsieve::rank::DEFAULT_RANK;
+//! use gearsieve::target::Target;
+//! use gearsieve::{search, EngineKind, Problem, RunOptions, StageLimits};
+//!
+//! // 37.5:1 within 10 ppm from gears of 12..60 teeth, module 1, two or three stages.
+//! let target = Target::parse("37.5:1", "10ppm", "--ratio", "--tol")?;
+//! let pool = Pool::to_cut(IntRange { lo: 12, hi: 60 }, 1.0, 20.0, None)?;
+//! let stages = IntRange { lo: 2, hi: 3 };
+//! let problem = Problem::new(target, pool, stages, StageLimits::default(), None, DEFAULT_RANK.to_vec(), 5)?;
+//! let found = search(&problem, EngineKind::Sieve, &RunOptions::default());
+//! let best = &found.trains[0];
+//! assert!(best.error.is_exact());
+//! assert_eq!(best.ratio_from_teeth().to_string(), "75/2");
+//! # Ok::<(), gearsieve::Error>(())
+//! ```
+//!
 //! Ratio convention (ISO 1122-1): `i` = input turns per output turn = product of driven teeth /
 //! product of driver teeth.
 
@@ -23,4 +42,4 @@ pub mod train;
 
 pub use engine::{search, EngineKind, Outcome, RunOptions};
 pub use error::{Error, Result};
-pub use problem::{Problem, StageLimits};
+pub use problem::{Problem, StageLimits, TrainCheck};

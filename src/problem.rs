@@ -2,12 +2,41 @@
 //! per-stage limits, the required direction, how to rank and how many to list. The command line
 //! builds one of these; the engines only read it.
 
+use std::fmt;
+use std::sync::Arc;
+
 use crate::error::{Error, Result};
 use crate::pool::{Pool, MAX_STAGES};
 use crate::range::{FloatRange, IntRange, RatioRange};
 use crate::rank::RankKey;
 use crate::target::Target;
-use crate::train::Direction;
+use crate::train::{Direction, Train};
+
+/// A train-level requirement beyond the ratio and the per-stage limits (a lathe's banjo
+/// geometry, a coaxial clock train…). Called only for trains already within tolerance and
+/// stock; `true` keeps the train. Must be a pure function of the train so results stay
+/// deterministic.
+#[derive(Clone)]
+pub struct TrainCheck(pub Arc<dyn Fn(&Train) -> bool + Send + Sync>);
+
+impl TrainCheck {
+    /// Wrap a predicate.
+    pub fn new(f: impl Fn(&Train) -> bool + Send + Sync + 'static) -> TrainCheck {
+        TrainCheck(Arc::new(f))
+    }
+}
+
+impl fmt::Debug for TrainCheck {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        f.write_str("TrainCheck(..)")
+    }
+}
+
+impl PartialEq for TrainCheck {
+    fn eq(&self, other: &Self) -> bool {
+        Arc::ptr_eq(&self.0, &other.0)
+    }
+}
 
 /// Limits every stage must meet.
 #[derive(Debug, Clone, Default, PartialEq)]
@@ -39,6 +68,8 @@ pub struct Problem {
     pub rank: Vec<RankKey>,
     /// How many trains to list (all are counted).
     pub limit: usize,
+    /// Extra train-level requirement, if any (set after [`Problem::new`]).
+    pub train_check: Option<TrainCheck>,
 }
 
 impl Problem {
@@ -72,6 +103,7 @@ impl Problem {
             direction,
             rank,
             limit,
+            train_check: None,
         };
         if p.stage_counts().is_empty() {
             return Err(Error::flag(

@@ -85,7 +85,8 @@ pub fn standard_centre_distance_mm(module_mm: f64, z1: u32, z2: u32) -> f64 {
 /// A compound train found by a search, with its ratio judged against the target.
 #[derive(Debug, Clone, PartialEq)]
 pub struct Train {
-    /// Stages from input to output, in the canonical order (ascending stage ratio).
+    /// Stages from input to output, in the canonical order: finer module first, then ascending
+    /// stage ratio, driver teeth, driven teeth.
     pub stages: Vec<Stage>,
     /// The train's ratio, reduced.
     pub ratio: Ratio,
