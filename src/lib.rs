@@ -31,6 +31,7 @@
 pub mod catalog;
 pub mod engine;
 pub mod error;
+pub mod geometry;
 pub mod output;
 pub mod pool;
 pub mod problem;

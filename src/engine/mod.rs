@@ -211,7 +211,11 @@ impl<'p> SearchSpace<'p> {
             .collect();
         // Shown finer module first (toward the input, as reducers are built), then in table
         // order: ascending stage ratio. Stable, so one multiset always prints one way.
-        stages.sort_by(|a, b| a.module_mm.total_cmp(&b.module_mm).then(a.pressure_angle_deg.total_cmp(&b.pressure_angle_deg)));
+        stages.sort_by(|a, b| {
+            a.module_mm
+                .total_cmp(&b.module_mm)
+                .then(a.pressure_angle_deg.total_cmp(&b.pressure_angle_deg))
+        });
         let (mut p, mut q) = (1u128, 1u128);
         for &i in c.stage_indices() {
             p *= self.stages[i as usize].driven_teeth as u128;
