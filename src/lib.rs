@@ -43,4 +43,4 @@ pub mod train;
 
 pub use engine::{search, EngineKind, Outcome, RunOptions};
 pub use error::{Error, Result};
-pub use problem::{Problem, StageLimits, TrainCheck};
+pub use problem::{MeshRules, Problem, StageLimits, TrainCheck};

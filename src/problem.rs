@@ -6,6 +6,7 @@ use std::fmt;
 use std::sync::Arc;
 
 use crate::error::{Error, Result};
+use crate::geometry::{MeshLimits, RackProfile};
 use crate::pool::{Pool, MAX_STAGES};
 use crate::range::{FloatRange, IntRange, RatioRange};
 use crate::rank::RankKey;
@@ -51,6 +52,47 @@ pub struct StageLimits {
     pub centre_distance_mm: Option<FloatRange>,
 }
 
+/// Default allowed profile shift sum `x1 + x2` per stage, in modules: a conservative range
+/// that keeps working pressure angles near the rack's and tips from running thin.
+pub const DEFAULT_SHIFT_SUM: (f64, f64) = (-0.5, 1.0);
+
+/// Default tolerance on a fixed centre distance, mm: a stage whose standard centre distance is
+/// this close needs no profile shift.
+pub const DEFAULT_CENTRE_TOLERANCE_MM: f64 = 0.01;
+
+/// Mesh geometry rules. When a problem has them, every stage is worked out as an involute mesh
+/// (profile shifts split by the geometry module's rule) and kept only if it runs.
+#[derive(Debug, Clone, PartialEq)]
+pub struct MeshRules {
+    /// Basic rack both gears of every stage are cut with.
+    pub rack: RackProfile,
+    /// What a mesh must meet (contact ratio, tip thickness, undercut).
+    pub limits: MeshLimits,
+    /// Allowed profile shift sum `x1 + x2` per stage, in modules, `lo ≤ hi`.
+    pub shift_sum: (f64, f64),
+    /// Fixed working centre distance of every stage, mm, reached by profile shift.
+    pub centre_distance_mm: Option<f64>,
+    /// A stage whose standard centre distance is within this of the fixed one is left unshifted
+    /// (apart from the undercut split), mm.
+    pub centre_tolerance_mm: f64,
+    /// Input and output shafts on one axis: every stage at one working centre distance (a
+    /// reverted train), so only even stage counts qualify.
+    pub coaxial: bool,
+}
+
+impl Default for MeshRules {
+    fn default() -> Self {
+        MeshRules {
+            rack: RackProfile::default(),
+            limits: MeshLimits::default(),
+            shift_sum: DEFAULT_SHIFT_SUM,
+            centre_distance_mm: None,
+            centre_tolerance_mm: DEFAULT_CENTRE_TOLERANCE_MM,
+            coaxial: false,
+        }
+    }
+}
+
 /// A validated search problem.
 #[derive(Debug, Clone, PartialEq)]
 pub struct Problem {
@@ -70,6 +112,9 @@ pub struct Problem {
     pub limit: usize,
     /// Extra train-level requirement, if any (set after [`Problem::new`]).
     pub train_check: Option<TrainCheck>,
+    /// Mesh geometry rules, if meshes are to be worked out and checked (set with
+    /// [`Problem::with_mesh_rules`]).
+    pub mesh: Option<MeshRules>,
 }
 
 impl Problem {
@@ -104,6 +149,7 @@ impl Problem {
             rank,
             limit,
             train_check: None,
+            mesh: None,
         };
         if p.stage_counts().is_empty() {
             return Err(Error::flag(
@@ -119,13 +165,40 @@ impl Problem {
         Ok(p)
     }
 
-    /// The stage counts searched, ascending, after the direction requirement.
+    /// The stage counts searched, ascending, after the direction and coaxial requirements.
     pub fn stage_counts(&self) -> Vec<usize> {
+        let coaxial = self.mesh.as_ref().is_some_and(|m| m.coaxial);
         (self.stages.lo as usize..=self.stages.hi as usize)
-            .filter(|&n| {
-                self.direction
-                    .is_none_or(|d| Direction::after_meshes(n) == d)
-            })
+            .filter(|&n| self.direction.is_none_or(|d| Direction::after_meshes(n) == d))
+            .filter(|&n| !coaxial || n % 2 == 0)
             .collect()
+    }
+
+    /// Add mesh geometry rules, checking them against the rest of the problem.
+    pub fn with_mesh_rules(mut self, rules: MeshRules) -> Result<Problem> {
+        let (lo, hi) = rules.shift_sum;
+        if !(lo.is_finite() && hi.is_finite() && lo <= hi) {
+            return Err(Error::flag("--shift-sum", "wanted LO..HI in modules with LO ≤ HI, e.g. -0.5..1"));
+        }
+        if let Some(a) = rules.centre_distance_mm {
+            if !(a.is_finite() && a > 0.0) {
+                return Err(Error::flag("--centre-distance", format!("wanted a positive distance in mm, found {a}")));
+            }
+        }
+        if !(rules.centre_tolerance_mm.is_finite() && rules.centre_tolerance_mm >= 0.0) {
+            return Err(Error::flag("--centre-tol", "wanted a distance of 0 mm or more"));
+        }
+        let l = rules.limits;
+        if !(l.min_contact_ratio.is_finite() && l.min_contact_ratio >= 0.0) {
+            return Err(Error::flag("--min-contact-ratio", "wanted a number of 0 or more, e.g. 1.2"));
+        }
+        self.mesh = Some(rules);
+        if self.stage_counts().is_empty() {
+            return Err(Error::flag(
+                "--coaxial",
+                format!("a coaxial (reverted) train needs an even number of stages; none in {} qualifies", self.stages),
+            ));
+        }
+        Ok(self)
     }
 }

@@ -180,6 +180,24 @@ pub fn parse_float_range(text: &str, flag: &str, unit: &str) -> Result<FloatRang
     Ok(FloatRange { lo, hi })
 }
 
+/// Parse a signed range `LO..HI` of finite numbers (profile shift sums such as `-0.5..1`).
+pub fn parse_signed_range(text: &str, flag: &str, unit: &str) -> Result<(f64, f64)> {
+    let bad = |why: String| Error::flag(flag, format!("{why}; wanted LO..HI in {unit} with LO ≤ HI, e.g. -0.5..1"));
+    let (a, b) = split(text);
+    let b = b.ok_or_else(|| bad(format!("\"{}\" is not a range", text.trim())))?;
+    let num = |s: &str| -> Result<f64> {
+        s.parse::<f64>()
+            .ok()
+            .filter(|v| v.is_finite())
+            .ok_or_else(|| bad(format!("\"{s}\" is not a finite number")))
+    };
+    let (lo, hi) = (num(a)?, num(b)?);
+    if lo > hi {
+        return Err(bad(format!("\"{}\" is inverted (LO > HI)", text.trim())));
+    }
+    Ok((lo, hi))
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;
@@ -215,6 +233,14 @@ mod tests {
         assert!(open.contains(1, 1000) && !open.contains(61, 10));
         assert!(parse_ratio_range("6..1", "--stage-ratio").is_err());
         assert!(parse_ratio_range("..", "--stage-ratio").is_err());
+    }
+
+    #[test]
+    fn signed_ranges() {
+        assert_eq!(parse_signed_range("-0.5..1", "--shift-sum", "modules").unwrap(), (-0.5, 1.0));
+        for bad in ["", "1", "1..-1", "a..1", "-inf..1", "..1"] {
+            assert!(parse_signed_range(bad, "--shift-sum", "modules").is_err(), "{bad}");
+        }
     }
 
     #[test]

@@ -62,6 +62,9 @@ pub struct Stage {
     pub pressure_angle_deg: f64,
     /// Diametral pitch, when the gears were given in inch terms.
     pub diametral_pitch: Option<f64>,
+    /// The worked-out mesh (profile shifts, working centre distance, contact ratio…) when the
+    /// search checked geometry; gear 0 is the driver.
+    pub mesh: Option<crate::geometry::MeshGeometry>,
 }
 
 impl Stage {
@@ -147,6 +150,7 @@ mod tests {
             module_mm: 1.5,
             pressure_angle_deg: 20.0,
             diametral_pitch: None,
+            mesh: None,
         }
     }
 

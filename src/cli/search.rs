@@ -7,7 +7,9 @@ use clap::{Args, ValueEnum};
 use gearsieve::catalog::{self, CatalogueDefaults};
 use gearsieve::output::{render, Format, Report};
 use gearsieve::pool::{Pool, MAX_STAGES, MAX_TEETH, MIN_TEETH};
-use gearsieve::range::{parse_float_range, parse_int_range, parse_ratio_range};
+use gearsieve::geometry::MeshLimits;
+use gearsieve::problem::MeshRules;
+use gearsieve::range::{parse_float_range, parse_int_range, parse_ratio_range, parse_signed_range};
 use gearsieve::rank::parse_rank;
 use gearsieve::target::Target;
 use gearsieve::train::Direction;
@@ -94,11 +96,11 @@ pub struct SearchArgs {
     )]
     pub tol: String,
     /// Stages (meshes): N or A..B inclusive. Fewer meshes rank first among equal errors.
-    #[arg(long, value_name = "N|A..B", default_value = "1..3")]
+    #[arg(long, value_name = "N|A..B", default_value = "1..3", allow_hyphen_values = true)]
     pub stages: String,
     /// Gears to be cut: every tooth count in LO..HI, any number of each [default: 12..120
     /// when no --stock is given].
-    #[arg(long, value_name = "LO..HI", conflicts_with = "stock")]
+    #[arg(long, value_name = "LO..HI", conflicts_with = "stock", allow_hyphen_values = true)]
     pub teeth: Option<String>,
     /// Gears on hand, from a CSV catalogue (repeatable). Each gear is used at most its quantity.
     #[arg(long, value_name = "FILE")]
@@ -123,17 +125,42 @@ pub struct SearchArgs {
     )]
     pub pressure_angle: f64,
     /// Allowed driver teeth per stage (e.g. clock pinions 6..12).
-    #[arg(long, value_name = "LO..HI")]
+    #[arg(long, value_name = "LO..HI", allow_hyphen_values = true)]
     pub driver_teeth: Option<String>,
     /// Allowed driven teeth per stage.
-    #[arg(long, value_name = "LO..HI")]
+    #[arg(long, value_name = "LO..HI", allow_hyphen_values = true)]
     pub driven_teeth: Option<String>,
     /// Allowed ratio of each stage, driven/driver: e.g. 1..6, 1/6..6 or ..6.
-    #[arg(long, value_name = "LO..HI")]
+    #[arg(long, value_name = "LO..HI", allow_hyphen_values = true)]
     pub stage_ratio: Option<String>,
-    /// Allowed standard centre distance of each stage, mm: LO..HI.
-    #[arg(long, value_name = "LO..HI")]
+    /// Centre distance of each stage, mm. A range LO..HI limits the standard centre distance;
+    /// a single value fixes the working centre distance, reached by profile shift (and turns on
+    /// the mesh checks).
+    #[arg(long, value_name = "A|LO..HI", allow_hyphen_values = true)]
     pub centre_distance: Option<String>,
+    /// How close a standard centre distance must be to a fixed one to need no shift, mm.
+    #[arg(long, value_name = "MM", default_value_t = gearsieve::problem::DEFAULT_CENTRE_TOLERANCE_MM)]
+    pub centre_tol: f64,
+    /// Allowed profile shift sum x1+x2 per stage, in modules [default: -0.5..1].
+    #[arg(long, value_name = "LO..HI", allow_hyphen_values = true)]
+    pub shift_sum: Option<String>,
+    /// Work out every mesh (profile shift split against undercut, contact ratio, tip
+    /// thickness) and keep only stages that run. On whenever a geometry flag is given.
+    #[arg(long)]
+    pub check_meshes: bool,
+    /// Least transverse contact ratio of a mesh [default: 1.2, common practice].
+    #[arg(long, value_name = "X", allow_negative_numbers = true)]
+    pub min_contact_ratio: Option<f64>,
+    /// Accept undercut gears (small clock pinions are often cut so).
+    #[arg(long)]
+    pub allow_undercut: bool,
+    /// Input and output shafts on one axis (a reverted train): every stage at one working
+    /// centre distance, reached by profile shift; modules may differ.
+    #[arg(long)]
+    pub coaxial: bool,
+    /// Say why stage pairings were left out by the mesh checks.
+    #[arg(long)]
+    pub explain: bool,
     /// Required output direction relative to the input.
     #[arg(long, value_enum)]
     pub direction: Option<DirectionArg>,
@@ -156,6 +183,7 @@ pub struct SearchJob {
     problem: Problem,
     engine: EngineKind,
     print: PrintArgs,
+    explain: bool,
 }
 
 /// Load every `--stock` file into one pool.
@@ -206,6 +234,12 @@ impl TryFrom<SearchArgs> for SearchJob {
                 .map(|s| parse_int_range(s, flag, "teeth", MIN_TEETH, MAX_TEETH))
                 .transpose()
         };
+        let centre = a
+            .centre_distance
+            .as_deref()
+            .map(|s| parse_float_range(s, "--centre-distance", "mm"))
+            .transpose()?;
+        let fixed_centre = centre.filter(|c| c.is_single()).map(|c| c.lo);
         let limits = StageLimits {
             driver_teeth: tooth_range(&a.driver_teeth, "--driver-teeth")?,
             driven_teeth: tooth_range(&a.driven_teeth, "--driven-teeth")?,
@@ -214,11 +248,7 @@ impl TryFrom<SearchArgs> for SearchJob {
                 .as_deref()
                 .map(|s| parse_ratio_range(s, "--stage-ratio"))
                 .transpose()?,
-            centre_distance_mm: a
-                .centre_distance
-                .as_deref()
-                .map(|s| parse_float_range(s, "--centre-distance", "mm"))
-                .transpose()?,
+            centre_distance_mm: centre.filter(|c| !c.is_single()),
         };
         let stages = parse_int_range(&a.stages, "--stages", "stages", 1, MAX_STAGES as u32)?;
         let direction = a.direction.map(|d| match d {
@@ -226,7 +256,31 @@ impl TryFrom<SearchArgs> for SearchJob {
             DirectionArg::Opposite => Direction::Opposite,
         });
         let rank = parse_rank(&a.rank, "--rank")?;
-        let problem = Problem::new(target, pool, stages, limits, direction, rank, a.limit)?;
+        let mut problem = Problem::new(target, pool, stages, limits, direction, rank, a.limit)?;
+        let geometry = a.check_meshes
+            || a.coaxial
+            || a.allow_undercut
+            || fixed_centre.is_some()
+            || a.shift_sum.is_some()
+            || a.min_contact_ratio.is_some();
+        if geometry {
+            let mut rules = MeshRules {
+                centre_distance_mm: fixed_centre,
+                centre_tolerance_mm: a.centre_tol,
+                coaxial: a.coaxial,
+                limits: MeshLimits { allow_undercut: a.allow_undercut, ..MeshLimits::default() },
+                ..MeshRules::default()
+            };
+            if let Some(s) = &a.shift_sum {
+                rules.shift_sum = parse_signed_range(s, "--shift-sum", "modules")?;
+            }
+            if let Some(c) = a.min_contact_ratio {
+                rules.limits.min_contact_ratio = c;
+            }
+            problem = problem.with_mesh_rules(rules)?;
+        } else if a.explain {
+            return Err(Error::flag("--explain", "explains the mesh checks; give --check-meshes, a fixed --centre-distance or --coaxial too"));
+        }
         let engine = match a.engine {
             EngineArg::Sieve => EngineKind::Sieve,
             EngineArg::Exhaustive => EngineKind::Exhaustive,
@@ -235,6 +289,7 @@ impl TryFrom<SearchArgs> for SearchJob {
             problem,
             engine,
             print: a.print,
+            explain: a.explain,
         })
     }
 }
@@ -255,6 +310,7 @@ pub fn run(args: SearchArgs) -> anyhow::Result<i32> {
     let report = Report {
         problem: &job.problem,
         outcome: &outcome,
+        explain: job.explain,
     };
     finish(&report, &job.print)
 }

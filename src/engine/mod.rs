@@ -14,8 +14,9 @@ use std::sync::atomic::{AtomicBool, AtomicU64, Ordering as AtomicOrdering};
 
 use rayon::prelude::*;
 
-use crate::pool::MAX_STAGES;
-use crate::problem::Problem;
+use crate::geometry::{check_mesh, mesh_geometry, shift_for_centre_distance, MeshDefect, MeshGeometry, Mounting, ToothSystem};
+use crate::pool::{MeshGroup, MAX_STAGES};
+use crate::problem::{MeshRules, Problem};
 use crate::rank::{Candidate, TopK};
 use crate::rational::{Ratio, RelError};
 use crate::train::{Gear, Stage, Train};
@@ -33,6 +34,41 @@ pub struct StageDef {
     pub driven_teeth: u32,
     /// driven / driver as `f64` (for pruning only).
     pub value: f64,
+    /// The worked-out mesh, when the problem checks geometry at a known centre distance.
+    pub mesh: Option<MeshGeometry>,
+}
+
+/// Why some stage pairings or trains were left out, for `--explain`.
+#[derive(Debug, Clone, PartialEq, Eq)]
+pub struct Rejection {
+    /// The kind of defect, e.g. `Undercut`.
+    pub kind: String,
+    /// How many stage pairings (or trains, for coaxial fit) it removed.
+    pub count: u64,
+    /// The message for the first one, in shop words.
+    pub example: String,
+}
+
+fn defect_kind(d: &MeshDefect) -> String {
+    let dbg = format!("{d:?}");
+    dbg.split([' ', '{', '(']).next().unwrap_or("").to_string()
+}
+
+/// Work out one stage's mesh under `rules` at its known centre distance (the fixed one, or the
+/// standard one with the undercut split of a zero shift sum), and check it runs.
+fn stage_mesh(rules: &MeshRules, group: &MeshGroup, teeth: [u32; 2]) -> Result<MeshGeometry, MeshDefect> {
+    let sys = ToothSystem::new(group.module_mm, group.pressure_angle_deg, rules.rack)?;
+    let standard = sys.standard_centre_distance_mm(teeth);
+    let mesh = match rules.centre_distance_mm {
+        Some(a_w) if (a_w - standard).abs() > rules.centre_tolerance_mm => {
+            shift_for_centre_distance(&sys, teeth, a_w, &(rules.shift_sum.0..=rules.shift_sum.1))?
+        }
+        _ => mesh_geometry(&sys, teeth, Mounting::Shifted { shift: sys.split_shift_sum(teeth, 0.0) })?,
+    };
+    match check_mesh(&mesh, &rules.limits).first() {
+        Some(d) => Err(*d),
+        None => Ok(mesh),
+    }
 }
 
 /// Everything an engine needs, prepared once per search.
@@ -47,6 +83,9 @@ pub struct SearchSpace<'p> {
     pub lo: f64,
     /// Upper bound, widened a little above the exact bound.
     pub hi: f64,
+    /// Stage pairings left out by the mesh checks, by kind, most first.
+    pub rejected: Vec<Rejection>,
+    coaxial_misfits: AtomicU64,
     cancel: Option<&'p AtomicBool>,
 }
 
@@ -60,6 +99,9 @@ impl<'p> SearchSpace<'p> {
         let pool = &problem.pool;
         let lim = &problem.limits;
         let mut stages = Vec::new();
+        let mut rejected: Vec<Rejection> = Vec::new();
+        // Coaxial trains without a fixed distance find their common distance per train.
+        let per_stage_mesh = problem.mesh.as_ref().filter(|r| !r.coaxial || r.centre_distance_mm.is_some());
         for (i, a) in pool.gears.iter().enumerate() {
             if lim.driver_teeth.is_some_and(|r| !r.contains(a.teeth)) {
                 continue;
@@ -87,12 +129,27 @@ impl<'p> SearchSpace<'p> {
                         continue;
                     }
                 }
+                let mesh = match per_stage_mesh {
+                    None => None,
+                    Some(rules) => match stage_mesh(rules, &pool.groups[a.group], [a.teeth, b.teeth]) {
+                        Ok(m) => Some(m),
+                        Err(d) => {
+                            let kind = defect_kind(&d);
+                            match rejected.iter_mut().find(|r| r.kind == kind) {
+                                Some(r) => r.count += 1,
+                                None => rejected.push(Rejection { kind, count: 1, example: d.to_string() }),
+                            }
+                            continue;
+                        }
+                    },
+                };
                 stages.push(StageDef {
                     driver: i as u32,
                     driven: j as u32,
                     driver_teeth: a.teeth,
                     driven_teeth: b.teeth,
                     value: b.teeth as f64 / a.teeth as f64,
+                    mesh,
                 });
             }
         }
@@ -109,6 +166,7 @@ impl<'p> SearchSpace<'p> {
                         .then(gx.pressure_angle_deg.total_cmp(&gy.pressure_angle_deg))
                 })
         });
+        rejected.sort_by(|x, y| y.count.cmp(&x.count).then(x.kind.cmp(&y.kind)));
         let values = stages.iter().map(|s| s.value).collect();
         let r = problem.target.ratio.to_f64();
         let t = problem.target.tolerance.to_f64();
@@ -118,6 +176,8 @@ impl<'p> SearchSpace<'p> {
             values,
             lo: r * (1.0 - t) * (1.0 - FLOAT_MARGIN),
             hi: r * (1.0 + t) * (1.0 + FLOAT_MARGIN),
+            rejected,
+            coaxial_misfits: AtomicU64::new(0),
             cancel,
         }
     }
@@ -153,13 +213,17 @@ impl<'p> SearchSpace<'p> {
             span = span
                 .max(pool.module_of(s.driver as usize) * s.driver_teeth.max(s.driven_teeth) as f64);
         }
-        Some(Candidate {
-            stages,
-            len: idx.len() as u8,
-            error,
-            size,
-            span_mm: span,
-        })
+        if self.needs_coaxial_fit() && self.coaxial_meshes(idx).is_none() {
+            self.coaxial_misfits.fetch_add(1, AtomicOrdering::Relaxed);
+            return None;
+        }
+        let c = Candidate { stages, len: idx.len() as u8, error, size, span_mm: span };
+        if let Some(check) = &self.problem.train_check {
+            if !(check.0)(&self.train(&c)) {
+                return None;
+            }
+        }
+        Some(c)
     }
 
     /// Does the stock hold every gear the sequence uses, counting repeats across the train?
@@ -184,9 +248,63 @@ impl<'p> SearchSpace<'p> {
             .all(|&(g, c)| gears[g as usize].quantity.is_none_or(|q| c <= q))
     }
 
+    fn needs_coaxial_fit(&self) -> bool {
+        self.problem.mesh.as_ref().is_some_and(|r| r.coaxial && r.centre_distance_mm.is_none())
+    }
+
+    /// For a coaxial train without a fixed distance: one working centre distance every stage
+    /// can reach within the shift-sum range (the one nearest the mean of their standard
+    /// distances), and each stage's mesh there, if all run.
+    pub fn coaxial_meshes(&self, idx: &[u32]) -> Option<Vec<MeshGeometry>> {
+        let rules = self.problem.mesh.as_ref()?;
+        let pool = &self.problem.pool;
+        let mut systems = Vec::with_capacity(idx.len());
+        let (mut lo, mut hi, mut mean) = (f64::NEG_INFINITY, f64::INFINITY, 0.0);
+        for &i in idx {
+            let s = &self.stages[i as usize];
+            let g = &pool.groups[pool.gears[s.driver as usize].group];
+            let sys = ToothSystem::new(g.module_mm, g.pressure_angle_deg, rules.rack).ok()?;
+            let teeth = [s.driver_teeth, s.driven_teeth];
+            lo = lo.max(sys.centre_distance_for_shift_sum(teeth, rules.shift_sum.0)?);
+            hi = hi.min(sys.centre_distance_for_shift_sum(teeth, rules.shift_sum.1)?);
+            mean += sys.standard_centre_distance_mm(teeth) / idx.len() as f64;
+            systems.push((sys, teeth));
+        }
+        if lo > hi {
+            return None;
+        }
+        let a_w = mean.clamp(lo, hi);
+        // Widen the range by a hair so the ends of the interval, found by the inverse formula,
+        // are not lost to rounding on the way back.
+        let range = (rules.shift_sum.0 - 1e-9)..=(rules.shift_sum.1 + 1e-9);
+        systems
+            .iter()
+            .map(|(sys, teeth)| {
+                let m = shift_for_centre_distance(sys, *teeth, a_w, &range).ok()?;
+                check_mesh(&m, &rules.limits).is_empty().then_some(m)
+            })
+            .collect()
+    }
+
+    /// Everything left out by the mesh checks so far, including trains that could not be made
+    /// coaxial.
+    pub fn rejections(&self) -> Vec<Rejection> {
+        let mut r = self.rejected.clone();
+        let misfits = self.coaxial_misfits.load(AtomicOrdering::Relaxed);
+        if misfits > 0 {
+            r.push(Rejection {
+                kind: "NotCoaxial".into(),
+                count: misfits,
+                example: "trains within tolerance whose stages cannot all be shifted to one centre distance".into(),
+            });
+        }
+        r
+    }
+
     /// Turn a candidate into a full train for reporting.
     pub fn train(&self, c: &Candidate) -> Train {
         let pool = &self.problem.pool;
+        let coaxial = if self.needs_coaxial_fit() { self.coaxial_meshes(c.stage_indices()) } else { None };
         let gear = |k: u32| {
             let g = &pool.gears[k as usize];
             Gear {
@@ -197,7 +315,8 @@ impl<'p> SearchSpace<'p> {
         let mut stages: Vec<Stage> = c
             .stage_indices()
             .iter()
-            .map(|&i| {
+            .enumerate()
+            .map(|(n, &i)| {
                 let s = &self.stages[i as usize];
                 let group = &pool.groups[pool.gears[s.driver as usize].group];
                 Stage {
@@ -206,6 +325,7 @@ impl<'p> SearchSpace<'p> {
                     module_mm: group.module_mm,
                     pressure_angle_deg: group.pressure_angle_deg,
                     diametral_pitch: group.diametral_pitch,
+                    mesh: coaxial.as_ref().map(|m| m[n]).or(s.mesh),
                 }
             })
             .collect();
@@ -293,6 +413,8 @@ pub struct Outcome {
     pub complete: bool,
     /// Stages allowed by the per-stage limits (the size of the stage table).
     pub stage_options: usize,
+    /// What the mesh checks left out, for `--explain` (empty without geometry rules).
+    pub rejected: Vec<Rejection>,
 }
 
 /// Run a search with the chosen engine on the current rayon pool.
@@ -334,5 +456,6 @@ pub fn search(problem: &Problem, engine: EngineKind, options: &RunOptions) -> Ou
         trains: best.iter().map(|c| space.train(c)).collect(),
         complete: !space.cancelled(),
         stage_options: space.stages.len(),
+        rejected: space.rejections(),
     }
 }

@@ -23,7 +23,16 @@ struct Doc<'a> {
     count: u64,
     complete: bool,
     convention: &'static str,
+    #[serde(skip_serializing_if = "Vec::is_empty")]
+    rejected: Vec<RejectionJson>,
     trains: Vec<TrainJson>,
+}
+
+#[derive(Serialize)]
+struct RejectionJson {
+    kind: String,
+    count: u64,
+    example: String,
 }
 
 #[derive(Serialize)]
@@ -77,6 +86,21 @@ pub struct StageJson {
     /// Stock labels of the driven gear.
     #[serde(skip_serializing_if = "Vec::is_empty")]
     pub driven_labels: Vec<String>,
+    /// Profile shifts `[x_driver, x_driven]`, in modules (when meshes were worked out).
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub shift: Option<[f64; 2]>,
+    /// Working centre distance actually reached, mm.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub working_centre_distance: Option<f64>,
+    /// Working pressure angle, degrees.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub working_pressure_angle: Option<f64>,
+    /// Transverse contact ratio.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub contact_ratio: Option<f64>,
+    /// Tip diameters `[driver, driven]`, mm.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub tip_diameters: Option<[f64; 2]>,
 }
 
 impl TrainJson {
@@ -102,6 +126,11 @@ impl TrainJson {
                     diametral_pitch: s.diametral_pitch,
                     driver_labels: s.driver.labels.clone(),
                     driven_labels: s.driven.labels.clone(),
+                    shift: s.mesh.map(|m| m.shift),
+                    working_centre_distance: s.mesh.map(|m| m.centre_distance_mm),
+                    working_pressure_angle: s.mesh.map(|m| m.working_pressure_angle_deg),
+                    contact_ratio: s.mesh.map(|m| m.contact_ratio),
+                    tip_diameters: s.mesh.map(|m| m.tip_diameter_mm),
                 })
                 .collect(),
         }
@@ -121,6 +150,12 @@ pub fn write(report: &Report, w: &mut dyn Write) -> io::Result<()> {
         count: report.outcome.count,
         complete: report.outcome.complete,
         convention: CONVENTION,
+        rejected: report
+            .outcome
+            .rejected
+            .iter()
+            .map(|r| RejectionJson { kind: r.kind.clone(), count: r.count, example: r.example.clone() })
+            .collect(),
         trains: report
             .outcome
             .trains

@@ -27,6 +27,8 @@ pub struct Report<'a> {
     pub problem: &'a Problem,
     /// What was found.
     pub outcome: &'a Outcome,
+    /// Say why stage pairings were left out by the mesh checks.
+    pub explain: bool,
 }
 
 /// The output formats.

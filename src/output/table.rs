@@ -112,6 +112,10 @@ pub fn write(report: &Report, w: &mut dyn Write) -> io::Result<()> {
             writeln!(w, "{}", line(r).trim_end())?;
         }
     }
+    write_meshes(report, w)?;
+    if report.explain {
+        write_explain(report, w)?;
+    }
     writeln!(w)?;
     writeln!(w, "{CONVENTION}.")?;
     writeln!(w, "{CAUTION}")?;
@@ -150,6 +154,53 @@ fn stages_text(t: &Train) -> String {
         })
         .collect::<Vec<_>>()
         .join("  ")
+}
+
+/// Per-stage mesh geometry of the listed trains, when the search worked it out.
+fn write_meshes(report: &Report, w: &mut dyn Write) -> io::Result<()> {
+    let trains = &report.outcome.trains;
+    if !trains.iter().any(|t| t.stages.iter().any(|s| s.mesh.is_some())) {
+        return Ok(());
+    }
+    writeln!(w)?;
+    writeln!(
+        w,
+        "Meshes (x = profile shift in modules, driver/driven; aw = working centre distance mm; \
+         αw = working pressure angle; εα = contact ratio; da = tip diameters mm):"
+    )?;
+    for (i, t) in trains.iter().enumerate() {
+        for (n, s) in t.stages.iter().enumerate() {
+            let Some(m) = &s.mesh else { continue };
+            let rank = if n == 0 { (i + 1).to_string() } else { String::new() };
+            writeln!(
+                w,
+                "{rank:>4}  {:>9}  aw {:>8.3}  x {:+.3}/{:+.3}  αw {:>6.2}°  εα {:.2}  da {:.2}/{:.2}",
+                format!("{}→{}", s.driver.teeth, s.driven.teeth),
+                m.centre_distance_mm,
+                m.shift[0],
+                m.shift[1],
+                m.working_pressure_angle_deg,
+                m.contact_ratio,
+                m.tip_diameter_mm[0],
+                m.tip_diameter_mm[1],
+            )?;
+        }
+    }
+    Ok(())
+}
+
+/// Why stage pairings were left out by the mesh checks.
+fn write_explain(report: &Report, w: &mut dyn Write) -> io::Result<()> {
+    writeln!(w)?;
+    let r = &report.outcome.rejected;
+    if r.is_empty() {
+        return writeln!(w, "The mesh checks left nothing out.");
+    }
+    writeln!(w, "Left out by the mesh checks (count, reason, first example):")?;
+    for x in r {
+        writeln!(w, "  {:>9}  {}: {}", group_thousands(x.count), x.kind, x.example)?;
+    }
+    Ok(())
 }
 
 fn fmt_value(v: f64) -> String {
