@@ -32,6 +32,7 @@ pub mod catalog;
 pub mod engine;
 pub mod error;
 pub mod geometry;
+pub mod merge;
 pub mod output;
 pub mod pool;
 pub mod problem;
@@ -39,6 +40,7 @@ pub mod range;
 pub mod rank;
 pub mod rational;
 pub mod target;
+pub mod thread;
 pub mod train;
 
 pub use engine::{search, EngineKind, Outcome, RunOptions};
