@@ -1,0 +1,449 @@
+//! `gearsieve mesh`: the full geometry of one external spur pair, judged against the mesh
+//! limits. The clap struct mirrors the flags; `TryFrom` turns it into a validated [`MeshJob`]
+//! (tooth system, tooth counts, mounting, limits); `run` works the mesh out with
+//! [`gearsieve::geometry`], prints it with [`gearsieve::output::mesh`] and picks the exit status.
+
+use std::path::PathBuf;
+
+use clap::{ArgGroup, Args, ValueEnum};
+use gearsieve::geometry::{
+    check_mesh, mesh_geometry, module_from_diametral_pitch, shift_for_centre_distance, MeshDefect,
+    MeshGeometry, MeshLimits, Mounting, RackProfile, ToothSystem, MM_PER_INCH,
+};
+use gearsieve::output::mesh::{write_json, write_table, MeshInputs, MeshReport, MountingInput};
+use gearsieve::pool::{fmt_num, MAX_TEETH, MIN_TEETH};
+use gearsieve::Error;
+
+use super::{EXIT_NOTHING_FOUND, EXIT_OK};
+
+/// Profile shift sum `x1 + x2` (modules) a `--centre-distance` may call for when no
+/// `--shift-sum` is given. Conservative: a sum of −1 to 2 keeps both gears clear of pointed tips
+/// and of deep undercut for ordinary tooth counts (common practice); wider sums are possible but
+/// should be asked for on purpose. Defined here because the geometry module exposes no default.
+pub const DEFAULT_SHIFT_SUM: [f64; 2] = [-1.0, 2.0];
+
+/// The output format flag of `mesh`.
+#[derive(Clone, Copy, Debug, ValueEnum)]
+pub enum MeshFormatArg {
+    /// Aligned text for people.
+    Table,
+    /// A JSON document for scripts.
+    Json,
+}
+
+/// The full geometry of one external spur pair, the check a designer runs before cutting.
+///
+/// Gives the pitch, base, tip and root diameters, tip thickness and undercut limit of each gear,
+/// and the centre distances, working pressure angle, shift sum, tip shortening, clearance,
+/// backlash and contact ratio of the pair, then says whether it runs. Exit status 0 when it
+/// runs, 1 when it has defects (still printed), 2 on bad input.
+#[derive(Args, Debug)]
+#[command(group(ArgGroup::new("size").required(true).args(["module", "diametral_pitch"])))]
+pub struct MeshArgs {
+    /// Tooth counts of the pair, driver (pinion) first: e.g. 12,40.
+    #[arg(long, value_name = "Z1,Z2")]
+    pub teeth: String,
+    /// Module, mm.
+    #[arg(
+        long,
+        value_name = "MM",
+        conflicts_with = "diametral_pitch",
+        allow_negative_numbers = true
+    )]
+    pub module: Option<f64>,
+    /// Diametral pitch (teeth per inch of pitch diameter) instead of a module: m = 25.4 / P.
+    /// Inch figures are shown beside the millimetres.
+    #[arg(long, value_name = "P", allow_negative_numbers = true)]
+    pub diametral_pitch: Option<f64>,
+    /// Pressure angle, degrees (20 is usual, 14.5 on older inch gearing).
+    #[arg(
+        long,
+        value_name = "DEG",
+        default_value_t = 20.0,
+        allow_negative_numbers = true
+    )]
+    pub pressure_angle: f64,
+    /// Profile shifts of driver and driven gear, in modules (positive away from the centre);
+    /// the pair is mounted tight [default: 0,0].
+    #[arg(
+        long,
+        value_name = "X1,X2",
+        conflicts_with = "centre_distance",
+        allow_hyphen_values = true
+    )]
+    pub shift: Option<String>,
+    /// Working centre distance to reach by profile shift, in mm (or inches with a suffix:
+    /// 14.25in). The shift sum it needs is split between the gears favouring the pinion against
+    /// undercut.
+    #[arg(long, value_name = "MM")]
+    pub centre_distance: Option<String>,
+    /// Allowed profile shift sum x1 + x2 for --centre-distance, in modules: LO..HI, either end
+    /// may be left open [default: -1..2].
+    #[arg(
+        long,
+        value_name = "LO..HI",
+        requires = "centre_distance",
+        allow_hyphen_values = true
+    )]
+    pub shift_sum: Option<String>,
+    /// Addendum of the basic rack, in modules (ISO 53 type A: 1).
+    #[arg(long, value_name = "MODULES", default_value_t = RackProfile::default().addendum, allow_negative_numbers = true)]
+    pub addendum: f64,
+    /// Dedendum of the basic rack, in modules (ISO 53 type A: 1.25).
+    #[arg(long, value_name = "MODULES", default_value_t = RackProfile::default().dedendum, allow_negative_numbers = true)]
+    pub dedendum: f64,
+    /// Root fillet radius of the basic rack, in modules (ISO 53 type A: 0.38).
+    #[arg(long, value_name = "MODULES", default_value_t = RackProfile::default().root_radius, allow_negative_numbers = true)]
+    pub root_radius: f64,
+    /// Least transverse contact ratio for the mesh to count as running (1.2 is common practice).
+    #[arg(long, value_name = "R", default_value_t = MeshLimits::default().min_contact_ratio, allow_negative_numbers = true)]
+    pub min_contact_ratio: f64,
+    /// Least tooth thickness at the tip, in modules.
+    #[arg(long, value_name = "MODULES", default_value_t = MeshLimits::default().min_tip_thickness_modules, allow_negative_numbers = true)]
+    pub min_tip_thickness: f64,
+    /// Accept undercut gears (small clock pinions are often cut so); still reported.
+    #[arg(long)]
+    pub allow_undercut: bool,
+    /// Output format.
+    #[arg(long, value_enum, default_value = "table")]
+    pub format: MeshFormatArg,
+    /// Write the report to FILE (atomically: complete or not at all) instead of standard output.
+    #[arg(long, value_name = "FILE")]
+    pub output: Option<PathBuf>,
+}
+
+/// A validated mesh check, ready to run.
+#[derive(Debug)]
+pub struct MeshJob {
+    system: ToothSystem,
+    inputs: MeshInputs,
+    limits: MeshLimits,
+    format: MeshFormatArg,
+    output: Option<PathBuf>,
+}
+
+/// `Z1,Z2` as two tooth counts within the pool's limits.
+fn parse_teeth(text: &str) -> Result<[u32; 2], Error> {
+    let bad = || {
+        Error::flag(
+            "--teeth",
+            format!(
+                "wanted two tooth counts such as 12,40, each from {MIN_TEETH} to {MAX_TEETH}, \
+                 found \"{text}\""
+            ),
+        )
+    };
+    let parts: Vec<&str> = text.split(',').map(str::trim).collect();
+    let [a, b] = parts[..] else {
+        return Err(bad());
+    };
+    let count = |s: &str| {
+        s.parse::<u32>()
+            .ok()
+            .filter(|z| (MIN_TEETH..=MAX_TEETH).contains(z))
+            .ok_or_else(bad)
+    };
+    Ok([count(a)?, count(b)?])
+}
+
+/// `X1,X2` as two finite profile shifts.
+fn parse_shift(text: &str) -> Result<[f64; 2], Error> {
+    let bad = || {
+        Error::flag(
+            "--shift",
+            format!(
+                "wanted two profile shifts in modules such as 0.3,-0.1 (driver first), found \
+                 \"{text}\""
+            ),
+        )
+    };
+    let parts: Vec<&str> = text.split(',').map(str::trim).collect();
+    let [a, b] = parts[..] else {
+        return Err(bad());
+    };
+    let shift = |s: &str| {
+        s.parse::<f64>()
+            .ok()
+            .filter(|x| x.is_finite())
+            .ok_or_else(bad)
+    };
+    Ok([shift(a)?, shift(b)?])
+}
+
+/// A positive length in mm, or in inches with an `in` suffix (`mm` is accepted too).
+fn parse_centre_distance(text: &str) -> Result<f64, Error> {
+    let t = text.trim();
+    let (number, per_unit) = match (t.strip_suffix("in"), t.strip_suffix("mm")) {
+        (Some(n), _) => (n, MM_PER_INCH),
+        (None, Some(n)) => (n, 1.0),
+        (None, None) => (t, 1.0),
+    };
+    number
+        .trim()
+        .parse::<f64>()
+        .ok()
+        .map(|v| v * per_unit)
+        .filter(|mm| mm.is_finite() && *mm > 0.0)
+        .ok_or_else(|| {
+            Error::flag(
+                "--centre-distance",
+                format!(
+                    "wanted a positive working centre distance in mm such as 52.5, or in \
+                     inches such as 14.25in, found \"{text}\""
+                ),
+            )
+        })
+}
+
+/// `LO..HI` as a range of shift sums; either end may be open, the ends may be negative.
+fn parse_shift_sum(text: &str) -> Result<[f64; 2], Error> {
+    let bad = |why: &str| {
+        Error::flag(
+            "--shift-sum",
+            format!(
+                "wanted a range of profile shift sums in modules such as -1..2, LO ≤ HI{why}, \
+                 found \"{text}\""
+            ),
+        )
+    };
+    let Some((a, b)) = text.split_once("..") else {
+        return Err(bad(""));
+    };
+    let end = |s: &str, open: f64| -> Result<f64, Error> {
+        let s = s.trim();
+        if s.is_empty() {
+            return Ok(open);
+        }
+        s.parse::<f64>()
+            .ok()
+            .filter(|v| v.is_finite())
+            .ok_or_else(|| bad(""))
+    };
+    let lo = end(a, f64::NEG_INFINITY)?;
+    let hi = end(b.trim_start_matches('='), f64::INFINITY)?;
+    if lo > hi {
+        return Err(bad(" (this one is inverted)"));
+    }
+    Ok([lo, hi])
+}
+
+/// A number that must be finite and satisfy `ok`, else `--flag: wanted …, found …`.
+fn check_number(flag: &str, value: f64, ok: bool, wanted: &str) -> Result<f64, Error> {
+    if value.is_finite() && ok {
+        Ok(value)
+    } else {
+        Err(Error::flag(flag, format!("wanted {wanted}, found {value}")))
+    }
+}
+
+impl TryFrom<MeshArgs> for MeshJob {
+    type Error = Error;
+
+    fn try_from(a: MeshArgs) -> Result<MeshJob, Error> {
+        let teeth = parse_teeth(&a.teeth)?;
+        let (module_mm, diametral_pitch) = match (a.module, a.diametral_pitch) {
+            (Some(m), _) => (
+                check_number("--module", m, m > 0.0, "a positive number of millimetres")?,
+                None,
+            ),
+            (None, Some(p)) => match module_from_diametral_pitch(p) {
+                Some(m) => (m, Some(p)),
+                None => {
+                    return Err(Error::flag(
+                        "--diametral-pitch",
+                        format!("wanted a positive number of teeth per inch, found {p}"),
+                    ))
+                }
+            },
+            (None, None) => {
+                return Err(Error::flag(
+                    "--module",
+                    "wanted a module in mm, or --diametral-pitch",
+                ))
+            }
+        };
+        let pa = a.pressure_angle;
+        check_number(
+            "--pressure-angle",
+            pa,
+            pa > 0.0 && pa < 90.0,
+            "degrees between 0 and 90 (20 is usual)",
+        )?;
+        let ha = a.addendum;
+        check_number("--addendum", ha, ha > 0.0, "a positive number of modules")?;
+        let hf = a.dedendum;
+        check_number(
+            "--dedendum",
+            hf,
+            hf >= ha,
+            &format!(
+                "a number of modules no smaller than the addendum, {}",
+                fmt_num(ha)
+            ),
+        )?;
+        let rho = a.root_radius;
+        check_number("--root-radius", rho, rho >= 0.0, "zero or more modules")?;
+        let rack = RackProfile {
+            addendum: ha,
+            dedendum: hf,
+            root_radius: rho,
+        };
+        let limits = MeshLimits {
+            min_contact_ratio: check_number(
+                "--min-contact-ratio",
+                a.min_contact_ratio,
+                a.min_contact_ratio >= 0.0,
+                "a contact ratio of zero or more, such as 1.2",
+            )?,
+            min_tip_thickness_modules: check_number(
+                "--min-tip-thickness",
+                a.min_tip_thickness,
+                a.min_tip_thickness >= 0.0,
+                "zero or more modules, such as 0.25",
+            )?,
+            allow_undercut: a.allow_undercut,
+        };
+        let mounting = match &a.centre_distance {
+            Some(cd) => MountingInput::AtCentreDistance {
+                centre_distance_mm: parse_centre_distance(cd)?,
+                shift_sum_range: match &a.shift_sum {
+                    Some(s) => parse_shift_sum(s)?,
+                    None => DEFAULT_SHIFT_SUM,
+                },
+            },
+            None => MountingInput::Shifted {
+                shift: match &a.shift {
+                    Some(s) => parse_shift(s)?,
+                    None => [0.0, 0.0],
+                },
+            },
+        };
+        // Every value ToothSystem::new checks was checked above with its flag; this is a
+        // fallback that keeps a future rule of the geometry from becoming a panic.
+        let system = ToothSystem::new(module_mm, pa, rack).map_err(Error::from)?;
+        Ok(MeshJob {
+            system,
+            inputs: MeshInputs {
+                teeth,
+                module_mm,
+                diametral_pitch,
+                pressure_angle_deg: pa,
+                rack,
+                mounting,
+            },
+            limits,
+            format: a.format,
+            output: a.output,
+        })
+    }
+}
+
+/// The working centre distances, mm, that shift sums in `range` reach when the pair meshes
+/// tight, as words: `49.341 to 55.330 mm`, `more than 48.864 mm` when the low end of the range
+/// is at or below the least workable sum (the base circles would touch), with inch figures for
+/// inch gearing. `None` when no sum in the range is workable.
+fn reachable(job: &MeshJob, range: [f64; 2]) -> Option<String> {
+    let (system, teeth) = (&job.system, job.inputs.teeth);
+    let least = system.least_workable_shift_sum(teeth);
+    if range[1] <= least {
+        return None;
+    }
+    let (lo, open_low) = if range[0] > least {
+        (
+            system.centre_distance_for_shift_sum(teeth, range[0])?,
+            false,
+        )
+    } else {
+        (system.base_circle_distance_mm(teeth), true)
+    };
+    let hi = if range[1].is_finite() {
+        Some(system.centre_distance_for_shift_sum(teeth, range[1])?)
+    } else {
+        None
+    };
+    let inch = job.inputs.diametral_pitch.is_some();
+    let words = |unit: &str, scale: f64, decimals: usize| {
+        let lo = format!("{:.decimals$}", lo / scale);
+        match (open_low, hi) {
+            (false, Some(hi)) => format!("{lo} to {:.decimals$} {unit}", hi / scale),
+            (true, Some(hi)) => {
+                format!("more than {lo} and up to {:.decimals$} {unit}", hi / scale)
+            }
+            (false, None) => format!("{lo} {unit} or more"),
+            (true, None) => format!("more than {lo} {unit}"),
+        }
+    };
+    Some(if inch {
+        format!("{} ({})", words("mm", 1.0, 3), words("in", MM_PER_INCH, 4))
+    } else {
+        words("mm", 1.0, 3)
+    })
+}
+
+/// A failure of the geometry as a one-line message naming the flag it came from; a centre
+/// distance out of reach also says which distances the allowed shift sums do reach.
+fn explain(job: &MeshJob, defect: MeshDefect) -> Error {
+    match (job.inputs.mounting, defect) {
+        (MountingInput::Shifted { .. }, _) => Error::flag("--shift", defect.to_string()),
+        (
+            MountingInput::AtCentreDistance {
+                shift_sum_range, ..
+            },
+            MeshDefect::CentreDistanceUnreachable { .. } | MeshDefect::ShiftSumOutOfRange { .. },
+        ) => {
+            let range = match reachable(job, shift_sum_range) {
+                Some(words) => format!("reachable with this --shift-sum: {words}"),
+                None => "no centre distance is reachable with this --shift-sum".to_string(),
+            };
+            Error::flag("--centre-distance", format!("{defect}; {range}"))
+        }
+        (MountingInput::AtCentreDistance { .. }, _) => {
+            Error::flag("--centre-distance", defect.to_string())
+        }
+    }
+}
+
+/// Work the mesh out.
+fn geometry(job: &MeshJob) -> Result<MeshGeometry, MeshDefect> {
+    let teeth = job.inputs.teeth;
+    match job.inputs.mounting {
+        MountingInput::Shifted { shift } => {
+            mesh_geometry(&job.system, teeth, Mounting::Shifted { shift })
+        }
+        MountingInput::AtCentreDistance {
+            centre_distance_mm,
+            shift_sum_range,
+        } => shift_for_centre_distance(
+            &job.system,
+            teeth,
+            centre_distance_mm,
+            &(shift_sum_range[0]..=shift_sum_range[1]),
+        ),
+    }
+}
+
+/// Run `gearsieve mesh`: 0 when the mesh runs, 1 when it has defects.
+pub fn run(args: MeshArgs) -> anyhow::Result<i32> {
+    let job = MeshJob::try_from(args)?;
+    let mesh = geometry(&job).map_err(|d| explain(&job, d))?;
+    let defects = check_mesh(&mesh, &job.limits);
+    let report = MeshReport {
+        inputs: &job.inputs,
+        limits: &job.limits,
+        geometry: &mesh,
+        defects: &defects,
+    };
+    let mut buf = Vec::new();
+    match job.format {
+        MeshFormatArg::Table => write_table(&report, &mut buf)?,
+        MeshFormatArg::Json => write_json(&report, &mut buf)?,
+    }
+    if !super::output::emit(job.output.as_deref(), &buf)? {
+        return Ok(EXIT_OK);
+    }
+    Ok(if defects.is_empty() {
+        EXIT_OK
+    } else {
+        EXIT_NOTHING_FOUND
+    })
+}
