@@ -4,6 +4,7 @@
 mod common;
 
 use common::{gearsieve, json};
+use gearsieve::problem::DEFAULT_SHIFT_SUM;
 use serde_json::Value;
 
 fn num(v: &Value, path: &[&str]) -> f64 {
@@ -134,7 +135,8 @@ fn textbook_pair_mounted_a_quarter_inch_wide() {
         assert!(x[0] > 0.0 && x[1] > 0.0, "{x:?}");
         assert_eq!(
             v["inputs"]["mounting"]["at_centre_distance"]["shift_sum_range"],
-            serde_json::json!([-1.0, 2.0])
+            // The same default as `search --shift-sum`.
+            serde_json::json!([DEFAULT_SHIFT_SUM.0, DEFAULT_SHIFT_SUM.1])
         );
     }
     let r = gearsieve(&[
@@ -460,7 +462,7 @@ fn bad_input_names_the_flag_and_what_is_wanted() {
 #[test]
 fn unreachable_centre_distance_says_the_reachable_range() {
     // m = 2, 12 + 40 teeth: a = 52 mm, base circles touch at a·cos 20° = 48.864 mm. The range
-    // the default shift sum −1..2 reaches is worked out here with the published relations
+    // the default shift sum (the library's, −0.5..1) reaches is worked out here with the published relations
     // (inv α_w = inv α + 2·tan α·(x1 + x2)/(z1 + z2), a_w = a·cos α / cos α_w; source: ISO 21771
     // relations, from memory) independently of the program.
     let alpha = 20f64.to_radians();
@@ -479,7 +481,8 @@ fn unreachable_centre_distance_says_the_reachable_range() {
         }
         52.0 * alpha.cos() / lo.cos()
     };
-    let range = format!("{:.3} to {:.3} mm", a_w(-1.0), a_w(2.0));
+    let (lo, hi) = DEFAULT_SHIFT_SUM;
+    let range = format!("{:.3} to {:.3} mm", a_w(lo), a_w(hi));
     bad(
         &[
             "--teeth",
@@ -490,7 +493,9 @@ fn unreachable_centre_distance_says_the_reachable_range() {
             "70",
         ],
         "--centre-distance",
-        &format!("outside the allowed -1.000 to 2.000; reachable with this --shift-sum: {range}"),
+        &format!(
+            "outside the allowed {lo:.3} to {hi:.3}; reachable with this --shift-sum: {range}"
+        ),
     );
     bad(
         &[
@@ -504,7 +509,7 @@ fn unreachable_centre_distance_says_the_reachable_range() {
         "--centre-distance",
         "it must be more than 48.864 mm, where their base circles touch",
     );
-    // A --shift-sum open at the top reaches 58 mm (a sum near 3.5): the pair is worked out and
+    // A --shift-sum up to 10 reaches 58 mm (a sum near 3.5): the pair is worked out and
     // printed, and so much shift with tip shortening leaves too little contact.
     let r = gearsieve(&[
         "mesh",
@@ -515,7 +520,7 @@ fn unreachable_centre_distance_says_the_reachable_range() {
         "--centre-distance",
         "58",
         "--shift-sum",
-        "0..",
+        "0..10",
     ]);
     assert_eq!(r.code, 1, "{}", r.stderr);
     assert_eq!(
@@ -533,7 +538,7 @@ fn unreachable_centre_distance_says_the_reachable_range() {
             "--centre-distance",
             "70",
             "--shift-sum",
-            "0..",
+            "0..20",
         ],
         "--centre-distance",
         "would lie inside its base circle",

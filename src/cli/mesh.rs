@@ -12,15 +12,11 @@ use gearsieve::geometry::{
 };
 use gearsieve::output::mesh::{write_json, write_table, MeshInputs, MeshReport, MountingInput};
 use gearsieve::pool::{fmt_num, MAX_TEETH, MIN_TEETH};
+use gearsieve::problem::DEFAULT_SHIFT_SUM;
+use gearsieve::range::parse_signed_range;
 use gearsieve::Error;
 
 use super::{EXIT_NOTHING_FOUND, EXIT_OK};
-
-/// Profile shift sum `x1 + x2` (modules) a `--centre-distance` may call for when no
-/// `--shift-sum` is given. Conservative: a sum of −1 to 2 keeps both gears clear of pointed tips
-/// and of deep undercut for ordinary tooth counts (common practice); wider sums are possible but
-/// should be asked for on purpose. Defined here because the geometry module exposes no default.
-pub const DEFAULT_SHIFT_SUM: [f64; 2] = [-1.0, 2.0];
 
 /// The output format flag of `mesh`.
 #[derive(Clone, Copy, Debug, ValueEnum)]
@@ -77,8 +73,8 @@ pub struct MeshArgs {
     /// undercut.
     #[arg(long, value_name = "MM")]
     pub centre_distance: Option<String>,
-    /// Allowed profile shift sum x1 + x2 for --centre-distance, in modules: LO..HI, either end
-    /// may be left open [default: -1..2].
+    /// Allowed profile shift sum x1 + x2 for --centre-distance, in modules: LO..HI, the same
+    /// default as search [default: -0.5..1].
     #[arg(
         long,
         value_name = "LO..HI",
@@ -195,38 +191,6 @@ fn parse_centre_distance(text: &str) -> Result<f64, Error> {
         })
 }
 
-/// `LO..HI` as a range of shift sums; either end may be open, the ends may be negative.
-fn parse_shift_sum(text: &str) -> Result<[f64; 2], Error> {
-    let bad = |why: &str| {
-        Error::flag(
-            "--shift-sum",
-            format!(
-                "wanted a range of profile shift sums in modules such as -1..2, LO ≤ HI{why}, \
-                 found \"{text}\""
-            ),
-        )
-    };
-    let Some((a, b)) = text.split_once("..") else {
-        return Err(bad(""));
-    };
-    let end = |s: &str, open: f64| -> Result<f64, Error> {
-        let s = s.trim();
-        if s.is_empty() {
-            return Ok(open);
-        }
-        s.parse::<f64>()
-            .ok()
-            .filter(|v| v.is_finite())
-            .ok_or_else(|| bad(""))
-    };
-    let lo = end(a, f64::NEG_INFINITY)?;
-    let hi = end(b.trim_start_matches('='), f64::INFINITY)?;
-    if lo > hi {
-        return Err(bad(" (this one is inverted)"));
-    }
-    Ok([lo, hi])
-}
-
 /// A number that must be finite and satisfy `ok`, else `--flag: wanted …, found …`.
 fn check_number(flag: &str, value: f64, ok: bool, wanted: &str) -> Result<f64, Error> {
     if value.is_finite() && ok {
@@ -306,10 +270,13 @@ impl TryFrom<MeshArgs> for MeshJob {
         let mounting = match &a.centre_distance {
             Some(cd) => MountingInput::AtCentreDistance {
                 centre_distance_mm: parse_centre_distance(cd)?,
+                // The same default and syntax as `search --shift-sum`, so a pair that
+                // search reports at a centre distance is checked here the same way.
                 shift_sum_range: match &a.shift_sum {
-                    Some(s) => parse_shift_sum(s)?,
+                    Some(s) => parse_signed_range(s, "--shift-sum", "modules")?,
                     None => DEFAULT_SHIFT_SUM,
-                },
+                }
+                .into(),
             },
             None => MountingInput::Shifted {
                 shift: match &a.shift {
@@ -339,15 +306,16 @@ impl TryFrom<MeshArgs> for MeshJob {
 }
 
 /// The working centre distances, mm, that shift sums in `range` reach when the pair meshes
-/// tight, as words: `49.341 to 55.330 mm`, `more than 48.864 mm` when the low end of the range
-/// is at or below the least workable sum (the base circles would touch), with inch figures for
-/// inch gearing. `None` when no sum in the range is workable.
+/// tight, as words: `49.341 to 55.330 mm`, or `more than 48.864 and up to 55.330 mm` when the
+/// low end of the range is at or below the least workable sum (the base circles would touch),
+/// with inch figures for inch gearing. `None` when no sum in the range is workable.
 fn reachable(job: &MeshJob, range: [f64; 2]) -> Option<String> {
     let (system, teeth) = (&job.system, job.inputs.teeth);
     let least = system.least_workable_shift_sum(teeth);
     if range[1] <= least {
         return None;
     }
+    let hi = system.centre_distance_for_shift_sum(teeth, range[1])?;
     let (lo, open_low) = if range[0] > least {
         (
             system.centre_distance_for_shift_sum(teeth, range[0])?,
@@ -356,24 +324,15 @@ fn reachable(job: &MeshJob, range: [f64; 2]) -> Option<String> {
     } else {
         (system.base_circle_distance_mm(teeth), true)
     };
-    let hi = if range[1].is_finite() {
-        Some(system.centre_distance_for_shift_sum(teeth, range[1])?)
-    } else {
-        None
-    };
-    let inch = job.inputs.diametral_pitch.is_some();
     let words = |unit: &str, scale: f64, decimals: usize| {
-        let lo = format!("{:.decimals$}", lo / scale);
-        match (open_low, hi) {
-            (false, Some(hi)) => format!("{lo} to {:.decimals$} {unit}", hi / scale),
-            (true, Some(hi)) => {
-                format!("more than {lo} and up to {:.decimals$} {unit}", hi / scale)
-            }
-            (false, None) => format!("{lo} {unit} or more"),
-            (true, None) => format!("more than {lo} {unit}"),
+        let (lo, hi) = (lo / scale, hi / scale);
+        if open_low {
+            format!("more than {lo:.decimals$} and up to {hi:.decimals$} {unit}")
+        } else {
+            format!("{lo:.decimals$} to {hi:.decimals$} {unit}")
         }
     };
-    Some(if inch {
+    Some(if job.inputs.diametral_pitch.is_some() {
         format!("{} ({})", words("mm", 1.0, 3), words("in", MM_PER_INCH, 4))
     } else {
         words("mm", 1.0, 3)
