@@ -32,6 +32,7 @@ pub mod catalog;
 pub mod engine;
 pub mod error;
 pub mod geometry;
+pub mod merge;
 pub mod output;
 pub mod pool;
 pub mod problem;

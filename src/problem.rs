@@ -115,6 +115,8 @@ pub struct Problem {
     /// Mesh geometry rules, if meshes are to be worked out and checked (set with
     /// [`Problem::with_mesh_rules`]).
     pub mesh: Option<MeshRules>,
+    /// List the Pareto front on (|error|, meshes, size) instead of the best `limit`.
+    pub pareto: bool,
 }
 
 impl Problem {
@@ -150,6 +152,7 @@ impl Problem {
             limit,
             train_check: None,
             mesh: None,
+            pareto: false,
         };
         if p.stage_counts().is_empty() {
             return Err(Error::flag(

@@ -84,26 +84,59 @@ impl Candidate {
     }
 }
 
-/// Order two candidates by `keys`, then by their stage sequence (a total order).
-pub fn compare(keys: &[RankKey], a: &Candidate, b: &Candidate) -> Ordering {
+/// Anything that can be ranked: a candidate in the search, or a train read back from JSON.
+pub trait Ranked {
+    /// Exact relative error.
+    fn rel_error(&self) -> &RelError;
+    /// Number of meshes.
+    fn meshes(&self) -> u8;
+    /// Sum of teeth.
+    fn size(&self) -> u32;
+    /// Largest pitch diameter, mm.
+    fn span_mm(&self) -> f64;
+    /// The canonical stage sequence, compared stage by stage in stage-table order (ratio,
+    /// driver teeth, driven teeth, module, pressure angle): the last tie-break.
+    fn cmp_stages(&self, other: &Self) -> Ordering;
+}
+
+impl Ranked for Candidate {
+    fn rel_error(&self) -> &RelError {
+        &self.error
+    }
+    fn meshes(&self) -> u8 {
+        self.len
+    }
+    fn size(&self) -> u32 {
+        self.size
+    }
+    fn span_mm(&self) -> f64 {
+        self.span_mm
+    }
+    fn cmp_stages(&self, other: &Self) -> Ordering {
+        // Index order is the order of the stages' values (the table is sorted by them).
+        self.stage_indices().cmp(other.stage_indices())
+    }
+}
+
+/// Order two trains by `keys`, then fewer meshes, smaller |error|, negative error before
+/// positive, and finally the stage sequence: a total order.
+pub fn compare<T: Ranked>(keys: &[RankKey], a: &T, b: &T) -> Ordering {
     for k in keys {
         let o = match k {
-            RankKey::Error => a.error.cmp_abs(&b.error),
-            RankKey::Meshes => a.len.cmp(&b.len),
-            RankKey::Size => a.size.cmp(&b.size),
-            RankKey::Span => a.span_mm.total_cmp(&b.span_mm),
+            RankKey::Error => a.rel_error().cmp_abs(b.rel_error()),
+            RankKey::Meshes => a.meshes().cmp(&b.meshes()),
+            RankKey::Size => a.size().cmp(&b.size()),
+            RankKey::Span => a.span_mm().total_cmp(&b.span_mm()),
         };
         if o != Ordering::Equal {
             return o;
         }
     }
-    // Equal on every key: fewer meshes first, then the signed error (low before high), then the
-    // canonical stage sequence. Index order equals the order of the stages' values.
-    a.len
-        .cmp(&b.len)
-        .then_with(|| a.error.cmp_abs(&b.error))
-        .then_with(|| a.error.sign.cmp(&b.error.sign))
-        .then_with(|| a.stage_indices().cmp(b.stage_indices()))
+    a.meshes()
+        .cmp(&b.meshes())
+        .then_with(|| a.rel_error().cmp_abs(b.rel_error()))
+        .then_with(|| a.rel_error().sign.cmp(&b.rel_error().sign))
+        .then_with(|| a.cmp_stages(b))
 }
 
 /// The best `k` candidates seen, in a bounded buffer (at most `2k` held), plus a count of all.
@@ -165,6 +198,58 @@ impl TopK {
     }
 }
 
+/// `a` beats `b` on every Pareto key (|error|, meshes, size) at once: no worse on any, better on
+/// at least one.
+pub fn dominates<T: Ranked>(a: &T, b: &T) -> bool {
+    let e = a.rel_error().cmp_abs(b.rel_error());
+    let m = a.meshes().cmp(&b.meshes());
+    let s = a.size().cmp(&b.size());
+    e != Ordering::Greater
+        && m != Ordering::Greater
+        && s != Ordering::Greater
+        && (e == Ordering::Less || m == Ordering::Less || s == Ordering::Less)
+}
+
+/// The Pareto front on (|error|, meshes, size): every candidate no other beats on all three at
+/// once (equals are all kept), plus a count of all candidates offered.
+#[derive(Debug, Clone, Default)]
+pub struct ParetoFront {
+    held: Vec<Candidate>,
+    /// Every candidate offered.
+    pub count: u64,
+}
+
+impl ParetoFront {
+    /// Offer one candidate.
+    pub fn push(&mut self, c: Candidate) {
+        self.count += 1;
+        self.insert(c);
+    }
+
+    fn insert(&mut self, c: Candidate) {
+        if self.held.iter().any(|h| dominates(h, &c)) {
+            return;
+        }
+        self.held.retain(|h| !dominates(&c, h));
+        self.held.push(c);
+    }
+
+    /// Combine with another front.
+    pub fn merge(mut self, other: ParetoFront) -> ParetoFront {
+        self.count += other.count;
+        for c in other.held {
+            self.insert(c);
+        }
+        self
+    }
+
+    /// The front sorted by `keys` (then the usual tie-break), and the count of all offered.
+    pub fn into_sorted(mut self, keys: &[RankKey]) -> (u64, Vec<Candidate>) {
+        self.held.sort_by(|a, b| compare(keys, a, b));
+        (self.count, self.held)
+    }
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;
@@ -180,6 +265,27 @@ mod tests {
             size,
             span_mm: 0.0,
         }
+    }
+
+    #[test]
+    fn pareto_front_is_exactly_the_undominated() {
+        let all: Vec<Candidate> =
+            (0..300).map(|i| cand(i, 1 + (i % 4) as u8, 990 + (i as u64 * 37) % 21, 100, 40 + (i * 13) % 50)).collect();
+        let mut a = ParetoFront::default();
+        let mut b1 = ParetoFront::default();
+        let mut b2 = ParetoFront::default();
+        for (i, c) in all.iter().enumerate() {
+            a.push(*c);
+            if i % 3 == 0 { b1.push(*c) } else { b2.push(*c) }
+        }
+        let (na, fa) = a.into_sorted(&DEFAULT_RANK);
+        let (nb, fb) = b1.merge(b2).into_sorted(&DEFAULT_RANK);
+        assert_eq!((na, nb), (300, 300));
+        assert_eq!(fa, fb);
+        let mut plain: Vec<Candidate> = all.iter().filter(|c| !all.iter().any(|o| dominates(o, c))).copied().collect();
+        plain.sort_by(|x, y| compare(&DEFAULT_RANK, x, y));
+        assert_eq!(fa, plain);
+        assert!(!fa.is_empty());
     }
 
     #[test]

@@ -6,12 +6,12 @@
 //! product of the driven gears' teeth over the product of the drivers' teeth; a reducer's ratio is
 //! above 1.
 
-use serde::Serialize;
+use serde::{Deserialize, Serialize};
 
 use crate::rational::{Ratio, RelError};
 
 /// Which way the output shaft turns relative to the input.
-#[derive(Debug, Clone, Copy, PartialEq, Eq, Hash, Serialize)]
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Hash, Serialize, Deserialize)]
 #[serde(rename_all = "lowercase")]
 pub enum Direction {
     /// Same sense as the input (an even number of external meshes).

@@ -219,3 +219,28 @@ fn results_do_not_depend_on_thread_count() {
     assert_eq!(one, with(2));
     assert_eq!(one, with(3));
 }
+
+proptest! {
+    #![proptest_config(ProptestConfig { cases: 60, ..ProptestConfig::default() })]
+
+    /// Every shard split covers the space exactly once, and merging the parts' JSON gives the
+    /// unsplit run's JSON, for plain and Pareto listings.
+    #[test]
+    fn shards_merge_to_the_unsplit_run(p in problem_strategy(), parts in 1u32..5, pareto in any::<bool>()) {
+        use gearsieve::engine::Shard;
+        use gearsieve::output::{json, Report};
+        let mut p = p;
+        p.pareto = pareto;
+        let doc_of = |shard: Option<Shard>| {
+            let o = search(&p, EngineKind::Sieve, &RunOptions { shard, ..RunOptions::default() });
+            json::doc(&Report { problem: &p, outcome: &o, explain: false, shard })
+        };
+        let whole = doc_of(None);
+        let docs: Vec<(String, json::Doc)> = (1..=parts)
+            .map(|i| (format!("part{i}"), doc_of(Some(Shard { index: i, count: parts }))))
+            .collect();
+        prop_assert_eq!(docs.iter().map(|(_, d)| d.count).sum::<u64>(), whole.count);
+        let merged = gearsieve::merge::merge(docs).unwrap();
+        prop_assert_eq!(merged, whole);
+    }
+}

@@ -2,6 +2,8 @@
 //! file turning its arguments into a library problem (`TryFrom`), and the shared edge work —
 //! exit codes, the progress bar, Ctrl-C, writing output safely.
 
+mod mesh;
+mod merge;
 mod output;
 mod progress;
 mod search;
@@ -40,6 +42,10 @@ struct Cli {
 enum Command {
     /// Search every multi-stage train for a ratio within a tolerance.
     Search(Box<search::SearchArgs>),
+    /// Combine the JSON of the parts of a search split with --shard into the unsplit result.
+    Merge(merge::MergeArgs),
+    /// The full geometry of one spur pair, and whether it runs: the check before cutting.
+    Mesh(Box<mesh::MeshArgs>),
 }
 
 /// Parse the command line, run, and return the exit status.
@@ -64,6 +70,8 @@ pub fn run() -> i32 {
     });
     let result = match cli.command {
         Command::Search(args) => search::run(*args),
+        Command::Merge(args) => merge::run(args),
+        Command::Mesh(args) => mesh::run(*args),
     };
     match result {
         Ok(code) => code,

@@ -2,34 +2,84 @@
 //! and renamed into place only when complete, so a failed or interrupted run never leaves half
 //! a file. A closed pipe (`gearsieve … | head`) ends the program quietly.
 
-use std::io::{self, Write};
-use std::path::Path;
+use std::io::{self, BufWriter, Write};
+use std::path::{Path, PathBuf};
 
 use anyhow::Context;
+
+/// An open destination for results.
+pub enum Sink {
+    /// Standard output.
+    Stdout(BufWriter<io::Stdout>),
+    /// A temporary file beside `path`, renamed to it by [`Sink::commit`].
+    File {
+        /// The temporary file.
+        tmp: BufWriter<tempfile::NamedTempFile>,
+        /// Where it goes.
+        path: PathBuf,
+    },
+}
+
+fn file_context(path: &Path) -> String {
+    format!("--output {}: cannot write the file", path.display())
+}
+
+impl Sink {
+    /// Open stdout, or a temporary file beside `path`.
+    pub fn open(path: Option<&Path>) -> anyhow::Result<Sink> {
+        Ok(match path {
+            None => Sink::Stdout(BufWriter::new(io::stdout())),
+            Some(path) => {
+                let dir = match path.parent() {
+                    Some(d) if !d.as_os_str().is_empty() => d,
+                    _ => Path::new("."),
+                };
+                let tmp = tempfile::NamedTempFile::new_in(dir).with_context(|| file_context(path))?;
+                Sink::File { tmp: BufWriter::new(tmp), path: path.to_path_buf() }
+            }
+        })
+    }
+
+    /// The writer to print into.
+    pub fn writer(&mut self) -> &mut dyn Write {
+        match self {
+            Sink::Stdout(w) => w,
+            Sink::File { tmp, .. } => tmp,
+        }
+    }
+
+    /// Finish: flush stdout, or flush, sync and rename the file into place. Dropping a sink
+    /// without committing deletes its temporary file.
+    pub fn commit(self) -> io::Result<()> {
+        match self {
+            Sink::Stdout(mut w) => w.flush(),
+            Sink::File { tmp, path } => {
+                let tmp = tmp.into_inner().map_err(|e| e.into_error())?;
+                tmp.as_file().sync_all()?;
+                tmp.persist(&path).map_err(|e| e.error)?;
+                Ok(())
+            }
+        }
+    }
+}
+
+/// Map a write failure: a closed stdout pipe is `Ok(false)` (stop quietly); anything else is an
+/// error naming where the output was going.
+pub fn quiet_broken_pipe(result: io::Result<()>, path: Option<&Path>) -> anyhow::Result<bool> {
+    match result {
+        Ok(()) => Ok(true),
+        Err(e) if path.is_none() && e.kind() == io::ErrorKind::BrokenPipe => Ok(false),
+        Err(e) => Err(e).with_context(|| match path {
+            Some(p) => file_context(p),
+            None => "cannot write to standard output".to_string(),
+        }),
+    }
+}
 
 /// Write `bytes` to `path` atomically, or to stdout when `path` is `None`. Returns false when
 /// stdout was a closed pipe (not an error).
 pub fn emit(path: Option<&Path>, bytes: &[u8]) -> anyhow::Result<bool> {
-    match path {
-        None => {
-            let mut out = io::stdout().lock();
-            match out.write_all(bytes).and_then(|_| out.flush()) {
-                Ok(()) => Ok(true),
-                Err(e) if e.kind() == io::ErrorKind::BrokenPipe => Ok(false),
-                Err(e) => Err(e).context("cannot write to standard output"),
-            }
-        }
-        Some(path) => {
-            let dir = match path.parent() {
-                Some(d) if !d.as_os_str().is_empty() => d,
-                _ => Path::new("."),
-            };
-            let ctx = || format!("--output {}: cannot write the file", path.display());
-            let mut tmp = tempfile::NamedTempFile::new_in(dir).with_context(ctx)?;
-            tmp.write_all(bytes).with_context(ctx)?;
-            tmp.as_file().sync_all().with_context(ctx)?;
-            tmp.persist(path).map_err(|e| e.error).with_context(ctx)?;
-            Ok(true)
-        }
-    }
+    let mut sink = Sink::open(path)?;
+    let written = sink.writer().write_all(bytes).and_then(|_| sink.commit());
+    quiet_broken_pipe(written, path)
 }

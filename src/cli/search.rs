@@ -13,6 +13,8 @@ use gearsieve::range::{parse_float_range, parse_int_range, parse_ratio_range, pa
 use gearsieve::rank::parse_rank;
 use gearsieve::target::Target;
 use gearsieve::train::Direction;
+use gearsieve::engine::Shard;
+use gearsieve::output::{csv as csv_out, json as json_out};
 use gearsieve::{EngineKind, Error, Problem, RunOptions, StageLimits};
 
 use super::progress::Bar;
@@ -168,9 +170,18 @@ pub struct SearchArgs {
     /// pitch diameter).
     #[arg(long, value_name = "KEYS", default_value = "error,meshes,size")]
     pub rank: String,
-    /// Trains to list; all are counted.
+    /// Trains to list; all are counted. 0 streams every train as it is found (CSV rows or JSON
+    /// lines) without holding them.
     #[arg(long, value_name = "K", default_value_t = 20)]
     pub limit: usize,
+    /// List the Pareto front instead: the trains no other train beats on error, meshes and size
+    /// at once (the first K of it by --rank).
+    #[arg(long)]
+    pub pareto: bool,
+    /// Search only part I of N of the space (deterministic, disjoint parts; combine their JSON
+    /// with `gearsieve merge`).
+    #[arg(long, value_name = "I/N")]
+    pub shard: Option<String>,
     /// Search engine; the exhaustive one is a slow reference.
     #[arg(long, value_enum, default_value = "sieve")]
     pub engine: EngineArg,
@@ -184,6 +195,7 @@ pub struct SearchJob {
     engine: EngineKind,
     print: PrintArgs,
     explain: bool,
+    shard: Option<Shard>,
 }
 
 /// Load every `--stock` file into one pool.
@@ -257,6 +269,15 @@ impl TryFrom<SearchArgs> for SearchJob {
         });
         let rank = parse_rank(&a.rank, "--rank")?;
         let mut problem = Problem::new(target, pool, stages, limits, direction, rank, a.limit)?;
+        problem.pareto = a.pareto;
+        if a.limit == 0 {
+            if a.pareto {
+                return Err(Error::flag("--limit", "0 streams every train; it does not go with --pareto"));
+            }
+            if matches!(a.print.format, FormatArg::Table) {
+                return Err(Error::flag("--limit", "0 streams every train; give --format csv or --format json (JSON lines)"));
+            }
+        }
         let geometry = a.check_meshes
             || a.coaxial
             || a.allow_undercut
@@ -288,6 +309,7 @@ impl TryFrom<SearchArgs> for SearchJob {
         Ok(SearchJob {
             problem,
             engine,
+            shard: a.shard.as_deref().map(|s| Shard::parse(s, "--shard")).transpose()?,
             print: a.print,
             explain: a.explain,
         })
@@ -299,20 +321,82 @@ pub fn run(args: SearchArgs) -> anyhow::Result<i32> {
     let job = SearchJob::try_from(args)?;
     let bar = Bar::new(job.print.quiet);
     let progress = |p| bar.update(p);
-    let options = RunOptions {
-        progress: Some(&progress),
-        cancel: Some(&super::CANCEL),
-    };
+    let options = RunOptions { progress: Some(&progress), cancel: Some(&super::CANCEL), shard: job.shard };
+    if job.problem.limit == 0 {
+        let code = stream(&job, &options);
+        bar.finish();
+        return code;
+    }
     let outcome = super::with_threads(job.print.threads.map(usize::from), || {
         gearsieve::search(&job.problem, job.engine, &options)
     })?;
     bar.finish();
-    let report = Report {
-        problem: &job.problem,
-        outcome: &outcome,
-        explain: job.explain,
-    };
+    let report = Report { problem: &job.problem, outcome: &outcome, explain: job.explain, shard: job.shard };
     finish(&report, &job.print)
+}
+
+/// `--limit 0`: write every train as it is found, CSV rows or JSON lines, ending JSON with a
+/// summary line.
+fn stream(job: &SearchJob, options: &RunOptions) -> anyhow::Result<i32> {
+    let path = job.print.output.as_deref();
+    let mut sink = super::output::Sink::open(path)?;
+    let p = &job.problem;
+    let json = matches!(job.print.format, FormatArg::Json);
+    let result = super::with_threads(job.print.threads.map(usize::from), || -> std::io::Result<gearsieve::Outcome> {
+        let w = sink.writer();
+        if json {
+            let o = gearsieve::engine::search_each(p, job.engine, options, &mut |t| {
+                json_out::write_line(&json_out::TrainJson::from_train(t), &mut *w)
+            })?;
+            let summary = json_out::Summary { target: json_out::target_json(p), count: o.count, complete: o.complete };
+            json_out::write_line(&summary, w)?;
+            Ok(o)
+        } else {
+            let mut c = ::csv::Writer::from_writer(w);
+            c.write_record(csv_out::header(p)).map_err(csv_io)?;
+            let mut n = 0u64;
+            let o = gearsieve::engine::search_each(p, job.engine, options, &mut |t| {
+                n += 1;
+                c.write_record(csv_out::row(p, n, t)).map_err(csv_io)
+            })?;
+            c.flush()?;
+            Ok(o)
+        }
+    })?;
+    let outcome = match result {
+        Ok(o) => o,
+        Err(e) => {
+            return super::output::quiet_broken_pipe(Err(e), path).map(|_| EXIT_OK);
+        }
+    };
+    if !super::output::quiet_broken_pipe(sink.commit(), path)? {
+        return Ok(EXIT_OK);
+    }
+    Ok(exit_status(&outcome))
+}
+
+/// A CSV writer's error as the I/O error underneath, so a closed pipe is still seen as one.
+fn csv_io(e: ::csv::Error) -> std::io::Error {
+    match e.into_kind() {
+        ::csv::ErrorKind::Io(e) => e,
+        other => std::io::Error::other(format!("{other:?}")),
+    }
+}
+
+/// The exit status for a finished search, with its message on stderr.
+fn exit_status(o: &gearsieve::Outcome) -> i32 {
+    if !o.complete {
+        eprintln!("gearsieve: interrupted; the trains above are the best found so far and the count is a lower bound");
+        return EXIT_INTERRUPTED;
+    }
+    if o.count == 0 {
+        eprintln!(
+            "gearsieve: no train meets every constraint. Try a looser --tol, more --stages, a wider \
+             --teeth range or more stock, or fewer per-stage limits."
+        );
+        return EXIT_NOTHING_FOUND;
+    }
+    EXIT_OK
 }
 
 /// Render, write, and choose the exit status; shared by the commands that print a search.
@@ -322,17 +406,5 @@ pub fn finish(report: &Report, print: &PrintArgs) -> anyhow::Result<i32> {
     if !super::output::emit(print.output.as_deref(), &buf)? {
         return Ok(EXIT_OK);
     }
-    let o = report.outcome;
-    if !o.complete {
-        eprintln!("gearsieve: interrupted; the trains above are the best found so far and the count is a lower bound");
-        return Ok(EXIT_INTERRUPTED);
-    }
-    if o.count == 0 {
-        eprintln!(
-            "gearsieve: no train meets every constraint. Try a looser --tol, more --stages, a wider \
-             --teeth range or more stock, or fewer per-stage limits."
-        );
-        return Ok(EXIT_NOTHING_FOUND);
-    }
-    Ok(EXIT_OK)
+    Ok(exit_status(report.outcome))
 }

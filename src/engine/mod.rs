@@ -17,7 +17,7 @@ use rayon::prelude::*;
 use crate::geometry::{check_mesh, mesh_geometry, shift_for_centre_distance, MeshDefect, MeshGeometry, Mounting, ToothSystem};
 use crate::pool::{MeshGroup, MAX_STAGES};
 use crate::problem::{MeshRules, Problem};
-use crate::rank::{Candidate, TopK};
+use crate::rank::{Candidate, ParetoFront, TopK};
 use crate::rational::{Ratio, RelError};
 use crate::train::{Gear, Stage, Train};
 
@@ -37,6 +37,10 @@ pub struct StageDef {
     /// The worked-out mesh, when the problem checks geometry at a known centre distance.
     pub mesh: Option<MeshGeometry>,
 }
+
+/// The rejection kind of trains that could not be made coaxial; counted per train, so it adds
+/// up across the parts of a split search.
+pub const COAXIAL_MISFIT_KIND: &str = "NotCoaxial";
 
 /// Why some stage pairings or trains were left out, for `--explain`.
 #[derive(Debug, Clone, PartialEq, Eq)]
@@ -293,7 +297,7 @@ impl<'p> SearchSpace<'p> {
         let misfits = self.coaxial_misfits.load(AtomicOrdering::Relaxed);
         if misfits > 0 {
             r.push(Rejection {
-                kind: "NotCoaxial".into(),
+                kind: COAXIAL_MISFIT_KIND.into(),
                 count: misfits,
                 example: "trains within tolerance whose stages cannot all be shifted to one centre distance".into(),
             });
@@ -393,6 +397,36 @@ pub struct Progress {
     pub total: u64,
 }
 
+/// One part of a search split `count` ways: part `index` (1-based) gets every unit of work whose
+/// position in the deterministic unit list is `index − 1` modulo `count`. The parts are
+/// disjoint and together cover the whole search.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub struct Shard {
+    /// Which part, `1 ≤ index ≤ count`.
+    pub index: u32,
+    /// How many parts.
+    pub count: u32,
+}
+
+impl Shard {
+    /// Parse `I/N`.
+    pub fn parse(text: &str, flag: &str) -> crate::Result<Shard> {
+        let bad = || crate::Error::flag(flag, format!("\"{text}\" is not a part; wanted I/N with 1 ≤ I ≤ N, e.g. 3/8"));
+        let (i, n) = text.trim().split_once('/').ok_or_else(bad)?;
+        let (index, count): (u32, u32) = (i.trim().parse().map_err(|_| bad())?, n.trim().parse().map_err(|_| bad())?);
+        if index == 0 || index > count {
+            return Err(bad());
+        }
+        Ok(Shard { index, count })
+    }
+}
+
+impl std::fmt::Display for Shard {
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        write!(f, "{}/{}", self.index, self.count)
+    }
+}
+
 /// How to run a search (not what to search).
 #[derive(Default)]
 pub struct RunOptions<'a> {
@@ -400,6 +434,8 @@ pub struct RunOptions<'a> {
     pub progress: Option<&'a (dyn Fn(Progress) + Sync)>,
     /// When set to true, the search stops at the next unit and reports what it has.
     pub cancel: Option<&'a AtomicBool>,
+    /// Search only this part of the space.
+    pub shard: Option<Shard>,
 }
 
 /// What a search found.
@@ -407,8 +443,11 @@ pub struct RunOptions<'a> {
 pub struct Outcome {
     /// Trains satisfying every constraint (a lower bound when `complete` is false).
     pub count: u64,
-    /// The best trains, best first, at most `problem.limit`.
+    /// The best trains, best first, at most `problem.limit` (for a Pareto search, the front's
+    /// first `limit` in rank order).
     pub trains: Vec<Train>,
+    /// Size of the Pareto front, for a Pareto search.
+    pub pareto_size: Option<usize>,
     /// False when the search was interrupted.
     pub complete: bool,
     /// Stages allowed by the per-stage limits (the size of the stage table).
@@ -417,28 +456,67 @@ pub struct Outcome {
     pub rejected: Vec<Rejection>,
 }
 
-/// Run a search with the chosen engine on the current rayon pool.
-pub fn search(problem: &Problem, engine: EngineKind, options: &RunOptions) -> Outcome {
-    let space = SearchSpace::new(problem, options.cancel);
-    let engine = engine.engine();
-    let units: Vec<(usize, usize)> = problem
+/// The units of work of a search, in their deterministic order, after sharding.
+fn units(problem: &Problem, space: &SearchSpace, shard: Option<Shard>) -> Vec<(usize, usize)> {
+    problem
         .stage_counts()
         .into_iter()
         .flat_map(|n| (0..space.stages.len()).map(move |f| (n, f)))
-        .collect();
+        .enumerate()
+        .filter(|(k, _)| shard.is_none_or(|s| *k as u64 % s.count as u64 == (s.index - 1) as u64))
+        .map(|(_, u)| u)
+        .collect()
+}
+
+/// What a search keeps while it runs.
+enum Keeper {
+    Top(TopK),
+    Front(ParetoFront),
+}
+
+impl Keeper {
+    fn new(problem: &Problem) -> Keeper {
+        if problem.pareto {
+            Keeper::Front(ParetoFront::default())
+        } else {
+            Keeper::Top(TopK::new(problem.limit, &problem.rank))
+        }
+    }
+
+    fn push(&mut self, c: Candidate) {
+        match self {
+            Keeper::Top(t) => t.push(c),
+            Keeper::Front(f) => f.push(c),
+        }
+    }
+
+    fn merge(self, other: Keeper) -> Keeper {
+        match (self, other) {
+            (Keeper::Top(a), Keeper::Top(b)) => Keeper::Top(a.merge(b)),
+            (Keeper::Front(a), Keeper::Front(b)) => Keeper::Front(a.merge(b)),
+            _ => unreachable!("one search keeps one kind"),
+        }
+    }
+}
+
+/// Run a search with the chosen engine on the current rayon pool, keeping the best trains (or
+/// the Pareto front) and counting all.
+pub fn search(problem: &Problem, engine: EngineKind, options: &RunOptions) -> Outcome {
+    let space = SearchSpace::new(problem, options.cancel);
+    let engine = engine.engine();
+    let units = units(problem, &space, options.shard);
     let total = units.len() as u64;
     let done = AtomicU64::new(0);
-    let keys = &problem.rank;
-    let top = units
+    let kept = units
         .par_iter()
         .with_max_len(1)
         .fold(
-            || TopK::new(problem.limit, keys),
-            |mut top, &(n, first)| {
+            || Keeper::new(problem),
+            |mut keep, &(n, first)| {
                 if !space.cancelled() {
                     engine.visit_unit(&space, n, first, &mut |idx| {
                         if let Some(c) = space.judge(idx) {
-                            top.push(c);
+                            keep.push(c);
                         }
                     });
                 }
@@ -446,16 +524,84 @@ pub fn search(problem: &Problem, engine: EngineKind, options: &RunOptions) -> Ou
                 if let Some(p) = options.progress {
                     p(Progress { done: d, total });
                 }
-                top
+                keep
             },
         )
-        .reduce(|| TopK::new(problem.limit, keys), TopK::merge);
-    let (count, best) = top.into_sorted();
+        .reduce(|| Keeper::new(problem), Keeper::merge);
+    let (count, best, pareto_size) = match kept {
+        Keeper::Top(t) => {
+            let (n, b) = t.into_sorted();
+            (n, b, None)
+        }
+        Keeper::Front(f) => {
+            let (n, mut b) = f.into_sorted(&problem.rank);
+            let size = b.len();
+            // A part of a split search lists its whole front: the merge needs it to be exact.
+            if problem.limit > 0 && options.shard.is_none() {
+                b.truncate(problem.limit);
+            }
+            (n, b, Some(size))
+        }
+    };
     Outcome {
         count,
         trains: best.iter().map(|c| space.train(c)).collect(),
+        pareto_size,
         complete: !space.cancelled(),
         stage_options: space.stages.len(),
         rejected: space.rejections(),
     }
+}
+
+/// Units handled per parallel batch when streaming: bounds what is held at once.
+const STREAM_BATCH: usize = 64;
+
+/// Run a search and hand every train that satisfies the problem to `emit`, in a deterministic
+/// order (unit by unit, each unit in its enumeration order) whatever the thread count, without
+/// holding them all. Returns the outcome with an empty train list. `emit` returning an error
+/// stops the search and the error is returned.
+pub fn search_each<E>(
+    problem: &Problem,
+    engine: EngineKind,
+    options: &RunOptions,
+    emit: &mut dyn FnMut(&Train) -> Result<(), E>,
+) -> Result<Outcome, E> {
+    let space = SearchSpace::new(problem, options.cancel);
+    let engine = engine.engine();
+    let units = units(problem, &space, options.shard);
+    let total = units.len() as u64;
+    let done = AtomicU64::new(0);
+    let mut count = 0u64;
+    for batch in units.chunks(STREAM_BATCH) {
+        if space.cancelled() {
+            break;
+        }
+        let found: Vec<Vec<Candidate>> = batch
+            .par_iter()
+            .with_max_len(1)
+            .map(|&(n, first)| {
+                let mut v = Vec::new();
+                if !space.cancelled() {
+                    engine.visit_unit(&space, n, first, &mut |idx| v.extend(space.judge(idx)));
+                }
+                let d = done.fetch_add(1, AtomicOrdering::Relaxed) + 1;
+                if let Some(p) = options.progress {
+                    p(Progress { done: d, total });
+                }
+                v
+            })
+            .collect();
+        for c in found.iter().flatten() {
+            count += 1;
+            emit(&space.train(c))?;
+        }
+    }
+    Ok(Outcome {
+        count,
+        trains: Vec::new(),
+        pareto_size: None,
+        complete: !space.cancelled(),
+        stage_options: space.stages.len(),
+        rejected: space.rejections(),
+    })
 }

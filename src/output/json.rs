@@ -2,49 +2,89 @@
 //!
 //! ```text
 //! {"target": {"ratio": "<as given>", "value": f64, "tolerance": f64, "exact": "p/q"},
-//!  "count": n, "complete": bool,
+//!  "count": n, "complete": bool, "convention": "…", "rank": ["error", …], "limit": k,
 //!  "trains": [{"ratio": "p/q", "value": f64, "error": signed i/R − 1, "meshes": n,
 //!              "direction": "same"|"opposite", "size": n, "span": mm,
 //!              "stages": [{"driver": z, "driven": z, "module": mm, "centre_distance": mm,
 //!                          "pressure_angle": deg, …}]}]}
 //! ```
-//! Field names and meanings are stable; fields may be added.
+//! Field names and meanings are stable; fields may be added. The document reads back into
+//! [`Doc`] so that `gearsieve merge` can combine the parts of a split search and print exactly
+//! what one run prints. With `--limit 0` the trains stream as JSON lines instead (one
+//! [`TrainJson`] per line, then one [`Summary`] line).
 
 use std::io::{self, Write};
 
-use serde::Serialize;
+use serde::{Deserialize, Serialize};
 
 use super::{Report, CONVENTION};
 use crate::train::{Direction, Train};
 
-#[derive(Serialize)]
-struct Doc<'a> {
-    target: TargetJson<'a>,
-    count: u64,
-    complete: bool,
-    convention: &'static str,
-    #[serde(skip_serializing_if = "Vec::is_empty")]
-    rejected: Vec<RejectionJson>,
-    trains: Vec<TrainJson>,
+/// The whole JSON document of a search.
+#[derive(Serialize, Deserialize, Debug, Clone, PartialEq)]
+pub struct Doc {
+    /// What was asked.
+    pub target: TargetJson,
+    /// Trains meeting every constraint (a lower bound when `complete` is false).
+    pub count: u64,
+    /// False when interrupted.
+    pub complete: bool,
+    /// The ratio convention in words.
+    pub convention: String,
+    /// Ranking keys, most important first.
+    pub rank: Vec<String>,
+    /// How many trains were to be listed.
+    pub limit: usize,
+    /// Size of the Pareto front, for a Pareto search.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub pareto_size: Option<usize>,
+    /// `I/N` when this document covers one part of a split search.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub shard: Option<String>,
+    /// What the mesh checks left out.
+    #[serde(default, skip_serializing_if = "Vec::is_empty")]
+    pub rejected: Vec<RejectionJson>,
+    /// The trains listed, best first.
+    pub trains: Vec<TrainJson>,
 }
 
-#[derive(Serialize)]
-struct RejectionJson {
-    kind: String,
-    count: u64,
-    example: String,
+/// The target as JSON.
+#[derive(Serialize, Deserialize, Debug, Clone, PartialEq)]
+pub struct TargetJson {
+    /// The ratio as typed.
+    pub ratio: String,
+    /// Its value.
+    pub value: f64,
+    /// Relative tolerance.
+    pub tolerance: f64,
+    /// The ratio exactly, reduced `p/q`.
+    pub exact: String,
 }
 
-#[derive(Serialize)]
-struct TargetJson<'a> {
-    ratio: &'a str,
-    value: f64,
-    tolerance: f64,
-    exact: String,
+/// One kind of mesh-check rejection.
+#[derive(Serialize, Deserialize, Debug, Clone, PartialEq)]
+pub struct RejectionJson {
+    /// The kind of defect.
+    pub kind: String,
+    /// How many were left out.
+    pub count: u64,
+    /// The first one, in words.
+    pub example: String,
+}
+
+/// The last line of a JSON-lines stream.
+#[derive(Serialize, Deserialize, Debug, Clone, PartialEq)]
+pub struct Summary {
+    /// What was asked.
+    pub target: TargetJson,
+    /// Trains streamed.
+    pub count: u64,
+    /// False when interrupted.
+    pub complete: bool,
 }
 
 /// One train as JSON; shared by every command that lists trains.
-#[derive(Serialize, Debug, Clone, PartialEq)]
+#[derive(Serialize, Deserialize, Debug, Clone, PartialEq)]
 pub struct TrainJson {
     /// Reduced `p/q`.
     pub ratio: String,
@@ -65,7 +105,7 @@ pub struct TrainJson {
 }
 
 /// One stage as JSON.
-#[derive(Serialize, Debug, Clone, PartialEq)]
+#[derive(Serialize, Deserialize, Debug, Clone, PartialEq)]
 pub struct StageJson {
     /// Driver teeth.
     pub driver: u32,
@@ -78,28 +118,28 @@ pub struct StageJson {
     /// Pressure angle, degrees.
     pub pressure_angle: f64,
     /// Diametral pitch when given in inch terms.
-    #[serde(skip_serializing_if = "Option::is_none")]
+    #[serde(default, skip_serializing_if = "Option::is_none")]
     pub diametral_pitch: Option<f64>,
     /// Stock labels of the driver.
-    #[serde(skip_serializing_if = "Vec::is_empty")]
+    #[serde(default, skip_serializing_if = "Vec::is_empty")]
     pub driver_labels: Vec<String>,
     /// Stock labels of the driven gear.
-    #[serde(skip_serializing_if = "Vec::is_empty")]
+    #[serde(default, skip_serializing_if = "Vec::is_empty")]
     pub driven_labels: Vec<String>,
     /// Profile shifts `[x_driver, x_driven]`, in modules (when meshes were worked out).
-    #[serde(skip_serializing_if = "Option::is_none")]
+    #[serde(default, skip_serializing_if = "Option::is_none")]
     pub shift: Option<[f64; 2]>,
     /// Working centre distance actually reached, mm.
-    #[serde(skip_serializing_if = "Option::is_none")]
+    #[serde(default, skip_serializing_if = "Option::is_none")]
     pub working_centre_distance: Option<f64>,
     /// Working pressure angle, degrees.
-    #[serde(skip_serializing_if = "Option::is_none")]
+    #[serde(default, skip_serializing_if = "Option::is_none")]
     pub working_pressure_angle: Option<f64>,
     /// Transverse contact ratio.
-    #[serde(skip_serializing_if = "Option::is_none")]
+    #[serde(default, skip_serializing_if = "Option::is_none")]
     pub contact_ratio: Option<f64>,
     /// Tip diameters `[driver, driven]`, mm.
-    #[serde(skip_serializing_if = "Option::is_none")]
+    #[serde(default, skip_serializing_if = "Option::is_none")]
     pub tip_diameters: Option<[f64; 2]>,
 }
 
@@ -137,32 +177,51 @@ impl TrainJson {
     }
 }
 
-/// Write the report as one JSON document and a newline.
-pub fn write(report: &Report, w: &mut dyn Write) -> io::Result<()> {
-    let t = &report.problem.target;
-    let doc = Doc {
-        target: TargetJson {
-            ratio: &t.text,
-            value: t.ratio.to_f64(),
-            tolerance: t.tolerance.to_f64(),
-            exact: t.ratio.to_string(),
-        },
+/// The target of a problem as JSON.
+pub fn target_json(problem: &crate::problem::Problem) -> TargetJson {
+    let t = &problem.target;
+    TargetJson {
+        ratio: t.text.clone(),
+        value: t.ratio.to_f64(),
+        tolerance: t.tolerance.to_f64(),
+        exact: t.ratio.to_string(),
+    }
+}
+
+/// The document for a report.
+pub fn doc(report: &Report) -> Doc {
+    Doc {
+        target: target_json(report.problem),
         count: report.outcome.count,
         complete: report.outcome.complete,
-        convention: CONVENTION,
+        convention: CONVENTION.to_string(),
+        rank: report.problem.rank.iter().map(|k| k.name().to_string()).collect(),
+        limit: report.problem.limit,
+        pareto_size: report.outcome.pareto_size,
+        shard: report.shard.map(|s| s.to_string()),
         rejected: report
             .outcome
             .rejected
             .iter()
             .map(|r| RejectionJson { kind: r.kind.clone(), count: r.count, example: r.example.clone() })
             .collect(),
-        trains: report
-            .outcome
-            .trains
-            .iter()
-            .map(TrainJson::from_train)
-            .collect(),
-    };
-    serde_json::to_writer_pretty(&mut *w, &doc).map_err(io::Error::other)?;
+        trains: report.outcome.trains.iter().map(TrainJson::from_train).collect(),
+    }
+}
+
+/// Write a document and a newline.
+pub fn write_doc(doc: &Doc, w: &mut dyn Write) -> io::Result<()> {
+    serde_json::to_writer_pretty(&mut *w, doc).map_err(io::Error::from)?;
+    writeln!(w)
+}
+
+/// Write the report as one JSON document and a newline.
+pub fn write(report: &Report, w: &mut dyn Write) -> io::Result<()> {
+    write_doc(&doc(report), w)
+}
+
+/// Write one value as a single JSON line.
+pub fn write_line<T: Serialize>(value: &T, w: &mut dyn Write) -> io::Result<()> {
+    serde_json::to_writer(&mut *w, value).map_err(io::Error::from)?;
     writeln!(w)
 }

@@ -4,6 +4,7 @@
 
 pub mod csv;
 pub mod json;
+pub mod mesh;
 pub mod table;
 
 use std::io::{self, Write};
@@ -29,6 +30,8 @@ pub struct Report<'a> {
     pub outcome: &'a Outcome,
     /// Say why stage pairings were left out by the mesh checks.
     pub explain: bool,
+    /// The part of the search this report covers, when split with `--shard`.
+    pub shard: Option<crate::engine::Shard>,
 }
 
 /// The output formats.

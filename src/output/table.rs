@@ -45,7 +45,21 @@ pub fn write(report: &Report, w: &mut dyn Write) -> io::Result<()> {
     } else {
         "INCOMPLETE (interrupted): at least "
     };
-    match o.count {
+    if let Some(front) = o.pareto_size.filter(|_| o.count > 0) {
+        writeln!(
+            w,
+            "{status}{} trains meet every constraint; {} of them form the Pareto front on error, meshes \
+             and size (none beats them on all three){}:",
+            group_thousands(o.count),
+            group_thousands(front as u64),
+            if o.trains.len() == front {
+                format!(", listed by {}", keys.join(", then "))
+            } else {
+                format!("; the first {} by {}", o.trains.len(), keys.join(", then "))
+            }
+        )?;
+    } else {
+        match o.count {
         0 => writeln!(w, "{status}No train meets every constraint.")?,
         1 => writeln!(w, "{status}1 train meets every constraint.")?,
         n => writeln!(
@@ -59,6 +73,10 @@ pub fn write(report: &Report, w: &mut dyn Write) -> io::Result<()> {
             },
             keys.join(", then ")
         )?,
+    }
+    }
+    if let Some(s) = report.shard {
+        writeln!(w, "(part {s} of a split search: combine the parts' JSON with gearsieve merge)")?;
     }
     if !o.trains.is_empty() {
         writeln!(w)?;

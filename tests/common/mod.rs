@@ -37,9 +37,7 @@ pub fn json(args: &[&str]) -> (i32, serde_json::Value) {
 
 /// Path of a fixture file.
 pub fn fixture(name: &str) -> String {
-    let p: PathBuf = [env!("CARGO_MANIFEST_DIR"), "tests", "fixtures", name]
-        .iter()
-        .collect();
+    let p: PathBuf = [env!("CARGO_MANIFEST_DIR"), "tests", "fixtures", name].iter().collect();
     p.to_string_lossy().into_owned()
 }
 

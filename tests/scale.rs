@@ -1,0 +1,127 @@
+//! Searches at scale through the real binary: split runs and their merge, streaming every train,
+//! the Pareto shortlist, and Ctrl-C.
+
+mod common;
+use common::*;
+use std::process::{Command, Stdio};
+
+fn write(dir: &tempfile::TempDir, name: &str, text: &str) -> String {
+    let p = dir.path().join(name);
+    std::fs::write(&p, text).unwrap();
+    p.to_string_lossy().into_owned()
+}
+
+#[test]
+fn merging_the_parts_prints_what_one_run_prints() {
+    let args = ["search", "--ratio", "29.530588", "--tol", "20ppm", "--teeth", "12..100", "--format", "json"];
+    let whole = gearsieve(&args);
+    assert_eq!(whole.code, 0);
+    let dir = tempfile::tempdir().unwrap();
+    let mut files = Vec::new();
+    for i in 1..=4 {
+        let part = gearsieve(&[&args[..], &["--shard", &format!("{i}/4")]].concat());
+        assert_eq!(part.code, 0, "{}", part.stderr);
+        files.push(write(&dir, &format!("part{i}.json"), &part.stdout));
+    }
+    files.reverse();
+    let mut merge_args = vec!["merge"];
+    merge_args.extend(files.iter().map(String::as_str));
+    let merged = gearsieve(&merge_args);
+    assert_eq!(merged.code, 0, "{}", merged.stderr);
+    assert_eq!(merged.stdout, whole.stdout);
+}
+
+#[test]
+fn merge_refuses_incomplete_or_mismatched_parts() {
+    let dir = tempfile::tempdir().unwrap();
+    let part = |i: u32, n: u32, ratio: &str| {
+        let r = gearsieve(&["search", "--ratio", ratio, "--teeth", "12..40", "--format", "json", "--shard", &format!("{i}/{n}")]);
+        write(&dir, &format!("{ratio}-{i}-{n}.json").replace('/', "_"), &r.stdout)
+    };
+    let (a, b, c) = (part(1, 2, "3"), part(2, 2, "3"), part(2, 2, "4"));
+    let d = part(1, 3, "3");
+    let whole = {
+        let r = gearsieve(&["search", "--ratio", "3", "--teeth", "12..40", "--format", "json"]);
+        write(&dir, "whole.json", &r.stdout)
+    };
+    let junk = write(&dir, "junk.json", "{\"not\": \"ours\"}");
+    for (files, want) in [
+        (vec![a.as_str()], "part 2/2 is missing"),
+        (vec![a.as_str(), a.as_str()], "given twice"),
+        (vec![a.as_str(), c.as_str()], "different question"),
+        (vec![a.as_str(), d.as_str()], "split 3 ways"),
+        (vec![whole.as_str()], "not part of a split search"),
+        (vec![junk.as_str()], "not the JSON of a gearsieve search"),
+        (vec!["no-such.json"], "cannot read it"),
+    ] {
+        let mut args = vec!["merge"];
+        args.extend(files);
+        let r = gearsieve(&args);
+        assert_eq!(r.code, 2, "{args:?}: {}", r.stderr);
+        assert!(r.stderr.contains(want), "{args:?}: {}", r.stderr);
+    }
+    let ok = gearsieve(&["merge", &a, &b]);
+    assert_eq!(ok.code, 0);
+}
+
+#[test]
+fn limit_zero_streams_every_train() {
+    let base = ["search", "--ratio", "37.5", "--tol", "10ppm", "--teeth", "12..60", "--stages", "3"];
+    let (_, counted) = json(&base);
+    let n = counted["count"].as_u64().unwrap();
+    assert!(n > 100);
+    let csv = gearsieve(&[&base[..], &["--limit", "0", "--format", "csv"]].concat());
+    assert_eq!(csv.code, 0);
+    assert_eq!(csv.stdout.lines().count() as u64, n + 1, "header plus one row per train");
+    let lines = gearsieve(&[&base[..], &["--limit", "0", "--format", "json"]].concat());
+    let all: Vec<serde_json::Value> = lines.stdout.lines().map(|l| serde_json::from_str(l).unwrap()).collect();
+    assert_eq!(all.len() as u64, n + 1);
+    assert_eq!(all.last().unwrap()["count"], n);
+    // The best train of the listing is among the streamed ones, and the stream is deterministic.
+    assert!(all.iter().any(|t| t["stages"] == counted["trains"][0]["stages"]));
+    let again = gearsieve(&[&base[..], &["--limit", "0", "--format", "json", "--threads", "1"]].concat());
+    assert_eq!(again.stdout, lines.stdout);
+    let table = gearsieve(&[&base[..], &["--limit", "0"]].concat());
+    assert_eq!(table.code, 2);
+    assert!(table.stderr.contains("--limit"));
+}
+
+#[test]
+fn pareto_lists_only_undominated_trains() {
+    let r = gearsieve(&["search", "--ratio", "37.5", "--tol", "1%", "--teeth", "12..80", "--pareto", "--limit", "0"]);
+    assert_eq!(r.code, 2, "--limit 0 does not go with --pareto");
+    let (code, v) = json(&["search", "--ratio", "7.3", "--tol", "1%", "--teeth", "12..80", "--pareto", "--limit", "1000"]);
+    assert_eq!(code, 0);
+    let front = v["trains"].as_array().unwrap();
+    assert_eq!(v["pareto_size"].as_u64().unwrap() as usize, front.len());
+    assert!(front.len() > 1);
+    let key = |t: &serde_json::Value| {
+        (t["error"].as_f64().unwrap().abs(), t["meshes"].as_u64().unwrap(), t["size"].as_u64().unwrap())
+    };
+    for a in front {
+        for b in front {
+            let (ka, kb) = (key(a), key(b));
+            let beats = ka.0 <= kb.0 && ka.1 <= kb.1 && ka.2 <= kb.2 && ka != kb;
+            assert!(!beats, "{a} beats {b}");
+        }
+    }
+}
+
+#[test]
+fn ctrl_c_prints_the_best_so_far_marked_incomplete() {
+    let child = Command::new(env!("CARGO_BIN_EXE_gearsieve"))
+        .args(["search", "--ratio", "29.530588", "--tol", "1ppm", "--teeth", "12..150", "--stages", "4"])
+        .args(["--format", "json", "--limit", "5", "--threads", "2"])
+        .stdout(Stdio::piped())
+        .stderr(Stdio::piped())
+        .spawn()
+        .unwrap();
+    std::thread::sleep(std::time::Duration::from_millis(1500));
+    let status = Command::new("kill").args(["-INT", &child.id().to_string()]).status().unwrap();
+    assert!(status.success());
+    let out = child.wait_with_output().unwrap();
+    assert_eq!(out.status.code(), Some(130), "{}", String::from_utf8_lossy(&out.stderr));
+    let v: serde_json::Value = serde_json::from_slice(&out.stdout).unwrap();
+    assert_eq!(v["complete"], false);
+    assert!(String::from_utf8_lossy(&out.stderr).contains("interrupted"));
+}
