@@ -7,6 +7,7 @@ mod merge;
 mod output;
 mod progress;
 mod search;
+mod thread;
 
 use std::sync::atomic::AtomicBool;
 
@@ -46,6 +47,10 @@ enum Command {
     Merge(merge::MergeArgs),
     /// The full geometry of one spur pair, and whether it runs: the check before cutting.
     Mesh(Box<mesh::MeshArgs>),
+    /// Change gears for a thread on a lathe: setups, pitch cut, lead error, banjo fit.
+    Thread(Box<thread::ThreadArgs>),
+    /// The best change-gear setup for every thread of a series: a chart for the machine.
+    Chart(Box<thread::ChartArgs>),
 }
 
 /// Parse the command line, run, and return the exit status.
@@ -72,6 +77,8 @@ pub fn run() -> i32 {
         Command::Search(args) => search::run(*args),
         Command::Merge(args) => merge::run(args),
         Command::Mesh(args) => mesh::run(*args),
+        Command::Thread(args) => thread::run_thread(*args),
+        Command::Chart(args) => thread::run_chart(*args),
     };
     match result {
         Ok(code) => code,

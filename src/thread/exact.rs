@@ -21,7 +21,7 @@ impl Exact {
     }
 
     /// `self · other`.
-    pub fn mul(self, other: Exact) -> Exact {
+    pub fn times(self, other: Exact) -> Exact {
         let (n, d) = (
             self.value.num() as u128 * other.value.num() as u128,
             self.value.den() as u128 * other.value.den() as u128,
@@ -31,10 +31,10 @@ impl Exact {
     }
 
     /// `self / other`; `other` is never zero (every length and ratio here is positive).
-    pub fn div(self, other: Exact) -> Exact {
+    pub fn over(self, other: Exact) -> Exact {
         let inv =
             Ratio::new(other.value.den() as u128, other.value.num().max(1) as u128).unwrap_or(other.value);
-        self.mul(Exact { value: inv, exact: other.exact })
+        self.times(Exact { value: inv, exact: other.exact })
     }
 }
 
@@ -80,20 +80,20 @@ mod tests {
     fn small_products_stay_exact() {
         let inch = Exact::of(Ratio::new(127, 5).unwrap());
         let six = Exact::of(Ratio::integer(6));
-        let p = inch.div(six);
+        let p = inch.over(six);
         assert!(p.exact);
         assert_eq!(p.value.to_string(), "127/30");
-        assert_eq!(p.mul(six).value, inch.value);
+        assert_eq!(p.times(six).value, inch.value);
     }
 
     #[test]
     fn products_with_pi_round_far_below_any_tolerance() {
-        let p = Exact::of(PI).mul(Exact::of(Ratio::new(127, 5).unwrap()));
+        let p = Exact::of(PI).times(Exact::of(Ratio::new(127, 5).unwrap()));
         assert!(!p.exact);
         let want = std::f64::consts::PI * 25.4;
         assert!((p.value.to_f64() / want - 1.0).abs() < 1e-15);
         // Rounded, then divided back: still π to double precision.
-        let back = p.div(Exact::of(Ratio::new(127, 5).unwrap()));
+        let back = p.over(Exact::of(Ratio::new(127, 5).unwrap()));
         assert!((back.value.to_f64() - std::f64::consts::PI).abs() < 1e-15);
     }
 }

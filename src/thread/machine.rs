@@ -48,18 +48,18 @@ impl Machine {
 
     fn fixed(&self, position: Option<&GearboxPosition>) -> Exact {
         let g = position.map_or(Ratio::integer(1), |p| p.ratio);
-        Exact::of(self.stud_ratio).mul(Exact::of(g))
+        Exact::of(self.stud_ratio).times(Exact::of(g))
     }
 
     /// The change-gear ratio that cuts `lead_mm` per spindle turn through `position`.
     pub fn train_ratio_for(&self, lead_mm: Exact, position: Option<&GearboxPosition>) -> Exact {
-        self.leadscrew.mm.div(lead_mm.mul(self.fixed(position)))
+        self.leadscrew.mm.over(lead_mm.times(self.fixed(position)))
     }
 
     /// The lead (mm per spindle turn) a change-gear train of ratio `train` cuts through
     /// `position`.
     pub fn lead_cut_mm(&self, train: Ratio, position: Option<&GearboxPosition>) -> Exact {
-        self.leadscrew.mm.div(Exact::of(train).mul(self.fixed(position)))
+        self.leadscrew.mm.over(Exact::of(train).times(self.fixed(position)))
     }
 }
 

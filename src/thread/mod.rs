@@ -68,7 +68,7 @@ pub struct ThreadSpec {
 impl ThreadSpec {
     /// Lead per spindle turn, mm.
     pub fn lead_mm(&self) -> Exact {
-        self.pitch.mm.mul(Exact::of(Ratio::integer(self.starts as u64)))
+        self.pitch.mm.times(Exact::of(Ratio::integer(self.starts as u64)))
     }
 }
 
@@ -252,7 +252,7 @@ impl Lathe {
             fit,
             position: position.cloned(),
             lead_cut_mm,
-            pitch_cut_mm: lead_cut_mm.div(starts),
+            pitch_cut_mm: lead_cut_mm.over(starts),
             train,
         }
     }

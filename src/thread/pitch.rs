@@ -88,9 +88,9 @@ pub fn parse_pitch(text: &str, flag: &str) -> Result<Pitch> {
     let pi = Exact { value: PI, exact: false };
     let mm = match kind {
         PitchKind::Metric => g,
-        PitchKind::Inch => inch.div(g),
-        PitchKind::Module => pi.mul(g),
-        PitchKind::Diametral => pi.mul(inch).div(g),
+        PitchKind::Inch => inch.over(g),
+        PitchKind::Module => pi.times(g),
+        PitchKind::Diametral => pi.times(inch).over(g),
     };
     Ok(Pitch { text: t.to_string(), kind, given, mm })
 }

@@ -57,14 +57,16 @@ fn header(w: &mut dyn Write, lathe: &Lathe) -> io::Result<()> {
 
 fn footer(w: &mut dyn Write, lead_basis: &str) -> io::Result<()> {
     writeln!(w)?;
-    writeln!(
-        w,
-        "Pitch error = pitch cut / pitch wanted − 1; lead error is that over {lead_basis}. Intermediate \
-         gears are given driven, driver (the pair keyed together on one stud). Ratios follow ISO \
-         1122-1 (input turns per output turn); gearbox ratios are input turns per leadscrew turn. \
-         Set the hand of the thread with the tumbler reverse."
-    )?;
-    writeln!(w, "CAUTION: {CAUTION}")
+    writeln!(w, "Pitch error = pitch cut / pitch wanted − 1; lead error is that over {lead_basis}.")?;
+    writeln!(w, "Intermediate gears: driven, driver (the pair keyed together on one stud); int. stud and")?;
+    writeln!(w, "idler stud distances are mm from the leadscrew axis. Ratios follow ISO 1122-1 (input")?;
+    writeln!(w, "turns per output turn); gearbox ratios are input turns per leadscrew turn. Set the hand")?;
+    writeln!(w, "of the thread with the tumbler reverse.")?;
+    for (i, sentence) in CAUTION.split_inclusive(". ").enumerate() {
+        let lead = if i == 0 { "CAUTION:" } else { "        " };
+        writeln!(w, "{lead} {}", sentence.trim_end())?;
+    }
+    Ok(())
 }
 
 /// Cells shared by thread and chart rows: box, stud, idler, intermediates, leadscrew, pitch cut,
@@ -87,9 +89,9 @@ fn setup_cells(s: &Setup, lathe: &Lathe, pitch: &super::pitch::Pitch) -> Vec<Str
     let error =
         if s.is_exact() { "exact".to_string() } else { crate::output::describe_error(&s.pitch_error) };
     let banjo = match (s.fit.stud_mesh_inner, s.fit.intermediate_from_leadscrew_mm) {
-        (Some(true), Some(r)) => format!("stud mesh inner; stud {} mm out", fmt_num(r)),
-        (Some(false), Some(r)) => format!("leadscrew mesh inner; stud {} mm out", fmt_num(r)),
-        (None, Some(r)) => format!("idler stud {} mm out", fmt_num(r)),
+        (Some(true), Some(r)) => format!("stud mesh inner; int. stud {} mm", fmt_num(r)),
+        (Some(false), Some(r)) => format!("leadscrew mesh inner; int. stud {} mm", fmt_num(r)),
+        (None, Some(r)) => format!("idler stud {} mm", fmt_num(r)),
         _ if lathe.banjo.is_some() && s.train.stages.len() == 1 => "direct mesh".to_string(),
         _ => "-".to_string(),
     };

@@ -1,0 +1,256 @@
+//! `gearsieve thread` and `gearsieve chart`: change gears for a thread on a lathe, and a chart of
+//! the best setup for every thread of a series. The clap structs mirror the flags; `TryFrom`
+//! turns them into a validated [`Lathe`] and the thread or series to run.
+
+use std::path::{Path, PathBuf};
+
+use clap::{ArgGroup, Args};
+use gearsieve::catalog::CatalogueDefaults;
+use gearsieve::pool::{Pool, MAX_STAGES, MAX_TEETH, MIN_TEETH};
+use gearsieve::range::{parse_float_range, parse_int_range};
+use gearsieve::target::{parse_ratio, parse_tolerance};
+use gearsieve::thread::banjo::{load_banjo, Banjo};
+use gearsieve::thread::chart::chart;
+use gearsieve::thread::machine::{load_gearbox, parse_gearbox_list, Machine};
+use gearsieve::thread::pitch::{parse_leadscrew, parse_pitch};
+use gearsieve::thread::series::{built_in, load_list, SeriesEntry};
+use gearsieve::thread::table::{ChartReport, ThreadReport};
+use gearsieve::thread::{self, Lathe, ThreadSpec};
+use gearsieve::{Error, RunOptions};
+
+use super::progress::Bar;
+use super::search::{load_stock, FormatArg, PrintArgs};
+use super::{EXIT_INTERRUPTED, EXIT_NOTHING_FOUND, EXIT_OK};
+
+/// The lathe and its change gears, shared by `thread` and `chart`.
+#[derive(Args, Debug)]
+pub struct LatheArgs {
+    /// The leadscrew: threads per inch (8tpi) or a metric pitch (3mm).
+    #[arg(long, value_name = "PITCH")]
+    pub leadscrew: String,
+    /// Fixed ratio from spindle to stud, spindle turns per stud turn (1, 2, 1/2).
+    #[arg(long, value_name = "R", default_value = "1")]
+    pub stud_ratio: String,
+    /// Gearbox between the change gears and the leadscrew: a list NAME=RATIO,… (A=2,B=1,C=1/2)
+    /// or a file of NAME = RATIO lines; ratios are input turns per leadscrew turn. Each setup
+    /// names the position it uses.
+    #[arg(long, value_name = "LIST|FILE")]
+    pub gearbox: Option<String>,
+    /// Change gears on hand, from a CSV catalogue (repeatable); each used at most its quantity.
+    #[arg(long, value_name = "FILE")]
+    pub stock: Vec<PathBuf>,
+    /// Change gears to be cut instead: every tooth count in LO..HI, any number of each.
+    #[arg(long, value_name = "LO..HI", conflicts_with = "stock")]
+    pub teeth: Option<String>,
+    /// Module in mm for --teeth (default 1), or for catalogue rows that give none.
+    #[arg(long, value_name = "MM", allow_negative_numbers = true)]
+    pub module: Option<f64>,
+    /// Pressure angle in degrees for --teeth, and for catalogue rows that give none.
+    #[arg(long, value_name = "DEG", default_value_t = 20.0, allow_negative_numbers = true)]
+    pub pressure_angle: f64,
+    /// Banjo geometry from a file (stud_to_leadscrew_mm, intermediate_from_leadscrew_mm,
+    /// shaft_diameter_mm); setups that cannot be set up on it are rejected.
+    #[arg(long, value_name = "FILE", conflicts_with_all = ["stud_to_leadscrew", "intermediate_range", "shaft_diameter"])]
+    pub banjo: Option<PathBuf>,
+    /// Banjo: distance between the stud and leadscrew axes, mm.
+    #[arg(long, value_name = "MM", requires_all = ["intermediate_range", "shaft_diameter"], allow_negative_numbers = true)]
+    pub stud_to_leadscrew: Option<f64>,
+    /// Banjo: distances from the leadscrew the intermediate stud can take, LO..HI mm.
+    #[arg(long, value_name = "LO..HI", requires_all = ["stud_to_leadscrew", "shaft_diameter"])]
+    pub intermediate_range: Option<String>,
+    /// Banjo: diameter of the shafts and spacers the gears must clear, mm.
+    #[arg(long, value_name = "MM", requires_all = ["stud_to_leadscrew", "intermediate_range"], allow_negative_numbers = true)]
+    pub shaft_diameter: Option<f64>,
+    /// Change-gear stages: 1 is a simple train through an idler, 2 a compound train; N or A..B.
+    #[arg(long, value_name = "N|A..B", default_value = "1..2")]
+    pub stages: String,
+    /// Pitch tolerance |pitch cut / pitch − 1| ≤ T: 0 (exact), 0.1%, 50ppm; at most 10%.
+    #[arg(long, value_name = "T", default_value = "0.1%", allow_hyphen_values = true)]
+    pub tol: String,
+    /// Setups to list; all are counted.
+    #[arg(long, value_name = "K", default_value_t = 10)]
+    pub limit: usize,
+    #[command(flatten)]
+    pub print: PrintArgs,
+}
+
+/// Change gears for one thread on a lathe: the best setups, with the pitch each cuts.
+///
+/// Lead = starts × pitch. Each setup names the gear in each position (stud, idler or
+/// intermediate driven and driver, leadscrew), the pitch it cuts, the pitch error and the lead
+/// error over 100 mm (inch per inch for inch threads).
+#[derive(Args, Debug)]
+pub struct ThreadArgs {
+    /// The thread: 1.25mm, 11tpi, module:2 (worm, axial pitch π·m) or dp:16 (worm, π/P inch).
+    #[arg(long, value_name = "PITCH")]
+    pub pitch: String,
+    /// Starts of a multi-start thread.
+    #[arg(long, value_name = "N", default_value_t = 1)]
+    pub starts: u32,
+    /// Also list trains that cut the thread but cannot be set up on the banjo, and why.
+    #[arg(long)]
+    pub explain: bool,
+    #[command(flatten)]
+    pub lathe: LatheArgs,
+}
+
+/// A chart of the best setup for every thread of a series, to print and keep by the machine.
+#[derive(Args, Debug)]
+#[command(group(ArgGroup::new("thread_list").required(true).args(["series", "list"])))]
+pub struct ChartArgs {
+    /// Built-in series: iso-coarse (ISO 261), iso-fine (ISO 262), unc, unf (ASME B1.1).
+    #[arg(long, value_name = "NAME")]
+    pub series: Option<String>,
+    /// A list file instead: one thread a line, LABEL, PITCH or just PITCH.
+    #[arg(long, value_name = "FILE")]
+    pub list: Option<PathBuf>,
+    #[command(flatten)]
+    pub lathe: LatheArgs,
+}
+
+fn banjo_from(a: &LatheArgs) -> Result<Option<Banjo>, Error> {
+    if let Some(path) = &a.banjo {
+        return load_banjo(path, "--banjo").map(Some);
+    }
+    match (a.stud_to_leadscrew, &a.intermediate_range, a.shaft_diameter) {
+        (Some(d), Some(r), Some(s)) => {
+            let range = parse_float_range(r, "--intermediate-range", "mm")?;
+            Banjo::new(d, range, s, &|what, m| Error::flag(&format!("--{what}"), m)).map(Some)
+        }
+        _ => Ok(None),
+    }
+}
+
+impl TryFrom<&LatheArgs> for Lathe {
+    type Error = Error;
+
+    fn try_from(a: &LatheArgs) -> Result<Lathe, Error> {
+        let leadscrew = parse_leadscrew(&a.leadscrew, "--leadscrew")?;
+        let stud_ratio = parse_ratio(&a.stud_ratio, "--stud-ratio")?;
+        let gearbox = match &a.gearbox {
+            None => Vec::new(),
+            Some(g) if Path::new(g).is_file() => load_gearbox(Path::new(g), "--gearbox")?,
+            Some(g) => parse_gearbox_list(g, "--gearbox")?,
+        };
+        let pool = match (&a.teeth, a.stock.is_empty()) {
+            (Some(t), _) => {
+                let teeth = parse_int_range(t, "--teeth", "teeth", MIN_TEETH, MAX_TEETH)?;
+                Pool::to_cut(teeth, a.module.unwrap_or(1.0), a.pressure_angle, None)?
+            }
+            (None, false) => load_stock(
+                &a.stock,
+                CatalogueDefaults { module_mm: a.module, pressure_angle_deg: a.pressure_angle },
+            )?,
+            (None, true) => {
+                return Err(Error::flag(
+                    "--stock",
+                    "give the change gears on hand (--stock FILE) or a range to cut (--teeth LO..HI)",
+                ))
+            }
+        };
+        let stages = parse_int_range(&a.stages, "--stages", "stages", 1, MAX_STAGES as u32)?;
+        let tolerance = parse_tolerance(&a.tol, "--tol")?;
+        Lathe::new(
+            Machine { leadscrew, stud_ratio, gearbox },
+            pool,
+            banjo_from(a)?,
+            stages,
+            tolerance,
+            a.limit,
+        )
+    }
+}
+
+fn render(
+    format: FormatArg,
+    table: impl FnOnce(&mut Vec<u8>) -> std::io::Result<()>,
+    csv: impl FnOnce(&mut Vec<u8>) -> std::io::Result<()>,
+    json: impl FnOnce(&mut Vec<u8>) -> std::io::Result<()>,
+) -> anyhow::Result<Vec<u8>> {
+    let mut buf = Vec::new();
+    match format {
+        FormatArg::Table => table(&mut buf)?,
+        FormatArg::Csv => csv(&mut buf)?,
+        FormatArg::Json => json(&mut buf)?,
+    }
+    Ok(buf)
+}
+
+/// Run `gearsieve thread`.
+pub fn run_thread(args: ThreadArgs) -> anyhow::Result<i32> {
+    let lathe = Lathe::try_from(&args.lathe)?;
+    if args.starts == 0 {
+        return Err(Error::flag("--starts", "a thread has at least one start").into());
+    }
+    let spec = ThreadSpec { pitch: parse_pitch(&args.pitch, "--pitch")?, starts: args.starts };
+    let print = &args.lathe.print;
+    let bar = Bar::new(print.quiet);
+    let progress = |p| bar.update(p);
+    let options =
+        RunOptions { progress: Some(&progress), cancel: Some(&super::CANCEL), ..RunOptions::default() };
+    let (plan, rejected) = super::with_threads(print.threads.map(usize::from), || {
+        let plan = lathe.plan(&spec, &options)?;
+        let rejected = if args.explain { Some(lathe.explain(&spec, &options)?) } else { None };
+        Ok::<_, Error>((plan, rejected))
+    })??;
+    bar.finish();
+    let report = ThreadReport { lathe: &lathe, plan: &plan, rejected: rejected.as_deref() };
+    let buf = render(
+        print.format,
+        |w| thread::table::write_thread(&report, w),
+        |w| thread::csv::write_thread(&report, w),
+        |w| thread::json::write_thread(&report, w),
+    )?;
+    if !super::output::emit(print.output.as_deref(), &buf)? {
+        return Ok(EXIT_OK);
+    }
+    if !plan.complete {
+        eprintln!("gearsieve: interrupted; the setups above are the best found so far");
+        return Ok(EXIT_INTERRUPTED);
+    }
+    if plan.count == 0 {
+        eprintln!(
+            "gearsieve: no setup cuts {} within the tolerance from these gears. Try a looser --tol, \
+             more --stages or more stock{}.",
+            spec.pitch,
+            if lathe.banjo.is_some() { "; --explain shows what the banjo refused" } else { "" }
+        );
+        return Ok(EXIT_NOTHING_FOUND);
+    }
+    Ok(EXIT_OK)
+}
+
+/// Run `gearsieve chart`.
+pub fn run_chart(args: ChartArgs) -> anyhow::Result<i32> {
+    let lathe = Lathe::try_from(&args.lathe)?;
+    let (name, series): (String, Vec<SeriesEntry>) = match (&args.series, &args.list) {
+        (Some(s), _) => (s.clone(), built_in(s, "--series")?),
+        (None, Some(f)) => (f.display().to_string(), load_list(f, "--list")?),
+        (None, None) => return Err(Error::flag("--series", "give --series NAME or --list FILE").into()),
+    };
+    let print = &args.lathe.print;
+    let options = RunOptions { progress: None, cancel: Some(&super::CANCEL), ..RunOptions::default() };
+    let result = super::with_threads(print.threads.map(usize::from), || chart(&lathe, &series, &options))??;
+    let report = ChartReport { lathe: &lathe, series: &name, chart: &result };
+    let buf = render(
+        print.format,
+        |w| thread::table::write_chart(&report, w),
+        |w| thread::csv::write_chart(&report, w),
+        |w| thread::json::write_chart(&report, w),
+    )?;
+    if !super::output::emit(print.output.as_deref(), &buf)? {
+        return Ok(EXIT_OK);
+    }
+    if !result.complete {
+        eprintln!("gearsieve: interrupted; the chart above stops early");
+        return Ok(EXIT_INTERRUPTED);
+    }
+    if result.reachable() == 0 {
+        eprintln!(
+            "gearsieve: no thread of {name} can be cut within the tolerance from these gears. Try a \
+             looser --tol, more --stages or more stock."
+        );
+        return Ok(EXIT_NOTHING_FOUND);
+    }
+    Ok(EXIT_OK)
+}

@@ -1,0 +1,573 @@
+//! `gearsieve thread` and `gearsieve chart`: published worked examples, output shapes, errors,
+//! the shipped lathe files, and properties of every reported setup.
+
+mod common;
+use common::*;
+
+use gearsieve::catalog::{load, CatalogueDefaults};
+use gearsieve::pool::{Pool, StockGear};
+use gearsieve::range::{FloatRange, IntRange};
+use gearsieve::rational::Ratio;
+use gearsieve::thread::banjo::{load_banjo, Banjo};
+use gearsieve::thread::machine::{load_gearbox, GearboxPosition, Machine};
+use gearsieve::thread::pitch::{parse_leadscrew, parse_pitch};
+use gearsieve::thread::{Lathe, ThreadSpec};
+use gearsieve::RunOptions;
+use proptest::prelude::*;
+use serde_json::Value;
+
+/// Teeth of the gears by position name in one JSON setup.
+fn gear(setup: &Value, position: &str) -> Option<u64> {
+    setup["gears"].as_array()?.iter().find(|g| g["position"] == position).and_then(|g| g["teeth"].as_u64())
+}
+
+fn exact_simple_pairs(v: &Value) -> Vec<(u64, u64)> {
+    v["trains"]
+        .as_array()
+        .unwrap()
+        .iter()
+        .filter(|t| t["meshes"] == 1 && t["exact"] == true)
+        .map(|t| (gear(t, "stud").unwrap(), gear(t, "leadscrew").unwrap()))
+        .collect()
+}
+
+#[test]
+fn metric_on_an_inch_leadscrew_needs_the_127() {
+    // "Turning and Boring": 3 mm on a 6-per-inch lead-screw: 90 on the stud, 127 on the screw.
+    let (code, v) = json(&[
+        "thread",
+        "--leadscrew",
+        "6tpi",
+        "--pitch",
+        "3mm",
+        "--teeth",
+        "20..127",
+        "--stages",
+        "1",
+        "--tol",
+        "0",
+        "--limit",
+        "50",
+    ]);
+    assert_eq!(code, 0);
+    assert_eq!(exact_simple_pairs(&v), vec![(90, 127)]);
+    assert_eq!(v["trains"][0]["lead_cut_mm_exact"], "3");
+}
+
+#[test]
+fn simple_trains_of_the_published_examples() {
+    // "American Mechanic": 5 per inch on a 2-per-inch screw, 40 on the spindle → 100.
+    // "Construction Tools": 4 per inch on a 2-per-inch screw → 20 and 40; 7 per inch on a
+    // 1-per-inch screw → 20 and 140.
+    for (screw, thread, pair) in
+        [("2tpi", "5tpi", (40, 100)), ("2tpi", "4tpi", (20, 40)), ("1tpi", "7tpi", (20, 140))]
+    {
+        let (code, v) = json(&[
+            "thread",
+            "--leadscrew",
+            screw,
+            "--pitch",
+            thread,
+            "--teeth",
+            "20..140",
+            "--stages",
+            "1",
+            "--tol",
+            "0",
+            "--limit",
+            "200",
+        ]);
+        assert_eq!(code, 0, "{thread} on {screw}");
+        let pairs = exact_simple_pairs(&v);
+        assert!(pairs.contains(&pair), "{thread} on {screw}: {pairs:?}");
+        let want = parse_leadscrew(screw, "s").unwrap().mm.value.to_f64()
+            / parse_pitch(thread, "p").unwrap().mm.value.to_f64();
+        for (a, b) in pairs {
+            assert!((b as f64 / a as f64 - want).abs() < 1e-12, "{a}→{b}");
+        }
+    }
+}
+
+#[test]
+fn a_fractional_thread_needs_a_compound_train() {
+    // "Construction Tools": 2.3 per inch on a 1.8-per-inch screw with a 20 wheel would need
+    // 25.555 teeth, so a compound train is needed. Gears of 20..30 teeth hold no simple pair in
+    // the ratio 23/18; a compound train of them cuts it exactly.
+    let base = ["thread", "--leadscrew", "1.8tpi", "--pitch", "2.3tpi", "--teeth", "20..30", "--tol", "0"];
+    let mut simple = base.to_vec();
+    simple.extend(["--stages", "1"]);
+    let (code, v) = json(&simple);
+    assert_eq!(code, 1);
+    assert_eq!(v["count"], 0);
+    let mut compound = base.to_vec();
+    compound.extend(["--stages", "2"]);
+    let (code, v) = json(&compound);
+    assert_eq!(code, 0);
+    let t = &v["trains"][0];
+    assert_eq!(t["meshes"], 2);
+    assert_eq!(t["exact"], true);
+    assert_eq!(t["ratio"], "23/18");
+}
+
+#[test]
+fn eleven_per_inch_through_the_published_compound() {
+    // "Modern Machine Shop Practice": 4 × 66/48 × 36/18 = 11 per inch on a 4-per-inch screw.
+    let (_dir, stock) = temp_catalogue("four.csv", b"teeth,module\n66,1\n48,1\n36,1\n18,1\n");
+    let (code, v) = json(&[
+        "thread",
+        "--leadscrew",
+        "4tpi",
+        "--pitch",
+        "11tpi",
+        "--stock",
+        &stock,
+        "--stages",
+        "2",
+        "--tol",
+        "0",
+    ]);
+    assert_eq!(code, 0);
+    let trains = v["trains"].as_array().unwrap();
+    assert!(!trains.is_empty());
+    for t in trains {
+        let stages = t["stages"].as_array().unwrap();
+        let mut drivers: Vec<u64> = stages.iter().map(|s| s["driver"].as_u64().unwrap()).collect();
+        let mut driven: Vec<u64> = stages.iter().map(|s| s["driven"].as_u64().unwrap()).collect();
+        drivers.sort();
+        driven.sort();
+        assert_eq!((drivers, driven), (vec![18, 48], vec![36, 66]));
+        assert_eq!(t["exact"], true);
+        assert!((t["pitch_cut"].as_f64().unwrap() - 11.0).abs() < 1e-12);
+    }
+}
+
+#[test]
+fn one_inch_is_25_4_mm_exactly() {
+    // 1 in = 25.4 mm exactly (Wikipedia, "Inch", "Modern standardisation"): a 25.4 mm pitch on a
+    // 1-per-inch leadscrew is cut by any pair of equal ratio, exactly.
+    let (code, v) = json(&[
+        "thread",
+        "--leadscrew",
+        "1tpi",
+        "--pitch",
+        "25.4mm",
+        "--teeth",
+        "20..40",
+        "--stages",
+        "2",
+        "--tol",
+        "0",
+    ]);
+    assert_eq!(code, 0);
+    assert_eq!(v["trains"][0]["ratio"], "1");
+    assert_eq!(v["trains"][0]["lead_cut_mm_exact"], "127/5");
+    assert_eq!(v["thread"]["lead_mm_exact"], "127/5");
+}
+
+#[test]
+fn table_names_positions_and_carries_the_caution() {
+    let r = gearsieve(&[
+        "thread",
+        "--leadscrew",
+        "8tpi",
+        "--pitch",
+        "1.25mm",
+        "--stock",
+        "catalogs/lathe-change-gears.csv",
+        "--banjo",
+        "catalogs/lathe/brackenfold.banjo",
+        "--limit",
+        "3",
+    ]);
+    assert_eq!(r.code, 0, "{}", r.stderr);
+    for word in ["stud", "idler", "intermediate", "leadscrew", "pitch cut", "lead error", "exact"] {
+        assert!(r.stdout.contains(word), "{word}\n{}", r.stdout);
+    }
+    assert!(r.stdout.contains("machine stopped and isolated from power"));
+    assert!(r.stdout.contains("trial cut and a thread gauge"));
+}
+
+#[test]
+fn gearbox_positions_are_named() {
+    let (code, v) = json(&[
+        "thread",
+        "--leadscrew",
+        "8tpi",
+        "--pitch",
+        "4tpi",
+        "--teeth",
+        "20..80",
+        "--gearbox",
+        "catalogs/lathe/brackenfold.gearbox",
+        "--stages",
+        "1",
+        "--tol",
+        "0",
+        "--limit",
+        "200",
+    ]);
+    assert_eq!(code, 0);
+    let names: Vec<&str> =
+        v["trains"].as_array().unwrap().iter().map(|t| t["position"].as_str().unwrap()).collect();
+    // 4 per inch on 8 per inch needs the leadscrew at 1/2 of the spindle speed: a train of
+    // 1/4 through A (2), 1/2 through B (1), 1 through C (1/2). No stage has a ratio of 1
+    // (a stage needs two tooth counts), so C has no simple train.
+    for n in ["A", "B"] {
+        assert!(names.contains(&n), "{names:?}");
+    }
+    assert!(!names.contains(&"C"), "{names:?}");
+    for t in v["trains"].as_array().unwrap() {
+        let want = match t["position"].as_str().unwrap() {
+            "A" => "1/4",
+            _ => "1/2",
+        };
+        assert_eq!(t["ratio"], want);
+    }
+    let r = gearsieve(&[
+        "thread",
+        "--leadscrew",
+        "8tpi",
+        "--pitch",
+        "4tpi",
+        "--teeth",
+        "20..60",
+        "--gearbox",
+        "A=2,B=1",
+        "--format",
+        "csv",
+    ]);
+    assert_eq!(r.code, 0);
+    assert!(r.stdout.starts_with("rank,position,stud,idler,intermediates,leadscrew"));
+}
+
+#[test]
+fn nothing_found_says_so_and_still_writes_json_and_csv() {
+    let args = [
+        "thread",
+        "--leadscrew",
+        "8tpi",
+        "--pitch",
+        "1.25mm",
+        "--stock",
+        "catalogs/lathe-change-gears-no127.csv",
+        "--tol",
+        "0",
+    ];
+    let (code, v) = json(&args);
+    assert_eq!(code, 1);
+    assert_eq!(v["count"], 0);
+    assert!(v["trains"].as_array().unwrap().is_empty());
+    let mut csv = args.to_vec();
+    csv.extend(["--format", "csv"]);
+    let r = gearsieve(&csv);
+    assert_eq!(r.code, 1);
+    assert_eq!(r.stdout.lines().count(), 1, "header only");
+    assert!(r.stderr.contains("no setup cuts 1.25mm"), "{}", r.stderr);
+}
+
+#[test]
+fn explain_lists_what_the_banjo_refuses() {
+    // A banjo too short for any simple train of these gears to close.
+    let (code, v) = json(&[
+        "thread",
+        "--leadscrew",
+        "2tpi",
+        "--pitch",
+        "4tpi",
+        "--teeth",
+        "20..40",
+        "--stages",
+        "1",
+        "--tol",
+        "0",
+        "--stud-to-leadscrew",
+        "400",
+        "--intermediate-range",
+        "20..60",
+        "--shaft-diameter",
+        "10",
+        "--explain",
+    ]);
+    assert_eq!(code, 1);
+    let rej = v["rejected"].as_array().unwrap();
+    assert!(!rej.is_empty());
+    for x in rej {
+        assert!(!x["reasons"].as_array().unwrap().is_empty());
+    }
+}
+
+#[test]
+fn bad_input_is_one_line_and_exit_2() {
+    let (_d, bad_box) = temp_catalogue("box.gearbox", b"A = 2\nB two\n");
+    let (_e, bad_list) = temp_catalogue("mine.txt", b"M8, 1.25mm\nM10, 1.5\n");
+    let (_f, bad_banjo) = temp_catalogue("b.banjo", b"stud_to_leadscrew_mm = 120\nshaft = 3\n");
+    let cases: Vec<(Vec<&str>, &str)> = vec![
+        (vec!["thread", "--leadscrew", "8tpi", "--pitch", "1.25", "--teeth", "20..60"], "--pitch: "),
+        (vec!["thread", "--leadscrew", "module:2", "--pitch", "1mm", "--teeth", "20..60"], "--leadscrew: "),
+        (vec!["thread", "--leadscrew", "8tpi", "--pitch", "1mm"], "--stock: "),
+        (
+            vec!["thread", "--leadscrew", "8tpi", "--pitch", "1mm", "--teeth", "20..60", "--tol", "20%"],
+            "--tol: ",
+        ),
+        (
+            vec!["thread", "--leadscrew", "8tpi", "--pitch", "1mm", "--teeth", "20..60", "--starts", "0"],
+            "--starts: ",
+        ),
+        (
+            vec![
+                "thread",
+                "--leadscrew",
+                "8tpi",
+                "--pitch",
+                "1mm",
+                "--teeth",
+                "20..60",
+                "--gearbox",
+                &bad_box,
+            ],
+            "line 2",
+        ),
+        (
+            vec![
+                "thread",
+                "--leadscrew",
+                "8tpi",
+                "--pitch",
+                "1mm",
+                "--teeth",
+                "20..60",
+                "--banjo",
+                &bad_banjo,
+            ],
+            "unknown key \"shaft\"",
+        ),
+        (vec!["chart", "--leadscrew", "8tpi", "--teeth", "20..60", "--list", &bad_list], "line 2"),
+        (vec!["chart", "--leadscrew", "8tpi", "--teeth", "20..60", "--series", "bsw"], "--series: "),
+    ];
+    for (args, want) in cases {
+        let r = gearsieve(&args);
+        assert_eq!(r.code, 2, "{args:?}: {}", r.stderr);
+        assert_eq!(r.stderr.trim_end().lines().count(), 1, "{args:?}: {}", r.stderr);
+        assert!(r.stderr.contains(want), "{args:?}: {}", r.stderr);
+        assert!(!r.stderr.contains("panicked"));
+    }
+}
+
+#[test]
+fn chart_covers_the_series_and_marks_what_is_out_of_reach() {
+    let (code, v) = json(&[
+        "chart",
+        "--series",
+        "iso-coarse",
+        "--leadscrew",
+        "8tpi",
+        "--stock",
+        "catalogs/lathe-change-gears-no127.csv",
+        "--banjo",
+        "catalogs/lathe/brackenfold.banjo",
+        "--tol",
+        "0.05%",
+    ]);
+    assert_eq!(code, 0);
+    let rows = v["rows"].as_array().unwrap();
+    assert_eq!(rows.len(), 21);
+    let mut out_of_reach = 0;
+    for r in rows {
+        if r["reachable"] == true {
+            assert!(r["setup"]["error"].as_f64().unwrap().abs() <= 5e-4 + 1e-15);
+        } else {
+            out_of_reach += 1;
+            assert!(r["setup"].is_null());
+            let n = &r["nearest"];
+            assert!(n["error"].as_f64().unwrap().abs() > 5e-4, "{r}");
+        }
+    }
+    assert!(out_of_reach > 0, "without the 127 some metric pitches are out of 0.05%");
+    let t = gearsieve(&[
+        "chart",
+        "--series",
+        "unc",
+        "--leadscrew",
+        "8tpi",
+        "--stock",
+        "catalogs/lathe-change-gears.csv",
+    ]);
+    assert_eq!(t.code, 0);
+    assert!(t.stdout.contains("1/4-20 UNC") && t.stdout.contains("2-4 1/2 UNC"));
+    assert!(t.stdout.contains("isolated from power"));
+    let c = gearsieve(&[
+        "chart",
+        "--series",
+        "iso-fine",
+        "--leadscrew",
+        "8tpi",
+        "--stock",
+        "catalogs/lathe-change-gears.csv",
+        "--format",
+        "csv",
+    ]);
+    assert_eq!(c.code, 0);
+    assert_eq!(c.stdout.lines().count(), 11);
+}
+
+#[test]
+fn shipped_lathe_files_load() {
+    let root = std::path::Path::new(env!("CARGO_MANIFEST_DIR")).join("catalogs");
+    let b = load_banjo(&root.join("lathe/brackenfold.banjo"), "--banjo").unwrap();
+    assert!(b.stud_to_leadscrew_mm > 0.0);
+    let g = load_gearbox(&root.join("lathe/brackenfold.gearbox"), "--gearbox").unwrap();
+    assert_eq!(g.len(), 3);
+    let with = load(&root.join("lathe-change-gears.csv"), CatalogueDefaults::default()).unwrap();
+    let without = load(&root.join("lathe-change-gears-no127.csv"), CatalogueDefaults::default()).unwrap();
+    assert!(with.iter().any(|g| g.teeth == 127));
+    assert!(!without.iter().any(|g| g.teeth == 127));
+    assert_eq!(with.len(), without.len() + 1);
+}
+
+// Properties on random lathes, pitches and gear boxes.
+
+fn stock(teeth: &[u32]) -> Pool {
+    let g: Vec<StockGear> = teeth
+        .iter()
+        .map(|&t| StockGear {
+            teeth: t,
+            module_mm: 1.5,
+            diametral_pitch: None,
+            pressure_angle_deg: 20.0,
+            quantity: 1,
+            label: String::new(),
+        })
+        .collect();
+    Pool::from_stock(&g, "random").unwrap()
+}
+
+/// The banjo model, restated independently of the library: slot, closure, clearances.
+fn violates(b: &Banjo, s: &gearsieve::thread::Setup) -> Option<String> {
+    let tip = |m: f64, z: u32| m * (z as f64 + 2.0) / 2.0;
+    let c = b.shaft_diameter_mm / 2.0;
+    let d = b.stud_to_leadscrew_mm;
+    let st = &s.train.stages;
+    let eps = 1e-9;
+    for g in st {
+        for z in [g.driver.teeth, g.driven.teeth] {
+            if g.module_mm * (z as f64 - 2.5) / 2.0 <= c {
+                return Some(format!("{z} does not fit its shaft"));
+            }
+        }
+    }
+    let in_slot = |r: f64| {
+        let s = b.intermediate_from_leadscrew_mm;
+        r >= s.lo - eps && r <= s.hi + eps
+    };
+    let closes = |a1: f64, a2: f64| a1 + a2 + eps >= d && (a1 - a2).abs() <= d + eps;
+    match st.len() {
+        1 => {
+            let m = st[0].module_mm;
+            let (za, zd) = (st[0].driver.teeth, st[0].driven.teeth);
+            if let Some(zi) = s.fit.idler {
+                let (a1, a2) = (m * (za + zi) as f64 / 2.0, m * (zi + zd) as f64 / 2.0);
+                if !in_slot(a2) || !closes(a1, a2) || tip(m, za) + tip(m, zd) > d + eps {
+                    return Some(format!("idler {zi} does not place"));
+                }
+            } else if (m * (za + zd) as f64 / 2.0 - d).abs() > 1e-6 {
+                return Some("direct mesh does not reach".into());
+            }
+        }
+        2 => {
+            let (a1, a2) = (st[0].centre_distance_mm(), st[1].centre_distance_mm());
+            if !in_slot(a2) || !closes(a1, a2) {
+                return Some("triangle does not close in the slot".into());
+            }
+            let ok = match s.fit.stud_mesh_inner {
+                Some(true) => {
+                    tip(st[0].module_mm, st[0].driven.teeth) + c <= a2 + eps
+                        && tip(st[0].module_mm, st[0].driver.teeth) + c <= d + eps
+                }
+                Some(false) => {
+                    tip(st[1].module_mm, st[1].driver.teeth) + c <= a1 + eps
+                        && tip(st[1].module_mm, st[1].driven.teeth) + c <= d + eps
+                }
+                None => false,
+            };
+            if !ok {
+                return Some("an inner-plane gear fouls a shaft".into());
+            }
+        }
+        _ => return Some("more stages than asked".into()),
+    }
+    None
+}
+
+proptest! {
+    #![proptest_config(ProptestConfig::with_cases(48))]
+
+    #[test]
+    fn reported_setups_cut_what_they_claim_and_fit_the_banjo(
+        tpi_screw in prop::sample::select(vec!["4tpi", "6tpi", "8tpi", "10tpi", "3mm", "6mm"]),
+        thread in prop::sample::select(vec![
+            "0.5mm", "0.75mm", "1mm", "1.25mm", "1.5mm", "1.75mm", "2mm", "3mm",
+            "10tpi", "11tpi", "13tpi", "18tpi", "20tpi", "27tpi", "module:1", "dp:20",
+        ]),
+        starts in 1u32..3,
+        teeth in prop::collection::btree_set(18u32..128, 6..14),
+        gearbox in prop::option::of(prop::sample::select(vec![
+            vec![(1u64, 2u64), (1, 1), (2, 1)], vec![(3, 2), (1, 1)],
+        ])),
+        distance in 90.0f64..160.0,
+        slot_lo in 30.0f64..70.0,
+        shaft in 12.0f64..24.0,
+        tol_ppm in prop::sample::select(vec![0u64, 200, 1000, 5000]),
+    ) {
+        let teeth: Vec<u32> = teeth.into_iter().collect();
+        let machine = Machine {
+            leadscrew: parse_leadscrew(tpi_screw, "--leadscrew").unwrap(),
+            stud_ratio: Ratio::integer(1),
+            gearbox: gearbox.unwrap_or_default().into_iter().enumerate().map(|(i, (n, d))| {
+                GearboxPosition { name: format!("P{i}"), ratio: Ratio::new(n as u128, d as u128).unwrap() }
+            }).collect(),
+        };
+        let banjo = Banjo {
+            stud_to_leadscrew_mm: distance,
+            intermediate_from_leadscrew_mm: FloatRange { lo: slot_lo, hi: 160.0 },
+            shaft_diameter_mm: shaft,
+        };
+        let Ok(pool) = Pool::from_stock(
+            &teeth.iter().map(|&t| StockGear { teeth: t, module_mm: 1.5, diametral_pitch: None,
+                pressure_angle_deg: 20.0, quantity: 1, label: String::new() }).collect::<Vec<_>>(),
+            "random") else { return Ok(()); };
+        let tol = Ratio::new(tol_ppm as u128, 1_000_000).unwrap();
+        let lathe = Lathe::new(machine.clone(), pool, Some(banjo.clone()),
+            IntRange { lo: 1, hi: 2 }, tol, 8).unwrap();
+        let spec = ThreadSpec { pitch: parse_pitch(thread, "--pitch").unwrap(), starts };
+        let plan = lathe.plan(&spec, &RunOptions::default()).unwrap();
+        prop_assert!(plan.setups.len() as u64 <= plan.count);
+        let want_mm = spec.pitch.mm.value.to_f64();
+        for s in &plan.setups {
+            // Recompute the lead from the gears alone: leadscrew pitch × Π drivers / Π driven
+            // / gearbox ratio, exactly.
+            let (mut num, mut den) = (
+                machine.leadscrew.mm.value.num() as u128,
+                machine.leadscrew.mm.value.den() as u128,
+            );
+            for st in &s.train.stages {
+                num *= st.driver.teeth as u128;
+                den *= st.driven.teeth as u128;
+            }
+            if let Some(p) = &s.position {
+                num *= p.ratio.den() as u128;
+                den *= p.ratio.num() as u128;
+            }
+            den *= starts as u128;
+            let pitch = Ratio::new(num, den).unwrap();
+            if spec.pitch.mm.exact {
+                prop_assert_eq!(pitch, s.pitch_cut_mm.value);
+            }
+            prop_assert!((pitch.to_f64() / s.pitch_cut_mm.value.to_f64() - 1.0).abs() < 1e-12);
+            let err = pitch.to_f64() / want_mm - 1.0;
+            prop_assert!((err - s.pitch_error.to_f64()).abs() < 1e-9, "{} vs {}", err, s.pitch_error.to_f64());
+            prop_assert!(err.abs() <= tol.to_f64() + 1e-12);
+            prop_assert_eq!(violates(&banjo, s), None);
+            let _ = stock(&teeth);
+        }
+    }
+}
