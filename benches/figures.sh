@@ -1,0 +1,38 @@
+#!/usr/bin/env bash
+# Reproducible timing of the release binary: each case runs REPEAT times (default 3) one after
+# the other in this one run; the table gives the median wall time, the peak resident memory
+# (GNU time's maximum RSS) and the count of trains found, as Markdown rows for the README.
+# Usage: benches/figures.sh [REPEAT]   (needs /usr/bin/time)
+set -euo pipefail
+cd "$(dirname "$0")/.."
+REPEAT=${1:-3}
+cargo build --release --quiet
+BIN=target/release/gearsieve
+
+run_case() {
+    local label=$1; shift
+    local times=() rss=0 count=""
+    for _ in $(seq "$REPEAT"); do
+        local out
+        out=$( { /usr/bin/time -f "TIME %e %M" "$BIN" search --quiet --format json "$@" > /tmp/gearsieve-figures.json; } 2>&1 | grep '^TIME' || true)
+        times+=("$(echo "$out" | awk '{print $2}')")
+        local m; m=$(echo "$out" | awk '{print $3}')
+        (( m > rss )) && rss=$m
+        count=$(python3 -c 'import json;print(json.load(open("/tmp/gearsieve-figures.json"))["count"])')
+    done
+    local median; median=$(printf '%s\n' "${times[@]}" | sort -g | awk '{a[NR]=$1} END {print a[int((NR+1)/2)]}')
+    printf '| %s | `%s` | %s s | %d MiB | %s |\n' "$label" "$*" "$median" $(( rss / 1024 )) "$count"
+}
+
+echo "| case | arguments | median wall | peak RSS | count |"
+echo "|---|---|---|---|---|"
+run_case "2 stages, 12..150, 0.1%" --ratio 37.5 --tol 0.1% --teeth 12..150 --stages 2
+run_case "3 stages, 12..150, 10 ppm" --ratio 37.5 --tol 10ppm --teeth 12..150 --stages 3
+run_case "1..3 stages, 12..200, exact 127/120" --ratio 127/120 --teeth 12..200 --stages 1..3
+run_case "exhaustive, 2 stages, 12..300, 10 ppm" --ratio 7.3 --tol 10ppm --teeth 12..300 --stages 2 --engine exhaustive
+run_case "sieve, same space" --ratio 7.3 --tol 10ppm --teeth 12..300 --stages 2
+for w in 40 80 140; do
+    for n in 1 2 3; do
+        run_case "scaling: $w tooth counts, $n stages, 10 ppm" --ratio 29.530588 --tol 10ppm --teeth 12..$((11 + w)) --stages $n
+    done
+done
