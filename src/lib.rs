@@ -45,4 +45,4 @@ pub mod train;
 
 pub use engine::{search, EngineKind, Outcome, RunOptions};
 pub use error::{Error, Result};
-pub use problem::{MeshRules, Problem, StageLimits, TrainCheck};
+pub use problem::{ExtraKey, MeshRules, Problem, StageLimits, TrainCheck};

@@ -27,6 +27,36 @@ impl TrainCheck {
     }
 }
 
+/// A trade workflow's own ranking key (smaller is better), used where the problem's rank list
+/// names [`crate::rank::RankKey::Extra`]. Called for trains already within tolerance; must be a
+/// pure function of the train.
+#[derive(Clone)]
+pub struct ExtraKey {
+    /// The key's name in reports (e.g. `balance`).
+    pub name: &'static str,
+    /// The key's value for a train.
+    pub key: Arc<dyn Fn(&Train) -> f64 + Send + Sync>,
+}
+
+impl ExtraKey {
+    /// Wrap a key function.
+    pub fn new(name: &'static str, f: impl Fn(&Train) -> f64 + Send + Sync + 'static) -> ExtraKey {
+        ExtraKey { name, key: Arc::new(f) }
+    }
+}
+
+impl fmt::Debug for ExtraKey {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        write!(f, "ExtraKey({})", self.name)
+    }
+}
+
+impl PartialEq for ExtraKey {
+    fn eq(&self, other: &Self) -> bool {
+        self.name == other.name && Arc::ptr_eq(&self.key, &other.key)
+    }
+}
+
 impl fmt::Debug for TrainCheck {
     fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
         f.write_str("TrainCheck(..)")
@@ -117,6 +147,8 @@ pub struct Problem {
     pub mesh: Option<MeshRules>,
     /// List the Pareto front on (|error|, meshes, size) instead of the best `limit`.
     pub pareto: bool,
+    /// The extra ranking key, needed when `rank` names [`RankKey::Extra`].
+    pub extra_key: Option<ExtraKey>,
 }
 
 impl Problem {
@@ -153,6 +185,7 @@ impl Problem {
             train_check: None,
             mesh: None,
             pareto: false,
+            extra_key: None,
         };
         if p.stage_counts().is_empty() {
             return Err(Error::flag(

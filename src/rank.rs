@@ -19,6 +19,9 @@ pub enum RankKey {
     Size,
     /// Largest pitch diameter, mm.
     Span,
+    /// The problem's own extra key ([`crate::problem::ExtraKey`]), set by a trade workflow
+    /// (for example a reducer's stage balance); not available on the command line of `search`.
+    Extra,
 }
 
 impl RankKey {
@@ -29,6 +32,7 @@ impl RankKey {
             RankKey::Meshes => "meshes",
             RankKey::Size => "size",
             RankKey::Span => "span",
+            RankKey::Extra => "extra",
         }
     }
 }
@@ -75,6 +79,8 @@ pub struct Candidate {
     pub size: u32,
     /// Largest pitch diameter, mm.
     pub span_mm: f64,
+    /// The problem's extra key (0 when it has none); smaller is better.
+    pub extra: f64,
 }
 
 impl Candidate {
@@ -94,6 +100,10 @@ pub trait Ranked {
     fn size(&self) -> u32;
     /// Largest pitch diameter, mm.
     fn span_mm(&self) -> f64;
+    /// The problem's extra key (0 when it has none).
+    fn extra(&self) -> f64 {
+        0.0
+    }
     /// The canonical stage sequence, compared stage by stage in stage-table order (ratio,
     /// driver teeth, driven teeth, module, pressure angle): the last tie-break.
     fn cmp_stages(&self, other: &Self) -> Ordering;
@@ -112,6 +122,9 @@ impl Ranked for Candidate {
     fn span_mm(&self) -> f64 {
         self.span_mm
     }
+    fn extra(&self) -> f64 {
+        self.extra
+    }
     fn cmp_stages(&self, other: &Self) -> Ordering {
         // Index order is the order of the stages' values (the table is sorted by them).
         self.stage_indices().cmp(other.stage_indices())
@@ -127,6 +140,7 @@ pub fn compare<T: Ranked>(keys: &[RankKey], a: &T, b: &T) -> Ordering {
             RankKey::Meshes => a.meshes().cmp(&b.meshes()),
             RankKey::Size => a.size().cmp(&b.size()),
             RankKey::Span => a.span_mm().total_cmp(&b.span_mm()),
+            RankKey::Extra => a.extra().total_cmp(&b.extra()),
         };
         if o != Ordering::Equal {
             return o;
@@ -264,6 +278,7 @@ mod tests {
             error: RelError::of(p, q, Ratio::integer(10)),
             size,
             span_mm: 0.0,
+            extra: 0.0,
         }
     }
 

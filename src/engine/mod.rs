@@ -221,10 +221,16 @@ impl<'p> SearchSpace<'p> {
             self.coaxial_misfits.fetch_add(1, AtomicOrdering::Relaxed);
             return None;
         }
-        let c = Candidate { stages, len: idx.len() as u8, error, size, span_mm: span };
-        if let Some(check) = &self.problem.train_check {
-            if !(check.0)(&self.train(&c)) {
-                return None;
+        let mut c = Candidate { stages, len: idx.len() as u8, error, size, span_mm: span, extra: 0.0 };
+        if self.problem.train_check.is_some() || self.problem.extra_key.is_some() {
+            let train = self.train(&c);
+            if let Some(check) = &self.problem.train_check {
+                if !(check.0)(&train) {
+                    return None;
+                }
+            }
+            if let Some(k) = &self.problem.extra_key {
+                c.extra = (k.key)(&train);
             }
         }
         Some(c)

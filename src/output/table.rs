@@ -39,7 +39,14 @@ pub fn write(report: &Report, w: &mut dyn Write) -> io::Result<()> {
         o.stage_options
     )?;
     writeln!(w)?;
-    let keys: Vec<&str> = p.rank.iter().map(|k| k.name()).collect();
+    let keys: Vec<&str> = p
+        .rank
+        .iter()
+        .map(|k| match (k, &p.extra_key) {
+            (crate::rank::RankKey::Extra, Some(x)) => x.name,
+            _ => k.name(),
+        })
+        .collect();
     let status = if o.complete {
         ""
     } else {
