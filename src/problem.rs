@@ -163,16 +163,10 @@ impl Problem {
         limit: usize,
     ) -> Result<Problem> {
         if stages.lo < 1 || stages.hi as usize > MAX_STAGES {
-            return Err(Error::flag(
-                "--stages",
-                format!("stages must lie within 1..{MAX_STAGES}"),
-            ));
+            return Err(Error::flag("--stages", format!("stages must lie within 1..{MAX_STAGES}")));
         }
         if rank.is_empty() {
-            return Err(Error::flag(
-                "--rank",
-                "give at least one key of error, meshes, size, span",
-            ));
+            return Err(Error::flag("--rank", "give at least one key of error, meshes, size, span"));
         }
         let p = Problem {
             target,
@@ -218,7 +212,10 @@ impl Problem {
         }
         if let Some(a) = rules.centre_distance_mm {
             if !(a.is_finite() && a > 0.0) {
-                return Err(Error::flag("--centre-distance", format!("wanted a positive distance in mm, found {a}")));
+                return Err(Error::flag(
+                    "--centre-distance",
+                    format!("wanted a positive distance in mm, found {a}"),
+                ));
             }
         }
         if !(rules.centre_tolerance_mm.is_finite() && rules.centre_tolerance_mm >= 0.0) {
@@ -232,7 +229,10 @@ impl Problem {
         if self.stage_counts().is_empty() {
             return Err(Error::flag(
                 "--coaxial",
-                format!("a coaxial (reverted) train needs an even number of stages; none in {} qualifies", self.stages),
+                format!(
+                    "a coaxial (reverted) train needs an even number of stages; none in {} qualifies",
+                    self.stages
+                ),
             ));
         }
         Ok(self)

@@ -52,9 +52,7 @@ pub fn parse_rank(text: &str, flag: &str) -> Result<Vec<RankKey>> {
             _ => {
                 return Err(Error::flag(
                     flag,
-                    format!(
-                        "unknown key \"{part}\"; wanted a comma list of error, meshes, size, span"
-                    ),
+                    format!("unknown key \"{part}\"; wanted a comma list of error, meshes, size, span"),
                 ))
             }
         };
@@ -134,17 +132,9 @@ impl Ranked for Candidate {
 /// Order two trains by `keys`, then fewer meshes, smaller |error|, negative error before
 /// positive, and finally the stage sequence: a total order.
 pub fn compare<T: Ranked>(keys: &[RankKey], a: &T, b: &T) -> Ordering {
-    for k in keys {
-        let o = match k {
-            RankKey::Error => a.rel_error().cmp_abs(b.rel_error()),
-            RankKey::Meshes => a.meshes().cmp(&b.meshes()),
-            RankKey::Size => a.size().cmp(&b.size()),
-            RankKey::Span => a.span_mm().total_cmp(&b.span_mm()),
-            RankKey::Extra => a.extra().total_cmp(&b.extra()),
-        };
-        if o != Ordering::Equal {
-            return o;
-        }
+    let o = compare_keys(keys, a, b);
+    if o != Ordering::Equal {
+        return o;
     }
     a.meshes()
         .cmp(&b.meshes())
@@ -159,24 +149,44 @@ pub struct TopK {
     k: usize,
     keys: Vec<RankKey>,
     held: Vec<Candidate>,
+    /// The worst candidate kept at the last shrink: anything ranking after it on the keys
+    /// alone can never enter.
+    worst: Option<Candidate>,
     /// Every candidate offered.
     pub count: u64,
+}
+
+/// Order by the ranking keys alone (no tie-break).
+pub fn compare_keys<T: Ranked>(keys: &[RankKey], a: &T, b: &T) -> Ordering {
+    for k in keys {
+        let o = match k {
+            RankKey::Error => a.rel_error().cmp_abs(b.rel_error()),
+            RankKey::Meshes => a.meshes().cmp(&b.meshes()),
+            RankKey::Size => a.size().cmp(&b.size()),
+            RankKey::Span => a.span_mm().total_cmp(&b.span_mm()),
+            RankKey::Extra => a.extra().total_cmp(&b.extra()),
+        };
+        if o != Ordering::Equal {
+            return o;
+        }
+    }
+    Ordering::Equal
 }
 
 impl TopK {
     /// An empty store keeping the best `k` by `keys`.
     pub fn new(k: usize, keys: &[RankKey]) -> TopK {
-        TopK {
-            k,
-            keys: keys.to_vec(),
-            held: Vec::new(),
-            count: 0,
-        }
+        TopK { k, keys: keys.to_vec(), held: Vec::new(), worst: None, count: 0 }
     }
 
     /// Offer one candidate.
     pub fn push(&mut self, c: Candidate) {
         self.count += 1;
+        self.push_uncounted(c);
+    }
+
+    /// Offer a candidate already counted (with [`TopK::add_count`]).
+    pub fn push_uncounted(&mut self, c: Candidate) {
         if self.k == 0 {
             return;
         }
@@ -189,10 +199,21 @@ impl TopK {
     fn shrink(&mut self) {
         let keys = &self.keys;
         if self.held.len() > self.k {
-            self.held
-                .select_nth_unstable_by(self.k, |a, b| compare(keys, a, b));
+            self.held.select_nth_unstable_by(self.k, |a, b| compare(keys, a, b));
             self.held.truncate(self.k);
+            self.worst = self.held.iter().copied().max_by(|a, b| compare(keys, a, b));
         }
+    }
+
+    /// Count `n` candidates at once, without offering them.
+    pub fn add_count(&mut self, n: u64) {
+        self.count += n;
+    }
+
+    /// Could a candidate no better than `best` on every key enter the best `k`? False only
+    /// when `best` ranks after the kept worst on the keys alone.
+    pub fn could_accept(&self, best: &Candidate) -> bool {
+        self.k > 0 && self.worst.is_none_or(|w| compare_keys(&self.keys, best, &w) != Ordering::Greater)
     }
 
     /// Combine with another store of the same `k` and keys.
@@ -240,6 +261,22 @@ impl ParetoFront {
         self.insert(c);
     }
 
+    /// Offer a candidate already counted.
+    pub fn push_uncounted(&mut self, c: Candidate) {
+        self.insert(c);
+    }
+
+    /// Count `n` candidates at once, without offering them.
+    pub fn add_count(&mut self, n: u64) {
+        self.count += n;
+    }
+
+    /// Could a candidate no better than `best` on every key be on the front? False only when
+    /// a kept one beats `best` (and so everything no better than it).
+    pub fn could_accept(&self, best: &Candidate) -> bool {
+        !self.held.iter().any(|h| dominates(h, best))
+    }
+
     fn insert(&mut self, c: Candidate) {
         if self.held.iter().any(|h| dominates(h, &c)) {
             return;
@@ -284,20 +321,26 @@ mod tests {
 
     #[test]
     fn pareto_front_is_exactly_the_undominated() {
-        let all: Vec<Candidate> =
-            (0..300).map(|i| cand(i, 1 + (i % 4) as u8, 990 + (i as u64 * 37) % 21, 100, 40 + (i * 13) % 50)).collect();
+        let all: Vec<Candidate> = (0..300)
+            .map(|i| cand(i, 1 + (i % 4) as u8, 990 + (i as u64 * 37) % 21, 100, 40 + (i * 13) % 50))
+            .collect();
         let mut a = ParetoFront::default();
         let mut b1 = ParetoFront::default();
         let mut b2 = ParetoFront::default();
         for (i, c) in all.iter().enumerate() {
             a.push(*c);
-            if i % 3 == 0 { b1.push(*c) } else { b2.push(*c) }
+            if i % 3 == 0 {
+                b1.push(*c)
+            } else {
+                b2.push(*c)
+            }
         }
         let (na, fa) = a.into_sorted(&DEFAULT_RANK);
         let (nb, fb) = b1.merge(b2).into_sorted(&DEFAULT_RANK);
         assert_eq!((na, nb), (300, 300));
         assert_eq!(fa, fb);
-        let mut plain: Vec<Candidate> = all.iter().filter(|c| !all.iter().any(|o| dominates(o, c))).copied().collect();
+        let mut plain: Vec<Candidate> =
+            all.iter().filter(|c| !all.iter().any(|o| dominates(o, c))).copied().collect();
         plain.sort_by(|x, y| compare(&DEFAULT_RANK, x, y));
         assert_eq!(fa, plain);
         assert!(!fa.is_empty());
@@ -305,10 +348,7 @@ mod tests {
 
     #[test]
     fn parses_keys() {
-        assert_eq!(
-            parse_rank("size, error", "--rank").unwrap(),
-            vec![RankKey::Size, RankKey::Error]
-        );
+        assert_eq!(parse_rank("size, error", "--rank").unwrap(), vec![RankKey::Size, RankKey::Error]);
         assert!(parse_rank("error,colour", "--rank").is_err());
         assert!(parse_rank("error,error", "--rank").is_err());
         assert!(parse_rank("", "--rank").is_err());
@@ -316,17 +356,13 @@ mod tests {
 
     #[test]
     fn topk_keeps_the_best_whatever_the_order() {
-        let all: Vec<Candidate> = (0..500)
-            .map(|i| cand(i, 1 + (i % 3) as u8, 1000 + (i as u64 * 7919) % 97, 100, i))
-            .collect();
+        let all: Vec<Candidate> =
+            (0..500).map(|i| cand(i, 1 + (i % 3) as u8, 1000 + (i as u64 * 7919) % 97, 100, i)).collect();
         let mut a = TopK::new(10, &DEFAULT_RANK);
         all.iter().for_each(|c| a.push(*c));
         let mut b1 = TopK::new(10, &DEFAULT_RANK);
         let mut b2 = TopK::new(10, &DEFAULT_RANK);
-        all.iter()
-            .rev()
-            .enumerate()
-            .for_each(|(i, c)| if i % 2 == 0 { b1.push(*c) } else { b2.push(*c) });
+        all.iter().rev().enumerate().for_each(|(i, c)| if i % 2 == 0 { b1.push(*c) } else { b2.push(*c) });
         let (na, va) = a.into_sorted();
         let (nb, vb) = b1.merge(b2).into_sorted();
         assert_eq!((na, nb), (500, 500));

@@ -23,11 +23,7 @@ fn check_train(p: &Problem, t: &Train) {
     assert_eq!(t.ratio_from_teeth(), t.ratio, "ratio recomputed from teeth");
     let e = RelError::of(t.ratio.num(), t.ratio.den(), p.target.ratio);
     assert_eq!(e.cmp_abs(&t.error), std::cmp::Ordering::Equal);
-    assert!(
-        e.within(p.target.tolerance),
-        "train {} outside tolerance",
-        t.ratio
-    );
+    assert!(e.within(p.target.tolerance), "train {} outside tolerance", t.ratio);
     assert!(p.stages.contains(t.meshes() as u32));
     if let Some(d) = p.direction {
         assert_eq!(t.direction(), d);
@@ -37,17 +33,9 @@ fn check_train(p: &Problem, t: &Train) {
         let l = &p.limits;
         assert!(l.driver_teeth.is_none_or(|r| r.contains(s.driver.teeth)));
         assert!(l.driven_teeth.is_none_or(|r| r.contains(s.driven.teeth)));
-        assert!(l
-            .stage_ratio
-            .is_none_or(|r| r.contains(s.driven.teeth as u64, s.driver.teeth as u64)));
-        assert!(l
-            .centre_distance_mm
-            .is_none_or(|r| r.contains(s.centre_distance_mm(), 1e-9)));
-        assert!(p
-            .pool
-            .groups
-            .iter()
-            .any(|g| g.meshes_with(s.module_mm, s.pressure_angle_deg)));
+        assert!(l.stage_ratio.is_none_or(|r| r.contains(s.driven.teeth as u64, s.driver.teeth as u64)));
+        assert!(l.centre_distance_mm.is_none_or(|r| r.contains(s.centre_distance_mm(), 1e-9)));
+        assert!(p.pool.groups.iter().any(|g| g.meshes_with(s.module_mm, s.pressure_angle_deg)));
     }
     if p.pool.from_stock {
         let mut used: HashMap<(u32, u64), u32> = HashMap::new();
@@ -71,52 +59,30 @@ fn check_train(p: &Problem, t: &Train) {
 
 fn problem_strategy() -> impl Strategy<Value = Problem> {
     // Targets built as ratios of tooth products, so exact and near hits are common.
-    let target = (
-        (6u64..40, 6u64..40),
-        (6u64..40, 1u64..40),
-        prop_oneof![1 => Just(0u64), 3 => 1u64..4000],
-    )
+    let target = ((6u64..40, 6u64..40), (6u64..40, 1u64..40), prop_oneof![1 => Just(0u64), 3 => 1u64..4000])
         .prop_map(|((a, b), (c, e), tol)| (a * b, c * e, tol));
     let pool = prop_oneof![
-        (6u32..30, 2u32..10).prop_map(|(lo, w)| Pool::to_cut(
-            IntRange { lo, hi: lo + w },
-            1.0,
-            20.0,
-            None
-        )
-        .unwrap()),
-        prop::collection::vec(
-            (
-                6u32..40,
-                prop_oneof![3 => Just(1.0), 1 => Just(1.5)],
-                1u32..4
-            ),
-            4..16
-        )
-        .prop_filter_map("pool must mesh", |gears| {
-            let stock: Vec<StockGear> = gears
-                .into_iter()
-                .map(|(teeth, module_mm, quantity)| StockGear {
-                    teeth,
-                    module_mm,
-                    diametral_pitch: None,
-                    pressure_angle_deg: 20.0,
-                    quantity,
-                    label: String::new(),
-                })
-                .collect();
-            Pool::from_stock(&stock, "random").ok()
-        }),
+        (6u32..30, 2u32..10)
+            .prop_map(|(lo, w)| Pool::to_cut(IntRange { lo, hi: lo + w }, 1.0, 20.0, None).unwrap()),
+        prop::collection::vec((6u32..40, prop_oneof![3 => Just(1.0), 1 => Just(1.5)], 1u32..4), 4..16)
+            .prop_filter_map("pool must mesh", |gears| {
+                let stock: Vec<StockGear> = gears
+                    .into_iter()
+                    .map(|(teeth, module_mm, quantity)| StockGear {
+                        teeth,
+                        module_mm,
+                        diametral_pitch: None,
+                        pressure_angle_deg: 20.0,
+                        quantity,
+                        label: String::new(),
+                    })
+                    .collect();
+                Pool::from_stock(&stock, "random").ok()
+            }),
     ];
-    let stages = (1u32..=3, 0u32..=2).prop_map(|(lo, extra)| IntRange {
-        lo,
-        hi: (lo + extra).min(3),
-    });
+    let stages = (1u32..=4, 0u32..=2).prop_map(|(lo, extra)| IntRange { lo, hi: (lo + extra).min(4) });
     let limits = (
-        proptest::option::weighted(
-            0.3,
-            (6u32..20, 0u32..15).prop_map(|(lo, w)| IntRange { lo, hi: lo + w }),
-        ),
+        proptest::option::weighted(0.3, (6u32..20, 0u32..15).prop_map(|(lo, w)| IntRange { lo, hi: lo + w })),
         proptest::option::weighted(
             0.3,
             (2u64..6, 2u64..8).prop_map(|(a, b)| RatioRange {
@@ -129,10 +95,8 @@ fn problem_strategy() -> impl Strategy<Value = Problem> {
             (5.0f64..20.0, 0.0f64..20.0).prop_map(|(lo, w)| FloatRange { lo, hi: lo + w }),
         ),
     );
-    let direction = proptest::option::weighted(
-        0.3,
-        prop_oneof![Just(Direction::Same), Just(Direction::Opposite)],
-    );
+    let direction =
+        proptest::option::weighted(0.3, prop_oneof![Just(Direction::Same), Just(Direction::Opposite)]);
     let rank = prop_oneof![
         Just(DEFAULT_RANK.to_vec()),
         Just(vec![RankKey::Size, RankKey::Error]),
@@ -162,8 +126,10 @@ proptest! {
 
     #[test]
     fn sieve_equals_exhaustive(p in problem_strategy()) {
-        let fast = run(&p, EngineKind::Sieve);
+        let fast = run(&p, EngineKind::Fast);
+        let sieve = run(&p, EngineKind::Sieve);
         let slow = run(&p, EngineKind::Exhaustive);
+        prop_assert_eq!(&sieve, &slow);
         prop_assert_eq!(fast.count, slow.count);
         if std::env::var_os("GEARSIEVE_PROP_STATS").is_some() {
             eprintln!("count {} stages {} target {} tol {} n {} limits {:?} stock {}", fast.count, fast.stage_options, p.target.ratio, p.target.tolerance, p.stages, p.limits, p.pool.from_stock);
@@ -179,7 +145,7 @@ proptest! {
     fn every_listed_train_is_what_it_claims(p in problem_strategy()) {
         let mut p = p;
         p.limit = 1000;
-        let out = run(&p, EngineKind::Sieve);
+        let out = run(&p, EngineKind::Fast);
         prop_assert!(out.trains.len() as u64 == out.count.min(1000));
         for t in &out.trains {
             check_train(&p, t);
@@ -208,11 +174,7 @@ fn results_do_not_depend_on_thread_count() {
     )
     .unwrap();
     let with = |n| {
-        rayon::ThreadPoolBuilder::new()
-            .num_threads(n)
-            .build()
-            .unwrap()
-            .install(|| run(&p, EngineKind::Sieve))
+        rayon::ThreadPoolBuilder::new().num_threads(n).build().unwrap().install(|| run(&p, EngineKind::Fast))
     };
     let one = with(1);
     assert!(one.count > 50);
@@ -232,7 +194,7 @@ proptest! {
         let mut p = p;
         p.pareto = pareto;
         let doc_of = |shard: Option<Shard>| {
-            let o = search(&p, EngineKind::Sieve, &RunOptions { shard, ..RunOptions::default() });
+            let o = search(&p, EngineKind::Fast, &RunOptions { shard, ..RunOptions::default() });
             json::doc(&Report { problem: &p, outcome: &o, explain: false, shard })
         };
         let whole = doc_of(None);
@@ -242,5 +204,25 @@ proptest! {
         prop_assert_eq!(docs.iter().map(|(_, d)| d.count).sum::<u64>(), whole.count);
         let merged = gearsieve::merge::merge(docs).unwrap();
         prop_assert_eq!(merged, whole);
+    }
+}
+
+#[test]
+fn meet_engine_matches_the_reference_on_four_stages() {
+    for (ratio, tol, rank) in [
+        ("9.3", "2000ppm", DEFAULT_RANK.to_vec()),
+        ("7", "0", vec![RankKey::Size, RankKey::Error]),
+        ("1.5", "1%", vec![RankKey::Span]),
+    ] {
+        let pool = Pool::to_cut(IntRange { lo: 12, hi: 24 }, 1.0, 20.0, None).unwrap();
+        let target = Target::parse(ratio, tol, "--ratio", "--tol").unwrap();
+        let mut p =
+            Problem::new(target, pool, IntRange { lo: 1, hi: 4 }, StageLimits::default(), None, rank, 25)
+                .unwrap();
+        let slow = run(&p, EngineKind::Exhaustive);
+        assert!(slow.count > 25, "{ratio}: {}", slow.count);
+        assert_eq!(run(&p, EngineKind::Fast), slow, "{ratio}");
+        p.pareto = true;
+        assert_eq!(run(&p, EngineKind::Fast), run(&p, EngineKind::Exhaustive), "{ratio} pareto");
     }
 }

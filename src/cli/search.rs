@@ -5,16 +5,16 @@ use std::path::PathBuf;
 
 use clap::{Args, ValueEnum};
 use gearsieve::catalog::{self, CatalogueDefaults};
+use gearsieve::engine::Shard;
+use gearsieve::geometry::MeshLimits;
+use gearsieve::output::{csv as csv_out, json as json_out};
 use gearsieve::output::{render, Format, Report};
 use gearsieve::pool::{Pool, MAX_STAGES, MAX_TEETH, MIN_TEETH};
-use gearsieve::geometry::MeshLimits;
 use gearsieve::problem::MeshRules;
 use gearsieve::range::{parse_float_range, parse_int_range, parse_ratio_range, parse_signed_range};
 use gearsieve::rank::parse_rank;
 use gearsieve::target::Target;
 use gearsieve::train::Direction;
-use gearsieve::engine::Shard;
-use gearsieve::output::{csv as csv_out, json as json_out};
 use gearsieve::{EngineKind, Error, Problem, RunOptions, StageLimits};
 
 use super::progress::Bar;
@@ -47,7 +47,10 @@ impl From<FormatArg> for Format {
 /// The engine flag.
 #[derive(Clone, Copy, Debug, ValueEnum)]
 pub enum EngineArg {
-    /// Depth-first with ratio bounds (fast, default).
+    /// Meet-in-the-middle over distinct stage ratios where it applies (gears to be cut, up to
+    /// four stages), the sieve elsewhere.
+    Fast,
+    /// Depth-first with ratio bounds, for every case.
     Sieve,
     /// Every combination (slow reference).
     Exhaustive,
@@ -90,12 +93,7 @@ pub struct SearchArgs {
     #[arg(long, short, value_name = "R", allow_hyphen_values = true)]
     pub ratio: String,
     /// Relative tolerance |i/R − 1| ≤ T: 0 (exact), 1e-4, 0.01% or 50ppm.
-    #[arg(
-        long,
-        value_name = "T",
-        default_value = "0",
-        allow_hyphen_values = true
-    )]
+    #[arg(long, value_name = "T", default_value = "0", allow_hyphen_values = true)]
     pub tol: String,
     /// Stages (meshes): N or A..B inclusive. Fewer meshes rank first among equal errors.
     #[arg(long, value_name = "N|A..B", default_value = "1..3", allow_hyphen_values = true)]
@@ -108,23 +106,13 @@ pub struct SearchArgs {
     #[arg(long, value_name = "FILE")]
     pub stock: Vec<PathBuf>,
     /// Module in mm for --teeth (default 1), or for catalogue rows that give none.
-    #[arg(
-        long,
-        value_name = "MM",
-        conflicts_with = "diametral_pitch",
-        allow_negative_numbers = true
-    )]
+    #[arg(long, value_name = "MM", conflicts_with = "diametral_pitch", allow_negative_numbers = true)]
     pub module: Option<f64>,
     /// Diametral pitch (teeth per inch of pitch diameter) instead of a module: m = 25.4 / P.
     #[arg(long, value_name = "P", allow_negative_numbers = true)]
     pub diametral_pitch: Option<f64>,
     /// Pressure angle in degrees for --teeth, and for catalogue rows that give none.
-    #[arg(
-        long,
-        value_name = "DEG",
-        default_value_t = 20.0,
-        allow_negative_numbers = true
-    )]
+    #[arg(long, value_name = "DEG", default_value_t = 20.0, allow_negative_numbers = true)]
     pub pressure_angle: f64,
     /// Allowed driver teeth per stage (e.g. clock pinions 6..12).
     #[arg(long, value_name = "LO..HI", allow_hyphen_values = true)]
@@ -183,7 +171,7 @@ pub struct SearchArgs {
     #[arg(long, value_name = "I/N")]
     pub shard: Option<String>,
     /// Search engine; the exhaustive one is a slow reference.
-    #[arg(long, value_enum, default_value = "sieve")]
+    #[arg(long, value_enum, default_value = "fast")]
     pub engine: EngineArg,
     #[command(flatten)]
     pub print: PrintArgs,
@@ -208,10 +196,7 @@ pub fn load_stock(files: &[PathBuf], defaults: CatalogueDefaults) -> Result<Pool
     Pool::from_stock(&gears, &format!("catalogue {}", names.join(", ")))
 }
 
-fn module_from_flags(
-    module: Option<f64>,
-    dp: Option<f64>,
-) -> Result<Option<(f64, Option<f64>)>, Error> {
+fn module_from_flags(module: Option<f64>, dp: Option<f64>) -> Result<Option<(f64, Option<f64>)>, Error> {
     match (module, dp) {
         (Some(m), _) => Ok(Some((m, None))),
         (None, Some(p)) if p.is_finite() && p > 0.0 => Ok(Some((25.4 / p, Some(p)))),
@@ -235,16 +220,12 @@ impl TryFrom<SearchArgs> for SearchJob {
             let (m, dp) = module.unwrap_or((1.0, None));
             Pool::to_cut(teeth, m, a.pressure_angle, dp)?
         } else {
-            let defaults = CatalogueDefaults {
-                module_mm: module.map(|m| m.0),
-                pressure_angle_deg: a.pressure_angle,
-            };
+            let defaults =
+                CatalogueDefaults { module_mm: module.map(|m| m.0), pressure_angle_deg: a.pressure_angle };
             load_stock(&a.stock, defaults)?
         };
         let tooth_range = |s: &Option<String>, flag: &str| {
-            s.as_deref()
-                .map(|s| parse_int_range(s, flag, "teeth", MIN_TEETH, MAX_TEETH))
-                .transpose()
+            s.as_deref().map(|s| parse_int_range(s, flag, "teeth", MIN_TEETH, MAX_TEETH)).transpose()
         };
         let centre = a
             .centre_distance
@@ -275,7 +256,10 @@ impl TryFrom<SearchArgs> for SearchJob {
                 return Err(Error::flag("--limit", "0 streams every train; it does not go with --pareto"));
             }
             if matches!(a.print.format, FormatArg::Table) {
-                return Err(Error::flag("--limit", "0 streams every train; give --format csv or --format json (JSON lines)"));
+                return Err(Error::flag(
+                    "--limit",
+                    "0 streams every train; give --format csv or --format json (JSON lines)",
+                ));
             }
         }
         let geometry = a.check_meshes
@@ -300,9 +284,13 @@ impl TryFrom<SearchArgs> for SearchJob {
             }
             problem = problem.with_mesh_rules(rules)?;
         } else if a.explain {
-            return Err(Error::flag("--explain", "explains the mesh checks; give --check-meshes, a fixed --centre-distance or --coaxial too"));
+            return Err(Error::flag(
+                "--explain",
+                "explains the mesh checks; give --check-meshes, a fixed --centre-distance or --coaxial too",
+            ));
         }
         let engine = match a.engine {
+            EngineArg::Fast => EngineKind::Fast,
             EngineArg::Sieve => EngineKind::Sieve,
             EngineArg::Exhaustive => EngineKind::Exhaustive,
         };
@@ -342,27 +330,34 @@ fn stream(job: &SearchJob, options: &RunOptions) -> anyhow::Result<i32> {
     let mut sink = super::output::Sink::open(path)?;
     let p = &job.problem;
     let json = matches!(job.print.format, FormatArg::Json);
-    let result = super::with_threads(job.print.threads.map(usize::from), || -> std::io::Result<gearsieve::Outcome> {
-        let w = sink.writer();
-        if json {
-            let o = gearsieve::engine::search_each(p, job.engine, options, &mut |t| {
-                json_out::write_line(&json_out::TrainJson::from_train(t), &mut *w)
-            })?;
-            let summary = json_out::Summary { target: json_out::target_json(p), count: o.count, complete: o.complete };
-            json_out::write_line(&summary, w)?;
-            Ok(o)
-        } else {
-            let mut c = ::csv::Writer::from_writer(w);
-            c.write_record(csv_out::header(p)).map_err(csv_io)?;
-            let mut n = 0u64;
-            let o = gearsieve::engine::search_each(p, job.engine, options, &mut |t| {
-                n += 1;
-                c.write_record(csv_out::row(p, n, t)).map_err(csv_io)
-            })?;
-            c.flush()?;
-            Ok(o)
-        }
-    })?;
+    let result = super::with_threads(
+        job.print.threads.map(usize::from),
+        || -> std::io::Result<gearsieve::Outcome> {
+            let w = sink.writer();
+            if json {
+                let o = gearsieve::engine::search_each(p, job.engine, options, &mut |t| {
+                    json_out::write_line(&json_out::TrainJson::from_train(t), &mut *w)
+                })?;
+                let summary = json_out::Summary {
+                    target: json_out::target_json(p),
+                    count: o.count,
+                    complete: o.complete,
+                };
+                json_out::write_line(&summary, w)?;
+                Ok(o)
+            } else {
+                let mut c = ::csv::Writer::from_writer(w);
+                c.write_record(csv_out::header(p)).map_err(csv_io)?;
+                let mut n = 0u64;
+                let o = gearsieve::engine::search_each(p, job.engine, options, &mut |t| {
+                    n += 1;
+                    c.write_record(csv_out::row(p, n, t)).map_err(csv_io)
+                })?;
+                c.flush()?;
+                Ok(o)
+            }
+        },
+    )?;
     let outcome = match result {
         Ok(o) => o,
         Err(e) => {

@@ -13,26 +13,14 @@ impl Engine for Exhaustive {
         "exhaustive"
     }
 
-    fn visit_unit(
-        &self,
-        space: &SearchSpace,
-        n: usize,
-        first: usize,
-        visit: &mut dyn FnMut(&[u32]),
-    ) {
+    fn visit_unit(&self, space: &SearchSpace, n: usize, first: usize, visit: &mut dyn FnMut(&[u32])) {
         let mut idx = [0u32; MAX_STAGES];
         idx[0] = first as u32;
         walk(space.stages.len(), n, 1, &mut idx, visit);
     }
 }
 
-fn walk(
-    len: usize,
-    n: usize,
-    depth: usize,
-    idx: &mut [u32; MAX_STAGES],
-    visit: &mut dyn FnMut(&[u32]),
-) {
+fn walk(len: usize, n: usize, depth: usize, idx: &mut [u32; MAX_STAGES], visit: &mut dyn FnMut(&[u32])) {
     if depth == n {
         visit(&idx[..n]);
         return;

@@ -8,13 +8,16 @@
 //! pruning can make it faster but never make it wrong.
 
 pub mod exhaustive;
+pub mod meet;
 pub mod sieve;
 
 use std::sync::atomic::{AtomicBool, AtomicU64, Ordering as AtomicOrdering};
 
 use rayon::prelude::*;
 
-use crate::geometry::{check_mesh, mesh_geometry, shift_for_centre_distance, MeshDefect, MeshGeometry, Mounting, ToothSystem};
+use crate::geometry::{
+    check_mesh, mesh_geometry, shift_for_centre_distance, MeshDefect, MeshGeometry, Mounting, ToothSystem,
+};
 use crate::pool::{MeshGroup, MAX_STAGES};
 use crate::problem::{MeshRules, Problem};
 use crate::rank::{Candidate, ParetoFront, TopK};
@@ -117,18 +120,11 @@ impl<'p> SearchSpace<'p> {
                 if lim.driven_teeth.is_some_and(|r| !r.contains(b.teeth)) {
                     continue;
                 }
-                if lim
-                    .stage_ratio
-                    .is_some_and(|r| !r.contains(b.teeth as u64, a.teeth as u64))
-                {
+                if lim.stage_ratio.is_some_and(|r| !r.contains(b.teeth as u64, a.teeth as u64)) {
                     continue;
                 }
                 if let Some(cd) = lim.centre_distance_mm {
-                    let a_mm = crate::train::standard_centre_distance_mm(
-                        pool.module_of(i),
-                        a.teeth,
-                        b.teeth,
-                    );
+                    let a_mm = crate::train::standard_centre_distance_mm(pool.module_of(i), a.teeth, b.teeth);
                     if !cd.contains(a_mm, 1e-9 * a_mm) {
                         continue;
                     }
@@ -214,8 +210,7 @@ impl<'p> SearchSpace<'p> {
         for &i in idx {
             let s = &self.stages[i as usize];
             size += s.driver_teeth + s.driven_teeth;
-            span = span
-                .max(pool.module_of(s.driver as usize) * s.driver_teeth.max(s.driven_teeth) as f64);
+            span = span.max(pool.module_of(s.driver as usize) * s.driver_teeth.max(s.driven_teeth) as f64);
         }
         if self.needs_coaxial_fit() && self.coaxial_meshes(idx).is_none() {
             self.coaxial_misfits.fetch_add(1, AtomicOrdering::Relaxed);
@@ -253,12 +248,10 @@ impl<'p> SearchSpace<'p> {
                 }
             }
         }
-        used[..n]
-            .iter()
-            .all(|&(g, c)| gears[g as usize].quantity.is_none_or(|q| c <= q))
+        used[..n].iter().all(|&(g, c)| gears[g as usize].quantity.is_none_or(|q| c <= q))
     }
 
-    fn needs_coaxial_fit(&self) -> bool {
+    pub(crate) fn needs_coaxial_fit(&self) -> bool {
         self.problem.mesh.as_ref().is_some_and(|r| r.coaxial && r.centre_distance_mm.is_none())
     }
 
@@ -305,7 +298,8 @@ impl<'p> SearchSpace<'p> {
             r.push(Rejection {
                 kind: COAXIAL_MISFIT_KIND.into(),
                 count: misfits,
-                example: "trains within tolerance whose stages cannot all be shifted to one centre distance".into(),
+                example: "trains within tolerance whose stages cannot all be shifted to one centre distance"
+                    .into(),
             });
         }
         r
@@ -317,10 +311,7 @@ impl<'p> SearchSpace<'p> {
         let coaxial = if self.needs_coaxial_fit() { self.coaxial_meshes(c.stage_indices()) } else { None };
         let gear = |k: u32| {
             let g = &pool.gears[k as usize];
-            Gear {
-                teeth: g.teeth,
-                labels: g.labels.clone(),
-            }
+            Gear { teeth: g.teeth, labels: g.labels.clone() }
         };
         let mut stages: Vec<Stage> = c
             .stage_indices()
@@ -342,20 +333,14 @@ impl<'p> SearchSpace<'p> {
         // Shown finer module first (toward the input, as reducers are built), then in table
         // order: ascending stage ratio. Stable, so one multiset always prints one way.
         stages.sort_by(|a, b| {
-            a.module_mm
-                .total_cmp(&b.module_mm)
-                .then(a.pressure_angle_deg.total_cmp(&b.pressure_angle_deg))
+            a.module_mm.total_cmp(&b.module_mm).then(a.pressure_angle_deg.total_cmp(&b.pressure_angle_deg))
         });
         let (mut p, mut q) = (1u128, 1u128);
         for &i in c.stage_indices() {
             p *= self.stages[i as usize].driven_teeth as u128;
             q *= self.stages[i as usize].driver_teeth as u128;
         }
-        Train {
-            stages,
-            ratio: Ratio::new(p, q).expect("fits"),
-            error: c.error,
-        }
+        Train { stages, ratio: Ratio::new(p, q).expect("fits"), error: c.error }
     }
 }
 
@@ -367,28 +352,26 @@ pub trait Engine: Sync {
     /// Call `visit` with every non-decreasing sequence of `n` stage indices starting with
     /// `first` that might satisfy the problem. Visiting extra sequences is allowed (the driver
     /// judges each exactly); missing one that satisfies is a bug.
-    fn visit_unit(
-        &self,
-        space: &SearchSpace,
-        n: usize,
-        first: usize,
-        visit: &mut dyn FnMut(&[u32]),
-    );
+    fn visit_unit(&self, space: &SearchSpace, n: usize, first: usize, visit: &mut dyn FnMut(&[u32]));
 }
 
 /// The engines gearsieve ships.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
 pub enum EngineKind {
-    /// Depth-first over ratio-sorted stages with bound pruning (the default).
+    /// The default: the meet engine where it applies (gears to be cut, up to four stages),
+    /// the sieve elsewhere.
+    Fast,
+    /// Depth-first over ratio-sorted stages with bound pruning, for every stage count.
     Sieve,
     /// Every combination, judged one by one: the reference.
     Exhaustive,
 }
 
 impl EngineKind {
+    /// The engine that enumerates unit by unit (the meet engine's fallback for `Fast`).
     fn engine(self) -> &'static dyn Engine {
         match self {
-            EngineKind::Sieve => &sieve::Sieve,
+            EngineKind::Fast | EngineKind::Sieve => &sieve::Sieve,
             EngineKind::Exhaustive => &exhaustive::Exhaustive,
         }
     }
@@ -417,9 +400,12 @@ pub struct Shard {
 impl Shard {
     /// Parse `I/N`.
     pub fn parse(text: &str, flag: &str) -> crate::Result<Shard> {
-        let bad = || crate::Error::flag(flag, format!("\"{text}\" is not a part; wanted I/N with 1 ≤ I ≤ N, e.g. 3/8"));
+        let bad = || {
+            crate::Error::flag(flag, format!("\"{text}\" is not a part; wanted I/N with 1 ≤ I ≤ N, e.g. 3/8"))
+        };
         let (i, n) = text.trim().split_once('/').ok_or_else(bad)?;
-        let (index, count): (u32, u32) = (i.trim().parse().map_err(|_| bad())?, n.trim().parse().map_err(|_| bad())?);
+        let (index, count): (u32, u32) =
+            (i.trim().parse().map_err(|_| bad())?, n.trim().parse().map_err(|_| bad())?);
         if index == 0 || index > count {
             return Err(bad());
         }
@@ -469,13 +455,66 @@ fn units(problem: &Problem, space: &SearchSpace, shard: Option<Shard>) -> Vec<(u
         .into_iter()
         .flat_map(|n| (0..space.stages.len()).map(move |f| (n, f)))
         .enumerate()
-        .filter(|(k, _)| shard.is_none_or(|s| *k as u64 % s.count as u64 == (s.index - 1) as u64))
+        .filter(|(k, _)| in_shard(*k, shard))
         .map(|(_, u)| u)
         .collect()
 }
 
+fn in_shard(k: usize, shard: Option<Shard>) -> bool {
+    shard.is_none_or(|s| k as u64 % s.count as u64 == (s.index - 1) as u64)
+}
+
+/// A unit of work of either kind of engine.
+#[derive(Debug, Clone, Copy)]
+enum Unit {
+    /// All trains of `n` stages starting with stage `first`, enumerated by an [`Engine`].
+    Visit(usize, usize),
+    /// A run of the meet engine.
+    Meet(meet::MeetUnit),
+}
+
+/// The distinct ratios and pair table, when the meet engine takes part.
+struct MeetData {
+    values: meet::Values,
+    pairs: Option<meet::PairTable>,
+}
+
+/// Decide which engine takes which stage count and list the units, in a deterministic order,
+/// after sharding.
+fn plan(
+    problem: &Problem,
+    space: &SearchSpace,
+    engine: EngineKind,
+    shard: Option<Shard>,
+) -> (Vec<Unit>, Option<MeetData>) {
+    let counts = problem.stage_counts();
+    let meet_counts: Vec<usize> = if engine == EngineKind::Fast {
+        counts.iter().copied().filter(|&n| meet::applies(space, n)).collect()
+    } else {
+        Vec::new()
+    };
+    let data = (!meet_counts.is_empty()).then(|| {
+        let values = meet::Values::new(space);
+        let pairs = meet_counts.contains(&4).then(|| meet::PairTable::new(&values)).flatten();
+        MeetData { values, pairs }
+    });
+    let mut all = Vec::new();
+    for n in counts {
+        let by_meet =
+            data.as_ref().is_some_and(|d| meet_counts.contains(&n) && (n <= 3 || d.pairs.is_some()));
+        match (&data, by_meet) {
+            (Some(d), true) => {
+                all.extend(meet::units(n, &d.values, d.pairs.as_ref()).into_iter().map(Unit::Meet))
+            }
+            _ => all.extend((0..space.stages.len()).map(|f| Unit::Visit(n, f))),
+        }
+    }
+    let units = all.into_iter().enumerate().filter(|(k, _)| in_shard(*k, shard)).map(|(_, u)| u).collect();
+    (units, data)
+}
+
 /// What a search keeps while it runs.
-enum Keeper {
+pub(crate) enum Keeper {
     Top(TopK),
     Front(ParetoFront),
 }
@@ -496,6 +535,27 @@ impl Keeper {
         }
     }
 
+    fn push_uncounted(&mut self, c: Candidate) {
+        match self {
+            Keeper::Top(t) => t.push_uncounted(c),
+            Keeper::Front(f) => f.push_uncounted(c),
+        }
+    }
+
+    fn add_count(&mut self, n: u64) {
+        match self {
+            Keeper::Top(t) => t.add_count(n),
+            Keeper::Front(f) => f.add_count(n),
+        }
+    }
+
+    fn could_accept(&self, best: &Candidate) -> bool {
+        match self {
+            Keeper::Top(t) => t.could_accept(best),
+            Keeper::Front(f) => f.could_accept(best),
+        }
+    }
+
     fn merge(self, other: Keeper) -> Keeper {
         match (self, other) {
             (Keeper::Top(a), Keeper::Top(b)) => Keeper::Top(a.merge(b)),
@@ -509,8 +569,15 @@ impl Keeper {
 /// the Pareto front) and counting all.
 pub fn search(problem: &Problem, engine: EngineKind, options: &RunOptions) -> Outcome {
     let space = SearchSpace::new(problem, options.cancel);
+    let (units, data) = plan(problem, &space, engine, options.shard);
     let engine = engine.engine();
-    let units = units(problem, &space, options.shard);
+    let judged = AtomicU64::new(0);
+    let meet = data.as_ref().map(|d| meet::Meet {
+        space: &space,
+        values: &d.values,
+        pairs: d.pairs.as_ref(),
+        judged: &judged,
+    });
     let total = units.len() as u64;
     let done = AtomicU64::new(0);
     let kept = units
@@ -518,13 +585,17 @@ pub fn search(problem: &Problem, engine: EngineKind, options: &RunOptions) -> Ou
         .with_max_len(1)
         .fold(
             || Keeper::new(problem),
-            |mut keep, &(n, first)| {
+            |mut keep, unit| {
                 if !space.cancelled() {
-                    engine.visit_unit(&space, n, first, &mut |idx| {
-                        if let Some(c) = space.judge(idx) {
-                            keep.push(c);
-                        }
-                    });
+                    match (*unit, &meet) {
+                        (Unit::Visit(n, first), _) => engine.visit_unit(&space, n, first, &mut |idx| {
+                            if let Some(c) = space.judge(idx) {
+                                keep.push(c);
+                            }
+                        }),
+                        (Unit::Meet(u), Some(m)) => m.run(u, &mut keep),
+                        (Unit::Meet(_), None) => unreachable!("meet units come with their data"),
+                    }
                 }
                 let d = done.fetch_add(1, AtomicOrdering::Relaxed) + 1;
                 if let Some(p) = options.progress {

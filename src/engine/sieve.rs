@@ -18,27 +18,14 @@ impl Engine for Sieve {
         "sieve"
     }
 
-    fn visit_unit(
-        &self,
-        space: &SearchSpace,
-        n: usize,
-        first: usize,
-        visit: &mut dyn FnMut(&[u32]),
-    ) {
+    fn visit_unit(&self, space: &SearchSpace, n: usize, first: usize, visit: &mut dyn FnMut(&[u32])) {
         let v = &space.values;
         let Some(&vmax) = v.last() else { return };
         let r = v[first];
         if r.powi(n as i32) > space.hi || r * vmax.powi(n as i32 - 1) < space.lo {
             return;
         }
-        let mut walk = Walk {
-            space,
-            vmax,
-            idx: [0; MAX_STAGES],
-            n,
-            visit,
-            stock: Stock::new(space),
-        };
+        let mut walk = Walk { space, vmax, idx: [0; MAX_STAGES], n, visit, stock: Stock::new(space) };
         walk.idx[0] = first as u32;
         if !walk.stock.take(space, first) {
             return;
@@ -108,14 +95,7 @@ struct Stock {
 impl Stock {
     fn new(space: &SearchSpace) -> Stock {
         let active = space.problem.pool.from_stock;
-        Stock {
-            used: if active {
-                vec![0; space.problem.pool.gears.len()]
-            } else {
-                Vec::new()
-            },
-            active,
-        }
+        Stock { used: if active { vec![0; space.problem.pool.gears.len()] } else { Vec::new() }, active }
     }
 
     /// Use the gears of stage `i`; false if the stock runs out (the use is recorded anyway and
