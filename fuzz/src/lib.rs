@@ -8,9 +8,7 @@
 use std::path::Path;
 
 use gearsieve::catalog::{self, CatalogueDefaults};
-use gearsieve::pool::{
-    Pool, StockGear, MAX_TEETH, MIN_TEETH, MODULE_RANGE_MM, PRESSURE_ANGLE_RANGE_DEG,
-};
+use gearsieve::pool::{Pool, StockGear, MAX_TEETH, MIN_TEETH, MODULE_RANGE_MM, PRESSURE_ANGLE_RANGE_DEG};
 use gearsieve::range::{parse_float_range, parse_int_range, parse_ratio_range};
 use gearsieve::rational::{gcd, Ratio};
 use gearsieve::target::{parse_ratio, parse_tolerance};
@@ -45,15 +43,8 @@ pub struct CatalogueOutcome {
 }
 
 fn assert_reduced_positive(r: Ratio, what: &str, input: &str) {
-    assert!(
-        r.den() > 0,
-        "{what} of {input:?} has a zero denominator: {r:?}"
-    );
-    assert_eq!(
-        gcd(r.num() as u128, r.den() as u128),
-        1,
-        "{what} of {input:?} is not reduced: {r:?}"
-    );
+    assert!(r.den() > 0, "{what} of {input:?} has a zero denominator: {r:?}");
+    assert_eq!(gcd(r.num() as u128, r.den() as u128), 1, "{what} of {input:?} is not reduced: {r:?}");
 }
 
 fn assert_names_flag(message: &str, flag: &str, input: &str) {
@@ -84,10 +75,9 @@ pub fn check_text(input: &str) -> TextOutcome {
             assert_reduced_positive(r, "ratio", input);
             let shown = r.to_string();
             match parse_ratio(&shown, "--ratio") {
-                Ok(again) => assert_eq!(
-                    again, r,
-                    "ratio of {input:?} shown as {shown:?} reads back differently"
-                ),
+                Ok(again) => {
+                    assert_eq!(again, r, "ratio of {input:?} shown as {shown:?} reads back differently")
+                }
                 Err(e) => panic!("ratio of {input:?} shown as {shown:?} does not read back: {e}"),
             }
         }
@@ -98,10 +88,7 @@ pub fn check_text(input: &str) -> TextOutcome {
         Ok(t) => {
             seen.tolerance = true;
             assert_reduced_positive(t, "tolerance", input);
-            assert!(
-                t.num() < t.den(),
-                "tolerance of {input:?} is not below 1: {t:?}"
-            );
+            assert!(t.num() < t.den(), "tolerance of {input:?} is not below 1: {t:?}");
         }
         Err(e) => assert_names_flag(&e.to_string(), "--tol", input),
     }
@@ -115,10 +102,9 @@ pub fn check_text(input: &str) -> TextOutcome {
             );
             let shown = r.to_string();
             match parse_int_range(&shown, "--teeth", "teeth", MIN_TEETH, MAX_TEETH) {
-                Ok(again) => assert_eq!(
-                    again, r,
-                    "teeth range of {input:?} shown as {shown:?} reads back differently"
-                ),
+                Ok(again) => {
+                    assert_eq!(again, r, "teeth range of {input:?} shown as {shown:?} reads back differently")
+                }
                 Err(e) => {
                     panic!("teeth range of {input:?} shown as {shown:?} does not read back: {e}")
                 }
@@ -130,10 +116,7 @@ pub fn check_text(input: &str) -> TextOutcome {
     match parse_ratio_range(input, "--stage-ratio") {
         Ok(r) => {
             seen.ratio_range = true;
-            assert!(
-                r.lo.is_some() || r.hi.is_some(),
-                "ratio range of {input:?} has no end"
-            );
+            assert!(r.lo.is_some() || r.hi.is_some(), "ratio range of {input:?} has no end");
             for end in [r.lo, r.hi].into_iter().flatten() {
                 assert!(end.num() > 0, "ratio range of {input:?} has end {end:?}");
                 assert_reduced_positive(end, "ratio range end", input);
@@ -148,10 +131,7 @@ pub fn check_text(input: &str) -> TextOutcome {
     match parse_float_range(input, "--centre-distance", "mm") {
         Ok(r) => {
             seen.float_range = true;
-            assert!(
-                r.lo <= r.hi,
-                "length range of {input:?} is inverted or NaN: {r:?}"
-            );
+            assert!(r.lo <= r.hi, "length range of {input:?} is inverted or NaN: {r:?}");
             assert!(
                 r.lo == 0.0 || (r.lo.is_finite() && r.lo > 0.0),
                 "length range of {input:?} has a bad lower end: {r:?}"
@@ -160,10 +140,7 @@ pub fn check_text(input: &str) -> TextOutcome {
                 r.hi == f64::INFINITY || (r.hi.is_finite() && r.hi > 0.0),
                 "length range of {input:?} has a bad upper end: {r:?}"
             );
-            assert!(
-                r.lo > 0.0 || r.hi.is_finite(),
-                "length range of {input:?} is open at both ends: {r:?}"
-            );
+            assert!(r.lo > 0.0 || r.hi.is_finite(), "length range of {input:?} is open at both ends: {r:?}");
         }
         Err(e) => assert_names_flag(&e.to_string(), "--centre-distance", input),
     }
@@ -189,15 +166,9 @@ fn check_gear(g: &StockGear, input: &[u8]) {
         "loaded a gear of pressure angle {} from {input:?}",
         g.pressure_angle_deg
     );
-    assert!(
-        g.quantity >= 1,
-        "loaded a gear of quantity 0 from {input:?}"
-    );
+    assert!(g.quantity >= 1, "loaded a gear of quantity 0 from {input:?}");
     if let Some(p) = g.diametral_pitch {
-        assert!(
-            p.is_finite() && p > 0.0,
-            "loaded a gear of diametral pitch {p} from {input:?}"
-        );
+        assert!(p.is_finite() && p > 0.0, "loaded a gear of diametral pitch {p} from {input:?}");
         assert!(
             (g.module_mm - 25.4 / p).abs() <= 1e-6 * g.module_mm,
             "loaded a gear whose module {} disagrees with its diametral pitch {p} from {input:?}",
@@ -209,10 +180,7 @@ fn check_gear(g: &StockGear, input: &[u8]) {
 fn check_pool(pool: &Pool, stock: &[StockGear], input: &[u8]) {
     assert!(pool.from_stock, "a pool from stock says it is not");
     for k in &pool.gears {
-        assert!(
-            k.group < pool.groups.len(),
-            "gear kind points at a missing mesh group, from {input:?}"
-        );
+        assert!(k.group < pool.groups.len(), "gear kind points at a missing mesh group, from {input:?}");
         assert!(
             k.quantity.is_some_and(|q| q >= 1),
             "gear kind from stock without a quantity, from {input:?}"
@@ -226,28 +194,20 @@ fn check_pool(pool: &Pool, stock: &[StockGear], input: &[u8]) {
     }
     // Merging may add quantities up but never lose or invent a gear.
     let loaded: u64 = stock.iter().map(|g| g.quantity as u64).sum();
-    let pooled: u64 = pool
-        .gears
-        .iter()
-        .map(|k| k.quantity.unwrap_or(0) as u64)
-        .sum();
-    assert_eq!(
-        loaded, pooled,
-        "the pool holds a different number of gears than {input:?}"
-    );
+    let pooled: u64 = pool.gears.iter().map(|k| k.quantity.unwrap_or(0) as u64).sum();
+    assert_eq!(loaded, pooled, "the pool holds a different number of gears than {input:?}");
     for g in stock {
         assert!(
-            pool.gears.iter().any(|k| k.teeth == g.teeth
-                && pool.groups[k.group].meshes_with(g.module_mm, g.pressure_angle_deg)),
+            pool.gears
+                .iter()
+                .any(|k| k.teeth == g.teeth
+                    && pool.groups[k.group].meshes_with(g.module_mm, g.pressure_angle_deg)),
             "a loaded gear of {} teeth has no place in the pool, from {input:?}",
             g.teeth
         );
     }
     assert!(
-        pool.gears.iter().any(|a| pool
-            .gears
-            .iter()
-            .any(|b| a.group == b.group && a.teeth != b.teeth)),
+        pool.gears.iter().any(|a| pool.gears.iter().any(|b| a.group == b.group && a.teeth != b.teeth)),
         "the pool was accepted though nothing in it can mesh, from {input:?}"
     );
 }
@@ -280,10 +240,7 @@ pub fn check_catalogue(input: &[u8]) -> CatalogueOutcome {
     let with_default = catalog::parse(
         input,
         path,
-        CatalogueDefaults {
-            module_mm: Some(1.25),
-            ..CatalogueDefaults::default()
-        },
+        CatalogueDefaults { module_mm: Some(1.25), ..CatalogueDefaults::default() },
     );
 
     match &bare {
@@ -301,10 +258,7 @@ pub fn check_catalogue(input: &[u8]) -> CatalogueOutcome {
 
     match &with_default {
         Ok(gears) => {
-            assert!(
-                !gears.is_empty(),
-                "loaded no gears without an error from {input:?}"
-            );
+            assert!(!gears.is_empty(), "loaded no gears without an error from {input:?}");
             seen.gears_with_default = gears.len();
             gears.iter().for_each(|g| check_gear(g, input));
             match Pool::from_stock(gears, CATALOGUE_NAME) {
