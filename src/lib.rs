@@ -29,6 +29,7 @@
 //! product of driver teeth.
 
 pub mod catalog;
+pub mod clock;
 pub mod engine;
 pub mod error;
 pub mod geometry;

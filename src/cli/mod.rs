@@ -2,6 +2,7 @@
 //! file turning its arguments into a library problem (`TryFrom`), and the shared edge work —
 //! exit codes, the progress bar, Ctrl-C, writing output safely.
 
+mod clock;
 mod mesh;
 mod merge;
 mod output;
@@ -51,6 +52,8 @@ enum Command {
     Thread(Box<thread::ThreadArgs>),
     /// The best change-gear setup for every thread of a series: a chart for the machine.
     Chart(Box<thread::ChartArgs>),
+    /// Clock trains: the going train, the motion work, astronomical trains.
+    Clock(clock::ClockArgs),
 }
 
 /// Parse the command line, run, and return the exit status.
@@ -79,6 +82,7 @@ pub fn run() -> i32 {
         Command::Mesh(args) => mesh::run(*args),
         Command::Thread(args) => thread::run_thread(*args),
         Command::Chart(args) => thread::run_chart(*args),
+        Command::Clock(args) => clock::run(args),
     };
     match result {
         Ok(code) => code,

@@ -1,0 +1,342 @@
+//! `gearsieve clock`: clock trains in the clockmaker's words — `going` (pendulum to escape
+//! wheel), `motion` (the motion work and other hand ratios) and `astro` (moon phase, sidereal
+//! time, the year). The clap structs mirror the flags; `TryFrom` turns them into the library's
+//! specs, valid by construction.
+
+use std::path::PathBuf;
+
+use clap::{ArgGroup, Args, Subcommand};
+use gearsieve::catalog::CatalogueDefaults;
+use gearsieve::clock::astro::{AstroSpec, InputArbor, Period};
+use gearsieve::clock::beat::{Beat, Escapement, STANDARD_GRAVITY};
+use gearsieve::clock::going::{parse_rate_tolerance, GoingSpec};
+use gearsieve::clock::motion::{Dial, MotionSpec};
+use gearsieve::clock::{self, going, motion};
+use gearsieve::pool::{Pool, MAX_STAGES, MAX_TEETH, MIN_TEETH};
+use gearsieve::range::{parse_int_range, IntRange};
+use gearsieve::target::{parse_ratio, parse_tolerance};
+use gearsieve::{Error, RunOptions};
+
+use super::progress::Bar;
+use super::search::{load_stock, FormatArg, PrintArgs};
+use super::{EXIT_INTERRUPTED, EXIT_NOTHING_FOUND, EXIT_OK};
+
+/// Clock trains: the going train, the motion work, astronomical trains.
+#[derive(Args, Debug)]
+pub struct ClockArgs {
+    #[command(subcommand)]
+    pub what: ClockCommand,
+}
+
+/// Which clock train.
+#[derive(Subcommand, Debug)]
+pub enum ClockCommand {
+    /// The going train from the arbor that turns once an hour to the escape arbor.
+    Going(Box<GoingArgs>),
+    /// The motion work (12:1 reverted train behind the hands) or another hand ratio.
+    Motion(Box<MotionArgs>),
+    /// A dial turning once per synodic month, sidereal day or tropical year.
+    Astro(Box<AstroArgs>),
+}
+
+/// Wheels to cut, or wheels on hand; shared by the clock commands.
+#[derive(Args, Debug)]
+pub struct ClockGears {
+    /// Wheels and pinions on hand, from a CSV catalogue (repeatable); each used at most its
+    /// quantity.
+    #[arg(long, value_name = "FILE")]
+    pub stock: Vec<PathBuf>,
+    /// Module in mm of the wheels to cut, or for catalogue rows that give none.
+    #[arg(long, value_name = "MM", default_value_t = 0.5, allow_negative_numbers = true)]
+    pub module: f64,
+    /// Stages (meshes): N or A..B.
+    #[arg(long, value_name = "N|A..B", allow_hyphen_values = true)]
+    pub stages: Option<String>,
+    /// Trains to list; all are counted.
+    #[arg(long, value_name = "K", default_value_t = 10)]
+    pub limit: usize,
+    #[command(flatten)]
+    pub print: PrintArgs,
+}
+
+/// The going train: from the pendulum and escape wheel, search the wheels and pinions from the
+/// arbor that turns once an hour (or --from-turns-per-hour) to the escape arbor. Wheels drive
+/// pinions, so the ratio i (input turns per output turn) is below 1.
+#[derive(Args, Debug)]
+#[command(group(ArgGroup::new("beat").required(true).args(["pendulum", "period", "beats_per_hour"])))]
+pub struct GoingArgs {
+    /// Pendulum length in m (simple pendulum, small swings): period 2π·√(L/g).
+    #[arg(long, value_name = "M", allow_negative_numbers = true)]
+    pub pendulum: Option<f64>,
+    /// Pendulum period in s, a full swing there and back (2 for a seconds pendulum).
+    #[arg(long, value_name = "S")]
+    pub period: Option<String>,
+    /// Beats per hour (a beat is one swing, half a period).
+    #[arg(long, value_name = "N")]
+    pub beats_per_hour: Option<String>,
+    /// Local gravity for --pendulum, m/s².
+    #[arg(long, value_name = "G", default_value_t = STANDARD_GRAVITY, allow_negative_numbers = true)]
+    pub gravity: f64,
+    /// Escape wheel teeth.
+    #[arg(long, value_name = "N", default_value_t = 30)]
+    pub escape_teeth: u32,
+    /// Beats per escape wheel tooth: 2 for an anchor or dead-beat escapement (one per pallet).
+    #[arg(long, value_name = "N", default_value_t = 2)]
+    pub beats_per_tooth: u32,
+    /// Turns per hour of the arbor the train starts from: 1 for the centre arbor.
+    #[arg(long, value_name = "R", default_value = "1")]
+    pub from_turns_per_hour: String,
+    /// Wheel teeth allowed (the drivers).
+    #[arg(long, value_name = "LO..HI", default_value_t = going::DEFAULT_WHEELS.to_string())]
+    pub wheels: String,
+    /// Pinion leaves allowed (the driven), from 6.
+    #[arg(long, value_name = "LO..HI", default_value_t = going::DEFAULT_PINIONS.to_string())]
+    pub pinions: String,
+    /// Largest rate error accepted, seconds per day; 0 for exact.
+    #[arg(long, value_name = "S", default_value = "0")]
+    pub rate_tol: String,
+    #[command(flatten)]
+    pub gears: ClockGears,
+}
+
+/// The motion work: the reverted train from the minute (cannon) arbor to the hour wheel, which
+/// turns coaxially on it; or any other hand ratio. Pinions drive wheels (i > 1).
+#[derive(Args, Debug)]
+pub struct MotionArgs {
+    /// A named hand: hour (12:1), 24h (24:1), week (7:1 from an arbor turning once a day).
+    #[arg(long, value_name = "NAME", conflicts_with = "ratio", default_value = "hour")]
+    pub dial: String,
+    /// Any other ratio, input turns per hand turn (e.g. 14 for a week hand from the hour wheel).
+    #[arg(long, value_name = "R")]
+    pub ratio: Option<String>,
+    /// Relative tolerance on the ratio; hands want 0 (exact).
+    #[arg(long, value_name = "T", default_value = "0")]
+    pub tol: String,
+    /// Pinion leaves allowed (the drivers).
+    #[arg(long, value_name = "LO..HI", default_value_t = motion::DEFAULT_PINIONS.to_string())]
+    pub pinions: String,
+    /// Wheel teeth allowed (the driven).
+    #[arg(long, value_name = "LO..HI", default_value_t = motion::DEFAULT_WHEELS.to_string())]
+    pub wheels: String,
+    /// The hand is not on the input arbor's axis (e.g. a subsidiary dial): no coaxial fit.
+    #[arg(long)]
+    pub not_coaxial: bool,
+    /// Refuse undercut pinions (accepted by default: clock pinions are often cut so).
+    #[arg(long)]
+    pub no_undercut: bool,
+    /// Least transverse contact ratio of an involute mesh.
+    #[arg(long, value_name = "X", default_value_t = 1.0, allow_negative_numbers = true)]
+    pub min_contact_ratio: f64,
+    #[command(flatten)]
+    pub gears: ClockGears,
+}
+
+/// Astronomical trains: a dial turning once per period, from an arbor turning once a day (or
+/// an hour). Reports drift per year and the days until the dial is one day out.
+#[derive(Args, Debug)]
+pub struct AstroArgs {
+    /// synodic-month (29.530588 d), sidereal-day, tropical-year, or a number of days.
+    #[arg(long, value_name = "NAME|DAYS")]
+    pub period: String,
+    /// The input arbor turns once a day or once an hour.
+    #[arg(long, value_name = "day|hour", default_value = "day")]
+    pub from: String,
+    /// Relative tolerance on the ratio: 1e-4, 10ppm, 0.01%.
+    #[arg(long, value_name = "T", default_value = "100ppm")]
+    pub tol: String,
+    /// Teeth of the gears to cut, LO..HI.
+    #[arg(long, value_name = "LO..HI", default_value = "8..150")]
+    pub teeth: String,
+    #[command(flatten)]
+    pub gears: ClockGears,
+}
+
+fn stages(g: &ClockGears, default: &str) -> Result<IntRange, Error> {
+    parse_int_range(g.stages.as_deref().unwrap_or(default), "--stages", "stages", 1, MAX_STAGES as u32)
+}
+
+fn pool(g: &ClockGears, teeth: IntRange) -> Result<Pool, Error> {
+    if g.stock.is_empty() {
+        Pool::to_cut(teeth, g.module, 20.0, None)
+    } else {
+        load_stock(&g.stock, CatalogueDefaults { module_mm: Some(g.module), pressure_angle_deg: 20.0 })
+    }
+}
+
+fn teeth(text: &str, flag: &str) -> Result<IntRange, Error> {
+    parse_int_range(text, flag, "teeth", MIN_TEETH, MAX_TEETH)
+}
+
+fn span(a: IntRange, b: IntRange) -> IntRange {
+    IntRange { lo: a.lo.min(b.lo), hi: a.hi.max(b.hi) }
+}
+
+impl TryFrom<&GoingArgs> for GoingSpec {
+    type Error = Error;
+
+    fn try_from(a: &GoingArgs) -> Result<GoingSpec, Error> {
+        let beat = match (&a.pendulum, &a.period, &a.beats_per_hour) {
+            (Some(m), _, _) => Beat::from_length(*m, a.gravity)?,
+            (None, Some(s), _) => Beat::from_period(parse_ratio(s, "--period")?),
+            (None, None, Some(b)) => Beat::from_beats_per_hour(parse_ratio(b, "--beats-per-hour")?),
+            _ => return Err(Error::flag("--period", "give --pendulum M, --period S or --beats-per-hour N")),
+        };
+        let wheels = teeth(&a.wheels, "--wheels")?;
+        let pinions = teeth(&a.pinions, "--pinions")?;
+        if pinions.lo < 6 {
+            return Err(Error::flag(
+                "--pinions",
+                format!("clock pinions have at least 6 leaves, found {pinions}"),
+            ));
+        }
+        Ok(GoingSpec {
+            beat,
+            escapement: Escapement::new(a.escape_teeth, a.beats_per_tooth)?,
+            from_turns_per_hour: parse_ratio(&a.from_turns_per_hour, "--from-turns-per-hour")?,
+            pool: pool(&a.gears, span(wheels, pinions))?,
+            wheels,
+            pinions,
+            stages: stages(&a.gears, "1..3")?,
+            rate_tolerance_s_per_day: parse_rate_tolerance(&a.rate_tol, "--rate-tol")?,
+            limit: a.gears.limit,
+        })
+    }
+}
+
+impl TryFrom<&MotionArgs> for MotionSpec {
+    type Error = Error;
+
+    fn try_from(a: &MotionArgs) -> Result<MotionSpec, Error> {
+        let (ratio, ratio_text) = match &a.ratio {
+            Some(r) => (parse_ratio(r, "--ratio")?, r.trim().to_string()),
+            None => (Dial::parse(&a.dial, "--dial")?.ratio(), a.dial.trim().to_string()),
+        };
+        let pinions = teeth(&a.pinions, "--pinions")?;
+        let wheels = teeth(&a.wheels, "--wheels")?;
+        if !(a.min_contact_ratio.is_finite() && a.min_contact_ratio >= 0.0) {
+            return Err(Error::flag("--min-contact-ratio", "wanted a number of 0 or more, e.g. 1.2"));
+        }
+        Ok(MotionSpec {
+            ratio,
+            ratio_text,
+            tolerance: parse_tolerance(&a.tol, "--tol")?,
+            pool: pool(&a.gears, span(wheels, pinions))?,
+            pinions,
+            wheels,
+            stages: stages(&a.gears, if a.not_coaxial { "1..2" } else { "2" })?,
+            coaxial: !a.not_coaxial,
+            allow_undercut: !a.no_undercut,
+            min_contact_ratio: a.min_contact_ratio,
+            limit: a.gears.limit,
+        })
+    }
+}
+
+impl TryFrom<&AstroArgs> for AstroSpec {
+    type Error = Error;
+
+    fn try_from(a: &AstroArgs) -> Result<AstroSpec, Error> {
+        let from = match a.from.trim() {
+            "day" | "daily" => InputArbor::Daily,
+            "hour" | "hourly" => InputArbor::Hourly,
+            other => {
+                return Err(Error::flag("--from", format!("unknown arbor \"{other}\"; wanted day or hour")))
+            }
+        };
+        Ok(AstroSpec {
+            period: Period::parse(&a.period, "--period")?,
+            from,
+            tolerance: parse_tolerance(&a.tol, "--tol")?,
+            pool: pool(&a.gears, teeth(&a.teeth, "--teeth")?)?,
+            stages: stages(&a.gears, "1..2")?,
+            limit: a.gears.limit,
+        })
+    }
+}
+
+/// The rendered bytes for the chosen format.
+fn render(
+    format: FormatArg,
+    table: impl FnOnce(&mut Vec<u8>) -> std::io::Result<()>,
+    csv: impl FnOnce(&mut Vec<u8>) -> std::io::Result<()>,
+    json: impl FnOnce(&mut Vec<u8>) -> std::io::Result<()>,
+) -> anyhow::Result<Vec<u8>> {
+    let mut buf = Vec::new();
+    match format {
+        FormatArg::Table => table(&mut buf)?,
+        FormatArg::Csv => csv(&mut buf)?,
+        FormatArg::Json => json(&mut buf)?,
+    }
+    Ok(buf)
+}
+
+/// Write the output, then choose the exit status.
+fn finish(print: &PrintArgs, buf: &[u8], count: u64, complete: bool, hint: &str) -> anyhow::Result<i32> {
+    if !super::output::emit(print.output.as_deref(), buf)? {
+        return Ok(EXIT_OK);
+    }
+    if !complete {
+        eprintln!("gearsieve: interrupted; the trains above are the best found so far");
+        return Ok(EXIT_INTERRUPTED);
+    }
+    if count == 0 {
+        eprintln!("gearsieve: no train meets every constraint. {hint}");
+        return Ok(EXIT_NOTHING_FOUND);
+    }
+    Ok(EXIT_OK)
+}
+
+/// Run `gearsieve clock`.
+pub fn run(args: ClockArgs) -> anyhow::Result<i32> {
+    let print = match &args.what {
+        ClockCommand::Going(a) => &a.gears.print,
+        ClockCommand::Motion(a) => &a.gears.print,
+        ClockCommand::Astro(a) => &a.gears.print,
+    };
+    let bar = Bar::new(print.quiet);
+    let progress = |p| bar.update(p);
+    let options =
+        RunOptions { progress: Some(&progress), cancel: Some(&super::CANCEL), ..RunOptions::default() };
+    let threads = print.threads.map(usize::from);
+    match &args.what {
+        ClockCommand::Going(a) => {
+            let spec = GoingSpec::try_from(a.as_ref())?;
+            let plan = super::with_threads(threads, || spec.plan(&options))??;
+            bar.finish();
+            let buf = render(
+                print.format,
+                |w| clock::table::write_going(&plan, w),
+                |w| clock::csv::write_going(&plan, w),
+                |w| clock::json::write_going(&plan, w),
+            )?;
+            let hint = "Try a --rate-tol above 0 s/day, more --stages, or wider --wheels and --pinions.";
+            finish(print, &buf, plan.count, plan.complete, hint)
+        }
+        ClockCommand::Motion(a) => {
+            let spec = MotionSpec::try_from(a.as_ref())?;
+            let plan = super::with_threads(threads, || spec.plan(&options))??;
+            bar.finish();
+            let buf = render(
+                print.format,
+                |w| clock::table::write_motion(&plan, w),
+                |w| clock::csv::write_motion(&plan, w),
+                |w| clock::json::write_motion(&plan, w),
+            )?;
+            let hint = "Try wider --wheels and --pinions, a lower --min-contact-ratio, or --not-coaxial.";
+            finish(print, &buf, plan.count, plan.complete, hint)
+        }
+        ClockCommand::Astro(a) => {
+            let spec = AstroSpec::try_from(a.as_ref())?;
+            let plan = super::with_threads(threads, || spec.plan(&options))??;
+            bar.finish();
+            let buf = render(
+                print.format,
+                |w| clock::table::write_astro(&plan, w),
+                |w| clock::csv::write_astro(&plan, w),
+                |w| clock::json::write_astro(&plan, w),
+            )?;
+            let hint = "Try a looser --tol, more --stages or a wider --teeth range.";
+            finish(print, &buf, plan.count, plan.complete, hint)
+        }
+    }
+}
