@@ -40,6 +40,7 @@ pub mod problem;
 pub mod range;
 pub mod rank;
 pub mod rational;
+pub mod reducer;
 pub mod target;
 pub mod thread;
 pub mod train;

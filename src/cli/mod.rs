@@ -7,6 +7,7 @@ mod mesh;
 mod merge;
 mod output;
 mod progress;
+mod reducer;
 mod search;
 mod thread;
 
@@ -54,6 +55,8 @@ enum Command {
     Chart(Box<thread::ChartArgs>),
     /// Clock trains: the going train, the motion work, astronomical trains.
     Clock(clock::ClockArgs),
+    /// A spur reducer: a module per stage, balanced stages, hunting-tooth pairs, housing fit.
+    Reducer(Box<reducer::ReducerArgs>),
 }
 
 /// Parse the command line, run, and return the exit status.
@@ -83,6 +86,7 @@ pub fn run() -> i32 {
         Command::Thread(args) => thread::run_thread(*args),
         Command::Chart(args) => thread::run_chart(*args),
         Command::Clock(args) => clock::run(args),
+        Command::Reducer(args) => reducer::run(*args),
     };
     match result {
         Ok(code) => code,
