@@ -10,31 +10,11 @@ use gearsieve::target::Target;
 use gearsieve::{search, EngineKind, Problem, RunOptions, StageLimits};
 
 fn problem(ratio: &str, tol: &str, teeth: (u32, u32), stages: (u32, u32)) -> Problem {
-    let pool = Pool::to_cut(
-        IntRange {
-            lo: teeth.0,
-            hi: teeth.1,
-        },
-        1.0,
-        20.0,
-        None,
-    )
-    .expect("pool");
+    let pool = Pool::to_cut(IntRange { lo: teeth.0, hi: teeth.1 }, 1.0, 20.0, None).expect("pool");
     let target = Target::parse(ratio, tol, "--ratio", "--tol").expect("target");
-    let stages = IntRange {
-        lo: stages.0,
-        hi: stages.1,
-    };
-    Problem::new(
-        target,
-        pool,
-        stages,
-        StageLimits::default(),
-        None,
-        DEFAULT_RANK.to_vec(),
-        20,
-    )
-    .expect("problem")
+    let stages = IntRange { lo: stages.0, hi: stages.1 };
+    Problem::new(target, pool, stages, StageLimits::default(), None, DEFAULT_RANK.to_vec(), 20)
+        .expect("problem")
 }
 
 fn benches(c: &mut Criterion) {
@@ -46,20 +26,10 @@ fn benches(c: &mut Criterion) {
     let reference = search(&small, EngineKind::Exhaustive, &RunOptions::default());
     assert!(reference.count > 0);
     g.bench_function("exhaustive 2 stages 12..60 ratio 7.3 100ppm", |b| {
-        b.iter(|| {
-            assert_eq!(
-                search(&small, EngineKind::Exhaustive, &RunOptions::default()),
-                reference
-            )
-        })
+        b.iter(|| assert_eq!(search(&small, EngineKind::Exhaustive, &RunOptions::default()), reference))
     });
     g.bench_function("sieve 2 stages 12..60 ratio 7.3 100ppm", |b| {
-        b.iter(|| {
-            assert_eq!(
-                search(&small, EngineKind::Sieve, &RunOptions::default()),
-                reference
-            )
-        })
+        b.iter(|| assert_eq!(search(&small, EngineKind::Sieve, &RunOptions::default()), reference))
     });
 
     let two = problem("37.5", "1e-3", (12, 150), (2, 2));
@@ -69,9 +39,7 @@ fn benches(c: &mut Criterion) {
 
     let three = problem("37.5", "10ppm", (12, 150), (3, 3));
     g.bench_function("sieve 3 stages 12..150 10ppm", |b| {
-        b.iter(|| {
-            assert!(search(&three, EngineKind::Sieve, &RunOptions::default()).count > 1_000_000)
-        })
+        b.iter(|| assert!(search(&three, EngineKind::Sieve, &RunOptions::default()).count > 1_000_000))
     });
     g.finish();
 }

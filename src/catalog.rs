@@ -31,30 +31,16 @@ pub struct CatalogueDefaults {
 
 impl Default for CatalogueDefaults {
     fn default() -> Self {
-        CatalogueDefaults {
-            module_mm: None,
-            pressure_angle_deg: 20.0,
-        }
+        CatalogueDefaults { module_mm: None, pressure_angle_deg: 20.0 }
     }
 }
 
-const KNOWN: &[&str] = &[
-    "teeth",
-    "module",
-    "diametral_pitch",
-    "pressure_angle",
-    "quantity",
-    "label",
-    "note",
-    "notes",
-];
+const KNOWN: &[&str] =
+    &["teeth", "module", "diametral_pitch", "pressure_angle", "quantity", "label", "note", "notes"];
 
 /// Read one catalogue file.
 pub fn load(path: &Path, defaults: CatalogueDefaults) -> Result<Vec<StockGear>> {
-    let file_err = |message: String| Error::CatalogueFile {
-        path: path.to_path_buf(),
-        message,
-    };
+    let file_err = |message: String| Error::CatalogueFile { path: path.to_path_buf(), message };
     if path.is_dir() {
         return Err(file_err("is a directory; wanted a CSV file".into()));
     }
@@ -64,24 +50,16 @@ pub fn load(path: &Path, defaults: CatalogueDefaults) -> Result<Vec<StockGear>> 
 
 /// Parse catalogue text; `path` is used only in error messages.
 pub fn parse(bytes: &[u8], path: &Path, defaults: CatalogueDefaults) -> Result<Vec<StockGear>> {
-    let file_err = |message: String| Error::CatalogueFile {
-        path: path.to_path_buf(),
-        message,
-    };
+    let file_err = |message: String| Error::CatalogueFile { path: path.to_path_buf(), message };
     let bytes = bytes.strip_prefix(b"\xEF\xBB\xBF").unwrap_or(bytes);
-    let mut reader = csv::ReaderBuilder::new()
-        .comment(Some(b'#'))
-        .trim(csv::Trim::All)
-        .flexible(false)
-        .from_reader(bytes);
+    let mut reader =
+        csv::ReaderBuilder::new().comment(Some(b'#')).trim(csv::Trim::All).flexible(false).from_reader(bytes);
     let headers = reader
         .headers()
         .map_err(|e| file_err(format!("cannot read the header row: {}", csv_reason(&e))))?
         .clone();
     if headers.is_empty() || headers.iter().all(str::is_empty) {
-        return Err(file_err(
-            "is empty; wanted a header row such as teeth,module,quantity".into(),
-        ));
+        return Err(file_err("is empty; wanted a header row such as teeth,module,quantity".into()));
     }
     let names: Vec<String> = headers.iter().map(|h| h.to_ascii_lowercase()).collect();
     for (i, n) in names.iter().enumerate() {
@@ -97,15 +75,10 @@ pub fn parse(bytes: &[u8], path: &Path, defaults: CatalogueDefaults) -> Result<V
         }
     }
     let col = |name: &str| names.iter().position(|n| n == name);
-    let teeth_col = col("teeth")
-        .ok_or_else(|| file_err("has no teeth column; the header must name one".into()))?;
-    let (module_col, dp_col, pa_col, qty_col, label_col) = (
-        col("module"),
-        col("diametral_pitch"),
-        col("pressure_angle"),
-        col("quantity"),
-        col("label"),
-    );
+    let teeth_col =
+        col("teeth").ok_or_else(|| file_err("has no teeth column; the header must name one".into()))?;
+    let (module_col, dp_col, pa_col, qty_col, label_col) =
+        (col("module"), col("diametral_pitch"), col("pressure_angle"), col("quantity"), col("label"));
 
     let mut out = Vec::new();
     for record in reader.records() {
@@ -132,16 +105,16 @@ pub fn parse(bytes: &[u8], path: &Path, defaults: CatalogueDefaults) -> Result<V
             })? as u32;
         let module = match cell(module_col) {
             Some(s) => Some(parse_positive(s).ok_or_else(|| {
-                field_err(
-                    "module",
-                    format!("module must be a positive number of mm, found \"{s}\""),
-                )
+                field_err("module", format!("module must be a positive number of mm, found \"{s}\""))
             })?),
             None => None,
         };
         let dp = match cell(dp_col) {
             Some(s) => Some(parse_positive(s).ok_or_else(|| {
-                field_err("diametral_pitch", format!("diametral pitch must be a positive number of teeth per inch, found \"{s}\""))
+                field_err(
+                    "diametral_pitch",
+                    format!("diametral pitch must be a positive number of teeth per inch, found \"{s}\""),
+                )
             })?),
             None => None,
         };
@@ -159,18 +132,15 @@ pub fn parse(bytes: &[u8], path: &Path, defaults: CatalogueDefaults) -> Result<V
             (Some(m), None) => m,
             (None, Some(p)) => 25.4 / p,
             (None, None) => defaults.module_mm.ok_or_else(|| {
-                field_err("module", "no module: fill in module or diametral_pitch, or give --module for the whole file".into())
+                field_err(
+                    "module",
+                    "no module: fill in module or diametral_pitch, or give --module for the whole file"
+                        .into(),
+                )
             })?,
         };
         let module_mm = check_module(module_mm, &|m| {
-            field_err(
-                if dp.is_some() {
-                    "diametral_pitch"
-                } else {
-                    "module"
-                },
-                m,
-            )
+            field_err(if dp.is_some() { "diametral_pitch" } else { "module" }, m)
         })?;
         let pressure_angle_deg = match cell(pa_col) {
             Some(s) => {
@@ -192,14 +162,7 @@ pub fn parse(bytes: &[u8], path: &Path, defaults: CatalogueDefaults) -> Result<V
             None => 1,
         };
         let label = cell(label_col).unwrap_or("").to_string();
-        out.push(StockGear {
-            teeth,
-            module_mm,
-            diametral_pitch: dp,
-            pressure_angle_deg,
-            quantity,
-            label,
-        });
+        out.push(StockGear { teeth, module_mm, diametral_pitch: dp, pressure_angle_deg, quantity, label });
     }
     if out.is_empty() {
         return Err(file_err("has a header but no gears".into()));
@@ -210,10 +173,7 @@ pub fn parse(bytes: &[u8], path: &Path, defaults: CatalogueDefaults) -> Result<V
 /// A whole number, also written as `20.0`; never rounds.
 fn parse_whole(s: &str) -> Option<u64> {
     let (int, frac) = s.split_once('.').unwrap_or((s, ""));
-    if int.is_empty()
-        || !int.bytes().all(|b| b.is_ascii_digit())
-        || !frac.bytes().all(|b| b == b'0')
-    {
+    if int.is_empty() || !int.bytes().all(|b| b.is_ascii_digit()) || !frac.bytes().all(|b| b == b'0') {
         return None;
     }
     int.parse().ok()
@@ -226,9 +186,7 @@ fn parse_positive(s: &str) -> Option<f64> {
 fn csv_reason(e: &csv::Error) -> String {
     match e.kind() {
         csv::ErrorKind::Utf8 { .. } => "is not UTF-8 text; save the file as UTF-8 CSV".to_string(),
-        csv::ErrorKind::UnequalLengths {
-            expected_len, len, ..
-        } => {
+        csv::ErrorKind::UnequalLengths { expected_len, len, .. } => {
             format!("has {len} fields where the header has {expected_len}")
         }
         _ => e.to_string(),
@@ -240,28 +198,16 @@ mod tests {
     use super::*;
 
     fn p(text: &str) -> Result<Vec<StockGear>> {
-        parse(
-            text.as_bytes(),
-            Path::new("t.csv"),
-            CatalogueDefaults::default(),
-        )
+        parse(text.as_bytes(), Path::new("t.csv"), CatalogueDefaults::default())
     }
 
     #[test]
     fn reads_a_plain_catalogue() {
-        let g = p(
-            "# box\nteeth,module,quantity,label\n20,1.5,2,A\n127,1.5,,\"metric, transposing\"\n",
-        )
-        .unwrap();
+        let g =
+            p("# box\nteeth,module,quantity,label\n20,1.5,2,A\n127,1.5,,\"metric, transposing\"\n").unwrap();
         assert_eq!(g.len(), 2);
-        assert_eq!(
-            (g[0].teeth, g[0].quantity, g[0].label.as_str()),
-            (20, 2, "A")
-        );
-        assert_eq!(
-            (g[1].teeth, g[1].quantity, g[1].label.as_str()),
-            (127, 1, "metric, transposing")
-        );
+        assert_eq!((g[0].teeth, g[0].quantity, g[0].label.as_str()), (20, 2, "A"));
+        assert_eq!((g[1].teeth, g[1].quantity, g[1].label.as_str()), (127, 1, "metric, transposing"));
     }
 
     #[test]
@@ -276,9 +222,7 @@ mod tests {
         assert!((g[0].module_mm - 1.5875).abs() < 1e-12);
         assert_eq!(g[0].pressure_angle_deg, 14.5);
         assert!(p("teeth,module,diametral_pitch\n40,1.5875,16\n").is_ok());
-        let e = p("teeth,module,diametral_pitch\n40,2,16\n")
-            .unwrap_err()
-            .to_string();
+        let e = p("teeth,module,diametral_pitch\n40,2,16\n").unwrap_err().to_string();
         assert!(e.contains("row 2, column diametral_pitch"), "{e}");
     }
 
@@ -320,10 +264,7 @@ mod tests {
         let e = parse(
             b"teeth,label\n20,\xff\xfe\n",
             Path::new("t.csv"),
-            CatalogueDefaults {
-                module_mm: Some(1.0),
-                pressure_angle_deg: 20.0,
-            },
+            CatalogueDefaults { module_mm: Some(1.0), pressure_angle_deg: 20.0 },
         )
         .unwrap_err()
         .to_string();

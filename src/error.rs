@@ -44,10 +44,7 @@ pub enum Error {
 impl Error {
     /// Shorthand for a [`Error::Flag`].
     pub fn flag(flag: &str, message: impl Into<String>) -> Self {
-        Error::Flag {
-            flag: flag.to_string(),
-            message: message.into(),
-        }
+        Error::Flag { flag: flag.to_string(), message: message.into() }
     }
 }
 

@@ -74,7 +74,9 @@ pub fn merge(docs: Vec<(String, Doc)>) -> Result<Doc> {
     };
     let part = |name: &str, d: &Doc| -> Result<Shard> {
         let text = d.shard.as_deref().ok_or_else(|| {
-            Error::Problem(format!("{name}: not part of a split search (it has no \"shard\"); run the parts with --shard I/N"))
+            Error::Problem(format!(
+                "{name}: not part of a split search (it has no \"shard\"); run the parts with --shard I/N"
+            ))
         })?;
         Shard::parse(text, name)
     };
@@ -83,7 +85,10 @@ pub fn merge(docs: Vec<(String, Doc)>) -> Result<Doc> {
     for (name, d) in &docs {
         let s = part(name, d)?;
         if s.count != n {
-            return Err(Error::Problem(format!("{name}: part {s} belongs to a search split {} ways, not {n}", s.count)));
+            return Err(Error::Problem(format!(
+                "{name}: part {s} belongs to a search split {} ways, not {n}",
+                s.count
+            )));
         }
         if std::mem::replace(&mut seen[s.index as usize - 1], true) {
             return Err(Error::Problem(format!("{name}: part {s} is given twice")));

@@ -84,9 +84,7 @@ pub struct Pool {
 pub fn check_module(module_mm: f64, place: &dyn Fn(String) -> Error) -> Result<f64> {
     let (lo, hi) = MODULE_RANGE_MM;
     if !module_mm.is_finite() || module_mm < lo || module_mm > hi {
-        return Err(place(format!(
-            "module must be a number of mm from {lo} to {hi}, found {module_mm}"
-        )));
+        return Err(place(format!("module must be a number of mm from {lo} to {hi}, found {module_mm}")));
     }
     Ok(module_mm)
 }
@@ -95,9 +93,7 @@ pub fn check_module(module_mm: f64, place: &dyn Fn(String) -> Error) -> Result<f
 pub fn check_pressure_angle(deg: f64, place: &dyn Fn(String) -> Error) -> Result<f64> {
     let (lo, hi) = PRESSURE_ANGLE_RANGE_DEG;
     if !deg.is_finite() || deg < lo || deg > hi {
-        return Err(place(format!(
-            "pressure angle must be from {lo}° to {hi}°, found {deg}"
-        )));
+        return Err(place(format!("pressure angle must be from {lo}° to {hi}°, found {deg}")));
     }
     Ok(deg)
 }
@@ -113,25 +109,13 @@ impl Pool {
         check_module(module_mm, &|m| Error::flag("--module", m))?;
         check_pressure_angle(pressure_angle_deg, &|m| Error::flag("--pressure-angle", m))?;
         if teeth.lo < MIN_TEETH || teeth.hi > MAX_TEETH {
-            return Err(Error::flag(
-                "--teeth",
-                format!("teeth must lie within {MIN_TEETH}..{MAX_TEETH}"),
-            ));
+            return Err(Error::flag("--teeth", format!("teeth must lie within {MIN_TEETH}..{MAX_TEETH}")));
         }
         let gears = (teeth.lo..=teeth.hi)
-            .map(|t| GearKind {
-                teeth: t,
-                group: 0,
-                quantity: None,
-                labels: Vec::new(),
-            })
+            .map(|t| GearKind { teeth: t, group: 0, quantity: None, labels: Vec::new() })
             .collect();
         let pool = Pool {
-            groups: vec![MeshGroup {
-                module_mm,
-                pressure_angle_deg,
-                diametral_pitch,
-            }],
+            groups: vec![MeshGroup { module_mm, pressure_angle_deg, diametral_pitch }],
             gears,
             from_stock: false,
         };
@@ -145,10 +129,7 @@ impl Pool {
         let mut groups: Vec<MeshGroup> = Vec::new();
         let mut gears: Vec<GearKind> = Vec::new();
         for g in stock {
-            let group = match groups
-                .iter()
-                .position(|m| m.meshes_with(g.module_mm, g.pressure_angle_deg))
-            {
+            let group = match groups.iter().position(|m| m.meshes_with(g.module_mm, g.pressure_angle_deg)) {
                 Some(i) => i,
                 None => {
                     groups.push(MeshGroup {
@@ -159,12 +140,16 @@ impl Pool {
                     groups.len() - 1
                 }
             };
-            match gears
-                .iter_mut()
-                .find(|k| k.group == group && k.teeth == g.teeth)
-            {
+            match gears.iter_mut().find(|k| k.group == group && k.teeth == g.teeth) {
                 Some(k) => {
-                    let q = k.quantity.unwrap_or(0).saturating_add(g.quantity);
+                    // Nothing the user gave is silently capped: a total past u32 is refused.
+                    let q = k.quantity.unwrap_or(0).checked_add(g.quantity).ok_or_else(|| {
+                        Error::Problem(format!(
+                            "{source}: the quantities of the {}-tooth gear add up to more than {}",
+                            g.teeth,
+                            u32::MAX
+                        ))
+                    })?;
                     k.quantity = Some(q);
                     if !g.label.is_empty() {
                         k.labels.push(g.label.clone());
@@ -174,11 +159,7 @@ impl Pool {
                     teeth: g.teeth,
                     group,
                     quantity: Some(g.quantity),
-                    labels: if g.label.is_empty() {
-                        Vec::new()
-                    } else {
-                        vec![g.label.clone()]
-                    },
+                    labels: if g.label.is_empty() { Vec::new() } else { vec![g.label.clone()] },
                 }),
             }
         }
@@ -186,22 +167,15 @@ impl Pool {
             return Err(Error::Problem(format!("{source}: no gears in stock")));
         }
         gears.sort_by_key(|k| (k.group, k.teeth));
-        let pool = Pool {
-            groups,
-            gears,
-            from_stock: true,
-        };
+        let pool = Pool { groups, gears, from_stock: true };
         pool.check_can_mesh(source)?;
         Ok(pool)
     }
 
     /// Refuse a pool in which no two gears of different tooth counts share a mesh group.
     fn check_can_mesh(&self, source: &str) -> Result<()> {
-        let ok = self.gears.iter().any(|a| {
-            self.gears
-                .iter()
-                .any(|b| a.group == b.group && a.teeth != b.teeth)
-        });
+        let ok =
+            self.gears.iter().any(|a| self.gears.iter().any(|b| a.group == b.group && a.teeth != b.teeth));
         if ok {
             Ok(())
         } else {
@@ -221,24 +195,12 @@ impl Pool {
     pub fn describe(&self) -> String {
         let groups: Vec<String> = self.groups.iter().map(describe_group).collect();
         if self.from_stock {
-            let total: u64 = self
-                .gears
-                .iter()
-                .map(|g| g.quantity.unwrap_or(0) as u64)
-                .sum();
-            format!(
-                "{} gears on hand ({} kinds) in {}",
-                total,
-                self.gears.len(),
-                groups.join("; ")
-            )
+            let total: u64 = self.gears.iter().map(|g| g.quantity.unwrap_or(0) as u64).sum();
+            format!("{} gears on hand ({} kinds) in {}", total, self.gears.len(), groups.join("; "))
         } else {
             let lo = self.gears.first().map_or(0, |g| g.teeth);
             let hi = self.gears.last().map_or(0, |g| g.teeth);
-            format!(
-                "any number of gears of {lo}..{hi} teeth, {}",
-                groups.join("; ")
-            )
+            format!("any number of gears of {lo}..{hi} teeth, {}", groups.join("; "))
         }
     }
 }
@@ -252,11 +214,7 @@ pub fn describe_group(g: &MeshGroup) -> String {
             fmt_num(g.module_mm),
             fmt_num(g.pressure_angle_deg)
         ),
-        None => format!(
-            "module {} mm, {}°",
-            fmt_num(g.module_mm),
-            fmt_num(g.pressure_angle_deg)
-        ),
+        None => format!("module {} mm, {}°", fmt_num(g.module_mm), fmt_num(g.pressure_angle_deg)),
     }
 }
 
@@ -288,11 +246,7 @@ mod tests {
 
     #[test]
     fn stock_merges_interchangeable_gears() {
-        let p = Pool::from_stock(
-            &[g(20, 1.0, 1), g(40, 1.0, 1), g(20, 1.0, 2), g(20, 1.5, 1)],
-            "t",
-        )
-        .unwrap();
+        let p = Pool::from_stock(&[g(20, 1.0, 1), g(40, 1.0, 1), g(20, 1.0, 2), g(20, 1.5, 1)], "t").unwrap();
         assert_eq!(p.groups.len(), 2);
         let k20: Vec<_> = p.gears.iter().filter(|k| k.teeth == 20).collect();
         assert_eq!(k20.len(), 2);

@@ -48,9 +48,7 @@ pub fn parse_int_range(text: &str, flag: &str, what: &str, min: u32, max: u32) -
         if s.is_empty() {
             return Ok(default);
         }
-        let v: u64 = s
-            .parse()
-            .map_err(|_| bad(format!("\"{s}\" is not a whole number")))?;
+        let v: u64 = s.parse().map_err(|_| bad(format!("\"{s}\" is not a whole number")))?;
         if v < min as u64 || v > max as u64 {
             return Err(bad(format!("{s} is out of range")));
         }
@@ -83,12 +81,8 @@ pub struct RatioRange {
 impl RatioRange {
     /// Is `num/den` inside?
     pub fn contains(&self, num: u64, den: u64) -> bool {
-        let ok_lo = self
-            .lo
-            .is_none_or(|lo| num as u128 * lo.den() as u128 >= lo.num() as u128 * den as u128);
-        let ok_hi = self
-            .hi
-            .is_none_or(|hi| num as u128 * hi.den() as u128 <= hi.num() as u128 * den as u128);
+        let ok_lo = self.lo.is_none_or(|lo| num as u128 * lo.den() as u128 >= lo.num() as u128 * den as u128);
+        let ok_hi = self.hi.is_none_or(|hi| num as u128 * hi.den() as u128 <= hi.num() as u128 * den as u128);
         ok_lo && ok_hi
     }
 }
@@ -111,17 +105,11 @@ pub fn parse_ratio_range(text: &str, flag: &str) -> Result<RatioRange> {
         }
     };
     if lo.is_none() && hi.is_none() {
-        return Err(Error::flag(
-            flag,
-            "empty range; wanted LO..HI such as 0.2..6 or ..6",
-        ));
+        return Err(Error::flag(flag, "empty range; wanted LO..HI such as 0.2..6 or ..6"));
     }
     if let (Some(l), Some(h)) = (lo, hi) {
         if l > h {
-            return Err(Error::flag(
-                flag,
-                format!("\"{}\" is inverted (LO > HI)", text.trim()),
-            ));
+            return Err(Error::flag(flag, format!("\"{}\" is inverted (LO > HI)", text.trim())));
         }
     }
     Ok(RatioRange { lo, hi })
@@ -132,7 +120,8 @@ pub fn parse_ratio_range(text: &str, flag: &str) -> Result<RatioRange> {
 pub struct FloatRange {
     /// Smallest, inclusive.
     pub lo: f64,
-    /// Largest, inclusive; `lo ≤ hi`, both finite and positive.
+    /// Largest, inclusive; `lo ≤ hi`. An open end is `0` below or `+∞` above; given ends are
+    /// finite and positive.
     pub hi: f64,
 }
 
@@ -157,9 +146,7 @@ pub fn parse_float_range(text: &str, flag: &str, unit: &str) -> Result<FloatRang
         if s.is_empty() {
             return Ok(default);
         }
-        let v: f64 = s
-            .parse()
-            .map_err(|_| bad(format!("\"{s}\" is not a number")))?;
+        let v: f64 = s.parse().map_err(|_| bad(format!("\"{s}\" is not a number")))?;
         if !v.is_finite() || v <= 0.0 {
             return Err(bad(format!("{s} is not a positive finite number")));
         }
@@ -182,7 +169,8 @@ pub fn parse_float_range(text: &str, flag: &str, unit: &str) -> Result<FloatRang
 
 /// Parse a signed range `LO..HI` of finite numbers (profile shift sums such as `-0.5..1`).
 pub fn parse_signed_range(text: &str, flag: &str, unit: &str) -> Result<(f64, f64)> {
-    let bad = |why: String| Error::flag(flag, format!("{why}; wanted LO..HI in {unit} with LO ≤ HI, e.g. -0.5..1"));
+    let bad =
+        |why: String| Error::flag(flag, format!("{why}; wanted LO..HI in {unit} with LO ≤ HI, e.g. -0.5..1"));
     let (a, b) = split(text);
     let b = b.ok_or_else(|| bad(format!("\"{}\" is not a range", text.trim())))?;
     let num = |s: &str| -> Result<f64> {
@@ -210,16 +198,7 @@ mod tests {
         assert_eq!(r("..20").unwrap(), IntRange { lo: 3, hi: 20 });
         assert_eq!(r("900..").unwrap(), IntRange { lo: 900, hi: 1000 });
         assert_eq!(r("12..=15").unwrap(), IntRange { lo: 12, hi: 15 });
-        for bad in [
-            "",
-            "..",
-            "150..12",
-            "2..10",
-            "12..1000000000",
-            "a..b",
-            "-5..10",
-            "1.5..3",
-        ] {
+        for bad in ["", "..", "150..12", "2..10", "12..1000000000", "a..b", "-5..10", "1.5..3"] {
             let e = r(bad).unwrap_err().to_string();
             assert!(e.starts_with("--teeth: "), "{bad}: {e}");
         }
@@ -247,14 +226,9 @@ mod tests {
     fn float_ranges() {
         let r = parse_float_range("40..80.5", "--centre-distance", "mm").unwrap();
         assert!(r.contains(80.5, 0.0) && !r.contains(80.6, 0.0));
-        assert!(parse_float_range("62.5", "--centre-distance", "mm")
-            .unwrap()
-            .is_single());
+        assert!(parse_float_range("62.5", "--centre-distance", "mm").unwrap().is_single());
         for bad in ["", "nan", "inf", "-3..4", "0", "9..3"] {
-            assert!(
-                parse_float_range(bad, "--centre-distance", "mm").is_err(),
-                "{bad}"
-            );
+            assert!(parse_float_range(bad, "--centre-distance", "mm").is_err(), "{bad}");
         }
     }
 }

@@ -31,10 +31,7 @@ impl Ratio {
         }
         let g = gcd(num, den).max(1);
         let (n, d) = (num / g, den / g);
-        Some(Ratio {
-            num: u64::try_from(n).ok()?,
-            den: u64::try_from(d).ok()?,
-        })
+        Some(Ratio { num: u64::try_from(n).ok()?, den: u64::try_from(d).ok()? })
     }
 
     /// `num/den` if it is already reduced with `den > 0` (usable in constants).
@@ -146,11 +143,7 @@ impl RelError {
             Ordering::Less => (rhs - lhs, -1),
             Ordering::Equal => (0, 0),
         };
-        RelError {
-            abs_num,
-            sign,
-            den: rhs,
-        }
+        RelError { abs_num, sign, den: rhs }
     }
 
     /// `|e| ≤ tol`, decided exactly: `|pQ − qP|·td ≤ tn·qP`.
@@ -205,13 +198,7 @@ mod tests {
         // (2^128 − 1)^2 = 2^256 − 2^129 + 1
         assert_eq!(w, Wide { hi: m - 1, lo: 1 });
         assert_eq!(mul_wide(1 << 64, 1 << 64), Wide { hi: 1, lo: 0 });
-        assert_eq!(
-            mul_wide(12345, 67890),
-            Wide {
-                hi: 0,
-                lo: 12345 * 67890
-            }
-        );
+        assert_eq!(mul_wide(12345, 67890), Wide { hi: 0, lo: 12345 * 67890 });
     }
 
     #[test]

@@ -42,11 +42,7 @@ impl Target {
 
     /// Build from an exact ratio (for the trade workflows that compute their own ratio).
     pub fn exact(text: impl Into<String>, ratio: Ratio, tolerance: Ratio) -> Target {
-        Target {
-            text: text.into(),
-            ratio,
-            tolerance,
-        }
+        Target { text: text.into(), ratio, tolerance }
     }
 }
 
@@ -77,10 +73,8 @@ pub fn parse_ratio(text: &str, flag: &str) -> Result<Ratio> {
                 return Err(bad(&format!("divides by zero after '{sep}'")));
             }
             (
-                a.0.checked_mul(b.1)
-                    .ok_or_else(|| bad("has too many digits"))?,
-                a.1.checked_mul(b.0)
-                    .ok_or_else(|| bad("has too many digits"))?,
+                a.0.checked_mul(b.1).ok_or_else(|| bad("has too many digits"))?,
+                a.1.checked_mul(b.0).ok_or_else(|| bad("has too many digits"))?,
             )
         }
     };
@@ -155,9 +149,7 @@ fn parse_decimal(s: &str) -> std::result::Result<(u128, u128), &'static str> {
     if int.len() + frac.len() > 36 {
         return Err("has too many digits to hold exactly");
     }
-    let digits: u128 = format!("{int}{frac}")
-        .parse()
-        .map_err(|_| "is not a number")?;
+    let digits: u128 = format!("{int}{frac}").parse().map_err(|_| "is not a number")?;
     Ok((digits, 10u128.pow(frac.len() as u32)))
 }
 
@@ -193,9 +185,7 @@ mod tests {
 
     #[test]
     fn bad_ratios_name_the_flag() {
-        for bad in [
-            "", "0", "0/5", "-3", "1/0", "abc", "1.2.3", "nan", "inf", "3:", "1e5", "5/-2",
-        ] {
+        for bad in ["", "0", "0/5", "-3", "1/0", "abc", "1.2.3", "nan", "inf", "3:", "1e5", "5/-2"] {
             let e = parse_ratio(bad, "--ratio").unwrap_err().to_string();
             assert!(e.starts_with("--ratio: "), "{bad}: {e}");
         }
@@ -218,9 +208,7 @@ mod tests {
 
     #[test]
     fn bad_tolerances_are_refused() {
-        for bad in [
-            "", "-1e-4", "100%", "1", "150%", "nan", "inf", "x", "1e-99", "5ppmx", "1e",
-        ] {
+        for bad in ["", "-1e-4", "100%", "1", "150%", "nan", "inf", "x", "1e-99", "5ppmx", "1e"] {
             let e = parse_tolerance(bad, "--tol").unwrap_err().to_string();
             assert!(e.starts_with("--tol: "), "{bad}: {e}");
         }

@@ -75,8 +75,7 @@ impl Stage {
 
     /// The stage's own ratio, driven / driver, reduced.
     pub fn ratio(&self) -> Ratio {
-        Ratio::new(self.driven.teeth as u128, self.driver.teeth as u128)
-            .expect("teeth are positive")
+        Ratio::new(self.driven.teeth as u128, self.driver.teeth as u128).expect("teeth are positive")
     }
 }
 
@@ -110,10 +109,7 @@ impl Train {
 
     /// Sum of all tooth counts (a proxy for cost and bulk).
     pub fn size(&self) -> u32 {
-        self.stages
-            .iter()
-            .map(|s| s.driver.teeth + s.driven.teeth)
-            .sum()
+        self.stages.iter().map(|s| s.driver.teeth + s.driven.teeth).sum()
     }
 
     /// Largest pitch diameter in the train, mm.
@@ -140,10 +136,7 @@ mod tests {
     use super::*;
 
     fn stage(a: u32, b: u32) -> Stage {
-        let g = |t| Gear {
-            teeth: t,
-            labels: vec![],
-        };
+        let g = |t| Gear { teeth: t, labels: vec![] };
         Stage {
             driver: g(a),
             driven: g(b),

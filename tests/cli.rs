@@ -6,8 +6,8 @@ use common::*;
 #[test]
 fn json_follows_the_contract() {
     let (code, v) = json(&[
-        "search", "--ratio", "37.5:1", "--tol", "10ppm", "--teeth", "12..60", "--stages", "2..3",
-        "--limit", "5",
+        "search", "--ratio", "37.5:1", "--tol", "10ppm", "--teeth", "12..60", "--stages", "2..3", "--limit",
+        "5",
     ]);
     assert_eq!(code, 0);
     assert_eq!(v["target"]["ratio"], "37.5:1");
@@ -28,17 +28,8 @@ fn json_follows_the_contract() {
             assert_eq!(s["centre_distance"].as_f64().unwrap(), (a + b) as f64 / 2.0);
         }
         let g = gcd(p, q);
-        assert_eq!(
-            t["ratio"],
-            format!("{}/{}", p / g, q / g)
-                .replace("/1\"", "\"")
-                .trim_end_matches("/1")
-        );
-        let dir = if stages.len() % 2 == 0 {
-            "same"
-        } else {
-            "opposite"
-        };
+        assert_eq!(t["ratio"], format!("{}/{}", p / g, q / g).replace("/1\"", "\"").trim_end_matches("/1"));
+        let dir = if stages.len() % 2 == 0 { "same" } else { "opposite" };
         assert_eq!(t["direction"], dir);
         assert!(t["error"].as_f64().unwrap().abs() <= 1e-5);
     }
@@ -54,28 +45,20 @@ fn gcd(a: u64, b: u64) -> u64 {
 
 #[test]
 fn table_names_the_target_count_and_convention() {
-    let r = gearsieve(&[
-        "search", "--ratio", "127/120", "--teeth", "20..130", "--stages", "2", "--limit", "3",
-    ]);
+    let r =
+        gearsieve(&["search", "--ratio", "127/120", "--teeth", "20..130", "--stages", "2", "--limit", "3"]);
     assert_eq!(r.code, 0, "{}", r.stderr);
     assert!(r.stdout.contains("Target ratio 127/120"), "{}", r.stdout);
     assert!(r.stdout.contains("trains meet every constraint"));
     assert!(r.stdout.contains("input turns per output turn"));
     assert!(r.stdout.contains("ISO 6336"));
-    assert!(
-        r.stdout
-            .lines()
-            .any(|l| l.trim_start().starts_with("1  127/120  exact")),
-        "{}",
-        r.stdout
-    );
+    assert!(r.stdout.lines().any(|l| l.trim_start().starts_with("1  127/120  exact")), "{}", r.stdout);
 }
 
 #[test]
 fn csv_has_one_row_per_train() {
     let r = gearsieve(&[
-        "search", "--ratio", "3", "--teeth", "12..40", "--stages", "1..2", "--limit", "4",
-        "--format", "csv",
+        "search", "--ratio", "3", "--teeth", "12..40", "--stages", "1..2", "--limit", "4", "--format", "csv",
     ]);
     assert_eq!(r.code, 0);
     let mut rd = csv::Reader::from_reader(r.stdout.as_bytes());
@@ -120,15 +103,8 @@ fn stock_quantities_and_labels_are_respected() {
 
 #[test]
 fn modules_never_mix_within_a_stage() {
-    let (code, v) = json(&[
-        "search",
-        "--ratio",
-        "6",
-        "--stock",
-        &fixture("two-modules.csv"),
-        "--stages",
-        "1..2",
-    ]);
+    let (code, v) =
+        json(&["search", "--ratio", "6", "--stock", &fixture("two-modules.csv"), "--stages", "1..2"]);
     assert_eq!(code, 0);
     // Only 40/20 (module 1) · 45/15 (module 2) makes 6.
     assert_eq!(v["count"], 1);
@@ -140,45 +116,24 @@ fn modules_never_mix_within_a_stage() {
 
 #[test]
 fn direction_is_required_when_asked() {
-    let (_, v) = json(&[
-        "search",
-        "--ratio",
-        "2",
-        "--teeth",
-        "12..40",
-        "--direction",
-        "same",
-        "--limit",
-        "100",
-    ]);
+    let (_, v) =
+        json(&["search", "--ratio", "2", "--teeth", "12..40", "--direction", "same", "--limit", "100"]);
     for t in v["trains"].as_array().unwrap() {
         assert_eq!(t["direction"], "same");
         assert_eq!(t["meshes"], 2);
     }
-    let r = gearsieve(&[
-        "search",
-        "--ratio",
-        "2",
-        "--stages",
-        "1",
-        "--direction",
-        "same",
-    ]);
+    let r = gearsieve(&["search", "--ratio", "2", "--stages", "1", "--direction", "same"]);
     assert_eq!(r.code, 2);
     assert!(r.stderr.contains("--direction"), "{}", r.stderr);
 }
 
 #[test]
 fn nothing_found_exits_1_and_still_writes_json() {
-    let (code, v) = json(&[
-        "search", "--ratio", "1000", "--teeth", "12..20", "--stages", "1",
-    ]);
+    let (code, v) = json(&["search", "--ratio", "1000", "--teeth", "12..20", "--stages", "1"]);
     assert_eq!(code, 1);
     assert_eq!(v["count"], 0);
     assert_eq!(v["trains"].as_array().unwrap().len(), 0);
-    let r = gearsieve(&[
-        "search", "--ratio", "1000", "--teeth", "12..20", "--stages", "1",
-    ]);
+    let r = gearsieve(&["search", "--ratio", "1000", "--teeth", "12..20", "--stages", "1"]);
     assert_eq!(r.code, 1);
     assert!(r.stderr.contains("Try a looser --tol"), "{}", r.stderr);
     assert!(r.stdout.contains("No train meets every constraint"));
@@ -200,40 +155,19 @@ fn bad_input_gets_one_line_and_exit_2() {
         (&["search", "--ratio", "2", "--tol", "nan"], "--tol"),
         (&["search", "--ratio", "2", "--teeth", "50..20"], "--teeth"),
         (&["search", "--ratio", "2", "--teeth", ""], "--teeth"),
-        (
-            &["search", "--ratio", "2", "--teeth", "12..1000000000"],
-            "--teeth",
-        ),
+        (&["search", "--ratio", "2", "--teeth", "12..1000000000"], "--teeth"),
         (&["search", "--ratio", "2", "--stages", "50"], "--stages"),
         (&["search", "--ratio", "2", "--stages", "3..1"], "--stages"),
         (&["search", "--ratio", "2", "--module", "0"], "--module"),
         (&["search", "--ratio", "2", "--module", "-1"], "--module"),
         (&["search", "--ratio", "2", "--module", "NaN"], "--module"),
         (&["search", "--ratio", "2", "--rank", "colour"], "--rank"),
-        (
-            &["search", "--ratio", "2", "--stage-ratio", "6..1"],
-            "--stage-ratio",
-        ),
-        (
-            &["search", "--ratio", "2", "--centre-distance", "80..40"],
-            "--centre-distance",
-        ),
-        (
-            &["search", "--ratio", "2", "--driver-teeth", "0..5"],
-            "--driver-teeth",
-        ),
-        (
-            &["search", "--ratio", "2", "--teeth", "20"],
-            "nothing can mesh",
-        ),
-        (
-            &["search", "--ratio", "2", "--stock", "no-such-file.csv"],
-            "no-such-file.csv",
-        ),
-        (
-            &["search", "--ratio", "2", "--stock", "tests"],
-            "is a directory",
-        ),
+        (&["search", "--ratio", "2", "--stage-ratio", "6..1"], "--stage-ratio"),
+        (&["search", "--ratio", "2", "--centre-distance", "80..40"], "--centre-distance"),
+        (&["search", "--ratio", "2", "--driver-teeth", "0..5"], "--driver-teeth"),
+        (&["search", "--ratio", "2", "--teeth", "20"], "nothing can mesh"),
+        (&["search", "--ratio", "2", "--stock", "no-such-file.csv"], "no-such-file.csv"),
+        (&["search", "--ratio", "2", "--stock", "tests"], "is a directory"),
         (&["search", "--ratio", "2", "--threads", "0"], "--threads"),
         (&["search", "--ratio", "2", "--format", "xml"], "--format"),
     ];
@@ -252,10 +186,7 @@ fn bad_catalogue_rows_are_named() {
         (b"", "is empty"),
         (b"teeth,module\n", "no gears"),
         (b"module\n1\n", "no teeth column"),
-        (
-            b"teeth,module,colour\n20,1,red\n",
-            "unknown column \"colour\"",
-        ),
+        (b"teeth,module,colour\n20,1,red\n", "unknown column \"colour\""),
         (b"teeth,module\n20,1\ntwelve,1\n", "row 3, column teeth"),
         (b"teeth,module\n0,1\n", "row 2, column teeth"),
         (b"teeth,module\n-20,1\n", "row 2, column teeth"),
@@ -265,29 +196,15 @@ fn bad_catalogue_rows_are_named() {
         (b"teeth,module\n20,-1\n", "row 2, column module"),
         (b"teeth,module\n20,NaN\n", "row 2, column module"),
         (b"teeth\n20\n30\n", "row 2, column module"),
-        (
-            b"teeth,module,diametral_pitch\n20,1,16\n",
-            "row 2, column diametral_pitch",
-        ),
+        (b"teeth,module,diametral_pitch\n20,1,16\n", "row 2, column diametral_pitch"),
         (b"teeth,label\n20,\xff\n", "UTF-8"),
         (b"teeth,module\n20,1\n20,1\n", "nothing can mesh"),
     ];
     for (text, want) in cases {
         let (_dir, path) = temp_catalogue("stock.csv", text);
         let r = gearsieve(&["search", "--ratio", "2", "--stock", &path]);
-        assert_eq!(
-            r.code,
-            2,
-            "{:?}: {}",
-            String::from_utf8_lossy(text),
-            r.stderr
-        );
-        assert!(
-            r.stderr.contains(want),
-            "{:?}: {}",
-            String::from_utf8_lossy(text),
-            r.stderr
-        );
+        assert_eq!(r.code, 2, "{:?}: {}", String::from_utf8_lossy(text), r.stderr);
+        assert!(r.stderr.contains(want), "{:?}: {}", String::from_utf8_lossy(text), r.stderr);
         assert!(r.stderr.contains("stock.csv"), "{}", r.stderr);
         assert_eq!(r.stderr.trim().lines().count(), 1, "{}", r.stderr);
     }
@@ -318,34 +235,17 @@ fn output_file_is_written_whole() {
     let dir = tempfile::tempdir().unwrap();
     let path = dir.path().join("out.json");
     let p = path.to_string_lossy().into_owned();
-    let r = gearsieve(&[
-        "search", "--ratio", "5", "--teeth", "12..40", "--format", "json", "--output", &p,
-    ]);
+    let r = gearsieve(&["search", "--ratio", "5", "--teeth", "12..40", "--format", "json", "--output", &p]);
     assert_eq!(r.code, 0);
     assert!(r.stdout.is_empty());
-    let v: serde_json::Value =
-        serde_json::from_str(&std::fs::read_to_string(&path).unwrap()).unwrap();
+    let v: serde_json::Value = serde_json::from_str(&std::fs::read_to_string(&path).unwrap()).unwrap();
     assert!(v["count"].as_u64().unwrap() > 0);
-    assert_eq!(
-        std::fs::read_dir(dir.path()).unwrap().count(),
-        1,
-        "no temporary file left behind"
-    );
+    assert_eq!(std::fs::read_dir(dir.path()).unwrap().count(), 1, "no temporary file left behind");
 }
 
 #[test]
 fn same_output_for_any_thread_count() {
-    let args = [
-        "search",
-        "--ratio",
-        "29.530588",
-        "--tol",
-        "50ppm",
-        "--teeth",
-        "12..90",
-        "--format",
-        "json",
-    ];
+    let args = ["search", "--ratio", "29.530588", "--tol", "50ppm", "--teeth", "12..90", "--format", "json"];
     let one = gearsieve(&[&args[..], &["--threads", "1"]].concat());
     let two = gearsieve(&[&args[..], &["--threads", "2"]].concat());
     let again = gearsieve(&[&args[..], &["--threads", "2"]].concat());
@@ -358,9 +258,5 @@ fn same_output_for_any_thread_count() {
 fn help_states_the_ratio_convention() {
     let r = gearsieve(&["search", "--help"]);
     assert_eq!(r.code, 0);
-    assert!(
-        r.stdout.contains("input turns per output turn"),
-        "{}",
-        r.stdout
-    );
+    assert!(r.stdout.contains("input turns per output turn"), "{}", r.stdout);
 }

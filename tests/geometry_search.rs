@@ -11,8 +11,21 @@ fn stages(v: &serde_json::Value) -> Vec<&serde_json::Value> {
 #[test]
 fn a_fixed_centre_distance_is_reached_by_profile_shift() {
     let (code, v) = json(&[
-        "search", "--ratio", "12", "--tol", "1%", "--teeth", "14..90", "--module", "1.5", "--stages", "2",
-        "--centre-distance", "75", "--limit", "50",
+        "search",
+        "--ratio",
+        "12",
+        "--tol",
+        "1%",
+        "--teeth",
+        "14..90",
+        "--module",
+        "1.5",
+        "--stages",
+        "2",
+        "--centre-distance",
+        "75",
+        "--limit",
+        "50",
     ]);
     assert_eq!(code, 0);
     let all = stages(&v);
@@ -25,7 +38,9 @@ fn a_fixed_centre_distance_is_reached_by_profile_shift() {
         assert!((-0.5 - 1e-12..=1.0 + 1e-12).contains(&sum), "{s}");
         assert!(s["contact_ratio"].as_f64().unwrap() >= 1.2);
         // A stage already at 75 mm (z1 + z2 = 100 at module 1.5) with no undercut needs no shift.
-        if s["driver"].as_u64().unwrap() + s["driven"].as_u64().unwrap() == 100 && s["driver"].as_u64().unwrap() >= 18 {
+        if s["driver"].as_u64().unwrap() + s["driven"].as_u64().unwrap() == 100
+            && s["driver"].as_u64().unwrap() >= 18
+        {
             assert_eq!(x[0].as_f64().unwrap(), 0.0);
             assert_eq!(x[1].as_f64().unwrap(), 0.0);
         }
@@ -37,8 +52,19 @@ fn coaxial_trains_share_one_centre_distance() {
     // Motion work of a clock: 12:1 from the minute (cannon) arbor to the hour wheel, coaxial —
     // a reverted train (common practice; Wikipedia, "Wheel train").
     let args = [
-        "search", "--ratio", "12", "--teeth", "8..80", "--module", "0.5", "--stages", "2", "--driver-teeth", "8..16",
-        "--limit", "1000",
+        "search",
+        "--ratio",
+        "12",
+        "--teeth",
+        "8..80",
+        "--module",
+        "0.5",
+        "--stages",
+        "2",
+        "--driver-teeth",
+        "8..16",
+        "--limit",
+        "1000",
     ];
     let (code, free) = json(&args);
     assert_eq!(code, 0);
@@ -59,11 +85,32 @@ fn coaxial_trains_share_one_centre_distance() {
 #[test]
 fn undercut_pinions_are_rejected_and_explained() {
     let r = gearsieve(&[
-        "search", "--ratio", "5", "--teeth", "8..60", "--stages", "1", "--check-meshes", "--shift-sum", "0..0", "--explain",
+        "search",
+        "--ratio",
+        "5",
+        "--teeth",
+        "8..60",
+        "--stages",
+        "1",
+        "--check-meshes",
+        "--shift-sum",
+        "0..0",
+        "--explain",
     ]);
     assert_eq!(r.code, 0, "{}", r.stderr);
     assert!(r.stdout.contains("Left out by the mesh checks"), "{}", r.stdout);
-    let (_, v) = json(&["search", "--ratio", "5", "--teeth", "8..60", "--stages", "1", "--check-meshes", "--limit", "100"]);
+    let (_, v) = json(&[
+        "search",
+        "--ratio",
+        "5",
+        "--teeth",
+        "8..60",
+        "--stages",
+        "1",
+        "--check-meshes",
+        "--limit",
+        "100",
+    ]);
     // With a standard rack at 20°, a pinion below 17.1 teeth needs positive shift; at a zero shift
     // sum the wheel gives it up, so small pinions survive only where the wheel can afford it.
     for s in stages(&v) {
@@ -82,7 +129,10 @@ fn geometry_flags_are_checked() {
         (vec!["search", "--ratio", "12", "--shift-sum", "1..-1"], "--shift-sum"),
         (vec!["search", "--ratio", "12", "--shift-sum", "x"], "--shift-sum"),
         (vec!["search", "--ratio", "12", "--centre-distance", "-5"], "--centre-distance"),
-        (vec!["search", "--ratio", "12", "--check-meshes", "--min-contact-ratio", "-1"], "--min-contact-ratio"),
+        (
+            vec!["search", "--ratio", "12", "--check-meshes", "--min-contact-ratio", "-1"],
+            "--min-contact-ratio",
+        ),
     ] {
         let r = gearsieve(&args);
         assert_eq!(r.code, 2, "{args:?}: {}", r.stderr);

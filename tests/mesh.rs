@@ -12,24 +12,17 @@ fn num(v: &Value, path: &[&str]) -> f64 {
     for key in path {
         at = &at[*key];
     }
-    at.as_f64()
-        .unwrap_or_else(|| panic!("{path:?} is not a number: {at}"))
+    at.as_f64().unwrap_or_else(|| panic!("{path:?} is not a number: {at}"))
 }
 
 fn pair(v: &Value, key: &str) -> [f64; 2] {
     let g = &v["geometry"][key];
-    [0, 1].map(|i| {
-        g[i].as_f64()
-            .unwrap_or_else(|| panic!("geometry.{key}[{i}] is not a number: {g}"))
-    })
+    [0, 1].map(|i| g[i].as_f64().unwrap_or_else(|| panic!("geometry.{key}[{i}] is not a number: {g}")))
 }
 
 fn flags(v: &Value, key: &str) -> [bool; 2] {
     let g = &v["geometry"][key];
-    [0, 1].map(|i| {
-        g[i].as_bool()
-            .unwrap_or_else(|| panic!("geometry.{key}[{i}] is not a bool: {g}"))
-    })
+    [0, 1].map(|i| g[i].as_bool().unwrap_or_else(|| panic!("geometry.{key}[{i}] is not a bool: {g}")))
 }
 
 /// The value column of the table row whose label starts with `label` (first match).
@@ -75,24 +68,14 @@ fn textbook_pair_at_the_standard_distance() {
     // The table shows the same in inches beside the millimetres.
     let r = gearsieve(&["mesh", "--teeth", "16,40", "--diametral-pitch", "2"]);
     assert_eq!(r.code, 1, "{}", r.stderr);
-    assert_eq!(
-        table_value(&r.stdout, "transverse contact ratio"),
-        ["1.6061"]
-    );
+    assert_eq!(table_value(&r.stdout, "transverse contact ratio"), ["1.6061"]);
     let lines: Vec<&str> = r.stdout.lines().collect();
-    let at = lines
-        .iter()
-        .position(|l| l.starts_with("standard centre distance"))
-        .expect("centre distance row");
+    let at =
+        lines.iter().position(|l| l.starts_with("standard centre distance")).expect("centre distance row");
     assert_eq!(lines[at].split_whitespace().last(), Some("355.600"));
-    assert_eq!(
-        lines[at + 1].split_whitespace().collect::<Vec<_>>(),
-        ["in", "14.0000"]
-    );
+    assert_eq!(lines[at + 1].split_whitespace().collect::<Vec<_>>(), ["in", "14.0000"]);
     assert!(r.stdout.contains("Diametral pitch 2 (module 12.7 mm)"));
-    assert!(r
-        .stdout
-        .contains("Verdict: does not run\n  - the 16-tooth pinion would be undercut"));
+    assert!(r.stdout.contains("Verdict: does not run\n  - the 16-tooth pinion would be undercut"));
 }
 
 #[test]
@@ -104,29 +87,16 @@ fn textbook_pair_mounted_a_quarter_inch_wide() {
     // pitch circles depend only on the centre distance (cos α_w = a·cos α / a_w), so they must
     // agree all the same.
     for cd in ["14.25in", "361.95"] {
-        let (code, v) = json(&[
-            "mesh",
-            "--teeth",
-            "16,40",
-            "--diametral-pitch",
-            "2",
-            "--centre-distance",
-            cd,
-        ]);
+        let (code, v) =
+            json(&["mesh", "--teeth", "16,40", "--diametral-pitch", "2", "--centre-distance", cd]);
         assert_eq!(code, 0, "{cd}: {v}");
         let a_w = num(&v, &["geometry", "centre_distance_mm"]) / MM_PER_INCH;
         assert!((a_w - 14.25).abs() < 1e-9, "{cd}: {a_w}");
         let alpha_w = num(&v, &["geometry", "working_pressure_angle_deg"]);
         assert!((alpha_w - 22.6005).abs() < 5e-5, "{cd}: α_w {alpha_w}");
         let dw = pair(&v, "working_pitch_diameter_mm");
-        assert!(
-            (dw[0] / 2.0 / MM_PER_INCH - 4.0714).abs() < 5e-5,
-            "{cd}: {dw:?}"
-        );
-        assert!(
-            (dw[1] / 2.0 / MM_PER_INCH - 10.1786).abs() < 5e-5,
-            "{cd}: {dw:?}"
-        );
+        assert!((dw[0] / 2.0 / MM_PER_INCH - 4.0714).abs() < 5e-5, "{cd}: {dw:?}");
+        assert!((dw[1] / 2.0 / MM_PER_INCH - 10.1786).abs() < 5e-5, "{cd}: {dw:?}");
         // Cut for that distance: meshes tight (no backlash) with the shift sum the distance
         // needs, split as the geometry module documents; the pinion gets a share.
         assert!(num(&v, &["geometry", "backlash_mm"]).abs() < 1e-9);
@@ -139,19 +109,9 @@ fn textbook_pair_mounted_a_quarter_inch_wide() {
             serde_json::json!([DEFAULT_SHIFT_SUM.0, DEFAULT_SHIFT_SUM.1])
         );
     }
-    let r = gearsieve(&[
-        "mesh",
-        "--teeth",
-        "16,40",
-        "--diametral-pitch",
-        "2",
-        "--centre-distance",
-        "14.25in",
-    ]);
-    assert_eq!(
-        table_value(&r.stdout, "working pressure angle"),
-        ["deg", "22.6005"]
-    );
+    let r =
+        gearsieve(&["mesh", "--teeth", "16,40", "--diametral-pitch", "2", "--centre-distance", "14.25in"]);
+    assert_eq!(table_value(&r.stdout, "working pressure angle"), ["deg", "22.6005"]);
 }
 
 #[test]
@@ -180,14 +140,9 @@ fn twelve_tooth_pinion_unshifted_is_undercut() {
     // The table says so too, and still prints everything with exit status 1.
     let r = gearsieve(&["mesh", "--teeth", "12,40", "--module", "2"]);
     assert_eq!(r.code, 1);
-    assert_eq!(
-        table_value(&r.stdout, "x_min (undercut limit)"),
-        ["modules", "0.2981", "-1.3396"]
-    );
+    assert_eq!(table_value(&r.stdout, "x_min (undercut limit)"), ["modules", "0.2981", "-1.3396"]);
     assert_eq!(table_value(&r.stdout, "undercut "), ["yes", "no"]);
-    assert!(r
-        .stdout
-        .contains("Verdict: does not run\n  - the 12-tooth pinion would be undercut"));
+    assert!(r.stdout.contains("Verdict: does not run\n  - the 12-tooth pinion would be undercut"));
     assert!(r.stdout.contains("ISO 6336 or AGMA 2001"));
 }
 
@@ -195,15 +150,11 @@ fn twelve_tooth_pinion_unshifted_is_undercut() {
 fn twelve_tooth_pinion_shifted_to_its_limit_runs() {
     // Source: the same x_min = 0.2981 for z = 12 at 20°. Just above it the pinion is clear of
     // undercut (and of interference with a 40-tooth wheel); just below it, it is not.
-    let (code, v) = json(&[
-        "mesh", "--teeth", "12,40", "--module", "2", "--shift", "0.2982,0",
-    ]);
+    let (code, v) = json(&["mesh", "--teeth", "12,40", "--module", "2", "--shift", "0.2982,0"]);
     assert_eq!(code, 0, "{v}");
     assert_eq!(flags(&v, "undercut"), [false, false]);
     assert_eq!(v["defects"], serde_json::json!([]));
-    let (code, v) = json(&[
-        "mesh", "--teeth", "12,40", "--module", "2", "--shift", "0.2980,0",
-    ]);
+    let (code, v) = json(&["mesh", "--teeth", "12,40", "--module", "2", "--shift", "0.2980,0"]);
     assert_eq!(code, 1, "{v}");
     assert_eq!(flags(&v, "undercut"), [true, false]);
 }
@@ -224,20 +175,11 @@ fn eighteen_teeth_unshifted_are_not_undercut() {
 fn undercut_can_be_allowed_but_is_still_shown() {
     // 12 teeth against 12: no wheel tips to interfere, so undercut is the only complaint about
     // the pinions (common practice: small clock pinions are often cut undercut).
-    let args = [
-        "mesh",
-        "--teeth",
-        "12,12",
-        "--module",
-        "1",
-        "--allow-undercut",
-    ];
+    let args = ["mesh", "--teeth", "12,12", "--module", "1", "--allow-undercut"];
     let (code, v) = json(&args);
     assert_eq!(flags(&v, "undercut"), [true, true]);
     let defects = v["defects"].as_array().expect("defects");
-    assert!(!defects
-        .iter()
-        .any(|d| d.as_str().is_some_and(|s| s.contains("undercut"))));
+    assert!(!defects.iter().any(|d| d.as_str().is_some_and(|s| s.contains("undercut"))));
     assert_eq!(code, if defects.is_empty() { 0 } else { 1 });
 }
 
@@ -246,20 +188,10 @@ fn low_contact_ratio_limit_is_settable() {
     // Common practice: a contact ratio of at least 1.2 for smooth running. The 16/40 pair
     // (1.6061, source above; its slight undercut allowed here) fails a limit set above that and
     // passes the default.
-    let args = [
-        "mesh",
-        "--teeth",
-        "16,40",
-        "--diametral-pitch",
-        "2",
-        "--allow-undercut",
-    ];
+    let args = ["mesh", "--teeth", "16,40", "--diametral-pitch", "2", "--allow-undercut"];
     let (code, v) = json(&[&args[..], &["--min-contact-ratio", "1.7"]].concat());
     assert_eq!(code, 1);
-    assert_eq!(
-        v["defects"][0],
-        "the contact ratio would be 1.606, below the 1.70 wanted for smooth running"
-    );
+    assert_eq!(v["defects"][0], "the contact ratio would be 1.606, below the 1.70 wanted for smooth running");
     assert_eq!(num(&v, &["limits", "min_contact_ratio"]), 1.7);
     let (code, v) = json(&args);
     assert_eq!(code, 0);
@@ -288,19 +220,13 @@ fn json_carries_inputs_and_the_whole_geometry() {
     assert_eq!(v["inputs"]["teeth"], serde_json::json!([20, 33]));
     assert_eq!(num(&v, &["inputs", "pressure_angle_deg"]), 25.0);
     assert!(v["inputs"].get("diametral_pitch").is_none());
-    assert_eq!(
-        v["inputs"]["mounting"]["shifted"]["shift"],
-        serde_json::json!([0.25, -0.1])
-    );
+    assert_eq!(v["inputs"]["mounting"]["shifted"]["shift"], serde_json::json!([0.25, -0.1]));
     assert_eq!(num(&v, &["inputs", "rack", "dedendum"]), 1.3);
     assert_eq!(num(&v, &["geometry", "rack", "root_radius"]), 0.3);
     // Common practice: d = m·z; the tip and root move with the shift and the rack.
     assert_eq!(pair(&v, "pitch_diameter_mm"), [30.0, 49.5]);
     let root = pair(&v, "root_diameter_mm");
-    assert!(
-        (root[0] - (30.0 - 2.0 * 1.5 * (1.3 - 0.25))).abs() < 1e-12,
-        "{root:?}"
-    );
+    assert!((root[0] - (30.0 - 2.0 * 1.5 * (1.3 - 0.25))).abs() < 1e-12, "{root:?}");
     for key in [
         "base_diameter_mm",
         "tip_diameter_mm",
@@ -321,9 +247,7 @@ fn json_carries_inputs_and_the_whole_geometry() {
         num(&v, &["geometry", key]);
     }
     assert!((num(&v, &["shift_sum"]) - 0.15).abs() < 1e-12);
-    assert!(v["caution"]
-        .as_str()
-        .is_some_and(|c| c.contains("ISO 6336")));
+    assert!(v["caution"].as_str().is_some_and(|c| c.contains("ISO 6336")));
     assert_eq!(v["ok"], Value::Bool(v["defects"] == serde_json::json!([])));
 }
 
@@ -332,9 +256,8 @@ fn output_file_gets_the_report() {
     let dir = tempfile::tempdir().expect("temp dir");
     let path = dir.path().join("mesh.json");
     let path_text = path.to_string_lossy().into_owned();
-    let r = gearsieve(&[
-        "mesh", "--teeth", "18,40", "--module", "2", "--format", "json", "--output", &path_text,
-    ]);
+    let r =
+        gearsieve(&["mesh", "--teeth", "18,40", "--module", "2", "--format", "json", "--output", &path_text]);
     assert_eq!(r.code, 0, "{}", r.stderr);
     assert!(r.stdout.is_empty());
     let v: Value = serde_json::from_str(&std::fs::read_to_string(&path).expect("file written"))
@@ -361,49 +284,18 @@ fn bad(args: &[&str], flag: &str, says: &str) {
 fn bad_input_names_the_flag_and_what_is_wanted() {
     let two_counts = "wanted two tooth counts such as 12,40";
     bad(&["--teeth", "12", "--module", "2"], "--teeth", two_counts);
-    bad(
-        &["--teeth", "12,40,60", "--module", "2"],
-        "--teeth",
-        two_counts,
-    );
+    bad(&["--teeth", "12,40,60", "--module", "2"], "--teeth", two_counts);
     bad(&["--teeth", "12,x", "--module", "2"], "--teeth", two_counts);
+    bad(&["--teeth", "2,40", "--module", "2"], "--teeth", "each from 3 to 1000");
+    bad(&["--teeth", "12,40", "--module", "0"], "--module", "positive number of millimetres");
+    bad(&["--teeth", "12,40", "--module", "inf"], "--module", "positive");
+    bad(&["--teeth", "12,40", "--diametral-pitch", "-4"], "--diametral-pitch", "teeth per inch");
     bad(
-        &["--teeth", "2,40", "--module", "2"],
-        "--teeth",
-        "each from 3 to 1000",
-    );
-    bad(
-        &["--teeth", "12,40", "--module", "0"],
-        "--module",
-        "positive number of millimetres",
-    );
-    bad(
-        &["--teeth", "12,40", "--module", "inf"],
-        "--module",
-        "positive",
-    );
-    bad(
-        &["--teeth", "12,40", "--diametral-pitch", "-4"],
-        "--diametral-pitch",
-        "teeth per inch",
-    );
-    bad(
-        &[
-            "--teeth",
-            "12,40",
-            "--module",
-            "2",
-            "--pressure-angle",
-            "90",
-        ],
+        &["--teeth", "12,40", "--module", "2", "--pressure-angle", "90"],
         "--pressure-angle",
         "between 0 and 90",
     );
-    bad(
-        &["--teeth", "12,40", "--module", "2", "--shift", "0.3"],
-        "--shift",
-        "two profile shifts",
-    );
+    bad(&["--teeth", "12,40", "--module", "2", "--shift", "0.3"], "--shift", "two profile shifts");
     bad(
         &["--teeth", "12,40", "--module", "2", "--shift", "-3,-3"],
         "--shift",
@@ -414,46 +306,19 @@ fn bad_input_names_the_flag_and_what_is_wanted() {
         "--dedendum",
         "no smaller than the addendum",
     );
+    bad(&["--teeth", "12,40", "--module", "2", "--root-radius", "-1"], "--root-radius", "zero or more");
     bad(
-        &["--teeth", "12,40", "--module", "2", "--root-radius", "-1"],
-        "--root-radius",
-        "zero or more",
-    );
-    bad(
-        &[
-            "--teeth",
-            "12,40",
-            "--module",
-            "2",
-            "--min-contact-ratio",
-            "nan",
-        ],
+        &["--teeth", "12,40", "--module", "2", "--min-contact-ratio", "nan"],
         "--min-contact-ratio",
         "zero or more",
     );
     bad(
-        &[
-            "--teeth",
-            "12,40",
-            "--module",
-            "2",
-            "--centre-distance",
-            "wide",
-        ],
+        &["--teeth", "12,40", "--module", "2", "--centre-distance", "wide"],
         "--centre-distance",
         "positive working centre distance in mm",
     );
     bad(
-        &[
-            "--teeth",
-            "12,40",
-            "--module",
-            "2",
-            "--centre-distance",
-            "53",
-            "--shift-sum",
-            "2..1",
-        ],
+        &["--teeth", "12,40", "--module", "2", "--centre-distance", "53", "--shift-sum", "2..1"],
         "--shift-sum",
         "inverted",
     );
@@ -484,28 +349,12 @@ fn unreachable_centre_distance_says_the_reachable_range() {
     let (lo, hi) = DEFAULT_SHIFT_SUM;
     let range = format!("{:.3} to {:.3} mm", a_w(lo), a_w(hi));
     bad(
-        &[
-            "--teeth",
-            "12,40",
-            "--module",
-            "2",
-            "--centre-distance",
-            "70",
-        ],
+        &["--teeth", "12,40", "--module", "2", "--centre-distance", "70"],
         "--centre-distance",
-        &format!(
-            "outside the allowed {lo:.3} to {hi:.3}; reachable with this --shift-sum: {range}"
-        ),
+        &format!("outside the allowed {lo:.3} to {hi:.3}; reachable with this --shift-sum: {range}"),
     );
     bad(
-        &[
-            "--teeth",
-            "12,40",
-            "--module",
-            "2",
-            "--centre-distance",
-            "40",
-        ],
+        &["--teeth", "12,40", "--module", "2", "--centre-distance", "40"],
         "--centre-distance",
         "it must be more than 48.864 mm, where their base circles touch",
     );
@@ -523,23 +372,11 @@ fn unreachable_centre_distance_says_the_reachable_range() {
         "0..10",
     ]);
     assert_eq!(r.code, 1, "{}", r.stderr);
-    assert_eq!(
-        table_value(&r.stdout, "working centre distance"),
-        ["mm", "58.000"]
-    );
+    assert_eq!(table_value(&r.stdout, "working centre distance"), ["mm", "58.000"]);
     assert!(r.stdout.contains("  - the contact ratio would be "));
     // Further out the tips are shortened below the base circle: no involute left to run on.
     bad(
-        &[
-            "--teeth",
-            "12,40",
-            "--module",
-            "2",
-            "--centre-distance",
-            "70",
-            "--shift-sum",
-            "0..20",
-        ],
+        &["--teeth", "12,40", "--module", "2", "--centre-distance", "70", "--shift-sum", "0..20"],
         "--centre-distance",
         "would lie inside its base circle",
     );
@@ -549,35 +386,9 @@ fn unreachable_centre_distance_says_the_reachable_range() {
 fn conflicting_or_missing_flags_are_refused() {
     for args in [
         &["mesh", "--teeth", "12,40"][..],
-        &[
-            "mesh",
-            "--teeth",
-            "12,40",
-            "--module",
-            "2",
-            "--diametral-pitch",
-            "10",
-        ],
-        &[
-            "mesh",
-            "--teeth",
-            "12,40",
-            "--module",
-            "2",
-            "--shift",
-            "0,0",
-            "--centre-distance",
-            "52",
-        ],
-        &[
-            "mesh",
-            "--teeth",
-            "12,40",
-            "--module",
-            "2",
-            "--shift-sum",
-            "0..1",
-        ],
+        &["mesh", "--teeth", "12,40", "--module", "2", "--diametral-pitch", "10"],
+        &["mesh", "--teeth", "12,40", "--module", "2", "--shift", "0,0", "--centre-distance", "52"],
+        &["mesh", "--teeth", "12,40", "--module", "2", "--shift-sum", "0..1"],
     ] {
         let r = gearsieve(args);
         assert_eq!(r.code, 2, "{args:?}");

@@ -32,13 +32,11 @@ fn convergents_of_pi() {
     // fraction with denominator ≤ 10ⁿ): with one stage of at most 400 teeth the numerator is at
     // most 400, so the best train is 355/113; with at most 100 teeth it is 22/7.
     let (r, _) = best(&[
-        "search", "--ratio", "pi", "--tol", "1%", "--stages", "1", "--teeth", "3..400", "--limit",
-        "1",
+        "search", "--ratio", "pi", "--tol", "1%", "--stages", "1", "--teeth", "3..400", "--limit", "1",
     ]);
     assert_eq!(r, "355/113");
     let (r, _) = best(&[
-        "search", "--ratio", "pi", "--tol", "1%", "--stages", "1", "--teeth", "3..100", "--limit",
-        "1",
+        "search", "--ratio", "pi", "--tol", "1%", "--stages", "1", "--teeth", "3..100", "--limit", "1",
     ]);
     assert_eq!(r, "22/7");
 }
@@ -47,15 +45,11 @@ fn convergents_of_pi() {
 fn the_inch_is_127_fifths_of_a_millimetre() {
     // 1 inch = 25.4 mm exactly (international yard and pound agreement, 1959), so 25.4 = 127/5
     // and, 127 being prime, an exact inch/metric train needs a 127-tooth gear.
-    let (r, v) = best(&[
-        "search", "--ratio", "25.4", "--stages", "1", "--teeth", "3..130",
-    ]);
+    let (r, v) = best(&["search", "--ratio", "25.4", "--stages", "1", "--teeth", "3..130"]);
     assert_eq!(r, "127/5");
     assert_eq!(v["count"], 1);
     assert_eq!(v["target"]["exact"], "127/5");
-    let (code, v) = json(&[
-        "search", "--ratio", "127/120", "--stages", "1..3", "--teeth", "20..126",
-    ]);
+    let (code, v) = json(&["search", "--ratio", "127/120", "--stages", "1..3", "--teeth", "20..126"]);
     assert_eq!(code, 1, "no exact train without a 127-tooth gear");
     assert_eq!(v["count"], 0);
 }
@@ -65,9 +59,7 @@ fn metric_thread_on_an_inch_leadscrew() {
     // "Turning and Boring": a 3 mm lead on a lead-screw of 6 threads per inch takes
     // 6·3·5 / (25.4·5) = 90/127: 90 teeth on the spindle stud, 127 on the lead-screw. The
     // spindle turns 127/90 times per lead-screw turn, so i = 127/90 with driver 90, driven 127.
-    let (r, v) = best(&[
-        "search", "--ratio", "127/90", "--stages", "1", "--teeth", "20..127",
-    ]);
+    let (r, v) = best(&["search", "--ratio", "127/90", "--stages", "1", "--teeth", "20..127"]);
     assert_eq!(r, "127/90");
     assert_eq!(v["count"], 1);
     assert!(has_train(&v, &[(90, 127)]));
@@ -77,23 +69,16 @@ fn metric_thread_on_an_inch_leadscrew() {
 fn simple_screw_cutting_wheels() {
     // "American Mechanic": 5 threads per inch on a lead screw of 2 per inch: ratio 2.5; a
     // 40-tooth spindle wheel needs 100 teeth on the screw.
-    let (_, v) = best(&[
-        "search", "--ratio", "5/2", "--stages", "1", "--teeth", "20..100", "--limit", "100",
-    ]);
+    let (_, v) = best(&["search", "--ratio", "5/2", "--stages", "1", "--teeth", "20..100", "--limit", "100"]);
     assert!(has_train(&v, &[(40, 100)]));
     // "Construction Tools": 2-per-inch screw, 4 per inch wanted → 20 on the mandrel, 40 on the
     // screw; 1½ per inch → 20 → 15 or 40 → 30; 7 per inch on a 1-per-inch screw → 20 and 140.
-    let (_, v) = best(&[
-        "search", "--ratio", "2", "--stages", "1", "--teeth", "15..140", "--limit", "100",
-    ]);
+    let (_, v) = best(&["search", "--ratio", "2", "--stages", "1", "--teeth", "15..140", "--limit", "100"]);
     assert!(has_train(&v, &[(20, 40)]));
-    let (_, v) = best(&[
-        "search", "--ratio", "1.5:2", "--stages", "1", "--teeth", "15..140", "--limit", "100",
-    ]);
+    let (_, v) =
+        best(&["search", "--ratio", "1.5:2", "--stages", "1", "--teeth", "15..140", "--limit", "100"]);
     assert!(has_train(&v, &[(20, 15)]) && has_train(&v, &[(40, 30)]));
-    let (_, v) = best(&[
-        "search", "--ratio", "7", "--stages", "1", "--teeth", "20..140", "--limit", "100",
-    ]);
+    let (_, v) = best(&["search", "--ratio", "7", "--stages", "1", "--teeth", "20..140", "--limit", "100"]);
     assert!(has_train(&v, &[(20, 140)]));
 }
 
@@ -115,18 +100,13 @@ fn a_compound_train_when_no_simple_one_exists() {
     assert_eq!(code, 1);
     assert_eq!(v["count"], 0);
     // A compound train that keeps the 20 as a driver does exist.
-    let (code, v) = json(&[
-        "search", "--ratio", "2.3:1.8", "--teeth", "20..120", "--stages", "2", "--limit", "100000",
-    ]);
+    let (code, v) =
+        json(&["search", "--ratio", "2.3:1.8", "--teeth", "20..120", "--stages", "2", "--limit", "100000"]);
     assert_eq!(code, 0);
-    let with_20 = v["trains"].as_array().unwrap().iter().filter(|t| {
-        t["error"] == 0.0
-            && t["stages"]
-                .as_array()
-                .unwrap()
-                .iter()
-                .any(|s| s["driver"] == 20)
-    });
+    let with_20 =
+        v["trains"].as_array().unwrap().iter().filter(|t| {
+            t["error"] == 0.0 && t["stages"].as_array().unwrap().iter().any(|s| s["driver"] == 20)
+        });
     assert!(with_20.count() > 0);
 }
 
@@ -134,9 +114,8 @@ fn a_compound_train_when_no_simple_one_exists() {
 fn compound_train_for_eleven_per_inch() {
     // "Modern Machine Shop Practice": 4 × 66/48 × 36/18 = 11 threads per inch on a lead screw of
     // 4 per inch (compound train of 66, 48, 36, 18).
-    let (_, v) = best(&[
-        "search", "--ratio", "11/4", "--stages", "2", "--teeth", "18..66", "--limit", "100000",
-    ]);
+    let (_, v) =
+        best(&["search", "--ratio", "11/4", "--stages", "2", "--teeth", "18..66", "--limit", "100000"]);
     assert!(has_train(&v, &[(48, 66), (18, 36)]));
 }
 

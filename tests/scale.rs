@@ -35,7 +35,17 @@ fn merging_the_parts_prints_what_one_run_prints() {
 fn merge_refuses_incomplete_or_mismatched_parts() {
     let dir = tempfile::tempdir().unwrap();
     let part = |i: u32, n: u32, ratio: &str| {
-        let r = gearsieve(&["search", "--ratio", ratio, "--teeth", "12..40", "--format", "json", "--shard", &format!("{i}/{n}")]);
+        let r = gearsieve(&[
+            "search",
+            "--ratio",
+            ratio,
+            "--teeth",
+            "12..40",
+            "--format",
+            "json",
+            "--shard",
+            &format!("{i}/{n}"),
+        ]);
         write(&dir, &format!("{ratio}-{i}-{n}.json").replace('/', "_"), &r.stdout)
     };
     let (a, b, c) = (part(1, 2, "3"), part(2, 2, "3"), part(2, 2, "4"));
@@ -74,7 +84,8 @@ fn limit_zero_streams_every_train() {
     assert_eq!(csv.code, 0);
     assert_eq!(csv.stdout.lines().count() as u64, n + 1, "header plus one row per train");
     let lines = gearsieve(&[&base[..], &["--limit", "0", "--format", "json"]].concat());
-    let all: Vec<serde_json::Value> = lines.stdout.lines().map(|l| serde_json::from_str(l).unwrap()).collect();
+    let all: Vec<serde_json::Value> =
+        lines.stdout.lines().map(|l| serde_json::from_str(l).unwrap()).collect();
     assert_eq!(all.len() as u64, n + 1);
     assert_eq!(all.last().unwrap()["count"], n);
     // The best train of the listing is among the streamed ones, and the stream is deterministic.
@@ -88,9 +99,13 @@ fn limit_zero_streams_every_train() {
 
 #[test]
 fn pareto_lists_only_undominated_trains() {
-    let r = gearsieve(&["search", "--ratio", "37.5", "--tol", "1%", "--teeth", "12..80", "--pareto", "--limit", "0"]);
+    let r = gearsieve(&[
+        "search", "--ratio", "37.5", "--tol", "1%", "--teeth", "12..80", "--pareto", "--limit", "0",
+    ]);
     assert_eq!(r.code, 2, "--limit 0 does not go with --pareto");
-    let (code, v) = json(&["search", "--ratio", "7.3", "--tol", "1%", "--teeth", "12..80", "--pareto", "--limit", "1000"]);
+    let (code, v) = json(&[
+        "search", "--ratio", "7.3", "--tol", "1%", "--teeth", "12..80", "--pareto", "--limit", "1000",
+    ]);
     assert_eq!(code, 0);
     let front = v["trains"].as_array().unwrap();
     assert_eq!(v["pareto_size"].as_u64().unwrap() as usize, front.len());
@@ -124,4 +139,22 @@ fn ctrl_c_prints_the_best_so_far_marked_incomplete() {
     let v: serde_json::Value = serde_json::from_slice(&out.stdout).unwrap();
     assert_eq!(v["complete"], false);
     assert!(String::from_utf8_lossy(&out.stderr).contains("interrupted"));
+}
+
+#[test]
+fn a_search_that_would_run_for_hours_needs_long() {
+    let r = gearsieve(&[
+        "search",
+        "--ratio",
+        "29.530588",
+        "--tol",
+        "1ppm",
+        "--teeth",
+        "12..150",
+        "--stages",
+        "6",
+    ]);
+    assert_eq!(r.code, 2, "{}", r.stderr);
+    assert!(r.stderr.contains("--long") && r.stderr.contains("hours"), "{}", r.stderr);
+    assert!(r.stdout.is_empty());
 }

@@ -25,11 +25,10 @@ pub fn run(args: MergeArgs) -> anyhow::Result<i32> {
     let mut docs = Vec::new();
     for f in &args.files {
         let name = f.display().to_string();
-        let text = std::fs::read_to_string(f)
-            .map_err(|e| Error::Problem(format!("{name}: cannot read it: {e}")))?;
-        let doc: Doc = serde_json::from_str(&text).map_err(|e| {
-            Error::Problem(format!("{name}: not the JSON of a gearsieve search ({e})"))
-        })?;
+        let text =
+            std::fs::read_to_string(f).map_err(|e| Error::Problem(format!("{name}: cannot read it: {e}")))?;
+        let doc: Doc = serde_json::from_str(&text)
+            .map_err(|e| Error::Problem(format!("{name}: not the JSON of a gearsieve search ({e})")))?;
         docs.push((name, doc));
     }
     let merged = gearsieve::merge::merge(docs)?;

@@ -40,33 +40,18 @@ pub struct MeshArgs {
     #[arg(long, value_name = "Z1,Z2")]
     pub teeth: String,
     /// Module, mm.
-    #[arg(
-        long,
-        value_name = "MM",
-        conflicts_with = "diametral_pitch",
-        allow_negative_numbers = true
-    )]
+    #[arg(long, value_name = "MM", conflicts_with = "diametral_pitch", allow_negative_numbers = true)]
     pub module: Option<f64>,
     /// Diametral pitch (teeth per inch of pitch diameter) instead of a module: m = 25.4 / P.
     /// Inch figures are shown beside the millimetres.
     #[arg(long, value_name = "P", allow_negative_numbers = true)]
     pub diametral_pitch: Option<f64>,
     /// Pressure angle, degrees (20 is usual, 14.5 on older inch gearing).
-    #[arg(
-        long,
-        value_name = "DEG",
-        default_value_t = 20.0,
-        allow_negative_numbers = true
-    )]
+    #[arg(long, value_name = "DEG", default_value_t = 20.0, allow_negative_numbers = true)]
     pub pressure_angle: f64,
     /// Profile shifts of driver and driven gear, in modules (positive away from the centre);
     /// the pair is mounted tight [default: 0,0].
-    #[arg(
-        long,
-        value_name = "X1,X2",
-        conflicts_with = "centre_distance",
-        allow_hyphen_values = true
-    )]
+    #[arg(long, value_name = "X1,X2", conflicts_with = "centre_distance", allow_hyphen_values = true)]
     pub shift: Option<String>,
     /// Working centre distance to reach by profile shift, in mm (or inches with a suffix:
     /// 14.25in). The shift sum it needs is split between the gears favouring the pinion against
@@ -75,12 +60,7 @@ pub struct MeshArgs {
     pub centre_distance: Option<String>,
     /// Allowed profile shift sum x1 + x2 for --centre-distance, in modules: LO..HI, the same
     /// default as search [default: -0.5..1].
-    #[arg(
-        long,
-        value_name = "LO..HI",
-        requires = "centre_distance",
-        allow_hyphen_values = true
-    )]
+    #[arg(long, value_name = "LO..HI", requires = "centre_distance", allow_hyphen_values = true)]
     pub shift_sum: Option<String>,
     /// Addendum of the basic rack, in modules (ISO 53 type A: 1).
     #[arg(long, value_name = "MODULES", default_value_t = RackProfile::default().addendum, allow_negative_numbers = true)]
@@ -133,12 +113,8 @@ fn parse_teeth(text: &str) -> Result<[u32; 2], Error> {
     let [a, b] = parts[..] else {
         return Err(bad());
     };
-    let count = |s: &str| {
-        s.parse::<u32>()
-            .ok()
-            .filter(|z| (MIN_TEETH..=MAX_TEETH).contains(z))
-            .ok_or_else(bad)
-    };
+    let count =
+        |s: &str| s.parse::<u32>().ok().filter(|z| (MIN_TEETH..=MAX_TEETH).contains(z)).ok_or_else(bad);
     Ok([count(a)?, count(b)?])
 }
 
@@ -157,12 +133,7 @@ fn parse_shift(text: &str) -> Result<[f64; 2], Error> {
     let [a, b] = parts[..] else {
         return Err(bad());
     };
-    let shift = |s: &str| {
-        s.parse::<f64>()
-            .ok()
-            .filter(|x| x.is_finite())
-            .ok_or_else(bad)
-    };
+    let shift = |s: &str| s.parse::<f64>().ok().filter(|x| x.is_finite()).ok_or_else(bad);
     Ok([shift(a)?, shift(b)?])
 }
 
@@ -206,10 +177,7 @@ impl TryFrom<MeshArgs> for MeshJob {
     fn try_from(a: MeshArgs) -> Result<MeshJob, Error> {
         let teeth = parse_teeth(&a.teeth)?;
         let (module_mm, diametral_pitch) = match (a.module, a.diametral_pitch) {
-            (Some(m), _) => (
-                check_number("--module", m, m > 0.0, "a positive number of millimetres")?,
-                None,
-            ),
+            (Some(m), _) => (check_number("--module", m, m > 0.0, "a positive number of millimetres")?, None),
             (None, Some(p)) => match module_from_diametral_pitch(p) {
                 Some(m) => (m, Some(p)),
                 None => {
@@ -220,10 +188,7 @@ impl TryFrom<MeshArgs> for MeshJob {
                 }
             },
             (None, None) => {
-                return Err(Error::flag(
-                    "--module",
-                    "wanted a module in mm, or --diametral-pitch",
-                ))
+                return Err(Error::flag("--module", "wanted a module in mm, or --diametral-pitch"))
             }
         };
         let pa = a.pressure_angle;
@@ -240,18 +205,11 @@ impl TryFrom<MeshArgs> for MeshJob {
             "--dedendum",
             hf,
             hf >= ha,
-            &format!(
-                "a number of modules no smaller than the addendum, {}",
-                fmt_num(ha)
-            ),
+            &format!("a number of modules no smaller than the addendum, {}", fmt_num(ha)),
         )?;
         let rho = a.root_radius;
         check_number("--root-radius", rho, rho >= 0.0, "zero or more modules")?;
-        let rack = RackProfile {
-            addendum: ha,
-            dedendum: hf,
-            root_radius: rho,
-        };
+        let rack = RackProfile { addendum: ha, dedendum: hf, root_radius: rho };
         let limits = MeshLimits {
             min_contact_ratio: check_number(
                 "--min-contact-ratio",
@@ -290,14 +248,7 @@ impl TryFrom<MeshArgs> for MeshJob {
         let system = ToothSystem::new(module_mm, pa, rack).map_err(Error::from)?;
         Ok(MeshJob {
             system,
-            inputs: MeshInputs {
-                teeth,
-                module_mm,
-                diametral_pitch,
-                pressure_angle_deg: pa,
-                rack,
-                mounting,
-            },
+            inputs: MeshInputs { teeth, module_mm, diametral_pitch, pressure_angle_deg: pa, rack, mounting },
             limits,
             format: a.format,
             output: a.output,
@@ -317,10 +268,7 @@ fn reachable(job: &MeshJob, range: [f64; 2]) -> Option<String> {
     }
     let hi = system.centre_distance_for_shift_sum(teeth, range[1])?;
     let (lo, open_low) = if range[0] > least {
-        (
-            system.centre_distance_for_shift_sum(teeth, range[0])?,
-            false,
-        )
+        (system.centre_distance_for_shift_sum(teeth, range[0])?, false)
     } else {
         (system.base_circle_distance_mm(teeth), true)
     };
@@ -345,9 +293,7 @@ fn explain(job: &MeshJob, defect: MeshDefect) -> Error {
     match (job.inputs.mounting, defect) {
         (MountingInput::Shifted { .. }, _) => Error::flag("--shift", defect.to_string()),
         (
-            MountingInput::AtCentreDistance {
-                shift_sum_range, ..
-            },
+            MountingInput::AtCentreDistance { shift_sum_range, .. },
             MeshDefect::CentreDistanceUnreachable { .. } | MeshDefect::ShiftSumOutOfRange { .. },
         ) => {
             let range = match reachable(job, shift_sum_range) {
@@ -356,9 +302,7 @@ fn explain(job: &MeshJob, defect: MeshDefect) -> Error {
             };
             Error::flag("--centre-distance", format!("{defect}; {range}"))
         }
-        (MountingInput::AtCentreDistance { .. }, _) => {
-            Error::flag("--centre-distance", defect.to_string())
-        }
+        (MountingInput::AtCentreDistance { .. }, _) => Error::flag("--centre-distance", defect.to_string()),
     }
 }
 
@@ -366,13 +310,8 @@ fn explain(job: &MeshJob, defect: MeshDefect) -> Error {
 fn geometry(job: &MeshJob) -> Result<MeshGeometry, MeshDefect> {
     let teeth = job.inputs.teeth;
     match job.inputs.mounting {
-        MountingInput::Shifted { shift } => {
-            mesh_geometry(&job.system, teeth, Mounting::Shifted { shift })
-        }
-        MountingInput::AtCentreDistance {
-            centre_distance_mm,
-            shift_sum_range,
-        } => shift_for_centre_distance(
+        MountingInput::Shifted { shift } => mesh_geometry(&job.system, teeth, Mounting::Shifted { shift }),
+        MountingInput::AtCentreDistance { centre_distance_mm, shift_sum_range } => shift_for_centre_distance(
             &job.system,
             teeth,
             centre_distance_mm,
@@ -386,12 +325,7 @@ pub fn run(args: MeshArgs) -> anyhow::Result<i32> {
     let job = MeshJob::try_from(args)?;
     let mesh = geometry(&job).map_err(|d| explain(&job, d))?;
     let defects = check_mesh(&mesh, &job.limits);
-    let report = MeshReport {
-        inputs: &job.inputs,
-        limits: &job.limits,
-        geometry: &mesh,
-        defects: &defects,
-    };
+    let report = MeshReport { inputs: &job.inputs, limits: &job.limits, geometry: &mesh, defects: &defects };
     let mut buf = Vec::new();
     match job.format {
         MeshFormatArg::Table => write_table(&report, &mut buf)?,
@@ -400,9 +334,5 @@ pub fn run(args: MeshArgs) -> anyhow::Result<i32> {
     if !super::output::emit(job.output.as_deref(), &buf)? {
         return Ok(EXIT_OK);
     }
-    Ok(if defects.is_empty() {
-        EXIT_OK
-    } else {
-        EXIT_NOTHING_FOUND
-    })
+    Ok(if defects.is_empty() { EXIT_OK } else { EXIT_NOTHING_FOUND })
 }

@@ -3,8 +3,8 @@
 //! exit codes, the progress bar, Ctrl-C, writing output safely.
 
 mod clock;
-mod mesh;
 mod merge;
+mod mesh;
 mod output;
 mod progress;
 mod reducer;
@@ -64,11 +64,7 @@ pub fn run() -> i32 {
     let cli = match Cli::try_parse() {
         Ok(c) => c,
         Err(e) => {
-            let code = if e.use_stderr() {
-                EXIT_BAD_INPUT
-            } else {
-                EXIT_OK
-            };
+            let code = if e.use_stderr() { EXIT_BAD_INPUT } else { EXIT_OK };
             let _ = e.print();
             return code;
         }
@@ -98,16 +94,11 @@ pub fn run() -> i32 {
 }
 
 /// Build a rayon pool of `threads` threads (all cores when `None`) and run `f` in it.
-fn with_threads<T: Send>(
-    threads: Option<usize>,
-    f: impl FnOnce() -> T + Send,
-) -> anyhow::Result<T> {
+fn with_threads<T: Send>(threads: Option<usize>, f: impl FnOnce() -> T + Send) -> anyhow::Result<T> {
     let mut b = rayon::ThreadPoolBuilder::new();
     if let Some(n) = threads {
         b = b.num_threads(n);
     }
-    let pool = b
-        .build()
-        .map_err(|e| anyhow::anyhow!("--threads: cannot start worker threads: {e}"))?;
+    let pool = b.build().map_err(|e| anyhow::anyhow!("--threads: cannot start worker threads: {e}"))?;
     Ok(pool.install(f))
 }

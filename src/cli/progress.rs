@@ -29,11 +29,7 @@ impl Bar {
             );
             b
         });
-        Bar {
-            bar,
-            shown: AtomicBool::new(false),
-            start: Instant::now(),
-        }
+        Bar { bar, shown: AtomicBool::new(false), start: Instant::now() }
     }
 
     /// Report progress (called from worker threads).

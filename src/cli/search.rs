@@ -166,6 +166,9 @@ pub struct SearchArgs {
     /// at once (the first K of it by --rank).
     #[arg(long)]
     pub pareto: bool,
+    /// Run even when the search is forecast to take more than an hour.
+    #[arg(long)]
+    pub long: bool,
     /// Search only part I of N of the space (deterministic, disjoint parts; combine their JSON
     /// with `gearsieve merge`).
     #[arg(long, value_name = "I/N")]
@@ -184,6 +187,7 @@ pub struct SearchJob {
     print: PrintArgs,
     explain: bool,
     shard: Option<Shard>,
+    long: bool,
 }
 
 /// Load every `--stock` file into one pool.
@@ -300,6 +304,7 @@ impl TryFrom<SearchArgs> for SearchJob {
             shard: a.shard.as_deref().map(|s| Shard::parse(s, "--shard")).transpose()?,
             print: a.print,
             explain: a.explain,
+            long: a.long,
         })
     }
 }
@@ -307,6 +312,7 @@ impl TryFrom<SearchArgs> for SearchJob {
 /// Run `gearsieve search`.
 pub fn run(args: SearchArgs) -> anyhow::Result<i32> {
     let job = SearchJob::try_from(args)?;
+    forecast(&job)?;
     let bar = Bar::new(job.print.quiet);
     let progress = |p| bar.update(p);
     let options = RunOptions { progress: Some(&progress), cancel: Some(&super::CANCEL), shard: job.shard };
@@ -321,6 +327,56 @@ pub fn run(args: SearchArgs) -> anyhow::Result<i32> {
     bar.finish();
     let report = Report { problem: &job.problem, outcome: &outcome, explain: job.explain, shard: job.shard };
     finish(&report, &job.print)
+}
+
+/// Forecast searches longer than this (wall seconds) are refused without `--long`.
+const REFUSE_ABOVE_S: f64 = 3600.0;
+/// Forecast searches longer than this get a note on stderr before they start.
+const NOTE_ABOVE_S: f64 = 30.0;
+
+/// Before a big search: forecast its time from a short sample, say so when it is long, and
+/// refuse one that would plainly run for hours unless `--long` is given.
+fn forecast(job: &SearchJob) -> anyhow::Result<()> {
+    let e = gearsieve::engine::estimate(&job.problem, job.engine, std::time::Duration::from_secs(1));
+    let Some(one) = e.seconds_one_thread else { return Ok(()) };
+    let threads = job.print.threads.map_or_else(rayon::current_num_threads, usize::from).max(1);
+    let mut wall = one / threads as f64;
+    if let Some(s) = job.shard {
+        wall /= s.count as f64;
+    }
+    let what = format!(
+        "{} {} on {threads} thread{} ({:.1e} stage combinations before pruning)",
+        if e.at_least { "at least" } else { "about" },
+        human_duration(wall),
+        if threads == 1 { "" } else { "s" },
+        e.combinations
+    );
+    if wall > REFUSE_ABOVE_S && !job.long {
+        return Err(Error::flag(
+            "--long",
+            format!(
+                "this search would take {what}; narrow it (fewer --stages, a narrower --teeth range, \
+                 --driver-teeth or --stage-ratio limits, a tighter --tol), split it with --shard I/N, \
+                 or give --long to run it anyway"
+            ),
+        )
+        .into());
+    }
+    if wall > NOTE_ABOVE_S && !job.print.quiet {
+        eprintln!("gearsieve: this search will take {what}; Ctrl-C stops it and prints the best so far");
+    }
+    Ok(())
+}
+
+/// `45 s`, `12 min`, `3.2 hours`.
+fn human_duration(s: f64) -> String {
+    if s < 90.0 {
+        format!("{s:.0} s")
+    } else if s < 5400.0 {
+        format!("{:.0} min", s / 60.0)
+    } else {
+        format!("{:.1} hours", s / 3600.0)
+    }
 }
 
 /// `--limit 0`: write every train as it is found, CSV rows or JSON lines, ending JSON with a

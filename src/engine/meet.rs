@@ -112,11 +112,16 @@ pub struct PairTable {
 }
 
 impl PairTable {
+    /// Would the table for `d` distinct values fit the memory budget?
+    pub fn fits(d: usize) -> bool {
+        let n = d * (d + 1) / 2;
+        d <= u16::MAX as usize && n.saturating_mul(std::mem::size_of::<Pair>()) <= PAIR_TABLE_BUDGET_BYTES
+    }
+
     /// Build the table, or `None` when it would exceed the memory budget.
     pub fn new(values: &Values) -> Option<PairTable> {
         let d = values.count();
-        let n = d * (d + 1) / 2;
-        if d > u16::MAX as usize || n.saturating_mul(std::mem::size_of::<Pair>()) > PAIR_TABLE_BUDGET_BYTES {
+        if !PairTable::fits(d) {
             return None;
         }
         let mut pairs: Vec<Pair> = (0..d)
@@ -192,6 +197,8 @@ pub struct Meet<'a, 's> {
 
 impl Meet<'_, '_> {
     /// Run one unit into `keep`.
+    // The loop variables are value ids that go into the sequence, not just positions in `v`.
+    #[allow(clippy::needless_range_loop)]
     pub(crate) fn run(&self, unit: MeetUnit, keep: &mut Keeper) {
         let v = &self.values.value;
         let (lo, hi) = (self.space.lo, self.space.hi);

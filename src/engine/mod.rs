@@ -488,11 +488,7 @@ fn plan(
     shard: Option<Shard>,
 ) -> (Vec<Unit>, Option<MeetData>) {
     let counts = problem.stage_counts();
-    let meet_counts: Vec<usize> = if engine == EngineKind::Fast {
-        counts.iter().copied().filter(|&n| meet::applies(space, n)).collect()
-    } else {
-        Vec::new()
-    };
+    let meet_counts = meet_counts(problem, space, engine);
     let data = (!meet_counts.is_empty()).then(|| {
         let values = meet::Values::new(space);
         let pairs = meet_counts.contains(&4).then(|| meet::PairTable::new(&values)).flatten();
@@ -511,6 +507,14 @@ fn plan(
     }
     let units = all.into_iter().enumerate().filter(|(k, _)| in_shard(*k, shard)).map(|(_, u)| u).collect();
     (units, data)
+}
+
+/// The stage counts the meet engine may take (four only if its pair table could be built).
+fn meet_counts(problem: &Problem, space: &SearchSpace, engine: EngineKind) -> Vec<usize> {
+    if engine != EngineKind::Fast {
+        return Vec::new();
+    }
+    problem.stage_counts().into_iter().filter(|&n| meet::applies(space, n)).collect()
 }
 
 /// What a search keeps while it runs.
@@ -627,6 +631,81 @@ pub fn search(problem: &Problem, engine: EngineKind, options: &RunOptions) -> Ou
         complete: !space.cancelled(),
         stage_options: space.stages.len(),
         rejected: space.rejections(),
+    }
+}
+
+/// A forecast of a search's cost, made before it runs.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct Estimate {
+    /// Stage combinations in the whole space (before any pruning), summed over stage counts.
+    pub combinations: f64,
+    /// Units of work the unit-by-unit engines would do.
+    pub units: usize,
+    /// Projected time on one thread, seconds; `None` when the search is sure to be quick (the
+    /// meet engine covers every stage count, or the space is small).
+    pub seconds_one_thread: Option<f64>,
+    /// True when a sampled unit was cut short by the budget: the time is then a lower bound.
+    pub at_least: bool,
+}
+
+/// `C(s + n − 1, n)` as a float: multisets of `n` stages from `s`.
+fn multisets(s: usize, n: usize) -> f64 {
+    (0..n).fold(1.0, |acc, i| acc * (s + i) as f64 / (i + 1) as f64)
+}
+
+/// Forecast a search by timing a sample of its units on this thread for at most about
+/// `budget`. Only unit-by-unit engines are sampled; the meet engine's cost is bounded by its
+/// table and is not.
+pub fn estimate(problem: &Problem, engine: EngineKind, budget: std::time::Duration) -> Estimate {
+    let space = SearchSpace::new(problem, None);
+    let counts = problem.stage_counts();
+    let combinations = counts.iter().map(|&n| multisets(space.stages.len(), n)).sum();
+    let by_meet = meet_counts(problem, &space, engine);
+    let table_fits = meet::PairTable::fits(meet::Values::new(&space).count());
+    let visit: Vec<(usize, usize)> = counts
+        .iter()
+        .filter(|&&n| !(by_meet.contains(&n) && (n <= 3 || table_fits)))
+        .flat_map(|&n| (0..space.stages.len()).map(move |f| (n, f)))
+        .collect();
+    if visit.is_empty() || combinations < 1e8 {
+        return Estimate { combinations, units: visit.len(), seconds_one_thread: None, at_least: false };
+    }
+    // The sample runs in a space of its own whose stop flag a timer raises when the budget is
+    // spent, so even one enormous unit cannot hold the forecast up.
+    let stop = AtomicBool::new(false);
+    let sampled = SearchSpace::new(problem, Some(&stop));
+    let e = engine.engine();
+    let start = std::time::Instant::now();
+    let sample = 64.min(visit.len());
+    let (done_tx, done_rx) = std::sync::mpsc::channel::<()>();
+    let mut timed = 0usize;
+    std::thread::scope(|scope| {
+        let stop = &stop;
+        scope.spawn(move || {
+            if done_rx.recv_timeout(budget).is_err() {
+                stop.store(true, AtomicOrdering::Relaxed);
+            }
+        });
+        for k in 0..sample {
+            // Spread the sample over the list so cheap and dear units are both seen.
+            let (n, first) = visit[k * visit.len() / sample];
+            e.visit_unit(&sampled, n, first, &mut |idx| {
+                let _ = sampled.judge(idx);
+            });
+            // A unit cut short still counts as one: the forecast is then a lower bound.
+            timed += 1;
+            if sampled.cancelled() {
+                break;
+            }
+        }
+        let _ = done_tx.send(());
+    });
+    let per_unit = start.elapsed().as_secs_f64() / timed.max(1) as f64;
+    Estimate {
+        combinations,
+        units: visit.len(),
+        seconds_one_thread: Some(per_unit * visit.len() as f64),
+        at_least: sampled.cancelled(),
     }
 }
 

@@ -41,11 +41,7 @@ impl GearRef {
             std::cmp::Ordering::Greater => Role::Wheel,
             std::cmp::Ordering::Equal => Role::Twin,
         };
-        GearRef {
-            index,
-            teeth: own,
-            role,
-        }
+        GearRef { index, teeth: own, role }
     }
 }
 
@@ -146,18 +142,12 @@ impl fmt::Display for MeshDefect {
     fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
         match *self {
             MeshDefect::InvalidInput { what, value } => write!(f, "{what}, found {value}"),
-            MeshDefect::CentreDistanceUnreachable {
-                centre_distance_mm,
-                min_mm,
-            } => write!(
+            MeshDefect::CentreDistanceUnreachable { centre_distance_mm, min_mm } => write!(
                 f,
                 "the gears cannot mesh at a centre distance of {centre_distance_mm:.3} mm: it \
                  must be more than {min_mm:.3} mm, where their base circles touch"
             ),
-            MeshDefect::WouldJam {
-                centre_distance_mm,
-                tight_mm,
-            } => write!(
+            MeshDefect::WouldJam { centre_distance_mm, tight_mm } => write!(
                 f,
                 "the gears as cut would jam at a centre distance of {centre_distance_mm:.3} mm: \
                  they need at least {tight_mm:.3} mm"
@@ -177,20 +167,12 @@ impl fmt::Display for MeshDefect {
                 "the tip circle of {gear} would lie inside its base circle, leaving no involute \
                  flank to run on"
             ),
-            MeshDefect::Undercut {
-                gear,
-                shift,
-                min_shift,
-            } => write!(
+            MeshDefect::Undercut { gear, shift, min_shift } => write!(
                 f,
                 "{gear} would be undercut: it needs a profile shift of at least {min_shift:.3}, \
                  it has {shift:.3}"
             ),
-            MeshDefect::PointedTip {
-                gear,
-                thickness_mm,
-                min_mm,
-            } => {
+            MeshDefect::PointedTip { gear, thickness_mm, min_mm } => {
                 if thickness_mm <= 0.0 {
                     write!(
                         f,
@@ -243,11 +225,7 @@ pub struct MeshLimits {
 
 impl Default for MeshLimits {
     fn default() -> Self {
-        MeshLimits {
-            min_contact_ratio: 1.2,
-            min_tip_thickness_modules: 0.25,
-            allow_undercut: false,
-        }
+        MeshLimits { min_contact_ratio: 1.2, min_tip_thickness_modules: 0.25, allow_undercut: false }
     }
 }
 
@@ -261,11 +239,7 @@ pub fn check_mesh(mesh: &MeshGeometry, limits: &MeshLimits) -> Vec<MeshDefect> {
     for i in 0..2 {
         let gear = GearRef::of(mesh.teeth, i);
         if mesh.undercut[i] && !limits.allow_undercut {
-            defects.push(MeshDefect::Undercut {
-                gear,
-                shift: mesh.shift[i],
-                min_shift: mesh.min_shift[i],
-            });
+            defects.push(MeshDefect::Undercut { gear, shift: mesh.shift[i], min_shift: mesh.min_shift[i] });
         }
         if mesh.tip_thickness_mm[i] < min_tip_mm {
             defects.push(MeshDefect::PointedTip {
@@ -311,14 +285,8 @@ mod tests {
         assert_eq!(GearRef::of([12, 40], 0).to_string(), "the 12-tooth pinion");
         assert_eq!(GearRef::of([12, 40], 1).to_string(), "the 40-tooth wheel");
         assert_eq!(GearRef::of([40, 12], 0).to_string(), "the 40-tooth wheel");
-        assert_eq!(
-            GearRef::of([30, 30], 0).to_string(),
-            "the first 30-tooth gear"
-        );
-        assert_eq!(
-            GearRef::of([30, 30], 1).to_string(),
-            "the second 30-tooth gear"
-        );
+        assert_eq!(GearRef::of([30, 30], 0).to_string(), "the first 30-tooth gear");
+        assert_eq!(GearRef::of([30, 30], 1).to_string(), "the second 30-tooth gear");
     }
 
     #[test]
@@ -338,15 +306,10 @@ mod tests {
         }));
         assert_eq!(g.tip_interference, [false, true]);
         // Allowing undercut drops that complaint only.
-        let lenient = MeshLimits {
-            allow_undercut: true,
-            ..MeshLimits::default()
-        };
+        let lenient = MeshLimits { allow_undercut: true, ..MeshLimits::default() };
         let rest = check_mesh(&g, &lenient);
         assert_eq!(rest.len(), defects.len() - 1);
-        assert!(!rest
-            .iter()
-            .any(|d| matches!(d, MeshDefect::Undercut { .. })));
+        assert!(!rest.iter().any(|d| matches!(d, MeshDefect::Undercut { .. })));
     }
 
     #[test]
@@ -369,11 +332,7 @@ mod tests {
             .collect();
         assert_eq!(pointed.len(), 1);
         match pointed[0] {
-            MeshDefect::PointedTip {
-                gear,
-                thickness_mm,
-                min_mm,
-            } => {
+            MeshDefect::PointedTip { gear, thickness_mm, min_mm } => {
                 assert_eq!(gear.index, 0);
                 assert_eq!(thickness_mm, g.tip_thickness_mm[0]);
                 assert_eq!(min_mm, 0.25 * 2.0);
@@ -381,19 +340,13 @@ mod tests {
             }
             _ => unreachable!(),
         }
-        assert!(pointed[0]
-            .to_string()
-            .starts_with("the teeth of the 10-tooth pinion would"));
+        assert!(pointed[0].to_string().starts_with("the teeth of the 10-tooth pinion would"));
         // A laxer limit below the actual thickness lets it pass (unless it is a true point).
         let thickness_modules = g.tip_thickness_modules[0];
         if thickness_modules > 0.0 {
-            let lax = MeshLimits {
-                min_tip_thickness_modules: thickness_modules * 0.9,
-                ..MeshLimits::default()
-            };
-            assert!(!check_mesh(&g, &lax)
-                .iter()
-                .any(|d| matches!(d, MeshDefect::PointedTip { .. })));
+            let lax =
+                MeshLimits { min_tip_thickness_modules: thickness_modules * 0.9, ..MeshLimits::default() };
+            assert!(!check_mesh(&g, &lax).iter().any(|d| matches!(d, MeshDefect::PointedTip { .. })));
         }
     }
 
@@ -414,19 +367,9 @@ mod tests {
         )
         .unwrap();
         let defects = check_mesh(&apart, &MeshLimits::default());
-        assert_eq!(
-            defects,
-            vec![MeshDefect::ContactRatioTooLow {
-                value: apart.contact_ratio,
-                min: 1.2
-            }]
-        );
-        assert!(defects[0]
-            .to_string()
-            .starts_with("the contact ratio would be "));
-        assert!(defects[0]
-            .to_string()
-            .ends_with("below the 1.20 wanted for smooth running"));
+        assert_eq!(defects, vec![MeshDefect::ContactRatioTooLow { value: apart.contact_ratio, min: 1.2 }]);
+        assert!(defects[0].to_string().starts_with("the contact ratio would be "));
+        assert!(defects[0].to_string().ends_with("below the 1.20 wanted for smooth running"));
     }
 
     #[test]
@@ -442,29 +385,19 @@ mod tests {
 
     #[test]
     fn messages_name_the_numbers() {
-        let jam = MeshDefect::WouldJam {
-            centre_distance_mm: 35.0,
-            tight_mm: 35.512,
-        };
+        let jam = MeshDefect::WouldJam { centre_distance_mm: 35.0, tight_mm: 35.512 };
         assert_eq!(
             jam.to_string(),
             "the gears as cut would jam at a centre distance of 35.000 mm: they need at least \
              35.512 mm"
         );
-        let range = MeshDefect::ShiftSumOutOfRange {
-            shift_sum: 1.2345,
-            lo: -0.5,
-            hi: 1.0,
-        };
+        let range = MeshDefect::ShiftSumOutOfRange { shift_sum: 1.2345, lo: -0.5, hi: 1.0 };
         assert_eq!(
             range.to_string(),
             "the profile shifts would have to add up to 1.234, outside the allowed -0.500 to 1.000"
         );
         let bad = ToothSystem::new(-2.0, 20.0, RackProfile::default()).unwrap_err();
-        assert_eq!(
-            bad.to_string(),
-            "the module must be a positive number of millimetres, found -2"
-        );
+        assert_eq!(bad.to_string(), "the module must be a positive number of millimetres, found -2");
         // Into the crate's error as a whole-problem message.
         let err: crate::error::Error = bad.into();
         assert_eq!(

@@ -151,11 +151,7 @@ mod tests {
             a.push(s / (2 * n + 1) as f64);
         }
         for (n, &c) in TAN_MINUS_X.iter().enumerate() {
-            assert!(
-                rel(c, a[n + 1]) < 1e-14,
-                "coefficient {n}: {c} vs {}",
-                a[n + 1]
-            );
+            assert!(rel(c, a[n + 1]) < 1e-14, "coefficient {n}: {c} vs {}", a[n + 1]);
         }
     }
 
@@ -186,10 +182,7 @@ mod tests {
         for &edge in &[SERIES_LIMIT_RAD, DOUBLING_LIMIT_RAD] {
             let below = f64::from_bits(edge.to_bits() - 1);
             let above = f64::from_bits(edge.to_bits() + 1);
-            assert!(
-                inv(below) <= inv(edge) && inv(edge) <= inv(above),
-                "edge {edge}"
-            );
+            assert!(inv(below) <= inv(edge) && inv(edge) <= inv(above), "edge {edge}");
             // A step of one ulp in α moves inv by about 3 ulps; a seam would show as more.
             assert!(rel(inv(above), inv(below)) < 2e-15, "edge {edge}");
         }

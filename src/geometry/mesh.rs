@@ -137,12 +137,12 @@ pub fn mesh_geometry(
         Mounting::Shifted { shift } => {
             check_shifts(shift)?;
             let sum = shift[0] + shift[1];
-            let alpha_w = system
-                .working_pressure_angle_for_shift_sum(teeth, sum)
-                .ok_or_else(|| MeshDefect::ShiftSumTooNegative {
+            let alpha_w = system.working_pressure_angle_for_shift_sum(teeth, sum).ok_or_else(|| {
+                MeshDefect::ShiftSumTooNegative {
                     shift_sum: sum,
                     min: system.least_workable_shift_sum(teeth),
-                })?;
+                }
+            })?;
             let a_w = system.base_circle_distance_mm(teeth) / alpha_w.cos();
             if !a_w.is_finite() {
                 return Err(MeshDefect::InvalidInput {
@@ -153,17 +153,10 @@ pub fn mesh_geometry(
             let k = system.tip_shortening(teeth, sum, a_w);
             assemble(system, teeth, shift, k, a_w, alpha_w)
         }
-        Mounting::AtCentreDistance { centre_distance_mm } => shift_for_centre_distance(
-            system,
-            teeth,
-            centre_distance_mm,
-            &(f64::NEG_INFINITY..=f64::INFINITY),
-        ),
-        Mounting::CutGears {
-            shift,
-            tip_shortening,
-            centre_distance_mm,
-        } => {
+        Mounting::AtCentreDistance { centre_distance_mm } => {
+            shift_for_centre_distance(system, teeth, centre_distance_mm, &(f64::NEG_INFINITY..=f64::INFINITY))
+        }
+        Mounting::CutGears { shift, tip_shortening, centre_distance_mm } => {
             check_shifts(shift)?;
             if !(tip_shortening.is_finite() && tip_shortening >= 0.0) {
                 return Err(MeshDefect::InvalidInput {
@@ -179,22 +172,10 @@ pub fn mesh_geometry(
             if backlash < -JAM_TOLERANCE_MODULES * system.module_mm() {
                 // Jamming means the tight distance exists and is larger, so the fallback
                 // value is never shown.
-                let tight_mm = system
-                    .centre_distance_for_shift_sum(teeth, sum)
-                    .unwrap_or(f64::NAN);
-                return Err(MeshDefect::WouldJam {
-                    centre_distance_mm,
-                    tight_mm,
-                });
+                let tight_mm = system.centre_distance_for_shift_sum(teeth, sum).unwrap_or(f64::NAN);
+                return Err(MeshDefect::WouldJam { centre_distance_mm, tight_mm });
             }
-            assemble(
-                system,
-                teeth,
-                shift,
-                tip_shortening,
-                centre_distance_mm,
-                alpha_w,
-            )
+            assemble(system, teeth, shift, tip_shortening, centre_distance_mm, alpha_w)
         }
     }
 }
@@ -226,11 +207,7 @@ pub fn shift_for_centre_distance(
     let alpha_w = working_angle(system, teeth, centre_distance_mm)?;
     let sum = system.shift_sum_for_working_angle(teeth, alpha_w);
     if !shift_sum.contains(&sum) {
-        return Err(MeshDefect::ShiftSumOutOfRange {
-            shift_sum: sum,
-            lo,
-            hi,
-        });
+        return Err(MeshDefect::ShiftSumOutOfRange { shift_sum: sum, lo, hi });
     }
     let shift = system.split_shift_sum(teeth, sum);
     let k = system.tip_shortening(teeth, sum, centre_distance_mm);
@@ -240,10 +217,9 @@ pub fn shift_for_centre_distance(
 /// Both gears need at least one tooth for any of the formulas to mean something.
 fn check_teeth(teeth: [u32; 2]) -> Result<(), MeshDefect> {
     match teeth.iter().find(|&&z| z == 0) {
-        Some(&z) => Err(MeshDefect::InvalidInput {
-            what: "a gear must have at least one tooth",
-            value: f64::from(z),
-        }),
+        Some(&z) => {
+            Err(MeshDefect::InvalidInput { what: "a gear must have at least one tooth", value: f64::from(z) })
+        }
         None => Ok(()),
     }
 }
@@ -267,11 +243,7 @@ fn unreachable(system: &ToothSystem, teeth: [u32; 2], centre_distance_mm: f64) -
 
 /// The working pressure angle at a centre distance that must be a positive finite length and
 /// beyond where the base circles touch.
-fn working_angle(
-    system: &ToothSystem,
-    teeth: [u32; 2],
-    centre_distance_mm: f64,
-) -> Result<f64, MeshDefect> {
+fn working_angle(system: &ToothSystem, teeth: [u32; 2], centre_distance_mm: f64) -> Result<f64, MeshDefect> {
     if !(centre_distance_mm.is_finite() && centre_distance_mm > 0.0) {
         return Err(MeshDefect::InvalidInput {
             what: "the centre distance must be a positive number of millimetres",
@@ -303,19 +275,14 @@ fn assemble(
     for i in 0..2 {
         tip_thickness[i] = system
             .tooth_thickness_mm(teeth[i], shift[i], tip[i])
-            .ok_or(MeshDefect::NoInvoluteAtTip {
-                gear: GearRef::of(teeth, i),
-            })?;
+            .ok_or(MeshDefect::NoInvoluteAtTip { gear: GearRef::of(teeth, i) })?;
     }
-    let contact_ratio = system
-        .contact_ratio(teeth, tip, a_w)
-        .ok_or_else(|| unreachable(system, teeth, a_w))?;
-    let tip_interference = system
-        .tip_interference(teeth, tip, a_w)
-        .ok_or_else(|| unreachable(system, teeth, a_w))?;
-    let backlash_mm = system
-        .backlash_mm(teeth, shift[0] + shift[1], a_w)
-        .ok_or_else(|| unreachable(system, teeth, a_w))?;
+    let contact_ratio =
+        system.contact_ratio(teeth, tip, a_w).ok_or_else(|| unreachable(system, teeth, a_w))?;
+    let tip_interference =
+        system.tip_interference(teeth, tip, a_w).ok_or_else(|| unreachable(system, teeth, a_w))?;
+    let backlash_mm =
+        system.backlash_mm(teeth, shift[0] + shift[1], a_w).ok_or_else(|| unreachable(system, teeth, a_w))?;
     let z_sum = f64::from(teeth[0]) + f64::from(teeth[1]);
     Ok(MeshGeometry {
         module_mm: m,
@@ -342,10 +309,7 @@ fn assemble(
         contact_ratio,
         tip_interference,
         backlash_mm,
-        bottom_clearance_mm: [
-            a_w - (tip[0] + root[1]) / 2.0,
-            a_w - (tip[1] + root[0]) / 2.0,
-        ],
+        bottom_clearance_mm: [a_w - (tip[0] + root[1]) / 2.0, a_w - (tip[1] + root[0]) / 2.0],
     })
 }
 
@@ -473,14 +437,8 @@ mod tests {
         let s = system(1.5, 20.0);
         let teeth = [12, 31];
         let a = s.standard_centre_distance_mm(teeth);
-        let g = mesh_geometry(
-            &s,
-            teeth,
-            Mounting::AtCentreDistance {
-                centre_distance_mm: a + 0.75,
-            },
-        )
-        .unwrap();
+        let g =
+            mesh_geometry(&s, teeth, Mounting::AtCentreDistance { centre_distance_mm: a + 0.75 }).unwrap();
         assert_eq!(g.shift, s.split_shift_sum(teeth, g.shift_sum()));
         assert_eq!(g.undercut, [false, false]);
         assert!((g.centre_distance_mm - (a + 0.75)).abs() < 1e-12);
@@ -529,32 +487,17 @@ mod tests {
     #[test]
     fn rejects_unusable_inputs() {
         let s = system(1.0, 20.0);
-        let invalid =
-            |r: Result<MeshGeometry, MeshDefect>| matches!(r, Err(MeshDefect::InvalidInput { .. }));
+        let invalid = |r: Result<MeshGeometry, MeshDefect>| matches!(r, Err(MeshDefect::InvalidInput { .. }));
         let shifts = |shift| Mounting::Shifted { shift };
         assert!(invalid(mesh_geometry(&s, [0, 20], shifts([0.0, 0.0]))));
-        assert!(invalid(mesh_geometry(
-            &s,
-            [20, 20],
-            shifts([f64::NAN, 0.0])
-        )));
-        assert!(invalid(mesh_geometry(
-            &s,
-            [20, 20],
-            shifts([0.0, f64::INFINITY])
-        )));
+        assert!(invalid(mesh_geometry(&s, [20, 20], shifts([f64::NAN, 0.0]))));
+        assert!(invalid(mesh_geometry(&s, [20, 20], shifts([0.0, f64::INFINITY]))));
         for a_w in [0.0, -5.0, f64::NAN, f64::INFINITY] {
-            let m = Mounting::AtCentreDistance {
-                centre_distance_mm: a_w,
-            };
+            let m = Mounting::AtCentreDistance { centre_distance_mm: a_w };
             assert!(invalid(mesh_geometry(&s, [20, 20], m)), "{a_w}");
         }
         for k in [-0.1, f64::NAN] {
-            let m = Mounting::CutGears {
-                shift: [0.0, 0.0],
-                tip_shortening: k,
-                centre_distance_mm: 20.0,
-            };
+            let m = Mounting::CutGears { shift: [0.0, 0.0], tip_shortening: k, centre_distance_mm: 20.0 };
             assert!(invalid(mesh_geometry(&s, [20, 20], m)), "{k}");
         }
         assert!(matches!(
@@ -569,10 +512,7 @@ mod tests {
         let s = system(1.0, 25.0);
         let teeth = [30, 200];
         let g = mesh_geometry(&s, teeth, Mounting::Shifted { shift: [-2.5, 2.0] });
-        assert!(
-            matches!(g, Err(MeshDefect::NoInvoluteAtTip { gear }) if gear.index == 0),
-            "{g:?}"
-        );
+        assert!(matches!(g, Err(MeshDefect::NoInvoluteAtTip { gear }) if gear.index == 0), "{g:?}");
     }
 
     #[test]
@@ -600,12 +540,7 @@ mod tests {
 
     /// Tooth counts, module and pressure angle as the property tests draw them.
     fn pair() -> impl Strategy<Value = (ToothSystem, [u32; 2])> {
-        (
-            8u32..200,
-            8u32..200,
-            0.5f64..10.0,
-            prop_oneof![Just(14.5f64), Just(20.0), Just(25.0)],
-        )
+        (8u32..200, 8u32..200, 0.5f64..10.0, prop_oneof![Just(14.5f64), Just(20.0), Just(25.0)])
             .prop_map(|(z1, z2, m, deg)| (system(m, deg), [z1, z2]))
     }
 

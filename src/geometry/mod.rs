@@ -31,7 +31,6 @@ pub use check::{check_mesh, GearRef, MeshDefect, MeshLimits, Role};
 pub use involute::{inv, inv_inverse};
 pub use mesh::{mesh_geometry, shift_for_centre_distance, MeshGeometry, Mounting};
 pub use modules::{
-    is_standard_module, module_from_diametral_pitch, Series, MM_PER_INCH, MODULE_SERIES_I,
-    MODULE_SERIES_II,
+    is_standard_module, module_from_diametral_pitch, Series, MM_PER_INCH, MODULE_SERIES_I, MODULE_SERIES_II,
 };
 pub use system::{RackProfile, ToothSystem};

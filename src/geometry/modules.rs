@@ -8,15 +8,14 @@ pub const MM_PER_INCH: f64 = 25.4;
 
 /// DIN 780 module series I (preferred), mm, ascending.
 pub const MODULE_SERIES_I: [f64; 33] = [
-    0.05, 0.06, 0.08, 0.1, 0.12, 0.16, 0.2, 0.25, 0.3, 0.4, 0.5, 0.6, 0.7, 0.8, 0.9, 1.0, 1.25,
-    1.5, 2.0, 2.5, 3.0, 4.0, 5.0, 6.0, 8.0, 10.0, 12.0, 16.0, 20.0, 25.0, 32.0, 40.0, 50.0,
+    0.05, 0.06, 0.08, 0.1, 0.12, 0.16, 0.2, 0.25, 0.3, 0.4, 0.5, 0.6, 0.7, 0.8, 0.9, 1.0, 1.25, 1.5, 2.0,
+    2.5, 3.0, 4.0, 5.0, 6.0, 8.0, 10.0, 12.0, 16.0, 20.0, 25.0, 32.0, 40.0, 50.0,
 ];
 
 /// DIN 780 module series II (second choice), mm, ascending.
 pub const MODULE_SERIES_II: [f64; 33] = [
-    0.055, 0.07, 0.09, 0.11, 0.14, 0.18, 0.22, 0.28, 0.35, 0.45, 0.55, 0.65, 0.75, 0.85, 0.95,
-    1.125, 1.375, 1.75, 2.25, 2.75, 3.5, 4.5, 5.5, 7.0, 9.0, 11.0, 14.0, 18.0, 22.0, 28.0, 36.0,
-    45.0, 55.0,
+    0.055, 0.07, 0.09, 0.11, 0.14, 0.18, 0.22, 0.28, 0.35, 0.45, 0.55, 0.65, 0.75, 0.85, 0.95, 1.125, 1.375,
+    1.75, 2.25, 2.75, 3.5, 4.5, 5.5, 7.0, 9.0, 11.0, 14.0, 18.0, 22.0, 28.0, 36.0, 45.0, 55.0,
 ];
 
 /// Which DIN 780 series a standard module belongs to.
@@ -80,8 +79,7 @@ mod tests {
                         1.5 2 2.5 3 4 5 6 8 10 12 16 20 25 32 40 50";
         let series_ii = "0.055 0.07 0.09 0.11 0.14 0.18 0.22 0.28 0.35 0.45 0.55 0.65 0.75 0.85 \
                          0.95 1.125 1.375 1.75 2.25 2.75 3.5 4.5 5.5 7 9 11 14 18 22 28 36 45 55";
-        let parse =
-            |s: &str| -> Vec<f64> { s.split_whitespace().map(|t| t.parse().unwrap()).collect() };
+        let parse = |s: &str| -> Vec<f64> { s.split_whitespace().map(|t| t.parse().unwrap()).collect() };
         assert_eq!(MODULE_SERIES_I.to_vec(), parse(series_i));
         assert_eq!(MODULE_SERIES_II.to_vec(), parse(series_ii));
     }
@@ -107,9 +105,6 @@ mod tests {
         assert_eq!(is_standard_module(60.0), None);
         assert_eq!(is_standard_module(f64::NAN), None);
         // 10 DP gives 2.54 mm, which is in neither series.
-        assert_eq!(
-            is_standard_module(module_from_diametral_pitch(10.0).unwrap()),
-            None
-        );
+        assert_eq!(is_standard_module(module_from_diametral_pitch(10.0).unwrap()), None);
     }
 }

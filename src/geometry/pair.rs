@@ -38,11 +38,7 @@ impl ToothSystem {
     /// `cos α_w = a·cos α / a_w`. Holds for any pair mounted there, shifted or not.
     ///
     /// `None` when `a_w` is not larger than [`Self::base_circle_distance_mm`] (or not finite).
-    pub fn working_pressure_angle_at(
-        &self,
-        teeth: [u32; 2],
-        centre_distance_mm: f64,
-    ) -> Option<f64> {
+    pub fn working_pressure_angle_at(&self, teeth: [u32; 2], centre_distance_mm: f64) -> Option<f64> {
         let cos_w = self.base_circle_distance_mm(teeth) / centre_distance_mm;
         (cos_w > 0.0 && cos_w < 1.0).then(|| cos_w.acos())
     }
@@ -51,11 +47,7 @@ impl ToothSystem {
     /// at `centre_distance_mm`: `x1 + x2 = (inv α_w − inv α)(z1 + z2) / (2·tan α)`.
     ///
     /// `None` when the centre distance cannot be reached (see [`Self::working_pressure_angle_at`]).
-    pub fn shift_sum_for_centre_distance(
-        &self,
-        teeth: [u32; 2],
-        centre_distance_mm: f64,
-    ) -> Option<f64> {
+    pub fn shift_sum_for_centre_distance(&self, teeth: [u32; 2], centre_distance_mm: f64) -> Option<f64> {
         let alpha_w = self.working_pressure_angle_at(teeth, centre_distance_mm)?;
         Some(self.shift_sum_for_working_angle(teeth, alpha_w))
     }
@@ -77,11 +69,7 @@ impl ToothSystem {
     /// modules) and mounted tight: `inv α_w = inv α + 2·tan α·(x1 + x2)/(z1 + z2)`.
     ///
     /// `None` when the sum is not above [`Self::least_workable_shift_sum`] (or not finite).
-    pub fn working_pressure_angle_for_shift_sum(
-        &self,
-        teeth: [u32; 2],
-        shift_sum: f64,
-    ) -> Option<f64> {
+    pub fn working_pressure_angle_for_shift_sum(&self, teeth: [u32; 2], shift_sum: f64) -> Option<f64> {
         let inv_w = self.inv_alpha + 2.0 * self.tan_alpha * shift_sum / tooth_sum(teeth);
         (inv_w > 0.0 && inv_w.is_finite()).then(|| inv_inverse(inv_w))
     }
@@ -150,12 +138,7 @@ impl ToothSystem {
     /// where it crosses that gear's tip circle: `√(ra² − rb²)` for each gear. `None` when a tip
     /// circle is not outside its base circle.
     pub fn tip_reach_mm(&self, teeth: [u32; 2], tip_diameter_mm: [f64; 2]) -> Option<[f64; 2]> {
-        let reach = |i: usize| {
-            leg(
-                tip_diameter_mm[i] / 2.0,
-                self.base_diameter_mm(teeth[i]) / 2.0,
-            )
-        };
+        let reach = |i: usize| leg(tip_diameter_mm[i] / 2.0, self.base_diameter_mm(teeth[i]) / 2.0);
         Some([reach(0)?, reach(1)?])
     }
 
@@ -207,12 +190,7 @@ impl ToothSystem {
     ///
     /// Zero at the tight-mesh distance, positive when the gears are pulled apart, negative when
     /// they would have to overlap (jam). `None` when the centre distance cannot be reached.
-    pub fn backlash_mm(
-        &self,
-        teeth: [u32; 2],
-        shift_sum: f64,
-        centre_distance_mm: f64,
-    ) -> Option<f64> {
+    pub fn backlash_mm(&self, teeth: [u32; 2], shift_sum: f64, centre_distance_mm: f64) -> Option<f64> {
         let alpha_w = self.working_pressure_angle_at(teeth, centre_distance_mm)?;
         let tight = self.inv_alpha + 2.0 * self.tan_alpha * shift_sum / tooth_sum(teeth);
         Some(2.0 * centre_distance_mm * (inv(alpha_w) - tight))
@@ -231,14 +209,8 @@ mod tests {
     #[test]
     fn standard_centre_distance() {
         // Common practice: a = m(z1 + z2)/2.
-        assert_eq!(
-            system(2.0, 20.0).standard_centre_distance_mm([20, 40]),
-            60.0
-        );
-        assert_eq!(
-            system(1.5, 20.0).standard_centre_distance_mm([15, 22]),
-            27.75
-        );
+        assert_eq!(system(2.0, 20.0).standard_centre_distance_mm([20, 40]), 60.0);
+        assert_eq!(system(1.5, 20.0).standard_centre_distance_mm([15, 22]), 27.75);
     }
 
     #[test]
@@ -275,17 +247,13 @@ mod tests {
         assert_eq!(s.working_pressure_angle_at(teeth, 0.9 * base), None);
         assert_eq!(s.working_pressure_angle_at(teeth, -60.0), None);
         assert_eq!(s.working_pressure_angle_at(teeth, f64::NAN), None);
-        assert!(s
-            .working_pressure_angle_at(teeth, base * (1.0 + 1e-9))
-            .is_some());
+        assert!(s.working_pressure_angle_at(teeth, base * (1.0 + 1e-9)).is_some());
         assert_eq!(s.shift_sum_for_centre_distance(teeth, base), None);
         let least = s.least_workable_shift_sum(teeth);
         assert_eq!(s.centre_distance_for_shift_sum(teeth, least), None);
         assert_eq!(s.centre_distance_for_shift_sum(teeth, least - 1.0), None);
         assert_eq!(s.centre_distance_for_shift_sum(teeth, f64::NAN), None);
-        let just_above = s
-            .centre_distance_for_shift_sum(teeth, least + 1e-6)
-            .unwrap();
+        let just_above = s.centre_distance_for_shift_sum(teeth, least + 1e-6).unwrap();
         assert!(just_above > base && just_above < base * 1.001);
     }
 
@@ -351,10 +319,7 @@ mod tests {
         let meshed = |z: u32| {
             let teeth = [z, wheel];
             let a = s.standard_centre_distance_mm(teeth);
-            let tips = [
-                s.tip_diameter_mm(z, 0.0, 0.0),
-                s.tip_diameter_mm(wheel, 0.0, 0.0),
-            ];
+            let tips = [s.tip_diameter_mm(z, 0.0, 0.0), s.tip_diameter_mm(wheel, 0.0, 0.0)];
             s.tip_interference(teeth, tips, a).unwrap()
         };
         assert_eq!(meshed(17), [false, true]);
@@ -369,10 +334,7 @@ mod tests {
         let tips = [22.0, 42.0];
         assert!(s.contact_ratio(teeth, tips, a).is_some());
         assert_eq!(s.contact_ratio(teeth, [18.0, 42.0], a), None);
-        assert_eq!(
-            s.contact_ratio(teeth, tips, s.base_circle_distance_mm(teeth)),
-            None
-        );
+        assert_eq!(s.contact_ratio(teeth, tips, s.base_circle_distance_mm(teeth)), None);
     }
 
     #[test]

@@ -26,11 +26,7 @@ pub struct RackProfile {
 
 impl Default for RackProfile {
     fn default() -> Self {
-        RackProfile {
-            addendum: 1.0,
-            dedendum: 1.25,
-            root_radius: 0.38,
-        }
+        RackProfile { addendum: 1.0, dedendum: 1.25, root_radius: 0.38 }
     }
 }
 
@@ -71,22 +67,13 @@ impl ToothSystem {
     ) -> Result<ToothSystem, MeshDefect> {
         let invalid = |what, value| Err(MeshDefect::InvalidInput { what, value });
         if !(module_mm.is_finite() && module_mm > 0.0) {
-            return invalid(
-                "the module must be a positive number of millimetres",
-                module_mm,
-            );
+            return invalid("the module must be a positive number of millimetres", module_mm);
         }
         if !(pressure_angle_deg > 0.0 && pressure_angle_deg < 90.0) {
-            return invalid(
-                "the pressure angle must lie between 0 and 90 degrees",
-                pressure_angle_deg,
-            );
+            return invalid("the pressure angle must lie between 0 and 90 degrees", pressure_angle_deg);
         }
         if !(rack.addendum.is_finite() && rack.addendum > 0.0) {
-            return invalid(
-                "the rack addendum must be a positive number of modules",
-                rack.addendum,
-            );
+            return invalid("the rack addendum must be a positive number of modules", rack.addendum);
         }
         if !(rack.dedendum.is_finite() && rack.dedendum >= rack.addendum) {
             return invalid(
@@ -147,8 +134,7 @@ impl ToothSystem {
     /// positive away from the centre) and tip shortening `tip_shortening` (k, in modules, zero
     /// for a full-height tooth).
     pub fn tip_diameter_mm(&self, teeth: u32, shift: f64, tip_shortening: f64) -> f64 {
-        self.pitch_diameter_mm(teeth)
-            + 2.0 * self.module_mm * (self.rack.addendum + shift - tip_shortening)
+        self.pitch_diameter_mm(teeth) + 2.0 * self.module_mm * (self.rack.addendum + shift - tip_shortening)
     }
 
     /// Root diameter `df = d − 2m(hf* − x)`, mm, for profile shift `shift` (x, in modules).
@@ -199,10 +185,7 @@ mod tests {
     fn default_rack_is_iso_53_type_a() {
         // ISO 53 type A basic rack (from memory): ha* 1.00, hf* 1.25, ρf* 0.38, c* 0.25.
         let rack = RackProfile::default();
-        assert_eq!(
-            (rack.addendum, rack.dedendum, rack.root_radius),
-            (1.0, 1.25, 0.38)
-        );
+        assert_eq!((rack.addendum, rack.dedendum, rack.root_radius), (1.0, 1.25, 0.38));
         assert!((rack.bottom_clearance() - 0.25).abs() < 1e-15);
     }
 
@@ -263,9 +246,7 @@ mod tests {
         // On the pitch circle α_y = α: s = m(π/2 + 2x·tan α).
         let s = system(2.5, 20.0);
         for &x in &[-0.3, 0.0, 0.5] {
-            let got = s
-                .tooth_thickness_mm(24, x, s.pitch_diameter_mm(24))
-                .unwrap();
+            let got = s.tooth_thickness_mm(24, x, s.pitch_diameter_mm(24)).unwrap();
             let want = 2.5 * (std::f64::consts::FRAC_PI_2 + 2.0 * x * 20f64.to_radians().tan());
             assert!((got - want).abs() < 1e-12, "x {x}: {got} vs {want}");
         }
@@ -292,37 +273,17 @@ mod tests {
     #[test]
     fn rejects_unusable_tooth_systems() {
         let rack = RackProfile::default();
-        for (m, a) in [
-            (0.0, 20.0),
-            (-1.0, 20.0),
-            (f64::NAN, 20.0),
-            (f64::INFINITY, 20.0),
-        ] {
-            assert!(matches!(
-                ToothSystem::new(m, a, rack),
-                Err(MeshDefect::InvalidInput { .. })
-            ));
+        for (m, a) in [(0.0, 20.0), (-1.0, 20.0), (f64::NAN, 20.0), (f64::INFINITY, 20.0)] {
+            assert!(matches!(ToothSystem::new(m, a, rack), Err(MeshDefect::InvalidInput { .. })));
         }
         for a in [0.0, 90.0, -5.0, f64::NAN] {
             assert!(ToothSystem::new(1.0, a, rack).is_err(), "{a}");
         }
         let bad = [
-            RackProfile {
-                addendum: 0.0,
-                ..rack
-            },
-            RackProfile {
-                dedendum: 0.9,
-                ..rack
-            },
-            RackProfile {
-                root_radius: -0.1,
-                ..rack
-            },
-            RackProfile {
-                dedendum: f64::INFINITY,
-                ..rack
-            },
+            RackProfile { addendum: 0.0, ..rack },
+            RackProfile { dedendum: 0.9, ..rack },
+            RackProfile { root_radius: -0.1, ..rack },
+            RackProfile { dedendum: f64::INFINITY, ..rack },
         ];
         for r in bad {
             assert!(ToothSystem::new(1.0, 20.0, r).is_err(), "{r:?}");

@@ -154,10 +154,7 @@ fn fixed(values: &[f64], decimals: usize) -> Vec<String> {
 }
 
 fn yes_no(flags: [bool; 2]) -> Vec<String> {
-    flags
-        .iter()
-        .map(|&f| if f { "yes" } else { "no" }.to_string())
-        .collect()
+    flags.iter().map(|&f| if f { "yes" } else { "no" }.to_string()).collect()
 }
 
 /// Write `report` as a table for people: what was asked, the two gears side by side, the pair,
@@ -166,11 +163,7 @@ pub fn write_table(report: &MeshReport, w: &mut dyn Write) -> io::Result<()> {
     let i = report.inputs;
     let g = report.geometry;
     let l = report.limits;
-    writeln!(
-        w,
-        "External spur mesh: a {}-tooth driver and a {}-tooth driven gear",
-        g.teeth[0], g.teeth[1]
-    )?;
+    writeln!(w, "External spur mesh: a {}-tooth driver and a {}-tooth driven gear", g.teeth[0], g.teeth[1])?;
     match i.diametral_pitch {
         Some(p) => writeln!(
             w,
@@ -200,10 +193,7 @@ pub fn write_table(report: &MeshReport, w: &mut dyn Write) -> io::Result<()> {
             fmt_num(shift[0]),
             fmt_num(shift[1])
         )?,
-        MountingInput::AtCentreDistance {
-            centre_distance_mm,
-            shift_sum_range,
-        } => writeln!(
+        MountingInput::AtCentreDistance { centre_distance_mm, shift_sum_range } => writeln!(
             w,
             "Cut by profile shift to mesh tight at {} mm{}, shift sum allowed {}",
             fmt_num(centre_distance_mm),
@@ -220,18 +210,11 @@ pub fn write_table(report: &MeshReport, w: &mut dyn Write) -> io::Result<()> {
         "Limits: contact ratio at least {}, tip at least {} modules thick, undercut {}",
         fmt_num(l.min_contact_ratio),
         fmt_num(l.min_tip_thickness_modules),
-        if l.allow_undercut {
-            "allowed"
-        } else {
-            "not allowed"
-        }
+        if l.allow_undercut { "allowed" } else { "not allowed" }
     )?;
     writeln!(w)?;
 
-    let mut rows = Rows {
-        w,
-        inch: i.diametral_pitch.is_some(),
-    };
+    let mut rows = Rows { w, inch: i.diametral_pitch.is_some() };
     rows.row("Gear", "", &["driver".to_string(), "driven".to_string()])?;
     rows.row("teeth", "", &g.teeth.map(|z| z.to_string()))?;
     rows.row("profile shift x", "modules", &fixed(&g.shift, 4))?;
@@ -244,30 +227,18 @@ pub fn write_table(report: &MeshReport, w: &mut dyn Write) -> io::Result<()> {
     rows.row("", "modules", &fixed(&g.tip_thickness_modules, 4))?;
     rows.row("x_min (undercut limit)", "modules", &fixed(&g.min_shift, 4))?;
     rows.row("undercut", "", &yes_no(g.undercut))?;
-    rows.row(
-        "tips dig into mate's flank",
-        "",
-        &yes_no(g.tip_interference),
-    )?;
+    rows.row("tips dig into mate's flank", "", &yes_no(g.tip_interference))?;
     rows.lengths("clearance under its tip", &g.bottom_clearance_mm)?;
     writeln!(rows.w)?;
 
     writeln!(rows.w, "Pair")?;
     rows.lengths("standard centre distance", &[g.standard_centre_distance_mm])?;
     rows.lengths("working centre distance", &[g.centre_distance_mm])?;
-    rows.row(
-        "working pressure angle",
-        "deg",
-        &fixed(&[g.working_pressure_angle_deg], 4),
-    )?;
+    rows.row("working pressure angle", "deg", &fixed(&[g.working_pressure_angle_deg], 4))?;
     rows.row("profile shift sum", "modules", &fixed(&[g.shift_sum()], 4))?;
     rows.row("tip shortening", "modules", &fixed(&[g.tip_shortening], 4))?;
     rows.lengths("backlash (nominal)", &[g.backlash_mm])?;
-    rows.row(
-        "transverse contact ratio",
-        "",
-        &fixed(&[g.contact_ratio], 4),
-    )?;
+    rows.row("transverse contact ratio", "", &fixed(&[g.contact_ratio], 4))?;
     let w = rows.w;
     writeln!(w)?;
 

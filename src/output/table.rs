@@ -14,12 +14,7 @@ pub fn write(report: &Report, w: &mut dyn Write) -> io::Result<()> {
     let t = &p.target;
     let exact = t.ratio.to_string();
     if exact == t.text {
-        writeln!(
-            w,
-            "Target ratio {}, tolerance {}",
-            t.text,
-            describe_tolerance(t.tolerance.to_f64())
-        )?;
+        writeln!(w, "Target ratio {}, tolerance {}", t.text, describe_tolerance(t.tolerance.to_f64()))?;
     } else {
         writeln!(
             w,
@@ -32,12 +27,7 @@ pub fn write(report: &Report, w: &mut dyn Write) -> io::Result<()> {
     }
     writeln!(w, "Gears: {}", p.pool.describe())?;
     let counts: Vec<String> = p.stage_counts().iter().map(|n| n.to_string()).collect();
-    writeln!(
-        w,
-        "Stages: {} ({} allowed stage pairings)",
-        counts.join(", "),
-        o.stage_options
-    )?;
+    writeln!(w, "Stages: {} ({} allowed stage pairings)", counts.join(", "), o.stage_options)?;
     writeln!(w)?;
     let keys: Vec<&str> = p
         .rank
@@ -47,11 +37,7 @@ pub fn write(report: &Report, w: &mut dyn Write) -> io::Result<()> {
             _ => k.name(),
         })
         .collect();
-    let status = if o.complete {
-        ""
-    } else {
-        "INCOMPLETE (interrupted): at least "
-    };
+    let status = if o.complete { "" } else { "INCOMPLETE (interrupted): at least " };
     if let Some(front) = o.pareto_size.filter(|_| o.count > 0) {
         writeln!(
             w,
@@ -67,20 +53,20 @@ pub fn write(report: &Report, w: &mut dyn Write) -> io::Result<()> {
         )?;
     } else {
         match o.count {
-        0 => writeln!(w, "{status}No train meets every constraint.")?,
-        1 => writeln!(w, "{status}1 train meets every constraint.")?,
-        n => writeln!(
-            w,
-            "{status}{} trains meet every constraint; {} by {}:",
-            group_thousands(n),
-            if o.trains.len() as u64 == n {
-                "all listed".to_string()
-            } else {
-                format!("the best {} listed", o.trains.len())
-            },
-            keys.join(", then ")
-        )?,
-    }
+            0 => writeln!(w, "{status}No train meets every constraint.")?,
+            1 => writeln!(w, "{status}1 train meets every constraint.")?,
+            n => writeln!(
+                w,
+                "{status}{} trains meet every constraint; {} by {}:",
+                group_thousands(n),
+                if o.trains.len() as u64 == n {
+                    "all listed".to_string()
+                } else {
+                    format!("the best {} listed", o.trains.len())
+                },
+                keys.join(", then ")
+            )?,
+        }
     }
     if let Some(s) = report.shard {
         writeln!(w, "(part {s} of a split search: combine the parts' JSON with gearsieve merge)")?;
@@ -102,14 +88,7 @@ pub fn write(report: &Report, w: &mut dyn Write) -> io::Result<()> {
                 ]
             })
             .collect();
-        let head = [
-            "#",
-            "ratio",
-            "error",
-            "output",
-            "teeth",
-            "stages: driver→driven (centre distance mm)",
-        ];
+        let head = ["#", "ratio", "error", "output", "teeth", "stages: driver→driven (centre distance mm)"];
         let mut width = head.map(|h| h.chars().count());
         for r in &rows {
             for (c, cell) in r.iter().enumerate() {
@@ -150,9 +129,10 @@ pub fn write(report: &Report, w: &mut dyn Write) -> io::Result<()> {
 /// `20→75 (47.5)  12→120 (66)`; module shown per stage when the train mixes modules; labels in
 /// brackets when the stock has them.
 fn stages_text(t: &Train) -> String {
-    let mixed = t.stages.windows(2).any(|w| {
-        w[0].module_mm != w[1].module_mm || w[0].pressure_angle_deg != w[1].pressure_angle_deg
-    });
+    let mixed = t
+        .stages
+        .windows(2)
+        .any(|w| w[0].module_mm != w[1].module_mm || w[0].pressure_angle_deg != w[1].pressure_angle_deg);
     t.stages
         .iter()
         .map(|s| {
@@ -163,11 +143,7 @@ fn stages_text(t: &Train) -> String {
                     format!("[{}]", l.join("/"))
                 }
             };
-            let module = if mixed {
-                format!("m{} ", fmt_num(s.module_mm))
-            } else {
-                String::new()
-            };
+            let module = if mixed { format!("m{} ", fmt_num(s.module_mm)) } else { String::new() };
             format!(
                 "{module}{}{}→{}{} ({})",
                 s.driver.teeth,
