@@ -158,3 +158,22 @@ fn a_search_that_would_run_for_hours_needs_long() {
     assert!(r.stderr.contains("--long") && r.stderr.contains("hours"), "{}", r.stderr);
     assert!(r.stdout.is_empty());
 }
+
+#[test]
+fn a_closed_pipe_ends_quietly() {
+    use std::io::{BufRead, BufReader};
+    let mut child = Command::new(env!("CARGO_BIN_EXE_gearsieve"))
+        .args(["search", "--ratio", "37.5", "--tol", "1%", "--teeth", "12..150", "--stages", "3"])
+        .args(["--limit", "0", "--format", "csv", "--quiet"])
+        .stdout(Stdio::piped())
+        .stderr(Stdio::piped())
+        .spawn()
+        .unwrap();
+    let mut first = String::new();
+    BufReader::new(child.stdout.take().unwrap()).read_line(&mut first).unwrap();
+    assert!(first.starts_with("rank,ratio"));
+    // The reader is dropped here: the pipe is closed while millions of rows are still to come.
+    let out = child.wait_with_output().unwrap();
+    assert_eq!(out.status.code(), Some(0));
+    assert!(out.stderr.is_empty(), "{}", String::from_utf8_lossy(&out.stderr));
+}

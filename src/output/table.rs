@@ -126,7 +126,8 @@ pub fn write(report: &Report, w: &mut dyn Write) -> io::Result<()> {
     Ok(())
 }
 
-/// `20→75 (47.5)  12→120 (66)`; module shown per stage when the train mixes modules; labels in
+/// `20→75 (47.5)  12→120 (66)`: the centre distance is the working one when the mesh was worked
+/// out, else the standard one; module shown per stage when the train mixes modules; labels in
 /// brackets when the stock has them.
 fn stages_text(t: &Train) -> String {
     let mixed = t
@@ -150,7 +151,7 @@ fn stages_text(t: &Train) -> String {
                 label(&s.driver.labels),
                 s.driven.teeth,
                 label(&s.driven.labels),
-                fmt_num(s.centre_distance_mm())
+                fmt_num(s.mesh.map_or_else(|| s.centre_distance_mm(), |m| m.centre_distance_mm))
             )
         })
         .collect::<Vec<_>>()

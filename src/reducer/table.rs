@@ -14,13 +14,18 @@ use crate::pool::fmt_num;
 /// Write a reducer search as a table.
 pub fn write(p: &ReducerPlan, w: &mut dyn Write) -> io::Result<()> {
     let s = &p.spec;
-    writeln!(
-        w,
-        "Reducer: i = {} ({}), tolerance {}",
-        s.ratio_text,
-        s.ratio,
-        describe_tolerance(s.tolerance.to_f64())
-    )?;
+    let exact = s.ratio.to_string();
+    if exact == s.ratio_text {
+        writeln!(w, "Reducer: i = {}, tolerance {}", s.ratio_text, describe_tolerance(s.tolerance.to_f64()))?;
+    } else {
+        writeln!(
+            w,
+            "Reducer: i = {} (= {} exactly), tolerance {}",
+            s.ratio_text,
+            exact,
+            describe_tolerance(s.tolerance.to_f64())
+        )?;
+    }
     let modules: Vec<String> = s.modules.iter().map(|m| fmt_num(*m)).collect();
     writeln!(
         w,
