@@ -233,4 +233,20 @@ mod tests {
         let tiny = RelError::of(u64::MAX, u64::MAX - 1, t);
         assert!(tiny.is_exact());
     }
+
+    #[test]
+    fn the_largest_allowed_trains_fit() {
+        // Six stages of at most 1000 teeth: products up to 10^18, below u64::MAX (1.8·10^19).
+        let p = 1000u64.pow(6);
+        let q = 999u64.pow(6);
+        let target = Ratio::new(u64::MAX as u128, 3).unwrap();
+        let e = RelError::of(p, q, target);
+        assert!(e.to_f64() < 0.0 && !e.within(Ratio::new(999_999, 1_000_000).unwrap()));
+        let near = RelError::of(p, q, Ratio::new(p as u128, q as u128).unwrap());
+        assert!(near.is_exact());
+        // A tolerance with a 20-digit denominator and a 19-digit target still compares exactly.
+        let tol = Ratio::new(1, 10u128.pow(19)).unwrap();
+        assert!(near.within(tol));
+        assert!(!RelError::of(p + 1, q, Ratio::new(p as u128, q as u128).unwrap()).within(tol));
+    }
 }
