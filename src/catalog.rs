@@ -18,6 +18,7 @@
 use std::path::Path;
 
 use crate::error::{Error, Result};
+use crate::geometry::MM_PER_INCH;
 use crate::pool::{check_module, check_pressure_angle, StockGear, MAX_TEETH, MIN_TEETH};
 
 /// Defaults for cells a catalogue leaves empty.
@@ -120,7 +121,7 @@ pub fn parse(bytes: &[u8], path: &Path, defaults: CatalogueDefaults) -> Result<V
         };
         let module_mm = match (module, dp) {
             (Some(m), Some(p)) => {
-                let from_dp = 25.4 / p;
+                let from_dp = MM_PER_INCH / p;
                 if (m - from_dp).abs() > 1e-6 * m {
                     return Err(field_err(
                         "diametral_pitch",
@@ -130,7 +131,7 @@ pub fn parse(bytes: &[u8], path: &Path, defaults: CatalogueDefaults) -> Result<V
                 m
             }
             (Some(m), None) => m,
-            (None, Some(p)) => 25.4 / p,
+            (None, Some(p)) => MM_PER_INCH / p,
             (None, None) => defaults.module_mm.ok_or_else(|| {
                 field_err(
                     "module",

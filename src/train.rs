@@ -68,6 +68,19 @@ pub struct Stage {
 }
 
 impl Stage {
+    /// A stage of unlabelled gears, given in metric terms, with no worked-out mesh.
+    pub fn plain(driver_teeth: u32, driven_teeth: u32, module_mm: f64, pressure_angle_deg: f64) -> Stage {
+        let g = |teeth| Gear { teeth, labels: Vec::new() };
+        Stage {
+            driver: g(driver_teeth),
+            driven: g(driven_teeth),
+            module_mm,
+            pressure_angle_deg,
+            diametral_pitch: None,
+            mesh: None,
+        }
+    }
+
     /// Standard centre distance `a = m·(z1 + z2)/2`, mm.
     pub fn centre_distance_mm(&self) -> f64 {
         standard_centre_distance_mm(self.module_mm, self.driver.teeth, self.driven.teeth)
@@ -136,15 +149,7 @@ mod tests {
     use super::*;
 
     fn stage(a: u32, b: u32) -> Stage {
-        let g = |t| Gear { teeth: t, labels: vec![] };
-        Stage {
-            driver: g(a),
-            driven: g(b),
-            module_mm: 1.5,
-            pressure_angle_deg: 20.0,
-            diametral_pitch: None,
-            mesh: None,
-        }
+        Stage::plain(a, b, 1.5, 20.0)
     }
 
     #[test]

@@ -18,8 +18,8 @@ use gearsieve::target::{parse_ratio, parse_tolerance};
 use gearsieve::{Error, RunOptions};
 
 use super::progress::Bar;
-use super::search::{load_stock, FormatArg, PrintArgs};
-use super::{EXIT_INTERRUPTED, EXIT_NOTHING_FOUND, EXIT_OK};
+use super::search::{load_stock, PrintArgs};
+use super::{conclude, render_as as render, Ending};
 
 /// Clock trains: the going train, the motion work, astronomical trains.
 #[derive(Args, Debug)]
@@ -254,36 +254,16 @@ impl TryFrom<&AstroArgs> for AstroSpec {
     }
 }
 
-/// The rendered bytes for the chosen format.
-fn render(
-    format: FormatArg,
-    table: impl FnOnce(&mut Vec<u8>) -> std::io::Result<()>,
-    csv: impl FnOnce(&mut Vec<u8>) -> std::io::Result<()>,
-    json: impl FnOnce(&mut Vec<u8>) -> std::io::Result<()>,
-) -> anyhow::Result<Vec<u8>> {
-    let mut buf = Vec::new();
-    match format {
-        FormatArg::Table => table(&mut buf)?,
-        FormatArg::Csv => csv(&mut buf)?,
-        FormatArg::Json => json(&mut buf)?,
-    }
-    Ok(buf)
-}
-
 /// Write the output, then choose the exit status.
 fn finish(print: &PrintArgs, buf: &[u8], count: u64, complete: bool, hint: &str) -> anyhow::Result<i32> {
-    if !super::output::emit(print.output.as_deref(), buf)? {
-        return Ok(EXIT_OK);
-    }
-    if !complete {
-        eprintln!("gearsieve: interrupted; the trains above are the best found so far");
-        return Ok(EXIT_INTERRUPTED);
-    }
-    if count == 0 {
-        eprintln!("gearsieve: no train meets every constraint. {hint}");
-        return Ok(EXIT_NOTHING_FOUND);
-    }
-    Ok(EXIT_OK)
+    let nothing = format!("no train meets every constraint. {hint}");
+    let ending = Ending {
+        complete,
+        found: count > 0,
+        interrupted: "the trains above are the best found so far",
+        nothing: &nothing,
+    };
+    conclude(print.output.as_deref(), buf, ending)
 }
 
 /// Run `gearsieve clock`.

@@ -14,8 +14,8 @@ use gearsieve::thread::exact::Exact;
 use gearsieve::{Error, RunOptions};
 
 use super::progress::Bar;
-use super::search::{load_stock, FormatArg, PrintArgs};
-use super::{EXIT_INTERRUPTED, EXIT_NOTHING_FOUND, EXIT_OK};
+use super::search::{load_stock, PrintArgs};
+use super::{conclude, render_as, Ending};
 
 /// The hunting-tooth flag.
 #[derive(Clone, Copy, Debug, ValueEnum)]
@@ -171,25 +171,18 @@ pub fn run(args: ReducerArgs) -> anyhow::Result<i32> {
         RunOptions { progress: Some(&progress), cancel: Some(&super::CANCEL), ..RunOptions::default() };
     let plan = super::with_threads(print.threads.map(usize::from), || spec.plan(&options))??;
     bar.finish();
-    let mut buf = Vec::new();
-    match print.format {
-        FormatArg::Table => reducer::table::write(&plan, &mut buf)?,
-        FormatArg::Csv => reducer::csv::write(&plan, &mut buf)?,
-        FormatArg::Json => reducer::json::write(&plan, &mut buf)?,
-    }
-    if !super::output::emit(print.output.as_deref(), &buf)? {
-        return Ok(EXIT_OK);
-    }
-    if !plan.complete {
-        eprintln!("gearsieve: interrupted; the trains above are the best found so far");
-        return Ok(EXIT_INTERRUPTED);
-    }
-    if plan.count == 0 {
-        eprintln!(
-            "gearsieve: no train meets every constraint. Try a looser --tol, a higher --max-stage-ratio, \
-             more teeth, --hunting prefer, or a wider --shift-sum for the housing."
-        );
-        return Ok(EXIT_NOTHING_FOUND);
-    }
-    Ok(EXIT_OK)
+    let buf = render_as(
+        print.format,
+        |w| reducer::table::write(&plan, w),
+        |w| reducer::csv::write(&plan, w),
+        |w| reducer::json::write(&plan, w),
+    )?;
+    let ending = Ending {
+        complete: plan.complete,
+        found: plan.count > 0,
+        interrupted: "the trains above are the best found so far",
+        nothing: "no train meets every constraint. Try a looser --tol, a higher --max-stage-ratio, more \
+                  teeth, --hunting prefer, or a wider --shift-sum for the housing.",
+    };
+    conclude(print.output.as_deref(), &buf, ending)
 }

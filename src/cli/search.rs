@@ -6,7 +6,7 @@ use std::path::PathBuf;
 use clap::{Args, ValueEnum};
 use gearsieve::catalog::{self, CatalogueDefaults};
 use gearsieve::engine::Shard;
-use gearsieve::geometry::MeshLimits;
+use gearsieve::geometry::{module_from_diametral_pitch, MeshLimits};
 use gearsieve::output::{csv as csv_out, json as json_out};
 use gearsieve::output::{render, Format, Report};
 use gearsieve::pool::{Pool, MAX_STAGES, MAX_TEETH, MIN_TEETH};
@@ -18,7 +18,7 @@ use gearsieve::train::Direction;
 use gearsieve::{EngineKind, Error, Problem, RunOptions, StageLimits};
 
 use super::progress::Bar;
-use super::{EXIT_INTERRUPTED, EXIT_NOTHING_FOUND, EXIT_OK};
+use super::{Ending, EXIT_OK};
 
 /// Tooth range used when neither `--teeth` nor `--stock` is given.
 pub const DEFAULT_TEETH: &str = "12..120";
@@ -203,11 +203,13 @@ pub fn load_stock(files: &[PathBuf], defaults: CatalogueDefaults) -> Result<Pool
 fn module_from_flags(module: Option<f64>, dp: Option<f64>) -> Result<Option<(f64, Option<f64>)>, Error> {
     match (module, dp) {
         (Some(m), _) => Ok(Some((m, None))),
-        (None, Some(p)) if p.is_finite() && p > 0.0 => Ok(Some((25.4 / p, Some(p)))),
-        (None, Some(p)) => Err(Error::flag(
-            "--diametral-pitch",
-            format!("wanted a positive number of teeth per inch, found {p}"),
-        )),
+        (None, Some(p)) => match module_from_diametral_pitch(p) {
+            Some(m) => Ok(Some((m, Some(p)))),
+            None => Err(Error::flag(
+                "--diametral-pitch",
+                format!("wanted a positive number of teeth per inch, found {p}"),
+            )),
+        },
         (None, None) => Ok(None),
     }
 }
@@ -423,7 +425,7 @@ fn stream(job: &SearchJob, options: &RunOptions) -> anyhow::Result<i32> {
     if !super::output::quiet_broken_pipe(sink.commit(), path)? {
         return Ok(EXIT_OK);
     }
-    Ok(exit_status(&outcome))
+    Ok(ending(&outcome).status())
 }
 
 /// A CSV writer's error as the I/O error underneath, so a closed pipe is still seen as one.
@@ -434,28 +436,20 @@ fn csv_io(e: ::csv::Error) -> std::io::Error {
     }
 }
 
-/// The exit status for a finished search, with its message on stderr.
-fn exit_status(o: &gearsieve::Outcome) -> i32 {
-    if !o.complete {
-        eprintln!("gearsieve: interrupted; the trains above are the best found so far and the count is a lower bound");
-        return EXIT_INTERRUPTED;
+/// How a finished search ended, and the stderr messages for it.
+fn ending(o: &gearsieve::Outcome) -> Ending<'static> {
+    Ending {
+        complete: o.complete,
+        found: o.count > 0,
+        interrupted: "the trains above are the best found so far and the count is a lower bound",
+        nothing: "no train meets every constraint. Try a looser --tol, more --stages, a wider --teeth \
+                  range or more stock, or fewer per-stage limits.",
     }
-    if o.count == 0 {
-        eprintln!(
-            "gearsieve: no train meets every constraint. Try a looser --tol, more --stages, a wider \
-             --teeth range or more stock, or fewer per-stage limits."
-        );
-        return EXIT_NOTHING_FOUND;
-    }
-    EXIT_OK
 }
 
 /// Render, write, and choose the exit status; shared by the commands that print a search.
 pub fn finish(report: &Report, print: &PrintArgs) -> anyhow::Result<i32> {
     let mut buf = Vec::new();
     render(print.format.into(), report, &mut buf)?;
-    if !super::output::emit(print.output.as_deref(), &buf)? {
-        return Ok(EXIT_OK);
-    }
-    Ok(exit_status(report.outcome))
+    super::conclude(print.output.as_deref(), &buf, ending(report.outcome))
 }

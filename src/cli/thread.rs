@@ -19,8 +19,8 @@ use gearsieve::thread::{self, Lathe, ThreadSpec};
 use gearsieve::{Error, RunOptions};
 
 use super::progress::Bar;
-use super::search::{load_stock, FormatArg, PrintArgs};
-use super::{EXIT_INTERRUPTED, EXIT_NOTHING_FOUND, EXIT_OK};
+use super::search::{load_stock, PrintArgs};
+use super::{conclude, render_as as render, Ending};
 
 /// The lathe and its change gears, shared by `thread` and `chart`.
 #[derive(Args, Debug)]
@@ -161,21 +161,6 @@ impl TryFrom<&LatheArgs> for Lathe {
     }
 }
 
-fn render(
-    format: FormatArg,
-    table: impl FnOnce(&mut Vec<u8>) -> std::io::Result<()>,
-    csv: impl FnOnce(&mut Vec<u8>) -> std::io::Result<()>,
-    json: impl FnOnce(&mut Vec<u8>) -> std::io::Result<()>,
-) -> anyhow::Result<Vec<u8>> {
-    let mut buf = Vec::new();
-    match format {
-        FormatArg::Table => table(&mut buf)?,
-        FormatArg::Csv => csv(&mut buf)?,
-        FormatArg::Json => json(&mut buf)?,
-    }
-    Ok(buf)
-}
-
 /// Run `gearsieve thread`.
 pub fn run_thread(args: ThreadArgs) -> anyhow::Result<i32> {
     let lathe = Lathe::try_from(&args.lathe)?;
@@ -201,23 +186,19 @@ pub fn run_thread(args: ThreadArgs) -> anyhow::Result<i32> {
         |w| thread::csv::write_thread(&report, w),
         |w| thread::json::write_thread(&report, w),
     )?;
-    if !super::output::emit(print.output.as_deref(), &buf)? {
-        return Ok(EXIT_OK);
-    }
-    if !plan.complete {
-        eprintln!("gearsieve: interrupted; the setups above are the best found so far");
-        return Ok(EXIT_INTERRUPTED);
-    }
-    if plan.count == 0 {
-        eprintln!(
-            "gearsieve: no setup cuts {} within the tolerance from these gears. Try a looser --tol, \
-             more --stages or more stock{}.",
-            spec.pitch,
-            if lathe.banjo.is_some() { "; --explain shows what the banjo refused" } else { "" }
-        );
-        return Ok(EXIT_NOTHING_FOUND);
-    }
-    Ok(EXIT_OK)
+    let nothing = format!(
+        "no setup cuts {} within the tolerance from these gears. Try a looser --tol, more --stages or \
+         more stock{}.",
+        spec.pitch,
+        if lathe.banjo.is_some() { "; --explain shows what the banjo refused" } else { "" }
+    );
+    let ending = Ending {
+        complete: plan.complete,
+        found: plan.count > 0,
+        interrupted: "the setups above are the best found so far",
+        nothing: &nothing,
+    };
+    conclude(print.output.as_deref(), &buf, ending)
 }
 
 /// Run `gearsieve chart`.
@@ -238,19 +219,15 @@ pub fn run_chart(args: ChartArgs) -> anyhow::Result<i32> {
         |w| thread::csv::write_chart(&report, w),
         |w| thread::json::write_chart(&report, w),
     )?;
-    if !super::output::emit(print.output.as_deref(), &buf)? {
-        return Ok(EXIT_OK);
-    }
-    if !result.complete {
-        eprintln!("gearsieve: interrupted; the chart above stops early");
-        return Ok(EXIT_INTERRUPTED);
-    }
-    if result.reachable() == 0 {
-        eprintln!(
-            "gearsieve: no thread of {name} can be cut within the tolerance from these gears. Try a \
-             looser --tol, more --stages or more stock."
-        );
-        return Ok(EXIT_NOTHING_FOUND);
-    }
-    Ok(EXIT_OK)
+    let nothing = format!(
+        "no thread of {name} can be cut within the tolerance from these gears. Try a looser --tol, \
+         more --stages or more stock."
+    );
+    let ending = Ending {
+        complete: result.complete,
+        found: result.reachable() > 0,
+        interrupted: "the chart above stops early",
+        nothing: &nothing,
+    };
+    conclude(print.output.as_deref(), &buf, ending)
 }

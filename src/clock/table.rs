@@ -8,42 +8,10 @@ use super::astro::AstroPlan;
 use super::beat::{BeatSource, STANDARD_GRAVITY};
 use super::going::GoingPlan;
 use super::motion::{stage_names, MotionPlan};
+use crate::output::columns::columns;
 use crate::output::{describe_error, describe_tolerance, CONVENTION};
 use crate::pool::fmt_num;
 use crate::train::Train;
-
-/// Print rows in aligned columns; columns listed in `right` are right-aligned. Shared by the
-/// trade tables.
-pub fn columns(w: &mut dyn Write, head: &[&str], rows: &[Vec<String>], right: &[usize]) -> io::Result<()> {
-    let mut width: Vec<usize> = head.iter().map(|h| h.chars().count()).collect();
-    for r in rows {
-        for (c, cell) in r.iter().enumerate() {
-            width[c] = width[c].max(cell.chars().count());
-        }
-    }
-    let line = |cells: &mut dyn Iterator<Item = &str>| {
-        let mut s = String::new();
-        for (c, cell) in cells.enumerate() {
-            let pad = width[c] - cell.chars().count();
-            if c > 0 {
-                s.push_str("  ");
-            }
-            if right.contains(&c) {
-                s.push_str(&" ".repeat(pad));
-                s.push_str(cell);
-            } else {
-                s.push_str(cell);
-                s.push_str(&" ".repeat(pad));
-            }
-        }
-        s.trim_end().to_string()
-    };
-    writeln!(w, "{}", line(&mut head.iter().copied()))?;
-    for r in rows {
-        writeln!(w, "{}", line(&mut r.iter().map(String::as_str)))?;
-    }
-    Ok(())
-}
 
 /// `3 trains; all listed` / `120 trains; the best 10 listed`, with the interrupted mark.
 pub fn count_line(count: u64, listed: usize, complete: bool, what: &str, order: &str) -> String {

@@ -450,14 +450,9 @@ pub struct Outcome {
 
 /// The units of work of a search, in their deterministic order, after sharding.
 fn units(problem: &Problem, space: &SearchSpace, shard: Option<Shard>) -> Vec<(usize, usize)> {
-    problem
-        .stage_counts()
-        .into_iter()
-        .flat_map(|n| (0..space.stages.len()).map(move |f| (n, f)))
-        .enumerate()
-        .filter(|(k, _)| in_shard(*k, shard))
-        .map(|(_, u)| u)
-        .collect()
+    // The unit-by-unit plan: with the sieve every stage count is cut into (n, first) units.
+    let (units, _) = plan(problem, space, EngineKind::Sieve, shard);
+    units.into_iter().filter_map(|u| if let Unit::Visit(n, f) = u { Some((n, f)) } else { None }).collect()
 }
 
 fn in_shard(k: usize, shard: Option<Shard>) -> bool {

@@ -2,6 +2,7 @@
 //! writer and prints; none of them computes anything about gears. Shared wording (how an error
 //! or a number is written) lives here so the formats agree.
 
+pub mod columns;
 pub mod csv;
 pub mod json;
 pub mod mesh;

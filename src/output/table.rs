@@ -3,6 +3,7 @@
 
 use std::io::{self, Write};
 
+use super::columns::columns;
 use super::{describe_error, describe_tolerance, Report, CAUTION, CONVENTION};
 use crate::pool::fmt_num;
 use crate::train::Train;
@@ -89,32 +90,8 @@ pub fn write(report: &Report, w: &mut dyn Write) -> io::Result<()> {
             })
             .collect();
         let head = ["#", "ratio", "error", "output", "teeth", "stages: driver→driven (centre distance mm)"];
-        let mut width = head.map(|h| h.chars().count());
-        for r in &rows {
-            for (c, cell) in r.iter().enumerate() {
-                width[c] = width[c].max(cell.chars().count());
-            }
-        }
-        let line = |cells: &[String; 6]| {
-            format!(
-                "{:>w0$}  {:<w1$}  {:>w2$}  {:<w3$}  {:>w4$}  {}",
-                cells[0],
-                cells[1],
-                cells[2],
-                cells[3],
-                cells[4],
-                cells[5],
-                w0 = width[0],
-                w1 = width[1],
-                w2 = width[2],
-                w3 = width[3],
-                w4 = width[4]
-            )
-        };
-        writeln!(w, "{}", line(&head.map(String::from)).trim_end())?;
-        for r in &rows {
-            writeln!(w, "{}", line(r).trim_end())?;
-        }
+        let rows: Vec<Vec<String>> = rows.into_iter().map(Vec::from).collect();
+        columns(w, &head, &rows, &[0, 2, 4])?;
     }
     write_meshes(report, w)?;
     if report.explain {

@@ -7,7 +7,8 @@ use std::io::{self, Write};
 
 use super::hunting::{is_hunting, non_hunting, spread};
 use super::{centre_distance_sum_mm, largest_tip_mm, Hunting, Priority, ReducerPlan, CAUTION};
-use crate::clock::table::{columns, count_line};
+use crate::clock::table::count_line;
+use crate::output::columns::columns;
 use crate::output::{describe_error, describe_tolerance, CONVENTION};
 use crate::pool::fmt_num;
 

@@ -377,18 +377,10 @@ mod tests {
     use super::*;
     use crate::pool::StockGear;
     use crate::rational::{Ratio, RelError};
-    use crate::train::{Gear, Stage};
+    use crate::train::Stage;
 
     fn stage(a: u32, b: u32) -> Stage {
-        let g = |t| Gear { teeth: t, labels: vec![] };
-        Stage {
-            driver: g(a),
-            driven: g(b),
-            module_mm: 1.5,
-            pressure_angle_deg: 20.0,
-            diametral_pitch: None,
-            mesh: None,
-        }
+        Stage::plain(a, b, 1.5, 20.0)
     }
 
     fn train(stages: Vec<Stage>) -> Train {

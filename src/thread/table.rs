@@ -6,6 +6,7 @@ use std::io::{self, Write};
 
 use super::chart::Chart;
 use super::{Lathe, Rejected, Setup, ThreadPlan, CAUTION};
+use crate::output::columns::columns;
 use crate::output::describe_tolerance;
 use crate::pool::fmt_num;
 
@@ -119,38 +120,6 @@ const SETUP_HEAD: [&str; 9] = [
     "lead error",
     "on the banjo",
 ];
-
-/// Print rows in aligned columns; columns listed in `right` are right-aligned.
-fn columns(w: &mut dyn Write, head: &[String], rows: &[Vec<String>], right: &[usize]) -> io::Result<()> {
-    let mut width: Vec<usize> = head.iter().map(|h| h.chars().count()).collect();
-    for r in rows {
-        for (c, cell) in r.iter().enumerate() {
-            width[c] = width[c].max(cell.chars().count());
-        }
-    }
-    let line = |cells: &[String]| {
-        let mut s = String::new();
-        for (c, cell) in cells.iter().enumerate() {
-            let pad = width[c] - cell.chars().count();
-            if c > 0 {
-                s.push_str("  ");
-            }
-            if right.contains(&c) {
-                s.push_str(&" ".repeat(pad));
-                s.push_str(cell);
-            } else {
-                s.push_str(cell);
-                s.push_str(&" ".repeat(pad));
-            }
-        }
-        s.trim_end().to_string()
-    };
-    writeln!(w, "{}", line(head))?;
-    for r in rows {
-        writeln!(w, "{}", line(r))?;
-    }
-    Ok(())
-}
 
 /// Write a thread search as a table.
 pub fn write_thread(r: &ThreadReport, w: &mut dyn Write) -> io::Result<()> {
