@@ -32,6 +32,7 @@ pub mod catalog;
 pub mod clock;
 pub mod engine;
 pub mod error;
+pub mod factors;
 pub mod geometry;
 pub mod merge;
 pub mod output;

@@ -129,18 +129,21 @@ impl Ranked for Candidate {
     }
 }
 
-/// Order two trains by `keys`, then fewer meshes, smaller |error|, negative error before
-/// positive, and finally the stage sequence: a total order.
-pub fn compare<T: Ranked>(keys: &[RankKey], a: &T, b: &T) -> Ordering {
-    let o = compare_keys(keys, a, b);
-    if o != Ordering::Equal {
-        return o;
-    }
-    a.meshes()
-        .cmp(&b.meshes())
+/// Order two trains by `keys`, then by the tie-breaks that are properties of the train: fewer
+/// meshes, smaller |error|, negative error before positive, smaller size. Everything
+/// [`compare`] looks at but the stage sequence, so a bound on these can be tested before the
+/// stages are known.
+pub fn compare_ranked<T: Ranked>(keys: &[RankKey], a: &T, b: &T) -> Ordering {
+    compare_keys(keys, a, b)
+        .then_with(|| a.meshes().cmp(&b.meshes()))
         .then_with(|| a.rel_error().cmp_abs(b.rel_error()))
         .then_with(|| a.rel_error().sign.cmp(&b.rel_error().sign))
-        .then_with(|| a.cmp_stages(b))
+        .then_with(|| a.size().cmp(&b.size()))
+}
+
+/// Order two trains by [`compare_ranked`], and finally by the stage sequence: a total order.
+pub fn compare<T: Ranked>(keys: &[RankKey], a: &T, b: &T) -> Ordering {
+    compare_ranked(keys, a, b).then_with(|| a.cmp_stages(b))
 }
 
 /// The best `k` candidates seen, in a bounded buffer (at most `2k` held), plus a count of all.
@@ -210,10 +213,11 @@ impl TopK {
         self.count += n;
     }
 
-    /// Could a candidate no better than `best` on every key enter the best `k`? False only
-    /// when `best` ranks after the kept worst on the keys alone.
+    /// Could a candidate no better than `best` on every key and tie-break (its stages aside)
+    /// enter the best `k`? False only when `best` ranks after the kept worst before the stages
+    /// are compared.
     pub fn could_accept(&self, best: &Candidate) -> bool {
-        self.k > 0 && self.worst.is_none_or(|w| compare_keys(&self.keys, best, &w) != Ordering::Greater)
+        self.k > 0 && self.worst.is_none_or(|w| compare_ranked(&self.keys, best, &w) != Ordering::Greater)
     }
 
     /// Combine with another store of the same `k` and keys.

@@ -155,7 +155,7 @@ pub struct SearchArgs {
     #[arg(long, value_enum)]
     pub direction: Option<DirectionArg>,
     /// Ranking keys, most important first: error, meshes, size (sum of teeth), span (largest
-    /// pitch diameter).
+    /// pitch diameter). Ties go to fewer meshes, smaller error, smaller size, then the stages.
     #[arg(long, value_name = "KEYS", default_value = "error,meshes,size")]
     pub rank: String,
     /// Trains to list; all are counted. 0 streams every train as it is found (CSV rows or JSON

@@ -8,6 +8,7 @@
 //! pruning can make it faster but never make it wrong.
 
 pub mod exhaustive;
+pub mod factor;
 pub mod meet;
 pub mod sieve;
 
@@ -466,12 +467,35 @@ enum Unit {
     Visit(usize, usize),
     /// A run of the meet engine.
     Meet(meet::MeetUnit),
+    /// All trains of `n` stages, counted and listed by the factor engine.
+    Factor(usize),
 }
 
 /// The distinct ratios and pair table, when the meet engine takes part.
 struct MeetData {
     values: meet::Values,
     pairs: Option<meet::PairTable>,
+}
+
+/// What the bulk engines prepared for a search.
+#[derive(Default)]
+struct EngineData {
+    meet: Option<MeetData>,
+    factor: Option<factor::Factor>,
+}
+
+/// The stage counts the factor engine takes, and its tables (exact targets only).
+fn factor_plan(
+    problem: &Problem,
+    space: &SearchSpace,
+    engine: EngineKind,
+) -> (Vec<usize>, Option<factor::Factor>) {
+    let factor = (engine == EngineKind::Fast).then(|| factor::Factor::new(space)).flatten();
+    let counts = match &factor {
+        Some(f) => problem.stage_counts().into_iter().filter(|&n| f.applies(n)).collect(),
+        None => Vec::new(),
+    };
+    (counts, factor)
 }
 
 /// Decide which engine takes which stage count and list the units, in a deterministic order,
@@ -481,10 +505,11 @@ fn plan(
     space: &SearchSpace,
     engine: EngineKind,
     shard: Option<Shard>,
-) -> (Vec<Unit>, Option<MeetData>) {
+) -> (Vec<Unit>, EngineData) {
     let counts = problem.stage_counts();
-    let meet_counts = meet_counts(problem, space, engine);
-    let data = (!meet_counts.is_empty()).then(|| {
+    let (factor_counts, factor) = factor_plan(problem, space, engine);
+    let meet_counts = meet_counts(problem, space, engine, &factor_counts);
+    let meet = (!meet_counts.is_empty()).then(|| {
         let values = meet::Values::new(space);
         let pairs = meet_counts.contains(&4).then(|| meet::PairTable::new(&values)).flatten();
         MeetData { values, pairs }
@@ -492,8 +517,9 @@ fn plan(
     let mut all = Vec::new();
     for n in counts {
         let by_meet =
-            data.as_ref().is_some_and(|d| meet_counts.contains(&n) && (n <= 3 || d.pairs.is_some()));
-        match (&data, by_meet) {
+            meet.as_ref().is_some_and(|d| meet_counts.contains(&n) && (n <= 3 || d.pairs.is_some()));
+        match (&meet, by_meet) {
+            _ if factor_counts.contains(&n) => all.push(Unit::Factor(n)),
             (Some(d), true) => {
                 all.extend(meet::units(n, &d.values, d.pairs.as_ref()).into_iter().map(Unit::Meet))
             }
@@ -501,15 +527,25 @@ fn plan(
         }
     }
     let units = all.into_iter().enumerate().filter(|(k, _)| in_shard(*k, shard)).map(|(_, u)| u).collect();
-    (units, data)
+    (units, EngineData { meet, factor })
 }
 
-/// The stage counts the meet engine may take (four only if its pair table could be built).
-fn meet_counts(problem: &Problem, space: &SearchSpace, engine: EngineKind) -> Vec<usize> {
+/// The stage counts the meet engine may take (four only if its pair table could be built),
+/// leaving out those the factor engine takes.
+fn meet_counts(
+    problem: &Problem,
+    space: &SearchSpace,
+    engine: EngineKind,
+    by_factor: &[usize],
+) -> Vec<usize> {
     if engine != EngineKind::Fast {
         return Vec::new();
     }
-    problem.stage_counts().into_iter().filter(|&n| meet::applies(space, n)).collect()
+    problem
+        .stage_counts()
+        .into_iter()
+        .filter(|&n| !by_factor.contains(&n) && meet::applies(space, n))
+        .collect()
 }
 
 /// What a search keeps while it runs.
@@ -571,7 +607,7 @@ pub fn search(problem: &Problem, engine: EngineKind, options: &RunOptions) -> Ou
     let (units, data) = plan(problem, &space, engine, options.shard);
     let engine = engine.engine();
     let judged = AtomicU64::new(0);
-    let meet = data.as_ref().map(|d| meet::Meet {
+    let meet = data.meet.as_ref().map(|d| meet::Meet {
         space: &space,
         values: &d.values,
         pairs: d.pairs.as_ref(),
@@ -594,6 +630,10 @@ pub fn search(problem: &Problem, engine: EngineKind, options: &RunOptions) -> Ou
                         }),
                         (Unit::Meet(u), Some(m)) => m.run(u, &mut keep),
                         (Unit::Meet(_), None) => unreachable!("meet units come with their data"),
+                        (Unit::Factor(n), _) => match &data.factor {
+                            Some(f) => f.run(&space, n, &mut keep),
+                            None => unreachable!("factor units come with their data"),
+                        },
                     }
                 }
                 let d = done.fetch_add(1, AtomicOrdering::Relaxed) + 1;
@@ -655,11 +695,12 @@ pub fn estimate(problem: &Problem, engine: EngineKind, budget: std::time::Durati
     let space = SearchSpace::new(problem, None);
     let counts = problem.stage_counts();
     let combinations = counts.iter().map(|&n| multisets(space.stages.len(), n)).sum();
-    let by_meet = meet_counts(problem, &space, engine);
+    let (by_factor, _) = factor_plan(problem, &space, engine);
+    let by_meet = meet_counts(problem, &space, engine, &by_factor);
     let table_fits = meet::PairTable::fits(meet::Values::new(&space).count());
     let visit: Vec<(usize, usize)> = counts
         .iter()
-        .filter(|&&n| !(by_meet.contains(&n) && (n <= 3 || table_fits)))
+        .filter(|&&n| !by_factor.contains(&n) && !(by_meet.contains(&n) && (n <= 3 || table_fits)))
         .flat_map(|&n| (0..space.stages.len()).map(move |f| (n, f)))
         .collect();
     if visit.is_empty() || combinations < 1e8 {

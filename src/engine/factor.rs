@@ -1,0 +1,497 @@
+//! The factor engine, for exact targets: it counts every train that hits the ratio exactly
+//! without visiting them, from the factorisations of the tooth products, and spells out only
+//! the trains that could be listed.
+//!
+//! A train of `n` stages hits `p/q` (reduced) exactly when the product of its driven teeth is
+//! `k·p` and that of its drivers `k·q` for some whole `k`. When the allowed stages are every
+//! pairing of an allowed driver with an allowed driven gear of other teeth (no per-stage ratio,
+//! distance or mesh limit), the ordered `n`-tuples of stages that hit the target number
+//! `Σ_k F_driven(k·p) · F_driver(k·q)`, where `F(N)` counts the ordered ways to write `N` as a
+//! product of `n` allowed tooth counts. Pairings of equal teeth (not stages) are taken out by
+//! inclusion–exclusion, and ordered tuples become trains — multisets of stages — by Burnside's
+//! lemma over the permutations of the `n` places: a permutation of cycle type λ fixes the
+//! tuples that repeat one stage along each cycle, whose products are `∏ t_c^{l_c}`. The sum
+//! runs over the `k` whose primes are all at most the largest tooth count, up to the largest
+//! `k` the tooth range allows, cut into parts that run in parallel. Every count is a whole
+//! number held exactly.
+//!
+//! Listing: any train of a given `k` has a size (sum of teeth) of at least
+//! `n·(k·p)^{1/n} + n·(k·q)^{1/n}` and a largest gear of at least the `n`-th root of the larger
+//! product; both grow with `k`. So `k` is walked upwards, each `k`'s trains are spelt out
+//! (factorisations of `k·p` and `k·q` into `n` allowed tooth counts, and every distinct pairing
+//! of them into stages) and judged like any engine's candidates, until no train of a larger `k`
+//! could enter the listing. A `k` whose products have a prime factor larger than the listing
+//! allows (a gear carrying a prime has at least that many teeth) is passed over unspelt.
+//!
+//! It applies to exact targets (tolerance 0) over gears to be cut in one module, with no
+//! train-level check or extra key, up to four stages (six when no gear has more than
+//! [`MAX_TEETH_FOR_SIX_STAGES`] teeth).
+
+use std::collections::BTreeMap;
+
+use rayon::prelude::*;
+
+use super::{Keeper, SearchSpace};
+use crate::factors::{primes_up_to, smooth_parts, Factored, ToothSet};
+use crate::pool::MAX_STAGES;
+use crate::rank::Candidate;
+use crate::rational::RelError;
+
+/// Largest tooth count for which five- and six-stage trains are counted here: the table of
+/// ordered triples has (teeth)³ entries, 66 MB at this bound.
+pub const MAX_TEETH_FOR_SIX_STAGES: u32 = 255;
+
+/// Parts the sum over `k` is cut into, for the parallel pool.
+const PARTS: usize = 512;
+
+/// How many values of `k` pass between two looks at the stop flag.
+const CANCEL_EVERY: u32 = 1 << 12;
+
+/// Everything the factor engine needs, prepared once per search.
+pub struct Factor {
+    driven: ToothSet,
+    driver: ToothSet,
+    /// Tooth counts allowed as both driver and driven: each makes one 1:1 pairing, which is not
+    /// a stage.
+    both: i128,
+    /// The target's parts, factored; `None` when one has a prime above every tooth count on
+    /// its side, so that no train hits it.
+    parts: Option<(Factored, Factored)>,
+    /// The primes `k` may have: those up to the smaller of the largest driver and driven.
+    primes: Vec<u32>,
+    /// Stage-table index of each (driver, driven) pairing, at `driver·(hi_driven + 1) + driven`.
+    index: Vec<u32>,
+    module_mm: f64,
+}
+
+impl Factor {
+    /// Prepare for `space`, or `None` when the engine does not apply to it.
+    pub fn new(space: &SearchSpace) -> Option<Factor> {
+        let problem = space.problem;
+        let pool = &problem.pool;
+        if !problem.target.tolerance.is_zero()
+            || pool.from_stock
+            || pool.groups.len() != 1
+            || problem.train_check.is_some()
+            || problem.extra_key.is_some()
+            || space.needs_coaxial_fit()
+            || space.stages.is_empty()
+        {
+            return None;
+        }
+        let mut driven: Vec<u32> = space.stages.iter().map(|s| s.driven_teeth).collect();
+        let mut driver: Vec<u32> = space.stages.iter().map(|s| s.driver_teeth).collect();
+        driven.sort_unstable();
+        driven.dedup();
+        driver.sort_unstable();
+        driver.dedup();
+        let both = driver.iter().filter(|t| driven.binary_search(t).is_ok()).count();
+        // The stages are a subset of the pairings of these drivers and driven gears with
+        // different teeth; as many of them means all of them.
+        if space.stages.len() != driven.len() * driver.len() - both {
+            return None;
+        }
+        let hi_driven = *driven.last()? as usize;
+        let hi_driver = *driver.last()? as usize;
+        let six = problem.stages.hi >= 5 && hi_driven.max(hi_driver) <= MAX_TEETH_FOR_SIX_STAGES as usize;
+        let mut index = vec![u32::MAX; (hi_driver + 1) * (hi_driven + 1)];
+        for (i, s) in space.stages.iter().enumerate() {
+            index[s.driver_teeth as usize * (hi_driven + 1) + s.driven_teeth as usize] = i as u32;
+        }
+        let ratio = problem.target.ratio;
+        let parts = Factored::of(ratio.num(), &primes_up_to(hi_driven as u32))
+            .zip(Factored::of(ratio.den(), &primes_up_to(hi_driver as u32)));
+        Some(Factor {
+            driven: ToothSet::new(&driven, six),
+            driver: ToothSet::new(&driver, six),
+            both: both as i128,
+            parts,
+            primes: primes_up_to(hi_driven.min(hi_driver) as u32),
+            index,
+            module_mm: pool.groups[0].module_mm,
+        })
+    }
+
+    /// Can it take `n`-stage trains?
+    pub fn applies(&self, n: usize) -> bool {
+        (1..=MAX_STAGES).contains(&n) && self.driven.supports(n as u32) && self.driver.supports(n as u32)
+    }
+
+    /// Count the `n`-stage trains into `keep` and offer those that could be listed.
+    pub(crate) fn run(&self, space: &SearchSpace, n: usize, keep: &mut Keeper) {
+        let Some(count) = self.count(space, n) else { return };
+        keep.add_count(count);
+        if count > 0 {
+            self.list(space, n, keep);
+        }
+    }
+
+    /// The range of `k` for products of `factors` teeth on each side (empty when `lo > hi`).
+    fn k_range(&self, factors: u32) -> (u64, u64) {
+        let Some((p, q)) = &self.parts else { return (1, 0) };
+        let pow = |x: u64| x.checked_pow(factors).unwrap_or(u64::MAX);
+        let lo = pow(self.driven.lo()).div_ceil(p.value()).max(pow(self.driver.lo()).div_ceil(q.value()));
+        let hi = (pow(self.driven.hi()) / p.value()).min(pow(self.driver.hi()) / q.value());
+        (lo.max(1), hi)
+    }
+
+    /// The number of `n`-stage trains that hit the target, or `None` when the search was
+    /// stopped before it was known.
+    pub fn count(&self, space: &SearchSpace, n: usize) -> Option<u64> {
+        let terms: Vec<(Vec<u32>, i128, (u64, u64))> = cycle_terms(n, self.both)
+            .into_iter()
+            .map(|(powers, coef)| {
+                let range = self.k_range(powers.iter().sum());
+                (powers, coef, range)
+            })
+            .collect();
+        // The term with no stage left counts the empty product: 1 when the target is 1.
+        let mut total: i128 =
+            terms
+                .iter()
+                .filter(|(powers, _, _)| powers.is_empty())
+                .map(|(_, coef, _)| {
+                    if self.parts.is_some_and(|(p, q)| p.value() == 1 && q.value() == 1) {
+                        *coef
+                    } else {
+                        0
+                    }
+                })
+                .sum();
+        if let Some((p, q)) = &self.parts {
+            let live: Vec<&(Vec<u32>, i128, (u64, u64))> =
+                terms.iter().filter(|(powers, _, (lo, hi))| !powers.is_empty() && lo <= hi).collect();
+            let k_lo = live.iter().map(|t| t.2 .0).min().unwrap_or(1);
+            let k_hi = live.iter().map(|t| t.2 .1).max().unwrap_or(0);
+            // The parts differ widely in size (the first hold most small k), so each is its own
+            // task.
+            let sums: Vec<Option<i128>> = smooth_parts(&self.primes, k_hi, PARTS)
+                .par_iter()
+                .with_max_len(1)
+                .map(|part| {
+                    let mut sum = 0i128;
+                    let mut seen = 0u32;
+                    let done = part.for_each(&self.primes, k_lo, k_hi, &mut |k| {
+                        seen += 1;
+                        if seen % CANCEL_EVERY == 0 && space.cancelled() {
+                            return false;
+                        }
+                        // k is within every live range's bound, so the products fit.
+                        let (Some(driven), Some(driver)) = (k.mul(p), k.mul(q)) else { return true };
+                        for (powers, coef, (lo, hi)) in &live {
+                            if (*lo..=*hi).contains(&k.value()) {
+                                let a = self.driven.ordered_products(&driven, powers);
+                                if a > 0 {
+                                    let b = self.driver.ordered_products(&driver, powers);
+                                    sum += coef * a as i128 * b as i128;
+                                }
+                            }
+                        }
+                        true
+                    });
+                    done.then_some(sum)
+                })
+                .collect();
+            for s in sums {
+                total += s?;
+            }
+        }
+        let orderings: i128 = (1..=n as i128).product();
+        debug_assert_eq!(total % orderings, 0, "Burnside's sum is a multiple of n!");
+        // Trains of at most six stages of at most 1000 teeth number far fewer than 2⁶⁴.
+        Some(u64::try_from(total / orderings).unwrap_or(u64::MAX))
+    }
+
+    /// Offer the `n`-stage trains that could be listed, walking `k` upwards.
+    fn list(&self, space: &SearchSpace, n: usize, keep: &mut Keeper) {
+        let Some((p, q)) = &self.parts else { return };
+        let (k_lo, k_hi) = self.k_range(n as u32);
+        let error = RelError::of(p.value(), q.value(), space.problem.target.ratio);
+        let mut from = k_lo;
+        let mut cap = k_lo.saturating_mul(16).max(1 << 12).min(k_hi);
+        while from <= k_hi {
+            // (k, its largest prime), ascending.
+            let mut ks: Vec<(u64, u64)> = Vec::new();
+            for part in smooth_parts(&self.primes, cap, 1) {
+                part.for_each(&self.primes, from, cap, &mut |k| {
+                    ks.push((k.value(), k.largest_prime()));
+                    true
+                });
+            }
+            ks.sort_unstable();
+            for (k, k_prime) in ks {
+                if space.cancelled() {
+                    return;
+                }
+                let (driven, driver) = (k * p.value(), k * q.value());
+                // Bounds that grow with k: once one fails, every larger k fails too.
+                let rising = Candidate {
+                    stages: [0; MAX_STAGES],
+                    len: n as u8,
+                    error,
+                    size: least_sum(driven, n, self.driven.lo()) + least_sum(driver, n, self.driver.lo()),
+                    span_mm: self.module_mm * ceil_root(driven, n).max(ceil_root(driver, n)) as f64,
+                    extra: 0.0,
+                };
+                if !keep.could_accept(&rising) {
+                    return;
+                }
+                // A gear that carries a prime factor has at least that many teeth.
+                let largest = k_prime.max(p.largest_prime()).max(q.largest_prime());
+                let bound =
+                    Candidate { span_mm: rising.span_mm.max(self.module_mm * largest as f64), ..rising };
+                if keep.could_accept(&bound) {
+                    self.spell(space, n, driven, driver, bound, keep);
+                }
+            }
+            from = cap + 1;
+            cap = cap.saturating_mul(8).min(k_hi);
+        }
+    }
+
+    /// Offer every train whose driven teeth multiply to `driven` and drivers to `driver`.
+    fn spell(
+        &self,
+        space: &SearchSpace,
+        n: usize,
+        driven: u64,
+        driver: u64,
+        bound: Candidate,
+        keep: &mut Keeper,
+    ) {
+        let driven_sets = multisets(&self.driven, driven, n);
+        if driven_sets.is_empty() {
+            return;
+        }
+        let driver_sets = multisets(&self.driver, driver, n);
+        for d in &driven_sets {
+            for r in &driver_sets {
+                let group = Candidate {
+                    size: d[..n].iter().chain(&r[..n]).sum(),
+                    span_mm: self.module_mm * d[..n].iter().chain(&r[..n]).max().copied().unwrap_or(0) as f64,
+                    ..bound
+                };
+                // Every pairing of these gears has this size and span.
+                if !keep.could_accept(&group) {
+                    continue;
+                }
+                self.pairings(&d[..n], &r[..n], &mut |idx| {
+                    if let Some(c) = space.judge(idx) {
+                        keep.push_uncounted(c);
+                    }
+                });
+            }
+        }
+    }
+
+    /// Every distinct way to pair the driven gears `d` (ascending) with the drivers `r`
+    /// (ascending) into stages, as sorted stage-table indices.
+    fn pairings(&self, d: &[u32], r: &[u32], visit: &mut dyn FnMut(&[u32])) {
+        let mut left: Vec<(u32, u32)> = Vec::with_capacity(r.len());
+        for &t in r {
+            match left.last_mut() {
+                Some((v, c)) if *v == t => *c += 1,
+                _ => left.push((t, 1)),
+            }
+        }
+        let mut chosen = [0u32; MAX_STAGES];
+        let mut idx = [0u32; MAX_STAGES];
+        self.pair_from(d, 0, &mut left, &mut chosen, &mut idx, visit);
+    }
+
+    fn pair_from(
+        &self,
+        d: &[u32],
+        at: usize,
+        left: &mut [(u32, u32)],
+        chosen: &mut [u32; MAX_STAGES],
+        idx: &mut [u32; MAX_STAGES],
+        visit: &mut dyn FnMut(&[u32]),
+    ) {
+        let n = d.len();
+        if at == n {
+            let mut sorted = *idx;
+            sorted[..n].sort_unstable();
+            visit(&sorted[..n]);
+            return;
+        }
+        let width = self.driven.hi() as usize + 1;
+        for j in 0..left.len() {
+            let (r, c) = left[j];
+            // Equal driven gears take their drivers in ascending order, so each multiset of
+            // stages comes once.
+            if c == 0 || r == d[at] || (at > 0 && d[at] == d[at - 1] && r < chosen[at - 1]) {
+                continue;
+            }
+            let stage = self.index[r as usize * width + d[at] as usize];
+            debug_assert_ne!(stage, u32::MAX, "every pairing of other teeth is a stage");
+            left[j].1 -= 1;
+            chosen[at] = r;
+            idx[at] = stage;
+            self.pair_from(d, at + 1, left, chosen, idx, visit);
+            left[j].1 += 1;
+        }
+    }
+}
+
+/// The multisets of `m` members of `set` with product `n`, each ascending.
+fn multisets(set: &ToothSet, n: u64, m: usize) -> Vec<[u32; MAX_STAGES]> {
+    let mut out = Vec::new();
+    let mut cur = [0u32; MAX_STAGES];
+    multisets_from(set, n, m, 0, set.lo(), &mut cur, &mut out);
+    out
+}
+
+fn multisets_from(
+    set: &ToothSet,
+    n: u64,
+    m: usize,
+    at: usize,
+    min: u64,
+    cur: &mut [u32; MAX_STAGES],
+    out: &mut Vec<[u32; MAX_STAGES]>,
+) {
+    if at + 1 == m {
+        if n >= min && set.contains(n) {
+            cur[at] = n as u32;
+            out.push(*cur);
+        }
+        return;
+    }
+    let rest = (m - at) as u32;
+    let mut t = min;
+    while t <= set.hi() && t.checked_pow(rest).is_some_and(|x| x <= n) {
+        if n % t == 0 && set.contains(t) {
+            cur[at] = t as u32;
+            multisets_from(set, n / t, m, at + 1, t, cur, out);
+        }
+        t += 1;
+    }
+}
+
+/// The least sum of `m` whole numbers of at least `lo` whose product is `n`, bounded below:
+/// at least `m·lo`, and at least `m·n^(1/m)` (the arithmetic mean is at least the geometric).
+fn least_sum(n: u64, m: usize, lo: u64) -> u32 {
+    let am_gm = m as f64 * (n as f64).powf(1.0 / m as f64);
+    // Shave the float a little so rounding can only lower the bound.
+    let bound = (am_gm * (1.0 - 1e-12)).ceil() as u64;
+    bound.max(m as u64 * lo) as u32
+}
+
+/// The least `r` with `r^m ≥ n`.
+fn ceil_root(n: u64, m: usize) -> u64 {
+    let mut r = (n as f64).powf(1.0 / m as f64).round() as u64;
+    let reaches = |r: u64| (r as u128).pow(m as u32) >= n as u128;
+    while r > 1 && reaches(r - 1) {
+        r -= 1;
+    }
+    while !reaches(r) {
+        r += 1;
+    }
+    r
+}
+
+/// Burnside's sum for multisets of `n` stages, with the 1:1 pairings taken out: the signed
+/// coefficient of each cycle shape (powers descending; empty for the term with no stage left),
+/// where `both` is the number of tooth counts allowed on both sides. The trains number
+/// `Σ coef · Σ_k F(k·p; powers) · F(k·q; powers) / n!`.
+fn cycle_terms(n: usize, both: i128) -> Vec<(Vec<u32>, i128)> {
+    let factorial = |m: u32| (1..=m as i128).product::<i128>();
+    let binomial = |m: u32, k: u32| factorial(m) / factorial(k) / factorial(m - k);
+    let mut terms: BTreeMap<Vec<u32>, i128> = BTreeMap::new();
+    for shape in partitions(n as u32, n as u32) {
+        // (cycle length, how many cycles of it)
+        let mut runs: Vec<(u32, u32)> = Vec::new();
+        for &l in &shape {
+            match runs.last_mut() {
+                Some((len, c)) if *len == l => *c += 1,
+                _ => runs.push((l, 1)),
+            }
+        }
+        let permutations = factorial(n as u32)
+            / runs.iter().map(|&(l, c)| (l as i128).pow(c) * factorial(c)).product::<i128>();
+        // Inclusion–exclusion: cycles whose one stage is a 1:1 pairing, `taken[j]` of run j.
+        let mut taken = vec![0u32; runs.len()];
+        loop {
+            let mut coef = permutations;
+            let mut powers = Vec::new();
+            let mut removed = 0;
+            for (&(l, c), &t) in runs.iter().zip(&taken) {
+                coef *= binomial(c, t);
+                removed += t;
+                powers.extend(std::iter::repeat_n(l, (c - t) as usize));
+            }
+            coef *= (-both).pow(removed);
+            *terms.entry(powers).or_default() += coef;
+            // Next choice of `taken`, like an odometer.
+            let mut j = 0;
+            while j < runs.len() && taken[j] == runs[j].1 {
+                taken[j] = 0;
+                j += 1;
+            }
+            if j == runs.len() {
+                break;
+            }
+            taken[j] += 1;
+        }
+    }
+    terms.into_iter().filter(|(_, c)| *c != 0).collect()
+}
+
+/// The partitions of `n` into parts of at most `max`, each descending.
+fn partitions(n: u32, max: u32) -> Vec<Vec<u32>> {
+    if n == 0 {
+        return vec![Vec::new()];
+    }
+    let mut out = Vec::new();
+    for first in (1..=max.min(n)).rev() {
+        for rest in partitions(n - first, first) {
+            let mut shape = vec![first];
+            shape.extend(rest);
+            out.push(shape);
+        }
+    }
+    out
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn partitions_of_small_numbers() {
+        // p(n) for n = 1..6: 1, 2, 3, 5, 7, 11 (common knowledge).
+        let counts: Vec<usize> = (1..=6).map(|n| partitions(n, n).len()).collect();
+        assert_eq!(counts, vec![1, 2, 3, 5, 7, 11]);
+        assert_eq!(partitions(4, 4), vec![vec![4], vec![3, 1], vec![2, 2], vec![2, 1, 1], vec![1, 1, 1, 1]]);
+    }
+
+    #[test]
+    fn burnside_without_exclusions_counts_multisets() {
+        // With nothing excluded and every product allowed, Σ coef · s^(cycles) / n! is the
+        // number of multisets of n from s things, C(s + n − 1, n).
+        for n in 1..=6usize {
+            for s in 1..=7i128 {
+                let terms = cycle_terms(n, 0);
+                let sum: i128 = terms.iter().map(|(p, c)| c * s.pow(p.len() as u32)).sum();
+                let n_fact: i128 = (1..=n as i128).product();
+                let want: i128 = (0..n as i128).map(|i| s + i).product::<i128>() / n_fact;
+                assert_eq!(sum / n_fact, want, "n {n}, s {s}");
+                assert_eq!(sum % n_fact, 0);
+            }
+        }
+    }
+
+    #[test]
+    fn least_sum_and_root_are_lower_bounds() {
+        assert_eq!(ceil_root(1000, 3), 10);
+        assert_eq!(ceil_root(1001, 3), 11);
+        assert_eq!(ceil_root(1, 4), 1);
+        assert_eq!(ceil_root(200u64.pow(4), 4), 200);
+        // 12·12·12·12: the bound is reached exactly.
+        assert_eq!(least_sum(12u64.pow(4), 4, 1), 48);
+        assert_eq!(least_sum(127 * 12 * 12 * 12, 4, 12), 87);
+        assert!(least_sum(127 * 12 * 12 * 12, 4, 12) <= 127 + 36);
+        assert_eq!(least_sum(6, 2, 12), 24, "never below m·lo");
+    }
+}

@@ -1,0 +1,545 @@
+//! Smooth-number arithmetic for exact searches: whole numbers held with their prime
+//! factorisation, their divisors within bounds, the numbers up to a bound whose primes all come
+//! from a given list, and the count of ordered ways to write a number as a product of members of
+//! a set of tooth counts (members possibly raised to powers).
+//!
+//! Owns nothing of stages, trains or ratios; the factor engine builds on it.
+
+/// Most distinct primes a `u64` can have: the product of the first 16 primes passes 2⁶⁴.
+const MAX_PRIMES: usize = 15;
+
+/// The primes up to `n`, ascending.
+pub fn primes_up_to(n: u32) -> Vec<u32> {
+    let n = n as usize;
+    let mut composite = vec![false; n + 1];
+    let mut primes = Vec::new();
+    for i in 2..=n {
+        if !composite[i] {
+            primes.push(i as u32);
+            let mut j = i * i;
+            while j <= n {
+                composite[j] = true;
+                j += i;
+            }
+        }
+    }
+    primes
+}
+
+/// A positive whole number with its factorisation: distinct primes ascending, each with its
+/// exponent. Invariant: `value` is the product of `primes[i]^exps[i]` over the first `len`.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub struct Factored {
+    value: u64,
+    len: u8,
+    primes: [u32; MAX_PRIMES],
+    exps: [u8; MAX_PRIMES],
+}
+
+impl Factored {
+    /// The number 1.
+    pub const ONE: Factored = Factored { value: 1, len: 0, primes: [0; MAX_PRIMES], exps: [0; MAX_PRIMES] };
+
+    /// Factor `n` over `primes` (ascending); `None` when `n` is zero or has a prime factor not in
+    /// the list.
+    pub fn of(mut n: u64, primes: &[u32]) -> Option<Factored> {
+        if n == 0 {
+            return None;
+        }
+        let mut f = Factored { value: n, ..Factored::ONE };
+        for &p in primes {
+            if n == 1 {
+                break;
+            }
+            let mut e = 0u8;
+            while n % p as u64 == 0 {
+                n /= p as u64;
+                e += 1;
+            }
+            if e > 0 {
+                f.primes[f.len as usize] = p;
+                f.exps[f.len as usize] = e;
+                f.len += 1;
+            }
+        }
+        (n == 1).then_some(f)
+    }
+
+    /// The number.
+    pub fn value(&self) -> u64 {
+        self.value
+    }
+
+    /// `(prime, exponent)` pairs, prime ascending.
+    pub fn powers(&self) -> impl Iterator<Item = (u32, u8)> + '_ {
+        (0..self.len as usize).map(|i| (self.primes[i], self.exps[i]))
+    }
+
+    /// The largest prime factor (1 for the number 1).
+    pub fn largest_prime(&self) -> u64 {
+        self.len.checked_sub(1).map_or(1, |i| self.primes[i as usize] as u64)
+    }
+
+    /// The product, or `None` if it passes `u64`.
+    pub fn mul(&self, other: &Factored) -> Option<Factored> {
+        let value = self.value.checked_mul(other.value)?;
+        let mut out = Factored { value, ..Factored::ONE };
+        let (mut i, mut j) = (0, 0);
+        while i < self.len as usize || j < other.len as usize {
+            let a = (i < self.len as usize).then(|| self.primes[i]);
+            let b = (j < other.len as usize).then(|| other.primes[j]);
+            let (p, e) = match (a, b) {
+                (Some(x), Some(y)) if x == y => {
+                    i += 1;
+                    j += 1;
+                    (x, self.exps[i - 1] + other.exps[j - 1])
+                }
+                (Some(x), Some(y)) if x < y => {
+                    i += 1;
+                    (x, self.exps[i - 1])
+                }
+                (Some(x), None) => {
+                    i += 1;
+                    (x, self.exps[i - 1])
+                }
+                (_, Some(y)) => {
+                    j += 1;
+                    (y, other.exps[j - 1])
+                }
+                (None, None) => unreachable!("the loop runs while one side has primes left"),
+            };
+            out.primes[out.len as usize] = p;
+            out.exps[out.len as usize] = e;
+            out.len += 1;
+        }
+        Some(out)
+    }
+
+    /// `self / t^power`, for `t^power` dividing this number.
+    fn div_pow(&self, mut t: u64, power: u32) -> Factored {
+        let mut out = Factored { value: self.value / t.pow(power), ..Factored::ONE };
+        for (&p, &e) in self.primes.iter().zip(&self.exps).take(self.len as usize) {
+            let mut e = e;
+            while t % p as u64 == 0 {
+                t /= p as u64;
+                e -= power as u8;
+            }
+            if e > 0 {
+                out.primes[out.len as usize] = p;
+                out.exps[out.len as usize] = e;
+                out.len += 1;
+            }
+        }
+        out
+    }
+
+    /// The largest `r` with `r^power` dividing this number, as exponents.
+    fn root_part(&self, power: u32) -> Factored {
+        let mut out = Factored::ONE;
+        for i in 0..self.len as usize {
+            let e = self.exps[i] / power as u8;
+            if e > 0 {
+                out.primes[out.len as usize] = self.primes[i];
+                out.exps[out.len as usize] = e;
+                out.len += 1;
+                out.value *= (self.primes[i] as u64).pow(e as u32);
+            }
+        }
+        out
+    }
+
+    /// Call `f(d)` for every divisor `d` with `lo ≤ d ≤ hi`, in a fixed order.
+    pub fn for_each_divisor(&self, lo: u64, hi: u64, f: &mut impl FnMut(u64)) {
+        // suffix[i]: the product of the prime powers from i on, the most the rest can multiply by.
+        let mut suffix = [1u64; MAX_PRIMES + 1];
+        for i in (0..self.len as usize).rev() {
+            suffix[i] = suffix[i + 1] * (self.primes[i] as u64).pow(self.exps[i] as u32);
+        }
+        self.divisors_from(0, 1, lo, hi, &suffix, f);
+    }
+
+    fn divisors_from(
+        &self,
+        i: usize,
+        d: u64,
+        lo: u64,
+        hi: u64,
+        suffix: &[u64; MAX_PRIMES + 1],
+        f: &mut impl FnMut(u64),
+    ) {
+        if d.saturating_mul(suffix[i]) < lo {
+            return;
+        }
+        if i == self.len as usize {
+            f(d);
+            return;
+        }
+        let p = self.primes[i] as u64;
+        let mut x = d;
+        for _ in 0..=self.exps[i] {
+            if x > hi {
+                break;
+            }
+            self.divisors_from(i + 1, x, lo, hi, suffix, f);
+            // Past the last exponent x·p may not divide the number; the loop ends before using it.
+            x = x.saturating_mul(p);
+        }
+    }
+}
+
+/// One part of the smooth numbers up to a bound: `base` times every product of powers of
+/// `primes[next..]` (and `base` itself when `with_base`).
+#[derive(Debug, Clone, Copy)]
+pub struct SmoothPart {
+    base: Factored,
+    next: usize,
+    with_base: bool,
+}
+
+/// The numbers `1..=hi` whose prime factors all lie in `primes` (ascending), cut into at least
+/// `parts` disjoint parts (fewer only if there are fewer numbers), in a fixed order.
+pub fn smooth_parts(primes: &[u32], hi: u64, parts: usize) -> Vec<SmoothPart> {
+    let mut list = vec![SmoothPart { base: Factored::ONE, next: 0, with_base: true }];
+    while list.len() < parts {
+        let mut grown = Vec::with_capacity(list.len() * 4);
+        let mut split_any = false;
+        for part in list {
+            if part.next >= primes.len() || part.base.value.saturating_mul(primes[part.next] as u64) > hi {
+                grown.push(part);
+                continue;
+            }
+            split_any = true;
+            if part.with_base {
+                grown.push(SmoothPart { next: primes.len(), ..part });
+            }
+            for_each_child(primes, part.base, part.next, hi, &mut |child, next| {
+                grown.push(SmoothPart { base: child, next, with_base: true });
+            });
+        }
+        list = grown;
+        if !split_any {
+            break;
+        }
+    }
+    list
+}
+
+/// `base·p^e` for every prime `p` of `primes[next..]` and `e ≥ 1` within `hi`, with the index
+/// after `p`.
+fn for_each_child(primes: &[u32], base: Factored, next: usize, hi: u64, f: &mut impl FnMut(Factored, usize)) {
+    for (j, &p) in primes.iter().enumerate().skip(next) {
+        let Some(mut x) = base.value.checked_mul(p as u64).filter(|&x| x <= hi) else { break };
+        let mut child = base;
+        child.primes[child.len as usize] = p;
+        child.len += 1;
+        let mut e = 1u8;
+        loop {
+            child.value = x;
+            child.exps[child.len as usize - 1] = e;
+            f(child, j + 1);
+            match x.checked_mul(p as u64) {
+                Some(y) if y <= hi => {
+                    x = y;
+                    e += 1;
+                }
+                _ => break,
+            }
+        }
+    }
+}
+
+impl SmoothPart {
+    /// Call `f` on every number of this part within `lo..=hi` (with `hi` the bound the parts
+    /// were cut for, or less). Stops early when `f` returns false; returns false then.
+    pub fn for_each(&self, primes: &[u32], lo: u64, hi: u64, f: &mut impl FnMut(&Factored) -> bool) -> bool {
+        if self.with_base && self.base.value >= lo && self.base.value <= hi && !f(&self.base) {
+            return false;
+        }
+        walk_smooth(primes, self.base, self.next, lo, hi, f)
+    }
+}
+
+fn walk_smooth(
+    primes: &[u32],
+    base: Factored,
+    next: usize,
+    lo: u64,
+    hi: u64,
+    f: &mut impl FnMut(&Factored) -> bool,
+) -> bool {
+    let mut go = true;
+    for_each_child(primes, base, next, hi, &mut |child, after| {
+        if go && child.value >= lo {
+            go = f(&child);
+        }
+        if go {
+            go = walk_smooth(primes, child, after, lo, hi, f);
+        }
+    });
+    go
+}
+
+/// A set of tooth counts with tables that count ordered products of its members.
+#[derive(Debug, Clone)]
+pub struct ToothSet {
+    lo: u64,
+    hi: u64,
+    member: Vec<bool>,
+    /// `pairs[x]`: ordered pairs of members whose product is `x`, for `x ≤ hi²`.
+    pairs: Vec<u32>,
+    /// `triples[x]`: ordered triples with product `x`, for `x ≤ hi³` (empty when not built).
+    triples: Vec<u32>,
+}
+
+impl ToothSet {
+    /// The set of `members` (non-empty, each at least 1). `with_triples` builds the table that
+    /// products of five and six members need (`hi³` entries).
+    pub fn new(members: &[u32], with_triples: bool) -> ToothSet {
+        let lo = members.iter().copied().min().unwrap_or(1).max(1) as u64;
+        let hi = members.iter().copied().max().unwrap_or(1) as u64;
+        let mut member = vec![false; hi as usize + 1];
+        for &t in members {
+            member[t as usize] = true;
+        }
+        let mut pairs = vec![0u32; (hi * hi) as usize + 1];
+        for &a in members {
+            for &b in members {
+                pairs[a as usize * b as usize] += 1;
+            }
+        }
+        let mut triples = Vec::new();
+        if with_triples {
+            triples = vec![0u32; (hi * hi * hi) as usize + 1];
+            for (x, &c) in pairs.iter().enumerate().filter(|(_, &c)| c > 0) {
+                for &t in members {
+                    triples[x * t as usize] += c;
+                }
+            }
+        }
+        ToothSet { lo, hi, member, pairs, triples }
+    }
+
+    /// Smallest member.
+    pub fn lo(&self) -> u64 {
+        self.lo
+    }
+
+    /// Largest member.
+    pub fn hi(&self) -> u64 {
+        self.hi
+    }
+
+    /// Is `t` a member?
+    pub fn contains(&self, t: u64) -> bool {
+        t <= self.hi && self.member[t as usize]
+    }
+
+    /// Can [`ToothSet::ordered_products`] take products of `factors` members?
+    pub fn supports(&self, factors: u32) -> bool {
+        factors <= 4 || (factors <= 6 && !self.triples.is_empty())
+    }
+
+    /// The number of tuples `(t₁, …, t_m)` of members with `∏ t_c^{powers[c]} = n`; `powers`
+    /// sorted descending, their sum at most 4 (6 with triples).
+    pub fn ordered_products(&self, n: &Factored, powers: &[u32]) -> u64 {
+        match powers.first() {
+            None => (n.value == 1) as u64,
+            Some(&l) if l >= 2 => {
+                let mut total = 0;
+                n.root_part(l).for_each_divisor(self.lo, self.hi, &mut |t| {
+                    if self.contains(t) {
+                        // t divides the root part, so t^l divides n.
+                        total += self.ordered_products(&n.div_pow(t, l), &powers[1..]);
+                    }
+                });
+                total
+            }
+            Some(_) => self.ordered_ones(n, powers.len() as u32),
+        }
+    }
+
+    /// Ordered `m`-tuples of members with product `n`.
+    fn ordered_ones(&self, n: &Factored, m: u32) -> u64 {
+        let v = n.value;
+        let (lo, hi) = (self.lo, self.hi);
+        let pow = |x: u64, e: u32| x.checked_pow(e).unwrap_or(u64::MAX);
+        if v < pow(lo, m) || v > pow(hi, m) {
+            return 0;
+        }
+        let pairs = |x: u64| self.pairs.get(x as usize).copied().unwrap_or(0) as u64;
+        let triples = |x: u64| self.triples.get(x as usize).copied().unwrap_or(0) as u64;
+        let mut total = 0u64;
+        match m {
+            0 => total = (v == 1) as u64,
+            1 => total = self.contains(v) as u64,
+            2 => total = pairs(v),
+            3 => n.for_each_divisor(lo.max(v.div_ceil(hi * hi)), hi.min(v / (lo * lo)), &mut |d| {
+                if self.member[d as usize] {
+                    total += pairs(v / d);
+                }
+            }),
+            4 => {
+                // Split into two pairs; each unordered split d·(v/d) with d < v/d counts twice.
+                let (a, b) = (lo * lo, hi * hi);
+                n.for_each_divisor(a.max(v.div_ceil(b)), b.min(v / a).min(isqrt(v)), &mut |d| {
+                    let e = v / d;
+                    total += if d < e { 2 * pairs(d) * pairs(e) } else { pairs(d) * pairs(e) };
+                })
+            }
+            5 => {
+                let (a, b) = (lo * lo, hi * hi);
+                let c = hi * hi * hi;
+                n.for_each_divisor(a.max(v.div_ceil(c)), b.min(v / (lo * lo * lo)), &mut |d| {
+                    total += pairs(d) * triples(v / d)
+                })
+            }
+            6 => {
+                let (a, b) = (lo * lo * lo, hi * hi * hi);
+                n.for_each_divisor(a.max(v.div_ceil(b)), b.min(v / a).min(isqrt(v)), &mut |d| {
+                    let e = v / d;
+                    total += if d < e { 2 * triples(d) * triples(e) } else { triples(d) * triples(e) };
+                })
+            }
+            _ => unreachable!("products of at most six members are counted"),
+        }
+        total
+    }
+}
+
+/// The largest `r` with `r² ≤ n`.
+fn isqrt(n: u64) -> u64 {
+    let mut r = (n as f64).sqrt() as u64;
+    let square = |r: u64| r as u128 * r as u128;
+    while square(r) > n as u128 {
+        r -= 1;
+    }
+    while square(r + 1) <= n as u128 {
+        r += 1;
+    }
+    r
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn primes_are_the_primes() {
+        assert_eq!(primes_up_to(30), vec![2, 3, 5, 7, 11, 13, 17, 19, 23, 29]);
+        assert_eq!(primes_up_to(1000).len(), 168); // π(1000) = 168, common knowledge
+        assert!(primes_up_to(1).is_empty());
+    }
+
+    #[test]
+    fn integer_square_roots() {
+        for n in [0u64, 1, 2, 3, 4, 15, 16, 17, 10u64.pow(12), 10u64.pow(12) - 1, u64::MAX] {
+            let r = isqrt(n) as u128;
+            assert!(r * r <= n as u128 && (r + 1) * (r + 1) > n as u128, "isqrt({n}) = {r}");
+        }
+    }
+
+    #[test]
+    fn factorisation_round_trips() {
+        let primes = primes_up_to(200);
+        let f = Factored::of(127 * 120 * 120, &primes).unwrap();
+        assert_eq!(f.powers().collect::<Vec<_>>(), vec![(2, 6), (3, 2), (5, 2), (127, 1)]);
+        assert_eq!(Factored::of(211, &primes), None, "211 is a prime above the list");
+        assert_eq!(Factored::of(0, &primes), None);
+        let g = Factored::of(365, &primes).unwrap();
+        let h = f.mul(&g).unwrap();
+        assert_eq!(h.value(), 127 * 120 * 120 * 365);
+        assert_eq!(Factored::of(h.value(), &primes), Some(h));
+        assert_eq!(Factored::of(u64::MAX / 2, &primes), None);
+        let big = Factored::of(1 << 62, &primes).unwrap();
+        assert_eq!(big.mul(&Factored::of(4, &primes).unwrap()), None, "2^64 does not fit");
+    }
+
+    #[test]
+    fn divisors_within_bounds_are_all_found_once() {
+        let primes = primes_up_to(50);
+        for n in [1u64, 2, 12, 360, 720_720, 2 * 3 * 5 * 7 * 11 * 13 * 17 * 19 * 23, 1 << 40] {
+            let f = Factored::of(n, &primes).unwrap();
+            for (lo, hi) in [(1, u64::MAX), (10, 1000), (7, 7), (100, 10)] {
+                let mut got = Vec::new();
+                f.for_each_divisor(lo, hi, &mut |d| got.push(d));
+                got.sort_unstable();
+                let want: Vec<u64> = (1..=n.min(2_000_000))
+                    .filter(|d| n % d == 0 && (lo..=hi).contains(d))
+                    .chain(if n > 2_000_000 && (lo..=hi).contains(&n) { Some(n) } else { None })
+                    .collect();
+                if n <= 2_000_000 {
+                    assert_eq!(got, want, "divisors of {n} in {lo}..={hi}");
+                } else {
+                    assert!(got.iter().all(|d| n % d == 0 && (lo..=hi).contains(d)));
+                    let mut dedup = got.clone();
+                    dedup.dedup();
+                    assert_eq!(dedup.len(), got.len());
+                }
+            }
+        }
+    }
+
+    #[test]
+    fn smooth_parts_cover_the_smooth_numbers_once() {
+        let primes = primes_up_to(7);
+        let want: Vec<u64> =
+            (1..=5000u64).filter(|&k| Factored::of(k, &primes).is_some() && k >= 30).collect();
+        for parts in [1, 5, 64, 10_000] {
+            let mut got = Vec::new();
+            for part in smooth_parts(&primes, 5000, parts) {
+                part.for_each(&primes, 30, 5000, &mut |k| {
+                    assert_eq!(Factored::of(k.value(), &primes).as_ref(), Some(k));
+                    got.push(k.value());
+                    true
+                });
+            }
+            got.sort_unstable();
+            assert_eq!(got, want, "cut into {parts}");
+        }
+    }
+
+    /// Brute force: tuples of members with the weighted product.
+    fn brute(members: &[u32], n: u64, powers: &[u32]) -> u64 {
+        match powers.split_first() {
+            None => (n == 1) as u64,
+            Some((&l, rest)) => members
+                .iter()
+                .map(|&t| (t as u64).pow(l))
+                .filter(|&tl| n % tl == 0)
+                .map(|tl| brute(members, n / tl, rest))
+                .sum(),
+        }
+    }
+
+    #[test]
+    fn ordered_products_match_brute_force() {
+        let members: Vec<u32> = vec![2, 3, 4, 6, 7, 9, 10, 12];
+        let set = ToothSet::new(&members, true);
+        let primes = primes_up_to(12);
+        let shapes: [&[u32]; 14] = [
+            &[],
+            &[1],
+            &[1, 1],
+            &[1, 1, 1],
+            &[1, 1, 1, 1],
+            &[1, 1, 1, 1, 1],
+            &[1, 1, 1, 1, 1, 1],
+            &[2],
+            &[2, 1, 1],
+            &[2, 2],
+            &[3, 1],
+            &[4],
+            &[3, 2, 1],
+            &[2, 2, 1, 1],
+        ];
+        for n in 1..=5000u64 {
+            let Some(f) = Factored::of(n, &primes) else { continue };
+            for powers in shapes {
+                assert_eq!(set.ordered_products(&f, powers), brute(&members, n, powers), "{n} as {powers:?}");
+            }
+        }
+        // A product of six members near the top of the range.
+        let f = Factored::of(12u64.pow(5) * 9, &primes).unwrap();
+        assert_eq!(set.ordered_products(&f, &[1; 6]), brute(&members, f.value(), &[1; 6]));
+    }
+}
