@@ -198,30 +198,45 @@ pub struct SmoothPart {
 
 /// The numbers `1..=hi` whose prime factors all lie in `primes` (ascending), cut into at least
 /// `parts` disjoint parts (fewer only if there are fewer numbers), in a fixed order.
+///
+/// The part most likely to be largest is split first: a part's numbers are its base times
+/// numbers up to `hi / base` built from primes of at least `primes[next]`, so the smaller
+/// `base · primes[next]`, the more there are. Parts come out of similar size, which keeps a
+/// parallel pool busy and a sample of them representative.
 pub fn smooth_parts(primes: &[u32], hi: u64, parts: usize) -> Vec<SmoothPart> {
-    let mut list = vec![SmoothPart { base: Factored::ONE, next: 0, with_base: true }];
-    while list.len() < parts {
-        let mut grown = Vec::with_capacity(list.len() * 4);
-        let mut split_any = false;
-        for part in list {
-            if part.next >= primes.len() || part.base.value.saturating_mul(primes[part.next] as u64) > hi {
-                grown.push(part);
-                continue;
-            }
-            split_any = true;
-            if part.with_base {
-                grown.push(SmoothPart { next: primes.len(), ..part });
-            }
-            for_each_child(primes, part.base, part.next, hi, &mut |child, next| {
-                grown.push(SmoothPart { base: child, next, with_base: true });
-            });
+    use std::cmp::Reverse;
+    use std::collections::BinaryHeap;
+    let splittable = |part: &SmoothPart| {
+        part.next < primes.len() && part.base.value.saturating_mul(primes[part.next] as u64) <= hi
+    };
+    let weight = |part: &SmoothPart| Reverse((part.base.value.saturating_mul(primes[part.next] as u64), part.next));
+    // Parts not split (yet) live in `all`; the heap holds the splittable ones' places.
+    let mut all: Vec<Option<SmoothPart>> = Vec::new();
+    let mut heap = BinaryHeap::new();
+    let place = |part: SmoothPart, all: &mut Vec<Option<SmoothPart>>, heap: &mut BinaryHeap<_>| {
+        if splittable(&part) {
+            heap.push((weight(&part), all.len()));
         }
-        list = grown;
-        if !split_any {
-            break;
+        all.push(Some(part));
+    };
+    place(SmoothPart { base: Factored::ONE, next: 0, with_base: true }, &mut all, &mut heap);
+    let mut live = 1;
+    while live < parts {
+        let Some((_, i)) = heap.pop() else { break };
+        let Some(part) = all[i].take() else { continue };
+        live -= 1;
+        if part.with_base {
+            all.push(Some(SmoothPart { next: primes.len(), ..part }));
+            live += 1;
         }
+        for_each_child(primes, part.base, part.next, hi, &mut |child, next| {
+            place(SmoothPart { base: child, next, with_base: true }, &mut all, &mut heap);
+            live += 1;
+        });
     }
-    list
+    let mut all: Vec<SmoothPart> = all.into_iter().flatten().collect();
+    all.sort_by_key(|part| (part.base.value, part.next, part.with_base));
+    all
 }
 
 /// `base·p^e` for every prime `p` of `primes[next..]` and `e ≥ 1` within `hi`, with the index
@@ -277,6 +292,46 @@ fn walk_smooth(
         }
     });
     go
+}
+
+/// Knuth's random-probe estimate of `Σ f(k)` over the numbers `1..=hi` whose primes all lie in
+/// `primes`: each probe walks down the tree the smooth numbers form (a child multiplies in a
+/// power of a prime after the last one used) choosing children uniformly, and weighs `f` of each
+/// number on its path by the product of the branching counts above it. The mean over probes is
+/// an unbiased estimate. Probes stop after `probes`, or as soon as `keep_going(probes so far,
+/// estimate so far)` says so; the choices come from a fixed seed, so the estimate is repeatable.
+pub fn estimate_smooth_sum(
+    primes: &[u32],
+    hi: u64,
+    probes: usize,
+    keep_going: &mut dyn FnMut(usize, f64) -> bool,
+    f: &mut dyn FnMut(&Factored) -> f64,
+) -> f64 {
+    let mut seed = 0x9e37_79b9_7f4a_7c15u64;
+    let mut children: Vec<(Factored, usize)> = Vec::new();
+    let (mut total, mut done) = (0.0, 0usize);
+    while done < probes && (done == 0 || keep_going(done, total / done as f64)) {
+        let (mut node, mut next, mut weight) = (Factored::ONE, 0usize, 1.0f64);
+        let mut sum = 0.0;
+        loop {
+            sum += weight * f(&node);
+            children.clear();
+            for_each_child(primes, node, next, hi, &mut |c, after| children.push((c, after)));
+            if children.is_empty() {
+                break;
+            }
+            // xorshift64*: plenty for choosing among children.
+            seed ^= seed >> 12;
+            seed ^= seed << 25;
+            seed ^= seed >> 27;
+            let r = seed.wrapping_mul(0x2545_f491_4f6c_dd1d);
+            weight *= children.len() as f64;
+            (node, next) = children[(r % children.len() as u64) as usize];
+        }
+        total += sum;
+        done += 1;
+    }
+    total / done as f64
 }
 
 /// A set of tooth counts with tables that count ordered products of its members.
@@ -496,6 +551,19 @@ mod tests {
             got.sort_unstable();
             assert_eq!(got, want, "cut into {parts}");
         }
+    }
+
+    #[test]
+    fn probe_estimate_is_near_the_true_count() {
+        let primes = primes_up_to(50);
+        let hi = 2_000_000u64;
+        let truth = (1..=hi).filter(|&k| Factored::of(k, &primes).is_some()).count() as f64;
+        let est = estimate_smooth_sum(&primes, hi, 200_000, &mut |_, _| true, &mut |_| 1.0);
+        assert!((est / truth - 1.0).abs() < 0.1, "estimate {est}, truth {truth}");
+        // Summing k itself, too.
+        let truth_sum: f64 = (1..=hi).filter(|&k| Factored::of(k, &primes).is_some()).map(|k| k as f64).sum();
+        let est_sum = estimate_smooth_sum(&primes, hi, 200_000, &mut |_, _| true, &mut |k| k.value() as f64);
+        assert!((est_sum / truth_sum - 1.0).abs() < 0.15, "estimate {est_sum}, truth {truth_sum}");
     }
 
     /// Brute force: tuples of members with the weighted product.

@@ -343,7 +343,7 @@ fn forecast(job: &SearchJob) -> anyhow::Result<()> {
     let Some(one) = e.seconds_one_thread else { return Ok(()) };
     let threads = job.print.threads.map_or_else(rayon::current_num_threads, usize::from).max(1);
     let mut wall = one / threads as f64;
-    if let Some(s) = job.shard {
+    if let Some(s) = job.shard.filter(|_| e.shardable) {
         wall /= s.count as f64;
     }
     let what = format!(
@@ -354,12 +354,13 @@ fn forecast(job: &SearchJob) -> anyhow::Result<()> {
         e.combinations
     );
     if wall > REFUSE_ABOVE_S && !job.long {
+        let split = if e.shardable { "split it with --shard I/N, " } else { "" };
         return Err(Error::flag(
             "--long",
             format!(
                 "this search would take {what}; narrow it (fewer --stages, a narrower --teeth range, \
-                 --driver-teeth or --stage-ratio limits, a tighter --tol), split it with --shard I/N, \
-                 or give --long to run it anyway"
+                 --driver-teeth or --stage-ratio limits, a tighter --tol), {split}or give --long to run it \
+                 anyway"
             ),
         )
         .into());

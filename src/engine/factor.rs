@@ -32,7 +32,7 @@ use std::collections::BTreeMap;
 use rayon::prelude::*;
 
 use super::{Keeper, SearchSpace};
-use crate::factors::{primes_up_to, smooth_parts, Factored, ToothSet};
+use crate::factors::{estimate_smooth_sum, primes_up_to, smooth_parts, Factored, SmoothPart, ToothSet};
 use crate::pool::MAX_STAGES;
 use crate::rank::Candidate;
 use crate::rational::RelError;
@@ -135,66 +135,95 @@ impl Factor {
         (lo.max(1), hi)
     }
 
+    /// The work of counting the `n`-stage trains: Burnside's terms and the parts of the sum
+    /// over `k`.
+    pub fn work(&self, n: usize) -> Work {
+        let mut constant = 0;
+        let mut terms = Vec::new();
+        for (powers, coef) in cycle_terms(n, self.both) {
+            if powers.is_empty() {
+                // No stage left: the empty product, which hits only the target 1.
+                if self.parts.is_some_and(|(p, q)| p.value() == 1 && q.value() == 1) {
+                    constant += coef;
+                }
+                continue;
+            }
+            let (k_lo, k_hi) = self.k_range(powers.iter().sum());
+            if k_lo <= k_hi && self.parts.is_some() {
+                terms.push(Term { powers, coef, k_lo, k_hi });
+            }
+        }
+        let k_lo = terms.iter().map(|t| t.k_lo).min().unwrap_or(1);
+        let k_hi = terms.iter().map(|t| t.k_hi).max().unwrap_or(0);
+        let parts = if terms.is_empty() { Vec::new() } else { smooth_parts(&self.primes, k_hi, PARTS) };
+        Work { n, constant, terms, k_lo, k_hi, parts }
+    }
+
+    /// Burnside's sum over one part of the `k`, or `None` when the search was stopped.
+    pub fn part_sum(&self, space: &SearchSpace, work: &Work, part: usize) -> Option<i128> {
+        let mut sum = 0i128;
+        let mut seen = 0u32;
+        let done = work.parts[part].for_each(&self.primes, work.k_lo, work.k_hi, &mut |k| {
+            seen += 1;
+            if seen % CANCEL_EVERY == 0 && space.cancelled() {
+                return false;
+            }
+            sum += self.k_sum(work, k);
+            true
+        });
+        done.then_some(sum)
+    }
+
+    /// Burnside's sum for one `k`: every term's ordered products on both sides.
+    fn k_sum(&self, work: &Work, k: &Factored) -> i128 {
+        let Some((p, q)) = &self.parts else { return 0 };
+        // k is within the largest term's bound, so the products fit.
+        let (Some(driven), Some(driver)) = (k.mul(p), k.mul(q)) else { return 0 };
+        let mut sum = 0;
+        for t in &work.terms {
+            if (t.k_lo..=t.k_hi).contains(&k.value()) {
+                let a = self.driven.ordered_products(&driven, &t.powers);
+                if a > 0 {
+                    sum += t.coef * a as i128 * self.driver.ordered_products(&driver, &t.powers) as i128;
+                }
+            }
+        }
+        sum
+    }
+
+    /// Forecast the seconds one thread needs for [`Factor::count`] on `work`: Knuth's probe
+    /// estimate of the time to evaluate every `k`, each probed `k` timed, probing for about
+    /// `budget`, or less once a few hundred probes agree that it is quick.
+    pub fn forecast_seconds(&self, work: &Work, budget: std::time::Duration) -> f64 {
+        /// Below this many seconds a count is quick, and the forecast need not be sharp.
+        const QUICK_S: f64 = 5.0;
+        if work.terms.is_empty() {
+            return 0.0;
+        }
+        let start = std::time::Instant::now();
+        let mut keep_going =
+            |probes: usize, seconds: f64| start.elapsed() < budget && (probes < 500 || seconds > QUICK_S);
+        estimate_smooth_sum(&self.primes, work.k_hi, usize::MAX, &mut keep_going, &mut |k| {
+            if k.value() < work.k_lo {
+                return 0.0;
+            }
+            let t = std::time::Instant::now();
+            std::hint::black_box(self.k_sum(work, k));
+            t.elapsed().as_secs_f64()
+        })
+    }
+
     /// The number of `n`-stage trains that hit the target, or `None` when the search was
     /// stopped before it was known.
     pub fn count(&self, space: &SearchSpace, n: usize) -> Option<u64> {
-        let terms: Vec<(Vec<u32>, i128, (u64, u64))> = cycle_terms(n, self.both)
-            .into_iter()
-            .map(|(powers, coef)| {
-                let range = self.k_range(powers.iter().sum());
-                (powers, coef, range)
-            })
-            .collect();
-        // The term with no stage left counts the empty product: 1 when the target is 1.
-        let mut total: i128 =
-            terms
-                .iter()
-                .filter(|(powers, _, _)| powers.is_empty())
-                .map(|(_, coef, _)| {
-                    if self.parts.is_some_and(|(p, q)| p.value() == 1 && q.value() == 1) {
-                        *coef
-                    } else {
-                        0
-                    }
-                })
-                .sum();
-        if let Some((p, q)) = &self.parts {
-            let live: Vec<&(Vec<u32>, i128, (u64, u64))> =
-                terms.iter().filter(|(powers, _, (lo, hi))| !powers.is_empty() && lo <= hi).collect();
-            let k_lo = live.iter().map(|t| t.2 .0).min().unwrap_or(1);
-            let k_hi = live.iter().map(|t| t.2 .1).max().unwrap_or(0);
-            // The parts differ widely in size (the first hold most small k), so each is its own
-            // task.
-            let sums: Vec<Option<i128>> = smooth_parts(&self.primes, k_hi, PARTS)
-                .par_iter()
-                .with_max_len(1)
-                .map(|part| {
-                    let mut sum = 0i128;
-                    let mut seen = 0u32;
-                    let done = part.for_each(&self.primes, k_lo, k_hi, &mut |k| {
-                        seen += 1;
-                        if seen % CANCEL_EVERY == 0 && space.cancelled() {
-                            return false;
-                        }
-                        // k is within every live range's bound, so the products fit.
-                        let (Some(driven), Some(driver)) = (k.mul(p), k.mul(q)) else { return true };
-                        for (powers, coef, (lo, hi)) in &live {
-                            if (*lo..=*hi).contains(&k.value()) {
-                                let a = self.driven.ordered_products(&driven, powers);
-                                if a > 0 {
-                                    let b = self.driver.ordered_products(&driver, powers);
-                                    sum += coef * a as i128 * b as i128;
-                                }
-                            }
-                        }
-                        true
-                    });
-                    done.then_some(sum)
-                })
-                .collect();
-            for s in sums {
-                total += s?;
-            }
+        let work = self.work(n);
+        // The parts differ widely in size (the first hold most small k), so each is its own
+        // task.
+        let sums: Vec<Option<i128>> =
+            (0..work.parts.len()).into_par_iter().with_max_len(1).map(|i| self.part_sum(space, &work, i)).collect();
+        let mut total = work.constant;
+        for s in sums {
+            total += s?;
         }
         let orderings: i128 = (1..=n as i128).product();
         debug_assert_eq!(total % orderings, 0, "Burnside's sum is a multiple of n!");
@@ -331,6 +360,37 @@ impl Factor {
             self.pair_from(d, at + 1, left, chosen, idx, visit);
             left[j].1 += 1;
         }
+    }
+}
+
+/// One term of Burnside's sum: tuples constant on cycles of these lengths, with the range of
+/// `k` their products allow.
+struct Term {
+    powers: Vec<u32>,
+    coef: i128,
+    k_lo: u64,
+    k_hi: u64,
+}
+
+/// The count of one stage count's trains, cut into parts (see [`Factor::work`]).
+pub struct Work {
+    n: usize,
+    constant: i128,
+    terms: Vec<Term>,
+    k_lo: u64,
+    k_hi: u64,
+    parts: Vec<SmoothPart>,
+}
+
+impl Work {
+    /// The stage count.
+    pub fn stages(&self) -> usize {
+        self.n
+    }
+
+    /// How many parts.
+    pub fn parts(&self) -> usize {
+        self.parts.len()
     }
 }
 
