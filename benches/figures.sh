@@ -30,12 +30,18 @@ run_case "2 stages, 12..150, 0.1%" --ratio 37.5 --tol 0.1% --teeth 12..150 --sta
 run_case "3 stages, 12..150, 10 ppm" --ratio 37.5 --tol 10ppm --teeth 12..150 --stages 3
 run_case "3 stages, 12..150, 10 ppm, sieve engine" --ratio 37.5 --tol 10ppm --teeth 12..150 --stages 3 --engine sieve
 run_case "4 stages, 12..150, 1 ppm" --ratio 29.530588 --tol 1ppm --teeth 12..150 --stages 4
-run_case "exact 127/120, 1..3 stages, 12..200" --ratio 127/120 --teeth 12..200 --stages 1..3
-run_case "exact 366/365, 1..3 stages, 12..200" --ratio 366/365 --teeth 12..200 --stages 1..3
-run_case "exhaustive engine, 2 stages, 12..200, 10 ppm" --ratio 7.3 --tol 10ppm --teeth 12..200 --stages 2 --engine exhaustive
-run_case "fast engine, same space" --ratio 7.3 --tol 10ppm --teeth 12..200 --stages 2
+run_case "exact 127/120, 1..4 stages, 12..200" --ratio 127/120 --teeth 12..200 --stages 1..4
+run_case "exact 366/365, 1..4 stages, 12..200" --ratio 366/365 --teeth 12..200 --stages 1..4
+run_case "exact 7/5, 4 stages, 12..48, sieve engine" --ratio 7/5 --teeth 12..48 --stages 4 --engine sieve
+run_case "fast (factor) engine, same space" --ratio 7/5 --teeth 12..48 --stages 4
+run_case "exhaustive engine, 2 stages, 12..240, 10 ppm" --ratio 7.3 --tol 10ppm --teeth 12..240 --stages 2 --engine exhaustive
+run_case "fast engine, same space" --ratio 7.3 --tol 10ppm --teeth 12..240 --stages 2
 for w in 40 80 140; do
     for n in 1 2 3 4; do
         run_case "scaling: $w tooth counts, $n stages, 1 ppm" --ratio 29.530588 --tol 1ppm --teeth 12..$((11 + w)) --stages $n
     done
 done
+for hi in 150 200 300 400; do
+    run_case "scaling, exact 127/120: teeth 12..$hi, 4 stages" --ratio 127/120 --teeth 12..$hi --stages 4 --long
+done
+run_case "scaling, exact 127/120: teeth 12..160, 5 stages" --ratio 127/120 --teeth 12..160 --stages 5 --long

@@ -41,6 +41,24 @@ fn benches(c: &mut Criterion) {
     g.bench_function("sieve 3 stages 12..150 10ppm", |b| {
         b.iter(|| assert!(search(&three, EngineKind::Sieve, &RunOptions::default()).count > 1_000_000))
     });
+
+    // Exact targets: the factor engine counts every train without visiting it. Side by side
+    // with the sieve on a space the sieve finishes, then alone on one it cannot.
+    let exact_small = problem("7/5", "0", (12, 48), (4, 4));
+    let by_sieve = search(&exact_small, EngineKind::Sieve, &RunOptions::default());
+    assert!(by_sieve.count > 100_000);
+    g.bench_function("sieve 4 stages 12..48 7/5 exact", |b| {
+        b.iter(|| assert_eq!(search(&exact_small, EngineKind::Sieve, &RunOptions::default()), by_sieve))
+    });
+    g.bench_function("fast (factor) 4 stages 12..48 7/5 exact", |b| {
+        b.iter(|| assert_eq!(search(&exact_small, EngineKind::Fast, &RunOptions::default()), by_sieve))
+    });
+    let exact = problem("127/120", "0", (12, 200), (4, 4));
+    g.bench_function("fast (factor) 4 stages 12..200 127/120 exact", |b| {
+        // The same count comes from an independent convolution of value-pair products with
+        // Burnside's repeat terms (tests/published.rs says how).
+        b.iter(|| assert_eq!(search(&exact, EngineKind::Fast, &RunOptions::default()).count, 4_011_513_973))
+    });
     g.finish();
 }
 

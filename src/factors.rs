@@ -209,7 +209,8 @@ pub fn smooth_parts(primes: &[u32], hi: u64, parts: usize) -> Vec<SmoothPart> {
     let splittable = |part: &SmoothPart| {
         part.next < primes.len() && part.base.value.saturating_mul(primes[part.next] as u64) <= hi
     };
-    let weight = |part: &SmoothPart| Reverse((part.base.value.saturating_mul(primes[part.next] as u64), part.next));
+    let weight =
+        |part: &SmoothPart| Reverse((part.base.value.saturating_mul(primes[part.next] as u64), part.next));
     // Parts not split (yet) live in `all`; the heap holds the splittable ones' places.
     let mut all: Vec<Option<SmoothPart>> = Vec::new();
     let mut heap = BinaryHeap::new();

@@ -308,3 +308,109 @@ fn factor_engine_equals_exhaustive_on_five_and_six_stages() {
         assert_eq!(run(&p, EngineKind::Fast), slow, "{ratio}");
     }
 }
+
+/// The factor engine against the sieve, an engine that finds each train by walking stages, on
+/// four stages over a range too wide for the exhaustive reference in a test.
+#[test]
+fn factor_engine_agrees_with_the_sieve_on_four_stages() {
+    for (ratio, rank) in
+        [("7/5", DEFAULT_RANK.to_vec()), ("37/30", vec![RankKey::Span]), ("1", vec![RankKey::Error])]
+    {
+        let pool = Pool::to_cut(IntRange { lo: 12, hi: 40 }, 1.0, 20.0, None).unwrap();
+        let target = Target::parse(ratio, "0", "--ratio", "--tol").unwrap();
+        let p = Problem::new(target, pool, IntRange { lo: 4, hi: 4 }, StageLimits::default(), None, rank, 20)
+            .unwrap();
+        let sieve = run(&p, EngineKind::Sieve);
+        assert!(sieve.count > 1000, "{ratio}: {}", sieve.count);
+        assert_eq!(run(&p, EngineKind::Fast), sieve, "{ratio}");
+    }
+}
+
+/// Four-stage trains of `lo..=hi` teeth hitting `p/q` exactly, counted by a route that shares
+/// nothing with the factor engine: stage ratios folded into distinct reduced values with
+/// multiplicities, ordered stage 4-tuples from a convolution of value-pair products, and
+/// Burnside's lemma (cycle index of S₄) with its repeat terms taken from the value table.
+fn four_stage_count_by_value_pairs(lo: u64, hi: u64, p: u64, q: u64) -> u128 {
+    use std::collections::HashMap;
+    fn gcd(a: u64, b: u64) -> u64 {
+        if b == 0 {
+            a
+        } else {
+            gcd(b, a % b)
+        }
+    }
+    let reduce = |n: u64, d: u64| {
+        let g = gcd(n, d);
+        (n / g, d / g)
+    };
+    let mut values: HashMap<(u64, u64), u128> = HashMap::new();
+    for driver in lo..=hi {
+        for driven in (lo..=hi).filter(|&d| d != driver) {
+            *values.entry(reduce(driven, driver)).or_default() += 1;
+        }
+    }
+    let mut pairs: HashMap<(u64, u64), u128> = HashMap::new();
+    for (&(a, b), &ma) in &values {
+        for (&(c, d), &mc) in &values {
+            *pairs.entry(reduce(a * c, b * d)).or_default() += ma * mc;
+        }
+    }
+    let get = |map: &HashMap<(u64, u64), u128>, n: u64, d: u64| map.get(&reduce(n, d)).copied().unwrap_or(0);
+    let isqrt = |x: u64| (0..=x).find(|r| r * r >= x).filter(|r| r * r == x);
+    // Identity: any four stages in order. (x)(y z w)… cycle types: [2,1,1], [2,2], [3,1], [4].
+    let f1111: u128 = pairs.iter().map(|(&(n, d), &c)| c * get(&pairs, p * d, q * n)).sum();
+    let (mut f211, mut f22, mut f31, mut f4) = (0u128, 0u128, 0u128, 0u128);
+    for (&(a, b), &m) in &values {
+        f211 += m * get(&pairs, p * b * b, q * a * a);
+        f31 += m * get(&values, p * b * b * b, q * a * a * a);
+        f4 += m * (a.pow(4) * q == b.pow(4) * p) as u128;
+        let (n, d) = reduce(p * b * b, q * a * a);
+        if let (Some(rn), Some(rd)) = (isqrt(n), isqrt(d)) {
+            f22 += m * get(&values, rn, rd);
+        }
+    }
+    let sum = f1111 + 6 * f211 + 3 * f22 + 8 * f31 + 6 * f4;
+    assert_eq!(sum % 24, 0);
+    sum / 24
+}
+
+fn factor_count(lo: u32, hi: u32, ratio: &str) -> u64 {
+    let pool = Pool::to_cut(IntRange { lo, hi }, 1.0, 20.0, None).unwrap();
+    let target = Target::parse(ratio, "0", "--ratio", "--tol").unwrap();
+    let p = Problem::new(
+        target,
+        pool,
+        IntRange { lo: 4, hi: 4 },
+        StageLimits::default(),
+        None,
+        DEFAULT_RANK.to_vec(),
+        1,
+    )
+    .unwrap();
+    run(&p, EngineKind::Fast).count
+}
+
+#[test]
+fn factor_counts_agree_with_a_convolution_of_value_pairs() {
+    for (lo, hi, p, q) in
+        [(12, 50, 7, 5), (12, 50, 1, 1), (12, 64, 61, 60), (20, 64, 37, 30), (12, 64, 64, 27)]
+    {
+        let want = four_stage_count_by_value_pairs(lo, hi, p, q);
+        assert!(want > 0, "{p}/{q} over {lo}..{hi}");
+        assert_eq!(
+            factor_count(lo as u32, hi as u32, &format!("{p}/{q}")) as u128,
+            want,
+            "{p}/{q} over {lo}..{hi}"
+        );
+    }
+}
+
+/// The figure the benchmark asserts. Slow (minutes) and large (a few GiB): run by hand with
+/// `cargo test --release --test engines -- --ignored`.
+#[test]
+#[ignore]
+fn factor_count_of_127_over_120_on_four_stages_of_12_to_200() {
+    let want = four_stage_count_by_value_pairs(12, 200, 127, 120);
+    assert_eq!(want, 4_011_513_973);
+    assert_eq!(factor_count(12, 200, "127/120") as u128, want);
+}

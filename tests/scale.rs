@@ -177,3 +177,40 @@ fn a_closed_pipe_ends_quietly() {
     assert_eq!(out.status.code(), Some(0));
     assert!(out.stderr.is_empty(), "{}", String::from_utf8_lossy(&out.stderr));
 }
+
+/// Four stages of 12..150 teeth hitting 127/120 exactly: the count the factor engine gives was
+/// found the same by the meet engine (which spells out value sequences) and by a convolution
+/// of value-pair products (tests/engines.rs); the smallest trains need the 127-tooth gear once.
+#[test]
+fn exact_four_stage_trains_are_counted_and_the_smallest_listed() {
+    let (code, v) =
+        json(&["search", "--ratio", "127/120", "--teeth", "12..150", "--stages", "4", "--limit", "3"]);
+    assert_eq!(code, 0);
+    assert_eq!(v["count"], 925_685_350u64);
+    let trains = v["trains"].as_array().unwrap();
+    assert_eq!(trains.len(), 3);
+    for t in trains {
+        assert_eq!(t["ratio"], "127/120");
+        assert_eq!(t["size"], 249);
+        let driven: Vec<u64> =
+            t["stages"].as_array().unwrap().iter().map(|s| s["driven"].as_u64().unwrap()).collect();
+        assert_eq!(driven.iter().filter(|&&z| z == 127).count(), 1, "{driven:?}");
+    }
+    // Split runs of an exact search merge into the same result.
+    let args = ["search", "--ratio", "366/365", "--teeth", "12..120", "--stages", "1..4", "--format", "json"];
+    let whole = gearsieve(&args);
+    assert_eq!(whole.code, 0, "{}", whole.stderr);
+    let dir = tempfile::tempdir().unwrap();
+    let files: Vec<String> = (1..=3)
+        .map(|i| {
+            let part = gearsieve(&[&args[..], &["--shard", &format!("{i}/3")]].concat());
+            assert_eq!(part.code, 0, "{}", part.stderr);
+            write(&dir, &format!("part{i}.json"), &part.stdout)
+        })
+        .collect();
+    let mut merge_args = vec!["merge"];
+    merge_args.extend(files.iter().map(String::as_str));
+    let merged = gearsieve(&merge_args);
+    assert_eq!(merged.code, 0, "{}", merged.stderr);
+    assert_eq!(merged.stdout, whole.stdout);
+}

@@ -219,8 +219,11 @@ impl Factor {
         let work = self.work(n);
         // The parts differ widely in size (the first hold most small k), so each is its own
         // task.
-        let sums: Vec<Option<i128>> =
-            (0..work.parts.len()).into_par_iter().with_max_len(1).map(|i| self.part_sum(space, &work, i)).collect();
+        let sums: Vec<Option<i128>> = (0..work.parts.len())
+            .into_par_iter()
+            .with_max_len(1)
+            .map(|i| self.part_sum(space, &work, i))
+            .collect();
         let mut total = work.constant;
         for s in sums {
             total += s?;
