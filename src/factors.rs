@@ -196,48 +196,34 @@ pub struct SmoothPart {
     with_base: bool,
 }
 
-/// The numbers `1..=hi` whose prime factors all lie in `primes` (ascending), cut into at least
-/// `parts` disjoint parts (fewer only if there are fewer numbers), in a fixed order.
-///
-/// The part most likely to be largest is split first: a part's numbers are its base times
-/// numbers up to `hi / base` built from primes of at least `primes[next]`, so the smaller
-/// `base · primes[next]`, the more there are. Parts come out of similar size, which keeps a
-/// parallel pool busy and a sample of them representative.
-pub fn smooth_parts(primes: &[u32], hi: u64, parts: usize) -> Vec<SmoothPart> {
-    use std::cmp::Reverse;
-    use std::collections::BinaryHeap;
-    let splittable = |part: &SmoothPart| {
-        part.next < primes.len() && part.base.value.saturating_mul(primes[part.next] as u64) <= hi
-    };
-    let weight =
-        |part: &SmoothPart| Reverse((part.base.value.saturating_mul(primes[part.next] as u64), part.next));
-    // Parts not split (yet) live in `all`; the heap holds the splittable ones' places.
-    let mut all: Vec<Option<SmoothPart>> = Vec::new();
-    let mut heap = BinaryHeap::new();
-    let place = |part: SmoothPart, all: &mut Vec<Option<SmoothPart>>, heap: &mut BinaryHeap<_>| {
-        if splittable(&part) {
-            heap.push((weight(&part), all.len()));
+/// The numbers `1..=hi` whose prime factors all lie in `primes` (ascending), cut into disjoint
+/// parts of at most `most` numbers each (a part that cannot be cut further may hold more), in
+/// a fixed order. A part is cut into its base and its children when a count of its numbers,
+/// stopped at `most + 1`, finds too many; so cutting costs about one pass over the numbers.
+pub fn smooth_parts(primes: &[u32], hi: u64, most: u64) -> Vec<SmoothPart> {
+    let mut parts = Vec::new();
+    let mut pending = vec![SmoothPart { base: Factored::ONE, next: 0, with_base: true }];
+    while let Some(part) = pending.pop() {
+        let mut seen = 0u64;
+        let small = part.for_each(primes, 1, hi, &mut |_| {
+            seen += 1;
+            seen <= most
+        });
+        let splittable =
+            part.next < primes.len() && part.base.value.saturating_mul(primes[part.next] as u64) <= hi;
+        if small || !splittable {
+            parts.push(part);
+            continue;
         }
-        all.push(Some(part));
-    };
-    place(SmoothPart { base: Factored::ONE, next: 0, with_base: true }, &mut all, &mut heap);
-    let mut live = 1;
-    while live < parts {
-        let Some((_, i)) = heap.pop() else { break };
-        let Some(part) = all[i].take() else { continue };
-        live -= 1;
         if part.with_base {
-            all.push(Some(SmoothPart { next: primes.len(), ..part }));
-            live += 1;
+            parts.push(SmoothPart { next: primes.len(), ..part });
         }
         for_each_child(primes, part.base, part.next, hi, &mut |child, next| {
-            place(SmoothPart { base: child, next, with_base: true }, &mut all, &mut heap);
-            live += 1;
+            pending.push(SmoothPart { base: child, next, with_base: true });
         });
     }
-    let mut all: Vec<SmoothPart> = all.into_iter().flatten().collect();
-    all.sort_by_key(|part| (part.base.value, part.next, part.with_base));
-    all
+    parts.sort_by_key(|part| (part.base.value, part.next, part.with_base));
+    parts
 }
 
 /// `base·p^e` for every prime `p` of `primes[next..]` and `e ≥ 1` within `hi`, with the index
@@ -540,9 +526,21 @@ mod tests {
         let primes = primes_up_to(7);
         let want: Vec<u64> =
             (1..=5000u64).filter(|&k| Factored::of(k, &primes).is_some() && k >= 30).collect();
-        for parts in [1, 5, 64, 10_000] {
+        for most in [1, 5, 64, 10_000] {
             let mut got = Vec::new();
-            for part in smooth_parts(&primes, 5000, parts) {
+            let parts = smooth_parts(&primes, 5000, most);
+            for part in &parts {
+                let mut size = 0;
+                part.for_each(&primes, 1, 5000, &mut |_| {
+                    size += 1;
+                    true
+                });
+                assert!(
+                    size <= most || part.next >= primes.len(),
+                    "a part of {size} numbers, at most {most} wanted"
+                );
+            }
+            for part in parts {
                 part.for_each(&primes, 30, 5000, &mut |k| {
                     assert_eq!(Factored::of(k.value(), &primes).as_ref(), Some(k));
                     got.push(k.value());
@@ -550,7 +548,7 @@ mod tests {
                 });
             }
             got.sort_unstable();
-            assert_eq!(got, want, "cut into {parts}");
+            assert_eq!(got, want, "parts of at most {most}");
         }
     }
 

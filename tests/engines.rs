@@ -274,6 +274,23 @@ fn exact_problem_strategy(max_stages: u32, max_width: u32) -> impl Strategy<Valu
 proptest! {
     #![proptest_config(ProptestConfig { cases: 300, ..ProptestConfig::default() })]
 
+    /// Split runs of exact searches (the factor engine's units) merge into the unsplit run.
+    #[test]
+    fn exact_shards_merge_to_the_unsplit_run(p in exact_problem_strategy(4, 9), parts in 1u32..5) {
+        use gearsieve::engine::Shard;
+        use gearsieve::output::{json, Report};
+        let doc_of = |shard: Option<Shard>| {
+            let o = search(&p, EngineKind::Fast, &RunOptions { shard, ..RunOptions::default() });
+            json::doc(&Report { problem: &p, outcome: &o, explain: false, shard })
+        };
+        let whole = doc_of(None);
+        let docs: Vec<(String, json::Doc)> = (1..=parts)
+            .map(|i| (format!("part{i}"), doc_of(Some(Shard { index: i, count: parts }))))
+            .collect();
+        prop_assert_eq!(docs.iter().map(|(_, d)| d.count).sum::<u64>(), whole.count);
+        prop_assert_eq!(gearsieve::merge::merge(docs).unwrap(), whole);
+    }
+
     /// The factor engine counts and lists exactly what the exhaustive engine finds.
     #[test]
     fn factor_engine_equals_exhaustive(p in exact_problem_strategy(4, 9)) {

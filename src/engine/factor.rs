@@ -41,8 +41,9 @@ use crate::rational::RelError;
 /// ordered triples has (teeth)³ entries, 66 MB at this bound.
 pub const MAX_TEETH_FOR_SIX_STAGES: u32 = 255;
 
-/// Parts the sum over `k` is cut into, for the parallel pool.
-const PARTS: usize = 512;
+/// Most values of `k` in one part of the sum: parts are tasks for the parallel pool and ticks
+/// of the progress bar.
+const PART_SIZE: u64 = 1 << 14;
 
 /// How many values of `k` pass between two looks at the stop flag.
 const CANCEL_EVERY: u32 = 1 << 12;
@@ -117,13 +118,15 @@ impl Factor {
         (1..=MAX_STAGES).contains(&n) && self.driven.supports(n as u32) && self.driver.supports(n as u32)
     }
 
-    /// Count the `n`-stage trains into `keep` and offer those that could be listed.
-    pub(crate) fn run(&self, space: &SearchSpace, n: usize, keep: &mut Keeper) {
-        let Some(count) = self.count(space, n) else { return };
+    /// Count the trains of `work` into `keep` and offer those that could be listed, calling
+    /// `tick` once per part of the count and once for the listing.
+    pub(crate) fn run(&self, space: &SearchSpace, work: &Work, keep: &mut Keeper, tick: &(dyn Fn() + Sync)) {
+        let Some(count) = self.count(space, work, tick) else { return };
         keep.add_count(count);
         if count > 0 {
-            self.list(space, n, keep);
+            self.list(space, work.n, keep);
         }
+        tick();
     }
 
     /// The range of `k` for products of `factors` teeth on each side (empty when `lo > hi`).
@@ -135,9 +138,9 @@ impl Factor {
         (lo.max(1), hi)
     }
 
-    /// The work of counting the `n`-stage trains: Burnside's terms and the parts of the sum
-    /// over `k`.
-    pub fn work(&self, n: usize) -> Work {
+    /// The work of counting the `n`-stage trains: Burnside's terms and, when `cut`, the parts
+    /// of the sum over `k` (cutting costs about a pass over the `k`; a forecast needs no parts).
+    pub fn work(&self, n: usize, cut: bool) -> Work {
         let mut constant = 0;
         let mut terms = Vec::new();
         for (powers, coef) in cycle_terms(n, self.both) {
@@ -155,7 +158,8 @@ impl Factor {
         }
         let k_lo = terms.iter().map(|t| t.k_lo).min().unwrap_or(1);
         let k_hi = terms.iter().map(|t| t.k_hi).max().unwrap_or(0);
-        let parts = if terms.is_empty() { Vec::new() } else { smooth_parts(&self.primes, k_hi, PARTS) };
+        let parts =
+            if terms.is_empty() || !cut { Vec::new() } else { smooth_parts(&self.primes, k_hi, PART_SIZE) };
         Work { n, constant, terms, k_lo, k_hi, parts }
     }
 
@@ -213,16 +217,19 @@ impl Factor {
         })
     }
 
-    /// The number of `n`-stage trains that hit the target, or `None` when the search was
-    /// stopped before it was known.
-    pub fn count(&self, space: &SearchSpace, n: usize) -> Option<u64> {
-        let work = self.work(n);
-        // The parts differ widely in size (the first hold most small k), so each is its own
-        // task.
+    /// The number of trains of `work` that hit the target, or `None` when the search was
+    /// stopped before it was known; `tick` is called after each part.
+    pub fn count(&self, space: &SearchSpace, work: &Work, tick: &(dyn Fn() + Sync)) -> Option<u64> {
+        let n = work.n;
+        // The parts differ in size, so each is its own task.
         let sums: Vec<Option<i128>> = (0..work.parts.len())
             .into_par_iter()
             .with_max_len(1)
-            .map(|i| self.part_sum(space, &work, i))
+            .map(|i| {
+                let sum = self.part_sum(space, work, i);
+                tick();
+                sum
+            })
             .collect();
         let mut total = work.constant;
         for s in sums {
@@ -394,6 +401,11 @@ impl Work {
     /// How many parts.
     pub fn parts(&self) -> usize {
         self.parts.len()
+    }
+
+    /// Progress ticks of a run: one per part and one for the listing.
+    pub fn ticks(&self) -> u64 {
+        self.parts.len() as u64 + 1
     }
 }
 

@@ -482,6 +482,22 @@ struct MeetData {
 struct EngineData {
     meet: Option<MeetData>,
     factor: Option<factor::Factor>,
+    /// The factor engine's work, one per stage count it takes.
+    works: Vec<factor::Work>,
+}
+
+impl EngineData {
+    fn work(&self, n: usize) -> Option<&factor::Work> {
+        self.works.iter().find(|w| w.stages() == n)
+    }
+
+    /// Progress ticks of a unit: one, or the factor engine's parts and listing.
+    fn ticks(&self, unit: &Unit) -> u64 {
+        match unit {
+            Unit::Factor(n) => self.work(*n).map_or(1, factor::Work::ticks),
+            _ => 1,
+        }
+    }
 }
 
 /// The stage counts the factor engine takes, and its tables (exact targets only).
@@ -526,8 +542,16 @@ fn plan(
             _ => all.extend((0..space.stages.len()).map(|f| Unit::Visit(n, f))),
         }
     }
-    let units = all.into_iter().enumerate().filter(|(k, _)| in_shard(*k, shard)).map(|(_, u)| u).collect();
-    (units, EngineData { meet, factor })
+    let units: Vec<Unit> =
+        all.into_iter().enumerate().filter(|(k, _)| in_shard(*k, shard)).map(|(_, u)| u).collect();
+    let works = match &factor {
+        Some(f) => units
+            .iter()
+            .filter_map(|u| if let Unit::Factor(n) = u { Some(f.work(*n, true)) } else { None })
+            .collect(),
+        None => Vec::new(),
+    };
+    (units, EngineData { meet, factor, works })
 }
 
 /// The stage counts the meet engine may take (four only if its pair table could be built),
@@ -613,33 +637,39 @@ pub fn search(problem: &Problem, engine: EngineKind, options: &RunOptions) -> Ou
         pairs: d.pairs.as_ref(),
         judged: &judged,
     });
-    let total = units.len() as u64;
+    let total = units.iter().map(|u| data.ticks(u)).sum();
     let done = AtomicU64::new(0);
+    let tick = || {
+        let d = done.fetch_add(1, AtomicOrdering::Relaxed) + 1;
+        if let Some(p) = options.progress {
+            p(Progress { done: d, total });
+        }
+    };
     let kept = units
         .par_iter()
         .with_max_len(1)
         .fold(
             || Keeper::new(problem),
             |mut keep, unit| {
-                if !space.cancelled() {
-                    match (*unit, &meet) {
-                        (Unit::Visit(n, first), _) => engine.visit_unit(&space, n, first, &mut |idx| {
-                            if let Some(c) = space.judge(idx) {
-                                keep.push(c);
-                            }
-                        }),
-                        (Unit::Meet(u), Some(m)) => m.run(u, &mut keep),
-                        (Unit::Meet(_), None) => unreachable!("meet units come with their data"),
-                        (Unit::Factor(n), _) => match &data.factor {
-                            Some(f) => f.run(&space, n, &mut keep),
-                            None => unreachable!("factor units come with their data"),
-                        },
-                    }
+                match (*unit, &meet) {
+                    _ if space.cancelled() => {}
+                    (Unit::Visit(n, first), _) => engine.visit_unit(&space, n, first, &mut |idx| {
+                        if let Some(c) = space.judge(idx) {
+                            keep.push(c);
+                        }
+                    }),
+                    (Unit::Meet(u), Some(m)) => m.run(u, &mut keep),
+                    (Unit::Meet(_), None) => unreachable!("meet units come with their data"),
+                    (Unit::Factor(n), _) => match (&data.factor, data.work(n)) {
+                        (Some(f), Some(w)) => {
+                            // It ticks as it goes.
+                            f.run(&space, w, &mut keep, &tick);
+                            return keep;
+                        }
+                        _ => unreachable!("factor units come with their data"),
+                    },
                 }
-                let d = done.fetch_add(1, AtomicOrdering::Relaxed) + 1;
-                if let Some(p) = options.progress {
-                    p(Progress { done: d, total });
-                }
+                tick();
                 keep
             },
         )
@@ -674,8 +704,7 @@ pub fn search(problem: &Problem, engine: EngineKind, options: &RunOptions) -> Ou
 pub struct Estimate {
     /// Stage combinations in the whole space (before any pruning), summed over stage counts.
     pub combinations: f64,
-    /// Units of work sampled: those of the unit-by-unit engines and the parts of the factor
-    /// engine's counts.
+    /// Units of work: those of the unit-by-unit engines and the factor engine's counts.
     pub units: usize,
     /// Projected time on one thread, seconds; `None` when the search is sure to be quick (the
     /// meet engine covers every stage count, or the space is small).
@@ -708,8 +737,8 @@ pub fn estimate(problem: &Problem, engine: EngineKind, budget: std::time::Durati
         .flat_map(|&n| (0..space.stages.len()).map(move |f| (n, f)))
         .collect();
     let works: Vec<factor::Work> =
-        factor.as_ref().map(|f| by_factor.iter().map(|&n| f.work(n)).collect()).unwrap_or_default();
-    let units = visit.len() + works.iter().map(factor::Work::parts).sum::<usize>();
+        factor.as_ref().map(|f| by_factor.iter().map(|&n| f.work(n, false)).collect()).unwrap_or_default();
+    let units = visit.len() + works.len();
     if units == 0 || combinations < 1e8 {
         return Estimate { combinations, units, seconds_one_thread: None, at_least: false, shardable: true };
     }
