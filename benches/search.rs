@@ -56,7 +56,7 @@ fn benches(c: &mut Criterion) {
     let exact = problem("127/120", "0", (12, 200), (4, 4));
     g.bench_function("fast (factor) 4 stages 12..200 127/120 exact", |b| {
         // The same count comes from an independent convolution of value-pair products with
-        // Burnside's repeat terms (tests/published.rs says how).
+        // Burnside's repeat terms (the ignored test in tests/engines.rs).
         b.iter(|| assert_eq!(search(&exact, EngineKind::Fast, &RunOptions::default()).count, 4_011_513_973))
     });
     g.finish();

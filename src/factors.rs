@@ -202,7 +202,7 @@ pub struct SmoothPart {
 /// stopped at `most + 1`, finds too many; so cutting costs about one pass over the numbers.
 pub fn smooth_parts(primes: &[u32], hi: u64, most: u64) -> Vec<SmoothPart> {
     let mut parts = Vec::new();
-    let mut pending = vec![SmoothPart { base: Factored::ONE, next: 0, with_base: true }];
+    let mut pending = vec![SmoothPart::ALL];
     while let Some(part) = pending.pop() {
         let mut seen = 0u64;
         let small = part.for_each(primes, 1, hi, &mut |_| {
@@ -251,6 +251,9 @@ fn for_each_child(primes: &[u32], base: Factored, next: usize, hi: u64, f: &mut 
 }
 
 impl SmoothPart {
+    /// The whole: every number.
+    pub const ALL: SmoothPart = SmoothPart { base: Factored::ONE, next: 0, with_base: true };
+
     /// Call `f` on every number of this part within `lo..=hi` (with `hi` the bound the parts
     /// were cut for, or less). Stops early when `f` returns false; returns false then.
     pub fn for_each(&self, primes: &[u32], lo: u64, hi: u64, f: &mut impl FnMut(&Factored) -> bool) -> bool {

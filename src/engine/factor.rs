@@ -251,12 +251,10 @@ impl Factor {
         while from <= k_hi {
             // (k, its largest prime), ascending.
             let mut ks: Vec<(u64, u64)> = Vec::new();
-            for part in smooth_parts(&self.primes, cap, 1) {
-                part.for_each(&self.primes, from, cap, &mut |k| {
-                    ks.push((k.value(), k.largest_prime()));
-                    true
-                });
-            }
+            SmoothPart::ALL.for_each(&self.primes, from, cap, &mut |k| {
+                ks.push((k.value(), k.largest_prime()));
+                true
+            });
             ks.sort_unstable();
             for (k, k_prime) in ks {
                 if space.cancelled() {
