@@ -141,6 +141,31 @@ fn ctrl_c_prints_the_best_so_far_marked_incomplete() {
     assert!(String::from_utf8_lossy(&out.stderr).contains("interrupted"));
 }
 
+/// Ctrl-C inside the factor engine's long count: the stage counts already done are listed, the
+/// one cut short adds nothing it has not finished.
+#[test]
+fn ctrl_c_stops_an_exact_count_and_keeps_what_was_done() {
+    let child = Command::new(env!("CARGO_BIN_EXE_gearsieve"))
+        .args(["search", "--ratio", "127/120", "--teeth", "12..160", "--stages", "3..5", "--long"])
+        .args(["--format", "json", "--limit", "5", "--threads", "2"])
+        .stdout(Stdio::piped())
+        .stderr(Stdio::piped())
+        .spawn()
+        .unwrap();
+    std::thread::sleep(std::time::Duration::from_millis(3000));
+    let status = Command::new("kill").args(["-INT", &child.id().to_string()]).status().unwrap();
+    assert!(status.success());
+    let out = child.wait_with_output().unwrap();
+    assert_eq!(out.status.code(), Some(130), "{}", String::from_utf8_lossy(&out.stderr));
+    let v: serde_json::Value = serde_json::from_slice(&out.stdout).unwrap();
+    assert_eq!(v["complete"], false);
+    let trains = v["trains"].as_array().unwrap();
+    assert_eq!(trains.len(), 5, "three- and four-stage trains were done");
+    assert!(trains.iter().all(|t| t["ratio"] == "127/120" && t["meshes"].as_u64() < Some(5)));
+    let count = v["count"].as_u64().unwrap();
+    assert!(count >= 5 && count < 2_000_000_000_000, "a lower bound, without the cut-short five: {count}");
+}
+
 #[test]
 fn a_search_that_would_run_for_hours_needs_long() {
     let r = gearsieve(&[

@@ -46,7 +46,7 @@ pub const MAX_TEETH_FOR_SIX_STAGES: u32 = 255;
 const PART_SIZE: u64 = 1 << 14;
 
 /// How many values of `k` pass between two looks at the stop flag.
-const CANCEL_EVERY: u32 = 1 << 12;
+const CANCEL_EVERY: u32 = 1 << 10;
 
 /// Everything the factor engine needs, prepared once per search.
 pub struct Factor {
@@ -165,6 +165,9 @@ impl Factor {
 
     /// Burnside's sum over one part of the `k`, or `None` when the search was stopped.
     pub fn part_sum(&self, space: &SearchSpace, work: &Work, part: usize) -> Option<i128> {
+        if space.cancelled() {
+            return None;
+        }
         let mut sum = 0i128;
         let mut seen = 0u32;
         let done = work.parts[part].for_each(&self.primes, work.k_lo, work.k_hi, &mut |k| {
