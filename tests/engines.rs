@@ -189,22 +189,27 @@ proptest! {
     /// unsplit run's JSON, for plain and Pareto listings.
     #[test]
     fn shards_merge_to_the_unsplit_run(p in problem_strategy(), parts in 1u32..5, pareto in any::<bool>()) {
-        use gearsieve::engine::Shard;
-        use gearsieve::output::{json, Report};
         let mut p = p;
         p.pareto = pareto;
-        let doc_of = |shard: Option<Shard>| {
-            let o = search(&p, EngineKind::Fast, &RunOptions { shard, ..RunOptions::default() });
-            json::doc(&Report { problem: &p, outcome: &o, explain: false, shard })
-        };
-        let whole = doc_of(None);
-        let docs: Vec<(String, json::Doc)> = (1..=parts)
-            .map(|i| (format!("part{i}"), doc_of(Some(Shard { index: i, count: parts }))))
-            .collect();
-        prop_assert_eq!(docs.iter().map(|(_, d)| d.count).sum::<u64>(), whole.count);
-        let merged = gearsieve::merge::merge(docs).unwrap();
-        prop_assert_eq!(merged, whole);
+        shards_merge(&p, parts)?;
     }
+}
+
+/// Split `p` into `parts`, and check the parts' counts add up and their JSON merges into the
+/// unsplit run's.
+fn shards_merge(p: &Problem, parts: u32) -> Result<(), TestCaseError> {
+    use gearsieve::engine::Shard;
+    use gearsieve::output::{json, Report};
+    let doc_of = |shard: Option<Shard>| {
+        let o = search(p, EngineKind::Fast, &RunOptions { shard, ..RunOptions::default() });
+        json::doc(&Report { problem: p, outcome: &o, explain: false, shard })
+    };
+    let whole = doc_of(None);
+    let docs: Vec<(String, json::Doc)> =
+        (1..=parts).map(|i| (format!("part{i}"), doc_of(Some(Shard { index: i, count: parts })))).collect();
+    prop_assert_eq!(docs.iter().map(|(_, d)| d.count).sum::<u64>(), whole.count);
+    prop_assert_eq!(gearsieve::merge::merge(docs).unwrap(), whole);
+    Ok(())
 }
 
 #[test]
@@ -277,18 +282,7 @@ proptest! {
     /// Split runs of exact searches (the factor engine's units) merge into the unsplit run.
     #[test]
     fn exact_shards_merge_to_the_unsplit_run(p in exact_problem_strategy(4, 9), parts in 1u32..5) {
-        use gearsieve::engine::Shard;
-        use gearsieve::output::{json, Report};
-        let doc_of = |shard: Option<Shard>| {
-            let o = search(&p, EngineKind::Fast, &RunOptions { shard, ..RunOptions::default() });
-            json::doc(&Report { problem: &p, outcome: &o, explain: false, shard })
-        };
-        let whole = doc_of(None);
-        let docs: Vec<(String, json::Doc)> = (1..=parts)
-            .map(|i| (format!("part{i}"), doc_of(Some(Shard { index: i, count: parts }))))
-            .collect();
-        prop_assert_eq!(docs.iter().map(|(_, d)| d.count).sum::<u64>(), whole.count);
-        prop_assert_eq!(gearsieve::merge::merge(docs).unwrap(), whole);
+        shards_merge(&p, parts)?;
     }
 
     /// The factor engine counts and lists exactly what the exhaustive engine finds.

@@ -124,46 +124,50 @@ fn pareto_lists_only_undominated_trains() {
 
 #[test]
 fn ctrl_c_prints_the_best_so_far_marked_incomplete() {
+    let (code, v, stderr) = interrupted_after(
+        1500,
+        &["--ratio", "29.530588", "--tol", "1ppm", "--teeth", "12..150", "--stages", "4", "--limit", "5"],
+    );
+    assert_eq!(code, Some(130), "{stderr}");
+    assert_eq!(v["complete"], false);
+    assert!(stderr.contains("interrupted"));
+}
+
+/// Run a JSON search on two threads, send it Ctrl-C after `ms`, and return its exit code, its
+/// JSON and its stderr.
+fn interrupted_after(ms: u64, args: &[&str]) -> (Option<i32>, serde_json::Value, String) {
     let child = Command::new(env!("CARGO_BIN_EXE_gearsieve"))
-        .args(["search", "--ratio", "29.530588", "--tol", "1ppm", "--teeth", "12..150", "--stages", "4"])
-        .args(["--format", "json", "--limit", "5", "--threads", "2"])
+        .arg("search")
+        .args(args)
+        .args(["--format", "json", "--threads", "2"])
         .stdout(Stdio::piped())
         .stderr(Stdio::piped())
         .spawn()
         .unwrap();
-    std::thread::sleep(std::time::Duration::from_millis(1500));
+    std::thread::sleep(std::time::Duration::from_millis(ms));
     let status = Command::new("kill").args(["-INT", &child.id().to_string()]).status().unwrap();
     assert!(status.success());
     let out = child.wait_with_output().unwrap();
-    assert_eq!(out.status.code(), Some(130), "{}", String::from_utf8_lossy(&out.stderr));
-    let v: serde_json::Value = serde_json::from_slice(&out.stdout).unwrap();
-    assert_eq!(v["complete"], false);
-    assert!(String::from_utf8_lossy(&out.stderr).contains("interrupted"));
+    let stderr = String::from_utf8_lossy(&out.stderr).into_owned();
+    let v = serde_json::from_slice(&out.stdout).unwrap_or_else(|e| panic!("not JSON ({e}): {stderr}"));
+    (out.status.code(), v, stderr)
 }
 
 /// Ctrl-C inside the factor engine's long count: the stage counts already done are listed, the
 /// one cut short adds nothing it has not finished.
 #[test]
 fn ctrl_c_stops_an_exact_count_and_keeps_what_was_done() {
-    let child = Command::new(env!("CARGO_BIN_EXE_gearsieve"))
-        .args(["search", "--ratio", "127/120", "--teeth", "12..160", "--stages", "3..5", "--long"])
-        .args(["--format", "json", "--limit", "5", "--threads", "2"])
-        .stdout(Stdio::piped())
-        .stderr(Stdio::piped())
-        .spawn()
-        .unwrap();
-    std::thread::sleep(std::time::Duration::from_millis(3000));
-    let status = Command::new("kill").args(["-INT", &child.id().to_string()]).status().unwrap();
-    assert!(status.success());
-    let out = child.wait_with_output().unwrap();
-    assert_eq!(out.status.code(), Some(130), "{}", String::from_utf8_lossy(&out.stderr));
-    let v: serde_json::Value = serde_json::from_slice(&out.stdout).unwrap();
+    let (code, v, stderr) = interrupted_after(
+        3000,
+        &["--ratio", "127/120", "--teeth", "12..160", "--stages", "3..5", "--long", "--limit", "5"],
+    );
+    assert_eq!(code, Some(130), "{stderr}");
     assert_eq!(v["complete"], false);
     let trains = v["trains"].as_array().unwrap();
     assert_eq!(trains.len(), 5, "three- and four-stage trains were done");
     assert!(trains.iter().all(|t| t["ratio"] == "127/120" && t["meshes"].as_u64() < Some(5)));
     let count = v["count"].as_u64().unwrap();
-    assert!(count >= 5 && count < 2_000_000_000_000, "a lower bound, without the cut-short five: {count}");
+    assert!((5..2_000_000_000_000).contains(&count), "a lower bound, without the cut-short five: {count}");
 }
 
 #[test]
