@@ -399,11 +399,6 @@ impl Work {
         self.n
     }
 
-    /// How many parts.
-    pub fn parts(&self) -> usize {
-        self.parts.len()
-    }
-
     /// Progress ticks of a run: one per part and one for the listing.
     pub fn ticks(&self) -> u64 {
         self.parts.len() as u64 + 1

@@ -478,7 +478,6 @@ struct MeetData {
 }
 
 /// What the bulk engines prepared for a search.
-#[derive(Default)]
 struct EngineData {
     meet: Option<MeetData>,
     factor: Option<factor::Factor>,
