@@ -299,11 +299,11 @@ impl Factor {
         bound: Candidate,
         keep: &mut Keeper,
     ) {
-        let driven_sets = multisets(&self.driven, driven, n);
+        let driven_sets = factorisations(&self.driven, driven, n);
         if driven_sets.is_empty() {
             return;
         }
-        let driver_sets = multisets(&self.driver, driver, n);
+        let driver_sets = factorisations(&self.driver, driver, n);
         for d in &driven_sets {
             for r in &driver_sets {
                 let group = Candidate {
@@ -405,15 +405,15 @@ impl Work {
     }
 }
 
-/// The multisets of `m` members of `set` with product `n`, each ascending.
-fn multisets(set: &ToothSet, n: u64, m: usize) -> Vec<[u32; MAX_STAGES]> {
+/// The factorisations of `n` into `m` members of `set`, each ascending (a multiset of teeth).
+fn factorisations(set: &ToothSet, n: u64, m: usize) -> Vec<[u32; MAX_STAGES]> {
     let mut out = Vec::new();
     let mut cur = [0u32; MAX_STAGES];
-    multisets_from(set, n, m, 0, set.lo(), &mut cur, &mut out);
+    factorisations_from(set, n, m, 0, set.lo(), &mut cur, &mut out);
     out
 }
 
-fn multisets_from(
+fn factorisations_from(
     set: &ToothSet,
     n: u64,
     m: usize,
@@ -434,7 +434,7 @@ fn multisets_from(
     while t <= set.hi() && t.checked_pow(rest).is_some_and(|x| x <= n) {
         if n % t == 0 && set.contains(t) {
             cur[at] = t as u32;
-            multisets_from(set, n / t, m, at + 1, t, cur, out);
+            factorisations_from(set, n / t, m, at + 1, t, cur, out);
         }
         t += 1;
     }
