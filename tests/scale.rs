@@ -188,6 +188,18 @@ fn a_search_that_would_run_for_hours_needs_long() {
     assert!(r.stdout.is_empty());
 }
 
+/// Counting four billion exact trains is quick, but streaming them visits each one: the
+/// forecast judges the stream by the engine that streams.
+#[test]
+fn streaming_billions_of_exact_trains_needs_long() {
+    let args = ["search", "--ratio", "127/120", "--teeth", "12..200", "--stages", "4", "--format", "csv"];
+    let counted = gearsieve(&[&args[..], &["--limit", "1"]].concat());
+    assert_eq!(counted.code, 0, "{}", counted.stderr);
+    let streamed = gearsieve(&[&args[..], &["--limit", "0"]].concat());
+    assert_eq!(streamed.code, 2, "{}", streamed.stderr);
+    assert!(streamed.stderr.contains("--long") && streamed.stderr.contains("hours"), "{}", streamed.stderr);
+}
+
 #[test]
 fn a_closed_pipe_ends_quietly() {
     use std::io::{BufRead, BufReader};

@@ -339,7 +339,8 @@ const NOTE_ABOVE_S: f64 = 30.0;
 /// Before a big search: forecast its time from a short sample, say so when it is long, and
 /// refuse one that would plainly run for hours unless `--long` is given.
 fn forecast(job: &SearchJob) -> anyhow::Result<()> {
-    let e = gearsieve::engine::estimate(&job.problem, job.engine, std::time::Duration::from_secs(1));
+    let engine = if job.problem.limit == 0 { job.engine.streaming() } else { job.engine };
+    let e = gearsieve::engine::estimate(&job.problem, engine, std::time::Duration::from_secs(1));
     let Some(one) = e.seconds_one_thread else { return Ok(()) };
     let threads = job.print.threads.map_or_else(rayon::current_num_threads, usize::from).max(1);
     let mut wall = one / threads as f64;

@@ -376,6 +376,15 @@ impl EngineKind {
             EngineKind::Exhaustive => &exhaustive::Exhaustive,
         }
     }
+
+    /// The engine [`search_each`] runs for this choice: streaming visits every train, so the
+    /// bulk engines give way to the sieve. Forecast a stream with this one.
+    pub fn streaming(self) -> EngineKind {
+        match self {
+            EngineKind::Fast => EngineKind::Sieve,
+            other => other,
+        }
+    }
 }
 
 /// Progress of a running search, in units of work.
