@@ -288,19 +288,18 @@ fn walk_smooth(
 /// `primes`: each probe walks down the tree the smooth numbers form (a child multiplies in a
 /// power of a prime after the last one used) choosing children uniformly, and weighs `f` of each
 /// number on its path by the product of the branching counts above it. The mean over probes is
-/// an unbiased estimate. Probes stop after `probes`, or as soon as `keep_going(probes so far,
-/// estimate so far)` says so; the choices come from a fixed seed, so the estimate is repeatable.
+/// an unbiased estimate. Probes go on while `keep_going(probes so far, estimate so far)` says so
+/// (at least one is made); the choices come from a fixed seed, so the estimate is repeatable.
 pub fn estimate_smooth_sum(
     primes: &[u32],
     hi: u64,
-    probes: usize,
     keep_going: &mut dyn FnMut(usize, f64) -> bool,
     f: &mut dyn FnMut(&Factored) -> f64,
 ) -> f64 {
     let mut seed = 0x9e37_79b9_7f4a_7c15u64;
     let mut children: Vec<(Factored, usize)> = Vec::new();
     let (mut total, mut done) = (0.0, 0usize);
-    while done < probes && (done == 0 || keep_going(done, total / done as f64)) {
+    while done == 0 || keep_going(done, total / done as f64) {
         let (mut node, mut next, mut weight) = (Factored::ONE, 0usize, 1.0f64);
         let mut sum = 0.0;
         loop {
@@ -560,11 +559,12 @@ mod tests {
         let primes = primes_up_to(50);
         let hi = 2_000_000u64;
         let truth = (1..=hi).filter(|&k| Factored::of(k, &primes).is_some()).count() as f64;
-        let est = estimate_smooth_sum(&primes, hi, 200_000, &mut |_, _| true, &mut |_| 1.0);
+        let est = estimate_smooth_sum(&primes, hi, &mut |done, _| done < 200_000, &mut |_| 1.0);
         assert!((est / truth - 1.0).abs() < 0.1, "estimate {est}, truth {truth}");
         // Summing k itself, too.
         let truth_sum: f64 = (1..=hi).filter(|&k| Factored::of(k, &primes).is_some()).map(|k| k as f64).sum();
-        let est_sum = estimate_smooth_sum(&primes, hi, 200_000, &mut |_, _| true, &mut |k| k.value() as f64);
+        let est_sum =
+            estimate_smooth_sum(&primes, hi, &mut |done, _| done < 200_000, &mut |k| k.value() as f64);
         assert!((est_sum / truth_sum - 1.0).abs() < 0.15, "estimate {est_sum}, truth {truth_sum}");
     }
 

@@ -210,7 +210,7 @@ impl Factor {
         let start = std::time::Instant::now();
         let mut keep_going =
             |probes: usize, seconds: f64| start.elapsed() < budget && (probes < 500 || seconds > QUICK_S);
-        estimate_smooth_sum(&self.primes, work.k_hi, usize::MAX, &mut keep_going, &mut |k| {
+        estimate_smooth_sum(&self.primes, work.k_hi, &mut keep_going, &mut |k| {
             if k.value() < work.k_lo {
                 return 0.0;
             }

@@ -729,9 +729,10 @@ fn multisets(s: usize, n: usize) -> f64 {
     (0..n).fold(1.0, |acc, i| acc * (s + i) as f64 / (i + 1) as f64)
 }
 
-/// Forecast a search by timing a sample of its work on this thread for at most about
-/// `budget`: units of the unit-by-unit engines, and parts of the factor engine's count. The
-/// meet engine's cost is bounded by its table and is not sampled.
+/// Forecast a search on this thread for at most about `budget`: a timed sample of the
+/// unit-by-unit engines' units, and the factor engine's own probe estimate of its counts
+/// ([`factor::Factor::forecast_seconds`]). The meet engine's cost is bounded by its table and
+/// is not sampled.
 pub fn estimate(problem: &Problem, engine: EngineKind, budget: std::time::Duration) -> Estimate {
     let space = SearchSpace::new(problem, None);
     let counts = problem.stage_counts();
