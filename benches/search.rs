@@ -3,10 +3,10 @@
 //! from `benches/figures.sh`, which times the release binary on the same cases.
 
 use criterion::{criterion_group, criterion_main, Criterion};
-use gearsieve::pool::Pool;
-use gearsieve::range::IntRange;
-use gearsieve::rank::DEFAULT_RANK;
-use gearsieve::target::Target;
+use gearsieve::model::pool::Pool;
+use gearsieve::model::rank::DEFAULT_RANK;
+use gearsieve::numbers::range::IntRange;
+use gearsieve::numbers::target::Target;
 use gearsieve::{search, EngineKind, Problem, RunOptions, StageLimits};
 
 fn problem(ratio: &str, tol: &str, teeth: (u32, u32), stages: (u32, u32)) -> Problem {

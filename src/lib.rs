@@ -7,10 +7,10 @@
 //! Nothing here parses arguments, prints or touches the terminal.
 //!
 //! ```
-//! use gearsieve::pool::Pool;
-//! use gearsieve::range::IntRange;
-//! use gearsieve::rank::DEFAULT_RANK;
-//! use gearsieve::target::Target;
+//! use gearsieve::model::pool::Pool;
+//! use gearsieve::numbers::range::IntRange;
+//! use gearsieve::model::rank::DEFAULT_RANK;
+//! use gearsieve::numbers::target::Target;
 //! use gearsieve::{search, EngineKind, Problem, RunOptions, StageLimits};
 //!
 //! // 37.5:1 within 10 ppm from gears of 12..60 teeth, module 1, two or three stages.
@@ -28,24 +28,14 @@
 //! Ratio convention (ISO 1122-1): `i` = input turns per output turn = product of driven teeth /
 //! product of driver teeth.
 
-pub mod catalog;
-pub mod clock;
 pub mod engine;
 pub mod error;
-pub mod factors;
 pub mod geometry;
-pub mod merge;
-pub mod output;
-pub mod pool;
-pub mod problem;
-pub mod range;
-pub mod rank;
-pub mod rational;
-pub mod reducer;
-pub mod target;
-pub mod thread;
-pub mod train;
+pub mod model;
+pub mod numbers;
+pub mod report;
+pub mod trades;
 
 pub use engine::{search, EngineKind, Outcome, RunOptions};
 pub use error::{Error, Result};
-pub use problem::{ExtraKey, MeshRules, Problem, StageLimits, TrainCheck};
+pub use model::problem::{ExtraKey, MeshRules, Problem, StageLimits, TrainCheck};

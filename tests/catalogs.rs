@@ -1,7 +1,7 @@
 //! Every catalogue shipped in catalogs/ loads and can mesh.
 
-use gearsieve::catalog::{load, CatalogueDefaults};
-use gearsieve::pool::Pool;
+use gearsieve::model::catalog::{load, CatalogueDefaults};
+use gearsieve::model::pool::Pool;
 
 #[test]
 fn every_shipped_catalogue_loads() {

@@ -5,12 +5,12 @@
 
 use std::collections::HashMap;
 
-use gearsieve::pool::{Pool, StockGear};
-use gearsieve::range::{FloatRange, IntRange, RatioRange};
-use gearsieve::rank::{RankKey, DEFAULT_RANK};
-use gearsieve::rational::{Ratio, RelError};
-use gearsieve::target::Target;
-use gearsieve::train::{Direction, Train};
+use gearsieve::model::pool::{Pool, StockGear};
+use gearsieve::model::rank::{RankKey, DEFAULT_RANK};
+use gearsieve::model::train::{Direction, Train};
+use gearsieve::numbers::range::{FloatRange, IntRange, RatioRange};
+use gearsieve::numbers::rational::{Ratio, RelError};
+use gearsieve::numbers::target::Target;
 use gearsieve::{search, EngineKind, Outcome, Problem, RunOptions, StageLimits};
 use proptest::prelude::*;
 
@@ -199,7 +199,7 @@ proptest! {
 /// unsplit run's.
 fn shards_merge(p: &Problem, parts: u32) -> Result<(), TestCaseError> {
     use gearsieve::engine::Shard;
-    use gearsieve::output::{json, Report};
+    use gearsieve::report::{search::json, Report};
     let doc_of = |shard: Option<Shard>| {
         let o = search(p, EngineKind::Fast, &RunOptions { shard, ..RunOptions::default() });
         json::doc(&Report { problem: p, outcome: &o, explain: false, shard })
@@ -208,7 +208,7 @@ fn shards_merge(p: &Problem, parts: u32) -> Result<(), TestCaseError> {
     let docs: Vec<(String, json::Doc)> =
         (1..=parts).map(|i| (format!("part{i}"), doc_of(Some(Shard { index: i, count: parts })))).collect();
     prop_assert_eq!(docs.iter().map(|(_, d)| d.count).sum::<u64>(), whole.count);
-    prop_assert_eq!(gearsieve::merge::merge(docs).unwrap(), whole);
+    prop_assert_eq!(gearsieve::report::search::merge::merge(docs).unwrap(), whole);
     Ok(())
 }
 

@@ -4,7 +4,7 @@
 mod common;
 
 use common::{gearsieve, json};
-use gearsieve::problem::DEFAULT_SHIFT_SUM;
+use gearsieve::model::problem::DEFAULT_SHIFT_SUM;
 use serde_json::Value;
 
 fn num(v: &Value, path: &[&str]) -> f64 {

@@ -4,14 +4,14 @@
 mod common;
 use common::*;
 
-use gearsieve::catalog::{load, CatalogueDefaults};
-use gearsieve::pool::{Pool, StockGear};
-use gearsieve::range::{FloatRange, IntRange};
-use gearsieve::rational::Ratio;
-use gearsieve::thread::banjo::{load_banjo, Banjo};
-use gearsieve::thread::machine::{load_gearbox, GearboxPosition, Machine};
-use gearsieve::thread::pitch::{parse_leadscrew, parse_pitch};
-use gearsieve::thread::{Lathe, ThreadSpec};
+use gearsieve::model::catalog::{load, CatalogueDefaults};
+use gearsieve::model::pool::{Pool, StockGear};
+use gearsieve::numbers::range::{FloatRange, IntRange};
+use gearsieve::numbers::rational::Ratio;
+use gearsieve::trades::thread::banjo::{load_banjo, Banjo};
+use gearsieve::trades::thread::machine::{load_gearbox, GearboxPosition, Machine};
+use gearsieve::trades::thread::pitch::{parse_leadscrew, parse_pitch};
+use gearsieve::trades::thread::{Lathe, ThreadSpec};
 use gearsieve::RunOptions;
 use proptest::prelude::*;
 use serde_json::Value;
@@ -442,7 +442,7 @@ fn stock(teeth: &[u32]) -> Pool {
 }
 
 /// The banjo model, restated independently of the library: slot, closure, clearances.
-fn violates(b: &Banjo, s: &gearsieve::thread::Setup) -> Option<String> {
+fn violates(b: &Banjo, s: &gearsieve::trades::thread::Setup) -> Option<String> {
     let tip = |m: f64, z: u32| m * (z as f64 + 2.0) / 2.0;
     let c = b.shaft_diameter_mm / 2.0;
     let d = b.stud_to_leadscrew_mm;

@@ -7,11 +7,13 @@
 
 use std::path::Path;
 
-use gearsieve::catalog::{self, CatalogueDefaults};
-use gearsieve::pool::{Pool, StockGear, MAX_TEETH, MIN_TEETH, MODULE_RANGE_MM, PRESSURE_ANGLE_RANGE_DEG};
-use gearsieve::range::{parse_float_range, parse_int_range, parse_ratio_range};
-use gearsieve::rational::{gcd, Ratio};
-use gearsieve::target::{parse_ratio, parse_tolerance};
+use gearsieve::model::catalog::{self, CatalogueDefaults};
+use gearsieve::model::pool::{
+    Pool, StockGear, MAX_TEETH, MIN_TEETH, MODULE_RANGE_MM, PRESSURE_ANGLE_RANGE_DEG,
+};
+use gearsieve::numbers::range::{parse_float_range, parse_int_range, parse_ratio_range};
+use gearsieve::numbers::rational::{gcd, Ratio};
+use gearsieve::numbers::target::{parse_ratio, parse_tolerance};
 
 /// The file name the catalogue checks pass to the loader; every error must name it.
 pub const CATALOGUE_NAME: &str = "fuzz.csv";

@@ -6,15 +6,15 @@
 use std::path::PathBuf;
 
 use clap::{ArgGroup, Args, Subcommand};
-use gearsieve::catalog::CatalogueDefaults;
-use gearsieve::clock::astro::{AstroSpec, InputArbor, Period};
-use gearsieve::clock::beat::{Beat, Escapement, STANDARD_GRAVITY};
-use gearsieve::clock::going::{parse_rate_tolerance, GoingSpec};
-use gearsieve::clock::motion::{Dial, MotionSpec};
-use gearsieve::clock::{self, going, motion};
-use gearsieve::pool::{Pool, MAX_STAGES, MAX_TEETH, MIN_TEETH};
-use gearsieve::range::{parse_int_range, IntRange};
-use gearsieve::target::{parse_ratio, parse_tolerance};
+use gearsieve::model::catalog::CatalogueDefaults;
+use gearsieve::model::pool::{Pool, MAX_STAGES, MAX_TEETH, MIN_TEETH};
+use gearsieve::numbers::range::{parse_int_range, IntRange};
+use gearsieve::numbers::target::{parse_ratio, parse_tolerance};
+use gearsieve::trades::clock::astro::{AstroSpec, InputArbor, Period};
+use gearsieve::trades::clock::beat::{Beat, Escapement, STANDARD_GRAVITY};
+use gearsieve::trades::clock::going::{parse_rate_tolerance, GoingSpec};
+use gearsieve::trades::clock::motion::{Dial, MotionSpec};
+use gearsieve::trades::clock::{going, motion};
 use gearsieve::{Error, RunOptions};
 
 use super::progress::Bar;
@@ -285,9 +285,9 @@ pub fn run(args: ClockArgs) -> anyhow::Result<i32> {
             bar.finish();
             let buf = render(
                 print.format,
-                |w| clock::table::write_going(&plan, w),
-                |w| clock::csv::write_going(&plan, w),
-                |w| clock::json::write_going(&plan, w),
+                |w| gearsieve::report::clock::document::write_going(&plan, w),
+                |w| gearsieve::report::clock::csv::write_going(&plan, w),
+                |w| gearsieve::report::clock::json::write_going(&plan, w),
             )?;
             let hint = "Try a --rate-tol above 0 s/day, more --stages, or wider --wheels and --pinions.";
             finish(print, &buf, plan.count, plan.complete, hint)
@@ -298,9 +298,9 @@ pub fn run(args: ClockArgs) -> anyhow::Result<i32> {
             bar.finish();
             let buf = render(
                 print.format,
-                |w| clock::table::write_motion(&plan, w),
-                |w| clock::csv::write_motion(&plan, w),
-                |w| clock::json::write_motion(&plan, w),
+                |w| gearsieve::report::clock::document::write_motion(&plan, w),
+                |w| gearsieve::report::clock::csv::write_motion(&plan, w),
+                |w| gearsieve::report::clock::json::write_motion(&plan, w),
             )?;
             let hint = "Try wider --wheels and --pinions, a lower --min-contact-ratio, or --not-coaxial.";
             finish(print, &buf, plan.count, plan.complete, hint)
@@ -311,9 +311,9 @@ pub fn run(args: ClockArgs) -> anyhow::Result<i32> {
             bar.finish();
             let buf = render(
                 print.format,
-                |w| clock::table::write_astro(&plan, w),
-                |w| clock::csv::write_astro(&plan, w),
-                |w| clock::json::write_astro(&plan, w),
+                |w| gearsieve::report::clock::document::write_astro(&plan, w),
+                |w| gearsieve::report::clock::csv::write_astro(&plan, w),
+                |w| gearsieve::report::clock::json::write_astro(&plan, w),
             )?;
             let hint = "Try a looser --tol, more --stages or a wider --teeth range.";
             finish(print, &buf, plan.count, plan.complete, hint)

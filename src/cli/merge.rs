@@ -4,7 +4,7 @@
 use std::path::PathBuf;
 
 use clap::Args;
-use gearsieve::output::json::{write_doc, Doc};
+use gearsieve::report::search::json::{write_doc, Doc};
 use gearsieve::Error;
 
 use super::{EXIT_INTERRUPTED, EXIT_NOTHING_FOUND, EXIT_OK};
@@ -31,7 +31,7 @@ pub fn run(args: MergeArgs) -> anyhow::Result<i32> {
             .map_err(|e| Error::Problem(format!("{name}: not the JSON of a gearsieve search ({e})")))?;
         docs.push((name, doc));
     }
-    let merged = gearsieve::merge::merge(docs)?;
+    let merged = gearsieve::report::search::merge::merge(docs)?;
     let mut buf = Vec::new();
     write_doc(&merged, &mut buf)?;
     if !super::output::emit(args.output.as_deref(), &buf)? {

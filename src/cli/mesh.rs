@@ -1,7 +1,7 @@
 //! `gearsieve mesh`: the full geometry of one external spur pair, judged against the mesh
 //! limits. The clap struct mirrors the flags; `TryFrom` turns it into a validated [`MeshJob`]
 //! (tooth system, tooth counts, mounting, limits); `run` works the mesh out with
-//! [`gearsieve::geometry`], prints it with [`gearsieve::output::mesh`] and picks the exit status.
+//! [`gearsieve::geometry`], prints it with [`gearsieve::report::mesh`] and picks the exit status.
 
 use std::path::PathBuf;
 
@@ -10,10 +10,10 @@ use gearsieve::geometry::{
     check_mesh, mesh_geometry, module_from_diametral_pitch, shift_for_centre_distance, MeshDefect,
     MeshGeometry, MeshLimits, Mounting, RackProfile, ToothSystem, MM_PER_INCH,
 };
-use gearsieve::output::mesh::{write_json, write_table, MeshInputs, MeshReport, MountingInput};
-use gearsieve::pool::{fmt_num, MAX_TEETH, MIN_TEETH};
-use gearsieve::problem::DEFAULT_SHIFT_SUM;
-use gearsieve::range::parse_signed_range;
+use gearsieve::model::pool::{fmt_num, MAX_TEETH, MIN_TEETH};
+use gearsieve::model::problem::DEFAULT_SHIFT_SUM;
+use gearsieve::numbers::range::parse_signed_range;
+use gearsieve::report::mesh::{write_json, write_table, MeshInputs, MeshReport, MountingInput};
 use gearsieve::Error;
 
 use super::{EXIT_NOTHING_FOUND, EXIT_OK};

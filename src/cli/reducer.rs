@@ -5,12 +5,12 @@
 use std::path::PathBuf;
 
 use clap::{ArgGroup, Args, ValueEnum};
-use gearsieve::catalog::CatalogueDefaults;
-use gearsieve::pool::{MAX_STAGES, MAX_TEETH, MIN_TEETH};
-use gearsieve::range::{parse_int_range, parse_signed_range, IntRange};
-use gearsieve::reducer::{self, Hunting, Priority, ReducerSpec, DEFAULT_MAX_STAGE_RATIO};
-use gearsieve::target::{parse_ratio, parse_tolerance};
-use gearsieve::thread::exact::Exact;
+use gearsieve::model::catalog::CatalogueDefaults;
+use gearsieve::model::pool::{MAX_STAGES, MAX_TEETH, MIN_TEETH};
+use gearsieve::numbers::exact::Exact;
+use gearsieve::numbers::range::{parse_int_range, parse_signed_range, IntRange};
+use gearsieve::numbers::target::{parse_ratio, parse_tolerance};
+use gearsieve::trades::reducer::{Hunting, Priority, ReducerSpec, DEFAULT_MAX_STAGE_RATIO};
 use gearsieve::{Error, RunOptions};
 
 use super::progress::Bar;
@@ -133,7 +133,7 @@ impl TryFrom<&ReducerArgs> for ReducerSpec {
         };
         let shift_sum = match &a.shift_sum {
             Some(s) => parse_signed_range(s, "--shift-sum", "modules")?,
-            None => gearsieve::problem::DEFAULT_SHIFT_SUM,
+            None => gearsieve::model::problem::DEFAULT_SHIFT_SUM,
         };
         Ok(ReducerSpec {
             ratio,
@@ -173,9 +173,9 @@ pub fn run(args: ReducerArgs) -> anyhow::Result<i32> {
     bar.finish();
     let buf = render_as(
         print.format,
-        |w| reducer::table::write(&plan, w),
-        |w| reducer::csv::write(&plan, w),
-        |w| reducer::json::write(&plan, w),
+        |w| gearsieve::report::reducer::document::write(&plan, w),
+        |w| gearsieve::report::reducer::csv::write(&plan, w),
+        |w| gearsieve::report::reducer::json::write(&plan, w),
     )?;
     let ending = Ending {
         complete: plan.complete,

@@ -4,17 +4,17 @@
 use std::path::PathBuf;
 
 use clap::{Args, ValueEnum};
-use gearsieve::catalog::{self, CatalogueDefaults};
 use gearsieve::engine::Shard;
 use gearsieve::geometry::{module_from_diametral_pitch, MeshLimits};
-use gearsieve::output::{csv as csv_out, json as json_out};
-use gearsieve::output::{render, Format, Report};
-use gearsieve::pool::{Pool, MAX_STAGES, MAX_TEETH, MIN_TEETH};
-use gearsieve::problem::MeshRules;
-use gearsieve::range::{parse_float_range, parse_int_range, parse_ratio_range, parse_signed_range};
-use gearsieve::rank::parse_rank;
-use gearsieve::target::Target;
-use gearsieve::train::Direction;
+use gearsieve::model::catalog::{self, CatalogueDefaults};
+use gearsieve::model::pool::{Pool, MAX_STAGES, MAX_TEETH, MIN_TEETH};
+use gearsieve::model::problem::MeshRules;
+use gearsieve::model::rank::parse_rank;
+use gearsieve::model::train::Direction;
+use gearsieve::numbers::range::{parse_float_range, parse_int_range, parse_ratio_range, parse_signed_range};
+use gearsieve::numbers::target::Target;
+use gearsieve::report::search::{csv as csv_out, json as json_out};
+use gearsieve::report::{render, Format, Report};
 use gearsieve::{EngineKind, Error, Problem, RunOptions, StageLimits};
 
 use super::progress::Bar;
@@ -129,7 +129,7 @@ pub struct SearchArgs {
     #[arg(long, value_name = "A|LO..HI", allow_hyphen_values = true)]
     pub centre_distance: Option<String>,
     /// How close a standard centre distance must be to a fixed one to need no shift, mm.
-    #[arg(long, value_name = "MM", default_value_t = gearsieve::problem::DEFAULT_CENTRE_TOLERANCE_MM)]
+    #[arg(long, value_name = "MM", default_value_t = gearsieve::model::problem::DEFAULT_CENTRE_TOLERANCE_MM)]
     pub centre_tol: f64,
     /// Allowed profile shift sum x1+x2 per stage, in modules [default: -0.5..1].
     #[arg(long, value_name = "LO..HI", allow_hyphen_values = true)]

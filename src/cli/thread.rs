@@ -5,17 +5,17 @@
 use std::path::{Path, PathBuf};
 
 use clap::{ArgGroup, Args};
-use gearsieve::catalog::CatalogueDefaults;
-use gearsieve::pool::{Pool, MAX_STAGES, MAX_TEETH, MIN_TEETH};
-use gearsieve::range::{parse_float_range, parse_int_range};
-use gearsieve::target::{parse_ratio, parse_tolerance};
-use gearsieve::thread::banjo::{load_banjo, Banjo};
-use gearsieve::thread::chart::chart;
-use gearsieve::thread::machine::{load_gearbox, parse_gearbox_list, Machine};
-use gearsieve::thread::pitch::{parse_leadscrew, parse_pitch};
-use gearsieve::thread::series::{built_in, load_list, SeriesEntry};
-use gearsieve::thread::table::{ChartReport, ThreadReport};
-use gearsieve::thread::{self, Lathe, ThreadSpec};
+use gearsieve::model::catalog::CatalogueDefaults;
+use gearsieve::model::pool::{Pool, MAX_STAGES, MAX_TEETH, MIN_TEETH};
+use gearsieve::numbers::range::{parse_float_range, parse_int_range};
+use gearsieve::numbers::target::{parse_ratio, parse_tolerance};
+use gearsieve::report::thread::document::{ChartReport, ThreadReport};
+use gearsieve::trades::thread::banjo::{load_banjo, Banjo};
+use gearsieve::trades::thread::chart::chart;
+use gearsieve::trades::thread::machine::{load_gearbox, parse_gearbox_list, Machine};
+use gearsieve::trades::thread::pitch::{parse_leadscrew, parse_pitch};
+use gearsieve::trades::thread::series::{built_in, load_list, SeriesEntry};
+use gearsieve::trades::thread::{Lathe, ThreadSpec};
 use gearsieve::{Error, RunOptions};
 
 use super::progress::Bar;
@@ -182,9 +182,9 @@ pub fn run_thread(args: ThreadArgs) -> anyhow::Result<i32> {
     let report = ThreadReport { lathe: &lathe, plan: &plan, rejected: rejected.as_deref() };
     let buf = render(
         print.format,
-        |w| thread::table::write_thread(&report, w),
-        |w| thread::csv::write_thread(&report, w),
-        |w| thread::json::write_thread(&report, w),
+        |w| gearsieve::report::thread::document::write_thread(&report, w),
+        |w| gearsieve::report::thread::csv::write_thread(&report, w),
+        |w| gearsieve::report::thread::json::write_thread(&report, w),
     )?;
     let nothing = format!(
         "no setup cuts {} within the tolerance from these gears. Try a looser --tol, more --stages or \
@@ -215,9 +215,9 @@ pub fn run_chart(args: ChartArgs) -> anyhow::Result<i32> {
     let report = ChartReport { lathe: &lathe, series: &name, chart: &result };
     let buf = render(
         print.format,
-        |w| thread::table::write_chart(&report, w),
-        |w| thread::csv::write_chart(&report, w),
-        |w| thread::json::write_chart(&report, w),
+        |w| gearsieve::report::thread::document::write_chart(&report, w),
+        |w| gearsieve::report::thread::csv::write_chart(&report, w),
+        |w| gearsieve::report::thread::json::write_chart(&report, w),
     )?;
     let nothing = format!(
         "no thread of {name} can be cut within the tolerance from these gears. Try a looser --tol, \

@@ -3,7 +3,7 @@
 //! benchmarks.
 
 use super::{Engine, SearchSpace};
-use crate::pool::MAX_STAGES;
+use crate::model::pool::MAX_STAGES;
 
 /// Visits every combination.
 pub struct Exhaustive;

@@ -32,10 +32,12 @@ use std::collections::BTreeMap;
 use rayon::prelude::*;
 
 use super::{Keeper, SearchSpace};
-use crate::factors::{estimate_smooth_sum, primes_up_to, smooth_parts, Factored, SmoothPart, ToothSet};
-use crate::pool::MAX_STAGES;
-use crate::rank::Candidate;
-use crate::rational::RelError;
+use crate::model::pool::MAX_STAGES;
+use crate::model::rank::Candidate;
+use crate::numbers::rational::RelError;
+use crate::numbers::smooth::{
+    estimate_smooth_sum, primes_up_to, smooth_parts, Factored, SmoothPart, ToothSet,
+};
 
 /// Largest tooth count for which five- and six-stage trains are counted here: the table of
 /// ordered triples has (teeth)³ entries, 66 MB at this bound.

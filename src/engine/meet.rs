@@ -19,9 +19,9 @@ use std::sync::atomic::{AtomicU64, Ordering as AtomicOrdering};
 use rayon::prelude::*;
 
 use super::{Keeper, SearchSpace};
-use crate::pool::MAX_STAGES;
-use crate::rank::Candidate;
-use crate::rational::RelError;
+use crate::model::pool::MAX_STAGES;
+use crate::model::rank::Candidate;
+use crate::numbers::rational::RelError;
 
 /// Most memory the pair table may take, bytes; beyond it the sieve is used instead.
 pub const PAIR_TABLE_BUDGET_BYTES: usize = 1 << 30;
@@ -79,7 +79,7 @@ impl Values {
                 v.min_size[last] = v.min_size[last].min(size);
                 v.min_span[last] = v.min_span[last].min(span);
             } else {
-                let g = crate::rational::gcd(s.driven_teeth as u128, s.driver_teeth as u128) as u64;
+                let g = crate::numbers::rational::gcd(s.driven_teeth as u128, s.driver_teeth as u128) as u64;
                 v.value.push(s.value);
                 v.num.push(s.driven_teeth as u64 / g);
                 v.den.push(s.driver_teeth as u64 / g);

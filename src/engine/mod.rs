@@ -19,16 +19,16 @@ use rayon::prelude::*;
 use crate::geometry::{
     check_mesh, mesh_geometry, shift_for_centre_distance, MeshDefect, MeshGeometry, Mounting, ToothSystem,
 };
-use crate::pool::{MeshGroup, MAX_STAGES};
-use crate::problem::{MeshRules, Problem};
-use crate::rank::{Candidate, ParetoFront, TopK};
-use crate::rational::{Ratio, RelError};
-use crate::train::{Gear, Stage, Train};
+use crate::model::pool::{MeshGroup, MAX_STAGES};
+use crate::model::problem::{MeshRules, Problem};
+use crate::model::rank::{Candidate, ParetoFront, TopK};
+use crate::model::train::{Gear, Stage, Train};
+use crate::numbers::rational::{Ratio, RelError};
 
 /// One allowed stage: a driver and a driven gear kind of one mesh group meeting every limit.
 #[derive(Debug, Clone, PartialEq)]
 pub struct StageDef {
-    /// Index of the driver in [`crate::pool::Pool::gears`].
+    /// Index of the driver in [`crate::model::pool::Pool::gears`].
     pub driver: u32,
     /// Index of the driven gear.
     pub driven: u32,
@@ -125,7 +125,8 @@ impl<'p> SearchSpace<'p> {
                     continue;
                 }
                 if let Some(cd) = lim.centre_distance_mm {
-                    let a_mm = crate::train::standard_centre_distance_mm(pool.module_of(i), a.teeth, b.teeth);
+                    let a_mm =
+                        crate::model::train::standard_centre_distance_mm(pool.module_of(i), a.teeth, b.teeth);
                     if !cd.contains(a_mm, 1e-9 * a_mm) {
                         continue;
                     }

@@ -8,7 +8,7 @@
 //! Float bounds are widened by the space's margin; the driver decides exactly.
 
 use super::{Engine, SearchSpace};
-use crate::pool::MAX_STAGES;
+use crate::model::pool::MAX_STAGES;
 
 /// Depth-first search with ratio bounds.
 pub struct Sieve;

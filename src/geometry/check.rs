@@ -7,7 +7,7 @@
 
 use std::fmt;
 
-use super::mesh::MeshGeometry;
+use super::working::MeshGeometry;
 
 /// Which gear of a pair a defect concerns, with enough to name it in a message.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, serde::Serialize)]
@@ -268,8 +268,8 @@ pub fn check_mesh(mesh: &MeshGeometry, limits: &MeshLimits) -> Vec<MeshDefect> {
 
 #[cfg(test)]
 mod tests {
-    use super::super::mesh::{mesh_geometry, Mounting};
     use super::super::system::{RackProfile, ToothSystem};
+    use super::super::working::{mesh_geometry, Mounting};
     use super::*;
 
     fn system(module_mm: f64, deg: f64) -> ToothSystem {

@@ -22,15 +22,15 @@
 
 pub mod check;
 pub mod involute;
-pub mod mesh;
 pub mod modules;
 pub mod pair;
 pub mod system;
+pub mod working;
 
 pub use check::{check_mesh, GearRef, MeshDefect, MeshLimits, Role};
 pub use involute::{inv, inv_inverse};
-pub use mesh::{mesh_geometry, shift_for_centre_distance, MeshGeometry, Mounting};
 pub use modules::{
     is_standard_module, module_from_diametral_pitch, Series, MM_PER_INCH, MODULE_SERIES_I, MODULE_SERIES_II,
 };
 pub use system::{RackProfile, ToothSystem};
+pub use working::{mesh_geometry, shift_for_centre_distance, MeshGeometry, Mounting};

@@ -1,0 +1,279 @@
+//! The gears a search may use: either a range of tooth counts to be cut (any number of each) or
+//! the gears on hand from stock catalogues (each at most its quantity). Gears are sorted into mesh
+//! groups: only gears of one module and pressure angle can mesh with each other.
+//!
+//! Owns the validity limits for a single gear (teeth, module, pressure angle); knows nothing of
+//! stages or ratios.
+
+use crate::error::{Error, Result};
+use crate::numbers::range::IntRange;
+
+/// Fewest teeth a gear or pinion may have (clock pinions go down to 6 leaves; 3 is a hard floor).
+pub const MIN_TEETH: u32 = 3;
+/// Most teeth a gear may have. With at most [`MAX_STAGES`] stages every product of tooth counts
+/// stays below 10¹⁸ and fits a `u64` exactly.
+pub const MAX_TEETH: u32 = 1000;
+/// Most stages in one train.
+pub const MAX_STAGES: usize = 6;
+/// Module range accepted, mm.
+pub const MODULE_RANGE_MM: (f64, f64) = (0.05, 100.0);
+/// Pressure angles accepted, degrees.
+pub const PRESSURE_ANGLE_RANGE_DEG: (f64, f64) = (10.0, 35.0);
+
+/// Gears that can mesh with each other: one module and one pressure angle.
+#[derive(Debug, Clone, PartialEq)]
+pub struct MeshGroup {
+    /// Module, mm (for inch gears, 25.4 / diametral pitch).
+    pub module_mm: f64,
+    /// Pressure angle, degrees.
+    pub pressure_angle_deg: f64,
+    /// The diametral pitch (teeth per inch of pitch diameter) when the gears were given that way.
+    pub diametral_pitch: Option<f64>,
+}
+
+impl MeshGroup {
+    /// Same module (to 1 part in 10⁹) and pressure angle: the gears mesh.
+    pub fn meshes_with(&self, module_mm: f64, pressure_angle_deg: f64) -> bool {
+        (self.module_mm - module_mm).abs() <= 1e-9 * self.module_mm
+            && (self.pressure_angle_deg - pressure_angle_deg).abs() <= 1e-9
+    }
+}
+
+/// One kind of gear: all gears of this tooth count in this mesh group are interchangeable.
+#[derive(Debug, Clone, PartialEq)]
+pub struct GearKind {
+    /// Tooth count (leaves, for a clock pinion).
+    pub teeth: u32,
+    /// Index into [`Pool::groups`].
+    pub group: usize,
+    /// How many are on hand; `None` when any number can be cut.
+    pub quantity: Option<u32>,
+    /// Labels from the catalogue rows this kind came from, in file order.
+    pub labels: Vec<String>,
+}
+
+/// A gear as read from a stock catalogue, before merging.
+#[derive(Debug, Clone, PartialEq)]
+pub struct StockGear {
+    /// Tooth count.
+    pub teeth: u32,
+    /// Module, mm.
+    pub module_mm: f64,
+    /// Diametral pitch, when given.
+    pub diametral_pitch: Option<f64>,
+    /// Pressure angle, degrees.
+    pub pressure_angle_deg: f64,
+    /// How many.
+    pub quantity: u32,
+    /// Free text from the catalogue, may be empty.
+    pub label: String,
+}
+
+/// The validated set of gears a search draws from.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Pool {
+    /// Mesh groups, in order of first appearance.
+    pub groups: Vec<MeshGroup>,
+    /// Gear kinds, sorted by group then teeth; unique per (group, teeth).
+    pub gears: Vec<GearKind>,
+    /// True when gears are drawn from stock (quantities apply).
+    pub from_stock: bool,
+}
+
+/// Check a module value; `place` names where it came from.
+pub fn check_module(module_mm: f64, place: &dyn Fn(String) -> Error) -> Result<f64> {
+    let (lo, hi) = MODULE_RANGE_MM;
+    if !module_mm.is_finite() || module_mm < lo || module_mm > hi {
+        return Err(place(format!("module must be a number of mm from {lo} to {hi}, found {module_mm}")));
+    }
+    Ok(module_mm)
+}
+
+/// Check a pressure angle; `place` names where it came from.
+pub fn check_pressure_angle(deg: f64, place: &dyn Fn(String) -> Error) -> Result<f64> {
+    let (lo, hi) = PRESSURE_ANGLE_RANGE_DEG;
+    if !deg.is_finite() || deg < lo || deg > hi {
+        return Err(place(format!("pressure angle must be from {lo}° to {hi}°, found {deg}")));
+    }
+    Ok(deg)
+}
+
+impl Pool {
+    /// Gears to be cut: every tooth count in `teeth`, any number of each, one module.
+    pub fn to_cut(
+        teeth: IntRange,
+        module_mm: f64,
+        pressure_angle_deg: f64,
+        diametral_pitch: Option<f64>,
+    ) -> Result<Pool> {
+        check_module(module_mm, &|m| Error::flag("--module", m))?;
+        check_pressure_angle(pressure_angle_deg, &|m| Error::flag("--pressure-angle", m))?;
+        if teeth.lo < MIN_TEETH || teeth.hi > MAX_TEETH {
+            return Err(Error::flag("--teeth", format!("teeth must lie within {MIN_TEETH}..{MAX_TEETH}")));
+        }
+        let gears = (teeth.lo..=teeth.hi)
+            .map(|t| GearKind { teeth: t, group: 0, quantity: None, labels: Vec::new() })
+            .collect();
+        let pool = Pool {
+            groups: vec![MeshGroup { module_mm, pressure_angle_deg, diametral_pitch }],
+            gears,
+            from_stock: false,
+        };
+        pool.check_can_mesh("--teeth")?;
+        Ok(pool)
+    }
+
+    /// Gears on hand. Gears of the same teeth, module and pressure angle merge and their
+    /// quantities add up; `source` names the catalogues in errors.
+    pub fn from_stock(stock: &[StockGear], source: &str) -> Result<Pool> {
+        let mut groups: Vec<MeshGroup> = Vec::new();
+        let mut gears: Vec<GearKind> = Vec::new();
+        for g in stock {
+            let group = match groups.iter().position(|m| m.meshes_with(g.module_mm, g.pressure_angle_deg)) {
+                Some(i) => i,
+                None => {
+                    groups.push(MeshGroup {
+                        module_mm: g.module_mm,
+                        pressure_angle_deg: g.pressure_angle_deg,
+                        diametral_pitch: g.diametral_pitch,
+                    });
+                    groups.len() - 1
+                }
+            };
+            match gears.iter_mut().find(|k| k.group == group && k.teeth == g.teeth) {
+                Some(k) => {
+                    // Nothing the user gave is silently capped: a total past u32 is refused.
+                    let q = k.quantity.unwrap_or(0).checked_add(g.quantity).ok_or_else(|| {
+                        Error::Problem(format!(
+                            "{source}: the quantities of the {}-tooth gear add up to more than {}",
+                            g.teeth,
+                            u32::MAX
+                        ))
+                    })?;
+                    k.quantity = Some(q);
+                    if !g.label.is_empty() {
+                        k.labels.push(g.label.clone());
+                    }
+                }
+                None => gears.push(GearKind {
+                    teeth: g.teeth,
+                    group,
+                    quantity: Some(g.quantity),
+                    labels: if g.label.is_empty() { Vec::new() } else { vec![g.label.clone()] },
+                }),
+            }
+        }
+        if gears.is_empty() {
+            return Err(Error::Problem(format!("{source}: no gears in stock")));
+        }
+        gears.sort_by_key(|k| (k.group, k.teeth));
+        let pool = Pool { groups, gears, from_stock: true };
+        pool.check_can_mesh(source)?;
+        Ok(pool)
+    }
+
+    /// Refuse a pool in which no two gears of different tooth counts share a mesh group.
+    fn check_can_mesh(&self, source: &str) -> Result<()> {
+        let ok =
+            self.gears.iter().any(|a| self.gears.iter().any(|b| a.group == b.group && a.teeth != b.teeth));
+        if ok {
+            Ok(())
+        } else {
+            Err(Error::Problem(format!(
+                "{source}: nothing can mesh: a stage needs two gears of different tooth counts \
+                 with the same module and pressure angle"
+            )))
+        }
+    }
+
+    /// Module of a gear kind, mm.
+    pub fn module_of(&self, gear: usize) -> f64 {
+        self.groups[self.gears[gear].group].module_mm
+    }
+
+    /// One-line description for reports, e.g. `teeth 12..150, module 1 mm, 20°`.
+    pub fn describe(&self) -> String {
+        let groups: Vec<String> = self.groups.iter().map(describe_group).collect();
+        if self.from_stock {
+            let total: u64 = self.gears.iter().map(|g| g.quantity.unwrap_or(0) as u64).sum();
+            format!("{} gears on hand ({} kinds) in {}", total, self.gears.len(), groups.join("; "))
+        } else {
+            let lo = self.gears.first().map_or(0, |g| g.teeth);
+            let hi = self.gears.last().map_or(0, |g| g.teeth);
+            format!("any number of gears of {lo}..{hi} teeth, {}", groups.join("; "))
+        }
+    }
+}
+
+/// `module 1.5 mm, 20°` or `16 DP (module 1.5875 mm), 14.5°`.
+pub fn describe_group(g: &MeshGroup) -> String {
+    match g.diametral_pitch {
+        Some(p) => format!(
+            "{} DP (module {} mm), {}°",
+            fmt_num(p),
+            fmt_num(g.module_mm),
+            fmt_num(g.pressure_angle_deg)
+        ),
+        None => format!("module {} mm, {}°", fmt_num(g.module_mm), fmt_num(g.pressure_angle_deg)),
+    }
+}
+
+/// A number with at most 4 decimals and no trailing zeros.
+pub fn fmt_num(v: f64) -> String {
+    let s = format!("{v:.4}");
+    let s = s.trim_end_matches('0').trim_end_matches('.');
+    if s == "-0" {
+        "0".to_string()
+    } else {
+        s.to_string()
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    fn g(teeth: u32, module_mm: f64, q: u32) -> StockGear {
+        StockGear {
+            teeth,
+            module_mm,
+            diametral_pitch: None,
+            pressure_angle_deg: 20.0,
+            quantity: q,
+            label: String::new(),
+        }
+    }
+
+    #[test]
+    fn stock_merges_interchangeable_gears() {
+        let p = Pool::from_stock(&[g(20, 1.0, 1), g(40, 1.0, 1), g(20, 1.0, 2), g(20, 1.5, 1)], "t").unwrap();
+        assert_eq!(p.groups.len(), 2);
+        let k20: Vec<_> = p.gears.iter().filter(|k| k.teeth == 20).collect();
+        assert_eq!(k20.len(), 2);
+        assert_eq!(k20[0].quantity, Some(3));
+    }
+
+    #[test]
+    fn nothing_to_mesh_is_refused() {
+        let e = Pool::from_stock(&[g(20, 1.0, 5), g(40, 1.5, 1)], "x.csv").unwrap_err();
+        assert!(e.to_string().contains("nothing can mesh"));
+        assert!(Pool::from_stock(&[], "x.csv").is_err());
+        assert!(Pool::to_cut(IntRange { lo: 20, hi: 20 }, 1.0, 20.0, None).is_err());
+    }
+
+    #[test]
+    fn bad_module_and_angle_are_refused() {
+        let r = IntRange { lo: 12, hi: 40 };
+        assert!(Pool::to_cut(r, 0.0, 20.0, None).is_err());
+        assert!(Pool::to_cut(r, f64::NAN, 20.0, None).is_err());
+        assert!(Pool::to_cut(r, 1.0, 90.0, None).is_err());
+        assert!(Pool::to_cut(r, 1.0, 14.5, None).is_ok());
+    }
+
+    #[test]
+    fn numbers_print_plainly() {
+        assert_eq!(fmt_num(1.0), "1");
+        assert_eq!(fmt_num(1.5875), "1.5875");
+        assert_eq!(fmt_num(47.50001), "47.5");
+    }
+}

@@ -1,0 +1,240 @@
+//! A search problem, valid by construction: the target, the gear pool, how many stages, the
+//! per-stage limits, the required direction, how to rank and how many to list. The command line
+//! builds one of these; the engines only read it.
+
+use std::fmt;
+use std::sync::Arc;
+
+use crate::error::{Error, Result};
+use crate::geometry::{MeshLimits, RackProfile};
+use crate::model::pool::{Pool, MAX_STAGES};
+use crate::model::rank::RankKey;
+use crate::model::train::{Direction, Train};
+use crate::numbers::range::{FloatRange, IntRange, RatioRange};
+use crate::numbers::target::Target;
+
+/// A train-level requirement beyond the ratio and the per-stage limits (a lathe's banjo
+/// geometry, a coaxial clock train…). Called only for trains already within tolerance and
+/// stock; `true` keeps the train. Must be a pure function of the train so results stay
+/// deterministic.
+#[derive(Clone)]
+pub struct TrainCheck(pub Arc<dyn Fn(&Train) -> bool + Send + Sync>);
+
+impl TrainCheck {
+    /// Wrap a predicate.
+    pub fn new(f: impl Fn(&Train) -> bool + Send + Sync + 'static) -> TrainCheck {
+        TrainCheck(Arc::new(f))
+    }
+}
+
+/// A trade workflow's own ranking key (smaller is better), used where the problem's rank list
+/// names [`crate::model::rank::RankKey::Extra`]. Called for trains already within tolerance; must be a
+/// pure function of the train.
+#[derive(Clone)]
+pub struct ExtraKey {
+    /// The key's name in reports (e.g. `balance`).
+    pub name: &'static str,
+    /// The key's value for a train.
+    pub key: Arc<dyn Fn(&Train) -> f64 + Send + Sync>,
+}
+
+impl ExtraKey {
+    /// Wrap a key function.
+    pub fn new(name: &'static str, f: impl Fn(&Train) -> f64 + Send + Sync + 'static) -> ExtraKey {
+        ExtraKey { name, key: Arc::new(f) }
+    }
+}
+
+impl fmt::Debug for ExtraKey {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        write!(f, "ExtraKey({})", self.name)
+    }
+}
+
+impl PartialEq for ExtraKey {
+    fn eq(&self, other: &Self) -> bool {
+        self.name == other.name && Arc::ptr_eq(&self.key, &other.key)
+    }
+}
+
+impl fmt::Debug for TrainCheck {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        f.write_str("TrainCheck(..)")
+    }
+}
+
+impl PartialEq for TrainCheck {
+    fn eq(&self, other: &Self) -> bool {
+        Arc::ptr_eq(&self.0, &other.0)
+    }
+}
+
+/// Limits every stage must meet.
+#[derive(Debug, Clone, Default, PartialEq)]
+pub struct StageLimits {
+    /// Allowed driver tooth counts (e.g. clock pinions of 6..12 leaves).
+    pub driver_teeth: Option<IntRange>,
+    /// Allowed driven tooth counts.
+    pub driven_teeth: Option<IntRange>,
+    /// Allowed stage ratio, driven / driver.
+    pub stage_ratio: Option<RatioRange>,
+    /// Allowed standard centre distance of each stage, mm.
+    pub centre_distance_mm: Option<FloatRange>,
+}
+
+/// Default allowed profile shift sum `x1 + x2` per stage, in modules: a conservative range
+/// that keeps working pressure angles near the rack's and tips from running thin.
+pub const DEFAULT_SHIFT_SUM: (f64, f64) = (-0.5, 1.0);
+
+/// Default tolerance on a fixed centre distance, mm: a stage whose standard centre distance is
+/// this close needs no profile shift.
+pub const DEFAULT_CENTRE_TOLERANCE_MM: f64 = 0.01;
+
+/// Mesh geometry rules. When a problem has them, every stage is worked out as an involute mesh
+/// (profile shifts split by the geometry module's rule) and kept only if it runs.
+#[derive(Debug, Clone, PartialEq)]
+pub struct MeshRules {
+    /// Basic rack both gears of every stage are cut with.
+    pub rack: RackProfile,
+    /// What a mesh must meet (contact ratio, tip thickness, undercut).
+    pub limits: MeshLimits,
+    /// Allowed profile shift sum `x1 + x2` per stage, in modules, `lo ≤ hi`.
+    pub shift_sum: (f64, f64),
+    /// Fixed working centre distance of every stage, mm, reached by profile shift.
+    pub centre_distance_mm: Option<f64>,
+    /// A stage whose standard centre distance is within this of the fixed one is left unshifted
+    /// (apart from the undercut split), mm.
+    pub centre_tolerance_mm: f64,
+    /// Input and output shafts on one axis: every stage at one working centre distance (a
+    /// reverted train), so only even stage counts qualify.
+    pub coaxial: bool,
+}
+
+impl Default for MeshRules {
+    fn default() -> Self {
+        MeshRules {
+            rack: RackProfile::default(),
+            limits: MeshLimits::default(),
+            shift_sum: DEFAULT_SHIFT_SUM,
+            centre_distance_mm: None,
+            centre_tolerance_mm: DEFAULT_CENTRE_TOLERANCE_MM,
+            coaxial: false,
+        }
+    }
+}
+
+/// A validated search problem.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Problem {
+    /// What ratio, how close.
+    pub target: Target,
+    /// Which gears.
+    pub pool: Pool,
+    /// Stage counts allowed, inclusive, within `1..=MAX_STAGES`.
+    pub stages: IntRange,
+    /// Per-stage limits.
+    pub limits: StageLimits,
+    /// Required output direction, if any.
+    pub direction: Option<Direction>,
+    /// Ranking keys, most important first; never empty.
+    pub rank: Vec<RankKey>,
+    /// How many trains to list (all are counted).
+    pub limit: usize,
+    /// Extra train-level requirement, if any (set after [`Problem::new`]).
+    pub train_check: Option<TrainCheck>,
+    /// Mesh geometry rules, if meshes are to be worked out and checked (set with
+    /// [`Problem::with_mesh_rules`]).
+    pub mesh: Option<MeshRules>,
+    /// List the Pareto front on (|error|, meshes, size) instead of the best `limit`.
+    pub pareto: bool,
+    /// The extra ranking key, needed when `rank` names [`RankKey::Extra`].
+    pub extra_key: Option<ExtraKey>,
+}
+
+impl Problem {
+    /// Check the parts against each other.
+    pub fn new(
+        target: Target,
+        pool: Pool,
+        stages: IntRange,
+        limits: StageLimits,
+        direction: Option<Direction>,
+        rank: Vec<RankKey>,
+        limit: usize,
+    ) -> Result<Problem> {
+        if stages.lo < 1 || stages.hi as usize > MAX_STAGES {
+            return Err(Error::flag("--stages", format!("stages must lie within 1..{MAX_STAGES}")));
+        }
+        if rank.is_empty() {
+            return Err(Error::flag("--rank", "give at least one key of error, meshes, size, span"));
+        }
+        let p = Problem {
+            target,
+            pool,
+            stages,
+            limits,
+            direction,
+            rank,
+            limit,
+            train_check: None,
+            mesh: None,
+            pareto: false,
+            extra_key: None,
+        };
+        if p.stage_counts().is_empty() {
+            return Err(Error::flag(
+                "--direction",
+                format!(
+                    "no stage count in {} turns the output the {} way: each external mesh reverses it, so \
+                     same needs an even number of stages and opposite an odd number",
+                    p.stages,
+                    direction.map_or("", |d| d.as_str())
+                ),
+            ));
+        }
+        Ok(p)
+    }
+
+    /// The stage counts searched, ascending, after the direction and coaxial requirements.
+    pub fn stage_counts(&self) -> Vec<usize> {
+        let coaxial = self.mesh.as_ref().is_some_and(|m| m.coaxial);
+        (self.stages.lo as usize..=self.stages.hi as usize)
+            .filter(|&n| self.direction.is_none_or(|d| Direction::after_meshes(n) == d))
+            .filter(|&n| !coaxial || n % 2 == 0)
+            .collect()
+    }
+
+    /// Add mesh geometry rules, checking them against the rest of the problem.
+    pub fn with_mesh_rules(mut self, rules: MeshRules) -> Result<Problem> {
+        let (lo, hi) = rules.shift_sum;
+        if !(lo.is_finite() && hi.is_finite() && lo <= hi) {
+            return Err(Error::flag("--shift-sum", "wanted LO..HI in modules with LO ≤ HI, e.g. -0.5..1"));
+        }
+        if let Some(a) = rules.centre_distance_mm {
+            if !(a.is_finite() && a > 0.0) {
+                return Err(Error::flag(
+                    "--centre-distance",
+                    format!("wanted a positive distance in mm, found {a}"),
+                ));
+            }
+        }
+        if !(rules.centre_tolerance_mm.is_finite() && rules.centre_tolerance_mm >= 0.0) {
+            return Err(Error::flag("--centre-tol", "wanted a distance of 0 mm or more"));
+        }
+        let l = rules.limits;
+        if !(l.min_contact_ratio.is_finite() && l.min_contact_ratio >= 0.0) {
+            return Err(Error::flag("--min-contact-ratio", "wanted a number of 0 or more, e.g. 1.2"));
+        }
+        self.mesh = Some(rules);
+        if self.stage_counts().is_empty() {
+            return Err(Error::flag(
+                "--coaxial",
+                format!(
+                    "a coaxial (reverted) train needs an even number of stages; none in {} qualifies",
+                    self.stages
+                ),
+            ));
+        }
+        Ok(self)
+    }
+}

@@ -1,0 +1,216 @@
+//! The target of a search: the ratio the user asked for and the tolerance around it, parsed from
+//! text into exact rationals. Owns the ratio and tolerance syntax; knows nothing of gears.
+//!
+//! Ratio syntax: an integer (`12`), a decimal (`1.0583`), a fraction (`127/120`), a ratio of two
+//! decimals (`37.5:1`), or `pi`. Tolerance syntax: a plain or scientific number (`0.0001`,
+//! `1e-4`), a percentage (`0.01%`), parts per million (`50ppm`) or per billion (`20ppb`).
+
+use crate::error::{Error, Result};
+use crate::numbers::rational::Ratio;
+
+/// π held as its continued-fraction convergent 2646693125139304345/842468587426513207, the last
+/// whose parts fit in 63 bits; it differs from π by 4.5·10⁻³⁹ relative, far below any tolerance
+/// a gear train can be asked to meet.
+pub const PI: Ratio = match Ratio::from_parts(2646693125139304345, 842468587426513207) {
+    Some(r) => r,
+    None => panic!("the π convergent is reduced"),
+};
+
+/// Largest decimal exponent accepted in a tolerance such as `1e-12`.
+const MAX_EXPONENT: u32 = 30;
+
+/// A required ratio and tolerance.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Target {
+    /// The ratio as the user typed it, e.g. `37.5:1`.
+    pub text: String,
+    /// The ratio, exactly (`75/2`). Always positive.
+    pub ratio: Ratio,
+    /// Relative tolerance `T`: a train is within it when `|i/R − 1| ≤ T`. `0 ≤ T < 1`.
+    pub tolerance: Ratio,
+}
+
+impl Target {
+    /// Parse a ratio and a tolerance; `ratio_flag` and `tol_flag` name them in errors.
+    pub fn parse(ratio: &str, tol: &str, ratio_flag: &str, tol_flag: &str) -> Result<Target> {
+        Ok(Target {
+            text: ratio.trim().to_string(),
+            ratio: parse_ratio(ratio, ratio_flag)?,
+            tolerance: parse_tolerance(tol, tol_flag)?,
+        })
+    }
+
+    /// Build from an exact ratio (for the trade workflows that compute their own ratio).
+    pub fn exact(text: impl Into<String>, ratio: Ratio, tolerance: Ratio) -> Target {
+        Target { text: text.into(), ratio, tolerance }
+    }
+}
+
+/// Parse a positive ratio in any of the accepted forms.
+pub fn parse_ratio(text: &str, flag: &str) -> Result<Ratio> {
+    let t = text.trim();
+    let wanted = "wanted a positive number such as 12, 1.0583, 127/120, 37.5:1 or pi";
+    if t.is_empty() {
+        return Err(Error::flag(flag, format!("empty ratio; {wanted}")));
+    }
+    if t.eq_ignore_ascii_case("pi") || t == "π" {
+        return Ok(PI);
+    }
+    let (a, b, sep) = if let Some((a, b)) = t.split_once(':') {
+        (a, Some(b), ':')
+    } else if let Some((a, b)) = t.split_once('/') {
+        (a, Some(b), '/')
+    } else {
+        (t, None, ' ')
+    };
+    let bad = |why: &str| Error::flag(flag, format!("\"{t}\" {why}; {wanted}"));
+    let a = parse_decimal(a.trim()).map_err(&bad)?;
+    let value = match b {
+        None => a,
+        Some(b) => {
+            let b = parse_decimal(b.trim()).map_err(&bad)?;
+            if b.0 == 0 {
+                return Err(bad(&format!("divides by zero after '{sep}'")));
+            }
+            (
+                a.0.checked_mul(b.1).ok_or_else(|| bad("has too many digits"))?,
+                a.1.checked_mul(b.0).ok_or_else(|| bad("has too many digits"))?,
+            )
+        }
+    };
+    if value.0 == 0 {
+        return Err(bad("is zero: a train cannot stop its output"));
+    }
+    Ratio::new(value.0, value.1).ok_or_else(|| bad("has too many digits to hold exactly"))
+}
+
+/// Parse a relative tolerance; the result is in `[0, 1)`.
+pub fn parse_tolerance(text: &str, flag: &str) -> Result<Ratio> {
+    let t = text.trim();
+    let wanted = "wanted a tolerance such as 0, 1e-4, 0.01% or 50ppm, below 100%";
+    let bad = |why: &str| Error::flag(flag, format!("\"{t}\" {why}; {wanted}"));
+    if t.is_empty() {
+        return Err(bad("is empty"));
+    }
+    let lower = t.to_ascii_lowercase();
+    let (number, scale): (&str, u128) = if let Some(n) = lower.strip_suffix("ppm") {
+        (n, 1_000_000)
+    } else if let Some(n) = lower.strip_suffix("ppb") {
+        (n, 1_000_000_000)
+    } else if let Some(n) = lower.strip_suffix('%') {
+        (n, 100)
+    } else {
+        (lower.as_str(), 1)
+    };
+    let number = number.trim();
+    let (mantissa, exponent) = match number.split_once('e') {
+        Some((m, e)) => {
+            let e: i32 = e.parse().map_err(|_| bad("has an unreadable exponent"))?;
+            if e.unsigned_abs() > MAX_EXPONENT {
+                return Err(bad("has an exponent out of range"));
+            }
+            (m, e)
+        }
+        None => (number, 0),
+    };
+    if mantissa.starts_with('-') {
+        return Err(bad("is negative"));
+    }
+    let (mut num, mut den) = parse_decimal(mantissa).map_err(&bad)?;
+    let pow = 10u128.pow(exponent.unsigned_abs());
+    let overflow = || bad("has too many digits to hold exactly");
+    if exponent >= 0 {
+        num = num.checked_mul(pow).ok_or_else(overflow)?;
+    } else {
+        den = den.checked_mul(pow).ok_or_else(overflow)?;
+    }
+    den = den.checked_mul(scale).ok_or_else(overflow)?;
+    if num >= den {
+        return Err(bad("is 100% or more: every ratio would pass"));
+    }
+    Ratio::new(num, den).ok_or_else(overflow)
+}
+
+/// A plain unsigned decimal `123`, `1.25` or `.5` as an unreduced `(num, den)`.
+fn parse_decimal(s: &str) -> std::result::Result<(u128, u128), &'static str> {
+    if s.is_empty() {
+        return Err("has an empty number");
+    }
+    if s.starts_with('-') {
+        return Err("is negative");
+    }
+    let (int, frac) = s.split_once('.').unwrap_or((s, ""));
+    if int.is_empty() && frac.is_empty() {
+        return Err("is not a number");
+    }
+    if !int.bytes().chain(frac.bytes()).all(|b| b.is_ascii_digit()) {
+        return Err("is not a number");
+    }
+    if int.len() + frac.len() > 36 {
+        return Err("has too many digits to hold exactly");
+    }
+    let digits: u128 = format!("{int}{frac}").parse().map_err(|_| "is not a number")?;
+    Ok((digits, 10u128.pow(frac.len() as u32)))
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    fn r(s: &str) -> String {
+        parse_ratio(s, "--ratio").unwrap().to_string()
+    }
+
+    fn t(s: &str) -> String {
+        parse_tolerance(s, "--tol").unwrap().to_string()
+    }
+
+    #[test]
+    fn ratio_forms_are_exact() {
+        assert_eq!(r("12"), "12");
+        assert_eq!(r("1.0583"), "10583/10000");
+        assert_eq!(r("127/120"), "127/120");
+        assert_eq!(r("37.5:1"), "75/2");
+        assert_eq!(r(" 2.5 : 0.5 "), "5");
+        assert_eq!(r(".5"), "1/2");
+        assert_eq!(r("29.530588"), "7382647/250000");
+        assert_eq!(r("PI"), PI.to_string());
+    }
+
+    #[test]
+    fn pi_is_a_convergent_of_pi() {
+        // Convergents of π: 355/113 (OEIS A002485/A002486); ours must agree to f64 precision.
+        assert!((PI.to_f64() - std::f64::consts::PI).abs() < 1e-15);
+    }
+
+    #[test]
+    fn bad_ratios_name_the_flag() {
+        for bad in ["", "0", "0/5", "-3", "1/0", "abc", "1.2.3", "nan", "inf", "3:", "1e5", "5/-2"] {
+            let e = parse_ratio(bad, "--ratio").unwrap_err().to_string();
+            assert!(e.starts_with("--ratio: "), "{bad}: {e}");
+        }
+        let e = parse_ratio("1/0", "--ratio").unwrap_err().to_string();
+        assert!(e.contains("divides by zero"), "{e}");
+    }
+
+    #[test]
+    fn tolerance_forms_are_exact() {
+        assert_eq!(t("0"), "0");
+        assert_eq!(t("1e-4"), "1/10000");
+        assert_eq!(t("0.0001"), "1/10000");
+        assert_eq!(t("0.01%"), "1/10000");
+        assert_eq!(t("50ppm"), "1/20000");
+        assert_eq!(t("50 ppm"), "1/20000");
+        assert_eq!(t("20ppb"), "1/50000000");
+        assert_eq!(t("2.5E-3"), "1/400");
+        assert_eq!(t("99.9%"), "999/1000");
+    }
+
+    #[test]
+    fn bad_tolerances_are_refused() {
+        for bad in ["", "-1e-4", "100%", "1", "150%", "nan", "inf", "x", "1e-99", "5ppmx", "1e"] {
+            let e = parse_tolerance(bad, "--tol").unwrap_err().to_string();
+            assert!(e.starts_with("--tol: "), "{bad}: {e}");
+        }
+    }
+}

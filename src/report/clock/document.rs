@@ -1,0 +1,354 @@
+//! The table format for clock trains: a header saying what was asked in the clockmaker's terms,
+//! the trains in aligned columns, and a footer with the conventions. A sink: it computes
+//! nothing about gears.
+
+use std::io::{self, Write};
+
+use crate::model::pool::fmt_num;
+use crate::model::train::Train;
+use crate::report::columns::columns;
+use crate::report::{describe_error, describe_tolerance, CONVENTION};
+use crate::trades::clock::astro::AstroPlan;
+use crate::trades::clock::beat::{BeatSource, STANDARD_GRAVITY};
+use crate::trades::clock::going::GoingPlan;
+use crate::trades::clock::motion::{stage_names, MotionPlan};
+
+/// `3 trains; all listed` / `120 trains; the best 10 listed`, with the interrupted mark.
+pub fn count_line(count: u64, listed: usize, complete: bool, what: &str, order: &str) -> String {
+    let status = if complete { "" } else { "INCOMPLETE (interrupted): at least " };
+    match count {
+        0 => format!("{status}No {what} meets every constraint."),
+        1 => format!("{status}1 {what}:"),
+        n if n == listed as u64 => format!("{status}{n} {what}s, all listed {order}:"),
+        n => format!("{status}{n} {what}s; the best {listed} listed {order}:"),
+    }
+}
+
+/// Arbor names of a going train of `stages` stages from the centre arbor: centre, third,
+/// fourth…, escape; `driving` replaces `centre` when the train starts from another arbor.
+pub fn arbor_names(stages: usize, driving: &str) -> Vec<String> {
+    const ORDINALS: [&str; 6] = ["third", "fourth", "fifth", "sixth", "seventh", "eighth"];
+    let mut v = vec![driving.to_string()];
+    v.extend(ORDINALS.iter().take(stages.saturating_sub(1)).map(|s| s.to_string()));
+    v.push("escape".into());
+    v
+}
+
+/// Turns per hour, and the time per turn, for people: `60/h (1 min)`.
+pub fn speed(turns_per_hour: f64) -> String {
+    let minutes = 60.0 / turns_per_hour;
+    let per = if minutes < 1.0 {
+        format!("{} s", fmt_num(minutes * 60.0))
+    } else if minutes < 120.0 {
+        format!("{} min", fmt_num(minutes))
+    } else {
+        format!("{} h", fmt_num(minutes / 60.0))
+    };
+    format!("{}/h ({per})", fmt_num(turns_per_hour))
+}
+
+/// The beat in words.
+pub fn describe_beat(p: &GoingPlan) -> String {
+    let b = &p.spec.beat;
+    match b.source {
+        BeatSource::Length { metres, gravity } => format!(
+            "pendulum {} m at g = {gravity} m/s² → period {} s, {} beats/h",
+            fmt_num(metres),
+            fmt_num(b.period_s()),
+            fmt_num(b.beats_per_hour)
+        ),
+        BeatSource::Period(s) => format!(
+            "period {s} s → {} beats/h (simple pendulum {} m at g = {STANDARD_GRAVITY} m/s²)",
+            fmt_num(b.beats_per_hour),
+            fmt_num(b.length_m(STANDARD_GRAVITY))
+        ),
+        BeatSource::BeatsPerHour(r) => format!(
+            "{r} beats/h → period {} s (simple pendulum {} m at g = {STANDARD_GRAVITY} m/s²)",
+            fmt_num(b.period_s()),
+            fmt_num(b.length_m(STANDARD_GRAVITY))
+        ),
+    }
+}
+
+/// A rate error for people: `exact` or `+1.234 s/day`.
+pub fn describe_rate(s_per_day: f64, exact: bool) -> String {
+    if exact {
+        "exact".into()
+    } else {
+        format!("{s_per_day:+.3} s/day")
+    }
+}
+
+fn footer(w: &mut dyn Write, extra: &[&str]) -> io::Result<()> {
+    writeln!(w)?;
+    for line in extra {
+        writeln!(w, "{line}")?;
+    }
+    writeln!(w, "Ratios: {CONVENTION}.")
+}
+
+/// Write a going-train search as a table.
+pub fn write_going(p: &GoingPlan, w: &mut dyn Write) -> io::Result<()> {
+    let s = &p.spec;
+    let e = &s.escapement;
+    let (ratio, exact) = s.needed_ratio();
+    writeln!(w, "Going train")?;
+    writeln!(w, "Beat: {}", describe_beat(p))?;
+    writeln!(
+        w,
+        "Escape wheel: {} teeth, {} beats per tooth → escape arbor {}",
+        e.teeth,
+        e.beats_per_tooth,
+        speed(p.escape_turns_per_hour)
+    )?;
+    writeln!(
+        w,
+        "From the arbor turning {} to the escape arbor, wheels driving pinions: i = {} (a speed-up, i < 1)",
+        speed(s.from_turns_per_hour.to_f64()),
+        if exact {
+            format!("{ratio} exactly")
+        } else {
+            format!("{:.9} (from the pendulum length)", ratio.to_f64())
+        },
+    )?;
+    writeln!(
+        w,
+        "Gears: {}; wheels {}, pinions {} leaves; stages {}; rate tolerance {} s/day",
+        s.pool.describe(),
+        s.wheels,
+        s.pinions,
+        s.stages,
+        s.rate_tolerance_s_per_day
+    )?;
+    writeln!(w)?;
+    writeln!(
+        w,
+        "{}",
+        count_line(p.count, p.trains.len(), p.complete, "train", "by rate error, then stages, then teeth")
+    )?;
+    if !p.trains.is_empty() {
+        let driving = if s.from_turns_per_hour == crate::numbers::rational::Ratio::integer(1) {
+            "centre"
+        } else {
+            "driving"
+        };
+        let rows: Vec<Vec<String>> = p
+            .trains
+            .iter()
+            .enumerate()
+            .map(|(n, g)| {
+                let names = arbor_names(g.train.stages.len(), driving);
+                let stages: Vec<String> = g
+                    .train
+                    .stages
+                    .iter()
+                    .map(|st| format!("{} → {}", st.driver.teeth, st.driven.teeth))
+                    .collect();
+                let arbors: Vec<String> = names
+                    .iter()
+                    .zip(&g.arbor_turns_per_hour)
+                    .map(|(a, v)| format!("{a} {}", speed(*v)))
+                    .collect();
+                vec![
+                    (n + 1).to_string(),
+                    stages.join(", "),
+                    g.train.ratio.to_string(),
+                    describe_rate(g.rate_s_per_day, g.train.error.is_exact() && exact),
+                    arbors.join("; "),
+                ]
+            })
+            .collect();
+        columns(
+            w,
+            &["#", "wheel → pinion", "ratio i", "rate", "arbors (turns per hour, time per turn)"],
+            &rows,
+            &[0],
+        )?;
+    }
+    footer(
+        w,
+        &[
+            "Each stage is a wheel driving a pinion; stages run from the driving arbor to the escape arbor.",
+            "A beat is one swing (half a period); rate error > 0 means the clock gains.",
+        ],
+    )
+}
+
+fn mesh_cells(t: &Train, hour_work: bool) -> Vec<String> {
+    let mut gears = Vec::new();
+    let mut geometry = Vec::new();
+    for (k, s) in t.stages.iter().enumerate() {
+        let (a, b) = stage_names(k, hour_work);
+        gears.push(format!("{a} {} → {b} {}", s.driver.teeth, s.driven.teeth));
+        geometry.push(match &s.mesh {
+            Some(m) => format!(
+                "a {} mm, x {:+.3}/{:+.3}{}, ε {:.2}",
+                fmt_num(m.centre_distance_mm),
+                m.shift[0],
+                m.shift[1],
+                if m.undercut[0] || m.undercut[1] { ", undercut" } else { "" },
+                m.contact_ratio
+            ),
+            None => format!("a {} mm", fmt_num(s.centre_distance_mm())),
+        });
+    }
+    vec![gears.join("; "), geometry.join("; ")]
+}
+
+/// Write a motion-work search as a table.
+pub fn write_motion(p: &MotionPlan, w: &mut dyn Write) -> io::Result<()> {
+    let s = &p.spec;
+    writeln!(w, "Motion work: {} input turns per hand turn (i = {})", s.ratio_text, s.ratio)?;
+    writeln!(
+        w,
+        "Gears: {}; pinions {} leaves, wheels {}; stages {}; tolerance {}",
+        s.pool.describe(),
+        s.pinions,
+        s.wheels,
+        s.stages,
+        describe_tolerance(s.tolerance.to_f64())
+    )?;
+    writeln!(
+        w,
+        "{}; undercut pinions {}; least contact ratio {}",
+        if s.coaxial {
+            "Hand arbor coaxial with the input (reverted train: one centre distance)"
+        } else {
+            "Not coaxial"
+        },
+        if s.allow_undercut { "accepted" } else { "refused" },
+        fmt_num(s.min_contact_ratio)
+    )?;
+    writeln!(w)?;
+    writeln!(
+        w,
+        "{}",
+        count_line(p.count, p.trains.len(), p.complete, "train", "by error, then stages, then teeth")
+    )?;
+    if !p.trains.is_empty() {
+        let rows: Vec<Vec<String>> = p
+            .trains
+            .iter()
+            .enumerate()
+            .map(|(n, t)| {
+                let mut r = vec![(n + 1).to_string()];
+                r.extend(mesh_cells(t, p.is_hour_motion_work(t)));
+                r.push(t.ratio.to_string());
+                r.push(describe_error(&t.error));
+                r
+            })
+            .collect();
+        columns(
+            w,
+            &[
+                "#",
+                "pinion → wheel",
+                "mesh (working centre distance, shifts, contact ratio)",
+                "ratio i",
+                "error",
+            ],
+            &rows,
+            &[0],
+        )?;
+    }
+    footer(
+        w,
+        &[
+            "Pinions drive wheels (a reduction). Meshes are worked out as involute gears, shifts x in modules;",
+            "clock teeth are traditionally cycloidal, so take the geometry as a guide to the centre distances.",
+        ],
+    )
+}
+
+/// Days for people: `12.3 d (0.03 years)` or `never (exact)`.
+pub fn describe_days(d: Option<f64>) -> String {
+    match d {
+        None => "never (exact)".into(),
+        Some(d) if d >= 1e12 => "over 10¹² d".into(),
+        Some(d) => format!("{:.0} d ({} years)", d, fmt_num(d / crate::trades::clock::astro::DAYS_PER_YEAR)),
+    }
+}
+
+/// Drift for people: `+0.000662 d/yr`, or `+1.5e-9 d/yr` when very small.
+pub fn describe_drift(d: f64) -> String {
+    if d == 0.0 {
+        "0 d/yr".into()
+    } else if d.abs() < 1e-4 {
+        format!("{d:+.2e} d/yr")
+    } else {
+        format!("{d:+.6} d/yr")
+    }
+}
+
+/// Write an astronomical-train search as a table.
+pub fn write_astro(p: &AstroPlan, w: &mut dyn Write) -> io::Result<()> {
+    let s = &p.spec;
+    let r = s.ratio();
+    let from = match s.from {
+        crate::trades::clock::astro::InputArbor::Daily => "an arbor turning once a day",
+        crate::trades::clock::astro::InputArbor::Hourly => "an arbor turning once an hour",
+    };
+    writeln!(w, "Astronomical train: {} ({})", s.period.name, s.period.source)?;
+    writeln!(w, "From {from} to a dial turning once per period: i = {r} = {:.9}", r.to_f64())?;
+    writeln!(
+        w,
+        "Gears: {}; stages {}; tolerance {}",
+        s.pool.describe(),
+        s.stages,
+        describe_tolerance(s.tolerance.to_f64())
+    )?;
+    writeln!(w)?;
+    writeln!(
+        w,
+        "{}",
+        count_line(p.count, p.trains.len(), p.complete, "train", "by error, then stages, then teeth")
+    )?;
+    if !p.trains.is_empty() {
+        let rows: Vec<Vec<String>> = p
+            .trains
+            .iter()
+            .enumerate()
+            .map(|(n, a)| {
+                let st: Vec<String> = a
+                    .train
+                    .stages
+                    .iter()
+                    .map(|x| format!("{} → {}", x.driver.teeth, x.driven.teeth))
+                    .collect();
+                vec![
+                    (n + 1).to_string(),
+                    st.join(", "),
+                    a.train.ratio.to_string(),
+                    format!("{:.9} d", a.period_days),
+                    describe_error(&a.train.error),
+                    describe_drift(a.drift_days_per_year),
+                    describe_days(a.days_to_one_day),
+                ]
+            })
+            .collect();
+        columns(
+            w,
+            &["#", "driver → driven", "ratio i", "dial period", "error", "drift", "until 1 day out"],
+            &rows,
+            &[0],
+        )?;
+    }
+    writeln!(w)?;
+    writeln!(w, "Convergents of {r} (the best fractions with small parts):")?;
+    let rows: Vec<Vec<String>> = p
+        .convergents
+        .iter()
+        .map(|c| {
+            vec![
+                c.ratio.to_string(),
+                describe_drift(c.drift_days_per_year),
+                match c.blocking_prime {
+                    Some(q) => format!("no train: needs the prime {q}, above the largest gear"),
+                    None => String::new(),
+                },
+            ]
+        })
+        .collect();
+    columns(w, &["fraction", "drift", ""], &rows, &[])?;
+    footer(w, &["Drift > 0: the dial runs ahead. A year is 365.2425 days (mean Gregorian year)."])
+}

@@ -1,0 +1,231 @@
+//! The JSON format for clock trains. Each train is the train object of `search`
+//! ([`crate::report::search::json::TrainJson`]) plus the clock's own fields:
+//!
+//! ```text
+//! going:  {"arbors": [{"arbor": "centre", "turns_per_hour": f64}, …], "rate_s_per_day": f64}
+//! motion: {"gears": [{"driver": "cannon pinion", "driven": "minute wheel"}, …]}
+//! astro:  {"period_days": f64, "drift_days_per_year": f64, "days_to_one_day": f64|null}
+//! ```
+//! A document is `{"kind": "going"|"motion"|"astro", …what was asked…, "count", "complete",
+//! "convention", "direction", "trains": […]}`; an astro document adds `"convergents"`.
+
+use std::io::{self, Write};
+
+use serde::Serialize;
+
+use super::document::arbor_names;
+use crate::report::search::json::TrainJson;
+use crate::report::CONVENTION;
+use crate::trades::clock::astro::AstroPlan;
+use crate::trades::clock::going::GoingPlan;
+use crate::trades::clock::motion::{stage_names, MotionPlan};
+
+#[derive(Serialize)]
+struct ArborJson {
+    arbor: String,
+    turns_per_hour: f64,
+}
+
+#[derive(Serialize)]
+struct GoingTrainJson {
+    #[serde(flatten)]
+    train: TrainJson,
+    arbors: Vec<ArborJson>,
+    rate_s_per_day: f64,
+}
+
+#[derive(Serialize)]
+struct GoingDoc {
+    kind: &'static str,
+    period_s: f64,
+    beats_per_hour: f64,
+    escape_teeth: u32,
+    beats_per_tooth: u32,
+    escape_turns_per_hour: f64,
+    from_turns_per_hour: f64,
+    ratio_needed: String,
+    ratio_needed_exact: bool,
+    rate_tolerance_s_per_day: f64,
+    count: u64,
+    complete: bool,
+    convention: &'static str,
+    direction: &'static str,
+    trains: Vec<GoingTrainJson>,
+}
+
+fn write_doc<T: Serialize>(doc: &T, w: &mut dyn Write) -> io::Result<()> {
+    serde_json::to_writer_pretty(&mut *w, doc).map_err(io::Error::other)?;
+    writeln!(w)
+}
+
+/// Write a going-train search as one JSON document.
+pub fn write_going(p: &GoingPlan, w: &mut dyn Write) -> io::Result<()> {
+    let s = &p.spec;
+    let (ratio, exact) = s.needed_ratio();
+    let driving = if s.from_turns_per_hour == crate::numbers::rational::Ratio::integer(1) {
+        "centre"
+    } else {
+        "driving"
+    };
+    let doc = GoingDoc {
+        kind: "going",
+        period_s: s.beat.period_s(),
+        beats_per_hour: s.beat.beats_per_hour,
+        escape_teeth: s.escapement.teeth,
+        beats_per_tooth: s.escapement.beats_per_tooth,
+        escape_turns_per_hour: p.escape_turns_per_hour,
+        from_turns_per_hour: s.from_turns_per_hour.to_f64(),
+        ratio_needed: ratio.to_string(),
+        ratio_needed_exact: exact,
+        rate_tolerance_s_per_day: s.rate_tolerance_s_per_day.to_f64(),
+        count: p.count,
+        complete: p.complete,
+        convention: CONVENTION,
+        direction: "input = driving arbor, output = escape arbor; wheels drive pinions, so i < 1",
+        trains: p
+            .trains
+            .iter()
+            .map(|g| GoingTrainJson {
+                train: TrainJson::from_train(&g.train),
+                arbors: arbor_names(g.train.stages.len(), driving)
+                    .into_iter()
+                    .zip(&g.arbor_turns_per_hour)
+                    .map(|(arbor, v)| ArborJson { arbor, turns_per_hour: *v })
+                    .collect(),
+                rate_s_per_day: g.rate_s_per_day,
+            })
+            .collect(),
+    };
+    write_doc(&doc, w)
+}
+
+#[derive(Serialize)]
+struct NamesJson {
+    driver: String,
+    driven: String,
+}
+
+#[derive(Serialize)]
+struct MotionTrainJson {
+    #[serde(flatten)]
+    train: TrainJson,
+    gears: Vec<NamesJson>,
+}
+
+#[derive(Serialize)]
+struct MotionDoc {
+    kind: &'static str,
+    ratio: String,
+    tolerance: f64,
+    coaxial: bool,
+    allow_undercut: bool,
+    min_contact_ratio: f64,
+    count: u64,
+    complete: bool,
+    convention: &'static str,
+    direction: &'static str,
+    trains: Vec<MotionTrainJson>,
+}
+
+/// Write a motion-work search as one JSON document.
+pub fn write_motion(p: &MotionPlan, w: &mut dyn Write) -> io::Result<()> {
+    let s = &p.spec;
+    let doc = MotionDoc {
+        kind: "motion",
+        ratio: s.ratio.to_string(),
+        tolerance: s.tolerance.to_f64(),
+        coaxial: s.coaxial,
+        allow_undercut: s.allow_undercut,
+        min_contact_ratio: s.min_contact_ratio,
+        count: p.count,
+        complete: p.complete,
+        convention: CONVENTION,
+        direction:
+            "input = minute (cannon) arbor or the arbor given, output = hand; pinions drive wheels, so i > 1",
+        trains: p
+            .trains
+            .iter()
+            .map(|t| MotionTrainJson {
+                train: TrainJson::from_train(t),
+                gears: (0..t.stages.len())
+                    .map(|k| {
+                        let (driver, driven) = stage_names(k, p.is_hour_motion_work(t));
+                        NamesJson { driver, driven }
+                    })
+                    .collect(),
+            })
+            .collect(),
+    };
+    write_doc(&doc, w)
+}
+
+#[derive(Serialize)]
+struct AstroTrainJson {
+    #[serde(flatten)]
+    train: TrainJson,
+    period_days: f64,
+    drift_days_per_year: f64,
+    days_to_one_day: Option<f64>,
+}
+
+#[derive(Serialize)]
+struct ConvergentJson {
+    ratio: String,
+    drift_days_per_year: f64,
+    blocking_prime: Option<u64>,
+}
+
+#[derive(Serialize)]
+struct AstroDoc {
+    kind: &'static str,
+    period: String,
+    period_days: String,
+    source: &'static str,
+    input_turns_per_day: u64,
+    ratio: String,
+    tolerance: f64,
+    count: u64,
+    complete: bool,
+    convention: &'static str,
+    direction: &'static str,
+    trains: Vec<AstroTrainJson>,
+    convergents: Vec<ConvergentJson>,
+}
+
+/// Write an astronomical-train search as one JSON document.
+pub fn write_astro(p: &AstroPlan, w: &mut dyn Write) -> io::Result<()> {
+    let s = &p.spec;
+    let doc = AstroDoc {
+        kind: "astro",
+        period: s.period.name.clone(),
+        period_days: s.period.days.to_string(),
+        source: s.period.source,
+        input_turns_per_day: s.from.turns_per_day(),
+        ratio: s.ratio().to_string(),
+        tolerance: s.tolerance.to_f64(),
+        count: p.count,
+        complete: p.complete,
+        convention: CONVENTION,
+        direction: "input = daily or hourly arbor, output = dial turning once per period",
+        trains: p
+            .trains
+            .iter()
+            .map(|a| AstroTrainJson {
+                train: TrainJson::from_train(&a.train),
+                period_days: a.period_days,
+                drift_days_per_year: a.drift_days_per_year,
+                days_to_one_day: a.days_to_one_day,
+            })
+            .collect(),
+        convergents: p
+            .convergents
+            .iter()
+            .map(|c| ConvergentJson {
+                ratio: c.ratio.to_string(),
+                drift_days_per_year: c.drift_days_per_year,
+                blocking_prime: c.blocking_prime,
+            })
+            .collect(),
+    };
+    write_doc(&doc, w)
+}

@@ -1,0 +1,152 @@
+//! Combining the JSON documents of a search split with `--shard I/N` into exactly the document
+//! one unsplit run prints: counts add up, the listed trains are re-ranked with the same total
+//! order the search uses, and every part must be present once and ask the same question.
+//! Owns only the combining; reading files is the command line's job.
+
+use std::cmp::Ordering;
+
+use crate::engine::{Shard, COAXIAL_MISFIT_KIND};
+use crate::error::{Error, Result};
+use crate::model::rank::{compare, dominates, parse_rank, Ranked};
+use crate::numbers::rational::{Ratio, RelError};
+use crate::numbers::target::parse_ratio;
+use crate::report::search::json::{Doc, TrainJson};
+
+/// A listed train with the keys the ranking needs, recomputed exactly from its JSON.
+struct Listed {
+    json: TrainJson,
+    error: RelError,
+    /// Stages in stage-table order: (driven, driver, module, pressure angle), sorted by ratio
+    /// then driver, driven, module, pressure angle.
+    stages: Vec<(u32, u32, f64, f64)>,
+}
+
+fn stage_order(a: &(u32, u32, f64, f64), b: &(u32, u32, f64, f64)) -> Ordering {
+    (a.0 as u64 * b.1 as u64)
+        .cmp(&(b.0 as u64 * a.1 as u64))
+        .then(a.1.cmp(&b.1))
+        .then(a.0.cmp(&b.0))
+        .then(a.2.total_cmp(&b.2))
+        .then(a.3.total_cmp(&b.3))
+}
+
+impl Ranked for Listed {
+    fn rel_error(&self) -> &RelError {
+        &self.error
+    }
+    fn meshes(&self) -> u8 {
+        self.stages.len() as u8
+    }
+    fn size(&self) -> u32 {
+        self.json.size
+    }
+    fn span_mm(&self) -> f64 {
+        self.json.span
+    }
+    fn cmp_stages(&self, other: &Self) -> Ordering {
+        for (a, b) in self.stages.iter().zip(&other.stages) {
+            let o = stage_order(a, b);
+            if o != Ordering::Equal {
+                return o;
+            }
+        }
+        self.stages.len().cmp(&other.stages.len())
+    }
+}
+
+fn listed(t: TrainJson, target: Ratio, name: &str) -> Result<Listed> {
+    let bad = |what: &str| Error::Problem(format!("{name}: a train's {what} is not what gearsieve writes"));
+    let ratio = parse_ratio(&t.ratio, name).map_err(|_| bad("ratio"))?;
+    let mut stages: Vec<(u32, u32, f64, f64)> =
+        t.stages.iter().map(|s| (s.driven, s.driver, s.module, s.pressure_angle)).collect();
+    if stages.is_empty() || stages.iter().any(|s| s.0 == 0 || s.1 == 0) {
+        return Err(bad("stage list"));
+    }
+    stages.sort_by(stage_order);
+    Ok(Listed { error: RelError::of(ratio.num(), ratio.den(), target), json: t, stages })
+}
+
+/// Merge the documents of every part of one split search; `docs` pairs each with a name (its
+/// file) for errors.
+pub fn merge(docs: Vec<(String, Doc)>) -> Result<Doc> {
+    let Some((first_name, first)) = docs.first().cloned() else {
+        return Err(Error::Problem("merge: give the JSON files of every part of the search".into()));
+    };
+    let part = |name: &str, d: &Doc| -> Result<Shard> {
+        let text = d.shard.as_deref().ok_or_else(|| {
+            Error::Problem(format!(
+                "{name}: not part of a split search (it has no \"shard\"); run the parts with --shard I/N"
+            ))
+        })?;
+        Shard::parse(text, name)
+    };
+    let n = part(&first_name, &first)?.count;
+    let mut seen = vec![false; n as usize];
+    for (name, d) in &docs {
+        let s = part(name, d)?;
+        if s.count != n {
+            return Err(Error::Problem(format!(
+                "{name}: part {s} belongs to a search split {} ways, not {n}",
+                s.count
+            )));
+        }
+        if std::mem::replace(&mut seen[s.index as usize - 1], true) {
+            return Err(Error::Problem(format!("{name}: part {s} is given twice")));
+        }
+        let same = d.target == first.target
+            && d.rank == first.rank
+            && d.limit == first.limit
+            && d.pareto_size.is_some() == first.pareto_size.is_some()
+            && d.convention == first.convention;
+        if !same {
+            return Err(Error::Problem(format!(
+                "{name}: asks a different question from {first_name} (target, tolerance, ranking, limit or Pareto mode differ)"
+            )));
+        }
+    }
+    if let Some(missing) = seen.iter().position(|s| !s) {
+        return Err(Error::Problem(format!("merge: part {}/{n} is missing", missing + 1)));
+    }
+    let target = parse_ratio(&first.target.exact, &first_name)?;
+    let names: Vec<String> = first.rank.clone();
+    let keys = parse_rank(&names.join(","), &first_name)?;
+    let mut rejected = first.rejected.clone();
+    for r in rejected.iter_mut().filter(|r| r.kind == COAXIAL_MISFIT_KIND) {
+        r.count = docs
+            .iter()
+            .flat_map(|(_, d)| d.rejected.iter().filter(|x| x.kind == COAXIAL_MISFIT_KIND))
+            .map(|x| x.count)
+            .sum();
+    }
+    let (mut count, mut complete) = (0u64, true);
+    let mut all = Vec::new();
+    for (name, d) in docs {
+        count += d.count;
+        complete &= d.complete;
+        for t in d.trains {
+            all.push(listed(t, target, &name)?);
+        }
+    }
+    all.sort_by(|a, b| compare(&keys, a, b));
+    let mut pareto_size = None;
+    if first.pareto_size.is_some() {
+        let front: Vec<bool> = all.iter().map(|c| !all.iter().any(|o| dominates(o, c))).collect();
+        let mut keep = front.into_iter();
+        all.retain(|_| keep.next().unwrap_or(false));
+        pareto_size = Some(all.len());
+        if first.limit > 0 {
+            all.truncate(first.limit);
+        }
+    } else {
+        all.truncate(first.limit);
+    }
+    Ok(Doc {
+        count,
+        complete,
+        pareto_size,
+        shard: None,
+        rejected,
+        trains: all.into_iter().map(|l| l.json).collect(),
+        ..first
+    })
+}

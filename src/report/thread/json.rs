@@ -1,0 +1,257 @@
+//! The JSON format for setups and charts. Each setup is a train object of `search`
+//! ([`crate::report::search::json::TrainJson`]: `ratio`, `stages`, `driver`, `driven`, …, with `error`
+//! here the relative pitch error) plus the thread's own fields:
+//!
+//! ```text
+//! {"position": "A"|null, "gears": [{"position": "stud", "teeth": 90}, …],
+//!  "pitch_cut": f64 (in pitch_unit), "pitch_unit": "mm"|"tpi"|"in",
+//!  "lead_cut_mm": f64, "lead_cut_mm_exact": "p/q"|null, "exact": bool,
+//!  "lead_error": f64, "lead_error_unit": "mm per 100 mm"|"in per in",
+//!  "intermediate_from_leadscrew_mm": f64|null, "stud_mesh_inner": bool|null}
+//! ```
+//! A thread document is `{"thread", "machine", "banjo", "tolerance", "count", "complete",
+//! "convention", "caution", "trains": [setup…], "rejected"?}`; a chart document is `{"series",
+//! "machine", "banjo", "tolerance", "complete", "caution", "rows": [{"thread", "pitch",
+//! "reachable", "count", "setup", "nearest"}]}`. Stages run from the stud to the leadscrew.
+
+use std::io::{self, Write};
+
+use serde::Serialize;
+
+use super::document::{ChartReport, ThreadReport};
+use crate::report::search::json::TrainJson;
+use crate::report::CONVENTION;
+use crate::trades::thread::pitch::Pitch;
+use crate::trades::thread::{Lathe, Setup, CAUTION};
+
+/// One setup as JSON.
+#[derive(Serialize, Debug, Clone, PartialEq)]
+pub struct SetupJson {
+    /// The train as `search` prints it; `error` is the relative pitch error.
+    #[serde(flatten)]
+    pub train: TrainJson,
+    /// Gearbox position used.
+    pub position: Option<String>,
+    /// Gears by position, stud to leadscrew.
+    pub gears: Vec<PositionJson>,
+    /// Pitch cut in `pitch_unit`.
+    pub pitch_cut: f64,
+    /// `mm`, `tpi` or `in`.
+    pub pitch_unit: &'static str,
+    /// Lead cut per spindle turn, mm.
+    pub lead_cut_mm: f64,
+    /// The same, exactly, when it is exact.
+    pub lead_cut_mm_exact: Option<String>,
+    /// Pitch cut equals pitch wanted exactly.
+    pub exact: bool,
+    /// Lead error over the stated length.
+    pub lead_error: f64,
+    /// `mm per 100 mm` or `in per in`.
+    pub lead_error_unit: &'static str,
+    /// Where the intermediate or idler stud sits, when a banjo was checked.
+    pub intermediate_from_leadscrew_mm: Option<f64>,
+    /// For two stages on a banjo: true when the stud mesh is the inner plane.
+    pub stud_mesh_inner: Option<bool>,
+}
+
+/// A gear in a named position.
+#[derive(Serialize, Debug, Clone, PartialEq)]
+pub struct PositionJson {
+    /// `stud`, `idler`, `intermediate driven`, `intermediate driver`, `leadscrew`.
+    pub position: String,
+    /// Teeth.
+    pub teeth: u32,
+}
+
+impl SetupJson {
+    /// The JSON view of a setup for a thread of `pitch`.
+    pub fn from_setup(s: &Setup, pitch: &Pitch) -> SetupJson {
+        let mut train = TrainJson::from_train(&s.train);
+        train.error = s.pitch_error.to_f64();
+        SetupJson {
+            train,
+            position: s.position.as_ref().map(|p| p.name.clone()),
+            gears: s
+                .positions()
+                .into_iter()
+                .map(|(position, teeth)| PositionJson { position, teeth })
+                .collect(),
+            pitch_cut: pitch.in_own_unit(s.pitch_cut_mm.value.to_f64()),
+            pitch_unit: pitch.own_unit(),
+            lead_cut_mm: s.lead_cut_mm.value.to_f64(),
+            lead_cut_mm_exact: s.lead_cut_mm.exact.then(|| s.lead_cut_mm.value.to_string()),
+            exact: s.is_exact(),
+            lead_error: s.lead_error(pitch),
+            lead_error_unit: pitch.lead_error_basis().1,
+            intermediate_from_leadscrew_mm: s.fit.intermediate_from_leadscrew_mm,
+            stud_mesh_inner: s.fit.stud_mesh_inner,
+        }
+    }
+}
+
+#[derive(Serialize)]
+struct MachineJson {
+    leadscrew: String,
+    leadscrew_mm: f64,
+    stud_ratio: String,
+    gearbox: Vec<GearboxJson>,
+    gears: String,
+    stages: String,
+}
+
+#[derive(Serialize)]
+struct GearboxJson {
+    name: String,
+    ratio: String,
+}
+
+#[derive(Serialize)]
+struct BanjoJson {
+    stud_to_leadscrew_mm: f64,
+    intermediate_from_leadscrew_mm: [f64; 2],
+    shaft_diameter_mm: f64,
+}
+
+fn machine(l: &Lathe) -> MachineJson {
+    MachineJson {
+        leadscrew: l.machine.leadscrew.text.clone(),
+        leadscrew_mm: l.machine.leadscrew.mm.value.to_f64(),
+        stud_ratio: l.machine.stud_ratio.to_string(),
+        gearbox: l
+            .machine
+            .gearbox
+            .iter()
+            .map(|p| GearboxJson { name: p.name.clone(), ratio: p.ratio.to_string() })
+            .collect(),
+        gears: l.pool.describe(),
+        stages: l.stages.to_string(),
+    }
+}
+
+fn banjo(l: &Lathe) -> Option<BanjoJson> {
+    l.banjo.as_ref().map(|b| BanjoJson {
+        stud_to_leadscrew_mm: b.stud_to_leadscrew_mm,
+        intermediate_from_leadscrew_mm: [
+            b.intermediate_from_leadscrew_mm.lo,
+            b.intermediate_from_leadscrew_mm.hi,
+        ],
+        shaft_diameter_mm: b.shaft_diameter_mm,
+    })
+}
+
+#[derive(Serialize)]
+struct ThreadJson {
+    pitch: String,
+    starts: u32,
+    lead_mm: f64,
+    lead_mm_exact: Option<String>,
+}
+
+#[derive(Serialize)]
+struct RejectedJson {
+    train: TrainJson,
+    position: Option<String>,
+    reasons: Vec<String>,
+}
+
+#[derive(Serialize)]
+struct ThreadDoc {
+    thread: ThreadJson,
+    machine: MachineJson,
+    banjo: Option<BanjoJson>,
+    tolerance: f64,
+    count: u64,
+    complete: bool,
+    convention: &'static str,
+    caution: &'static str,
+    trains: Vec<SetupJson>,
+    #[serde(skip_serializing_if = "Option::is_none")]
+    rejected: Option<Vec<RejectedJson>>,
+}
+
+/// Write a thread search as one JSON document and a newline.
+pub fn write_thread(r: &ThreadReport, w: &mut dyn Write) -> io::Result<()> {
+    let t = &r.plan.thread;
+    let lead = t.lead_mm();
+    let doc = ThreadDoc {
+        thread: ThreadJson {
+            pitch: t.pitch.text.clone(),
+            starts: t.starts,
+            lead_mm: lead.value.to_f64(),
+            lead_mm_exact: lead.exact.then(|| lead.value.to_string()),
+        },
+        machine: machine(r.lathe),
+        banjo: banjo(r.lathe),
+        tolerance: r.lathe.tolerance.to_f64(),
+        count: r.plan.count,
+        complete: r.plan.complete,
+        convention: CONVENTION,
+        caution: CAUTION,
+        trains: r.plan.setups.iter().map(|s| SetupJson::from_setup(s, &t.pitch)).collect(),
+        rejected: r.rejected.map(|rej| {
+            rej.iter()
+                .map(|x| {
+                    let mut train = TrainJson::from_train(&x.train);
+                    train.error = x.pitch_error.to_f64();
+                    RejectedJson {
+                        train,
+                        position: x.position.as_ref().map(|p| p.name.clone()),
+                        reasons: x.reasons.clone(),
+                    }
+                })
+                .collect()
+        }),
+    };
+    serde_json::to_writer_pretty(&mut *w, &doc).map_err(io::Error::other)?;
+    writeln!(w)
+}
+
+#[derive(Serialize)]
+struct RowJson {
+    thread: String,
+    pitch: String,
+    reachable: bool,
+    count: u64,
+    setup: Option<SetupJson>,
+    nearest: Option<SetupJson>,
+}
+
+#[derive(Serialize)]
+struct ChartDoc {
+    series: String,
+    machine: MachineJson,
+    banjo: Option<BanjoJson>,
+    tolerance: f64,
+    complete: bool,
+    convention: &'static str,
+    caution: &'static str,
+    rows: Vec<RowJson>,
+}
+
+/// Write a chart as one JSON document and a newline.
+pub fn write_chart(r: &ChartReport, w: &mut dyn Write) -> io::Result<()> {
+    let doc = ChartDoc {
+        series: r.series.to_string(),
+        machine: machine(r.lathe),
+        banjo: banjo(r.lathe),
+        tolerance: r.lathe.tolerance.to_f64(),
+        complete: r.chart.complete,
+        convention: CONVENTION,
+        caution: CAUTION,
+        rows: r
+            .chart
+            .rows
+            .iter()
+            .map(|row| RowJson {
+                thread: row.label.clone(),
+                pitch: row.thread.pitch.text.clone(),
+                reachable: row.best.is_some(),
+                count: row.count,
+                setup: row.best.as_ref().map(|s| SetupJson::from_setup(s, &row.thread.pitch)),
+                nearest: row.nearest.as_ref().map(|s| SetupJson::from_setup(s, &row.thread.pitch)),
+            })
+            .collect(),
+    };
+    serde_json::to_writer_pretty(&mut *w, &doc).map_err(io::Error::other)?;
+    writeln!(w)
+}

@@ -1,0 +1,80 @@
+//! Clock trains, a trade workflow on top of the search, in the clockmaker's words: the going
+//! train from a driving arbor to the escape arbor, the motion work behind the hands, and
+//! astronomical trains (moon phase, sidereal time, the year). Owns the clock arithmetic and its
+//! results; the gear search itself is [`crate::engine`]'s.
+//!
+//! - [`beat`]: pendulum length, period and beats per hour; the escape wheel;
+//! - [`going`]: the going train, its arbor speeds and rate error in seconds per day;
+//! - [`motion`]: the motion work (the reverted 12:1 train) and other hand ratios;
+//! - [`astro`]: named periods, convergents, drift per year;
+//! - [`table`], [`csv`], [`json`]: the output formats.
+//!
+//! Direction of the ratio (ISO 1122-1, as everywhere in gearsieve): `i` = input turns per
+//! output turn. A going train is searched from the driving arbor (input) to the escape arbor
+//! (output) with the wheels driving the pinions, so it speeds up and `i < 1`; motion work and
+//! astronomical trains reduce from their input arbor, so `i > 1`.
+//!
+//! Teeth are worked out as involute gears when the motion work is checked for a coaxial fit;
+//! clock wheels are traditionally cut with cycloidal-form teeth, so treat that geometry as a
+//! guide to the centre distances, not as the tooth form to cut.
+
+pub mod astro;
+pub mod beat;
+pub mod going;
+pub mod motion;
+
+use crate::error::{Error, Result};
+use crate::model::pool::Pool;
+use crate::model::problem::{Problem, StageLimits};
+use crate::model::rank::DEFAULT_RANK;
+use crate::numbers::exact::fit;
+use crate::numbers::range::IntRange;
+use crate::numbers::rational::Ratio;
+use crate::numbers::target::Target;
+
+/// Seconds in a mean solar day.
+pub const SECONDS_PER_DAY: f64 = 86_400.0;
+
+/// An `f64` as the nearest fraction with 64-bit parts (relative change below 10⁻¹⁴ for the
+/// values used here); for targets computed from a pendulum length.
+pub fn approx_ratio(x: f64) -> Ratio {
+    let scale = (1u128 << 50) as f64;
+    fit((x * scale).round().max(1.0) as u128, 1u128 << 50).0
+}
+
+/// A search problem for a clock train with the usual ranking (error, meshes, size).
+pub fn clock_problem(
+    target: Target,
+    pool: Pool,
+    stages: IntRange,
+    limits: StageLimits,
+    limit: usize,
+) -> Result<Problem> {
+    if limit == 0 {
+        return Err(Error::flag("--limit", "list at least one train"));
+    }
+    Problem::new(target, pool, stages, limits, None, DEFAULT_RANK.to_vec(), limit)
+}
+
+/// Rotation speeds of the arbors of a train, turns per hour, from the input arbor turning at
+/// `input` through each stage (driver teeth / driven teeth).
+pub fn arbor_speeds(train: &crate::model::train::Train, input: f64) -> Vec<f64> {
+    let mut v = vec![input];
+    for s in &train.stages {
+        let last = v[v.len() - 1];
+        v.push(last * s.driver.teeth as f64 / s.driven.teeth as f64);
+    }
+    v
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn approximated_ratios_are_close() {
+        for x in [1.0 / 60.0, 29.530588, 0.99726957, 365.24219] {
+            assert!((approx_ratio(x).to_f64() / x - 1.0).abs() < 1e-14, "{x}");
+        }
+    }
+}

@@ -1,0 +1,159 @@
+//! The motion work and other hand trains: the reverted 12:1 train from the cannon pinion to the
+//! hour wheel, whose pipe turns on the cannon pinion's (so both stages share one centre
+//! distance, reached by profile shift where needed), and any other hand ratio — a 24-hour hand,
+//! a day-of-week hand — coaxial or not.
+//!
+//! Pinions drive wheels here (a reduction, `i > 1`). Clock pinions of few leaves are often
+//! undercut; that is accepted unless asked otherwise (common practice).
+
+use super::clock_problem;
+use crate::engine::{search, EngineKind, RunOptions};
+use crate::error::{Error, Result};
+use crate::geometry::MeshLimits;
+use crate::model::pool::Pool;
+use crate::model::problem::{MeshRules, Problem, StageLimits};
+use crate::model::train::Train;
+use crate::numbers::range::IntRange;
+use crate::numbers::rational::Ratio;
+use crate::numbers::target::Target;
+
+/// Default pinion leaves of the motion work (common practice, settable).
+pub const DEFAULT_PINIONS: IntRange = IntRange { lo: 6, hi: 20 };
+/// Default wheel teeth of the motion work (common practice, settable).
+pub const DEFAULT_WHEELS: IntRange = IntRange { lo: 20, hi: 96 };
+
+/// A named hand ratio.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Dial {
+    /// The hour hand: 12 turns of the minute (cannon) arbor per turn (Wikipedia, "Wheel train").
+    Hour,
+    /// A 24-hour hand: 24 turns of the minute arbor per turn.
+    TwentyFourHour,
+    /// A day-of-week hand from an arbor that turns once a day: 7 turns per turn.
+    Week,
+}
+
+impl Dial {
+    /// Parse `hour`, `24h` or `week`.
+    pub fn parse(text: &str, flag: &str) -> Result<Dial> {
+        match text.trim() {
+            "hour" | "12h" => Ok(Dial::Hour),
+            "24h" => Ok(Dial::TwentyFourHour),
+            "week" => Ok(Dial::Week),
+            other => Err(Error::flag(flag, format!("unknown dial \"{other}\"; wanted hour (12:1), 24h (24:1) or week (7:1 from a daily arbor)"))),
+        }
+    }
+
+    /// Input turns per hand turn.
+    pub fn ratio(self) -> Ratio {
+        Ratio::integer(match self {
+            Dial::Hour => 12,
+            Dial::TwentyFourHour => 24,
+            Dial::Week => 7,
+        })
+    }
+
+    /// What the input arbor is, in words.
+    pub fn input(self) -> &'static str {
+        match self {
+            Dial::Hour | Dial::TwentyFourHour => "minute (cannon) arbor, once an hour",
+            Dial::Week => "an arbor turning once a day",
+        }
+    }
+}
+
+/// What the clockmaker asks for.
+#[derive(Debug, Clone, PartialEq)]
+pub struct MotionSpec {
+    /// Input turns per hand turn, e.g. 12.
+    pub ratio: Ratio,
+    /// The ratio as given (`12`, `hour`).
+    pub ratio_text: String,
+    /// Relative tolerance on the ratio (0 for exact, as hands must be).
+    pub tolerance: Ratio,
+    /// Wheels to be cut or on hand.
+    pub pool: Pool,
+    /// Pinion leaves allowed (the drivers).
+    pub pinions: IntRange,
+    /// Wheel teeth allowed (the driven).
+    pub wheels: IntRange,
+    /// Stage counts.
+    pub stages: IntRange,
+    /// Hand arbor coaxial with the input arbor (a reverted train).
+    pub coaxial: bool,
+    /// Accept undercut pinions.
+    pub allow_undercut: bool,
+    /// Least transverse contact ratio of an involute mesh.
+    pub min_contact_ratio: f64,
+    /// Trains to list.
+    pub limit: usize,
+}
+
+/// The result of a motion-work search.
+#[derive(Debug, Clone, PartialEq)]
+pub struct MotionPlan {
+    /// What was asked.
+    pub spec: MotionSpec,
+    /// The problem searched.
+    pub problem: Problem,
+    /// Trains meeting every constraint.
+    pub count: u64,
+    /// False when interrupted.
+    pub complete: bool,
+    /// The best trains, stages from the input arbor to the hand; with meshes worked out.
+    pub trains: Vec<Train>,
+}
+
+impl MotionSpec {
+    /// The search problem, with mesh rules for the coaxial fit.
+    pub fn problem(&self) -> Result<Problem> {
+        let target = Target::exact(self.ratio_text.clone(), self.ratio, self.tolerance);
+        let limits = StageLimits {
+            driver_teeth: Some(self.pinions),
+            driven_teeth: Some(self.wheels),
+            ..StageLimits::default()
+        };
+        let p = clock_problem(target, self.pool.clone(), self.stages, limits, self.limit)?;
+        let rules = MeshRules {
+            coaxial: self.coaxial,
+            limits: MeshLimits {
+                allow_undercut: self.allow_undercut,
+                min_contact_ratio: self.min_contact_ratio,
+                ..MeshLimits::default()
+            },
+            ..MeshRules::default()
+        };
+        p.with_mesh_rules(rules)
+    }
+
+    /// Search.
+    pub fn plan(&self, options: &RunOptions) -> Result<MotionPlan> {
+        let problem = self.problem()?;
+        let found = search(&problem, EngineKind::Sieve, options);
+        Ok(MotionPlan {
+            spec: self.clone(),
+            problem,
+            count: found.count,
+            complete: found.complete,
+            trains: found.trains,
+        })
+    }
+}
+
+impl MotionPlan {
+    /// True for the usual motion work: a coaxial two-stage 12:1 train.
+    pub fn is_hour_motion_work(&self, train: &Train) -> bool {
+        self.spec.coaxial && self.spec.ratio == Ratio::integer(12) && train.stages.len() == 2
+    }
+}
+
+/// The clockmaker's names of the gears of stage `k` (0-based) of a train: in the usual motion
+/// work (`hour_work`) the cannon pinion drives the minute wheel and the minute pinion drives the
+/// hour wheel; otherwise pinion k drives wheel k.
+pub fn stage_names(k: usize, hour_work: bool) -> (String, String) {
+    match (k, hour_work) {
+        (0, true) => ("cannon pinion".into(), "minute wheel".into()),
+        (1, true) => ("minute pinion".into(), "hour wheel".into()),
+        _ => (format!("pinion {}", k + 1), format!("wheel {}", k + 1)),
+    }
+}

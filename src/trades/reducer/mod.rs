@@ -1,0 +1,275 @@
+//! Reducers, a trade workflow on top of the search, in the reducer designer's words: from the
+//! ratio (or motor and output speeds), the number of stages, a module per stage (coarser toward
+//! the output), the least teeth, a per-stage ratio limit and optionally the housing's fixed
+//! centre distances, find trains ranked for balanced stages and hunting-tooth pairs, and show
+//! each stage's module, teeth, profile shifts and centre distance, and the envelope. Owns the
+//! reducer model and its results; the search is [`crate::engine`]'s, the meshes
+//! [`crate::geometry`]'s.
+//!
+//! - [`hunting`]: hunting-tooth pairs and the balance key;
+//! - [`housing`]: which stage goes in which place, at which centre distance;
+//! - [`table`], [`csv`], [`json`]: the output formats.
+//!
+//! One module per stage is held by drawing the gears from a pool with the tooth range in every
+//! module and a train check that place `i` (input to output) gets module `i`; the core keeps one
+//! pool per problem. gearsieve sizes geometry only: see [`CAUTION`].
+
+pub mod housing;
+pub mod hunting;
+
+use std::sync::Arc;
+
+use crate::engine::{search, EngineKind, RunOptions};
+use crate::error::{Error, Result};
+use crate::model::pool::{Pool, StockGear, MAX_STAGES};
+use crate::model::problem::{ExtraKey, MeshRules, Problem, StageLimits, TrainCheck};
+use crate::model::rank::RankKey;
+use crate::model::train::Train;
+use crate::numbers::range::{FloatRange, IntRange, RatioRange};
+use crate::numbers::rational::Ratio;
+use crate::numbers::target::Target;
+
+use housing::{arranged, Places};
+
+/// The caution printed with every reducer result.
+pub const CAUTION: &str = "gearsieve sizes geometry only. A reducer that carries power needs a \
+                           load-capacity rating (e.g. ISO 6336 or AGMA 2001) and a check by a \
+                           qualified person.";
+
+/// Default largest ratio of one spur stage (about 6 is common practice).
+pub const DEFAULT_MAX_STAGE_RATIO: u64 = 6;
+
+/// How hunting-tooth pairs count.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Hunting {
+    /// Rank trains with fewer non-hunting pairs first.
+    Prefer,
+    /// Keep only trains whose every pair is hunting.
+    Require,
+    /// Do not consider it.
+    Ignore,
+}
+
+/// What ranks first.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Priority {
+    /// Hunting pairs (when preferred), then balance, then ratio error, then teeth.
+    Balance,
+    /// Ratio error, then hunting and balance, then teeth.
+    Error,
+}
+
+/// What the reducer designer asks for.
+#[derive(Debug, Clone, PartialEq)]
+pub struct ReducerSpec {
+    /// Input turns per output turn, above 1.
+    pub ratio: Ratio,
+    /// The ratio as given (or worked out from the speeds).
+    pub ratio_text: String,
+    /// Relative tolerance on the ratio.
+    pub tolerance: Ratio,
+    /// Stage counts.
+    pub stages: IntRange,
+    /// Module per stage, input to output (non-decreasing), or one for every stage; empty with
+    /// stock to take any module on the shelf.
+    pub modules: Vec<f64>,
+    /// Tooth counts to cut (ignored with stock).
+    pub teeth: IntRange,
+    /// Largest ratio of one stage.
+    pub max_stage_ratio: Ratio,
+    /// Fixed centre distance of each stage, mm, input to output; empty when free.
+    pub centre_distances_mm: Vec<f64>,
+    /// Allowed profile shift sum per stage, modules.
+    pub shift_sum: (f64, f64),
+    /// Hunting-tooth pairs.
+    pub hunting: Hunting,
+    /// What ranks first.
+    pub priority: Priority,
+    /// Input speed, rpm, for the output speed.
+    pub input_rpm: Option<f64>,
+    /// Gears on the shelf, instead of cutting.
+    pub stock: Option<Pool>,
+    /// Trains to list.
+    pub limit: usize,
+}
+
+/// The result of a reducer search.
+#[derive(Debug, Clone, PartialEq)]
+pub struct ReducerPlan {
+    /// What was asked.
+    pub spec: ReducerSpec,
+    /// The problem searched.
+    pub problem: Problem,
+    /// Trains meeting every constraint.
+    pub count: u64,
+    /// False when interrupted.
+    pub complete: bool,
+    /// The best trains, stages input to output, each with its mesh.
+    pub trains: Vec<Train>,
+}
+
+/// Largest tip diameter of a train, mm (from the meshes; `m·(z + 2)` for a stage without one).
+pub fn largest_tip_mm(t: &Train) -> f64 {
+    t.stages
+        .iter()
+        .flat_map(|s| match s.mesh {
+            Some(m) => m.tip_diameter_mm,
+            None => [s.module_mm * (s.driver.teeth + 2) as f64, s.module_mm * (s.driven.teeth + 2) as f64],
+        })
+        .fold(0.0, f64::max)
+}
+
+/// Sum of the working centre distances, mm: the distance from the input to the output shaft
+/// when all shafts lie in one plane.
+pub fn centre_distance_sum_mm(t: &Train) -> f64 {
+    t.stages.iter().map(|s| s.mesh.map_or(s.centre_distance_mm(), |m| m.centre_distance_mm)).sum()
+}
+
+impl ReducerSpec {
+    /// The stage count searched (a single count when modules or distances are given per stage).
+    fn stage_range(&self) -> Result<IntRange> {
+        let per_stage = self.modules.len().max(self.centre_distances_mm.len());
+        if per_stage > 1 {
+            let n = per_stage as u32;
+            if !self.stages.contains(n) || (self.modules.len() > 1 && self.modules.len() != per_stage) {
+                return Err(Error::flag(
+                    "--modules",
+                    format!(
+                        "{} modules and {} centre distances given; give one per stage for --stages {n} (or one for all)",
+                        self.modules.len(),
+                        self.centre_distances_mm.len()
+                    ),
+                ));
+            }
+            if self.centre_distances_mm.len() > 1 && self.centre_distances_mm.len() != per_stage {
+                return Err(Error::flag(
+                    "--centre-distances",
+                    format!("give one distance per stage ({per_stage})"),
+                ));
+            }
+            return Ok(IntRange { lo: n, hi: n });
+        }
+        Ok(self.stages)
+    }
+
+    fn pool(&self) -> Result<Pool> {
+        if let Some(p) = &self.stock {
+            return Ok(p.clone());
+        }
+        let mut modules = self.modules.clone();
+        modules.dedup_by(|a, b| (*a - *b).abs() <= 1e-9 * a.abs());
+        let stock: Vec<StockGear> = modules
+            .iter()
+            .flat_map(|&m| {
+                (self.teeth.lo..=self.teeth.hi).map(move |teeth| StockGear {
+                    teeth,
+                    module_mm: m,
+                    diametral_pitch: None,
+                    pressure_angle_deg: 20.0,
+                    quantity: 2 * MAX_STAGES as u32,
+                    label: String::new(),
+                })
+            })
+            .collect();
+        for &m in &modules {
+            crate::model::pool::check_module(m, &|msg| Error::flag("--modules", msg))?;
+        }
+        let pool = Pool::from_stock(&stock, "--teeth")?;
+        // Gears to cut: any number, as with a tooth range.
+        Ok(Pool { from_stock: false, ..pool })
+    }
+
+    fn places(&self) -> Places {
+        Places {
+            modules: self.modules.clone(),
+            centre_distances_mm: if self.centre_distances_mm.len() == 1 {
+                vec![self.centre_distances_mm[0]; MAX_STAGES]
+            } else {
+                self.centre_distances_mm.clone()
+            },
+            rules: MeshRules { shift_sum: self.shift_sum, ..MeshRules::default() },
+        }
+    }
+
+    /// The search problem: per-stage ratio limit, the module and housing fit as a train check,
+    /// and the hunting and balance key.
+    pub fn problem(&self) -> Result<Problem> {
+        if self.ratio <= Ratio::integer(1) {
+            return Err(Error::flag(
+                "--ratio",
+                format!("a reducer's ratio is above 1 (input faster than output), found {}", self.ratio),
+            ));
+        }
+        if self.max_stage_ratio <= Ratio::integer(1) {
+            return Err(Error::flag("--max-stage-ratio", "wanted a ratio above 1, e.g. 6"));
+        }
+        if self.modules.windows(2).any(|w| w[1] < w[0]) {
+            return Err(Error::flag(
+                "--modules",
+                "give the modules input to output, coarser toward the output (e.g. 1,1.5,2)",
+            ));
+        }
+        if let Some(a) = self.centre_distances_mm.iter().find(|a| !(a.is_finite() && **a > 0.0)) {
+            return Err(Error::flag(
+                "--centre-distances",
+                format!("wanted positive distances in mm, found {a}"),
+            ));
+        }
+        if self.stock.is_none() && self.modules.is_empty() {
+            return Err(Error::flag("--modules", "give the module of each stage, e.g. 1,1.5,2"));
+        }
+        let stages = self.stage_range()?;
+        let pool = self.pool()?;
+        let mut limits = StageLimits {
+            stage_ratio: Some(RatioRange { lo: Some(Ratio::integer(1)), hi: Some(self.max_stage_ratio) }),
+            ..StageLimits::default()
+        };
+        if !self.centre_distances_mm.is_empty() {
+            // A stage reaches a fixed distance only from a standard one within about the
+            // shift-sum range times the module: leave the rest out of the stage table early.
+            let m = pool.groups.iter().map(|g| g.module_mm).fold(0.0, f64::max);
+            let slack = (self.shift_sum.0.abs().max(self.shift_sum.1.abs()) + 1.0) * m;
+            let lo = self.centre_distances_mm.iter().copied().fold(f64::MAX, f64::min);
+            let hi = self.centre_distances_mm.iter().copied().fold(0.0, f64::max);
+            limits.centre_distance_mm = Some(FloatRange { lo: (lo - slack).max(0.0), hi: hi + slack });
+        }
+        let rank = match self.priority {
+            Priority::Balance => vec![RankKey::Extra, RankKey::Error, RankKey::Size],
+            Priority::Error => vec![RankKey::Error, RankKey::Extra, RankKey::Size],
+        };
+        if self.limit == 0 {
+            return Err(Error::flag("--limit", "list at least one train"));
+        }
+        let target = Target::exact(self.ratio_text.clone(), self.ratio, self.tolerance);
+        let mut p = Problem::new(target, pool, stages, limits, None, rank, self.limit)?;
+        let places = self.places();
+        if self.centre_distances_mm.is_empty() {
+            // Free centre distances: the search works out and checks each stage's mesh once.
+            p = p.with_mesh_rules(places.rules.clone())?;
+        }
+        let places = Arc::new(places);
+        let require = self.hunting == Hunting::Require;
+        p.train_check = Some(TrainCheck::new(move |t: &Train| {
+            (!require || hunting::non_hunting(t) == 0) && places.arrange(t).is_some()
+        }));
+        let prefer = self.hunting == Hunting::Prefer;
+        p.extra_key = Some(ExtraKey::new("balance", move |t: &Train| hunting::balance_key(t, prefer)));
+        Ok(p)
+    }
+
+    /// Search, and arrange each train found in its housing places.
+    pub fn plan(&self, options: &RunOptions) -> Result<ReducerPlan> {
+        let problem = self.problem()?;
+        let found = search(&problem, EngineKind::Sieve, options);
+        let places = self.places();
+        let trains = found
+            .trains
+            .iter()
+            .map(|t| match places.arrange(t) {
+                Some((order, meshes)) => arranged(t, &order, &meshes),
+                None => t.clone(),
+            })
+            .collect();
+        Ok(ReducerPlan { spec: self.clone(), problem, count: found.count, complete: found.complete, trains })
+    }
+}

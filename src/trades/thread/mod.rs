@@ -1,0 +1,359 @@
+//! Thread cutting on a lathe, a trade workflow on top of the search: which change gears cut a
+//! thread on a given lathe, how far off the pitch is, and whether the train can be set up on the
+//! banjo. Owns the lathe model and its results; the gear search itself is [`crate::engine`]'s.
+//!
+//! - [`pitch`]: pitch and leadscrew syntax, exact lengths in mm;
+//! - [`machine`]: spindle → stud ratio → change gears → gearbox position → leadscrew;
+//! - [`banjo`]: setup geometry and the reasons a setup is rejected;
+//! - [`series`]: built-in thread series and list files;
+//! - [`chart`]: the best setup for every thread of a series;
+//! - [`table`], [`csv`], [`json`]: the output formats for setups and charts.
+//!
+//! The hand of the thread is set by the tumbler reverse (common practice), so a setup's output
+//! direction is not constrained here.
+
+pub mod banjo;
+pub mod chart;
+pub mod machine;
+pub mod pitch;
+pub mod series;
+
+use std::cmp::Ordering;
+
+use crate::engine::{search, EngineKind, RunOptions};
+use crate::error::{Error, Result};
+use crate::model::pool::Pool;
+use crate::model::problem::{Problem, StageLimits, TrainCheck};
+use crate::model::rank::DEFAULT_RANK;
+use crate::model::train::Train;
+use crate::numbers::range::IntRange;
+use crate::numbers::rational::{Ratio, RelError};
+use crate::numbers::target::Target;
+
+use crate::numbers::exact::Exact;
+use banjo::{Banjo, Fit};
+use machine::{GearboxPosition, Machine};
+use pitch::Pitch;
+
+/// The caution printed under every thread result.
+pub const CAUTION: &str = "Change gears only with the machine stopped and isolated from power. \
+                           Check the pitch with a trial cut and a thread gauge before the real \
+                           cut.";
+
+/// Largest pitch tolerance accepted: a pitch further off than this is not the thread asked for.
+pub const MAX_TOLERANCE: Ratio = match Ratio::from_parts(1, 10) {
+    Some(r) => r,
+    None => panic!("1/10 is reduced"),
+};
+
+/// Tolerance used to find the nearest reachable pitch when none is within tolerance.
+const NEAREST_TOLERANCE: Ratio = match Ratio::from_parts(1, 3) {
+    Some(r) => r,
+    None => panic!("1/3 is reduced"),
+};
+
+/// The thread wanted.
+#[derive(Debug, Clone, PartialEq)]
+pub struct ThreadSpec {
+    /// Its pitch (distance between neighbouring threads).
+    pub pitch: Pitch,
+    /// Number of starts, at least 1; lead = starts × pitch.
+    pub starts: u32,
+}
+
+impl ThreadSpec {
+    /// Lead per spindle turn, mm.
+    pub fn lead_mm(&self) -> Exact {
+        self.pitch.mm.times(Exact::of(Ratio::integer(self.starts as u64)))
+    }
+}
+
+/// A lathe with its change gears and how to search them.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Lathe {
+    /// The drive from spindle to leadscrew.
+    pub machine: Machine,
+    /// The change gears on hand (or to be cut).
+    pub pool: Pool,
+    /// Banjo geometry to check setups against; `None` checks ratios only.
+    pub banjo: Option<Banjo>,
+    /// Stage counts allowed (1 is a simple train through an idler).
+    pub stages: IntRange,
+    /// Relative pitch tolerance `|pitch cut / pitch − 1| ≤ T`, `0 ≤ T ≤` [`MAX_TOLERANCE`].
+    pub tolerance: Ratio,
+    /// How many setups to list (all are counted).
+    pub limit: usize,
+}
+
+impl Lathe {
+    /// Check the parts; `tol_flag` names the tolerance in errors.
+    pub fn new(
+        machine: Machine,
+        pool: Pool,
+        banjo: Option<Banjo>,
+        stages: IntRange,
+        tolerance: Ratio,
+        limit: usize,
+    ) -> Result<Lathe> {
+        if tolerance > MAX_TOLERANCE {
+            return Err(Error::flag(
+                "--tol",
+                "a pitch tolerance above 10% cuts a different thread; give 0 (exact) up to 10%",
+            ));
+        }
+        if limit == 0 {
+            return Err(Error::flag("--limit", "list at least one setup"));
+        }
+        // Problem::new checks the stage range; check it here too so the error comes early.
+        let probe = Target::exact("1", Ratio::integer(1), Ratio::integer(0));
+        Problem::new(probe, pool.clone(), stages, StageLimits::default(), None, DEFAULT_RANK.to_vec(), 1)?;
+        Ok(Lathe { machine, pool, banjo, stages, tolerance, limit })
+    }
+}
+
+/// One way to cut the thread.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Setup {
+    /// The change-gear train, stages from the stud to the leadscrew; `error` is against the
+    /// ratio the thread needs.
+    pub train: Train,
+    /// Where it sits on the banjo (idler, planes), or the plain order when unchecked.
+    pub fit: Fit,
+    /// The gearbox position used, when the lathe has a gearbox.
+    pub position: Option<GearboxPosition>,
+    /// Lead cut per spindle turn, mm, recomputed from the gears.
+    pub lead_cut_mm: Exact,
+    /// Pitch cut (lead / starts), mm.
+    pub pitch_cut_mm: Exact,
+    /// Relative pitch error `pitch cut / pitch − 1`, exact.
+    pub pitch_error: RelError,
+}
+
+impl Setup {
+    /// The gears by position, from the stud to the leadscrew: `("stud", 40)`, `("idler", 80)`,
+    /// `("intermediate driven", 127)`, `("intermediate driver", 50)`, `("leadscrew", 100)`.
+    pub fn positions(&self) -> Vec<(String, u32)> {
+        let s = &self.train.stages;
+        let n = s.len();
+        let mut out = vec![("stud".to_string(), s[0].driver.teeth)];
+        if let Some(z) = self.fit.idler {
+            out.push(("idler".to_string(), z));
+        }
+        for k in 0..n - 1 {
+            let tag = if n == 2 { String::new() } else { format!(" {}", k + 1) };
+            out.push((format!("intermediate{tag} driven"), s[k].driven.teeth));
+            out.push((format!("intermediate{tag} driver"), s[k + 1].driver.teeth));
+        }
+        out.push(("leadscrew".to_string(), s[n - 1].driven.teeth));
+        out
+    }
+
+    /// Teeth on the stud.
+    pub fn stud(&self) -> u32 {
+        self.train.stages[0].driver.teeth
+    }
+
+    /// Teeth on the leadscrew.
+    pub fn leadscrew(&self) -> u32 {
+        self.train.stages[self.train.stages.len() - 1].driven.teeth
+    }
+
+    /// The compound pairs on the intermediate studs, stud side first: (driven, driver).
+    pub fn intermediates(&self) -> Vec<(u32, u32)> {
+        self.train.stages.windows(2).map(|w| (w[0].driven.teeth, w[1].driver.teeth)).collect()
+    }
+
+    /// True when the pitch cut is the pitch asked for, exactly.
+    pub fn is_exact(&self) -> bool {
+        self.pitch_error.is_exact() && self.pitch_cut_mm.exact
+    }
+
+    /// Lead error over the pitch's stated length ([`Pitch::lead_error_basis`]), in its unit.
+    pub fn lead_error(&self, pitch: &Pitch) -> f64 {
+        self.pitch_error.to_f64() * pitch.lead_error_basis().0
+    }
+}
+
+/// The best setups for one thread.
+#[derive(Debug, Clone, PartialEq)]
+pub struct ThreadPlan {
+    /// What was asked.
+    pub thread: ThreadSpec,
+    /// Setups meeting every constraint (a lower bound when `complete` is false).
+    pub count: u64,
+    /// The best, smallest pitch error first, then fewest meshes, then fewest teeth.
+    pub setups: Vec<Setup>,
+    /// False when the search was interrupted.
+    pub complete: bool,
+}
+
+/// The relative pitch error of a train of ratio `i` against the needed ratio `need`:
+/// pitch cut / pitch − 1 = need / i − 1, exact.
+pub fn pitch_error(i: Ratio, need: Ratio) -> RelError {
+    let inverse = Ratio::new(need.den() as u128, need.num() as u128).unwrap_or(need);
+    RelError::of(i.den(), i.num(), inverse)
+}
+
+/// A train tolerance wide enough for a pitch tolerance `t`: |need/i − 1| ≤ t holds only where
+/// |i/need − 1| ≤ t/(1 − t). The exact pitch check then decides.
+fn widened(t: Ratio) -> Ratio {
+    Ratio::new(t.num() as u128, (t.den() - t.num()) as u128).unwrap_or(t)
+}
+
+fn by_quality(a: &Setup, b: &Setup) -> Ordering {
+    a.pitch_error
+        .cmp_abs(&b.pitch_error)
+        .then(a.train.meshes().cmp(&b.train.meshes()))
+        .then(a.train.size().cmp(&b.train.size()))
+}
+
+impl Lathe {
+    fn problem(&self, need: Ratio, tolerance: Ratio, limit: usize, geometry: bool) -> Result<Problem> {
+        let target = Target::exact(need.to_string(), need, widened(tolerance));
+        let mut p = Problem::new(
+            target,
+            self.pool.clone(),
+            self.stages,
+            StageLimits::default(),
+            None,
+            DEFAULT_RANK.to_vec(),
+            limit,
+        )?;
+        let banjo = if geometry { self.banjo.clone() } else { None };
+        let pool = self.pool.clone();
+        p.train_check = Some(TrainCheck::new(move |t: &Train| {
+            pitch_error(t.ratio, need).within(tolerance)
+                && banjo.as_ref().is_none_or(|b| b.fit(t, &pool).is_ok())
+        }));
+        Ok(p)
+    }
+
+    fn setup(
+        &self,
+        thread: &ThreadSpec,
+        train: Train,
+        position: Option<&GearboxPosition>,
+        need: Ratio,
+    ) -> Setup {
+        let fit = match &self.banjo {
+            Some(b) => b.fit(&train, &self.pool).unwrap_or_else(|_| Fit::unchecked(&train)),
+            None => Fit::unchecked(&train),
+        };
+        let stages = fit.order.iter().map(|&k| train.stages[k].clone()).collect();
+        let train = Train { stages, ..train };
+        let lead_cut_mm = self.machine.lead_cut_mm(train.ratio_from_teeth(), position);
+        let starts = Exact::of(Ratio::integer(thread.starts as u64));
+        Setup {
+            pitch_error: pitch_error(train.ratio, need),
+            fit,
+            position: position.cloned(),
+            lead_cut_mm,
+            pitch_cut_mm: lead_cut_mm.over(starts),
+            train,
+        }
+    }
+
+    fn run(
+        &self,
+        thread: &ThreadSpec,
+        tolerance: Ratio,
+        limit: usize,
+        options: &RunOptions,
+    ) -> Result<ThreadPlan> {
+        let lead = thread.lead_mm();
+        let (mut count, mut complete, mut setups) = (0, true, Vec::new());
+        for position in self.machine.positions() {
+            let need = self.machine.train_ratio_for(lead, position).value;
+            let problem = self.problem(need, tolerance, limit, true)?;
+            let found = search(&problem, EngineKind::Sieve, options);
+            count += found.count;
+            complete &= found.complete;
+            setups.extend(found.trains.into_iter().map(|t| self.setup(thread, t, position, need)));
+        }
+        setups.sort_by(by_quality);
+        setups.truncate(limit);
+        Ok(ThreadPlan { thread: thread.clone(), count, setups, complete })
+    }
+
+    /// The best setups for `thread` within the tolerance, across every gearbox position.
+    ///
+    /// Each position is searched for the train ratio it needs; the engine ranks by ratio error,
+    /// which orders setups as the pitch error does except, possibly, between two of nearly equal
+    /// error on opposite sides; the setups listed are re-sorted by exact pitch error.
+    pub fn plan(&self, thread: &ThreadSpec, options: &RunOptions) -> Result<ThreadPlan> {
+        self.run(thread, self.tolerance, self.limit, options)
+    }
+
+    /// The nearest setup that can be made when none is within tolerance (pitch off by less than
+    /// a third), if any.
+    pub fn nearest(&self, thread: &ThreadSpec, options: &RunOptions) -> Result<Option<Setup>> {
+        Ok(self.run(thread, NEAREST_TOLERANCE, 1, options)?.setups.into_iter().next())
+    }
+
+    /// Trains within tolerance that the banjo refuses, with every reason, best first (at most
+    /// `limit`). Empty when no banjo is given.
+    pub fn explain(&self, thread: &ThreadSpec, options: &RunOptions) -> Result<Vec<Rejected>> {
+        let Some(banjo) = &self.banjo else {
+            return Ok(Vec::new());
+        };
+        let lead = thread.lead_mm();
+        let mut out = Vec::new();
+        for position in self.machine.positions() {
+            let need = self.machine.train_ratio_for(lead, position).value;
+            // Ratio-only search, then keep what the banjo refuses.
+            let problem = self.problem(need, self.tolerance, self.limit * 4 + 16, false)?;
+            for t in search(&problem, EngineKind::Sieve, options).trains {
+                if let Err(reasons) = banjo.fit(&t, &self.pool) {
+                    out.push(Rejected {
+                        pitch_error: pitch_error(t.ratio, need),
+                        train: t,
+                        position: position.cloned(),
+                        reasons,
+                    });
+                }
+            }
+        }
+        out.sort_by(|a, b| a.pitch_error.cmp_abs(&b.pitch_error).then(a.train.size().cmp(&b.train.size())));
+        out.truncate(self.limit);
+        Ok(out)
+    }
+}
+
+/// A train that cuts the thread but cannot be set up, and why.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Rejected {
+    /// The train, canonical order.
+    pub train: Train,
+    /// The gearbox position it was found for.
+    pub position: Option<GearboxPosition>,
+    /// Its pitch error.
+    pub pitch_error: RelError,
+    /// Why each arrangement failed.
+    pub reasons: Vec<String>,
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn pitch_error_is_the_inverse_of_ratio_error() {
+        // need 2, train 201/100: pitch cut / pitch = 2 / 2.01 → −1/201.
+        let e = pitch_error(Ratio::new(201, 100).unwrap(), Ratio::integer(2));
+        assert_eq!(e.sign, -1);
+        assert!((e.to_f64() + 1.0 / 201.0).abs() < 1e-15);
+        assert!(pitch_error(Ratio::integer(2), Ratio::integer(2)).is_exact());
+    }
+
+    #[test]
+    fn widened_tolerance_covers_the_pitch_tolerance() {
+        let t = Ratio::new(1, 100).unwrap();
+        let w = widened(t);
+        assert_eq!(w.to_string(), "1/99");
+        // A train 1/99 high cuts a pitch exactly 1 % short: at the edge, inside.
+        let need = Ratio::integer(99);
+        let i = Ratio::integer(100);
+        assert!(RelError::of(i.num(), i.den(), need).within(w));
+        assert!(pitch_error(i, need).within(t));
+    }
+}

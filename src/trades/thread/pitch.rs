@@ -1,0 +1,218 @@
+//! Pitches and leadscrews as typed: `8tpi`, `3mm`, `1.25mm`, `module:2` (a module worm, axial
+//! pitch π·m) and `dp:16` (a diametral-pitch worm, axial pitch π/P inch). Every value is held in
+//! millimetres as an exact rational where it can be (1 in = 25.4 mm = 127/5 mm exactly); values
+//! that carry π use [`crate::numbers::target::PI`] and are marked inexact. Owns the syntax and the units a
+//! pitch is shown in; knows nothing of gears.
+
+use std::fmt;
+
+use crate::error::{Error, Result};
+use crate::numbers::exact::Exact;
+use crate::numbers::rational::Ratio;
+use crate::numbers::target::{parse_ratio, PI};
+
+/// Millimetres in one inch, exactly (international inch, 1959): 25.4 = 127/5.
+pub const MM_PER_INCH: Ratio = match Ratio::from_parts(127, 5) {
+    Some(r) => r,
+    None => panic!("127/5 is reduced"),
+};
+
+/// How a pitch was given, which decides the unit it is shown in.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum PitchKind {
+    /// Millimetres between threads (`1.25mm`).
+    Metric,
+    /// Threads per inch (`11tpi`).
+    Inch,
+    /// A module worm: axial pitch π·m mm (`module:2`).
+    Module,
+    /// A diametral-pitch worm: axial pitch π/P inch (`dp:16`).
+    Diametral,
+}
+
+impl PitchKind {
+    /// True for pitches counted in inches (shown as TPI or inch, lead error in inch per inch).
+    pub fn is_inch(self) -> bool {
+        matches!(self, PitchKind::Inch | PitchKind::Diametral)
+    }
+}
+
+/// A thread pitch or a leadscrew pitch.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Pitch {
+    /// As typed, trimmed, e.g. `11tpi`.
+    pub text: String,
+    /// How it was given.
+    pub kind: PitchKind,
+    /// The number given: mm, threads per inch, module or diametral pitch.
+    pub given: Ratio,
+    /// Axial pitch in mm (exact unless it carries π).
+    pub mm: Exact,
+}
+
+impl fmt::Display for Pitch {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        f.write_str(&self.text)
+    }
+}
+
+const WANTED: &str = "wanted a pitch such as 1.25mm, 11tpi, module:2 or dp:16";
+
+/// Parse a thread pitch; `flag` names it in errors.
+pub fn parse_pitch(text: &str, flag: &str) -> Result<Pitch> {
+    let t = text.trim();
+    let lower = t.to_ascii_lowercase();
+    let bad = |why: String| Error::flag(flag, format!("\"{t}\" {why}; {WANTED}"));
+    let (kind, number) = if let Some(n) = lower.strip_prefix("module:") {
+        (PitchKind::Module, n)
+    } else if let Some(n) = lower.strip_prefix("dp:") {
+        (PitchKind::Diametral, n)
+    } else if let Some(n) = lower.strip_suffix("tpi") {
+        (PitchKind::Inch, n)
+    } else if let Some(n) = lower.strip_suffix("mm") {
+        (PitchKind::Metric, n)
+    } else {
+        return Err(bad("has no unit".into()));
+    };
+    let number = number.trim();
+    // parse_ratio also takes `pi`; a pitch number is a plain decimal or fraction.
+    if number.is_empty() || number.chars().any(|c| c.is_ascii_alphabetic() || c == ':') {
+        return Err(bad("does not start with a number".into()));
+    }
+    let given = parse_ratio(number, flag).map_err(|_| bad("is not a positive number".into()))?;
+    if given.is_zero() {
+        return Err(bad("is zero".into()));
+    }
+    let g = Exact::of(given);
+    let inch = Exact::of(MM_PER_INCH);
+    let pi = Exact { value: PI, exact: false };
+    let mm = match kind {
+        PitchKind::Metric => g,
+        PitchKind::Inch => inch.over(g),
+        PitchKind::Module => pi.times(g),
+        PitchKind::Diametral => pi.times(inch).over(g),
+    };
+    Ok(Pitch { text: t.to_string(), kind, given, mm })
+}
+
+/// Parse a leadscrew pitch: threads per inch or mm only (a leadscrew is not a worm).
+pub fn parse_leadscrew(text: &str, flag: &str) -> Result<Pitch> {
+    let p = parse_pitch(text, flag).map_err(|_| {
+        Error::flag(
+            flag,
+            format!(
+                "\"{}\" is not a leadscrew pitch; wanted threads per inch such as 8tpi or a \
+                 metric pitch such as 3mm",
+                text.trim()
+            ),
+        )
+    })?;
+    match p.kind {
+        PitchKind::Metric | PitchKind::Inch => Ok(p),
+        _ => Err(Error::flag(
+            flag,
+            format!("\"{}\": a leadscrew is given in threads per inch (8tpi) or mm (3mm)", p.text),
+        )),
+    }
+}
+
+impl Pitch {
+    /// A length in mm expressed in this pitch's own terms: mm for metric and module pitches,
+    /// threads per inch for inch threads, inches for diametral-pitch worms.
+    pub fn in_own_unit(&self, mm: f64) -> f64 {
+        match self.kind {
+            PitchKind::Metric | PitchKind::Module => mm,
+            PitchKind::Inch => 25.4 / mm,
+            PitchKind::Diametral => mm / 25.4,
+        }
+    }
+
+    /// The unit of [`Pitch::in_own_unit`].
+    pub fn own_unit(&self) -> &'static str {
+        match self.kind {
+            PitchKind::Metric | PitchKind::Module => "mm",
+            PitchKind::Inch => "tpi",
+            PitchKind::Diametral => "in",
+        }
+    }
+
+    /// A length in mm written in this pitch's own terms, e.g. `1.2500 mm` or `11.000 tpi`.
+    pub fn show(&self, mm: f64) -> String {
+        let v = self.in_own_unit(mm);
+        match self.kind {
+            PitchKind::Inch => format!("{v:.3} tpi"),
+            PitchKind::Diametral => format!("{v:.5} in"),
+            _ => format!("{v:.4} mm"),
+        }
+    }
+
+    /// The length over which lead error is stated, and its name: 100 mm for metric and module
+    /// pitches, 1 inch for inch ones.
+    pub fn lead_error_basis(&self) -> (f64, &'static str) {
+        if self.kind.is_inch() {
+            (1.0, "in per in")
+        } else {
+            (100.0, "mm per 100 mm")
+        }
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    fn mm(s: &str) -> String {
+        parse_pitch(s, "--pitch").unwrap().mm.value.to_string()
+    }
+
+    #[test]
+    fn inch_is_exactly_25_4_mm() {
+        // 1 in = 25.4 mm exactly (international yard and pound agreement, 1959; Wikipedia,
+        // "Inch", section "Modern standardisation").
+        assert_eq!(mm("1tpi"), "127/5");
+        assert_eq!(mm("25.4mm"), "127/5");
+        assert!(parse_pitch("1tpi", "--pitch").unwrap().mm.exact);
+    }
+
+    #[test]
+    fn forms_are_exact_where_they_can_be() {
+        assert_eq!(mm("3mm"), "3");
+        assert_eq!(mm("1.25mm"), "5/4");
+        assert_eq!(mm("8tpi"), "127/40");
+        assert_eq!(mm("11TPI"), "127/55");
+        assert_eq!(mm("2.3tpi"), "254/23");
+        assert_eq!(mm("9/2tpi"), "254/45");
+    }
+
+    #[test]
+    fn worms_carry_pi() {
+        // Common practice: a module worm's axial pitch is π·m; a DP worm's is π/P inch.
+        let m = parse_pitch("module:2", "--pitch").unwrap();
+        assert_eq!(m.kind, PitchKind::Module);
+        assert!(!m.mm.exact);
+        assert!((m.mm.value.to_f64() - 2.0 * std::f64::consts::PI).abs() < 1e-12);
+        let d = parse_pitch("dp:16", "--pitch").unwrap();
+        assert!((d.mm.value.to_f64() - std::f64::consts::PI * 25.4 / 16.0).abs() < 1e-12);
+        assert_eq!(d.own_unit(), "in");
+    }
+
+    #[test]
+    fn bad_pitches_name_the_flag() {
+        for bad in ["", "3", "mm", "0mm", "-2mm", "pimm", "abc", "module:", "dp:x", "1.2.3tpi"] {
+            let e = parse_pitch(bad, "--pitch").unwrap_err().to_string();
+            assert!(e.starts_with("--pitch: "), "{bad}: {e}");
+        }
+        let e = parse_leadscrew("module:2", "--leadscrew").unwrap_err().to_string();
+        assert!(e.starts_with("--leadscrew: "), "{e}");
+        assert!(parse_leadscrew("6tpi", "--leadscrew").is_ok());
+    }
+
+    #[test]
+    fn shown_in_their_own_units() {
+        let p = parse_pitch("11tpi", "--pitch").unwrap();
+        assert_eq!(p.show(25.4 / 11.0), "11.000 tpi");
+        let p = parse_pitch("1.25mm", "--pitch").unwrap();
+        assert_eq!(p.show(1.25), "1.2500 mm");
+        assert_eq!(p.lead_error_basis().1, "mm per 100 mm");
+    }
+}
