@@ -11,9 +11,10 @@
 //!   circles, undercut limit and tooth thickness.
 //! - [`pair`]: centre distance, working pressure angle, shift sum and its split between the
 //!   gears, tip shortening, contact ratio, backlash.
-//! - [`mesh`]: a whole [`MeshGeometry`] from a [`Mounting`], and [`shift_for_centre_distance`]
+//! - [`working`]: a whole [`MeshGeometry`] from a [`Mounting`], and [`shift_for_centre_distance`]
 //!   for a search.
-//! - [`check`]: [`MeshLimits`], [`MeshDefect`] and [`check_mesh`].
+//! - [`defect`]: the words for what can be wrong: [`MeshDefect`], [`GearRef`], [`Role`].
+//! - [`check`]: [`MeshLimits`] and [`check_mesh`].
 //! - [`modules`]: DIN 780 module series and diametral pitch.
 //!
 //! Units: lengths in mm, angles in degrees at the interface (radians where the name says
@@ -21,13 +22,15 @@
 //! spur gears; the basic rack defaults to ISO 53 type A.
 
 pub mod check;
+pub mod defect;
 pub mod involute;
 pub mod modules;
 pub mod pair;
 pub mod system;
 pub mod working;
 
-pub use check::{check_mesh, GearRef, MeshDefect, MeshLimits, Role};
+pub use check::{check_mesh, MeshLimits};
+pub use defect::{GearRef, MeshDefect, Role};
 pub use involute::{inv, inv_inverse};
 pub use modules::{
     is_standard_module, module_from_diametral_pitch, Series, MM_PER_INCH, MODULE_SERIES_I, MODULE_SERIES_II,

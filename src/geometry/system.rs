@@ -5,7 +5,7 @@
 //! Owns input validation for the tooth system and the per-gear formulas; knows nothing of the
 //! mating gear or the centre distance (those are in [`super::pair`]).
 
-use super::check::MeshDefect;
+use super::defect::MeshDefect;
 use super::involute::inv;
 
 /// The basic rack profile as multiples of the module (dimensionless, "starred" quantities).

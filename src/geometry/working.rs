@@ -9,7 +9,7 @@
 use std::array::from_fn;
 use std::ops::RangeInclusive;
 
-use super::check::{GearRef, MeshDefect};
+use super::defect::{GearRef, MeshDefect};
 use super::system::{RackProfile, ToothSystem};
 
 /// A gear counts as undercut when its shift is below the undercut limit by more than this (in
