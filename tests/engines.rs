@@ -199,10 +199,10 @@ proptest! {
 /// unsplit run's.
 fn shards_merge(p: &Problem, parts: u32) -> Result<(), TestCaseError> {
     use gearsieve::engine::Shard;
-    use gearsieve::report::{search::json, Report};
+    use gearsieve::report::search::{json, SearchReport};
     let doc_of = |shard: Option<Shard>| {
         let o = search(p, EngineKind::Fast, &RunOptions { shard, ..RunOptions::default() });
-        json::doc(&Report { problem: p, outcome: &o, explain: false, shard })
+        json::doc(&SearchReport { problem: p, outcome: &o, explain: false, shard })
     };
     let whole = doc_of(None);
     let docs: Vec<(String, json::Doc)> =

@@ -10,16 +10,16 @@ use gearsieve::model::catalog::CatalogueDefaults;
 use gearsieve::model::pool::{Pool, MAX_STAGES, MAX_TEETH, MIN_TEETH};
 use gearsieve::numbers::range::{parse_int_range, IntRange};
 use gearsieve::numbers::target::{parse_ratio, parse_tolerance};
-use gearsieve::trades::clock::astro::{AstroSpec, InputArbor, Period};
+use gearsieve::report::Report;
+use gearsieve::trades::clock::astro::{AstroPlan, AstroSpec, InputArbor, Period};
 use gearsieve::trades::clock::beat::{Beat, Escapement, STANDARD_GRAVITY};
-use gearsieve::trades::clock::going::{parse_rate_tolerance, GoingSpec};
-use gearsieve::trades::clock::motion::{Dial, MotionSpec};
+use gearsieve::trades::clock::going::{parse_rate_tolerance, GoingPlan, GoingSpec};
+use gearsieve::trades::clock::motion::{Dial, MotionPlan, MotionSpec};
 use gearsieve::trades::clock::{going, motion};
 use gearsieve::{Error, RunOptions};
 
-use super::progress::Bar;
-use super::search::{load_stock, PrintArgs};
-use super::{conclude, render_as as render, Ending};
+use super::args::{load_stock, PrintArgs};
+use super::run::{self, Job, Print, Words};
 
 /// Clock trains: the going train, the motion work, astronomical trains.
 #[derive(Args, Debug)]
@@ -254,69 +254,67 @@ impl TryFrom<&AstroArgs> for AstroSpec {
     }
 }
 
-/// Write the output, then choose the exit status.
-fn finish(print: &PrintArgs, buf: &[u8], count: u64, complete: bool, hint: &str) -> anyhow::Result<i32> {
-    let nothing = format!("no train meets every constraint. {hint}");
-    let ending = Ending {
-        complete,
-        found: count > 0,
-        interrupted: "the trains above are the best found so far",
-        nothing: &nothing,
-    };
-    conclude(print.output.as_deref(), buf, ending)
+/// What a clock command says when interrupted or when nothing was found.
+fn words(hint: &str) -> Words {
+    Words {
+        interrupted: Some("the trains above are the best found so far".into()),
+        nothing: Some(format!("no train meets every constraint. {hint}")),
+    }
+}
+
+impl Job for GoingSpec {
+    type Found = GoingPlan;
+
+    fn search(&self, options: &RunOptions) -> Result<GoingPlan, Error> {
+        self.plan(options)
+    }
+
+    fn report<'a>(&'a self, found: &'a GoingPlan) -> Box<dyn Report + 'a> {
+        Box::new(found)
+    }
+
+    fn words(&self) -> Words {
+        words("Try a --rate-tol above 0 s/day, more --stages, or wider --wheels and --pinions.")
+    }
+}
+
+impl Job for MotionSpec {
+    type Found = MotionPlan;
+
+    fn search(&self, options: &RunOptions) -> Result<MotionPlan, Error> {
+        self.plan(options)
+    }
+
+    fn report<'a>(&'a self, found: &'a MotionPlan) -> Box<dyn Report + 'a> {
+        Box::new(found)
+    }
+
+    fn words(&self) -> Words {
+        words("Try wider --wheels and --pinions, a lower --min-contact-ratio, or --not-coaxial.")
+    }
+}
+
+impl Job for AstroSpec {
+    type Found = AstroPlan;
+
+    fn search(&self, options: &RunOptions) -> Result<AstroPlan, Error> {
+        self.plan(options)
+    }
+
+    fn report<'a>(&'a self, found: &'a AstroPlan) -> Box<dyn Report + 'a> {
+        Box::new(found)
+    }
+
+    fn words(&self) -> Words {
+        words("Try a looser --tol, more --stages or a wider --teeth range.")
+    }
 }
 
 /// Run `gearsieve clock`.
 pub fn run(args: ClockArgs) -> anyhow::Result<i32> {
-    let print = match &args.what {
-        ClockCommand::Going(a) => &a.gears.print,
-        ClockCommand::Motion(a) => &a.gears.print,
-        ClockCommand::Astro(a) => &a.gears.print,
-    };
-    let bar = Bar::new(print.quiet);
-    let progress = |p| bar.update(p);
-    let options =
-        RunOptions { progress: Some(&progress), cancel: Some(&super::CANCEL), ..RunOptions::default() };
-    let threads = print.threads.map(usize::from);
     match &args.what {
-        ClockCommand::Going(a) => {
-            let spec = GoingSpec::try_from(a.as_ref())?;
-            let plan = super::with_threads(threads, || spec.plan(&options))??;
-            bar.finish();
-            let buf = render(
-                print.format,
-                |w| gearsieve::report::clock::document::write_going(&plan, w),
-                |w| gearsieve::report::clock::csv::write_going(&plan, w),
-                |w| gearsieve::report::clock::json::write_going(&plan, w),
-            )?;
-            let hint = "Try a --rate-tol above 0 s/day, more --stages, or wider --wheels and --pinions.";
-            finish(print, &buf, plan.count, plan.complete, hint)
-        }
-        ClockCommand::Motion(a) => {
-            let spec = MotionSpec::try_from(a.as_ref())?;
-            let plan = super::with_threads(threads, || spec.plan(&options))??;
-            bar.finish();
-            let buf = render(
-                print.format,
-                |w| gearsieve::report::clock::document::write_motion(&plan, w),
-                |w| gearsieve::report::clock::csv::write_motion(&plan, w),
-                |w| gearsieve::report::clock::json::write_motion(&plan, w),
-            )?;
-            let hint = "Try wider --wheels and --pinions, a lower --min-contact-ratio, or --not-coaxial.";
-            finish(print, &buf, plan.count, plan.complete, hint)
-        }
-        ClockCommand::Astro(a) => {
-            let spec = AstroSpec::try_from(a.as_ref())?;
-            let plan = super::with_threads(threads, || spec.plan(&options))??;
-            bar.finish();
-            let buf = render(
-                print.format,
-                |w| gearsieve::report::clock::document::write_astro(&plan, w),
-                |w| gearsieve::report::clock::csv::write_astro(&plan, w),
-                |w| gearsieve::report::clock::json::write_astro(&plan, w),
-            )?;
-            let hint = "Try a looser --tol, more --stages or a wider --teeth range.";
-            finish(print, &buf, plan.count, plan.complete, hint)
-        }
+        ClockCommand::Going(a) => run::run(&GoingSpec::try_from(a.as_ref())?, &Print::from(&a.gears.print)),
+        ClockCommand::Motion(a) => run::run(&MotionSpec::try_from(a.as_ref())?, &Print::from(&a.gears.print)),
+        ClockCommand::Astro(a) => run::run(&AstroSpec::try_from(a.as_ref())?, &Print::from(&a.gears.print)),
     }
 }

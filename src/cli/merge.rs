@@ -4,10 +4,11 @@
 use std::path::PathBuf;
 
 use clap::Args;
-use gearsieve::report::search::json::{write_doc, Doc};
+use gearsieve::report::search::json::Doc;
+use gearsieve::report::Format;
 use gearsieve::Error;
 
-use super::{EXIT_INTERRUPTED, EXIT_NOTHING_FOUND, EXIT_OK};
+use super::run::{self, Print, Words};
 
 /// Combine the JSON results of every part of a split search.
 #[derive(Args, Debug)]
@@ -32,16 +33,8 @@ pub fn run(args: MergeArgs) -> anyhow::Result<i32> {
         docs.push((name, doc));
     }
     let merged = gearsieve::report::search::merge::merge(docs)?;
-    let mut buf = Vec::new();
-    write_doc(&merged, &mut buf)?;
-    if !super::output::emit(args.output.as_deref(), &buf)? {
-        return Ok(EXIT_OK);
-    }
-    Ok(if !merged.complete {
-        EXIT_INTERRUPTED
-    } else if merged.count == 0 {
-        EXIT_NOTHING_FOUND
-    } else {
-        EXIT_OK
-    })
+    let print = Print { format: Format::Json, output: args.output, threads: None, quiet: true };
+    // The parts said what they found; a merge adds no words of its own.
+    let words = Words { interrupted: None, nothing: None };
+    run::present(&merged, &print, &words)
 }

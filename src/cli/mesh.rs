@@ -5,7 +5,8 @@
 
 use std::path::PathBuf;
 
-use clap::{ArgGroup, Args, ValueEnum};
+use clap::{ArgGroup, Args};
+use gearsieve::engine::RunOptions;
 use gearsieve::geometry::{
     check_mesh, mesh_geometry, module_from_diametral_pitch, shift_for_centre_distance, MeshDefect,
     MeshGeometry, MeshLimits, Mounting, RackProfile, ToothSystem, MM_PER_INCH,
@@ -13,19 +14,12 @@ use gearsieve::geometry::{
 use gearsieve::model::pool::{fmt_num, MAX_TEETH, MIN_TEETH};
 use gearsieve::model::problem::DEFAULT_SHIFT_SUM;
 use gearsieve::numbers::range::parse_signed_range;
-use gearsieve::report::mesh::{write_json, write_table, MeshInputs, MeshReport, MountingInput};
+use gearsieve::report::mesh::{MeshInputs, MeshReport, MountingInput};
+use gearsieve::report::Report;
 use gearsieve::Error;
 
-use super::{EXIT_NOTHING_FOUND, EXIT_OK};
-
-/// The output format flag of `mesh`.
-#[derive(Clone, Copy, Debug, ValueEnum)]
-pub enum MeshFormatArg {
-    /// Aligned text for people.
-    Table,
-    /// A JSON document for scripts.
-    Json,
-}
+use super::args::FormatArg;
+use super::run::{self, Job, Print, Words};
 
 /// The full geometry of one external spur pair, the check a designer runs before cutting.
 ///
@@ -80,9 +74,9 @@ pub struct MeshArgs {
     /// Accept undercut gears (small clock pinions are often cut so); still reported.
     #[arg(long)]
     pub allow_undercut: bool,
-    /// Output format.
+    /// Output format (a mesh check has no CSV rows).
     #[arg(long, value_enum, default_value = "table")]
-    pub format: MeshFormatArg,
+    pub format: FormatArg,
     /// Write the report to FILE (atomically: complete or not at all) instead of standard output.
     #[arg(long, value_name = "FILE")]
     pub output: Option<PathBuf>,
@@ -94,7 +88,7 @@ pub struct MeshJob {
     system: ToothSystem,
     inputs: MeshInputs,
     limits: MeshLimits,
-    format: MeshFormatArg,
+    format: FormatArg,
     output: Option<PathBuf>,
 }
 
@@ -320,19 +314,37 @@ fn geometry(job: &MeshJob) -> Result<MeshGeometry, MeshDefect> {
     }
 }
 
+impl Job for MeshJob {
+    type Found = (MeshGeometry, Vec<MeshDefect>);
+
+    fn search(&self, _options: &RunOptions) -> Result<Self::Found, Error> {
+        let mesh = geometry(self).map_err(|d| explain(self, d))?;
+        let defects = check_mesh(&mesh, &self.limits);
+        Ok((mesh, defects))
+    }
+
+    fn report<'a>(&'a self, found: &'a Self::Found) -> Box<dyn Report + 'a> {
+        Box::new(MeshReport {
+            inputs: &self.inputs,
+            limits: &self.limits,
+            geometry: &found.0,
+            defects: &found.1,
+        })
+    }
+
+    fn words(&self) -> Words {
+        // The verdict in the report says why the mesh would not run.
+        Words { interrupted: None, nothing: None }
+    }
+
+    fn shows_progress(&self) -> bool {
+        false
+    }
+}
+
 /// Run `gearsieve mesh`: 0 when the mesh runs, 1 when it has defects.
 pub fn run(args: MeshArgs) -> anyhow::Result<i32> {
     let job = MeshJob::try_from(args)?;
-    let mesh = geometry(&job).map_err(|d| explain(&job, d))?;
-    let defects = check_mesh(&mesh, &job.limits);
-    let report = MeshReport { inputs: &job.inputs, limits: &job.limits, geometry: &mesh, defects: &defects };
-    let mut buf = Vec::new();
-    match job.format {
-        MeshFormatArg::Table => write_table(&report, &mut buf)?,
-        MeshFormatArg::Json => write_json(&report, &mut buf)?,
-    }
-    if !super::output::emit(job.output.as_deref(), &buf)? {
-        return Ok(EXIT_OK);
-    }
-    Ok(if defects.is_empty() { EXIT_OK } else { EXIT_NOTHING_FOUND })
+    let print = Print { format: job.format.into(), output: job.output.clone(), threads: None, quiet: true };
+    run::run(&job, &print)
 }

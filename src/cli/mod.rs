@@ -1,13 +1,16 @@
 //! The command line: clap-derive structs mirroring the arguments, each subcommand in its own
-//! file turning its arguments into a library problem (`TryFrom`), and the shared edge work —
-//! exit codes, the progress bar, Ctrl-C, writing output safely.
+//! file turning its arguments into a library problem (`TryFrom`) and a [`run::Job`], and the
+//! shared edge work in one run-and-print path ([`run`]) — exit codes, the progress bar, Ctrl-C,
+//! worker threads, formats, writing output safely.
 
+mod args;
 mod clock;
 mod merge;
 mod mesh;
 mod output;
 mod progress;
 mod reducer;
+mod run;
 mod search;
 mod thread;
 
@@ -91,66 +94,4 @@ pub fn run() -> i32 {
             EXIT_BAD_INPUT
         }
     }
-}
-
-/// Build a rayon pool of `threads` threads (all cores when `None`) and run `f` in it.
-fn with_threads<T: Send>(threads: Option<usize>, f: impl FnOnce() -> T + Send) -> anyhow::Result<T> {
-    let mut b = rayon::ThreadPoolBuilder::new();
-    if let Some(n) = threads {
-        b = b.num_threads(n);
-    }
-    let pool = b.build().map_err(|e| anyhow::anyhow!("--threads: cannot start worker threads: {e}"))?;
-    Ok(pool.install(f))
-}
-
-/// Render into bytes with the writer the chosen format names.
-fn render_as(
-    format: search::FormatArg,
-    table: impl FnOnce(&mut Vec<u8>) -> std::io::Result<()>,
-    csv: impl FnOnce(&mut Vec<u8>) -> std::io::Result<()>,
-    json: impl FnOnce(&mut Vec<u8>) -> std::io::Result<()>,
-) -> anyhow::Result<Vec<u8>> {
-    let mut buf = Vec::new();
-    match format {
-        search::FormatArg::Table => table(&mut buf)?,
-        search::FormatArg::Csv => csv(&mut buf)?,
-        search::FormatArg::Json => json(&mut buf)?,
-    }
-    Ok(buf)
-}
-
-/// How a command's run ended, and what to tell the user on stderr about it.
-struct Ending<'a> {
-    /// False when interrupted.
-    complete: bool,
-    /// Whether anything was found.
-    found: bool,
-    /// Said after "gearsieve: interrupted; " when interrupted.
-    interrupted: &'a str,
-    /// Said after "gearsieve: " when nothing was found.
-    nothing: &'a str,
-}
-
-impl Ending<'_> {
-    /// The exit status, with its message on stderr.
-    fn status(&self) -> i32 {
-        if !self.complete {
-            eprintln!("gearsieve: interrupted; {}", self.interrupted);
-            EXIT_INTERRUPTED
-        } else if !self.found {
-            eprintln!("gearsieve: {}", self.nothing);
-            EXIT_NOTHING_FOUND
-        } else {
-            EXIT_OK
-        }
-    }
-}
-
-/// Write rendered results (stdout or `--output`), then choose the exit status; a closed stdout
-/// pipe ends quietly with 0.
-fn conclude(output: Option<&std::path::Path>, buf: &[u8], ending: Ending) -> anyhow::Result<i32> {
-    if !output::emit(output, buf)? {
-        return Ok(EXIT_OK);
-    }
-    Ok(ending.status())
 }

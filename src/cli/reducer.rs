@@ -10,12 +10,12 @@ use gearsieve::model::pool::{MAX_STAGES, MAX_TEETH, MIN_TEETH};
 use gearsieve::numbers::exact::Exact;
 use gearsieve::numbers::range::{parse_int_range, parse_signed_range, IntRange};
 use gearsieve::numbers::target::{parse_ratio, parse_tolerance};
-use gearsieve::trades::reducer::{Hunting, Priority, ReducerSpec, DEFAULT_MAX_STAGE_RATIO};
+use gearsieve::report::Report;
+use gearsieve::trades::reducer::{Hunting, Priority, ReducerPlan, ReducerSpec, DEFAULT_MAX_STAGE_RATIO};
 use gearsieve::{Error, RunOptions};
 
-use super::progress::Bar;
-use super::search::{load_stock, PrintArgs};
-use super::{conclude, render_as, Ending};
+use super::args::{load_stock, PrintArgs};
+use super::run::{self, Job, Print, Words};
 
 /// The hunting-tooth flag.
 #[derive(Clone, Copy, Debug, ValueEnum)]
@@ -161,28 +161,30 @@ impl TryFrom<&ReducerArgs> for ReducerSpec {
     }
 }
 
+impl Job for ReducerSpec {
+    type Found = ReducerPlan;
+
+    fn search(&self, options: &RunOptions) -> Result<ReducerPlan, Error> {
+        self.plan(options)
+    }
+
+    fn report<'a>(&'a self, found: &'a ReducerPlan) -> Box<dyn Report + 'a> {
+        Box::new(found)
+    }
+
+    fn words(&self) -> Words {
+        Words {
+            interrupted: Some("the trains above are the best found so far".into()),
+            nothing: Some(
+                "no train meets every constraint. Try a looser --tol, a higher --max-stage-ratio, more \
+                 teeth, --hunting prefer, or a wider --shift-sum for the housing."
+                    .into(),
+            ),
+        }
+    }
+}
+
 /// Run `gearsieve reducer`.
 pub fn run(args: ReducerArgs) -> anyhow::Result<i32> {
-    let spec = ReducerSpec::try_from(&args)?;
-    let print = &args.print;
-    let bar = Bar::new(print.quiet);
-    let progress = |p| bar.update(p);
-    let options =
-        RunOptions { progress: Some(&progress), cancel: Some(&super::CANCEL), ..RunOptions::default() };
-    let plan = super::with_threads(print.threads.map(usize::from), || spec.plan(&options))??;
-    bar.finish();
-    let buf = render_as(
-        print.format,
-        |w| gearsieve::report::reducer::document::write(&plan, w),
-        |w| gearsieve::report::reducer::csv::write(&plan, w),
-        |w| gearsieve::report::reducer::json::write(&plan, w),
-    )?;
-    let ending = Ending {
-        complete: plan.complete,
-        found: plan.count > 0,
-        interrupted: "the trains above are the best found so far",
-        nothing: "no train meets every constraint. Try a looser --tol, a higher --max-stage-ratio, more \
-                  teeth, --hunting prefer, or a wider --shift-sum for the housing.",
-    };
-    conclude(print.output.as_deref(), &buf, ending)
+    run::run(&ReducerSpec::try_from(&args)?, &Print::from(&args.print))
 }

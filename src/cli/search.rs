@@ -6,43 +6,24 @@ use std::path::PathBuf;
 use clap::{Args, ValueEnum};
 use gearsieve::engine::Shard;
 use gearsieve::geometry::{module_from_diametral_pitch, MeshLimits};
-use gearsieve::model::catalog::{self, CatalogueDefaults};
+use gearsieve::model::catalog::CatalogueDefaults;
 use gearsieve::model::pool::{Pool, MAX_STAGES, MAX_TEETH, MIN_TEETH};
 use gearsieve::model::problem::MeshRules;
 use gearsieve::model::rank::parse_rank;
 use gearsieve::model::train::Direction;
 use gearsieve::numbers::range::{parse_float_range, parse_int_range, parse_ratio_range, parse_signed_range};
 use gearsieve::numbers::target::Target;
-use gearsieve::report::search::{csv as csv_out, json as json_out};
-use gearsieve::report::{render, Format, Report};
+use gearsieve::report::search::{csv as csv_out, json as json_out, SearchReport};
+use gearsieve::report::Report;
 use gearsieve::{EngineKind, Error, Problem, RunOptions, StageLimits};
 
+use super::args::{load_stock, FormatArg, PrintArgs};
 use super::progress::Bar;
-use super::{Ending, EXIT_OK};
+use super::run::{self, Job, Print, Words};
+use super::EXIT_OK;
 
 /// Tooth range used when neither `--teeth` nor `--stock` is given.
 pub const DEFAULT_TEETH: &str = "12..120";
-
-/// The output format flag.
-#[derive(Clone, Copy, Debug, ValueEnum)]
-pub enum FormatArg {
-    /// Aligned text.
-    Table,
-    /// One row per train.
-    Csv,
-    /// The documented JSON contract.
-    Json,
-}
-
-impl From<FormatArg> for Format {
-    fn from(f: FormatArg) -> Format {
-        match f {
-            FormatArg::Table => Format::Table,
-            FormatArg::Csv => Format::Csv,
-            FormatArg::Json => Format::Json,
-        }
-    }
-}
 
 /// The engine flag.
 #[derive(Clone, Copy, Debug, ValueEnum)]
@@ -63,23 +44,6 @@ pub enum DirectionArg {
     Same,
     /// Output turns the opposite way (odd number of meshes).
     Opposite,
-}
-
-/// Flags shared by every command that prints results.
-#[derive(Args, Debug, Clone)]
-pub struct PrintArgs {
-    /// Output format.
-    #[arg(long, value_enum, default_value = "table")]
-    pub format: FormatArg,
-    /// Write results to FILE (atomically: complete or not at all) instead of standard output.
-    #[arg(long, value_name = "FILE")]
-    pub output: Option<PathBuf>,
-    /// Worker threads (default: all cores). Results do not depend on it.
-    #[arg(long, value_name = "N", value_parser = clap::value_parser!(u16).range(1..=1024))]
-    pub threads: Option<u16>,
-    /// No progress bar.
-    #[arg(long, short)]
-    pub quiet: bool,
 }
 
 /// Search every compound train of external spur stages for a ratio.
@@ -188,16 +152,6 @@ pub struct SearchJob {
     explain: bool,
     shard: Option<Shard>,
     long: bool,
-}
-
-/// Load every `--stock` file into one pool.
-pub fn load_stock(files: &[PathBuf], defaults: CatalogueDefaults) -> Result<Pool, Error> {
-    let mut gears = Vec::new();
-    for f in files {
-        gears.extend(catalog::load(f, defaults)?);
-    }
-    let names: Vec<String> = files.iter().map(|f| f.display().to_string()).collect();
-    Pool::from_stock(&gears, &format!("catalogue {}", names.join(", ")))
 }
 
 fn module_from_flags(module: Option<f64>, dp: Option<f64>) -> Result<Option<(f64, Option<f64>)>, Error> {
@@ -311,24 +265,50 @@ impl TryFrom<SearchArgs> for SearchJob {
     }
 }
 
+impl Job for SearchJob {
+    type Found = gearsieve::Outcome;
+
+    fn search(&self, options: &RunOptions) -> Result<gearsieve::Outcome, Error> {
+        Ok(gearsieve::search(&self.problem, self.engine, options))
+    }
+
+    fn report<'a>(&'a self, found: &'a gearsieve::Outcome) -> Box<dyn Report + 'a> {
+        Box::new(SearchReport {
+            problem: &self.problem,
+            outcome: found,
+            explain: self.explain,
+            shard: self.shard,
+        })
+    }
+
+    fn words(&self) -> Words {
+        words()
+    }
+
+    fn forecast(&self, print: &Print) -> anyhow::Result<()> {
+        forecast(self, print)
+    }
+
+    fn shard(&self) -> Option<Shard> {
+        self.shard
+    }
+}
+
 /// Run `gearsieve search`.
 pub fn run(args: SearchArgs) -> anyhow::Result<i32> {
     let job = SearchJob::try_from(args)?;
-    forecast(&job)?;
-    let bar = Bar::new(job.print.quiet);
-    let progress = |p| bar.update(p);
-    let options = RunOptions { progress: Some(&progress), cancel: Some(&super::CANCEL), shard: job.shard };
+    let print = Print::from(&job.print);
     if job.problem.limit == 0 {
+        forecast(&job, &print)?;
+        let bar = Bar::new(print.quiet);
+        let progress = |p| bar.update(p);
+        let options =
+            RunOptions { progress: Some(&progress), cancel: Some(&super::CANCEL), shard: job.shard };
         let code = stream(&job, &options);
         bar.finish();
         return code;
     }
-    let outcome = super::with_threads(job.print.threads.map(usize::from), || {
-        gearsieve::search(&job.problem, job.engine, &options)
-    })?;
-    bar.finish();
-    let report = Report { problem: &job.problem, outcome: &outcome, explain: job.explain, shard: job.shard };
-    finish(&report, &job.print)
+    run::run(&job, &print)
 }
 
 /// Forecast searches longer than this (wall seconds) are refused without `--long`.
@@ -338,11 +318,11 @@ const NOTE_ABOVE_S: f64 = 30.0;
 
 /// Before a big search: forecast its time from a short sample, say so when it is long, and
 /// refuse one that would plainly run for hours unless `--long` is given.
-fn forecast(job: &SearchJob) -> anyhow::Result<()> {
+fn forecast(job: &SearchJob, print: &Print) -> anyhow::Result<()> {
     let engine = if job.problem.limit == 0 { job.engine.streaming() } else { job.engine };
     let e = gearsieve::engine::estimate(&job.problem, engine, std::time::Duration::from_secs(1));
     let Some(one) = e.seconds_one_thread else { return Ok(()) };
-    let threads = job.print.threads.map_or_else(rayon::current_num_threads, usize::from).max(1);
+    let threads = print.threads.unwrap_or_else(rayon::current_num_threads).max(1);
     let mut wall = one / threads as f64;
     if let Some(s) = job.shard.filter(|_| e.shardable) {
         wall /= s.count as f64;
@@ -366,7 +346,7 @@ fn forecast(job: &SearchJob) -> anyhow::Result<()> {
         )
         .into());
     }
-    if wall > NOTE_ABOVE_S && !job.print.quiet {
+    if wall > NOTE_ABOVE_S && !print.quiet {
         eprintln!("gearsieve: this search will take {what}; Ctrl-C stops it and prints the best so far");
     }
     Ok(())
@@ -390,9 +370,8 @@ fn stream(job: &SearchJob, options: &RunOptions) -> anyhow::Result<i32> {
     let mut sink = super::output::Sink::open(path)?;
     let p = &job.problem;
     let json = matches!(job.print.format, FormatArg::Json);
-    let result = super::with_threads(
-        job.print.threads.map(usize::from),
-        || -> std::io::Result<gearsieve::Outcome> {
+    let result =
+        run::with_threads(job.print.threads.map(usize::from), || -> std::io::Result<gearsieve::Outcome> {
             let w = sink.writer();
             if json {
                 let o = gearsieve::engine::search_each(p, job.engine, options, &mut |t| {
@@ -416,8 +395,7 @@ fn stream(job: &SearchJob, options: &RunOptions) -> anyhow::Result<i32> {
                 c.flush()?;
                 Ok(o)
             }
-        },
-    )?;
+        })?;
     let outcome = match result {
         Ok(o) => o,
         Err(e) => {
@@ -427,7 +405,7 @@ fn stream(job: &SearchJob, options: &RunOptions) -> anyhow::Result<i32> {
     if !super::output::quiet_broken_pipe(sink.commit(), path)? {
         return Ok(EXIT_OK);
     }
-    Ok(ending(&outcome).status())
+    Ok(run::status(outcome.complete, outcome.count > 0, &words()))
 }
 
 /// A CSV writer's error as the I/O error underneath, so a closed pipe is still seen as one.
@@ -438,20 +416,14 @@ fn csv_io(e: ::csv::Error) -> std::io::Error {
     }
 }
 
-/// How a finished search ended, and the stderr messages for it.
-fn ending(o: &gearsieve::Outcome) -> Ending<'static> {
-    Ending {
-        complete: o.complete,
-        found: o.count > 0,
-        interrupted: "the trains above are the best found so far and the count is a lower bound",
-        nothing: "no train meets every constraint. Try a looser --tol, more --stages, a wider --teeth \
-                  range or more stock, or fewer per-stage limits.",
+/// What `search` says when interrupted or when nothing was found.
+fn words() -> Words {
+    Words {
+        interrupted: Some("the trains above are the best found so far and the count is a lower bound".into()),
+        nothing: Some(
+            "no train meets every constraint. Try a looser --tol, more --stages, a wider --teeth range \
+             or more stock, or fewer per-stage limits."
+                .into(),
+        ),
     }
-}
-
-/// Render, write, and choose the exit status; shared by the commands that print a search.
-pub fn finish(report: &Report, print: &PrintArgs) -> anyhow::Result<i32> {
-    let mut buf = Vec::new();
-    render(print.format.into(), report, &mut buf)?;
-    super::conclude(print.output.as_deref(), &buf, ending(report.outcome))
 }

@@ -9,18 +9,18 @@ use gearsieve::model::catalog::CatalogueDefaults;
 use gearsieve::model::pool::{Pool, MAX_STAGES, MAX_TEETH, MIN_TEETH};
 use gearsieve::numbers::range::{parse_float_range, parse_int_range};
 use gearsieve::numbers::target::{parse_ratio, parse_tolerance};
-use gearsieve::report::thread::document::{ChartReport, ThreadReport};
+use gearsieve::report::thread::{ChartReport, ThreadReport};
+use gearsieve::report::Report;
 use gearsieve::trades::thread::banjo::{load_banjo, Banjo};
-use gearsieve::trades::thread::chart::chart;
+use gearsieve::trades::thread::chart::{chart, Chart};
 use gearsieve::trades::thread::machine::{load_gearbox, parse_gearbox_list, Machine};
 use gearsieve::trades::thread::pitch::{parse_leadscrew, parse_pitch};
 use gearsieve::trades::thread::series::{built_in, load_list, SeriesEntry};
-use gearsieve::trades::thread::{Lathe, ThreadSpec};
+use gearsieve::trades::thread::{Lathe, Rejected, ThreadPlan, ThreadSpec};
 use gearsieve::{Error, RunOptions};
 
-use super::progress::Bar;
-use super::search::{load_stock, PrintArgs};
-use super::{conclude, render_as as render, Ending};
+use super::args::{load_stock, PrintArgs};
+use super::run::{self, Job, Print, Words};
 
 /// The lathe and its change gears, shared by `thread` and `chart`.
 #[derive(Args, Debug)]
@@ -161,6 +161,39 @@ impl TryFrom<&LatheArgs> for Lathe {
     }
 }
 
+/// A validated thread search.
+struct ThreadJob {
+    lathe: Lathe,
+    spec: ThreadSpec,
+    explain: bool,
+}
+
+impl Job for ThreadJob {
+    type Found = (ThreadPlan, Option<Vec<Rejected>>);
+
+    fn search(&self, options: &RunOptions) -> Result<Self::Found, Error> {
+        let plan = self.lathe.plan(&self.spec, options)?;
+        let rejected = if self.explain { Some(self.lathe.explain(&self.spec, options)?) } else { None };
+        Ok((plan, rejected))
+    }
+
+    fn report<'a>(&'a self, found: &'a Self::Found) -> Box<dyn Report + 'a> {
+        Box::new(ThreadReport { lathe: &self.lathe, plan: &found.0, rejected: found.1.as_deref() })
+    }
+
+    fn words(&self) -> Words {
+        Words {
+            interrupted: Some("the setups above are the best found so far".into()),
+            nothing: Some(format!(
+                "no setup cuts {} within the tolerance from these gears. Try a looser --tol, more \
+                 --stages or more stock{}.",
+                self.spec.pitch,
+                if self.lathe.banjo.is_some() { "; --explain shows what the banjo refused" } else { "" }
+            )),
+        }
+    }
+}
+
 /// Run `gearsieve thread`.
 pub fn run_thread(args: ThreadArgs) -> anyhow::Result<i32> {
     let lathe = Lathe::try_from(&args.lathe)?;
@@ -168,37 +201,41 @@ pub fn run_thread(args: ThreadArgs) -> anyhow::Result<i32> {
         return Err(Error::flag("--starts", "a thread has at least one start").into());
     }
     let spec = ThreadSpec { pitch: parse_pitch(&args.pitch, "--pitch")?, starts: args.starts };
-    let print = &args.lathe.print;
-    let bar = Bar::new(print.quiet);
-    let progress = |p| bar.update(p);
-    let options =
-        RunOptions { progress: Some(&progress), cancel: Some(&super::CANCEL), ..RunOptions::default() };
-    let (plan, rejected) = super::with_threads(print.threads.map(usize::from), || {
-        let plan = lathe.plan(&spec, &options)?;
-        let rejected = if args.explain { Some(lathe.explain(&spec, &options)?) } else { None };
-        Ok::<_, Error>((plan, rejected))
-    })??;
-    bar.finish();
-    let report = ThreadReport { lathe: &lathe, plan: &plan, rejected: rejected.as_deref() };
-    let buf = render(
-        print.format,
-        |w| gearsieve::report::thread::document::write_thread(&report, w),
-        |w| gearsieve::report::thread::csv::write_thread(&report, w),
-        |w| gearsieve::report::thread::json::write_thread(&report, w),
-    )?;
-    let nothing = format!(
-        "no setup cuts {} within the tolerance from these gears. Try a looser --tol, more --stages or \
-         more stock{}.",
-        spec.pitch,
-        if lathe.banjo.is_some() { "; --explain shows what the banjo refused" } else { "" }
-    );
-    let ending = Ending {
-        complete: plan.complete,
-        found: plan.count > 0,
-        interrupted: "the setups above are the best found so far",
-        nothing: &nothing,
-    };
-    conclude(print.output.as_deref(), &buf, ending)
+    run::run(&ThreadJob { lathe, spec, explain: args.explain }, &Print::from(&args.lathe.print))
+}
+
+/// A validated chart.
+struct ChartJob {
+    lathe: Lathe,
+    name: String,
+    series: Vec<SeriesEntry>,
+}
+
+impl Job for ChartJob {
+    type Found = Chart;
+
+    fn search(&self, options: &RunOptions) -> Result<Chart, Error> {
+        chart(&self.lathe, &self.series, options)
+    }
+
+    fn report<'a>(&'a self, found: &'a Chart) -> Box<dyn Report + 'a> {
+        Box::new(ChartReport { lathe: &self.lathe, series: &self.name, chart: found })
+    }
+
+    fn words(&self) -> Words {
+        Words {
+            interrupted: Some("the chart above stops early".into()),
+            nothing: Some(format!(
+                "no thread of {} can be cut within the tolerance from these gears. Try a looser --tol, \
+                 more --stages or more stock.",
+                self.name
+            )),
+        }
+    }
+
+    fn shows_progress(&self) -> bool {
+        false
+    }
 }
 
 /// Run `gearsieve chart`.
@@ -209,25 +246,5 @@ pub fn run_chart(args: ChartArgs) -> anyhow::Result<i32> {
         (None, Some(f)) => (f.display().to_string(), load_list(f, "--list")?),
         (None, None) => return Err(Error::flag("--series", "give --series NAME or --list FILE").into()),
     };
-    let print = &args.lathe.print;
-    let options = RunOptions { progress: None, cancel: Some(&super::CANCEL), ..RunOptions::default() };
-    let result = super::with_threads(print.threads.map(usize::from), || chart(&lathe, &series, &options))??;
-    let report = ChartReport { lathe: &lathe, series: &name, chart: &result };
-    let buf = render(
-        print.format,
-        |w| gearsieve::report::thread::document::write_chart(&report, w),
-        |w| gearsieve::report::thread::csv::write_chart(&report, w),
-        |w| gearsieve::report::thread::json::write_chart(&report, w),
-    )?;
-    let nothing = format!(
-        "no thread of {name} can be cut within the tolerance from these gears. Try a looser --tol, \
-         more --stages or more stock."
-    );
-    let ending = Ending {
-        complete: result.complete,
-        found: result.reachable() > 0,
-        interrupted: "the chart above stops early",
-        nothing: &nothing,
-    };
-    conclude(print.output.as_deref(), &buf, ending)
+    run::run(&ChartJob { lathe, name, series }, &Print::from(&args.lathe.print))
 }

@@ -1,81 +1,167 @@
-//! Output formats. Each format is a sink in its own file: it takes a finished [`Report`] and a
-//! writer and prints; none of them computes anything about gears. Shared wording (how an error
-//! or a number is written) lives here so the formats agree.
+//! The presentation layer: every result kind, in every format, behind one trait.
+//!
+//! A result kind (a search, a mesh check, thread setups, a chart, clock trains, a reducer)
+//! implements [`Report`]: it lays itself out for people as a [`Document`] and, where it has
+//! them, writes its CSV rows and its JSON contract. The formats for people are sinks of the
+//! document — [`text`] and [`markdown`] — so a new format for people is one sink file, one
+//! [`Format`] value and one default method here, and every result kind has it at once. A format
+//! a kind does not offer says so ([`RenderError::NotOffered`]).
+//!
+//! Nothing here computes anything about gears: the kinds read finished results and write words
+//! and numbers. Shared wording (errors, tolerances, counts, the convention and the cautions)
+//! is in [`words`], once.
+//!
+//! - [`document`]: the format-neutral [`Document`] of titles, lines, lists and tables.
+//! - [`text`], [`markdown`]: sinks of a document.
+//! - [`search`], [`mesh`], [`thread`], [`clock`], [`reducer`]: one folder per result family,
+//!   with its document, CSV and JSON.
 
 pub mod clock;
-pub mod columns;
+pub mod document;
+pub mod markdown;
 pub mod mesh;
 pub mod reducer;
 pub mod search;
+pub mod text;
 pub mod thread;
+pub mod words;
 
 use std::io::{self, Write};
 
-use crate::engine::Outcome;
-use crate::model::problem::Problem;
-use crate::numbers::rational::RelError;
-
-/// The ratio convention, in words, for reports and help.
-pub const CONVENTION: &str = "ratio i = input turns per output turn = product of driven teeth / \
-                              product of driver teeth (ISO 1122-1); above 1 reduces speed";
-
-/// The caution printed under results.
-pub const CAUTION: &str = "gearsieve checks ratios and geometry only. A train that carries real \
-                           power needs a load-capacity rating (e.g. ISO 6336 or AGMA 2001) by a \
-                           qualified person; follow local codes and licensed practice.";
-
-/// A finished search, ready to print.
-pub struct Report<'a> {
-    /// What was asked.
-    pub problem: &'a Problem,
-    /// What was found.
-    pub outcome: &'a Outcome,
-    /// Say why stage pairings were left out by the mesh checks.
-    pub explain: bool,
-    /// The part of the search this report covers, when split with `--shard`.
-    pub shard: Option<crate::engine::Shard>,
-}
+pub use document::{Align, Block, Column, Document, Table};
 
 /// The output formats.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
 pub enum Format {
     /// Aligned text for people.
     Table,
-    /// One row per train.
+    /// One row per result, for spreadsheets.
     Csv,
-    /// The documented JSON contract.
+    /// The documented JSON contract, for scripts.
     Json,
+    /// Markdown with pipe tables, for notes, wikis and issues.
+    Markdown,
+}
+
+impl Format {
+    /// The format's name as users write it: `table`, `csv`, `json`, `markdown`.
+    pub fn name(self) -> &'static str {
+        match self {
+            Format::Table => "table",
+            Format::Csv => "csv",
+            Format::Json => "json",
+            Format::Markdown => "markdown",
+        }
+    }
+}
+
+/// Why a result could not be rendered.
+#[derive(Debug, thiserror::Error)]
+pub enum RenderError {
+    /// The result kind has no such format (a mesh check has no CSV rows, for example).
+    #[error("{kind} is not offered as {}", format.name())]
+    NotOffered {
+        /// The format asked for.
+        format: Format,
+        /// The result kind, in words (`a mesh check`).
+        kind: &'static str,
+    },
+    /// Writing failed (a closed pipe, a full disk).
+    #[error(transparent)]
+    Io(#[from] io::Error),
+}
+
+/// How a run ended, as its result tells: for the exit status and the last word on stderr.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub struct Completion {
+    /// False when the run was interrupted before it had looked at everything.
+    pub complete: bool,
+    /// Whether it found what was asked (a train, a setup, a mesh that runs).
+    pub found: bool,
+}
+
+/// A result kind, presented: one method per format. The formats for people are built from
+/// [`Report::document`]; CSV and JSON are the kind's own, and not offered unless it has them.
+pub trait Report {
+    /// The result kind in words, for messages: `a search`, `a mesh check`.
+    fn kind(&self) -> &'static str;
+
+    /// How the run that made this result ended.
+    fn completion(&self) -> Completion;
+
+    /// The result laid out for people; `None` when the kind has no layout for people (the
+    /// merged JSON of a split search).
+    fn document(&self) -> Option<Document>;
+
+    /// Aligned text.
+    fn table(&self, w: &mut dyn Write) -> Result<(), RenderError> {
+        let doc =
+            self.document().ok_or(RenderError::NotOffered { format: Format::Table, kind: self.kind() })?;
+        Ok(text::write(&doc, w)?)
+    }
+
+    /// Markdown.
+    fn markdown(&self, w: &mut dyn Write) -> Result<(), RenderError> {
+        let doc =
+            self.document().ok_or(RenderError::NotOffered { format: Format::Markdown, kind: self.kind() })?;
+        Ok(markdown::write(&doc, w)?)
+    }
+
+    /// CSV rows.
+    fn csv(&self, _w: &mut dyn Write) -> Result<(), RenderError> {
+        Err(RenderError::NotOffered { format: Format::Csv, kind: self.kind() })
+    }
+
+    /// The JSON contract.
+    fn json(&self, _w: &mut dyn Write) -> Result<(), RenderError> {
+        Err(RenderError::NotOffered { format: Format::Json, kind: self.kind() })
+    }
+}
+
+/// A borrowed result presents as the result itself.
+impl<T: Report + ?Sized> Report for &T {
+    fn kind(&self) -> &'static str {
+        (**self).kind()
+    }
+
+    fn completion(&self) -> Completion {
+        (**self).completion()
+    }
+
+    fn document(&self) -> Option<Document> {
+        (**self).document()
+    }
+
+    fn table(&self, w: &mut dyn Write) -> Result<(), RenderError> {
+        (**self).table(w)
+    }
+
+    fn markdown(&self, w: &mut dyn Write) -> Result<(), RenderError> {
+        (**self).markdown(w)
+    }
+
+    fn csv(&self, w: &mut dyn Write) -> Result<(), RenderError> {
+        (**self).csv(w)
+    }
+
+    fn json(&self, w: &mut dyn Write) -> Result<(), RenderError> {
+        (**self).json(w)
+    }
 }
 
 /// Render `report` in `format` to `w`.
-pub fn render(format: Format, report: &Report, w: &mut dyn Write) -> io::Result<()> {
+pub fn render(report: &dyn Report, format: Format, w: &mut dyn Write) -> Result<(), RenderError> {
     match format {
-        Format::Table => search::document::write(report, w),
-        Format::Csv => search::csv::write(report, w),
-        Format::Json => search::json::write(report, w),
+        Format::Table => report.table(w),
+        Format::Csv => report.csv(w),
+        Format::Json => report.json(w),
+        Format::Markdown => report.markdown(w),
     }
 }
 
-/// A relative error for people: `exact`, `+3.21 ppm` or `-0.0123%`.
-pub fn describe_error(e: &RelError) -> String {
-    if e.is_exact() {
-        return "exact".to_string();
-    }
-    let v = e.to_f64();
-    if v.abs() < 1e-3 {
-        format!("{:+.3} ppm", v * 1e6)
-    } else {
-        format!("{:+.4}%", v * 100.0)
-    }
-}
-
-/// A tolerance for people: `0 (exact)`, `±10 ppm`, `±0.5%`.
-pub fn describe_tolerance(t: f64) -> String {
-    if t == 0.0 {
-        "0 (exact only)".to_string()
-    } else if t < 1e-3 {
-        format!("±{} ppm", crate::model::pool::fmt_num(t * 1e6))
-    } else {
-        format!("±{}%", crate::model::pool::fmt_num(t * 100.0))
-    }
+/// Write one value as pretty-printed JSON and a newline: the JSON formats of every kind.
+pub fn write_json<T: serde::Serialize>(value: &T, w: &mut dyn Write) -> Result<(), RenderError> {
+    serde_json::to_writer_pretty(&mut *w, value).map_err(io::Error::from)?;
+    writeln!(w)?;
+    Ok(())
 }

@@ -1,28 +1,14 @@
-//! The table format for clock trains: a header saying what was asked in the clockmaker's terms,
-//! the trains in aligned columns, and a footer with the conventions. A sink: it computes
-//! nothing about gears.
-
-use std::io::{self, Write};
+//! Clock trains laid out for people: a header saying what was asked in the clockmaker's terms,
+//! the trains in columns, and a footer with the conventions. It computes nothing about gears.
 
 use crate::model::pool::fmt_num;
 use crate::model::train::Train;
-use crate::report::columns::columns;
-use crate::report::{describe_error, describe_tolerance, CONVENTION};
+use crate::report::words::{count_line, describe_error, describe_tolerance, CONVENTION};
+use crate::report::{Document, Table};
 use crate::trades::clock::astro::AstroPlan;
 use crate::trades::clock::beat::{BeatSource, STANDARD_GRAVITY};
 use crate::trades::clock::going::GoingPlan;
 use crate::trades::clock::motion::{stage_names, MotionPlan};
-
-/// `3 trains; all listed` / `120 trains; the best 10 listed`, with the interrupted mark.
-pub fn count_line(count: u64, listed: usize, complete: bool, what: &str, order: &str) -> String {
-    let status = if complete { "" } else { "INCOMPLETE (interrupted): at least " };
-    match count {
-        0 => format!("{status}No {what} meets every constraint."),
-        1 => format!("{status}1 {what}:"),
-        n if n == listed as u64 => format!("{status}{n} {what}s, all listed {order}:"),
-        n => format!("{status}{n} {what}s; the best {listed} listed {order}:"),
-    }
-}
 
 /// Arbor names of a going train of `stages` stages from the centre arbor: centre, third,
 /// fourth…, escape; `driving` replaces `centre` when the train starts from another arbor.
@@ -79,53 +65,53 @@ pub fn describe_rate(s_per_day: f64, exact: bool) -> String {
     }
 }
 
-fn footer(w: &mut dyn Write, extra: &[&str]) -> io::Result<()> {
-    writeln!(w)?;
+fn footer(d: &mut Document, extra: &[&str]) {
+    d.blank();
     for line in extra {
-        writeln!(w, "{line}")?;
+        d.note(*line);
     }
-    writeln!(w, "Ratios: {CONVENTION}.")
+    d.note(format!("Ratios: {CONVENTION}."));
 }
 
-/// Write a going-train search as a table.
-pub fn write_going(p: &GoingPlan, w: &mut dyn Write) -> io::Result<()> {
+/// A going-train search as a document.
+pub fn going(p: &GoingPlan) -> Document {
+    let mut d = Document::new();
     let s = &p.spec;
     let e = &s.escapement;
     let (ratio, exact) = s.needed_ratio();
-    writeln!(w, "Going train")?;
-    writeln!(w, "Beat: {}", describe_beat(p))?;
-    writeln!(
-        w,
+    d.title("Going train");
+    d.line(format!("Beat: {}", describe_beat(p)));
+    d.line(format!(
         "Escape wheel: {} teeth, {} beats per tooth → escape arbor {}",
         e.teeth,
         e.beats_per_tooth,
         speed(p.escape_turns_per_hour)
-    )?;
-    writeln!(
-        w,
+    ));
+    d.line(format!(
         "From the arbor turning {} to the escape arbor, wheels driving pinions: i = {} (a speed-up, i < 1)",
         speed(s.from_turns_per_hour.to_f64()),
         if exact {
             format!("{ratio} exactly")
         } else {
             format!("{:.9} (from the pendulum length)", ratio.to_f64())
-        },
-    )?;
-    writeln!(
-        w,
+        }
+    ));
+    d.line(format!(
         "Gears: {}; wheels {}, pinions {} leaves; stages {}; rate tolerance {} s/day",
         s.pool.describe(),
         s.wheels,
         s.pinions,
         s.stages,
         s.rate_tolerance_s_per_day
-    )?;
-    writeln!(w)?;
-    writeln!(
-        w,
-        "{}",
-        count_line(p.count, p.trains.len(), p.complete, "train", "by rate error, then stages, then teeth")
-    )?;
+    ));
+    d.blank();
+    d.line(count_line(
+        p.count,
+        p.trains.len(),
+        p.complete,
+        "train",
+        "by rate error, then stages, then teeth",
+    ));
     if !p.trains.is_empty() {
         let driving = if s.from_turns_per_hour == crate::numbers::rational::Ratio::integer(1) {
             "centre"
@@ -158,20 +144,22 @@ pub fn write_going(p: &GoingPlan, w: &mut dyn Write) -> io::Result<()> {
                 ]
             })
             .collect();
-        columns(
-            w,
-            &["#", "wheel → pinion", "ratio i", "rate", "arbors (turns per hour, time per turn)"],
-            &rows,
-            &[0],
-        )?;
+        d.table(
+            Table::new(
+                &["#", "wheel → pinion", "ratio i", "rate", "arbors (turns per hour, time per turn)"],
+                &[0],
+            )
+            .with_rows(rows),
+        );
     }
     footer(
-        w,
+        &mut d,
         &[
             "Each stage is a wheel driving a pinion; stages run from the driving arbor to the escape arbor.",
             "A beat is one swing (half a period); rate error > 0 means the clock gains.",
         ],
-    )
+    );
+    d
 }
 
 fn mesh_cells(t: &Train, hour_work: bool) -> Vec<String> {
@@ -195,21 +183,20 @@ fn mesh_cells(t: &Train, hour_work: bool) -> Vec<String> {
     vec![gears.join("; "), geometry.join("; ")]
 }
 
-/// Write a motion-work search as a table.
-pub fn write_motion(p: &MotionPlan, w: &mut dyn Write) -> io::Result<()> {
+/// A motion-work search as a document.
+pub fn motion(p: &MotionPlan) -> Document {
+    let mut d = Document::new();
     let s = &p.spec;
-    writeln!(w, "Motion work: {} input turns per hand turn (i = {})", s.ratio_text, s.ratio)?;
-    writeln!(
-        w,
+    d.title(format!("Motion work: {} input turns per hand turn (i = {})", s.ratio_text, s.ratio));
+    d.line(format!(
         "Gears: {}; pinions {} leaves, wheels {}; stages {}; tolerance {}",
         s.pool.describe(),
         s.pinions,
         s.wheels,
         s.stages,
         describe_tolerance(s.tolerance.to_f64())
-    )?;
-    writeln!(
-        w,
+    ));
+    d.line(format!(
         "{}; undercut pinions {}; least contact ratio {}",
         if s.coaxial {
             "Hand arbor coaxial with the input (reverted train: one centre distance)"
@@ -218,13 +205,9 @@ pub fn write_motion(p: &MotionPlan, w: &mut dyn Write) -> io::Result<()> {
         },
         if s.allow_undercut { "accepted" } else { "refused" },
         fmt_num(s.min_contact_ratio)
-    )?;
-    writeln!(w)?;
-    writeln!(
-        w,
-        "{}",
-        count_line(p.count, p.trains.len(), p.complete, "train", "by error, then stages, then teeth")
-    )?;
+    ));
+    d.blank();
+    d.line(count_line(p.count, p.trains.len(), p.complete, "train", "by error, then stages, then teeth"));
     if !p.trains.is_empty() {
         let rows: Vec<Vec<String>> = p
             .trains
@@ -238,26 +221,25 @@ pub fn write_motion(p: &MotionPlan, w: &mut dyn Write) -> io::Result<()> {
                 r
             })
             .collect();
-        columns(
-            w,
-            &[
-                "#",
-                "pinion → wheel",
-                "mesh (working centre distance, shifts, contact ratio)",
-                "ratio i",
-                "error",
-            ],
-            &rows,
-            &[0],
-        )?;
+        d.table(
+            Table::new(
+                &[
+                    "#",
+                    "pinion → wheel",
+                    "mesh (working centre distance, shifts, contact ratio)",
+                    "ratio i",
+                    "error",
+                ],
+                &[0],
+            )
+            .with_rows(rows),
+        );
     }
-    footer(
-        w,
-        &[
+    footer(&mut d, &[
             "Pinions drive wheels (a reduction). Meshes are worked out as involute gears, shifts x in modules;",
             "clock teeth are traditionally cycloidal, so take the geometry as a guide to the centre distances.",
-        ],
-    )
+        ]);
+    d
 }
 
 /// Days for people: `12.3 d (0.03 years)` or `never (exact)`.
@@ -280,29 +262,25 @@ pub fn describe_drift(d: f64) -> String {
     }
 }
 
-/// Write an astronomical-train search as a table.
-pub fn write_astro(p: &AstroPlan, w: &mut dyn Write) -> io::Result<()> {
+/// A astronomical-train search as a document.
+pub fn astro(p: &AstroPlan) -> Document {
+    let mut d = Document::new();
     let s = &p.spec;
     let r = s.ratio();
     let from = match s.from {
         crate::trades::clock::astro::InputArbor::Daily => "an arbor turning once a day",
         crate::trades::clock::astro::InputArbor::Hourly => "an arbor turning once an hour",
     };
-    writeln!(w, "Astronomical train: {} ({})", s.period.name, s.period.source)?;
-    writeln!(w, "From {from} to a dial turning once per period: i = {r} = {:.9}", r.to_f64())?;
-    writeln!(
-        w,
+    d.title(format!("Astronomical train: {} ({})", s.period.name, s.period.source));
+    d.line(format!("From {from} to a dial turning once per period: i = {r} = {:.9}", r.to_f64()));
+    d.line(format!(
         "Gears: {}; stages {}; tolerance {}",
         s.pool.describe(),
         s.stages,
         describe_tolerance(s.tolerance.to_f64())
-    )?;
-    writeln!(w)?;
-    writeln!(
-        w,
-        "{}",
-        count_line(p.count, p.trains.len(), p.complete, "train", "by error, then stages, then teeth")
-    )?;
+    ));
+    d.blank();
+    d.line(count_line(p.count, p.trains.len(), p.complete, "train", "by error, then stages, then teeth"));
     if !p.trains.is_empty() {
         let rows: Vec<Vec<String>> = p
             .trains
@@ -326,15 +304,16 @@ pub fn write_astro(p: &AstroPlan, w: &mut dyn Write) -> io::Result<()> {
                 ]
             })
             .collect();
-        columns(
-            w,
-            &["#", "driver → driven", "ratio i", "dial period", "error", "drift", "until 1 day out"],
-            &rows,
-            &[0],
-        )?;
+        d.table(
+            Table::new(
+                &["#", "driver → driven", "ratio i", "dial period", "error", "drift", "until 1 day out"],
+                &[0],
+            )
+            .with_rows(rows),
+        );
     }
-    writeln!(w)?;
-    writeln!(w, "Convergents of {r} (the best fractions with small parts):")?;
+    d.blank();
+    d.heading(format!("Convergents of {r} (the best fractions with small parts):"));
     let rows: Vec<Vec<String>> = p
         .convergents
         .iter()
@@ -349,6 +328,7 @@ pub fn write_astro(p: &AstroPlan, w: &mut dyn Write) -> io::Result<()> {
             ]
         })
         .collect();
-    columns(w, &["fraction", "drift", ""], &rows, &[])?;
-    footer(w, &["Drift > 0: the dial runs ahead. A year is 365.2425 days (mean Gregorian year)."])
+    d.table(Table::new(&["fraction", "drift", ""], &[]).with_rows(rows));
+    footer(&mut d, &["Drift > 0: the dial runs ahead. A year is 365.2425 days (mean Gregorian year)."]);
+    d
 }

@@ -15,7 +15,7 @@ use serde::Serialize;
 
 use super::document::arbor_names;
 use crate::report::search::json::TrainJson;
-use crate::report::CONVENTION;
+use crate::report::words::CONVENTION;
 use crate::trades::clock::astro::AstroPlan;
 use crate::trades::clock::going::GoingPlan;
 use crate::trades::clock::motion::{stage_names, MotionPlan};

@@ -1,6 +1,7 @@
-//! Renderers for the geometry of one pair (`gearsieve mesh`): an aligned table a designer reads
-//! before cutting, and a JSON document for scripts. Both take a finished [`MeshReport`] and a
-//! writer; neither works out any geometry (the only arithmetic is mm-to-inch for display).
+//! The geometry of one pair (`gearsieve mesh`) for people — what was asked, the two gears side
+//! by side, the pair, the verdict — and as a JSON document for scripts. Both read a finished
+//! [`MeshReport`]; neither works out any geometry (the only arithmetic is mm-to-inch for
+//! display).
 //!
 //! The JSON contract:
 //!
@@ -18,17 +19,14 @@
 //! An open end of `shift_sum_range` is written as `null`. Field names and meanings are stable;
 //! fields may be added.
 
-use std::io::{self, Write};
+use std::io::Write;
 
 use serde::Serialize;
 
+use super::words::MESH_CAUTION;
+use super::{write_json, Completion, Document, RenderError, Report, Table};
 use crate::geometry::{MeshDefect, MeshGeometry, MeshLimits, RackProfile, MM_PER_INCH};
 use crate::model::pool::fmt_num;
-
-/// The caution printed with every mesh report.
-pub const MESH_CAUTION: &str = "gearsieve sizes geometry only. A pair that carries power needs a \
-                                load-capacity rating (e.g. ISO 6336 or AGMA 2001) by a qualified \
-                                person.";
 
 /// How the pair was asked to be made and mounted, as given on the command line.
 #[derive(Debug, Clone, Copy, PartialEq, Serialize)]
@@ -80,6 +78,24 @@ pub struct MeshReport<'a> {
     pub defects: &'a [MeshDefect],
 }
 
+impl Report for MeshReport<'_> {
+    fn kind(&self) -> &'static str {
+        "a mesh check"
+    }
+
+    fn completion(&self) -> Completion {
+        Completion { complete: true, found: self.defects.is_empty() }
+    }
+
+    fn document(&self) -> Option<Document> {
+        Some(document(self))
+    }
+
+    fn json(&self, w: &mut dyn Write) -> Result<(), RenderError> {
+        json(self, w)
+    }
+}
+
 #[derive(Serialize)]
 struct Doc<'a> {
     inputs: &'a MeshInputs,
@@ -92,7 +108,7 @@ struct Doc<'a> {
 }
 
 /// Write `report` as one pretty-printed JSON document and a newline.
-pub fn write_json(report: &MeshReport, w: &mut dyn Write) -> io::Result<()> {
+pub fn json(report: &MeshReport, w: &mut dyn Write) -> Result<(), RenderError> {
     let doc = Doc {
         inputs: report.inputs,
         limits: report.limits,
@@ -102,40 +118,37 @@ pub fn write_json(report: &MeshReport, w: &mut dyn Write) -> io::Result<()> {
         defects: report.defects.iter().map(ToString::to_string).collect(),
         caution: MESH_CAUTION,
     };
-    serde_json::to_writer_pretty(&mut *w, &doc).map_err(io::Error::other)?;
-    writeln!(w)
+    write_json(&doc, w)
 }
 
-/// Width of the label column of the table.
-const LABEL: usize = 28;
-/// Width of the unit column.
-const UNIT: usize = 8;
-/// Width of each value column.
-const VALUE: usize = 12;
+/// Text widths of the label, unit and value columns.
+const WIDTHS: [usize; 4] = [28, 8, 12, 12];
 
-/// Writes aligned rows; `inch` adds an inch row under every length row.
-struct Rows<'w> {
-    w: &'w mut dyn Write,
+/// Rows of the gear and pair tables; `inch` adds an inch row under every length row.
+struct Rows {
+    rows: Vec<Vec<String>>,
     inch: bool,
 }
 
-impl Rows<'_> {
-    fn row(&mut self, label: &str, unit: &str, values: &[String]) -> io::Result<()> {
-        write!(self.w, "{label:<LABEL$}{unit:<UNIT$}")?;
-        for v in values {
-            write!(self.w, "{v:>VALUE$}")?;
-        }
-        writeln!(self.w)
+impl Rows {
+    fn row(&mut self, label: &str, unit: &str, values: &[String]) {
+        let mut r = vec![label.to_string(), unit.to_string()];
+        r.extend(values.iter().cloned());
+        self.rows.push(r);
     }
 
     /// A length in mm (3 decimals), and in inches (4 decimals) for inch gearing.
-    fn lengths(&mut self, label: &str, mm: &[f64]) -> io::Result<()> {
-        self.row(label, "mm", &fixed(mm, 3))?;
+    fn lengths(&mut self, label: &str, mm: &[f64]) {
+        self.row(label, "mm", &fixed(mm, 3));
         if self.inch {
             let inches: Vec<f64> = mm.iter().map(|v| v / MM_PER_INCH).collect();
-            self.row("", "in", &fixed(&inches, 4))?;
+            self.row("", "in", &fixed(&inches, 4));
         }
-        Ok(())
+    }
+
+    /// The rows as a table under `head`, laid out in fixed columns in text.
+    fn table(self, head: &[&str]) -> Table {
+        Table::new(head, &[2, 3]).spaced(0, 0).min_widths(&WIDTHS).with_rows(self.rows)
     }
 }
 
@@ -159,42 +172,41 @@ fn yes_no(flags: [bool; 2]) -> Vec<String> {
 
 /// Write `report` as a table for people: what was asked, the two gears side by side, the pair,
 /// the verdict and the caution.
-pub fn write_table(report: &MeshReport, w: &mut dyn Write) -> io::Result<()> {
+pub fn document(report: &MeshReport) -> Document {
+    let mut d = Document::new();
     let i = report.inputs;
     let g = report.geometry;
     let l = report.limits;
-    writeln!(w, "External spur mesh: a {}-tooth driver and a {}-tooth driven gear", g.teeth[0], g.teeth[1])?;
+    d.title(format!(
+        "External spur mesh: a {}-tooth driver and a {}-tooth driven gear",
+        g.teeth[0], g.teeth[1]
+    ));
     match i.diametral_pitch {
-        Some(p) => writeln!(
-            w,
+        Some(p) => d.line(format!(
             "Diametral pitch {} (module {} mm), pressure angle {}°",
             fmt_num(p),
             fmt_num(i.module_mm),
             fmt_num(i.pressure_angle_deg)
-        )?,
-        None => writeln!(
-            w,
+        )),
+        None => d.line(format!(
             "Module {} mm, pressure angle {}°",
             fmt_num(i.module_mm),
             fmt_num(i.pressure_angle_deg)
-        )?,
+        )),
     }
-    writeln!(
-        w,
+    d.line(format!(
         "Basic rack, in modules: addendum {}, dedendum {}, root radius {}",
         fmt_num(i.rack.addendum),
         fmt_num(i.rack.dedendum),
         fmt_num(i.rack.root_radius)
-    )?;
+    ));
     match i.mounting {
-        MountingInput::Shifted { shift } => writeln!(
-            w,
+        MountingInput::Shifted { shift } => d.line(format!(
             "Cut with profile shifts {} and {}, mounted tight",
             fmt_num(shift[0]),
             fmt_num(shift[1])
-        )?,
-        MountingInput::AtCentreDistance { centre_distance_mm, shift_sum_range } => writeln!(
-            w,
+        )),
+        MountingInput::AtCentreDistance { centre_distance_mm, shift_sum_range } => d.line(format!(
             "Cut by profile shift to mesh tight at {} mm{}, shift sum allowed {}",
             fmt_num(centre_distance_mm),
             if i.diametral_pitch.is_some() {
@@ -203,54 +215,56 @@ pub fn write_table(report: &MeshReport, w: &mut dyn Write) -> io::Result<()> {
                 String::new()
             },
             describe_range(shift_sum_range)
-        )?,
+        )),
     }
-    writeln!(
-        w,
+    d.line(format!(
         "Limits: contact ratio at least {}, tip at least {} modules thick, undercut {}",
         fmt_num(l.min_contact_ratio),
         fmt_num(l.min_tip_thickness_modules),
         if l.allow_undercut { "allowed" } else { "not allowed" }
-    )?;
-    writeln!(w)?;
+    ));
+    d.blank();
 
-    let mut rows = Rows { w, inch: i.diametral_pitch.is_some() };
-    rows.row("Gear", "", &["driver".to_string(), "driven".to_string()])?;
-    rows.row("teeth", "", &g.teeth.map(|z| z.to_string()))?;
-    rows.row("profile shift x", "modules", &fixed(&g.shift, 4))?;
-    rows.lengths("pitch diameter", &g.pitch_diameter_mm)?;
-    rows.lengths("working pitch diameter", &g.working_pitch_diameter_mm)?;
-    rows.lengths("base diameter", &g.base_diameter_mm)?;
-    rows.lengths("tip diameter", &g.tip_diameter_mm)?;
-    rows.lengths("root diameter", &g.root_diameter_mm)?;
-    rows.lengths("tip thickness", &g.tip_thickness_mm)?;
-    rows.row("", "modules", &fixed(&g.tip_thickness_modules, 4))?;
-    rows.row("x_min (undercut limit)", "modules", &fixed(&g.min_shift, 4))?;
-    rows.row("undercut", "", &yes_no(g.undercut))?;
-    rows.row("tips dig into mate's flank", "", &yes_no(g.tip_interference))?;
-    rows.lengths("clearance under its tip", &g.bottom_clearance_mm)?;
-    writeln!(rows.w)?;
+    let inch = i.diametral_pitch.is_some();
+    let mut rows = Rows { rows: Vec::new(), inch };
+    rows.row("teeth", "", &g.teeth.map(|z| z.to_string()));
+    rows.row("profile shift x", "modules", &fixed(&g.shift, 4));
+    rows.lengths("pitch diameter", &g.pitch_diameter_mm);
+    rows.lengths("working pitch diameter", &g.working_pitch_diameter_mm);
+    rows.lengths("base diameter", &g.base_diameter_mm);
+    rows.lengths("tip diameter", &g.tip_diameter_mm);
+    rows.lengths("root diameter", &g.root_diameter_mm);
+    rows.lengths("tip thickness", &g.tip_thickness_mm);
+    rows.row("", "modules", &fixed(&g.tip_thickness_modules, 4));
+    rows.row("x_min (undercut limit)", "modules", &fixed(&g.min_shift, 4));
+    rows.row("undercut", "", &yes_no(g.undercut));
+    rows.row("tips dig into mate's flank", "", &yes_no(g.tip_interference));
+    rows.lengths("clearance under its tip", &g.bottom_clearance_mm);
+    d.table(rows.table(&["Gear", "", "driver", "driven"]));
+    d.blank();
 
-    writeln!(rows.w, "Pair")?;
-    rows.lengths("standard centre distance", &[g.standard_centre_distance_mm])?;
-    rows.lengths("working centre distance", &[g.centre_distance_mm])?;
-    rows.row("working pressure angle", "deg", &fixed(&[g.working_pressure_angle_deg], 4))?;
-    rows.row("profile shift sum", "modules", &fixed(&[g.shift_sum()], 4))?;
-    rows.row("tip shortening", "modules", &fixed(&[g.tip_shortening], 4))?;
-    rows.lengths("backlash (nominal)", &[g.backlash_mm])?;
-    rows.row("transverse contact ratio", "", &fixed(&[g.contact_ratio], 4))?;
-    let w = rows.w;
-    writeln!(w)?;
+    d.heading("Pair");
+    let mut rows = Rows { rows: Vec::new(), inch };
+    rows.lengths("standard centre distance", &[g.standard_centre_distance_mm]);
+    rows.lengths("working centre distance", &[g.centre_distance_mm]);
+    rows.row("working pressure angle", "deg", &fixed(&[g.working_pressure_angle_deg], 4));
+    rows.row("profile shift sum", "modules", &fixed(&[g.shift_sum()], 4));
+    rows.row("tip shortening", "modules", &fixed(&[g.tip_shortening], 4));
+    rows.lengths("backlash (nominal)", &[g.backlash_mm]);
+    rows.row("transverse contact ratio", "", &fixed(&[g.contact_ratio], 4));
+    d.table(rows.table(&["quantity", "unit", "value"]).headless_in_text());
+    d.blank();
 
     if report.defects.is_empty() {
-        writeln!(w, "Verdict: runs")?;
+        d.heading("Verdict: runs");
     } else {
-        writeln!(w, "Verdict: does not run")?;
-        for d in report.defects {
-            writeln!(w, "  - {d}")?;
+        d.heading("Verdict: does not run");
+        for defect in report.defects {
+            d.item(1, true, defect.to_string());
         }
     }
-    writeln!(w, "{MESH_CAUTION}")
+    d.note(MESH_CAUTION);
+    d
 }
 
 /// `-1 to 2`, with open ends in words.

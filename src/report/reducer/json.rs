@@ -15,9 +15,10 @@ use std::io::{self, Write};
 use serde::Serialize;
 
 use crate::report::search::json::TrainJson;
-use crate::report::CONVENTION;
+use crate::report::words::CONVENTION;
+use crate::report::words::REDUCER_CAUTION;
 use crate::trades::reducer::hunting::{is_hunting, non_hunting, spread};
-use crate::trades::reducer::{centre_distance_sum_mm, largest_tip_mm, Hunting, ReducerPlan, CAUTION};
+use crate::trades::reducer::{centre_distance_sum_mm, largest_tip_mm, Hunting, ReducerPlan};
 
 #[derive(Serialize)]
 struct ReducerTrainJson {
@@ -69,7 +70,7 @@ pub fn write(p: &ReducerPlan, w: &mut dyn Write) -> io::Result<()> {
         count: p.count,
         complete: p.complete,
         convention: CONVENTION,
-        caution: CAUTION,
+        caution: REDUCER_CAUTION,
         trains: p
             .trains
             .iter()

@@ -6,9 +6,9 @@
 
 use std::io::{self, Write};
 
+use super::SearchReport;
 use crate::model::problem::Problem;
 use crate::model::train::Train;
-use crate::report::Report;
 
 const PLAIN: &[&str] = &["driver", "driven", "module", "centre_distance"];
 const GEOMETRY: &[&str] = &[
@@ -82,7 +82,7 @@ pub fn row(problem: &Problem, rank: u64, t: &Train) -> Vec<String> {
 }
 
 /// Write the report as CSV.
-pub fn write(report: &Report, w: &mut dyn Write) -> io::Result<()> {
+pub fn write(report: &SearchReport, w: &mut dyn Write) -> io::Result<()> {
     let mut out = ::csv::Writer::from_writer(w);
     out.write_record(header(report.problem))?;
     for (i, t) in report.outcome.trains.iter().enumerate() {

@@ -1,35 +1,35 @@
-//! The table format: a short header saying what was searched, the count, the best trains in
-//! aligned columns, and the convention and caution as a footer.
+//! A search laid out for people: a short header saying what was searched, the count, the best
+//! trains in columns, the mesh geometry and the reasons for leaving pairings out when asked,
+//! and the convention and caution as a footer.
 
-use std::io::{self, Write};
-
+use super::SearchReport;
 use crate::model::pool::fmt_num;
 use crate::model::train::Train;
-use crate::report::columns::columns;
-use crate::report::{describe_error, describe_tolerance, Report, CAUTION, CONVENTION};
+use crate::report::words::{describe_error, describe_tolerance, group_thousands, CAUTION, CONVENTION};
+use crate::report::{Document, Table};
 
-/// Write the report as a table for people.
-pub fn write(report: &Report, w: &mut dyn Write) -> io::Result<()> {
+/// The search as a document.
+pub fn document(report: &SearchReport) -> Document {
+    let mut d = Document::new();
     let p = report.problem;
     let o = report.outcome;
     let t = &p.target;
     let exact = t.ratio.to_string();
     if exact == t.text {
-        writeln!(w, "Target ratio {}, tolerance {}", t.text, describe_tolerance(t.tolerance.to_f64()))?;
+        d.title(format!("Target ratio {}, tolerance {}", t.text, describe_tolerance(t.tolerance.to_f64())));
     } else {
-        writeln!(
-            w,
+        d.title(format!(
             "Target ratio {} (= {} ≈ {}), tolerance {}",
             t.text,
             exact,
             fmt_value(t.ratio.to_f64()),
             describe_tolerance(t.tolerance.to_f64())
-        )?;
+        ));
     }
-    writeln!(w, "Gears: {}", p.pool.describe())?;
+    d.line(format!("Gears: {}", p.pool.describe()));
     let counts: Vec<String> = p.stage_counts().iter().map(|n| n.to_string()).collect();
-    writeln!(w, "Stages: {} ({} allowed stage pairings)", counts.join(", "), o.stage_options)?;
-    writeln!(w)?;
+    d.line(format!("Stages: {} ({} allowed stage pairings)", counts.join(", "), o.stage_options));
+    d.blank();
     let keys: Vec<&str> = p
         .rank
         .iter()
@@ -40,8 +40,7 @@ pub fn write(report: &Report, w: &mut dyn Write) -> io::Result<()> {
         .collect();
     let status = if o.complete { "" } else { "INCOMPLETE (interrupted): at least " };
     if let Some(front) = o.pareto_size.filter(|_| o.count > 0) {
-        writeln!(
-            w,
+        d.line(format!(
             "{status}{} trains meet every constraint; {} of them form the Pareto front on error, meshes \
              and size (none beats them on all three){}:",
             group_thousands(o.count),
@@ -51,13 +50,12 @@ pub fn write(report: &Report, w: &mut dyn Write) -> io::Result<()> {
             } else {
                 format!("; the first {} by {}", o.trains.len(), keys.join(", then "))
             }
-        )?;
+        ));
     } else {
         match o.count {
-            0 => writeln!(w, "{status}No train meets every constraint.")?,
-            1 => writeln!(w, "{status}1 train meets every constraint.")?,
-            n => writeln!(
-                w,
+            0 => d.line(format!("{status}No train meets every constraint.")),
+            1 => d.line(format!("{status}1 train meets every constraint.")),
+            n => d.line(format!(
                 "{status}{} trains meet every constraint; {} by {}:",
                 group_thousands(n),
                 if o.trains.len() as u64 == n {
@@ -66,14 +64,14 @@ pub fn write(report: &Report, w: &mut dyn Write) -> io::Result<()> {
                     format!("the best {} listed", o.trains.len())
                 },
                 keys.join(", then ")
-            )?,
+            )),
         }
     }
     if let Some(s) = report.shard {
-        writeln!(w, "(part {s} of a split search: combine the parts' JSON with gearsieve merge)")?;
+        d.line(format!("(part {s} of a split search: combine the parts' JSON with gearsieve merge)"));
     }
     if !o.trains.is_empty() {
-        writeln!(w)?;
+        d.blank();
         let rows: Vec<[String; 6]> = o
             .trains
             .iter()
@@ -91,16 +89,16 @@ pub fn write(report: &Report, w: &mut dyn Write) -> io::Result<()> {
             .collect();
         let head = ["#", "ratio", "error", "output", "teeth", "stages: driver→driven (centre distance mm)"];
         let rows: Vec<Vec<String>> = rows.into_iter().map(Vec::from).collect();
-        columns(w, &head, &rows, &[0, 2, 4])?;
+        d.table(Table::new(&head, &[0, 2, 4]).with_rows(rows));
     }
-    write_meshes(report, w)?;
+    meshes(report, &mut d);
     if report.explain {
-        write_explain(report, w)?;
+        explain(report, &mut d);
     }
-    writeln!(w)?;
-    writeln!(w, "{CONVENTION}.")?;
-    writeln!(w, "{CAUTION}")?;
-    Ok(())
+    d.blank();
+    d.note(format!("{CONVENTION}."));
+    d.note(CAUTION);
+    d
 }
 
 /// `20→75 (47.5)  12→120 (66)`: the centre distance is the working one when the mesh was worked
@@ -136,79 +134,60 @@ fn stages_text(t: &Train) -> String {
 }
 
 /// Per-stage mesh geometry of the listed trains, when the search worked it out.
-fn write_meshes(report: &Report, w: &mut dyn Write) -> io::Result<()> {
+fn meshes(report: &SearchReport, d: &mut Document) {
     let trains = &report.outcome.trains;
     if !trains.iter().any(|t| t.stages.iter().any(|s| s.mesh.is_some())) {
-        return Ok(());
+        return;
     }
-    writeln!(w)?;
-    writeln!(
-        w,
+    d.blank();
+    d.heading(
         "Meshes (x = profile shift in modules, driver/driven; aw = working centre distance mm; \
-         αw = working pressure angle; εα = contact ratio; da = tip diameters mm):"
-    )?;
+         αw = working pressure angle; εα = contact ratio; da = tip diameters mm):",
+    );
+    let mut rows = Vec::new();
     for (i, t) in trains.iter().enumerate() {
         for (n, s) in t.stages.iter().enumerate() {
             let Some(m) = &s.mesh else { continue };
             let rank = if n == 0 { (i + 1).to_string() } else { String::new() };
-            writeln!(
-                w,
-                "{rank:>4}  {:>9}  aw {:>8.3}  x {:+.3}/{:+.3}  αw {:>6.2}°  εα {:.2}  da {:.2}/{:.2}",
+            rows.push(vec![
+                rank,
                 format!("{}→{}", s.driver.teeth, s.driven.teeth),
-                m.centre_distance_mm,
-                m.shift[0],
-                m.shift[1],
-                m.working_pressure_angle_deg,
-                m.contact_ratio,
-                m.tip_diameter_mm[0],
-                m.tip_diameter_mm[1],
-            )?;
+                format!("{:.3}", m.centre_distance_mm),
+                format!("{:+.3}/{:+.3}", m.shift[0], m.shift[1]),
+                format!("{:.2}°", m.working_pressure_angle_deg),
+                format!("{:.2}", m.contact_ratio),
+                format!("{:.2}/{:.2}", m.tip_diameter_mm[0], m.tip_diameter_mm[1]),
+            ]);
         }
     }
-    Ok(())
+    let head = ["#", "stage", "aw mm", "x driver/driven", "αw", "εα", "da mm driver/driven"];
+    let table = Table::new(&head, &[0, 1, 2, 4])
+        .headless_in_text()
+        .min_widths(&[4, 9, 8, 0, 7])
+        .prefix(2, "aw ")
+        .prefix(3, "x ")
+        .prefix(4, "αw ")
+        .prefix(5, "εα ")
+        .prefix(6, "da ");
+    d.table(table.with_rows(rows));
 }
 
 /// Why stage pairings were left out by the mesh checks.
-fn write_explain(report: &Report, w: &mut dyn Write) -> io::Result<()> {
-    writeln!(w)?;
+fn explain(report: &SearchReport, d: &mut Document) {
+    d.blank();
     let r = &report.outcome.rejected;
     if r.is_empty() {
-        return writeln!(w, "The mesh checks left nothing out.");
+        d.line("The mesh checks left nothing out.");
+        return;
     }
-    writeln!(w, "Left out by the mesh checks (count, reason, first example):")?;
-    for x in r {
-        writeln!(w, "  {:>9}  {}: {}", group_thousands(x.count), x.kind, x.example)?;
-    }
-    Ok(())
+    d.heading("Left out by the mesh checks (count, reason, first example):");
+    let rows =
+        r.iter().map(|x| vec![group_thousands(x.count), format!("{}: {}", x.kind, x.example)]).collect();
+    let table = Table::new(&["count", "reason: first example"], &[0]).headless_in_text().spaced(2, 2);
+    d.table(table.min_widths(&[9]).with_rows(rows));
 }
 
 fn fmt_value(v: f64) -> String {
     let s = format!("{v:.10}");
     s.trim_end_matches('0').trim_end_matches('.').to_string()
-}
-
-/// `1234567` → `1,234,567`.
-pub fn group_thousands(n: u64) -> String {
-    let s = n.to_string();
-    let mut out = String::new();
-    for (i, c) in s.chars().enumerate() {
-        if i > 0 && (s.len() - i) % 3 == 0 {
-            out.push(',');
-        }
-        out.push(c);
-    }
-    out
-}
-
-#[cfg(test)]
-mod tests {
-    use super::*;
-
-    #[test]
-    fn thousands() {
-        assert_eq!(group_thousands(0), "0");
-        assert_eq!(group_thousands(999), "999");
-        assert_eq!(group_thousands(1000), "1,000");
-        assert_eq!(group_thousands(1234567), "1,234,567");
-    }
 }

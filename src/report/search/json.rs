@@ -17,8 +17,9 @@ use std::io::{self, Write};
 
 use serde::{Deserialize, Serialize};
 
+use super::SearchReport;
 use crate::model::train::{Direction, Train};
-use crate::report::{Report, CONVENTION};
+use crate::report::words::CONVENTION;
 
 /// The whole JSON document of a search.
 #[derive(Serialize, Deserialize, Debug, Clone, PartialEq)]
@@ -189,7 +190,7 @@ pub fn target_json(problem: &crate::model::problem::Problem) -> TargetJson {
 }
 
 /// The document for a report.
-pub fn doc(report: &Report) -> Doc {
+pub fn doc(report: &SearchReport) -> Doc {
     Doc {
         target: target_json(report.problem),
         count: report.outcome.count,
@@ -216,7 +217,7 @@ pub fn write_doc(doc: &Doc, w: &mut dyn Write) -> io::Result<()> {
 }
 
 /// Write the report as one JSON document and a newline.
-pub fn write(report: &Report, w: &mut dyn Write) -> io::Result<()> {
+pub fn write(report: &SearchReport, w: &mut dyn Write) -> io::Result<()> {
     write_doc(&doc(report), w)
 }
 

@@ -1,6 +1,67 @@
-//! Search results in every format, and the merge of a split search's parts.
+//! Search results (`gearsieve search`, and `gearsieve merge` of a split search) in every
+//! format: the document people read, CSV rows, and the JSON contract that reads back for a
+//! merge.
 
 pub mod csv;
 pub mod document;
 pub mod json;
 pub mod merge;
+
+use std::io::Write;
+
+use super::{Completion, Document, RenderError, Report};
+use crate::engine::{Outcome, Shard};
+use crate::model::problem::Problem;
+
+/// A finished search, ready to print.
+pub struct SearchReport<'a> {
+    /// What was asked.
+    pub problem: &'a Problem,
+    /// What was found.
+    pub outcome: &'a Outcome,
+    /// Say why stage pairings were left out by the mesh checks.
+    pub explain: bool,
+    /// The part of the search this report covers, when split with `--shard`.
+    pub shard: Option<Shard>,
+}
+
+impl Report for SearchReport<'_> {
+    fn kind(&self) -> &'static str {
+        "a search"
+    }
+
+    fn completion(&self) -> Completion {
+        Completion { complete: self.outcome.complete, found: self.outcome.count > 0 }
+    }
+
+    fn document(&self) -> Option<Document> {
+        Some(document::document(self))
+    }
+
+    fn csv(&self, w: &mut dyn Write) -> Result<(), RenderError> {
+        Ok(csv::write(self, w)?)
+    }
+
+    fn json(&self, w: &mut dyn Write) -> Result<(), RenderError> {
+        Ok(json::write(self, w)?)
+    }
+}
+
+/// The merged JSON of a split search: the same document one unsplit run prints.
+impl Report for json::Doc {
+    fn kind(&self) -> &'static str {
+        "a merged search"
+    }
+
+    fn completion(&self) -> Completion {
+        Completion { complete: self.complete, found: self.count > 0 }
+    }
+
+    fn document(&self) -> Option<Document> {
+        None
+    }
+
+    fn json(&self, w: &mut dyn Write) -> Result<(), RenderError> {
+        Ok(json::write_doc(self, w)?)
+    }
+}

@@ -4,7 +4,7 @@
 
 use std::io::{self, Write};
 
-use super::document::{ChartReport, ThreadReport};
+use super::{ChartReport, ThreadReport};
 use crate::trades::thread::pitch::Pitch;
 use crate::trades::thread::Setup;
 

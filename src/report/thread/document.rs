@@ -1,34 +1,13 @@
-//! The table format for setups and charts: a short header saying which lathe and gears, the
-//! setups in aligned columns a machinist can print and keep by the machine, and a footer with the
-//! conventions and the caution. A sink: it computes nothing about gears.
+//! Setups and charts laid out for people: a short header saying which lathe and gears, the
+//! setups in columns a machinist can print and keep by the machine, and a footer with the
+//! conventions and the caution. It computes nothing about gears.
 
-use std::io::{self, Write};
-
+use super::{ChartReport, ThreadReport};
 use crate::model::pool::fmt_num;
-use crate::report::columns::columns;
-use crate::report::describe_tolerance;
-use crate::trades::thread::chart::Chart;
-use crate::trades::thread::{Lathe, Rejected, Setup, ThreadPlan, CAUTION};
-
-/// A thread search, ready to print.
-pub struct ThreadReport<'a> {
-    /// The lathe and how it was searched.
-    pub lathe: &'a Lathe,
-    /// What was found.
-    pub plan: &'a ThreadPlan,
-    /// With `--explain`: trains the banjo refused.
-    pub rejected: Option<&'a [Rejected]>,
-}
-
-/// A chart, ready to print.
-pub struct ChartReport<'a> {
-    /// The lathe and how it was searched.
-    pub lathe: &'a Lathe,
-    /// The series' name or file.
-    pub series: &'a str,
-    /// The rows.
-    pub chart: &'a Chart,
-}
+use crate::report::words::{describe_error, describe_tolerance, THREAD_CAUTION};
+use crate::report::{Document, Table};
+use crate::trades::thread::pitch::Pitch;
+use crate::trades::thread::{Lathe, Setup};
 
 /// `6tpi leadscrew, stud ratio 1, gearbox A=2 B=1`.
 pub fn describe_machine(lathe: &Lathe) -> String {
@@ -42,37 +21,39 @@ pub fn describe_machine(lathe: &Lathe) -> String {
     format!("{} leadscrew, spindle-to-stud ratio {}, {gearbox}", m.leadscrew, m.stud_ratio)
 }
 
-fn header(w: &mut dyn Write, lathe: &Lathe) -> io::Result<()> {
-    writeln!(w, "Lathe: {}", describe_machine(lathe))?;
-    writeln!(w, "Gears: {}", lathe.pool.describe())?;
+fn header(d: &mut Document, lathe: &Lathe) {
+    d.line(format!("Lathe: {}", describe_machine(lathe)));
+    d.line(format!("Gears: {}", lathe.pool.describe()));
     match &lathe.banjo {
-        Some(b) => writeln!(w, "Banjo: {}", b.describe())?,
-        None => writeln!(
-            w,
+        Some(b) => d.line(format!("Banjo: {}", b.describe())),
+        None => d.line(
             "Banjo: not checked (give --banjo FILE, or --stud-to-leadscrew, --intermediate-range \
-             and --shaft-diameter)"
-        )?,
+             and --shaft-diameter)",
+        ),
     }
-    writeln!(w, "Pitch tolerance {}; stages {}", describe_tolerance(lathe.tolerance.to_f64()), lathe.stages)
+    d.line(format!(
+        "Pitch tolerance {}; stages {}",
+        describe_tolerance(lathe.tolerance.to_f64()),
+        lathe.stages
+    ));
 }
 
-fn footer(w: &mut dyn Write, lead_basis: &str) -> io::Result<()> {
-    writeln!(w)?;
-    writeln!(w, "Pitch error = pitch cut / pitch wanted − 1; lead error is that over {lead_basis}.")?;
-    writeln!(w, "Intermediate gears: driven, driver (the pair keyed together on one stud); int. stud and")?;
-    writeln!(w, "idler stud distances are mm from the leadscrew axis. Ratios follow ISO 1122-1 (input")?;
-    writeln!(w, "turns per output turn); gearbox ratios are input turns per leadscrew turn. Set the hand")?;
-    writeln!(w, "of the thread with the tumbler reverse.")?;
-    for (i, sentence) in CAUTION.split_inclusive(". ").enumerate() {
+fn footer(d: &mut Document, lead_basis: &str) {
+    d.blank();
+    d.line(format!("Pitch error = pitch cut / pitch wanted − 1; lead error is that over {lead_basis}."));
+    d.line("Intermediate gears: driven, driver (the pair keyed together on one stud); int. stud and");
+    d.line("idler stud distances are mm from the leadscrew axis. Ratios follow ISO 1122-1 (input");
+    d.line("turns per output turn); gearbox ratios are input turns per leadscrew turn. Set the hand");
+    d.line("of the thread with the tumbler reverse.");
+    for (i, sentence) in THREAD_CAUTION.split_inclusive(". ").enumerate() {
         let lead = if i == 0 { "CAUTION:" } else { "        " };
-        writeln!(w, "{lead} {}", sentence.trim_end())?;
+        d.note(format!("{lead} {}", sentence.trim_end()));
     }
-    Ok(())
 }
 
 /// Cells shared by thread and chart rows: box, stud, idler, intermediates, leadscrew, pitch cut,
 /// pitch error, lead error, banjo.
-fn setup_cells(s: &Setup, lathe: &Lathe, pitch: &crate::trades::thread::pitch::Pitch) -> Vec<String> {
+fn setup_cells(s: &Setup, lathe: &Lathe, pitch: &Pitch) -> Vec<String> {
     let idler = match (s.fit.idler, s.train.stages.len(), &lathe.banjo) {
         (Some(z), _, _) => z.to_string(),
         (None, 1, None) => "any".to_string(),
@@ -87,8 +68,7 @@ fn setup_cells(s: &Setup, lathe: &Lathe, pitch: &crate::trades::thread::pitch::P
     } else {
         format!("{:+.4} {unit}", s.lead_error(pitch))
     };
-    let error =
-        if s.is_exact() { "exact".to_string() } else { crate::report::describe_error(&s.pitch_error) };
+    let error = if s.is_exact() { "exact".to_string() } else { describe_error(&s.pitch_error) };
     let banjo = match (s.fit.stud_mesh_inner, s.fit.intermediate_from_leadscrew_mm) {
         (Some(true), Some(r)) => format!("stud mesh inner; int. stud {} mm", fmt_num(r)),
         (Some(false), Some(r)) => format!("leadscrew mesh inner; int. stud {} mm", fmt_num(r)),
@@ -121,38 +101,37 @@ const SETUP_HEAD: [&str; 9] = [
     "on the banjo",
 ];
 
-/// Write a thread search as a table.
-pub fn write_thread(r: &ThreadReport, w: &mut dyn Write) -> io::Result<()> {
+/// A thread search as a document.
+pub fn thread(r: &ThreadReport) -> Document {
+    let mut d = Document::new();
     let t = &r.plan.thread;
     let lead = t.lead_mm();
     let exact = if lead.exact { format!(" = {} mm exactly", lead.value) } else { String::new() };
-    writeln!(
-        w,
+    d.title(format!(
         "Thread {}, {} start{} (lead {} mm{exact})",
         t.pitch,
         t.starts,
         if t.starts == 1 { "" } else { "s" },
-        fmt_num(lead.value.to_f64()),
-    )?;
-    header(w, r.lathe)?;
-    writeln!(w)?;
+        fmt_num(lead.value.to_f64())
+    ));
+    header(&mut d, r.lathe);
+    d.blank();
     let p = r.plan;
     let status = if p.complete { "" } else { "INCOMPLETE (interrupted): at least " };
     match p.count {
-        0 => writeln!(w, "{status}No setup cuts {} within the tolerance from these gears.", t.pitch)?,
-        1 => writeln!(w, "{status}1 setup cuts it:")?,
-        n => writeln!(
-            w,
+        0 => d.line(format!("{status}No setup cuts {} within the tolerance from these gears.", t.pitch)),
+        1 => d.line(format!("{status}1 setup cuts it:")),
+        n => d.line(format!(
             "{status}{n} setups cut it; {} by pitch error, then meshes, then teeth:",
             if p.setups.len() as u64 == n {
                 "all listed".to_string()
             } else {
                 format!("the best {} listed", p.setups.len())
             }
-        )?,
+        )),
     }
     if !p.setups.is_empty() {
-        writeln!(w)?;
+        d.blank();
         let mut head = vec!["#".to_string()];
         head.extend(SETUP_HEAD.iter().map(|s| s.to_string()));
         let rows: Vec<Vec<String>> = p
@@ -165,49 +144,49 @@ pub fn write_thread(r: &ThreadReport, w: &mut dyn Write) -> io::Result<()> {
                 row
             })
             .collect();
-        columns(w, &head, &rows, &[0, 2, 3, 5])?;
+        d.table(Table::new(&head, &[0, 2, 3, 5]).with_rows(rows));
     }
     if let Some(rej) = r.rejected {
-        writeln!(w)?;
+        d.blank();
         if r.lathe.banjo.is_none() {
-            writeln!(w, "Explain: no banjo given, so no setup was refused for its geometry.")?;
+            d.line("Explain: no banjo given, so no setup was refused for its geometry.");
         } else if rej.is_empty() {
-            writeln!(w, "Explain: the banjo refused no train within the tolerance.")?;
+            d.line("Explain: the banjo refused no train within the tolerance.");
         } else {
-            writeln!(w, "Trains within the tolerance that the banjo refuses:")?;
+            d.heading("Trains within the tolerance that the banjo refuses:");
             for x in rej {
                 let stages: Vec<String> =
                     x.train.stages.iter().map(|s| format!("{}→{}", s.driver.teeth, s.driven.teeth)).collect();
                 let pos = x.position.as_ref().map_or(String::new(), |p| format!(" (gearbox {})", p.name));
-                writeln!(
-                    w,
-                    "  {}{pos}, pitch error {}:",
-                    stages.join(" "),
-                    crate::report::describe_error(&x.pitch_error)
-                )?;
+                d.item(
+                    1,
+                    false,
+                    format!("{}{pos}, pitch error {}:", stages.join(" "), describe_error(&x.pitch_error)),
+                );
                 for why in &x.reasons {
-                    writeln!(w, "    - {why}")?;
+                    d.item(2, true, why.clone());
                 }
             }
         }
     }
-    footer(w, if t.pitch.kind.is_inch() { "1 inch" } else { "100 mm" })
+    footer(&mut d, if t.pitch.kind.is_inch() { "1 inch" } else { "100 mm" });
+    d
 }
 
-/// Write a chart as a table.
-pub fn write_chart(r: &ChartReport, w: &mut dyn Write) -> io::Result<()> {
+/// A chart as a document.
+pub fn chart(r: &ChartReport) -> Document {
+    let mut d = Document::new();
     let c = r.chart;
-    writeln!(w, "Thread chart: {} ({} threads)", r.series, c.rows.len())?;
-    header(w, r.lathe)?;
-    writeln!(w)?;
-    writeln!(
-        w,
+    d.title(format!("Thread chart: {} ({} threads)", r.series, c.rows.len()));
+    header(&mut d, r.lathe);
+    d.blank();
+    d.line(format!(
         "{}{} of {} threads within the tolerance; the others show the nearest pitch that can be set up.",
         if c.complete { "" } else { "INCOMPLETE (interrupted): " },
         c.reachable(),
         c.rows.len()
-    )?;
-    writeln!(w)?;
+    ));
+    d.blank();
     let mut head = vec!["thread".to_string(), "pitch".to_string()];
     head.extend(SETUP_HEAD.iter().map(|s| s.to_string()));
     head.push("note".to_string());
@@ -233,7 +212,7 @@ pub fn write_chart(r: &ChartReport, w: &mut dyn Write) -> io::Result<()> {
             cells
         })
         .collect();
-    columns(w, &head, &rows, &[3, 4, 6])?;
+    d.table(Table::new(&head, &[3, 4, 6]).with_rows(rows));
     let inch = c.rows.iter().any(|r| r.thread.pitch.kind.is_inch());
     let metric = c.rows.iter().any(|r| !r.thread.pitch.kind.is_inch());
     let basis = match (metric, inch) {
@@ -241,5 +220,6 @@ pub fn write_chart(r: &ChartReport, w: &mut dyn Write) -> io::Result<()> {
         (false, true) => "1 inch",
         _ => "100 mm",
     };
-    footer(w, basis)
+    footer(&mut d, basis);
+    d
 }

@@ -18,11 +18,12 @@ use std::io::{self, Write};
 
 use serde::Serialize;
 
-use super::document::{ChartReport, ThreadReport};
+use super::{ChartReport, ThreadReport};
 use crate::report::search::json::TrainJson;
-use crate::report::CONVENTION;
+use crate::report::words::CONVENTION;
+use crate::report::words::THREAD_CAUTION;
 use crate::trades::thread::pitch::Pitch;
-use crate::trades::thread::{Lathe, Setup, CAUTION};
+use crate::trades::thread::{Lathe, Setup};
 
 /// One setup as JSON.
 #[derive(Serialize, Debug, Clone, PartialEq)]
@@ -186,7 +187,7 @@ pub fn write_thread(r: &ThreadReport, w: &mut dyn Write) -> io::Result<()> {
         count: r.plan.count,
         complete: r.plan.complete,
         convention: CONVENTION,
-        caution: CAUTION,
+        caution: THREAD_CAUTION,
         trains: r.plan.setups.iter().map(|s| SetupJson::from_setup(s, &t.pitch)).collect(),
         rejected: r.rejected.map(|rej| {
             rej.iter()
@@ -237,7 +238,7 @@ pub fn write_chart(r: &ChartReport, w: &mut dyn Write) -> io::Result<()> {
         tolerance: r.lathe.tolerance.to_f64(),
         complete: r.chart.complete,
         convention: CONVENTION,
-        caution: CAUTION,
+        caution: THREAD_CAUTION,
         rows: r
             .chart
             .rows

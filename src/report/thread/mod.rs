@@ -1,5 +1,75 @@
-//! The thread trade's results in every format.
+//! Thread setups (`gearsieve thread`) and thread charts (`gearsieve chart`) in every format.
 
 pub mod csv;
 pub mod document;
 pub mod json;
+
+use std::io::Write;
+
+use super::{Completion, Document, RenderError, Report};
+use crate::trades::thread::chart::Chart;
+use crate::trades::thread::{Lathe, Rejected, ThreadPlan};
+
+/// A thread search, ready to print.
+pub struct ThreadReport<'a> {
+    /// The lathe and how it was searched.
+    pub lathe: &'a Lathe,
+    /// What was found.
+    pub plan: &'a ThreadPlan,
+    /// With `--explain`: trains the banjo refused.
+    pub rejected: Option<&'a [Rejected]>,
+}
+
+/// A chart, ready to print.
+pub struct ChartReport<'a> {
+    /// The lathe and how it was searched.
+    pub lathe: &'a Lathe,
+    /// The series' name or file.
+    pub series: &'a str,
+    /// The rows.
+    pub chart: &'a Chart,
+}
+
+impl Report for ThreadReport<'_> {
+    fn kind(&self) -> &'static str {
+        "a thread search"
+    }
+
+    fn completion(&self) -> Completion {
+        Completion { complete: self.plan.complete, found: self.plan.count > 0 }
+    }
+
+    fn document(&self) -> Option<Document> {
+        Some(document::thread(self))
+    }
+
+    fn csv(&self, w: &mut dyn Write) -> Result<(), RenderError> {
+        Ok(csv::write_thread(self, w)?)
+    }
+
+    fn json(&self, w: &mut dyn Write) -> Result<(), RenderError> {
+        Ok(json::write_thread(self, w)?)
+    }
+}
+
+impl Report for ChartReport<'_> {
+    fn kind(&self) -> &'static str {
+        "a thread chart"
+    }
+
+    fn completion(&self) -> Completion {
+        Completion { complete: self.chart.complete, found: self.chart.reachable() > 0 }
+    }
+
+    fn document(&self) -> Option<Document> {
+        Some(document::chart(self))
+    }
+
+    fn csv(&self, w: &mut dyn Write) -> Result<(), RenderError> {
+        Ok(csv::write_chart(self, w)?)
+    }
+
+    fn json(&self, w: &mut dyn Write) -> Result<(), RenderError> {
+        Ok(json::write_chart(self, w)?)
+    }
+}

@@ -12,7 +12,7 @@
 //!
 //! One module per stage is held by drawing the gears from a pool with the tooth range in every
 //! module and a train check that place `i` (input to output) gets module `i`; the core keeps one
-//! pool per problem. gearsieve sizes geometry only: see [`CAUTION`].
+//! pool per problem. gearsieve sizes geometry only; the reports say so.
 
 pub mod housing;
 pub mod hunting;
@@ -30,11 +30,6 @@ use crate::numbers::rational::Ratio;
 use crate::numbers::target::Target;
 
 use housing::{arranged, Places};
-
-/// The caution printed with every reducer result.
-pub const CAUTION: &str = "gearsieve sizes geometry only. A reducer that carries power needs a \
-                           load-capacity rating (e.g. ISO 6336 or AGMA 2001) and a check by a \
-                           qualified person.";
 
 /// Default largest ratio of one spur stage (about 6 is common practice).
 pub const DEFAULT_MAX_STAGE_RATIO: u64 = 6;

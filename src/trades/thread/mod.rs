@@ -35,11 +35,6 @@ use banjo::{Banjo, Fit};
 use machine::{GearboxPosition, Machine};
 use pitch::Pitch;
 
-/// The caution printed under every thread result.
-pub const CAUTION: &str = "Change gears only with the machine stopped and isolated from power. \
-                           Check the pitch with a trial cut and a thread gauge before the real \
-                           cut.";
-
 /// Largest pitch tolerance accepted: a pitch further off than this is not the thread asked for.
 pub const MAX_TOLERANCE: Ratio = match Ratio::from_parts(1, 10) {
     Some(r) => r,

@@ -1,0 +1,60 @@
+//! Flags shared by every command that prints results, and the loading of `--stock` files.
+
+use std::path::PathBuf;
+
+use clap::{Args, ValueEnum};
+use gearsieve::model::catalog::{self, CatalogueDefaults};
+use gearsieve::model::pool::Pool;
+use gearsieve::report::Format;
+use gearsieve::Error;
+
+/// The output format flag.
+#[derive(Clone, Copy, Debug, ValueEnum)]
+pub enum FormatArg {
+    /// Aligned text.
+    Table,
+    /// One row per result.
+    Csv,
+    /// The documented JSON contract.
+    Json,
+    /// Markdown with pipe tables.
+    Markdown,
+}
+
+impl From<FormatArg> for Format {
+    fn from(f: FormatArg) -> Format {
+        match f {
+            FormatArg::Table => Format::Table,
+            FormatArg::Csv => Format::Csv,
+            FormatArg::Json => Format::Json,
+            FormatArg::Markdown => Format::Markdown,
+        }
+    }
+}
+
+/// Flags shared by every command that prints results.
+#[derive(Args, Debug, Clone)]
+pub struct PrintArgs {
+    /// Output format.
+    #[arg(long, value_enum, default_value = "table")]
+    pub format: FormatArg,
+    /// Write results to FILE (atomically: complete or not at all) instead of standard output.
+    #[arg(long, value_name = "FILE")]
+    pub output: Option<PathBuf>,
+    /// Worker threads (default: all cores). Results do not depend on it.
+    #[arg(long, value_name = "N", value_parser = clap::value_parser!(u16).range(1..=1024))]
+    pub threads: Option<u16>,
+    /// No progress bar.
+    #[arg(long, short)]
+    pub quiet: bool,
+}
+
+/// Load every `--stock` file into one pool.
+pub fn load_stock(files: &[PathBuf], defaults: CatalogueDefaults) -> Result<Pool, Error> {
+    let mut gears = Vec::new();
+    for f in files {
+        gears.extend(catalog::load(f, defaults)?);
+    }
+    let names: Vec<String> = files.iter().map(|f| f.display().to_string()).collect();
+    Pool::from_stock(&gears, &format!("catalogue {}", names.join(", ")))
+}

@@ -1,0 +1,90 @@
+//! Wording shared by every result kind and format: how an error, a tolerance or a count is
+//! written, the ratio convention, and the cautions. One place, so that the formats and the
+//! trades say the same thing the same way.
+
+use crate::numbers::rational::RelError;
+
+/// The ratio convention, in words, for reports and help.
+pub const CONVENTION: &str = "ratio i = input turns per output turn = product of driven teeth / \
+                              product of driver teeth (ISO 1122-1); above 1 reduces speed";
+
+/// The caution printed under results.
+pub const CAUTION: &str = "gearsieve checks ratios and geometry only. A train that carries real \
+                           power needs a load-capacity rating (e.g. ISO 6336 or AGMA 2001) by a \
+                           qualified person; follow local codes and licensed practice.";
+
+/// The caution printed under every thread result.
+pub const THREAD_CAUTION: &str = "Change gears only with the machine stopped and isolated from power. \
+                           Check the pitch with a trial cut and a thread gauge before the real \
+                           cut.";
+
+/// The caution printed with every reducer result.
+pub const REDUCER_CAUTION: &str = "gearsieve sizes geometry only. A reducer that carries power needs a \
+                           load-capacity rating (e.g. ISO 6336 or AGMA 2001) and a check by a \
+                           qualified person.";
+
+/// The caution printed with every mesh report.
+pub const MESH_CAUTION: &str = "gearsieve sizes geometry only. A pair that carries power needs a \
+                                load-capacity rating (e.g. ISO 6336 or AGMA 2001) by a qualified \
+                                person.";
+
+/// A relative error for people: `exact`, `+3.21 ppm` or `-0.0123%`.
+pub fn describe_error(e: &RelError) -> String {
+    if e.is_exact() {
+        return "exact".to_string();
+    }
+    let v = e.to_f64();
+    if v.abs() < 1e-3 {
+        format!("{:+.3} ppm", v * 1e6)
+    } else {
+        format!("{:+.4}%", v * 100.0)
+    }
+}
+
+/// A tolerance for people: `0 (exact)`, `±10 ppm`, `±0.5%`.
+pub fn describe_tolerance(t: f64) -> String {
+    if t == 0.0 {
+        "0 (exact only)".to_string()
+    } else if t < 1e-3 {
+        format!("±{} ppm", crate::model::pool::fmt_num(t * 1e6))
+    } else {
+        format!("±{}%", crate::model::pool::fmt_num(t * 100.0))
+    }
+}
+
+/// `1234567` → `1,234,567`.
+pub fn group_thousands(n: u64) -> String {
+    let s = n.to_string();
+    let mut out = String::new();
+    for (i, c) in s.chars().enumerate() {
+        if i > 0 && (s.len() - i) % 3 == 0 {
+            out.push(',');
+        }
+        out.push(c);
+    }
+    out
+}
+
+/// `3 trains; all listed` / `120 trains; the best 10 listed`, with the interrupted mark.
+pub fn count_line(count: u64, listed: usize, complete: bool, what: &str, order: &str) -> String {
+    let status = if complete { "" } else { "INCOMPLETE (interrupted): at least " };
+    match count {
+        0 => format!("{status}No {what} meets every constraint."),
+        1 => format!("{status}1 {what}:"),
+        n if n == listed as u64 => format!("{status}{n} {what}s, all listed {order}:"),
+        n => format!("{status}{n} {what}s; the best {listed} listed {order}:"),
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn thousands() {
+        assert_eq!(group_thousands(0), "0");
+        assert_eq!(group_thousands(999), "999");
+        assert_eq!(group_thousands(1000), "1,000");
+        assert_eq!(group_thousands(1234567), "1,234,567");
+    }
+}
