@@ -28,6 +28,8 @@
 //! Ratio convention (ISO 1122-1): `i` = input turns per output turn = product of driven teeth /
 //! product of driver teeth.
 
+#![deny(missing_docs)]
+
 pub mod engine;
 pub mod error;
 pub mod geometry;
