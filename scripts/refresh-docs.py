@@ -1,10 +1,11 @@
 #!/usr/bin/env python3
 """Re-run every command shown in README.md and docs/*.md and put what it prints under it.
 
-A shown example is a ```text block whose lines starting with `$ ` are commands; the lines after
-each command, up to the next command or the end of the block, are what it printed (standard
-output and standard error together). `gearsieve` in a command runs the release binary built
-from this checkout.
+A shown example is a ```text or ```console block whose lines starting with `$ ` are commands;
+the lines after each command, up to the next command or the end of the block, are what it
+printed (standard output and standard error together), and a last line `[exit N]`, where an
+example shows one, its exit status. `gearsieve` in a command runs the release binary built from
+this checkout.
 
     scripts/refresh-docs.py           # rewrite the examples in place
     scripts/refresh-docs.py --check   # exit 1 and name each example that no longer matches
@@ -12,11 +13,13 @@ from this checkout.
 
 import glob
 import os
+import re
 import subprocess
 import sys
 
 ROOT = os.path.dirname(os.path.dirname(os.path.abspath(__file__)))
 MARK = "\x1e--gearsieve-example--"
+STATUS = "\x1f--gearsieve-status--"
 
 
 def run_block(commands, binary):
@@ -25,12 +28,16 @@ def run_block(commands, binary):
     for c in commands:
         # `echo $?` in an example means the status of the command before it, not the mark's.
         script.append(f"printf '%s\\n' '{MARK}'; (exit $status)")
-        script.append(f"{c} 2>&1; status=$?")
+        script.append(f"{c} 2>&1; status=$?; printf '%s %d\\n' '{STATUS}' $status")
     out = subprocess.run(
         ["bash", "-c", "\n".join(script)], cwd=ROOT, capture_output=True, text=True, check=False
     ).stdout
-    parts = out.split(MARK + "\n")[1:]
-    return [p.rstrip("\n").split("\n") if p.strip("\n") else [] for p in parts]
+    printed = []
+    for part in out.split(MARK + "\n")[1:]:
+        text, _, status = part.rpartition(STATUS + " ")
+        lines = text.rstrip("\n").split("\n") if text.strip("\n") else []
+        printed.append((lines, int(status.strip() or 0)))
+    return printed
 
 
 def refresh(path, binary):
@@ -41,18 +48,20 @@ def refresh(path, binary):
         line = lines[i]
         out.append(line)
         i += 1
-        if line.strip() != "```text" or i >= len(lines) or not lines[i].startswith("$ "):
+        if line.strip() not in ("```text", "```console") or i >= len(lines) or not lines[i].startswith("$ "):
             continue
         end = i
         while end < len(lines) and lines[end].strip() != "```":
             end += 1
         block = lines[i:end]
         commands = [l[2:] for l in block if l.startswith("$ ")]
-        printed = run_block(commands, binary)
+        shows_status = any(re.fullmatch(r"\[exit \d+\]", l) for l in block)
         fresh = []
-        for c, p in zip(commands, printed):
+        for c, (p, status) in zip(commands, run_block(commands, binary)):
             fresh.append("$ " + c)
             fresh.extend(p)
+            if shows_status:
+                fresh.append(f"[exit {status}]")
         if fresh != block:
             changed.append(f"{os.path.relpath(path, ROOT)}:{i + 1}: {commands[0]}")
         out.extend(fresh)

@@ -24,8 +24,8 @@ fn json_follows_the_contract() {
             let (a, b) = (s["driver"].as_u64().unwrap(), s["driven"].as_u64().unwrap());
             p *= b;
             q *= a;
-            assert_eq!(s["module"], 1.0);
-            assert_eq!(s["centre_distance"].as_f64().unwrap(), (a + b) as f64 / 2.0);
+            assert_eq!(s["module_mm"], 1.0);
+            assert_eq!(s["reference_centre_distance_mm"].as_f64().unwrap(), (a + b) as f64 / 2.0);
         }
         let g = gcd(p, q);
         assert_eq!(t["ratio"], format!("{}/{}", p / g, q / g).replace("/1\"", "\"").trim_end_matches("/1"));
@@ -64,7 +64,7 @@ fn csv_has_one_row_per_train() {
     let mut rd = csv::Reader::from_reader(r.stdout.as_bytes());
     let head = rd.headers().unwrap().clone();
     assert_eq!(&head[0], "rank");
-    assert!(head.iter().any(|h| h == "stage2_centre_distance"));
+    assert!(head.iter().any(|h| h == "stage2_reference_centre_distance_mm"));
     let rows: Vec<_> = rd.records().map(|r| r.unwrap()).collect();
     assert_eq!(rows.len(), 4);
     assert_eq!(&rows[0][1], "3");
@@ -109,7 +109,7 @@ fn modules_never_mix_within_a_stage() {
     // Only 40/20 (module 1) · 45/15 (module 2) makes 6.
     assert_eq!(v["count"], 1);
     let st = v["trains"][0]["stages"].as_array().unwrap();
-    let mut modules: Vec<f64> = st.iter().map(|s| s["module"].as_f64().unwrap()).collect();
+    let mut modules: Vec<f64> = st.iter().map(|s| s["module_mm"].as_f64().unwrap()).collect();
     modules.sort_by(f64::total_cmp);
     assert_eq!(modules, vec![1.0, 2.0]);
 }

@@ -103,18 +103,21 @@ fn twelve_to_one_motion_work_is_found_coaxial() {
             .as_array()
             .unwrap()
             .iter()
-            .map(|s| s["working_centre_distance"].as_f64().unwrap())
+            .map(|s| s["working_centre_distance_mm"].as_f64().unwrap())
             .collect();
         assert!((a[0] - a[1]).abs() < 1e-9, "{a:?}");
-        assert_eq!(t["gears"][0]["driver"], "cannon pinion");
-        assert_eq!(t["gears"][1]["driven"], "hour wheel");
+        assert_eq!(t["stage_names"][0]["driver"], "cannon pinion");
+        assert_eq!(t["stage_names"][1]["driven"], "hour wheel");
     }
     // Not coaxial: trains whose standard centre distances differ appear too.
     let (code, v) = json(&["clock", "motion", "--not-coaxial", "--stages", "2", "--limit", "200", "-q"]);
     assert_eq!(code, 0);
     assert!(trains(&v).iter().any(|t| {
         let s = t["stages"].as_array().unwrap();
-        (s[0]["centre_distance"].as_f64().unwrap() - s[1]["centre_distance"].as_f64().unwrap()).abs() > 0.5
+        (s[0]["reference_centre_distance_mm"].as_f64().unwrap()
+            - s[1]["reference_centre_distance_mm"].as_f64().unwrap())
+        .abs()
+            > 0.5
     }));
 }
 
@@ -148,7 +151,7 @@ fn lunar_month_convergent_443_15_is_the_best_single_stage() {
     ]);
     assert_eq!(code, 0);
     assert_eq!(pairs(&trains(&v)[0]), vec![(15, 443)]);
-    assert_eq!(v["period_days"], "7382647/250000");
+    assert_eq!(v["target_period_days"], "7382647/250000");
     let conv: Vec<&str> =
         v["convergents"].as_array().unwrap().iter().map(|c| c["ratio"].as_str().unwrap()).collect();
     assert_eq!(&conv[..7], ["29", "30", "59/2", "443/15", "502/17", "1447/49", "23654/801"]);
@@ -226,9 +229,9 @@ fn hourly_arbor_multiplies_the_ratio_by_24() {
         "1",
         "-q",
     ]);
-    assert_eq!(day["ratio"], "36524219/100000");
+    assert_eq!(day["target"]["exact"], "36524219/100000");
     // 365.24219 d × 24 turns a day = 8765.81256 turns (computed).
-    assert_eq!(hour["ratio"], "109572657/12500");
+    assert_eq!(hour["target"]["exact"], "109572657/12500");
     assert_eq!(hour["input_turns_per_day"], 24);
 }
 
@@ -241,8 +244,22 @@ fn table_and_csv_show_the_trade_words() {
     let r = gearsieve(&["clock", "motion", "--format", "csv", "--limit", "2", "-q"]);
     assert_eq!(r.code, 0);
     let mut lines = r.stdout.lines();
-    assert_eq!(lines.next().unwrap(), "rank,pinion>wheel,ratio,error,centre_distance_mm,shifts,size");
-    assert_eq!(lines.count(), 2);
+    // One value per cell: the stages as numbered columns, the worked-out meshes beside them.
+    let head: Vec<&str> = lines.next().unwrap().split(',').collect();
+    for column in ["rank", "ratio", "error", "size", "stage1_driver", "stage1_driven", "stage2_shift_driver"]
+    {
+        assert!(head.contains(&column), "{column} missing from {head:?}");
+    }
+    let rows: Vec<Vec<&str>> = lines.map(|l| l.split(',').collect()).collect();
+    assert_eq!(rows.len(), 2);
+    let at = |row: &Vec<&str>, name: &str| row[head.iter().position(|h| *h == name).unwrap()].to_string();
+    // The hour motion work: 12 = product of wheels / product of pinions.
+    let teeth = |r: &Vec<&str>, s: &str| at(r, s).parse::<u64>().unwrap();
+    let r0 = &rows[0];
+    assert_eq!(
+        teeth(r0, "stage1_driven") * teeth(r0, "stage2_driven"),
+        12 * teeth(r0, "stage1_driver") * teeth(r0, "stage2_driver")
+    );
 }
 
 #[test]

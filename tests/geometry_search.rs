@@ -31,7 +31,7 @@ fn a_fixed_centre_distance_is_reached_by_profile_shift() {
     let all = stages(&v);
     assert!(!all.is_empty());
     for s in all {
-        let aw = s["working_centre_distance"].as_f64().unwrap();
+        let aw = s["working_centre_distance_mm"].as_f64().unwrap();
         assert!((aw - 75.0).abs() < 1e-9, "{s}");
         let x = s["shift"].as_array().unwrap();
         let sum = x[0].as_f64().unwrap() + x[1].as_f64().unwrap();
@@ -75,8 +75,8 @@ fn coaxial_trains_share_one_centre_distance() {
     for t in v["trains"].as_array().unwrap() {
         let st = t["stages"].as_array().unwrap();
         assert_eq!(st.len(), 2);
-        let a0 = st[0]["working_centre_distance"].as_f64().unwrap();
-        let a1 = st[1]["working_centre_distance"].as_f64().unwrap();
+        let a0 = st[0]["working_centre_distance_mm"].as_f64().unwrap();
+        let a1 = st[1]["working_centre_distance_mm"].as_f64().unwrap();
         assert!((a0 - a1).abs() < 1e-9, "{t}");
         assert_eq!(t["error"], 0.0);
     }

@@ -185,9 +185,99 @@ fn merge_prints_its_golden_file() {
         parts.push(path);
     }
     let mut failures = Vec::new();
-    let mut a = vec!["merge"];
-    a.extend(parts.iter().map(String::as_str));
-    let r = gearsieve(&a);
-    check("merge.json", &format!("{}--- stderr\n{}--- exit {}\n", r.stdout, r.stderr, r.code), &mut failures);
+    for (format, ext) in FORMATS {
+        let mut a = vec!["merge", "--format", format];
+        a.extend(parts.iter().map(String::as_str));
+        let r = gearsieve(&a);
+        check(
+            &format!("merge.{ext}"),
+            &format!("{}--- stderr\n{}--- exit {}\n", r.stdout, r.stderr, r.code),
+            &mut failures,
+        );
+    }
     assert!(failures.is_empty(), "{}", failures.join("\n"));
+    // The merged parts read exactly as the unsplit search, in every format.
+    for (format, _) in FORMATS {
+        let mut whole = search.to_vec();
+        whole.retain(|a| *a != "--format" && *a != "json");
+        whole.extend(["--format", format]);
+        let mut merge = vec!["merge", "--format", format];
+        merge.extend(parts.iter().map(String::as_str));
+        assert_eq!(gearsieve(&merge).stdout, gearsieve(&whole).stdout, "merge --format {format}");
+    }
+}
+
+/// The names `docs/output-fields.md` documents: the backticked names in the first column of
+/// its tables, with stage and arbor numbers written `N`.
+fn documented_names() -> std::collections::BTreeSet<String> {
+    let path: PathBuf = [env!("CARGO_MANIFEST_DIR"), "docs", "output-fields.md"].iter().collect();
+    let text = std::fs::read_to_string(path).expect("docs/output-fields.md");
+    let mut names = std::collections::BTreeSet::new();
+    for line in text.lines().filter(|l| l.starts_with("| `")) {
+        let first = line.split('|').nth(1).unwrap_or("");
+        names.extend(first.split('`').skip(1).step_by(2).map(str::to_string));
+    }
+    names
+}
+
+/// `stage2_driver` → `stageN_driver`, `arbor3_name` → `arborN_name`.
+fn numbered(name: &str) -> String {
+    for prefix in ["stage", "arbor"] {
+        if let Some(rest) = name.strip_prefix(prefix) {
+            let digits = rest.chars().take_while(char::is_ascii_digit).count();
+            if digits > 0 && rest[digits..].starts_with('_') {
+                return format!("{prefix}N{}", &rest[digits..]);
+            }
+        }
+    }
+    name.to_string()
+}
+
+fn json_keys(v: &serde_json::Value, out: &mut std::collections::BTreeSet<String>) {
+    match v {
+        serde_json::Value::Object(m) => {
+            for (k, x) in m {
+                out.insert(k.clone());
+                json_keys(x, out);
+            }
+        }
+        serde_json::Value::Array(a) => a.iter().for_each(|x| json_keys(x, out)),
+        _ => {}
+    }
+}
+
+#[test]
+fn every_output_field_is_documented() {
+    let documented = documented_names();
+    let mut seen = std::collections::BTreeSet::new();
+    for (_, args) in CASES {
+        for format in ["csv", "json"] {
+            let mut a = args.to_vec();
+            a.extend(["--format", format]);
+            let r = gearsieve(&a);
+            if r.stdout.is_empty() {
+                continue;
+            }
+            if format == "csv" {
+                let mut rd = csv::Reader::from_reader(r.stdout.as_bytes());
+                seen.extend(rd.headers().expect("a CSV header").iter().map(numbered));
+            } else {
+                let v: serde_json::Value = serde_json::from_str(&r.stdout).expect("JSON");
+                json_keys(&v, &mut seen);
+            }
+        }
+    }
+    // The streamed forms: CSV rows in found order, JSON lines.
+    let stream = ["search", "--ratio", "3", "--teeth", "12..30", "--stages", "1..2", "--limit", "0"];
+    let r = gearsieve(&[&stream[..], &["--format", "csv"]].concat());
+    seen.extend(
+        csv::Reader::from_reader(r.stdout.as_bytes()).headers().expect("header").iter().map(numbered),
+    );
+    let r = gearsieve(&[&stream[..], &["--format", "json"]].concat());
+    for line in r.stdout.lines() {
+        json_keys(&serde_json::from_str(line).expect("a JSON line"), &mut seen);
+    }
+    let missing: Vec<&String> = seen.iter().filter(|n| !documented.contains(*n)).collect();
+    assert!(missing.is_empty(), "not in docs/output-fields.md: {missing:?}");
+    assert!(seen.len() > 100, "the outputs name {} fields", seen.len());
 }

@@ -57,7 +57,7 @@ fn textbook_pair_at_the_standard_distance() {
     );
     assert_eq!(num(&v, &["inputs", "module_mm"]), 12.7);
     assert_eq!(num(&v, &["inputs", "diametral_pitch"]), 2.0);
-    let c = num(&v, &["geometry", "centre_distance_mm"]) / MM_PER_INCH;
+    let c = num(&v, &["geometry", "working_centre_distance_mm"]) / MM_PER_INCH;
     assert!((c - 14.000).abs() < 5e-4, "C = {c} in");
     let eps = num(&v, &["geometry", "contact_ratio"]);
     assert!((eps - 1.6061).abs() < 5e-5, "contact ratio {eps}");
@@ -90,7 +90,7 @@ fn textbook_pair_mounted_a_quarter_inch_wide() {
         let (code, v) =
             json(&["mesh", "--teeth", "16,40", "--diametral-pitch", "2", "--centre-distance", cd]);
         assert_eq!(code, 0, "{cd}: {v}");
-        let a_w = num(&v, &["geometry", "centre_distance_mm"]) / MM_PER_INCH;
+        let a_w = num(&v, &["geometry", "working_centre_distance_mm"]) / MM_PER_INCH;
         assert!((a_w - 14.25).abs() < 1e-9, "{cd}: {a_w}");
         let alpha_w = num(&v, &["geometry", "working_pressure_angle_deg"]);
         assert!((alpha_w - 22.6005).abs() < 5e-5, "{cd}: α_w {alpha_w}");
@@ -238,7 +238,8 @@ fn json_carries_inputs_and_the_whole_geometry() {
         pair(&v, key);
     }
     for key in [
-        "standard_centre_distance_mm",
+        "reference_centre_distance_mm",
+        "working_centre_distance_mm",
         "working_pressure_angle_deg",
         "tip_shortening",
         "backlash_mm",

@@ -18,7 +18,7 @@ use serde_json::Value;
 
 /// Teeth of the gears by position name in one JSON setup.
 fn gear(setup: &Value, position: &str) -> Option<u64> {
-    setup["gears"].as_array()?.iter().find(|g| g["position"] == position).and_then(|g| g["teeth"].as_u64())
+    setup["positions"].as_array()?.iter().find(|g| g["position"] == position).and_then(|g| g["teeth"].as_u64())
 }
 
 fn exact_simple_pairs(v: &Value) -> Vec<(u64, u64)> {
@@ -26,7 +26,7 @@ fn exact_simple_pairs(v: &Value) -> Vec<(u64, u64)> {
         .as_array()
         .unwrap()
         .iter()
-        .filter(|t| t["meshes"] == 1 && t["exact"] == true)
+        .filter(|t| t["meshes"] == 1 && t["exact_pitch"] == true)
         .map(|t| (gear(t, "stud").unwrap(), gear(t, "leadscrew").unwrap()))
         .collect()
 }
@@ -105,7 +105,7 @@ fn a_fractional_thread_needs_a_compound_train() {
     assert_eq!(code, 0);
     let t = &v["trains"][0];
     assert_eq!(t["meshes"], 2);
-    assert_eq!(t["exact"], true);
+    assert_eq!(t["exact_pitch"], true);
     assert_eq!(t["ratio"], "23/18");
 }
 
@@ -136,7 +136,7 @@ fn eleven_per_inch_through_the_published_compound() {
         drivers.sort();
         driven.sort();
         assert_eq!((drivers, driven), (vec![18, 48], vec![36, 66]));
-        assert_eq!(t["exact"], true);
+        assert_eq!(t["exact_pitch"], true);
         assert!((t["pitch_cut"].as_f64().unwrap() - 11.0).abs() < 1e-12);
     }
 }
@@ -208,7 +208,7 @@ fn gearbox_positions_are_named() {
     ]);
     assert_eq!(code, 0);
     let names: Vec<&str> =
-        v["trains"].as_array().unwrap().iter().map(|t| t["position"].as_str().unwrap()).collect();
+        v["trains"].as_array().unwrap().iter().map(|t| t["gearbox_position"].as_str().unwrap()).collect();
     // 4 per inch on 8 per inch needs the leadscrew at 1/2 of the spindle speed: a train of
     // 1/4 through A (2), 1/2 through B (1), 1 through C (1/2). No stage has a ratio of 1
     // (a stage needs two tooth counts), so C has no simple train.
@@ -217,7 +217,7 @@ fn gearbox_positions_are_named() {
     }
     assert!(!names.contains(&"C"), "{names:?}");
     for t in v["trains"].as_array().unwrap() {
-        let want = match t["position"].as_str().unwrap() {
+        let want = match t["gearbox_position"].as_str().unwrap() {
             "A" => "1/4",
             _ => "1/2",
         };
@@ -237,7 +237,8 @@ fn gearbox_positions_are_named() {
         "csv",
     ]);
     assert_eq!(r.code, 0);
-    assert!(r.stdout.starts_with("rank,position,stud,idler,intermediates,leadscrew"));
+    assert!(r.stdout.starts_with("rank,gearbox_position,stud,idler,leadscrew"), "{}", r.stdout);
+    assert!(r.stdout.lines().skip(1).all(|l| l.split(',').nth(1).is_some_and(|p| p == "A" || p == "B")));
 }
 
 #[test]

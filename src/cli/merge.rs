@@ -1,13 +1,13 @@
 //! `gearsieve merge`: combine the JSON of the parts of a split search (`search --shard I/N
-//! --format json`) into exactly the JSON the unsplit search prints.
+//! --format json`) into exactly what the unsplit search prints, in any of its formats.
 
 use std::path::PathBuf;
 
 use clap::Args;
 use gearsieve::report::search::json::Doc;
-use gearsieve::report::Format;
 use gearsieve::Error;
 
+use super::args::FormatArg;
 use super::run::{self, Print, Words};
 
 /// Combine the JSON results of every part of a split search.
@@ -16,7 +16,11 @@ pub struct MergeArgs {
     /// The JSON files written by `gearsieve search --shard I/N --format json`, one per part.
     #[arg(value_name = "FILES", required = true)]
     pub files: Vec<PathBuf>,
-    /// Write the merged JSON to FILE (atomically) instead of standard output.
+    /// Output format: the JSON a whole search prints (for scripts and further merges), or any
+    /// other format the search offers.
+    #[arg(long, value_enum, default_value = "json")]
+    pub format: FormatArg,
+    /// Write the merged result to FILE (atomically) instead of standard output.
     #[arg(long, value_name = "FILE")]
     pub output: Option<PathBuf>,
 }
@@ -33,7 +37,7 @@ pub fn run(args: MergeArgs) -> anyhow::Result<i32> {
         docs.push((name, doc));
     }
     let merged = gearsieve::report::search::merge::merge(docs)?;
-    let print = Print { format: Format::Json, output: args.output, threads: None, quiet: true };
+    let print = Print { format: args.format.into(), output: args.output, threads: None, quiet: true };
     // The parts said what they found; a merge adds no words of its own.
     let words = Words { interrupted: None, nothing: None };
     run::present(&merged, &print, &words)

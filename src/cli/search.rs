@@ -13,8 +13,9 @@ use gearsieve::model::rank::parse_rank;
 use gearsieve::model::train::Direction;
 use gearsieve::numbers::range::{parse_float_range, parse_int_range, parse_ratio_range, parse_signed_range};
 use gearsieve::numbers::target::Target;
-use gearsieve::report::search::{csv as csv_out, json as json_out, SearchReport};
-use gearsieve::report::Report;
+use gearsieve::report::search::stream::Stream;
+use gearsieve::report::search::SearchReport;
+use gearsieve::report::{RenderError, Report};
 use gearsieve::{EngineKind, Error, Problem, RunOptions, StageLimits};
 
 use super::args::{load_stock, FormatArg, PrintArgs};
@@ -215,7 +216,7 @@ impl TryFrom<SearchArgs> for SearchJob {
             if a.pareto {
                 return Err(Error::flag("--limit", "0 streams every train; it does not go with --pareto"));
             }
-            if matches!(a.print.format, FormatArg::Table) {
+            if matches!(a.print.format, FormatArg::Table | FormatArg::Markdown) {
                 return Err(Error::flag(
                     "--limit",
                     "0 streams every train; give --format csv or --format json (JSON lines)",
@@ -304,7 +305,7 @@ pub fn run(args: SearchArgs) -> anyhow::Result<i32> {
         let progress = |p| bar.update(p);
         let options =
             RunOptions { progress: Some(&progress), cancel: Some(&super::CANCEL), shard: job.shard };
-        let code = stream(&job, &options);
+        let code = stream(&job, &print, &options);
         bar.finish();
         return code;
     }
@@ -365,55 +366,25 @@ fn human_duration(s: f64) -> String {
 
 /// `--limit 0`: write every train as it is found, CSV rows or JSON lines, ending JSON with a
 /// summary line.
-fn stream(job: &SearchJob, options: &RunOptions) -> anyhow::Result<i32> {
-    let path = job.print.output.as_deref();
+fn stream(job: &SearchJob, print: &Print, options: &RunOptions) -> anyhow::Result<i32> {
+    let path = print.output.as_deref();
     let mut sink = super::output::Sink::open(path)?;
     let p = &job.problem;
-    let json = matches!(job.print.format, FormatArg::Json);
-    let result =
-        run::with_threads(job.print.threads.map(usize::from), || -> std::io::Result<gearsieve::Outcome> {
-            let w = sink.writer();
-            if json {
-                let o = gearsieve::engine::search_each(p, job.engine, options, &mut |t| {
-                    json_out::write_line(&json_out::TrainJson::from_train(t), &mut *w)
-                })?;
-                let summary = json_out::Summary {
-                    target: json_out::target_json(p),
-                    count: o.count,
-                    complete: o.complete,
-                };
-                json_out::write_line(&summary, w)?;
-                Ok(o)
-            } else {
-                let mut c = ::csv::Writer::from_writer(w);
-                c.write_record(csv_out::header(p)).map_err(csv_io)?;
-                let mut n = 0u64;
-                let o = gearsieve::engine::search_each(p, job.engine, options, &mut |t| {
-                    n += 1;
-                    c.write_record(csv_out::row(p, n, t)).map_err(csv_io)
-                })?;
-                c.flush()?;
-                Ok(o)
-            }
-        })?;
+    let result = run::with_threads(print.threads, || -> Result<gearsieve::Outcome, RenderError> {
+        let mut stream = Stream::start(p, print.format, sink.writer())?;
+        let o = gearsieve::engine::search_each(p, job.engine, options, &mut |t| stream.train(t))?;
+        stream.finish(p, &o)?;
+        Ok(o)
+    })?;
     let outcome = match result {
         Ok(o) => o,
-        Err(e) => {
-            return super::output::quiet_broken_pipe(Err(e), path).map(|_| EXIT_OK);
-        }
+        Err(RenderError::Io(e)) => return super::output::quiet_broken_pipe(Err(e), path).map(|_| EXIT_OK),
+        Err(e) => return Err(anyhow::anyhow!("--format: {e}")),
     };
     if !super::output::quiet_broken_pipe(sink.commit(), path)? {
         return Ok(EXIT_OK);
     }
     Ok(run::status(outcome.complete, outcome.count > 0, &words()))
-}
-
-/// A CSV writer's error as the I/O error underneath, so a closed pipe is still seen as one.
-fn csv_io(e: ::csv::Error) -> std::io::Error {
-    match e.into_kind() {
-        ::csv::ErrorKind::Io(e) => e,
-        other => std::io::Error::other(format!("{other:?}")),
-    }
 }
 
 /// What `search` says when interrupted or when nothing was found.

@@ -69,8 +69,10 @@ pub struct MeshGeometry {
     /// Tip shortening `k`, in modules, taken off both tips (zero when not needed).
     pub tip_shortening: f64,
     /// Standard centre distance `a = m(z1 + z2)/2`, mm.
+    #[serde(rename = "reference_centre_distance_mm")]
     pub standard_centre_distance_mm: f64,
     /// Working centre distance `a_w`, mm.
+    #[serde(rename = "working_centre_distance_mm")]
     pub centre_distance_mm: f64,
     /// Working pressure angle `α_w`, degrees.
     pub working_pressure_angle_deg: f64,
@@ -520,7 +522,8 @@ mod tests {
         let g = shifted(&system(1.0, 20.0), [20, 40], [0.0, 0.0]);
         let json = serde_json::to_string(&g).unwrap();
         for key in [
-            "\"centre_distance_mm\"",
+            "\"working_centre_distance_mm\"",
+            "\"reference_centre_distance_mm\"",
             "\"working_pressure_angle_deg\"",
             "\"tip_diameter_mm\"",
             "\"tip_thickness_mm\"",

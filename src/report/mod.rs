@@ -18,6 +18,7 @@
 
 pub mod clock;
 pub mod document;
+pub mod fields;
 pub mod markdown;
 pub mod mesh;
 pub mod reducer;
@@ -29,6 +30,10 @@ pub mod words;
 use std::io::{self, Write};
 
 pub use document::{Align, Block, Column, Document, Table};
+
+/// The version of the JSON contracts of every result kind (`schema_version` in each
+/// document); it changes when a key is renamed or changes meaning.
+pub const SCHEMA_VERSION: u32 = 2;
 
 /// The output formats.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]

@@ -33,7 +33,14 @@ pub fn describe_error(e: &RelError) -> String {
     if e.is_exact() {
         return "exact".to_string();
     }
-    let v = e.to_f64();
+    describe_error_f64(e.to_f64())
+}
+
+/// A relative error read back from JSON, for people: `exact` only when it is zero.
+pub fn describe_error_f64(v: f64) -> String {
+    if v == 0.0 {
+        return "exact".to_string();
+    }
     if v.abs() < 1e-3 {
         format!("{:+.3} ppm", v * 1e6)
     } else {
@@ -71,9 +78,21 @@ pub fn count_line(count: u64, listed: usize, complete: bool, what: &str, order: 
     match count {
         0 => format!("{status}No {what} meets every constraint."),
         1 => format!("{status}1 {what}:"),
-        n if n == listed as u64 => format!("{status}{n} {what}s, all listed {order}:"),
-        n => format!("{status}{n} {what}s; the best {listed} listed {order}:"),
+        n if n == listed as u64 => format!("{status}{} {what}s, all listed {order}:", group_thousands(n)),
+        n => format!("{status}{} {what}s; the best {listed} listed {order}:", group_thousands(n)),
     }
+}
+
+/// An identifier such as `ShiftSumOutOfRange` in plain words: `shift sum out of range`.
+pub fn plain_words(id: &str) -> String {
+    let mut out = String::new();
+    for (i, c) in id.chars().enumerate() {
+        if c.is_uppercase() && i > 0 {
+            out.push(' ');
+        }
+        out.extend(c.to_lowercase());
+    }
+    out
 }
 
 #[cfg(test)]
@@ -86,5 +105,11 @@ mod tests {
         assert_eq!(group_thousands(999), "999");
         assert_eq!(group_thousands(1000), "1,000");
         assert_eq!(group_thousands(1234567), "1,234,567");
+    }
+
+    #[test]
+    fn identifiers_in_plain_words() {
+        assert_eq!(plain_words("ShiftSumOutOfRange"), "shift sum out of range");
+        assert_eq!(plain_words("NotCoaxial"), "not coaxial");
     }
 }

@@ -1,104 +1,100 @@
-//! The CSV format for clock trains: a header row, then one row per train, best first. Stages
-//! are written `driver>driven` separated by spaces, input arbor first. A sink.
+//! The CSV format for clock trains: a header row, then one row per train, best first, one value
+//! per cell: the train's own columns, the clock's figures (rate, arbor speeds, dial period and
+//! drift), then the numbered stage columns from the input arbor. It computes nothing about gears.
 
 use std::io::{self, Write};
 
+use super::document::arbor_names;
+use crate::model::problem::Problem;
 use crate::model::train::Train;
+use crate::report::fields::{decimals, small, train_cells, StageColumns, TrainJson, TRAIN_HEADER};
 use crate::trades::clock::astro::AstroPlan;
 use crate::trades::clock::going::GoingPlan;
 use crate::trades::clock::motion::MotionPlan;
 
-fn stages(t: &Train) -> String {
-    t.stages.iter().map(|s| format!("{}>{}", s.driver.teeth, s.driven.teeth)).collect::<Vec<_>>().join(" ")
-}
-
-fn write_rows(w: &mut dyn Write, head: &[&str], rows: Vec<Vec<String>>) -> io::Result<()> {
+/// Header and rows: `rank`, the train columns, `extra` columns, then the stage columns.
+fn write_rows<T>(
+    w: &mut dyn Write,
+    problem: &Problem,
+    mesh: bool,
+    extra: &[String],
+    items: &[T],
+    train: impl Fn(&T) -> &Train,
+    cells: impl Fn(&T) -> Vec<String>,
+) -> io::Result<()> {
+    let stages = StageColumns { stages: problem.stages.hi as usize, mesh };
     let mut c = ::csv::Writer::from_writer(w);
-    c.write_record(head)?;
-    for r in rows {
-        c.write_record(&r)?;
+    let mut head = vec!["rank".to_string()];
+    head.extend(TRAIN_HEADER.iter().map(|s| s.to_string()));
+    head.extend(extra.iter().cloned());
+    head.extend(stages.header());
+    c.write_record(&head)?;
+    for (n, item) in items.iter().enumerate() {
+        let t = TrainJson::from_train(train(item));
+        let mut row = vec![(n + 1).to_string()];
+        row.extend(train_cells(&t));
+        row.extend(cells(item));
+        row.extend(stages.cells(&t));
+        c.write_record(&row)?;
     }
     c.flush()
 }
 
-/// Write a going-train search: rank, stages (wheel>pinion), ratio, rate, arbor speeds.
+/// Write a going-train search: the rate error and the speed of every arbor, named by its place.
 pub fn write_going(p: &GoingPlan, w: &mut dyn Write) -> io::Result<()> {
-    let rows = p
-        .trains
-        .iter()
-        .enumerate()
-        .map(|(n, g)| {
-            vec![
-                (n + 1).to_string(),
-                stages(&g.train),
-                g.train.ratio.to_string(),
-                g.train.error.to_f64().to_string(),
-                g.rate_s_per_day.to_string(),
-                g.arbor_turns_per_hour.iter().map(|v| v.to_string()).collect::<Vec<_>>().join(" "),
-                g.train.size().to_string(),
-            ]
-        })
-        .collect();
+    let arbors = p.problem.stages.hi as usize + 1;
+    let mut extra = vec!["rate_s_per_day".to_string()];
+    for k in 1..=arbors {
+        extra.push(format!("arbor{k}_name"));
+        extra.push(format!("arbor{k}_turns_per_hour"));
+    }
+    let driving = if p.spec.from_turns_per_hour == crate::numbers::rational::Ratio::integer(1) {
+        "centre"
+    } else {
+        "driving"
+    };
     write_rows(
         w,
-        &["rank", "wheel>pinion", "ratio", "error", "rate_s_per_day", "arbor_turns_per_hour", "size"],
-        rows,
+        &p.problem,
+        false,
+        &extra,
+        &p.trains,
+        |g| &g.train,
+        |g| {
+            let mut cells = vec![decimals(g.rate_s_per_day, 3)];
+            let names = arbor_names(g.train.stages.len(), driving);
+            for k in 0..arbors {
+                match (names.get(k), g.arbor_turns_per_hour.get(k)) {
+                    (Some(name), Some(v)) => cells.extend([name.clone(), decimals(*v, 6)]),
+                    _ => cells.extend([String::new(), String::new()]),
+                }
+            }
+            cells
+        },
     )
 }
 
-/// Write a motion-work search: rank, stages (pinion>wheel), ratio, error, working centre
-/// distances and shifts.
+/// Write a motion-work search, with the worked-out meshes.
 pub fn write_motion(p: &MotionPlan, w: &mut dyn Write) -> io::Result<()> {
-    let rows = p
-        .trains
-        .iter()
-        .enumerate()
-        .map(|(n, t)| {
-            let a: Vec<String> = t
-                .stages
-                .iter()
-                .map(|s| s.mesh.map_or(s.centre_distance_mm(), |m| m.centre_distance_mm).to_string())
-                .collect();
-            let x: Vec<String> = t
-                .stages
-                .iter()
-                .map(|s| s.mesh.map_or("0/0".to_string(), |m| format!("{}/{}", m.shift[0], m.shift[1])))
-                .collect();
-            vec![
-                (n + 1).to_string(),
-                stages(t),
-                t.ratio.to_string(),
-                t.error.to_f64().to_string(),
-                a.join(" "),
-                x.join(" "),
-                t.size().to_string(),
-            ]
-        })
-        .collect();
-    write_rows(w, &["rank", "pinion>wheel", "ratio", "error", "centre_distance_mm", "shifts", "size"], rows)
+    write_rows(w, &p.problem, true, &[], &p.trains, |t| t, |_| Vec::new())
 }
 
-/// Write an astronomical-train search: rank, stages, ratio, dial period, error, drift.
+/// Write an astronomical-train search: the dial period, the drift and the days to a day out.
 pub fn write_astro(p: &AstroPlan, w: &mut dyn Write) -> io::Result<()> {
-    let rows = p
-        .trains
-        .iter()
-        .enumerate()
-        .map(|(n, a)| {
-            vec![
-                (n + 1).to_string(),
-                stages(&a.train),
-                a.train.ratio.to_string(),
-                a.period_days.to_string(),
-                a.train.error.to_f64().to_string(),
-                a.drift_days_per_year.to_string(),
-                a.days_to_one_day.map_or(String::new(), |d| d.to_string()),
-            ]
-        })
-        .collect();
+    let extra = ["period_days", "drift_days_per_year", "days_to_one_day"].map(String::from);
     write_rows(
         w,
-        &["rank", "driver>driven", "ratio", "period_days", "error", "drift_days_per_year", "days_to_one_day"],
-        rows,
+        &p.problem,
+        false,
+        &extra,
+        &p.trains,
+        |a| &a.train,
+        |a| {
+            vec![
+                decimals(a.period_days, 9),
+                small(a.drift_days_per_year),
+                a.days_to_one_day.map_or(String::new(), |d| decimals(d, 0)),
+            ]
+        },
     )
 }

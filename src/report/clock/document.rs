@@ -105,13 +105,7 @@ pub fn going(p: &GoingPlan) -> Document {
         s.rate_tolerance_s_per_day
     ));
     d.blank();
-    d.line(count_line(
-        p.count,
-        p.trains.len(),
-        p.complete,
-        "train",
-        "by rate error, then stages, then teeth",
-    ));
+    d.line(count_line(p.count, p.trains.len(), p.complete, "train", "by rate error, then meshes, then size"));
     if !p.trains.is_empty() {
         let driving = if s.from_turns_per_hour == crate::numbers::rational::Ratio::integer(1) {
             "centre"
@@ -187,7 +181,12 @@ fn mesh_cells(t: &Train, hour_work: bool) -> Vec<String> {
 pub fn motion(p: &MotionPlan) -> Document {
     let mut d = Document::new();
     let s = &p.spec;
-    d.title(format!("Motion work: {} input turns per hand turn (i = {})", s.ratio_text, s.ratio));
+    // A named dial (`hour`, `24h`, `week`) is the hand the train drives.
+    if matches!(s.ratio_text.as_str(), "hour" | "12h" | "24h" | "week") {
+        d.title(format!("Motion work for the {} hand: {} input turns per hand turn", s.ratio_text, s.ratio));
+    } else {
+        d.title(format!("Motion work: {} input turns per hand turn", s.ratio));
+    }
     d.line(format!(
         "Gears: {}; pinions {} leaves, wheels {}; stages {}; tolerance {}",
         s.pool.describe(),
@@ -207,7 +206,7 @@ pub fn motion(p: &MotionPlan) -> Document {
         fmt_num(s.min_contact_ratio)
     ));
     d.blank();
-    d.line(count_line(p.count, p.trains.len(), p.complete, "train", "by error, then stages, then teeth"));
+    d.line(count_line(p.count, p.trains.len(), p.complete, "train", "by error, then meshes, then size"));
     if !p.trains.is_empty() {
         let rows: Vec<Vec<String>> = p
             .trains
@@ -280,7 +279,7 @@ pub fn astro(p: &AstroPlan) -> Document {
         describe_tolerance(s.tolerance.to_f64())
     ));
     d.blank();
-    d.line(count_line(p.count, p.trains.len(), p.complete, "train", "by error, then stages, then teeth"));
+    d.line(count_line(p.count, p.trains.len(), p.complete, "train", "by error, then meshes, then size"));
     if !p.trains.is_empty() {
         let rows: Vec<Vec<String>> = p
             .trains

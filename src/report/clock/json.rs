@@ -1,21 +1,22 @@
 //! The JSON format for clock trains. Each train is the train object of `search`
-//! ([`crate::report::search::json::TrainJson`]) plus the clock's own fields:
+//! ([`crate::report::fields::TrainJson`]) plus the clock's own fields:
 //!
 //! ```text
 //! going:  {"arbors": [{"arbor": "centre", "turns_per_hour": f64}, …], "rate_s_per_day": f64}
-//! motion: {"gears": [{"driver": "cannon pinion", "driven": "minute wheel"}, …]}
+//! motion: {"stage_names": [{"driver": "cannon pinion", "driven": "minute wheel"}, …]}
 //! astro:  {"period_days": f64, "drift_days_per_year": f64, "days_to_one_day": f64|null}
 //! ```
-//! A document is `{"kind": "going"|"motion"|"astro", …what was asked…, "count", "complete",
-//! "convention", "direction", "trains": […]}`; an astro document adds `"convergents"`.
+//! A document is `{"schema_version", "clock_train": "going"|"motion"|"astro", …what was asked…, "count", "complete",
+//! "convention", "train_runs", "trains": […]}`; an astro document adds `"convergents"`.
 
-use std::io::{self, Write};
+use std::io::Write;
 
 use serde::Serialize;
 
 use super::document::arbor_names;
-use crate::report::search::json::TrainJson;
+use crate::report::fields::{TargetJson, TrainJson};
 use crate::report::words::CONVENTION;
+use crate::report::{write_json, RenderError, SCHEMA_VERSION};
 use crate::trades::clock::astro::AstroPlan;
 use crate::trades::clock::going::GoingPlan;
 use crate::trades::clock::motion::{stage_names, MotionPlan};
@@ -36,7 +37,8 @@ struct GoingTrainJson {
 
 #[derive(Serialize)]
 struct GoingDoc {
-    kind: &'static str,
+    schema_version: u32,
+    clock_train: &'static str,
     period_s: f64,
     beats_per_hour: f64,
     escape_teeth: u32,
@@ -49,17 +51,12 @@ struct GoingDoc {
     count: u64,
     complete: bool,
     convention: &'static str,
-    direction: &'static str,
+    train_runs: &'static str,
     trains: Vec<GoingTrainJson>,
 }
 
-fn write_doc<T: Serialize>(doc: &T, w: &mut dyn Write) -> io::Result<()> {
-    serde_json::to_writer_pretty(&mut *w, doc).map_err(io::Error::other)?;
-    writeln!(w)
-}
-
 /// Write a going-train search as one JSON document.
-pub fn write_going(p: &GoingPlan, w: &mut dyn Write) -> io::Result<()> {
+pub fn write_going(p: &GoingPlan, w: &mut dyn Write) -> Result<(), RenderError> {
     let s = &p.spec;
     let (ratio, exact) = s.needed_ratio();
     let driving = if s.from_turns_per_hour == crate::numbers::rational::Ratio::integer(1) {
@@ -68,7 +65,8 @@ pub fn write_going(p: &GoingPlan, w: &mut dyn Write) -> io::Result<()> {
         "driving"
     };
     let doc = GoingDoc {
-        kind: "going",
+        schema_version: SCHEMA_VERSION,
+        clock_train: "going",
         period_s: s.beat.period_s(),
         beats_per_hour: s.beat.beats_per_hour,
         escape_teeth: s.escapement.teeth,
@@ -81,7 +79,7 @@ pub fn write_going(p: &GoingPlan, w: &mut dyn Write) -> io::Result<()> {
         count: p.count,
         complete: p.complete,
         convention: CONVENTION,
-        direction: "input = driving arbor, output = escape arbor; wheels drive pinions, so i < 1",
+        train_runs: "input = driving arbor, output = escape arbor; wheels drive pinions, so i < 1",
         trains: p
             .trains
             .iter()
@@ -96,7 +94,7 @@ pub fn write_going(p: &GoingPlan, w: &mut dyn Write) -> io::Result<()> {
             })
             .collect(),
     };
-    write_doc(&doc, w)
+    write_json(&doc, w)
 }
 
 #[derive(Serialize)]
@@ -109,45 +107,50 @@ struct NamesJson {
 struct MotionTrainJson {
     #[serde(flatten)]
     train: TrainJson,
-    gears: Vec<NamesJson>,
+    stage_names: Vec<NamesJson>,
 }
 
 #[derive(Serialize)]
 struct MotionDoc {
-    kind: &'static str,
-    ratio: String,
-    tolerance: f64,
+    schema_version: u32,
+    clock_train: &'static str,
+    target: TargetJson,
     coaxial: bool,
     allow_undercut: bool,
     min_contact_ratio: f64,
     count: u64,
     complete: bool,
     convention: &'static str,
-    direction: &'static str,
+    train_runs: &'static str,
     trains: Vec<MotionTrainJson>,
 }
 
 /// Write a motion-work search as one JSON document.
-pub fn write_motion(p: &MotionPlan, w: &mut dyn Write) -> io::Result<()> {
+pub fn write_motion(p: &MotionPlan, w: &mut dyn Write) -> Result<(), RenderError> {
     let s = &p.spec;
     let doc = MotionDoc {
-        kind: "motion",
-        ratio: s.ratio.to_string(),
-        tolerance: s.tolerance.to_f64(),
+        schema_version: SCHEMA_VERSION,
+        clock_train: "motion",
+        target: TargetJson {
+            ratio: s.ratio_text.clone(),
+            value: s.ratio.to_f64(),
+            tolerance: s.tolerance.to_f64(),
+            exact: s.ratio.to_string(),
+        },
         coaxial: s.coaxial,
         allow_undercut: s.allow_undercut,
         min_contact_ratio: s.min_contact_ratio,
         count: p.count,
         complete: p.complete,
         convention: CONVENTION,
-        direction:
+        train_runs:
             "input = minute (cannon) arbor or the arbor given, output = hand; pinions drive wheels, so i > 1",
         trains: p
             .trains
             .iter()
             .map(|t| MotionTrainJson {
                 train: TrainJson::from_train(t),
-                gears: (0..t.stages.len())
+                stage_names: (0..t.stages.len())
                     .map(|k| {
                         let (driver, driven) = stage_names(k, p.is_hour_motion_work(t));
                         NamesJson { driver, driven }
@@ -156,7 +159,7 @@ pub fn write_motion(p: &MotionPlan, w: &mut dyn Write) -> io::Result<()> {
             })
             .collect(),
     };
-    write_doc(&doc, w)
+    write_json(&doc, w)
 }
 
 #[derive(Serialize)]
@@ -177,36 +180,41 @@ struct ConvergentJson {
 
 #[derive(Serialize)]
 struct AstroDoc {
-    kind: &'static str,
+    schema_version: u32,
+    clock_train: &'static str,
     period: String,
-    period_days: String,
+    target_period_days: String,
     source: &'static str,
     input_turns_per_day: u64,
-    ratio: String,
-    tolerance: f64,
+    target: TargetJson,
     count: u64,
     complete: bool,
     convention: &'static str,
-    direction: &'static str,
+    train_runs: &'static str,
     trains: Vec<AstroTrainJson>,
     convergents: Vec<ConvergentJson>,
 }
 
 /// Write an astronomical-train search as one JSON document.
-pub fn write_astro(p: &AstroPlan, w: &mut dyn Write) -> io::Result<()> {
+pub fn write_astro(p: &AstroPlan, w: &mut dyn Write) -> Result<(), RenderError> {
     let s = &p.spec;
     let doc = AstroDoc {
-        kind: "astro",
+        schema_version: SCHEMA_VERSION,
+        clock_train: "astro",
         period: s.period.name.clone(),
-        period_days: s.period.days.to_string(),
+        target_period_days: s.period.days.to_string(),
         source: s.period.source,
         input_turns_per_day: s.from.turns_per_day(),
-        ratio: s.ratio().to_string(),
-        tolerance: s.tolerance.to_f64(),
+        target: TargetJson {
+            ratio: s.ratio().to_string(),
+            value: s.ratio().to_f64(),
+            tolerance: s.tolerance.to_f64(),
+            exact: s.ratio().to_string(),
+        },
         count: p.count,
         complete: p.complete,
         convention: CONVENTION,
-        direction: "input = daily or hourly arbor, output = dial turning once per period",
+        train_runs: "input = daily or hourly arbor, output = dial turning once per period",
         trains: p
             .trains
             .iter()
@@ -227,5 +235,5 @@ pub fn write_astro(p: &AstroPlan, w: &mut dyn Write) -> io::Result<()> {
             })
             .collect(),
     };
-    write_doc(&doc, w)
+    write_json(&doc, w)
 }

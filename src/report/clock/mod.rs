@@ -29,7 +29,7 @@ impl Report for GoingPlan {
     }
 
     fn json(&self, w: &mut dyn Write) -> Result<(), RenderError> {
-        Ok(json::write_going(self, w)?)
+        json::write_going(self, w)
     }
 }
 
@@ -51,7 +51,7 @@ impl Report for MotionPlan {
     }
 
     fn json(&self, w: &mut dyn Write) -> Result<(), RenderError> {
-        Ok(json::write_motion(self, w)?)
+        json::write_motion(self, w)
     }
 }
 
@@ -73,6 +73,6 @@ impl Report for AstroPlan {
     }
 
     fn json(&self, w: &mut dyn Write) -> Result<(), RenderError> {
-        Ok(json::write_astro(self, w)?)
+        json::write_astro(self, w)
     }
 }

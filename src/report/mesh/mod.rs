@@ -6,10 +6,11 @@
 //! The JSON contract:
 //!
 //! ```text
-//! {"inputs": {"teeth": [z1, z2], "module_mm": f64, "diametral_pitch": f64 (inch input only),
+//! {"schema_version": 2,
+//!  "inputs": {"teeth": [z1, z2], "module_mm": f64, "diametral_pitch": f64 (inch input only),
 //!             "pressure_angle_deg": f64, "rack": {"addendum", "dedendum", "root_radius"},
 //!             "mounting": {"shifted": {"shift": [x1, x2]}}
-//!                       | {"at_centre_distance": {"centre_distance_mm": f64,
+//!                       | {"at_centre_distance": {"working_centre_distance_mm": f64,
 //!                                                 "shift_sum_range": [lo, hi]}}},
 //!  "limits": {"min_contact_ratio", "min_tip_thickness_modules", "allow_undercut"},
 //!  "geometry": { every field of MeshGeometry, lengths in mm, angles in degrees },
@@ -24,7 +25,7 @@ use std::io::Write;
 use serde::Serialize;
 
 use super::words::MESH_CAUTION;
-use super::{write_json, Completion, Document, RenderError, Report, Table};
+use super::{write_json, Completion, Document, RenderError, Report, Table, SCHEMA_VERSION};
 use crate::geometry::{MeshDefect, MeshGeometry, MeshLimits, RackProfile, MM_PER_INCH};
 use crate::model::pool::fmt_num;
 
@@ -40,6 +41,7 @@ pub enum MountingInput {
     /// Cut by profile shift to mesh tight at this working centre distance.
     AtCentreDistance {
         /// Working centre distance asked for, mm.
+        #[serde(rename = "working_centre_distance_mm")]
         centre_distance_mm: f64,
         /// Range the shift sum x1 + x2 was allowed to take, in modules (ends may be infinite).
         shift_sum_range: [f64; 2],
@@ -98,6 +100,7 @@ impl Report for MeshReport<'_> {
 
 #[derive(Serialize)]
 struct Doc<'a> {
+    schema_version: u32,
     inputs: &'a MeshInputs,
     limits: &'a MeshLimits,
     geometry: &'a MeshGeometry,
@@ -110,6 +113,7 @@ struct Doc<'a> {
 /// Write `report` as one pretty-printed JSON document and a newline.
 pub fn json(report: &MeshReport, w: &mut dyn Write) -> Result<(), RenderError> {
     let doc = Doc {
+        schema_version: SCHEMA_VERSION,
         inputs: report.inputs,
         limits: report.limits,
         geometry: report.geometry,

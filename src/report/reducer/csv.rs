@@ -1,48 +1,44 @@
-//! The CSV format for reducers: a header row, then one row per train, best first. Per-stage
-//! values are space-separated, input stage first. A sink.
+//! The CSV format for reducers: a header row, then one row per train, best first, one value per
+//! cell: the train's own columns, the reducer's figures (balance, hunting pairs, envelope,
+//! output speed), then the numbered stage columns with the worked-out meshes and whether each
+//! pair is hunting. It computes nothing about gears.
 
 use std::io::{self, Write};
 
-use crate::trades::reducer::hunting::{non_hunting, spread};
+use crate::report::fields::{decimals, figure, mm, train_cells, StageColumns, TrainJson, TRAIN_HEADER};
+use crate::trades::reducer::hunting::{is_hunting, non_hunting, spread};
 use crate::trades::reducer::{centre_distance_sum_mm, largest_tip_mm, ReducerPlan};
 
 /// Write a reducer search as CSV.
 pub fn write(p: &ReducerPlan, w: &mut dyn Write) -> io::Result<()> {
+    let n_stages = p.problem.stages.hi as usize;
+    let stages = StageColumns { stages: n_stages, mesh: true };
     let mut c = ::csv::Writer::from_writer(w);
-    c.write_record([
-        "rank",
-        "ratio",
-        "value",
-        "error",
-        "modules",
-        "pinion>gear",
-        "shifts",
-        "centre_distances_mm",
-        "largest_tip_mm",
-        "centre_distance_sum_mm",
-        "balance",
-        "non_hunting",
-        "output_rpm",
-    ])?;
+    let mut head = vec!["rank".to_string()];
+    head.extend(TRAIN_HEADER.iter().map(|s| s.to_string()));
+    head.extend(
+        ["balance", "non_hunting_pairs", "largest_tip_diameter_mm", "centre_distance_sum_mm", "output_rpm"]
+            .map(String::from),
+    );
+    head.extend(stages.header());
+    head.extend((1..=n_stages).map(|k| format!("stage{k}_hunting")));
+    c.write_record(&head)?;
     for (n, t) in p.trains.iter().enumerate() {
-        let join = |f: &dyn Fn(&crate::model::train::Stage) -> String| {
-            t.stages.iter().map(f).collect::<Vec<_>>().join(" ")
-        };
-        c.write_record([
-            (n + 1).to_string(),
-            t.ratio.to_string(),
-            t.ratio.to_f64().to_string(),
-            t.error.to_f64().to_string(),
-            join(&|s| s.module_mm.to_string()),
-            join(&|s| format!("{}>{}", s.driver.teeth, s.driven.teeth)),
-            join(&|s| s.mesh.map_or("0/0".into(), |m| format!("{}/{}", m.shift[0], m.shift[1]))),
-            join(&|s| s.mesh.map_or(s.centre_distance_mm(), |m| m.centre_distance_mm).to_string()),
-            largest_tip_mm(t).to_string(),
-            centre_distance_sum_mm(t).to_string(),
-            spread(t).to_string(),
+        let view = TrainJson::from_train(t);
+        let mut row = vec![(n + 1).to_string()];
+        row.extend(train_cells(&view));
+        row.extend([
+            figure(spread(t)),
             non_hunting(t).to_string(),
-            p.spec.input_rpm.map_or(String::new(), |rpm| (rpm / t.ratio.to_f64()).to_string()),
-        ])?;
+            mm(largest_tip_mm(t)),
+            mm(centre_distance_sum_mm(t)),
+            p.spec.input_rpm.map_or(String::new(), |rpm| decimals(rpm / t.ratio.to_f64(), 3)),
+        ]);
+        row.extend(stages.cells(&view));
+        row.extend(
+            (0..n_stages).map(|k| t.stages.get(k).map_or(String::new(), |s| is_hunting(s).to_string())),
+        );
+        c.write_record(&row)?;
     }
     c.flush()
 }

@@ -1,102 +1,58 @@
-//! The CSV format: a header, then one row per train, best first. Stage columns repeat per stage
-//! (`stage1_driver`, `stage1_driven`, `stage1_module`, `stage1_centre_distance`, and with mesh
-//! geometry `stage1_shift_driver`, `stage1_shift_driven`, `stage1_working_centre_distance`,
-//! `stage1_contact_ratio`) up to the most stages the search allowed, so every row has the same
-//! columns. [`header`] and [`row`] also serve the streaming mode.
+//! The CSV format of a search: a header, then one row per train, best first. A row is `rank`,
+//! the train's own columns ([`crate::report::fields::TRAIN_HEADER`]) and the stage columns of
+//! [`crate::report::fields::StageColumns`], up to the most stages the search allowed, so every
+//! row has the same columns. [`Layout`] also serves the streaming mode, where the first column
+//! is `order`, the order trains were found in.
 
 use std::io::{self, Write};
 
-use super::SearchReport;
+use super::json::Doc;
 use crate::model::problem::Problem;
-use crate::model::train::Train;
+use crate::report::fields::{train_cells, StageColumns, TrainJson, TRAIN_HEADER};
 
-const PLAIN: &[&str] = &["driver", "driven", "module", "centre_distance"];
-const GEOMETRY: &[&str] = &[
-    "driver",
-    "driven",
-    "module",
-    "centre_distance",
-    "shift_driver",
-    "shift_driven",
-    "working_centre_distance",
-    "contact_ratio",
-];
+/// The columns of a search's CSV.
+#[derive(Debug, Clone, Copy)]
+pub struct Layout {
+    /// The stage columns.
+    pub stages: StageColumns,
+}
 
-fn stage_fields(problem: &Problem) -> &'static [&'static str] {
-    if problem.mesh.is_some() {
-        GEOMETRY
-    } else {
-        PLAIN
+impl Layout {
+    /// The layout for the trains of `problem`.
+    pub fn of(problem: &Problem) -> Layout {
+        Layout { stages: StageColumns { stages: problem.stages.hi as usize, mesh: problem.mesh.is_some() } }
+    }
+
+    fn of_doc(doc: &Doc) -> Layout {
+        let most = doc.stage_counts.iter().copied().max().unwrap_or(0);
+        Layout { stages: StageColumns { stages: most, mesh: doc.mesh_checks } }
+    }
+
+    /// The header row; `first` names the first column (`rank` or `order`).
+    pub fn header(&self, first: &str) -> Vec<String> {
+        let mut head = vec![first.to_string()];
+        head.extend(TRAIN_HEADER.iter().map(|s| s.to_string()));
+        head.extend(self.stages.header());
+        head
+    }
+
+    /// One train's row; `n` is its rank (or its order in a stream), from 1.
+    pub fn row(&self, n: u64, t: &TrainJson) -> Vec<String> {
+        let mut row = vec![n.to_string()];
+        row.extend(train_cells(t));
+        row.extend(self.stages.cells(t));
+        row
     }
 }
 
-/// The header row for `problem`.
-pub fn header(problem: &Problem) -> Vec<String> {
-    let mut head: Vec<String> =
-        ["rank", "ratio", "value", "error", "meshes", "direction", "size", "span"].map(String::from).to_vec();
-    for n in 1..=problem.stages.hi as usize {
-        for f in stage_fields(problem) {
-            head.push(format!("stage{n}_{f}"));
-        }
-    }
-    head
-}
-
-/// One train's row; `rank` is its place in the listing (1-based; in streaming, its order).
-pub fn row(problem: &Problem, rank: u64, t: &Train) -> Vec<String> {
-    let fields = stage_fields(problem);
-    let mut row = vec![
-        rank.to_string(),
-        t.ratio.to_string(),
-        t.ratio.to_f64().to_string(),
-        fmt_error(t.error.to_f64()),
-        t.meshes().to_string(),
-        t.direction().as_str().to_string(),
-        t.size().to_string(),
-        t.span_mm().to_string(),
-    ];
-    for n in 0..problem.stages.hi as usize {
-        match t.stages.get(n) {
-            Some(s) => {
-                row.extend([
-                    s.driver.teeth.to_string(),
-                    s.driven.teeth.to_string(),
-                    s.module_mm.to_string(),
-                    s.centre_distance_mm().to_string(),
-                ]);
-                if fields.len() > PLAIN.len() {
-                    let f = |v: Option<f64>| v.map_or(String::new(), |v| v.to_string());
-                    let m = s.mesh;
-                    row.extend([
-                        f(m.map(|m| m.shift[0])),
-                        f(m.map(|m| m.shift[1])),
-                        f(m.map(|m| m.centre_distance_mm)),
-                        f(m.map(|m| m.contact_ratio)),
-                    ]);
-                }
-            }
-            None => row.extend(std::iter::repeat_n(String::new(), fields.len())),
-        }
-    }
-    row
-}
-
-/// Write the report as CSV.
-pub fn write(report: &SearchReport, w: &mut dyn Write) -> io::Result<()> {
+/// Write the search as CSV.
+pub fn write(doc: &Doc, w: &mut dyn Write) -> io::Result<()> {
+    let layout = Layout::of_doc(doc);
     let mut out = ::csv::Writer::from_writer(w);
-    out.write_record(header(report.problem))?;
-    for (i, t) in report.outcome.trains.iter().enumerate() {
-        out.write_record(row(report.problem, i as u64 + 1, t))?;
+    out.write_record(layout.header("rank"))?;
+    for (i, t) in doc.trains.iter().enumerate() {
+        out.write_record(layout.row(i as u64 + 1, t))?;
     }
     out.flush()?;
     Ok(())
-}
-
-/// `0` for exact, else scientific notation (`1.2441610998071287e-9`) so small errors stay legible.
-fn fmt_error(e: f64) -> String {
-    if e == 0.0 {
-        "0".to_string()
-    } else {
-        format!("{e:e}")
-    }
 }

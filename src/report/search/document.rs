@@ -1,99 +1,102 @@
 //! A search laid out for people: a short header saying what was searched, the count, the best
 //! trains in columns, the mesh geometry and the reasons for leaving pairings out when asked,
-//! and the convention and caution as a footer.
+//! and the convention and caution as a footer. Made from the search's JSON document, so a
+//! merged split search reads exactly as one run.
 
-use super::SearchReport;
+use super::json::Doc;
 use crate::model::pool::fmt_num;
-use crate::model::train::Train;
-use crate::report::words::{describe_error, describe_tolerance, group_thousands, CAUTION, CONVENTION};
+use crate::report::fields::TrainJson;
+use crate::report::words::{
+    describe_error_f64, describe_tolerance, group_thousands, plain_words, CAUTION, CONVENTION,
+};
 use crate::report::{Document, Table};
 
 /// The search as a document.
-pub fn document(report: &SearchReport) -> Document {
+pub fn document(doc: &Doc) -> Document {
     let mut d = Document::new();
-    let p = report.problem;
-    let o = report.outcome;
-    let t = &p.target;
-    let exact = t.ratio.to_string();
-    if exact == t.text {
-        d.title(format!("Target ratio {}, tolerance {}", t.text, describe_tolerance(t.tolerance.to_f64())));
+    let t = &doc.target;
+    if t.exact == t.ratio {
+        d.title(format!("Target ratio {}, tolerance {}", t.ratio, describe_tolerance(t.tolerance)));
     } else {
         d.title(format!(
             "Target ratio {} (= {} ≈ {}), tolerance {}",
-            t.text,
-            exact,
-            fmt_value(t.ratio.to_f64()),
-            describe_tolerance(t.tolerance.to_f64())
+            t.ratio,
+            t.exact,
+            fmt_value(t.value),
+            describe_tolerance(t.tolerance)
         ));
     }
-    d.line(format!("Gears: {}", p.pool.describe()));
-    let counts: Vec<String> = p.stage_counts().iter().map(|n| n.to_string()).collect();
-    d.line(format!("Stages: {} ({} allowed stage pairings)", counts.join(", "), o.stage_options));
+    d.line(format!("Gears: {}", doc.gears));
+    let counts: Vec<String> = doc.stage_counts.iter().map(|n| n.to_string()).collect();
+    d.line(format!(
+        "Stages: {} ({} allowed stage pairings)",
+        counts.join(", "),
+        group_thousands(doc.stage_options as u64)
+    ));
     d.blank();
-    let keys: Vec<&str> = p
-        .rank
-        .iter()
-        .map(|k| match (k, &p.extra_key) {
-            (crate::model::rank::RankKey::Extra, Some(x)) => x.name,
-            _ => k.name(),
-        })
-        .collect();
-    let status = if o.complete { "" } else { "INCOMPLETE (interrupted): at least " };
-    if let Some(front) = o.pareto_size.filter(|_| o.count > 0) {
+    let keys = doc.ranked_by.join(", then ");
+    let status = if doc.complete { "" } else { "INCOMPLETE (interrupted): at least " };
+    let listed = doc.trains.len();
+    if let Some(front) = doc.pareto_size.filter(|_| doc.count > 0) {
         d.line(format!(
             "{status}{} trains meet every constraint; {} of them form the Pareto front on error, meshes \
              and size (none beats them on all three){}:",
-            group_thousands(o.count),
+            group_thousands(doc.count),
             group_thousands(front as u64),
-            if o.trains.len() == front {
-                format!(", listed by {}", keys.join(", then "))
+            if listed == front {
+                format!(", listed by {keys}")
             } else {
-                format!("; the first {} by {}", o.trains.len(), keys.join(", then "))
+                format!("; the first {listed} by {keys}")
             }
         ));
     } else {
-        match o.count {
+        match doc.count {
             0 => d.line(format!("{status}No train meets every constraint.")),
             1 => d.line(format!("{status}1 train meets every constraint.")),
             n => d.line(format!(
-                "{status}{} trains meet every constraint; {} by {}:",
+                "{status}{} trains meet every constraint; {} by {keys}:",
                 group_thousands(n),
-                if o.trains.len() as u64 == n {
+                if listed as u64 == n {
                     "all listed".to_string()
                 } else {
-                    format!("the best {} listed", o.trains.len())
+                    format!("the best {listed} listed")
                 },
-                keys.join(", then ")
             )),
         }
     }
-    if let Some(s) = report.shard {
+    if let Some(s) = &doc.shard {
         d.line(format!("(part {s} of a split search: combine the parts' JSON with gearsieve merge)"));
     }
-    if !o.trains.is_empty() {
+    if !doc.trains.is_empty() {
         d.blank();
-        let rows: Vec<[String; 6]> = o
+        let working =
+            doc.trains.iter().any(|t| t.stages.iter().any(|s| s.working_centre_distance_mm.is_some()));
+        let rows: Vec<Vec<String>> = doc
             .trains
             .iter()
             .enumerate()
             .map(|(i, tr)| {
-                [
+                vec![
                     (i + 1).to_string(),
-                    tr.ratio.to_string(),
-                    describe_error(&tr.error),
-                    tr.direction().as_str().to_string(),
-                    tr.size().to_string(),
-                    stages_text(tr),
+                    tr.ratio.clone(),
+                    describe_error_f64(tr.error),
+                    tr.direction.as_str().to_string(),
+                    tr.size.to_string(),
+                    stages_text(tr, doc.mixed_modules),
                 ]
             })
             .collect();
-        let head = ["#", "ratio", "error", "output", "teeth", "stages: driver→driven (centre distance mm)"];
-        let rows: Vec<Vec<String>> = rows.into_iter().map(Vec::from).collect();
+        let stages = if working {
+            "stages: driver→driven (working centre distance mm)"
+        } else {
+            "stages: driver→driven (reference centre distance mm)"
+        };
+        let head = ["#", "ratio", "error", "direction", "size", stages];
         d.table(Table::new(&head, &[0, 2, 4]).with_rows(rows));
     }
-    meshes(report, &mut d);
-    if report.explain {
-        explain(report, &mut d);
+    meshes(doc, &mut d);
+    if doc.explain {
+        explain(doc, &mut d);
     }
     d.blank();
     d.note(format!("{CONVENTION}."));
@@ -102,31 +105,26 @@ pub fn document(report: &SearchReport) -> Document {
 }
 
 /// `20→75 (47.5)  12→120 (66)`: the centre distance is the working one when the mesh was worked
-/// out, else the standard one; module shown per stage when the train mixes modules; labels in
-/// brackets when the stock has them.
-fn stages_text(t: &Train) -> String {
-    let mixed = t
-        .stages
-        .windows(2)
-        .any(|w| w[0].module_mm != w[1].module_mm || w[0].pressure_angle_deg != w[1].pressure_angle_deg);
+/// out, else the reference one; module shown per stage when the gears come in several modules;
+/// labels in brackets when the stock has them.
+fn stages_text(t: &TrainJson, mixed_modules: bool) -> String {
+    let mixed = mixed_modules
+        || t.stages
+            .windows(2)
+            .any(|w| w[0].module_mm != w[1].module_mm || w[0].pressure_angle_deg != w[1].pressure_angle_deg);
     t.stages
         .iter()
         .map(|s| {
-            let label = |l: &Vec<String>| {
-                if l.is_empty() {
-                    String::new()
-                } else {
-                    format!("[{}]", l.join("/"))
-                }
-            };
+            let label =
+                |l: &Vec<String>| if l.is_empty() { String::new() } else { format!("[{}]", l.join("/")) };
             let module = if mixed { format!("m{} ", fmt_num(s.module_mm)) } else { String::new() };
             format!(
                 "{module}{}{}→{}{} ({})",
-                s.driver.teeth,
-                label(&s.driver.labels),
-                s.driven.teeth,
-                label(&s.driven.labels),
-                fmt_num(s.mesh.map_or_else(|| s.centre_distance_mm(), |m| m.centre_distance_mm))
+                s.driver,
+                label(&s.driver_labels),
+                s.driven,
+                label(&s.driven_labels),
+                fmt_num(s.working_centre_distance_mm.unwrap_or(s.reference_centre_distance_mm))
             )
         })
         .collect::<Vec<_>>()
@@ -134,9 +132,31 @@ fn stages_text(t: &Train) -> String {
 }
 
 /// Per-stage mesh geometry of the listed trains, when the search worked it out.
-fn meshes(report: &SearchReport, d: &mut Document) {
-    let trains = &report.outcome.trains;
-    if !trains.iter().any(|t| t.stages.iter().any(|s| s.mesh.is_some())) {
+fn meshes(doc: &Doc, d: &mut Document) {
+    let mut rows = Vec::new();
+    for (i, t) in doc.trains.iter().enumerate() {
+        for (n, s) in t.stages.iter().enumerate() {
+            let (Some(aw), Some(x), Some(alpha), Some(eps), Some(da)) = (
+                s.working_centre_distance_mm,
+                s.shift,
+                s.working_pressure_angle_deg,
+                s.contact_ratio,
+                s.tip_diameter_mm,
+            ) else {
+                continue;
+            };
+            rows.push(vec![
+                if n == 0 { (i + 1).to_string() } else { String::new() },
+                format!("{}→{}", s.driver, s.driven),
+                format!("{aw:.3}"),
+                format!("{:+.3}/{:+.3}", x[0], x[1]),
+                format!("{alpha:.2}°"),
+                format!("{eps:.2}"),
+                format!("{:.2}/{:.2}", da[0], da[1]),
+            ]);
+        }
+    }
+    if rows.is_empty() {
         return;
     }
     d.blank();
@@ -144,22 +164,6 @@ fn meshes(report: &SearchReport, d: &mut Document) {
         "Meshes (x = profile shift in modules, driver/driven; aw = working centre distance mm; \
          αw = working pressure angle; εα = contact ratio; da = tip diameters mm):",
     );
-    let mut rows = Vec::new();
-    for (i, t) in trains.iter().enumerate() {
-        for (n, s) in t.stages.iter().enumerate() {
-            let Some(m) = &s.mesh else { continue };
-            let rank = if n == 0 { (i + 1).to_string() } else { String::new() };
-            rows.push(vec![
-                rank,
-                format!("{}→{}", s.driver.teeth, s.driven.teeth),
-                format!("{:.3}", m.centre_distance_mm),
-                format!("{:+.3}/{:+.3}", m.shift[0], m.shift[1]),
-                format!("{:.2}°", m.working_pressure_angle_deg),
-                format!("{:.2}", m.contact_ratio),
-                format!("{:.2}/{:.2}", m.tip_diameter_mm[0], m.tip_diameter_mm[1]),
-            ]);
-        }
-    }
     let head = ["#", "stage", "aw mm", "x driver/driven", "αw", "εα", "da mm driver/driven"];
     let table = Table::new(&head, &[0, 1, 2, 4])
         .headless_in_text()
@@ -173,16 +177,18 @@ fn meshes(report: &SearchReport, d: &mut Document) {
 }
 
 /// Why stage pairings were left out by the mesh checks.
-fn explain(report: &SearchReport, d: &mut Document) {
+fn explain(doc: &Doc, d: &mut Document) {
     d.blank();
-    let r = &report.outcome.rejected;
+    let r = &doc.rejected;
     if r.is_empty() {
         d.line("The mesh checks left nothing out.");
         return;
     }
     d.heading("Left out by the mesh checks (count, reason, first example):");
-    let rows =
-        r.iter().map(|x| vec![group_thousands(x.count), format!("{}: {}", x.kind, x.example)]).collect();
+    let rows = r
+        .iter()
+        .map(|x| vec![group_thousands(x.count), format!("{}: {}", plain_words(&x.kind), x.example)])
+        .collect();
     let table = Table::new(&["count", "reason: first example"], &[0]).headless_in_text().spaced(2, 2);
     d.table(table.min_widths(&[9]).with_rows(rows));
 }

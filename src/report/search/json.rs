@@ -1,31 +1,50 @@
-//! The JSON format, a contract scripts rely on:
+//! The JSON format of a search, a contract scripts rely on (every key is described in
+//! `docs/output-fields.md`):
 //!
 //! ```text
-//! {"target": {"ratio": "<as given>", "value": f64, "tolerance": f64, "exact": "p/q"},
-//!  "count": n, "complete": bool, "convention": "…", "rank": ["error", …], "limit": k,
+//! {"schema_version": 2,
+//!  "target": {"ratio": "<as given>", "value": f64, "tolerance": f64, "exact": "p/q"},
+//!  "gears": "<the gears searched>", "stage_counts": [n, …], "stage_options": n,
+//!  "mesh_checks": bool, "mixed_modules": bool,
+//!  "count": n, "complete": bool, "convention": "…", "ranked_by": ["error", …], "limit": k,
 //!  "trains": [{"ratio": "p/q", "value": f64, "error": signed i/R − 1, "meshes": n,
-//!              "direction": "same"|"opposite", "size": n, "span": mm,
-//!              "stages": [{"driver": z, "driven": z, "module": mm, "centre_distance": mm,
-//!                          "pressure_angle": deg, …}]}]}
+//!              "direction": "same"|"opposite", "size": n, "span_mm": mm,
+//!              "stages": [{"driver": z, "driven": z, "module_mm": mm,
+//!                          "pressure_angle_deg": deg, "reference_centre_distance_mm": mm,
+//!                          …}]}]}
 //! ```
-//! Field names and meanings are stable; fields may be added. The document reads back into
-//! [`Doc`] so that `gearsieve merge` can combine the parts of a split search and print exactly
-//! what one run prints. With `--limit 0` the trains stream as JSON lines instead (one
-//! [`TrainJson`] per line, then one [`Summary`] line).
+//! Field names and meanings are stable within a `schema_version`; fields may be added. The
+//! document is the whole of a search's result: the table, Markdown and CSV formats are made
+//! from it, and it reads back into [`Doc`] so that `gearsieve merge` can combine the parts of a
+//! split search and print exactly what one run prints, in any format. With `--limit 0` the
+//! trains stream as JSON lines instead (one [`TrainJson`] per line, then one [`Summary`] line).
 
 use std::io::{self, Write};
 
 use serde::{Deserialize, Serialize};
 
 use super::SearchReport;
-use crate::model::train::{Direction, Train};
+use crate::report::fields::{TargetJson, TrainJson};
 use crate::report::words::CONVENTION;
+use crate::report::SCHEMA_VERSION;
 
 /// The whole JSON document of a search.
 #[derive(Serialize, Deserialize, Debug, Clone, PartialEq)]
 pub struct Doc {
+    /// The version of this contract, [`crate::report::SCHEMA_VERSION`].
+    pub schema_version: u32,
     /// What was asked.
     pub target: TargetJson,
+    /// The gears searched, in words.
+    pub gears: String,
+    /// The stage counts searched.
+    pub stage_counts: Vec<usize>,
+    /// Stage pairings allowed by the per-stage limits.
+    pub stage_options: usize,
+    /// Whether every mesh was worked out and checked (profile shift, contact ratio, …).
+    pub mesh_checks: bool,
+    /// Whether the gears come in more than one module or pressure angle.
+    pub mixed_modules: bool,
     /// Trains meeting every constraint (a lower bound when `complete` is false).
     pub count: u64,
     /// False when interrupted.
@@ -33,7 +52,7 @@ pub struct Doc {
     /// The ratio convention in words.
     pub convention: String,
     /// Ranking keys, most important first.
-    pub rank: Vec<String>,
+    pub ranked_by: Vec<String>,
     /// How many trains were to be listed.
     pub limit: usize,
     /// Size of the Pareto front, for a Pareto search.
@@ -42,24 +61,14 @@ pub struct Doc {
     /// `I/N` when this document covers one part of a split search.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub shard: Option<String>,
+    /// Whether the reasons for leaving stage pairings out were asked for.
+    #[serde(default, skip_serializing_if = "std::ops::Not::not")]
+    pub explain: bool,
     /// What the mesh checks left out.
     #[serde(default, skip_serializing_if = "Vec::is_empty")]
     pub rejected: Vec<RejectionJson>,
     /// The trains listed, best first.
     pub trains: Vec<TrainJson>,
-}
-
-/// The target as JSON.
-#[derive(Serialize, Deserialize, Debug, Clone, PartialEq)]
-pub struct TargetJson {
-    /// The ratio as typed.
-    pub ratio: String,
-    /// Its value.
-    pub value: f64,
-    /// Relative tolerance.
-    pub tolerance: f64,
-    /// The ratio exactly, reduced `p/q`.
-    pub exact: String,
 }
 
 /// One kind of mesh-check rejection.
@@ -76,106 +85,14 @@ pub struct RejectionJson {
 /// The last line of a JSON-lines stream.
 #[derive(Serialize, Deserialize, Debug, Clone, PartialEq)]
 pub struct Summary {
+    /// The version of this contract, [`crate::report::SCHEMA_VERSION`].
+    pub schema_version: u32,
     /// What was asked.
     pub target: TargetJson,
     /// Trains streamed.
     pub count: u64,
     /// False when interrupted.
     pub complete: bool,
-}
-
-/// One train as JSON; shared by every command that lists trains.
-#[derive(Serialize, Deserialize, Debug, Clone, PartialEq)]
-pub struct TrainJson {
-    /// Reduced `p/q`.
-    pub ratio: String,
-    /// The ratio as a float.
-    pub value: f64,
-    /// Signed relative error `i/R − 1`.
-    pub error: f64,
-    /// Number of meshes.
-    pub meshes: usize,
-    /// Output direction.
-    pub direction: Direction,
-    /// Sum of teeth.
-    pub size: u32,
-    /// Largest pitch diameter, mm.
-    pub span: f64,
-    /// Stages input to output.
-    pub stages: Vec<StageJson>,
-}
-
-/// One stage as JSON.
-#[derive(Serialize, Deserialize, Debug, Clone, PartialEq)]
-pub struct StageJson {
-    /// Driver teeth.
-    pub driver: u32,
-    /// Driven teeth.
-    pub driven: u32,
-    /// Module, mm.
-    pub module: f64,
-    /// Standard centre distance, mm.
-    pub centre_distance: f64,
-    /// Pressure angle, degrees.
-    pub pressure_angle: f64,
-    /// Diametral pitch when given in inch terms.
-    #[serde(default, skip_serializing_if = "Option::is_none")]
-    pub diametral_pitch: Option<f64>,
-    /// Stock labels of the driver.
-    #[serde(default, skip_serializing_if = "Vec::is_empty")]
-    pub driver_labels: Vec<String>,
-    /// Stock labels of the driven gear.
-    #[serde(default, skip_serializing_if = "Vec::is_empty")]
-    pub driven_labels: Vec<String>,
-    /// Profile shifts `[x_driver, x_driven]`, in modules (when meshes were worked out).
-    #[serde(default, skip_serializing_if = "Option::is_none")]
-    pub shift: Option<[f64; 2]>,
-    /// Working centre distance actually reached, mm.
-    #[serde(default, skip_serializing_if = "Option::is_none")]
-    pub working_centre_distance: Option<f64>,
-    /// Working pressure angle, degrees.
-    #[serde(default, skip_serializing_if = "Option::is_none")]
-    pub working_pressure_angle: Option<f64>,
-    /// Transverse contact ratio.
-    #[serde(default, skip_serializing_if = "Option::is_none")]
-    pub contact_ratio: Option<f64>,
-    /// Tip diameters `[driver, driven]`, mm.
-    #[serde(default, skip_serializing_if = "Option::is_none")]
-    pub tip_diameters: Option<[f64; 2]>,
-}
-
-impl TrainJson {
-    /// The JSON view of a train.
-    pub fn from_train(t: &Train) -> TrainJson {
-        TrainJson {
-            ratio: t.ratio.to_string(),
-            value: t.ratio.to_f64(),
-            error: t.error.to_f64(),
-            meshes: t.meshes(),
-            direction: t.direction(),
-            size: t.size(),
-            span: t.span_mm(),
-            stages: t
-                .stages
-                .iter()
-                .map(|s| StageJson {
-                    driver: s.driver.teeth,
-                    driven: s.driven.teeth,
-                    module: s.module_mm,
-                    centre_distance: s.centre_distance_mm(),
-                    pressure_angle: s.pressure_angle_deg,
-                    diametral_pitch: s.diametral_pitch,
-                    driver_labels: s.driver.labels.clone(),
-                    driven_labels: s.driven.labels.clone(),
-                    shift: s.mesh.map(|m| m.shift),
-                    working_centre_distance: s.mesh.map(|m| m.centre_distance_mm),
-                    working_pressure_angle: s.mesh.map(|m| m.working_pressure_angle_deg),
-                    contact_ratio: s.mesh.map(|m| m.contact_ratio),
-                    tip_diameters: s.mesh.map(|m| m.tip_diameter_mm),
-                })
-                .collect(),
-        }
-    }
 }
 
 /// The target of a problem as JSON.
@@ -191,15 +108,30 @@ pub fn target_json(problem: &crate::model::problem::Problem) -> TargetJson {
 
 /// The document for a report.
 pub fn doc(report: &SearchReport) -> Doc {
+    let p = report.problem;
     Doc {
-        target: target_json(report.problem),
+        schema_version: SCHEMA_VERSION,
+        target: target_json(p),
+        gears: p.pool.describe(),
+        stage_counts: p.stage_counts(),
+        stage_options: report.outcome.stage_options,
+        mesh_checks: p.mesh.is_some(),
+        mixed_modules: p.pool.groups.len() > 1,
         count: report.outcome.count,
         complete: report.outcome.complete,
         convention: CONVENTION.to_string(),
-        rank: report.problem.rank.iter().map(|k| k.name().to_string()).collect(),
+        ranked_by: p
+            .rank
+            .iter()
+            .map(|k| match (k, &p.extra_key) {
+                (crate::model::rank::RankKey::Extra, Some(x)) => x.name.to_string(),
+                _ => k.name().to_string(),
+            })
+            .collect(),
         limit: report.problem.limit,
         pareto_size: report.outcome.pareto_size,
         shard: report.shard.map(|s| s.to_string()),
+        explain: report.explain,
         rejected: report
             .outcome
             .rejected
@@ -214,11 +146,6 @@ pub fn doc(report: &SearchReport) -> Doc {
 pub fn write_doc(doc: &Doc, w: &mut dyn Write) -> io::Result<()> {
     serde_json::to_writer_pretty(&mut *w, doc).map_err(io::Error::from)?;
     writeln!(w)
-}
-
-/// Write the report as one JSON document and a newline.
-pub fn write(report: &SearchReport, w: &mut dyn Write) -> io::Result<()> {
-    write_doc(&doc(report), w)
 }
 
 /// Write one value as a single JSON line.

@@ -10,7 +10,8 @@ use crate::error::{Error, Result};
 use crate::model::rank::{compare, dominates, parse_rank, Ranked};
 use crate::numbers::rational::{Ratio, RelError};
 use crate::numbers::target::parse_ratio;
-use crate::report::search::json::{Doc, TrainJson};
+use crate::report::fields::TrainJson;
+use crate::report::search::json::Doc;
 
 /// A listed train with the keys the ranking needs, recomputed exactly from its JSON.
 struct Listed {
@@ -41,7 +42,7 @@ impl Ranked for Listed {
         self.json.size
     }
     fn span_mm(&self) -> f64 {
-        self.json.span
+        self.json.span_mm
     }
     fn cmp_stages(&self, other: &Self) -> Ordering {
         for (a, b) in self.stages.iter().zip(&other.stages) {
@@ -58,7 +59,7 @@ fn listed(t: TrainJson, target: Ratio, name: &str) -> Result<Listed> {
     let bad = |what: &str| Error::Problem(format!("{name}: a train's {what} is not what gearsieve writes"));
     let ratio = parse_ratio(&t.ratio, name).map_err(|_| bad("ratio"))?;
     let mut stages: Vec<(u32, u32, f64, f64)> =
-        t.stages.iter().map(|s| (s.driven, s.driver, s.module, s.pressure_angle)).collect();
+        t.stages.iter().map(|s| (s.driven, s.driver, s.module_mm, s.pressure_angle_deg)).collect();
     if stages.is_empty() || stages.iter().any(|s| s.0 == 0 || s.1 == 0) {
         return Err(bad("stage list"));
     }
@@ -94,7 +95,7 @@ pub fn merge(docs: Vec<(String, Doc)>) -> Result<Doc> {
             return Err(Error::Problem(format!("{name}: part {s} is given twice")));
         }
         let same = d.target == first.target
-            && d.rank == first.rank
+            && d.ranked_by == first.ranked_by
             && d.limit == first.limit
             && d.pareto_size.is_some() == first.pareto_size.is_some()
             && d.convention == first.convention;
@@ -108,7 +109,7 @@ pub fn merge(docs: Vec<(String, Doc)>) -> Result<Doc> {
         return Err(Error::Problem(format!("merge: part {}/{n} is missing", missing + 1)));
     }
     let target = parse_ratio(&first.target.exact, &first_name)?;
-    let names: Vec<String> = first.rank.clone();
+    let names: Vec<String> = first.ranked_by.clone();
     let keys = parse_rank(&names.join(","), &first_name)?;
     let mut rejected = first.rejected.clone();
     for r in rejected.iter_mut().filter(|r| r.kind == COAXIAL_MISFIT_KIND) {

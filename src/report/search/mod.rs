@@ -6,6 +6,7 @@ pub mod csv;
 pub mod document;
 pub mod json;
 pub mod merge;
+pub mod stream;
 
 use std::io::Write;
 
@@ -25,6 +26,13 @@ pub struct SearchReport<'a> {
     pub shard: Option<Shard>,
 }
 
+impl SearchReport<'_> {
+    /// The search's JSON document: the whole result, from which every format is made.
+    pub fn doc(&self) -> json::Doc {
+        json::doc(self)
+    }
+}
+
 impl Report for SearchReport<'_> {
     fn kind(&self) -> &'static str {
         "a search"
@@ -35,22 +43,23 @@ impl Report for SearchReport<'_> {
     }
 
     fn document(&self) -> Option<Document> {
-        Some(document::document(self))
+        self.doc().document()
     }
 
     fn csv(&self, w: &mut dyn Write) -> Result<(), RenderError> {
-        Ok(csv::write(self, w)?)
+        self.doc().csv(w)
     }
 
     fn json(&self, w: &mut dyn Write) -> Result<(), RenderError> {
-        Ok(json::write(self, w)?)
+        self.doc().json(w)
     }
 }
 
-/// The merged JSON of a split search: the same document one unsplit run prints.
+/// A search's JSON document, read back or merged from the parts of a split search: the same
+/// formats as the search that wrote it.
 impl Report for json::Doc {
     fn kind(&self) -> &'static str {
-        "a merged search"
+        "a search"
     }
 
     fn completion(&self) -> Completion {
@@ -58,7 +67,11 @@ impl Report for json::Doc {
     }
 
     fn document(&self) -> Option<Document> {
-        None
+        Some(document::document(self))
+    }
+
+    fn csv(&self, w: &mut dyn Write) -> Result<(), RenderError> {
+        Ok(csv::write(self, w)?)
     }
 
     fn json(&self, w: &mut dyn Write) -> Result<(), RenderError> {

@@ -1,21 +1,21 @@
-//! The CSV format for setups and charts: one row per setup (or per thread of a chart), fixed
-//! columns. Intermediate pairs are written `driven:driver`, several joined with `;`, stud side
-//! first. A sink: it computes nothing about gears.
+//! The CSV format for setups and charts: one row per setup (or per thread of a chart), one
+//! value per cell, the stages as numbered stage columns from the stud to the leadscrew (so an
+//! intermediate pair is `stage1_driven` and `stage2_driver`). It computes nothing about gears.
 
 use std::io::{self, Write};
 
 use super::{ChartReport, ThreadReport};
+use crate::report::fields::{decimals, mm, small, StageColumns, TrainJson};
 use crate::trades::thread::pitch::Pitch;
-use crate::trades::thread::Setup;
+use crate::trades::thread::{Lathe, Setup};
 
 const SETUP_COLUMNS: [&str; 16] = [
-    "position",
+    "gearbox_position",
     "stud",
     "idler",
-    "intermediates",
     "leadscrew",
-    "meshes",
     "ratio",
+    "meshes",
     "pitch_cut",
     "pitch_unit",
     "lead_cut_mm",
@@ -23,41 +23,61 @@ const SETUP_COLUMNS: [&str; 16] = [
     "pitch_error",
     "lead_error",
     "lead_error_unit",
-    "exact",
-    "intermediate_from_leadscrew_mm",
+    "exact_pitch",
+    "intermediate_stud_from_leadscrew_mm",
+    "idler_stud_from_leadscrew_mm",
 ];
 
-fn setup_fields(s: &Setup, pitch: &Pitch) -> Vec<String> {
-    let mids: Vec<String> = s.intermediates().iter().map(|(a, b)| format!("{a}:{b}")).collect();
-    vec![
+/// The stage columns of a lathe's setups: as many as it allows, stud first.
+fn stage_columns(lathe: &Lathe) -> StageColumns {
+    StageColumns { stages: lathe.stages.hi as usize, mesh: false }
+}
+
+fn header(first: &[&str], lathe: &Lathe) -> Vec<String> {
+    let mut head: Vec<String> = first.iter().chain(SETUP_COLUMNS.iter()).map(|s| s.to_string()).collect();
+    head.push("stud_mesh_inner".into());
+    head.extend(stage_columns(lathe).header());
+    head
+}
+
+/// Every column but the stages' of a setup, then its stages in stud-to-leadscrew order.
+fn setup_fields(s: &Setup, pitch: &Pitch, lathe: &Lathe) -> Vec<String> {
+    let place = s.fit.intermediate_from_leadscrew_mm.map_or(String::new(), mm);
+    let (intermediate, idler) =
+        if s.fit.idler.is_some() { (String::new(), place) } else { (place, String::new()) };
+    let mut row = vec![
         s.position.as_ref().map_or(String::new(), |p| p.name.clone()),
         s.stud().to_string(),
         s.fit.idler.map_or(String::new(), |z| z.to_string()),
-        mids.join(";"),
         s.leadscrew().to_string(),
-        s.train.meshes().to_string(),
         s.train.ratio.to_string(),
-        pitch.in_own_unit(s.pitch_cut_mm.value.to_f64()).to_string(),
+        s.train.meshes().to_string(),
+        decimals(pitch.in_own_unit(s.pitch_cut_mm.value.to_f64()), 6),
         pitch.own_unit().to_string(),
-        s.lead_cut_mm.value.to_f64().to_string(),
+        decimals(s.lead_cut_mm.value.to_f64(), 6),
         if s.lead_cut_mm.exact { s.lead_cut_mm.value.to_string() } else { String::new() },
-        s.pitch_error.to_f64().to_string(),
-        s.lead_error(pitch).to_string(),
+        small(s.pitch_error.to_f64()),
+        small(s.lead_error(pitch)),
         pitch.lead_error_basis().1.to_string(),
         s.is_exact().to_string(),
-        s.fit.intermediate_from_leadscrew_mm.map_or(String::new(), |v| v.to_string()),
-    ]
+        intermediate,
+        idler,
+        s.fit.stud_mesh_inner.map_or(String::new(), |b| b.to_string()),
+    ];
+    let mut train = TrainJson::from_train(&s.train);
+    // The stages as they sit on the machine, stud first.
+    train.stages = s.fit.order.iter().filter_map(|&k| train.stages.get(k).cloned()).collect();
+    row.extend(stage_columns(lathe).cells(&train));
+    row
 }
 
 /// Write a thread search as CSV.
 pub fn write_thread(r: &ThreadReport, w: &mut dyn Write) -> io::Result<()> {
     let mut out = ::csv::Writer::from_writer(w);
-    let mut head = vec!["rank"];
-    head.extend(SETUP_COLUMNS);
-    out.write_record(&head)?;
+    out.write_record(header(&["rank"], r.lathe))?;
     for (i, s) in r.plan.setups.iter().enumerate() {
         let mut row = vec![(i + 1).to_string()];
-        row.extend(setup_fields(s, &r.plan.thread.pitch));
+        row.extend(setup_fields(s, &r.plan.thread.pitch, r.lathe));
         out.write_record(&row)?;
     }
     out.flush()
@@ -66,8 +86,8 @@ pub fn write_thread(r: &ThreadReport, w: &mut dyn Write) -> io::Result<()> {
 /// Write a chart as CSV: one row per thread; `shown` is `best`, `nearest` or empty.
 pub fn write_chart(r: &ChartReport, w: &mut dyn Write) -> io::Result<()> {
     let mut out = ::csv::Writer::from_writer(w);
-    let mut head = vec!["thread", "pitch", "reachable", "count", "shown"];
-    head.extend(SETUP_COLUMNS);
+    let head = header(&["thread", "pitch", "reachable", "count", "shown"], r.lathe);
+    let width = head.len() - 5;
     out.write_record(&head)?;
     for row in &r.chart.rows {
         let mut rec = vec![
@@ -79,15 +99,15 @@ pub fn write_chart(r: &ChartReport, w: &mut dyn Write) -> io::Result<()> {
         match (&row.best, &row.nearest) {
             (Some(s), _) => {
                 rec.push("best".into());
-                rec.extend(setup_fields(s, &row.thread.pitch));
+                rec.extend(setup_fields(s, &row.thread.pitch, r.lathe));
             }
             (None, Some(s)) => {
                 rec.push("nearest".into());
-                rec.extend(setup_fields(s, &row.thread.pitch));
+                rec.extend(setup_fields(s, &row.thread.pitch, r.lathe));
             }
             (None, None) => {
                 rec.push(String::new());
-                rec.extend(std::iter::repeat_n(String::new(), SETUP_COLUMNS.len()));
+                rec.extend(std::iter::repeat_n(String::new(), width));
             }
         }
         out.write_record(&rec)?;

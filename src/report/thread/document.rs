@@ -4,7 +4,7 @@
 
 use super::{ChartReport, ThreadReport};
 use crate::model::pool::fmt_num;
-use crate::report::words::{describe_error, describe_tolerance, THREAD_CAUTION};
+use crate::report::words::{describe_error, describe_tolerance, group_thousands, THREAD_CAUTION};
 use crate::report::{Document, Table};
 use crate::trades::thread::pitch::Pitch;
 use crate::trades::thread::{Lathe, Setup};
@@ -122,7 +122,8 @@ pub fn thread(r: &ThreadReport) -> Document {
         0 => d.line(format!("{status}No setup cuts {} within the tolerance from these gears.", t.pitch)),
         1 => d.line(format!("{status}1 setup cuts it:")),
         n => d.line(format!(
-            "{status}{n} setups cut it; {} by pitch error, then meshes, then teeth:",
+            "{status}{} setups cut it; {} by pitch error, then meshes, then size:",
+            group_thousands(n),
             if p.setups.len() as u64 == n {
                 "all listed".to_string()
             } else {
@@ -180,12 +181,17 @@ pub fn chart(r: &ChartReport) -> Document {
     d.title(format!("Thread chart: {} ({} threads)", r.series, c.rows.len()));
     header(&mut d, r.lathe);
     d.blank();
-    d.line(format!(
-        "{}{} of {} threads within the tolerance; the others show the nearest pitch that can be set up.",
-        if c.complete { "" } else { "INCOMPLETE (interrupted): " },
-        c.reachable(),
-        c.rows.len()
-    ));
+    let status = if c.complete { "" } else { "INCOMPLETE (interrupted): " };
+    if c.reachable() == c.rows.len() {
+        d.line(format!("{status}All {} threads can be cut within the tolerance.", c.rows.len()));
+    } else {
+        d.line(format!(
+            "{status}{} of {} threads can be cut within the tolerance; the others show the nearest pitch \
+             that can be set up.",
+            c.reachable(),
+            c.rows.len()
+        ));
+    }
     d.blank();
     let mut head = vec!["thread".to_string(), "pitch".to_string()];
     head.extend(SETUP_HEAD.iter().map(|s| s.to_string()));

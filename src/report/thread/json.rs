@@ -1,27 +1,29 @@
 //! The JSON format for setups and charts. Each setup is a train object of `search`
-//! ([`crate::report::search::json::TrainJson`]: `ratio`, `stages`, `driver`, `driven`, …, with `error`
+//! ([`crate::report::fields::TrainJson`]: `ratio`, `stages`, `driver`, `driven`, …, with `error`
 //! here the relative pitch error) plus the thread's own fields:
 //!
 //! ```text
-//! {"position": "A"|null, "gears": [{"position": "stud", "teeth": 90}, …],
+//! {"gearbox_position": "A"|null, "positions": [{"position": "stud", "teeth": 90}, …],
 //!  "pitch_cut": f64 (in pitch_unit), "pitch_unit": "mm"|"tpi"|"in",
-//!  "lead_cut_mm": f64, "lead_cut_mm_exact": "p/q"|null, "exact": bool,
+//!  "lead_cut_mm": f64, "lead_cut_mm_exact": "p/q"|null, "exact_pitch": bool,
 //!  "lead_error": f64, "lead_error_unit": "mm per 100 mm"|"in per in",
-//!  "intermediate_from_leadscrew_mm": f64|null, "stud_mesh_inner": bool|null}
+//!  "intermediate_stud_from_leadscrew_mm": f64|null,
+//!  "idler_stud_from_leadscrew_mm": f64|null, "stud_mesh_inner": bool|null}
 //! ```
-//! A thread document is `{"thread", "machine", "banjo", "tolerance", "count", "complete",
-//! "convention", "caution", "trains": [setup…], "rejected"?}`; a chart document is `{"series",
+//! A thread document is `{"schema_version", "thread", "machine", "banjo", "tolerance", "count", "complete",
+//! "convention", "caution", "trains": [setup…], "rejected"?}`; a chart document is `{"schema_version", "series",
 //! "machine", "banjo", "tolerance", "complete", "caution", "rows": [{"thread", "pitch",
 //! "reachable", "count", "setup", "nearest"}]}`. Stages run from the stud to the leadscrew.
 
-use std::io::{self, Write};
+use std::io::Write;
 
 use serde::Serialize;
 
 use super::{ChartReport, ThreadReport};
-use crate::report::search::json::TrainJson;
+use crate::report::fields::TrainJson;
 use crate::report::words::CONVENTION;
 use crate::report::words::THREAD_CAUTION;
+use crate::report::{write_json, RenderError, SCHEMA_VERSION};
 use crate::trades::thread::pitch::Pitch;
 use crate::trades::thread::{Lathe, Setup};
 
@@ -32,9 +34,9 @@ pub struct SetupJson {
     #[serde(flatten)]
     pub train: TrainJson,
     /// Gearbox position used.
-    pub position: Option<String>,
+    pub gearbox_position: Option<String>,
     /// Gears by position, stud to leadscrew.
-    pub gears: Vec<PositionJson>,
+    pub positions: Vec<PositionJson>,
     /// Pitch cut in `pitch_unit`.
     pub pitch_cut: f64,
     /// `mm`, `tpi` or `in`.
@@ -44,13 +46,19 @@ pub struct SetupJson {
     /// The same, exactly, when it is exact.
     pub lead_cut_mm_exact: Option<String>,
     /// Pitch cut equals pitch wanted exactly.
-    pub exact: bool,
+    pub exact_pitch: bool,
+    /// Signed relative error of the pitch cut, `pitch cut / pitch wanted − 1`.
+    pub pitch_error: f64,
     /// Lead error over the stated length.
     pub lead_error: f64,
     /// `mm per 100 mm` or `in per in`.
     pub lead_error_unit: &'static str,
-    /// Where the intermediate or idler stud sits, when a banjo was checked.
-    pub intermediate_from_leadscrew_mm: Option<f64>,
+    /// Where the intermediate stud of a compound setup sits, mm from the leadscrew axis, when a
+    /// banjo was checked.
+    pub intermediate_stud_from_leadscrew_mm: Option<f64>,
+    /// Where the idler stud of a simple setup sits, mm from the leadscrew axis, when a banjo was
+    /// checked.
+    pub idler_stud_from_leadscrew_mm: Option<f64>,
     /// For two stages on a banjo: true when the stud mesh is the inner plane.
     pub stud_mesh_inner: Option<bool>,
 }
@@ -71,8 +79,8 @@ impl SetupJson {
         train.error = s.pitch_error.to_f64();
         SetupJson {
             train,
-            position: s.position.as_ref().map(|p| p.name.clone()),
-            gears: s
+            gearbox_position: s.position.as_ref().map(|p| p.name.clone()),
+            positions: s
                 .positions()
                 .into_iter()
                 .map(|(position, teeth)| PositionJson { position, teeth })
@@ -81,10 +89,18 @@ impl SetupJson {
             pitch_unit: pitch.own_unit(),
             lead_cut_mm: s.lead_cut_mm.value.to_f64(),
             lead_cut_mm_exact: s.lead_cut_mm.exact.then(|| s.lead_cut_mm.value.to_string()),
-            exact: s.is_exact(),
+            exact_pitch: s.is_exact(),
+            pitch_error: s.pitch_error.to_f64(),
             lead_error: s.lead_error(pitch),
             lead_error_unit: pitch.lead_error_basis().1,
-            intermediate_from_leadscrew_mm: s.fit.intermediate_from_leadscrew_mm,
+            intermediate_stud_from_leadscrew_mm: s
+                .fit
+                .intermediate_from_leadscrew_mm
+                .filter(|_| s.fit.idler.is_none()),
+            idler_stud_from_leadscrew_mm: s
+                .fit
+                .intermediate_from_leadscrew_mm
+                .filter(|_| s.fit.idler.is_some()),
             stud_mesh_inner: s.fit.stud_mesh_inner,
         }
     }
@@ -97,7 +113,7 @@ struct MachineJson {
     stud_ratio: String,
     gearbox: Vec<GearboxJson>,
     gears: String,
-    stages: String,
+    stage_counts: Vec<usize>,
 }
 
 #[derive(Serialize)]
@@ -109,7 +125,7 @@ struct GearboxJson {
 #[derive(Serialize)]
 struct BanjoJson {
     stud_to_leadscrew_mm: f64,
-    intermediate_from_leadscrew_mm: [f64; 2],
+    intermediate_stud_from_leadscrew_mm: [f64; 2],
     shaft_diameter_mm: f64,
 }
 
@@ -125,14 +141,14 @@ fn machine(l: &Lathe) -> MachineJson {
             .map(|p| GearboxJson { name: p.name.clone(), ratio: p.ratio.to_string() })
             .collect(),
         gears: l.pool.describe(),
-        stages: l.stages.to_string(),
+        stage_counts: (l.stages.lo as usize..=l.stages.hi as usize).collect(),
     }
 }
 
 fn banjo(l: &Lathe) -> Option<BanjoJson> {
     l.banjo.as_ref().map(|b| BanjoJson {
         stud_to_leadscrew_mm: b.stud_to_leadscrew_mm,
-        intermediate_from_leadscrew_mm: [
+        intermediate_stud_from_leadscrew_mm: [
             b.intermediate_from_leadscrew_mm.lo,
             b.intermediate_from_leadscrew_mm.hi,
         ],
@@ -151,12 +167,13 @@ struct ThreadJson {
 #[derive(Serialize)]
 struct RejectedJson {
     train: TrainJson,
-    position: Option<String>,
+    gearbox_position: Option<String>,
     reasons: Vec<String>,
 }
 
 #[derive(Serialize)]
 struct ThreadDoc {
+    schema_version: u32,
     thread: ThreadJson,
     machine: MachineJson,
     banjo: Option<BanjoJson>,
@@ -171,10 +188,11 @@ struct ThreadDoc {
 }
 
 /// Write a thread search as one JSON document and a newline.
-pub fn write_thread(r: &ThreadReport, w: &mut dyn Write) -> io::Result<()> {
+pub fn write_thread(r: &ThreadReport, w: &mut dyn Write) -> Result<(), RenderError> {
     let t = &r.plan.thread;
     let lead = t.lead_mm();
     let doc = ThreadDoc {
+        schema_version: SCHEMA_VERSION,
         thread: ThreadJson {
             pitch: t.pitch.text.clone(),
             starts: t.starts,
@@ -196,15 +214,14 @@ pub fn write_thread(r: &ThreadReport, w: &mut dyn Write) -> io::Result<()> {
                     train.error = x.pitch_error.to_f64();
                     RejectedJson {
                         train,
-                        position: x.position.as_ref().map(|p| p.name.clone()),
+                        gearbox_position: x.position.as_ref().map(|p| p.name.clone()),
                         reasons: x.reasons.clone(),
                     }
                 })
                 .collect()
         }),
     };
-    serde_json::to_writer_pretty(&mut *w, &doc).map_err(io::Error::other)?;
-    writeln!(w)
+    write_json(&doc, w)
 }
 
 #[derive(Serialize)]
@@ -219,6 +236,7 @@ struct RowJson {
 
 #[derive(Serialize)]
 struct ChartDoc {
+    schema_version: u32,
     series: String,
     machine: MachineJson,
     banjo: Option<BanjoJson>,
@@ -230,8 +248,9 @@ struct ChartDoc {
 }
 
 /// Write a chart as one JSON document and a newline.
-pub fn write_chart(r: &ChartReport, w: &mut dyn Write) -> io::Result<()> {
+pub fn write_chart(r: &ChartReport, w: &mut dyn Write) -> Result<(), RenderError> {
     let doc = ChartDoc {
+        schema_version: SCHEMA_VERSION,
         series: r.series.to_string(),
         machine: machine(r.lathe),
         banjo: banjo(r.lathe),
@@ -253,6 +272,5 @@ pub fn write_chart(r: &ChartReport, w: &mut dyn Write) -> io::Result<()> {
             })
             .collect(),
     };
-    serde_json::to_writer_pretty(&mut *w, &doc).map_err(io::Error::other)?;
-    writeln!(w)
+    write_json(&doc, w)
 }

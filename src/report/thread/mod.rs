@@ -48,7 +48,7 @@ impl Report for ThreadReport<'_> {
     }
 
     fn json(&self, w: &mut dyn Write) -> Result<(), RenderError> {
-        Ok(json::write_thread(self, w)?)
+        json::write_thread(self, w)
     }
 }
 
@@ -70,6 +70,6 @@ impl Report for ChartReport<'_> {
     }
 
     fn json(&self, w: &mut dyn Write) -> Result<(), RenderError> {
-        Ok(json::write_chart(self, w)?)
+        json::write_chart(self, w)
     }
 }

@@ -154,6 +154,6 @@ pub fn stage_names(k: usize, hour_work: bool) -> (String, String) {
     match (k, hour_work) {
         (0, true) => ("cannon pinion".into(), "minute wheel".into()),
         (1, true) => ("minute pinion".into(), "hour wheel".into()),
-        _ => (format!("pinion {}", k + 1), format!("wheel {}", k + 1)),
+        _ => ("pinion".into(), "wheel".into()),
     }
 }

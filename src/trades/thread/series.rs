@@ -74,7 +74,7 @@ const UNC: &[(&str, &str)] = &[
     ("1 3/8", "6"),
     ("1 1/2", "6"),
     ("1 3/4", "5"),
-    ("2", "9/2"),
+    ("2", "4.5"),
 ];
 
 /// Unified fine (UNF, ASME B1.1), size and threads per inch — from memory.
@@ -132,9 +132,9 @@ pub fn built_in(name: &str, flag: &str) -> Result<Vec<SeriesEntry>> {
     }
 }
 
-/// `9/2` is written `4 1/2` in a thread's name.
+/// `4.5` is written `4 1/2` in a thread's name.
 fn tpi_text(t: &str) -> String {
-    if t == "9/2" {
+    if t == "4.5" {
         "4 1/2".to_string()
     } else {
         t.to_string()

@@ -1,0 +1,296 @@
+//! The names, views and precision of the quantities every result kind shares: the JSON view of
+//! a train ([`TrainJson`]) and, for the CSV format, one value per cell, numbers at the precision they mean (lengths to 0.001 mm, profile shifts
+//! to 0.0001 module, angles to 0.001°, ratios exact as `p/q` beside a decimal), and the stage
+//! columns (`stage1_driver`, `stage1_driven`, …) every kind writes the same way. The names are
+//! those of `docs/output-fields.md`; JSON uses the same names at full precision.
+
+use serde::{Deserialize, Serialize};
+
+use crate::model::train::{Direction, Train};
+
+/// `v` to `decimals` places without trailing zeros, and `0` rather than `-0`.
+pub fn decimals(v: f64, decimals: usize) -> String {
+    let s = format!("{v:.decimals$}");
+    let s = if s.contains('.') { s.trim_end_matches('0').trim_end_matches('.') } else { &s };
+    if s == "-0" {
+        "0".to_string()
+    } else {
+        s.to_string()
+    }
+}
+
+/// A length in mm, to 0.001 mm.
+pub fn mm(v: f64) -> String {
+    decimals(v, 3)
+}
+
+/// A profile shift coefficient, to 0.0001 module.
+pub fn shift(v: f64) -> String {
+    decimals(v, 4)
+}
+
+/// An angle in degrees, to 0.001°.
+pub fn degrees(v: f64) -> String {
+    decimals(v, 3)
+}
+
+/// A dimensionless figure such as a contact ratio or a stage balance, to 0.0001.
+pub fn figure(v: f64) -> String {
+    decimals(v, 4)
+}
+
+/// The decimal value of an exact ratio, to twelve decimals (the exact `p/q` stands beside it).
+pub fn ratio_value(v: f64) -> String {
+    decimals(v, 12)
+}
+
+/// A small signed quantity such as a relative error or a drift: `0`, else six significant
+/// digits in scientific notation (`-6.66667e-4`).
+pub fn small(v: f64) -> String {
+    if v == 0.0 {
+        "0".to_string()
+    } else {
+        let s = format!("{v:.5e}");
+        // `6.66667e-4` rather than `6.66670e-4`: the mantissa without trailing zeros.
+        match s.split_once('e') {
+            Some((m, e)) if m.contains('.') => {
+                format!("{}e{e}", m.trim_end_matches('0').trim_end_matches('.'))
+            }
+            _ => s,
+        }
+    }
+}
+
+/// The stage columns of a CSV file: as many stages as the longest train can have, with the
+/// worked-out mesh of each when the result kind works meshes out.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub struct StageColumns {
+    /// Stage column groups, `stage1_…` to `stageN_…`.
+    pub stages: usize,
+    /// Whether the mesh columns (shifts, working centre distance and pressure angle, contact
+    /// ratio, tip diameters) are written.
+    pub mesh: bool,
+}
+
+const PLAIN: [&str; 7] = [
+    "driver",
+    "driven",
+    "module_mm",
+    "pressure_angle_deg",
+    "reference_centre_distance_mm",
+    "driver_label",
+    "driven_label",
+];
+
+const MESH: [&str; 7] = [
+    "shift_driver",
+    "shift_driven",
+    "working_centre_distance_mm",
+    "working_pressure_angle_deg",
+    "contact_ratio",
+    "tip_diameter_driver_mm",
+    "tip_diameter_driven_mm",
+];
+
+impl StageColumns {
+    /// Columns per stage.
+    fn width(self) -> usize {
+        PLAIN.len() + if self.mesh { MESH.len() } else { 0 }
+    }
+
+    /// The header cells.
+    pub fn header(self) -> Vec<String> {
+        let mut head = Vec::new();
+        for n in 1..=self.stages {
+            let mesh: &[&str] = if self.mesh { &MESH } else { &[] };
+            head.extend(PLAIN.iter().chain(mesh).map(|f| format!("stage{n}_{f}")));
+        }
+        head
+    }
+
+    /// The cells of `train`, empty for the stages it does not have.
+    pub fn cells(self, train: &TrainJson) -> Vec<String> {
+        let mut cells = Vec::with_capacity(self.stages * self.width());
+        for n in 0..self.stages {
+            match train.stages.get(n) {
+                Some(s) => {
+                    cells.extend(plain(s));
+                    if self.mesh {
+                        cells.extend(mesh(s));
+                    }
+                }
+                None => cells.extend(std::iter::repeat_n(String::new(), self.width())),
+            }
+        }
+        cells
+    }
+}
+
+fn plain(s: &StageJson) -> [String; 7] {
+    [
+        s.driver.to_string(),
+        s.driven.to_string(),
+        decimals(s.module_mm, 6),
+        degrees(s.pressure_angle_deg),
+        mm(s.reference_centre_distance_mm),
+        s.driver_labels.join("/"),
+        s.driven_labels.join("/"),
+    ]
+}
+
+fn mesh(s: &StageJson) -> [String; 7] {
+    let opt = |v: Option<f64>, f: fn(f64) -> String| v.map_or(String::new(), f);
+    [
+        opt(s.shift.map(|x| x[0]), shift),
+        opt(s.shift.map(|x| x[1]), shift),
+        opt(s.working_centre_distance_mm, mm),
+        opt(s.working_pressure_angle_deg, degrees),
+        opt(s.contact_ratio, figure),
+        opt(s.tip_diameter_mm.map(|d| d[0]), mm),
+        opt(s.tip_diameter_mm.map(|d| d[1]), mm),
+    ]
+}
+
+/// The cells every train row starts with: `ratio`, `value`, `error`, `meshes`, `direction`,
+/// `size`, `span_mm`.
+pub const TRAIN_HEADER: [&str; 7] = ["ratio", "value", "error", "meshes", "direction", "size", "span_mm"];
+
+/// The [`TRAIN_HEADER`] cells of `train`.
+pub fn train_cells(train: &TrainJson) -> Vec<String> {
+    vec![
+        train.ratio.clone(),
+        ratio_value(train.value),
+        small(train.error),
+        train.meshes.to_string(),
+        train.direction.as_str().to_string(),
+        train.size.to_string(),
+        mm(train.span_mm),
+    ]
+}
+
+/// One train as JSON; shared by every command that lists trains.
+#[derive(Serialize, Deserialize, Debug, Clone, PartialEq)]
+pub struct TrainJson {
+    /// Reduced `p/q`.
+    pub ratio: String,
+    /// The ratio as a float.
+    pub value: f64,
+    /// Signed relative error `i/R − 1`.
+    pub error: f64,
+    /// Number of meshes.
+    pub meshes: usize,
+    /// Output direction.
+    pub direction: Direction,
+    /// Sum of teeth.
+    pub size: u32,
+    /// Largest pitch diameter, mm.
+    pub span_mm: f64,
+    /// Stages input to output.
+    pub stages: Vec<StageJson>,
+}
+
+/// One stage as JSON.
+#[derive(Serialize, Deserialize, Debug, Clone, PartialEq)]
+pub struct StageJson {
+    /// Driver teeth.
+    pub driver: u32,
+    /// Driven teeth.
+    pub driven: u32,
+    /// Module, mm.
+    pub module_mm: f64,
+    /// Pressure angle, degrees.
+    pub pressure_angle_deg: f64,
+    /// Reference centre distance m·(z1 + z2)/2 of the pair uncut by shift, mm.
+    pub reference_centre_distance_mm: f64,
+    /// Diametral pitch when given in inch terms.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub diametral_pitch: Option<f64>,
+    /// Stock labels of the driver.
+    #[serde(default, skip_serializing_if = "Vec::is_empty")]
+    pub driver_labels: Vec<String>,
+    /// Stock labels of the driven gear.
+    #[serde(default, skip_serializing_if = "Vec::is_empty")]
+    pub driven_labels: Vec<String>,
+    /// Profile shifts `[x_driver, x_driven]`, in modules (when meshes were worked out).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub shift: Option<[f64; 2]>,
+    /// Working centre distance actually reached, mm.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub working_centre_distance_mm: Option<f64>,
+    /// Working pressure angle, degrees.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub working_pressure_angle_deg: Option<f64>,
+    /// Transverse contact ratio.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub contact_ratio: Option<f64>,
+    /// Tip diameters `[driver, driven]`, mm.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub tip_diameter_mm: Option<[f64; 2]>,
+}
+
+impl TrainJson {
+    /// The JSON view of a train.
+    pub fn from_train(t: &Train) -> TrainJson {
+        TrainJson {
+            ratio: t.ratio.to_string(),
+            value: t.ratio.to_f64(),
+            error: t.error.to_f64(),
+            meshes: t.meshes(),
+            direction: t.direction(),
+            size: t.size(),
+            span_mm: t.span_mm(),
+            stages: t
+                .stages
+                .iter()
+                .map(|s| StageJson {
+                    driver: s.driver.teeth,
+                    driven: s.driven.teeth,
+                    module_mm: s.module_mm,
+                    pressure_angle_deg: s.pressure_angle_deg,
+                    reference_centre_distance_mm: s.centre_distance_mm(),
+                    diametral_pitch: s.diametral_pitch,
+                    driver_labels: s.driver.labels.clone(),
+                    driven_labels: s.driven.labels.clone(),
+                    shift: s.mesh.map(|m| m.shift),
+                    working_centre_distance_mm: s.mesh.map(|m| m.centre_distance_mm),
+                    working_pressure_angle_deg: s.mesh.map(|m| m.working_pressure_angle_deg),
+                    contact_ratio: s.mesh.map(|m| m.contact_ratio),
+                    tip_diameter_mm: s.mesh.map(|m| m.tip_diameter_mm),
+                })
+                .collect(),
+        }
+    }
+}
+
+/// The target as JSON.
+#[derive(Serialize, Deserialize, Debug, Clone, PartialEq)]
+pub struct TargetJson {
+    /// The ratio as typed.
+    pub ratio: String,
+    /// Its value.
+    pub value: f64,
+    /// Relative tolerance.
+    pub tolerance: f64,
+    /// The ratio exactly, reduced `p/q`.
+    pub exact: String,
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn numbers_at_their_precision() {
+        assert_eq!(mm(74.25), "74.25");
+        assert_eq!(mm(74.2500001), "74.25");
+        assert_eq!(mm(-0.0001), "0");
+        assert_eq!(shift(0.12266666169616769), "0.1227");
+        assert_eq!(shift(-0.12266666169616874), "-0.1227");
+        assert_eq!(degrees(21.5243), "21.524");
+        assert_eq!(ratio_value(1501.0 / 125.0), "12.008");
+        assert_eq!(small(0.0), "0");
+        assert_eq!(small(6.666666666666666e-4), "6.66667e-4");
+        assert_eq!(small(-2.5e-9), "-2.5e-9");
+        assert_eq!(decimals(12.0, 3), "12");
+    }
+}
