@@ -18,7 +18,11 @@ use serde_json::Value;
 
 /// Teeth of the gears by position name in one JSON setup.
 fn gear(setup: &Value, position: &str) -> Option<u64> {
-    setup["positions"].as_array()?.iter().find(|g| g["position"] == position).and_then(|g| g["teeth"].as_u64())
+    setup["positions"]
+        .as_array()?
+        .iter()
+        .find(|g| g["position"] == position)
+        .and_then(|g| g["teeth"].as_u64())
 }
 
 fn exact_simple_pairs(v: &Value) -> Vec<(u64, u64)> {
