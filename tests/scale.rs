@@ -133,6 +133,39 @@ fn ctrl_c_prints_the_best_so_far_marked_incomplete() {
     assert!(stderr.contains("interrupted"));
 }
 
+/// An interrupted run never leaves a file that passes for a whole result: with `--output x.csv`
+/// the rows found so far go to `x.incomplete.csv`, and stderr says so; `x.csv` is not written.
+#[test]
+fn an_interrupted_run_keeps_its_file_under_a_name_that_says_so() {
+    let dir = tempfile::tempdir().unwrap();
+    for (format, name, stream) in [("csv", "x.csv", "0"), ("json", "y.json", "5")] {
+        let path = dir.path().join(name);
+        let child = Command::new(env!("CARGO_BIN_EXE_gearsieve"))
+            .args(["search", "--ratio", "29.530588", "--tol", "1ppm", "--teeth", "12..150", "--stages", "4"])
+            .args(["--limit", stream, "--format", format, "--threads", "2", "--output"])
+            .arg(&path)
+            .stderr(Stdio::piped())
+            .spawn()
+            .unwrap();
+        std::thread::sleep(std::time::Duration::from_millis(1500));
+        assert!(Command::new("kill").args(["-INT", &child.id().to_string()]).status().unwrap().success());
+        let out = child.wait_with_output().unwrap();
+        let stderr = String::from_utf8_lossy(&out.stderr);
+        assert_eq!(out.status.code(), Some(130), "{stderr}");
+        assert!(!path.exists(), "{name} must not pass for a whole result");
+        let kept = path.with_file_name(name.replace('.', ".incomplete."));
+        assert!(kept.exists(), "{stderr}");
+        assert!(stderr.contains("cut short") && stderr.contains(&kept.display().to_string()), "{stderr}");
+        let text = std::fs::read_to_string(&kept).unwrap();
+        if format == "csv" {
+            assert!(text.starts_with("order,ratio"), "{text}");
+        } else {
+            let v: serde_json::Value = serde_json::from_str(&text).unwrap();
+            assert_eq!(v["complete"], false);
+        }
+    }
+}
+
 /// Run a JSON search on two threads, send it Ctrl-C after `ms`, and return its exit code, its
 /// JSON and its stderr.
 fn interrupted_after(ms: u64, args: &[&str]) -> (Option<i32>, serde_json::Value, String) {

@@ -48,16 +48,19 @@ impl Sink {
         }
     }
 
-    /// Finish: flush stdout, or flush, sync and rename the file into place. Dropping a sink
-    /// without committing deletes its temporary file.
-    pub fn commit(self) -> io::Result<()> {
+    /// Finish: flush stdout, or flush, sync and rename the file into place — under the name
+    /// asked for when the run was `complete`, else under [`incomplete_name`] so that a file cut
+    /// short by Ctrl-C can never pass for a whole result. Returns where the file went. Dropping
+    /// a sink without committing deletes its temporary file.
+    pub fn commit(self, complete: bool) -> io::Result<Option<PathBuf>> {
         match self {
-            Sink::Stdout(mut w) => w.flush(),
+            Sink::Stdout(mut w) => w.flush().map(|_| None),
             Sink::File { tmp, path } => {
+                let path = if complete { path } else { incomplete_name(&path) };
                 let tmp = tmp.into_inner().map_err(|e| e.into_error())?;
                 tmp.as_file().sync_all()?;
                 tmp.persist(&path).map_err(|e| e.error)?;
-                Ok(())
+                Ok(Some(path))
             }
         }
     }
@@ -76,10 +79,34 @@ pub fn quiet_broken_pipe(result: io::Result<()>, path: Option<&Path>) -> anyhow:
     }
 }
 
-/// Write `bytes` to `path` atomically, or to stdout when `path` is `None`. Returns false when
-/// stdout was a closed pipe (not an error).
-pub fn emit(path: Option<&Path>, bytes: &[u8]) -> anyhow::Result<bool> {
+/// Where the output of an interrupted run goes instead of `path`: `x.csv` → `x.incomplete.csv`
+/// (`x` → `x.incomplete`).
+pub fn incomplete_name(path: &Path) -> PathBuf {
+    let stem = path.file_stem().map_or_else(|| "output".into(), |s| s.to_string_lossy().into_owned());
+    let name = match path.extension() {
+        Some(ext) => format!("{stem}.incomplete.{}", ext.to_string_lossy()),
+        None => format!("{stem}.incomplete"),
+    };
+    path.with_file_name(name)
+}
+
+/// Write `bytes` to `path` atomically (under [`incomplete_name`] when the run was not
+/// `complete`), or to stdout when `path` is `None`. Returns false when stdout was a closed pipe
+/// (not an error).
+pub fn emit(path: Option<&Path>, bytes: &[u8], complete: bool) -> anyhow::Result<bool> {
     let mut sink = Sink::open(path)?;
-    let written = sink.writer().write_all(bytes).and_then(|_| sink.commit());
-    quiet_broken_pipe(written, path)
+    let written = sink.writer().write_all(bytes).and_then(|_| sink.commit(complete));
+    let kept = match written {
+        Ok(kept) => kept,
+        Err(e) => return quiet_broken_pipe(Err(e), path),
+    };
+    if let Some(kept) = kept.filter(|_| !complete) {
+        say_kept(&kept);
+    }
+    Ok(true)
+}
+
+/// Tell where the output of a run cut short went.
+pub fn say_kept(kept: &Path) {
+    eprintln!("gearsieve: the run was cut short; what it found is in {}", kept.display());
 }

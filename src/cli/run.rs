@@ -105,10 +105,10 @@ pub fn present(report: &dyn Report, print: &Print, words: &Words) -> anyhow::Res
         Err(e @ RenderError::NotOffered { .. }) => return Err(anyhow::anyhow!("--format: {e}")),
         Err(RenderError::Io(e)) => return Err(e.into()),
     }
-    if !output::emit(print.output.as_deref(), &buf)? {
+    let c = report.completion();
+    if !output::emit(print.output.as_deref(), &buf, c.complete)? {
         return Ok(EXIT_OK);
     }
-    let c = report.completion();
     Ok(status(c.complete, c.found, words))
 }
 

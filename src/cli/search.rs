@@ -381,8 +381,10 @@ fn stream(job: &SearchJob, print: &Print, options: &RunOptions) -> anyhow::Resul
         Err(RenderError::Io(e)) => return super::output::quiet_broken_pipe(Err(e), path).map(|_| EXIT_OK),
         Err(e) => return Err(anyhow::anyhow!("--format: {e}")),
     };
-    if !super::output::quiet_broken_pipe(sink.commit(), path)? {
-        return Ok(EXIT_OK);
+    match sink.commit(outcome.complete) {
+        Ok(Some(kept)) if !outcome.complete => super::output::say_kept(&kept),
+        Ok(_) => {}
+        Err(e) => return super::output::quiet_broken_pipe(Err(e), path).map(|_| EXIT_OK),
     }
     Ok(run::status(outcome.complete, outcome.count > 0, &words()))
 }
