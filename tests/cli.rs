@@ -260,3 +260,13 @@ fn help_states_the_ratio_convention() {
     assert_eq!(r.code, 0);
     assert!(r.stdout.contains("input turns per output turn"), "{}", r.stdout);
 }
+
+#[test]
+fn output_into_a_missing_folder_says_which_folder() {
+    let r = gearsieve(&["search", "--ratio", "3", "--output", "/no/such/dir/x.csv"]);
+    assert_eq!(r.code, 2);
+    assert_eq!(
+        r.stderr.trim(),
+        "gearsieve: --output /no/such/dir/x.csv: there is no folder /no/such/dir; create it first or give another path"
+    );
+}

@@ -90,7 +90,8 @@ pub fn run() -> i32 {
     match result {
         Ok(code) => code,
         Err(e) => {
-            eprintln!("gearsieve: {e}");
+            // With its causes: "cannot write the file: Permission denied (os error 13)".
+            eprintln!("gearsieve: {e:#}");
             EXIT_BAD_INPUT
         }
     }

@@ -34,6 +34,13 @@ impl Sink {
                     Some(d) if !d.as_os_str().is_empty() => d,
                     _ => Path::new("."),
                 };
+                if !dir.is_dir() {
+                    anyhow::bail!(
+                        "--output {}: there is no folder {}; create it first or give another path",
+                        path.display(),
+                        dir.display()
+                    );
+                }
                 let tmp = tempfile::NamedTempFile::new_in(dir).with_context(|| file_context(path))?;
                 Sink::File { tmp: BufWriter::new(tmp), path: path.to_path_buf() }
             }
