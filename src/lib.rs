@@ -1,9 +1,10 @@
 //! gearsieve finds gear trains: compound trains of external spur stages whose transmission
 //! ratio hits a target within a tolerance, drawn from gears to be cut or gears on hand.
 //!
-//! The library is the domain: parse a [`target::Target`], build a [`pool::Pool`] (from a tooth
-//! range or [`catalog`] files), wrap them in a validated [`problem::Problem`], run
-//! [`engine::search`], and render the [`engine::Outcome`] with one of the [`output`] sinks.
+//! The library is the domain: parse a [`numbers::target::Target`], build a
+//! [`model::pool::Pool`] (from a tooth range or [`model::catalog`] files), wrap them in a
+//! validated [`model::problem::Problem`], run [`engine::search`], and render the
+//! [`engine::Outcome`] with one of the [`report`] sinks.
 //! Nothing here parses arguments, prints or touches the terminal.
 //!
 //! ```

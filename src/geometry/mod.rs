@@ -11,7 +11,7 @@
 //!   circles, undercut limit and tooth thickness.
 //! - [`pair`]: centre distance, working pressure angle, shift sum and its split between the
 //!   gears, tip shortening, contact ratio, backlash.
-//! - [`mesh`]: a whole [`MeshGeometry`] from a [`Mounting`], and [`shift_for_centre_distance`]
+//! - [`working`]: a whole [`MeshGeometry`] from a [`Mounting`], and [`shift_for_centre_distance`]
 //!   for a search.
 //! - [`check`]: [`MeshLimits`], [`MeshDefect`] and [`check_mesh`].
 //! - [`modules`]: DIN 780 module series and diametral pitch.

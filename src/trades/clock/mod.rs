@@ -7,7 +7,7 @@
 //! - [`going`]: the going train, its arbor speeds and rate error in seconds per day;
 //! - [`motion`]: the motion work (the reverted 12:1 train) and other hand ratios;
 //! - [`astro`]: named periods, convergents, drift per year;
-//! - [`table`], [`csv`], [`json`]: the output formats.
+//! - the output formats are in [`crate::report::clock`].
 //!
 //! Direction of the ratio (ISO 1122-1, as everywhere in gearsieve): `i` = input turns per
 //! output turn. A going train is searched from the driving arbor (input) to the escape arbor

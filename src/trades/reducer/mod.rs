@@ -8,7 +8,7 @@
 //!
 //! - [`hunting`]: hunting-tooth pairs and the balance key;
 //! - [`housing`]: which stage goes in which place, at which centre distance;
-//! - [`table`], [`csv`], [`json`]: the output formats.
+//! - the output formats are in [`crate::report::reducer`].
 //!
 //! One module per stage is held by drawing the gears from a pool with the tooth range in every
 //! module and a train check that place `i` (input to output) gets module `i`; the core keeps one

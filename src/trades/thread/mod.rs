@@ -7,7 +7,7 @@
 //! - [`banjo`]: setup geometry and the reasons a setup is rejected;
 //! - [`series`]: built-in thread series and list files;
 //! - [`chart`]: the best setup for every thread of a series;
-//! - [`table`], [`csv`], [`json`]: the output formats for setups and charts.
+//! - the output formats for setups and charts are in [`crate::report::thread`].
 //!
 //! The hand of the thread is set by the tumbler reverse (common practice), so a setup's output
 //! direction is not constrained here.
