@@ -3,6 +3,7 @@
 //! exit codes, the progress bar, Ctrl-C, writing output safely.
 
 mod clock;
+mod flags;
 mod merge;
 mod mesh;
 mod output;
@@ -87,7 +88,7 @@ pub fn run() -> i32 {
     match result {
         Ok(code) => code,
         Err(e) => {
-            eprintln!("gearsieve: {e}");
+            eprintln!("gearsieve: {}", flags::message(&e));
             EXIT_BAD_INPUT
         }
     }

@@ -10,7 +10,7 @@
 //! ```
 //! Field names and meanings are stable; fields may be added. The document reads back into
 //! [`Doc`] so that `gearsieve merge` can combine the parts of a split search and print exactly
-//! what one run prints. With `--limit 0` the trains stream as JSON lines instead (one
+//! what one run prints. With a limit of 0 the trains stream as JSON lines instead (one
 //! [`TrainJson`] per line, then one [`Summary`] line).
 
 use std::io::{self, Write};

@@ -23,7 +23,7 @@ pub mod beat;
 pub mod going;
 pub mod motion;
 
-use crate::error::{Error, Result};
+use crate::error::{Error, Quantity, Result};
 use crate::model::pool::Pool;
 use crate::model::problem::{Problem, StageLimits};
 use crate::model::rank::DEFAULT_RANK;
@@ -51,7 +51,7 @@ pub fn clock_problem(
     limit: usize,
 ) -> Result<Problem> {
     if limit == 0 {
-        return Err(Error::flag("--limit", "list at least one train"));
+        return Err(Error::value(Quantity::Limit, "list at least one train"));
     }
     Problem::new(target, pool, stages, limits, None, DEFAULT_RANK.to_vec(), limit)
 }

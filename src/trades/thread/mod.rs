@@ -21,7 +21,7 @@ pub mod series;
 use std::cmp::Ordering;
 
 use crate::engine::{search, EngineKind, RunOptions};
-use crate::error::{Error, Result};
+use crate::error::{Error, Quantity, Result};
 use crate::model::pool::Pool;
 use crate::model::problem::{Problem, StageLimits, TrainCheck};
 use crate::model::rank::DEFAULT_RANK;
@@ -86,7 +86,7 @@ pub struct Lathe {
 }
 
 impl Lathe {
-    /// Check the parts; `tol_flag` names the tolerance in errors.
+    /// Check the parts against each other.
     pub fn new(
         machine: Machine,
         pool: Pool,
@@ -96,13 +96,13 @@ impl Lathe {
         limit: usize,
     ) -> Result<Lathe> {
         if tolerance > MAX_TOLERANCE {
-            return Err(Error::flag(
-                "--tol",
+            return Err(Error::value(
+                Quantity::Tolerance,
                 "a pitch tolerance above 10% cuts a different thread; give 0 (exact) up to 10%",
             ));
         }
         if limit == 0 {
-            return Err(Error::flag("--limit", "list at least one setup"));
+            return Err(Error::value(Quantity::Limit, "list at least one setup"));
         }
         // Problem::new checks the stage range; check it here too so the error comes early.
         let probe = Target::exact("1", Ratio::integer(1), Ratio::integer(0));
