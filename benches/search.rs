@@ -11,7 +11,7 @@ use gearsieve::{search, EngineKind, Problem, RunOptions, StageLimits};
 
 fn problem(ratio: &str, tol: &str, teeth: (u32, u32), stages: (u32, u32)) -> Problem {
     let pool = Pool::to_cut(IntRange { lo: teeth.0, hi: teeth.1 }, 1.0, 20.0, None).expect("pool");
-    let target = Target::parse(ratio, tol, "--ratio", "--tol").expect("target");
+    let target = Target::parse(ratio, tol).expect("target");
     let stages = IntRange { lo: stages.0, hi: stages.1 };
     Problem::new(target, pool, stages, StageLimits::default(), None, DEFAULT_RANK.to_vec(), 20)
         .expect("problem")

@@ -162,7 +162,7 @@ proptest! {
 #[test]
 fn results_do_not_depend_on_thread_count() {
     let pool = Pool::to_cut(IntRange { lo: 12, hi: 80 }, 1.0, 20.0, None).unwrap();
-    let target = Target::parse("29.530588", "100ppm", "--ratio", "--tol").unwrap();
+    let target = Target::parse("29.530588", "100ppm").unwrap();
     let p = Problem::new(
         target,
         pool,
@@ -221,7 +221,7 @@ fn meet_engine_matches_the_reference_on_four_stages() {
         ("1.5", "1%", vec![RankKey::Span]),
     ] {
         let pool = Pool::to_cut(IntRange { lo: 12, hi: 24 }, 1.0, 20.0, None).unwrap();
-        let target = Target::parse(ratio, tol, "--ratio", "--tol").unwrap();
+        let target = Target::parse(ratio, tol).unwrap();
         let mut p =
             Problem::new(target, pool, IntRange { lo: 1, hi: 4 }, StageLimits::default(), None, rank, 25)
                 .unwrap();
@@ -306,7 +306,7 @@ fn factor_engine_equals_exhaustive_on_five_and_six_stages() {
         [("7/5", (5, 9), None), ("1", (6, 9), None), ("64/27", (3, 8), Some((3, 5)))]
     {
         let pool = Pool::to_cut(IntRange { lo: teeth.0, hi: teeth.1 }, 1.0, 20.0, None).unwrap();
-        let target = Target::parse(ratio, "0", "--ratio", "--tol").unwrap();
+        let target = Target::parse(ratio, "0").unwrap();
         let limits = StageLimits {
             driver_teeth: driver.map(|(lo, hi)| IntRange { lo, hi }),
             ..StageLimits::default()
@@ -328,7 +328,7 @@ fn factor_engine_agrees_with_the_sieve_on_four_stages() {
         [("7/5", DEFAULT_RANK.to_vec()), ("37/30", vec![RankKey::Span]), ("1", vec![RankKey::Error])]
     {
         let pool = Pool::to_cut(IntRange { lo: 12, hi: 40 }, 1.0, 20.0, None).unwrap();
-        let target = Target::parse(ratio, "0", "--ratio", "--tol").unwrap();
+        let target = Target::parse(ratio, "0").unwrap();
         let p = Problem::new(target, pool, IntRange { lo: 4, hi: 4 }, StageLimits::default(), None, rank, 20)
             .unwrap();
         let sieve = run(&p, EngineKind::Sieve);
@@ -387,7 +387,7 @@ fn four_stage_count_by_value_pairs(lo: u64, hi: u64, p: u64, q: u64) -> u128 {
 
 fn factor_count(lo: u32, hi: u32, ratio: &str) -> u64 {
     let pool = Pool::to_cut(IntRange { lo, hi }, 1.0, 20.0, None).unwrap();
-    let target = Target::parse(ratio, "0", "--ratio", "--tol").unwrap();
+    let target = Target::parse(ratio, "0").unwrap();
     let p = Problem::new(
         target,
         pool,

@@ -84,8 +84,8 @@ fn simple_trains_of_the_published_examples() {
         assert_eq!(code, 0, "{thread} on {screw}");
         let pairs = exact_simple_pairs(&v);
         assert!(pairs.contains(&pair), "{thread} on {screw}: {pairs:?}");
-        let want = parse_leadscrew(screw, "s").unwrap().mm.value.to_f64()
-            / parse_pitch(thread, "p").unwrap().mm.value.to_f64();
+        let want = parse_leadscrew(screw).unwrap().mm.value.to_f64()
+            / parse_pitch(thread).unwrap().mm.value.to_f64();
         for (a, b) in pairs {
             assert!((b as f64 / a as f64 - want).abs() < 1e-12, "{a}→{b}");
         }
@@ -418,9 +418,9 @@ fn chart_covers_the_series_and_marks_what_is_out_of_reach() {
 #[test]
 fn shipped_lathe_files_load() {
     let root = std::path::Path::new(env!("CARGO_MANIFEST_DIR")).join("catalogs");
-    let b = load_banjo(&root.join("lathe/brackenfold.banjo"), "--banjo").unwrap();
+    let b = load_banjo(&root.join("lathe/brackenfold.banjo")).unwrap();
     assert!(b.stud_to_leadscrew_mm > 0.0);
-    let g = load_gearbox(&root.join("lathe/brackenfold.gearbox"), "--gearbox").unwrap();
+    let g = load_gearbox(&root.join("lathe/brackenfold.gearbox")).unwrap();
     assert_eq!(g.len(), 3);
     let with = load(&root.join("lathe-change-gears.csv"), CatalogueDefaults::default()).unwrap();
     let without = load(&root.join("lathe-change-gears-no127.csv"), CatalogueDefaults::default()).unwrap();
@@ -525,7 +525,7 @@ proptest! {
     ) {
         let teeth: Vec<u32> = teeth.into_iter().collect();
         let machine = Machine {
-            leadscrew: parse_leadscrew(tpi_screw, "--leadscrew").unwrap(),
+            leadscrew: parse_leadscrew(tpi_screw).unwrap(),
             stud_ratio: Ratio::integer(1),
             gearbox: gearbox.unwrap_or_default().into_iter().enumerate().map(|(i, (n, d))| {
                 GearboxPosition { name: format!("P{i}"), ratio: Ratio::new(n as u128, d as u128).unwrap() }
@@ -543,7 +543,7 @@ proptest! {
         let tol = Ratio::new(tol_ppm as u128, 1_000_000).unwrap();
         let lathe = Lathe::new(machine.clone(), pool, Some(banjo.clone()),
             IntRange { lo: 1, hi: 2 }, tol, 8).unwrap();
-        let spec = ThreadSpec { pitch: parse_pitch(thread, "--pitch").unwrap(), starts };
+        let spec = ThreadSpec { pitch: parse_pitch(thread).unwrap(), starts };
         let plan = lathe.plan(&spec, &RunOptions::default()).unwrap();
         prop_assert!(plan.setups.len() as u64 <= plan.count);
         let want_mm = spec.pitch.mm.value.to_f64();

@@ -14,6 +14,7 @@ use gearsieve::model::pool::{
 use gearsieve::numbers::range::{parse_float_range, parse_int_range, parse_ratio_range};
 use gearsieve::numbers::rational::{gcd, Ratio};
 use gearsieve::numbers::target::{parse_ratio, parse_tolerance};
+use gearsieve::Quantity;
 
 /// The file name the catalogue checks pass to the loader; every error must name it.
 pub const CATALOGUE_NAME: &str = "fuzz.csv";
@@ -49,10 +50,10 @@ fn assert_reduced_positive(r: Ratio, what: &str, input: &str) {
     assert_eq!(gcd(r.num() as u128, r.den() as u128), 1, "{what} of {input:?} is not reduced: {r:?}");
 }
 
-fn assert_names_flag(message: &str, flag: &str, input: &str) {
+fn assert_names_quantity(message: &str, quantity: Quantity, input: &str) {
     assert!(
-        message.starts_with(&format!("{flag}: ")),
-        "error for {input:?} does not start with \"{flag}: \": {message}"
+        message.starts_with(&format!("{quantity}: ")),
+        "error for {input:?} does not start with \"{quantity}: \": {message}"
     );
 }
 
@@ -64,38 +65,38 @@ fn assert_names_flag(message: &str, flag: &str, input: &str) {
 /// - A ratio range has at least one end, each end positive and reduced, `lo ≤ hi`.
 /// - A length range has `lo ≤ hi`; each end is finite and positive unless left open (`0` below,
 ///   infinity above).
-/// - Every error message starts with the flag it was given.
+/// - Every error message starts with the quantity it was given.
 ///
 /// Panics on a broken invariant (and, of course, if a parser panics).
 pub fn check_text(input: &str) -> TextOutcome {
     let mut seen = TextOutcome::default();
 
-    match parse_ratio(input, "--ratio") {
+    match parse_ratio(input, Quantity::TargetRatio) {
         Ok(r) => {
             seen.ratio = true;
             assert!(r.num() > 0, "ratio of {input:?} is not positive: {r:?}");
             assert_reduced_positive(r, "ratio", input);
             let shown = r.to_string();
-            match parse_ratio(&shown, "--ratio") {
+            match parse_ratio(&shown, Quantity::TargetRatio) {
                 Ok(again) => {
                     assert_eq!(again, r, "ratio of {input:?} shown as {shown:?} reads back differently")
                 }
                 Err(e) => panic!("ratio of {input:?} shown as {shown:?} does not read back: {e}"),
             }
         }
-        Err(e) => assert_names_flag(&e.to_string(), "--ratio", input),
+        Err(e) => assert_names_quantity(&e.to_string(), Quantity::TargetRatio, input),
     }
 
-    match parse_tolerance(input, "--tol") {
+    match parse_tolerance(input) {
         Ok(t) => {
             seen.tolerance = true;
             assert_reduced_positive(t, "tolerance", input);
             assert!(t.num() < t.den(), "tolerance of {input:?} is not below 1: {t:?}");
         }
-        Err(e) => assert_names_flag(&e.to_string(), "--tol", input),
+        Err(e) => assert_names_quantity(&e.to_string(), Quantity::Tolerance, input),
     }
 
-    match parse_int_range(input, "--teeth", "teeth", MIN_TEETH, MAX_TEETH) {
+    match parse_int_range(input, Quantity::ToothRange, "teeth", MIN_TEETH, MAX_TEETH) {
         Ok(r) => {
             seen.int_range = true;
             assert!(
@@ -103,7 +104,7 @@ pub fn check_text(input: &str) -> TextOutcome {
                 "teeth range of {input:?} is out of bounds: {r:?}"
             );
             let shown = r.to_string();
-            match parse_int_range(&shown, "--teeth", "teeth", MIN_TEETH, MAX_TEETH) {
+            match parse_int_range(&shown, Quantity::ToothRange, "teeth", MIN_TEETH, MAX_TEETH) {
                 Ok(again) => {
                     assert_eq!(again, r, "teeth range of {input:?} shown as {shown:?} reads back differently")
                 }
@@ -112,10 +113,10 @@ pub fn check_text(input: &str) -> TextOutcome {
                 }
             }
         }
-        Err(e) => assert_names_flag(&e.to_string(), "--teeth", input),
+        Err(e) => assert_names_quantity(&e.to_string(), Quantity::ToothRange, input),
     }
 
-    match parse_ratio_range(input, "--stage-ratio") {
+    match parse_ratio_range(input, Quantity::StageRatio) {
         Ok(r) => {
             seen.ratio_range = true;
             assert!(r.lo.is_some() || r.hi.is_some(), "ratio range of {input:?} has no end");
@@ -127,10 +128,10 @@ pub fn check_text(input: &str) -> TextOutcome {
                 assert!(lo <= hi, "ratio range of {input:?} is inverted: {r:?}");
             }
         }
-        Err(e) => assert_names_flag(&e.to_string(), "--stage-ratio", input),
+        Err(e) => assert_names_quantity(&e.to_string(), Quantity::StageRatio, input),
     }
 
-    match parse_float_range(input, "--centre-distance", "mm") {
+    match parse_float_range(input, Quantity::CentreDistance, "mm") {
         Ok(r) => {
             seen.float_range = true;
             assert!(r.lo <= r.hi, "length range of {input:?} is inverted or NaN: {r:?}");
@@ -144,7 +145,7 @@ pub fn check_text(input: &str) -> TextOutcome {
             );
             assert!(r.lo > 0.0 || r.hi.is_finite(), "length range of {input:?} is open at both ends: {r:?}");
         }
-        Err(e) => assert_names_flag(&e.to_string(), "--centre-distance", input),
+        Err(e) => assert_names_quantity(&e.to_string(), Quantity::CentreDistance, input),
     }
 
     seen

@@ -16,9 +16,10 @@ use gearsieve::trades::clock::beat::{Beat, Escapement, STANDARD_GRAVITY};
 use gearsieve::trades::clock::going::{parse_rate_tolerance, GoingPlan, GoingSpec};
 use gearsieve::trades::clock::motion::{Dial, MotionPlan, MotionSpec};
 use gearsieve::trades::clock::{going, motion};
-use gearsieve::{Error, RunOptions};
+use gearsieve::{Error, Quantity, RunOptions};
 
 use super::args::{load_stock, PrintArgs};
+use super::flags::refuse;
 use super::run::{self, Job, Print, Words};
 
 /// Clock trains: the going train, the motion work, astronomical trains.
@@ -152,7 +153,13 @@ pub struct AstroArgs {
 }
 
 fn stages(g: &ClockGears, default: &str) -> Result<IntRange, Error> {
-    parse_int_range(g.stages.as_deref().unwrap_or(default), "--stages", "stages", 1, MAX_STAGES as u32)
+    parse_int_range(
+        g.stages.as_deref().unwrap_or(default),
+        Quantity::StageCount,
+        "stages",
+        1,
+        MAX_STAGES as u32,
+    )
 }
 
 fn pool(g: &ClockGears, teeth: IntRange) -> Result<Pool, Error> {
@@ -163,8 +170,8 @@ fn pool(g: &ClockGears, teeth: IntRange) -> Result<Pool, Error> {
     }
 }
 
-fn teeth(text: &str, flag: &str) -> Result<IntRange, Error> {
-    parse_int_range(text, flag, "teeth", MIN_TEETH, MAX_TEETH)
+fn teeth(text: &str, quantity: Quantity) -> Result<IntRange, Error> {
+    parse_int_range(text, quantity, "teeth", MIN_TEETH, MAX_TEETH)
 }
 
 fn span(a: IntRange, b: IntRange) -> IntRange {
@@ -172,19 +179,19 @@ fn span(a: IntRange, b: IntRange) -> IntRange {
 }
 
 impl TryFrom<&GoingArgs> for GoingSpec {
-    type Error = Error;
+    type Error = anyhow::Error;
 
-    fn try_from(a: &GoingArgs) -> Result<GoingSpec, Error> {
+    fn try_from(a: &GoingArgs) -> anyhow::Result<GoingSpec> {
         let beat = match (&a.pendulum, &a.period, &a.beats_per_hour) {
             (Some(m), _, _) => Beat::from_length(*m, a.gravity)?,
-            (None, Some(s), _) => Beat::from_period(parse_ratio(s, "--period")?),
-            (None, None, Some(b)) => Beat::from_beats_per_hour(parse_ratio(b, "--beats-per-hour")?),
-            _ => return Err(Error::flag("--period", "give --pendulum M, --period S or --beats-per-hour N")),
+            (None, Some(s), _) => Beat::from_period(parse_ratio(s, Quantity::PendulumPeriod)?),
+            (None, None, Some(b)) => Beat::from_beats_per_hour(parse_ratio(b, Quantity::BeatsPerHour)?),
+            _ => return Err(refuse("--period", "give --pendulum M, --period S or --beats-per-hour N")),
         };
-        let wheels = teeth(&a.wheels, "--wheels")?;
-        let pinions = teeth(&a.pinions, "--pinions")?;
+        let wheels = teeth(&a.wheels, Quantity::WheelTeeth)?;
+        let pinions = teeth(&a.pinions, Quantity::PinionLeaves)?;
         if pinions.lo < 6 {
-            return Err(Error::flag(
+            return Err(refuse(
                 "--pinions",
                 format!("clock pinions have at least 6 leaves, found {pinions}"),
             ));
@@ -192,34 +199,34 @@ impl TryFrom<&GoingArgs> for GoingSpec {
         Ok(GoingSpec {
             beat,
             escapement: Escapement::new(a.escape_teeth, a.beats_per_tooth)?,
-            from_turns_per_hour: parse_ratio(&a.from_turns_per_hour, "--from-turns-per-hour")?,
+            from_turns_per_hour: parse_ratio(&a.from_turns_per_hour, Quantity::InputTurnsPerHour)?,
             pool: pool(&a.gears, span(wheels, pinions))?,
             wheels,
             pinions,
             stages: stages(&a.gears, "1..3")?,
-            rate_tolerance_s_per_day: parse_rate_tolerance(&a.rate_tol, "--rate-tol")?,
+            rate_tolerance_s_per_day: parse_rate_tolerance(&a.rate_tol)?,
             limit: a.gears.limit,
         })
     }
 }
 
 impl TryFrom<&MotionArgs> for MotionSpec {
-    type Error = Error;
+    type Error = anyhow::Error;
 
-    fn try_from(a: &MotionArgs) -> Result<MotionSpec, Error> {
+    fn try_from(a: &MotionArgs) -> anyhow::Result<MotionSpec> {
         let (ratio, ratio_text) = match &a.ratio {
-            Some(r) => (parse_ratio(r, "--ratio")?, r.trim().to_string()),
-            None => (Dial::parse(&a.dial, "--dial")?.ratio(), a.dial.trim().to_string()),
+            Some(r) => (parse_ratio(r, Quantity::TargetRatio)?, r.trim().to_string()),
+            None => (Dial::parse(&a.dial)?.ratio(), a.dial.trim().to_string()),
         };
-        let pinions = teeth(&a.pinions, "--pinions")?;
-        let wheels = teeth(&a.wheels, "--wheels")?;
+        let pinions = teeth(&a.pinions, Quantity::PinionLeaves)?;
+        let wheels = teeth(&a.wheels, Quantity::WheelTeeth)?;
         if !(a.min_contact_ratio.is_finite() && a.min_contact_ratio >= 0.0) {
-            return Err(Error::flag("--min-contact-ratio", "wanted a number of 0 or more, e.g. 1.2"));
+            return Err(refuse("--min-contact-ratio", "wanted a number of 0 or more, e.g. 1.2"));
         }
         Ok(MotionSpec {
             ratio,
             ratio_text,
-            tolerance: parse_tolerance(&a.tol, "--tol")?,
+            tolerance: parse_tolerance(&a.tol)?,
             pool: pool(&a.gears, span(wheels, pinions))?,
             pinions,
             wheels,
@@ -233,21 +240,19 @@ impl TryFrom<&MotionArgs> for MotionSpec {
 }
 
 impl TryFrom<&AstroArgs> for AstroSpec {
-    type Error = Error;
+    type Error = anyhow::Error;
 
-    fn try_from(a: &AstroArgs) -> Result<AstroSpec, Error> {
+    fn try_from(a: &AstroArgs) -> anyhow::Result<AstroSpec> {
         let from = match a.from.trim() {
             "day" | "daily" => InputArbor::Daily,
             "hour" | "hourly" => InputArbor::Hourly,
-            other => {
-                return Err(Error::flag("--from", format!("unknown arbor \"{other}\"; wanted day or hour")))
-            }
+            other => return Err(refuse("--from", format!("unknown arbor \"{other}\"; wanted day or hour"))),
         };
         Ok(AstroSpec {
-            period: Period::parse(&a.period, "--period")?,
+            period: Period::parse(&a.period)?,
             from,
-            tolerance: parse_tolerance(&a.tol, "--tol")?,
-            pool: pool(&a.gears, teeth(&a.teeth, "--teeth")?)?,
+            tolerance: parse_tolerance(&a.tol)?,
+            pool: pool(&a.gears, teeth(&a.teeth, Quantity::ToothRange)?)?,
             stages: stages(&a.gears, "1..2")?,
             limit: a.gears.limit,
         })
@@ -265,8 +270,8 @@ fn words(hint: &str) -> Words {
 impl Job for GoingSpec {
     type Found = GoingPlan;
 
-    fn search(&self, options: &RunOptions) -> Result<GoingPlan, Error> {
-        self.plan(options)
+    fn search(&self, options: &RunOptions) -> anyhow::Result<GoingPlan> {
+        Ok(self.plan(options)?)
     }
 
     fn report<'a>(&'a self, found: &'a GoingPlan) -> Box<dyn Report + 'a> {
@@ -281,8 +286,8 @@ impl Job for GoingSpec {
 impl Job for MotionSpec {
     type Found = MotionPlan;
 
-    fn search(&self, options: &RunOptions) -> Result<MotionPlan, Error> {
-        self.plan(options)
+    fn search(&self, options: &RunOptions) -> anyhow::Result<MotionPlan> {
+        Ok(self.plan(options)?)
     }
 
     fn report<'a>(&'a self, found: &'a MotionPlan) -> Box<dyn Report + 'a> {
@@ -297,8 +302,8 @@ impl Job for MotionSpec {
 impl Job for AstroSpec {
     type Found = AstroPlan;
 
-    fn search(&self, options: &RunOptions) -> Result<AstroPlan, Error> {
-        self.plan(options)
+    fn search(&self, options: &RunOptions) -> anyhow::Result<AstroPlan> {
+        Ok(self.plan(options)?)
     }
 
     fn report<'a>(&'a self, found: &'a AstroPlan) -> Box<dyn Report + 'a> {

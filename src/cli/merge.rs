@@ -31,9 +31,9 @@ pub fn run(args: MergeArgs) -> anyhow::Result<i32> {
     for f in &args.files {
         let name = f.display().to_string();
         let text =
-            std::fs::read_to_string(f).map_err(|e| Error::Problem(format!("{name}: cannot read it: {e}")))?;
+            std::fs::read_to_string(f).map_err(|e| Error::problem(format!("{name}: cannot read it: {e}")))?;
         let doc: Doc = serde_json::from_str(&text)
-            .map_err(|e| Error::Problem(format!("{name}: not the JSON of a gearsieve search ({e})")))?;
+            .map_err(|e| Error::problem(format!("{name}: not the JSON of a gearsieve search ({e})")))?;
         docs.push((name, doc));
     }
     let merged = gearsieve::report::search::merge::merge(docs)?;

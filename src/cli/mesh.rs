@@ -16,9 +16,10 @@ use gearsieve::model::problem::DEFAULT_SHIFT_SUM;
 use gearsieve::numbers::range::parse_signed_range;
 use gearsieve::report::mesh::{MeshInputs, MeshReport, MountingInput};
 use gearsieve::report::Report;
-use gearsieve::Error;
+use gearsieve::{Error, Quantity};
 
 use super::args::FormatArg;
+use super::flags::refuse;
 use super::run::{self, Job, Print, Words};
 
 /// The full geometry of one external spur pair, the check a designer runs before cutting.
@@ -93,9 +94,9 @@ pub struct MeshJob {
 }
 
 /// `Z1,Z2` as two tooth counts within the pool's limits.
-fn parse_teeth(text: &str) -> Result<[u32; 2], Error> {
+fn parse_teeth(text: &str) -> anyhow::Result<[u32; 2]> {
     let bad = || {
-        Error::flag(
+        refuse(
             "--teeth",
             format!(
                 "wanted two tooth counts such as 12,40, each from {MIN_TEETH} to {MAX_TEETH}, \
@@ -113,9 +114,9 @@ fn parse_teeth(text: &str) -> Result<[u32; 2], Error> {
 }
 
 /// `X1,X2` as two finite profile shifts.
-fn parse_shift(text: &str) -> Result<[f64; 2], Error> {
+fn parse_shift(text: &str) -> anyhow::Result<[f64; 2]> {
     let bad = || {
-        Error::flag(
+        refuse(
             "--shift",
             format!(
                 "wanted two profile shifts in modules such as 0.3,-0.1 (driver first), found \
@@ -132,7 +133,7 @@ fn parse_shift(text: &str) -> Result<[f64; 2], Error> {
 }
 
 /// A positive length in mm, or in inches with an `in` suffix (`mm` is accepted too).
-fn parse_centre_distance(text: &str) -> Result<f64, Error> {
+fn parse_centre_distance(text: &str) -> anyhow::Result<f64> {
     let t = text.trim();
     let (number, per_unit) = match (t.strip_suffix("in"), t.strip_suffix("mm")) {
         (Some(n), _) => (n, MM_PER_INCH),
@@ -146,7 +147,7 @@ fn parse_centre_distance(text: &str) -> Result<f64, Error> {
         .map(|v| v * per_unit)
         .filter(|mm| mm.is_finite() && *mm > 0.0)
         .ok_or_else(|| {
-            Error::flag(
+            refuse(
                 "--centre-distance",
                 format!(
                     "wanted a positive working centre distance in mm such as 52.5, or in \
@@ -157,33 +158,31 @@ fn parse_centre_distance(text: &str) -> Result<f64, Error> {
 }
 
 /// A number that must be finite and satisfy `ok`, else `--flag: wanted …, found …`.
-fn check_number(flag: &str, value: f64, ok: bool, wanted: &str) -> Result<f64, Error> {
+fn check_number(flag: &str, value: f64, ok: bool, wanted: &str) -> anyhow::Result<f64> {
     if value.is_finite() && ok {
         Ok(value)
     } else {
-        Err(Error::flag(flag, format!("wanted {wanted}, found {value}")))
+        Err(refuse(flag, format!("wanted {wanted}, found {value}")))
     }
 }
 
 impl TryFrom<MeshArgs> for MeshJob {
-    type Error = Error;
+    type Error = anyhow::Error;
 
-    fn try_from(a: MeshArgs) -> Result<MeshJob, Error> {
+    fn try_from(a: MeshArgs) -> anyhow::Result<MeshJob> {
         let teeth = parse_teeth(&a.teeth)?;
         let (module_mm, diametral_pitch) = match (a.module, a.diametral_pitch) {
             (Some(m), _) => (check_number("--module", m, m > 0.0, "a positive number of millimetres")?, None),
             (None, Some(p)) => match module_from_diametral_pitch(p) {
                 Some(m) => (m, Some(p)),
                 None => {
-                    return Err(Error::flag(
+                    return Err(refuse(
                         "--diametral-pitch",
                         format!("wanted a positive number of teeth per inch, found {p}"),
                     ))
                 }
             },
-            (None, None) => {
-                return Err(Error::flag("--module", "wanted a module in mm, or --diametral-pitch"))
-            }
+            (None, None) => return Err(refuse("--module", "wanted a module in mm, or --diametral-pitch")),
         };
         let pa = a.pressure_angle;
         check_number(
@@ -225,7 +224,7 @@ impl TryFrom<MeshArgs> for MeshJob {
                 // The same default and syntax as `search --shift-sum`, so a pair that
                 // search reports at a centre distance is checked here the same way.
                 shift_sum_range: match &a.shift_sum {
-                    Some(s) => parse_signed_range(s, "--shift-sum", "modules")?,
+                    Some(s) => parse_signed_range(s, Quantity::ShiftSum, "modules")?,
                     None => DEFAULT_SHIFT_SUM,
                 }
                 .into(),
@@ -283,9 +282,9 @@ fn reachable(job: &MeshJob, range: [f64; 2]) -> Option<String> {
 
 /// A failure of the geometry as a one-line message naming the flag it came from; a centre
 /// distance out of reach also says which distances the allowed shift sums do reach.
-fn explain(job: &MeshJob, defect: MeshDefect) -> Error {
+fn explain(job: &MeshJob, defect: MeshDefect) -> anyhow::Error {
     match (job.inputs.mounting, defect) {
-        (MountingInput::Shifted { .. }, _) => Error::flag("--shift", defect.to_string()),
+        (MountingInput::Shifted { .. }, _) => refuse("--shift", defect.to_string()),
         (
             MountingInput::AtCentreDistance { shift_sum_range, .. },
             MeshDefect::CentreDistanceUnreachable { .. } | MeshDefect::ShiftSumOutOfRange { .. },
@@ -294,9 +293,9 @@ fn explain(job: &MeshJob, defect: MeshDefect) -> Error {
                 Some(words) => format!("reachable with this --shift-sum: {words}"),
                 None => "no centre distance is reachable with this --shift-sum".to_string(),
             };
-            Error::flag("--centre-distance", format!("{defect}; {range}"))
+            refuse("--centre-distance", format!("{defect}; {range}"))
         }
-        (MountingInput::AtCentreDistance { .. }, _) => Error::flag("--centre-distance", defect.to_string()),
+        (MountingInput::AtCentreDistance { .. }, _) => refuse("--centre-distance", defect.to_string()),
     }
 }
 
@@ -317,7 +316,7 @@ fn geometry(job: &MeshJob) -> Result<MeshGeometry, MeshDefect> {
 impl Job for MeshJob {
     type Found = (MeshGeometry, Vec<MeshDefect>);
 
-    fn search(&self, _options: &RunOptions) -> Result<Self::Found, Error> {
+    fn search(&self, _options: &RunOptions) -> anyhow::Result<Self::Found> {
         let mesh = geometry(self).map_err(|d| explain(self, d))?;
         let defects = check_mesh(&mesh, &self.limits);
         Ok((mesh, defects))

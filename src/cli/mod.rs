@@ -5,6 +5,7 @@
 
 mod args;
 mod clock;
+mod flags;
 mod merge;
 mod mesh;
 mod output;
@@ -90,8 +91,7 @@ pub fn run() -> i32 {
     match result {
         Ok(code) => code,
         Err(e) => {
-            // With its causes: "cannot write the file: Permission denied (os error 13)".
-            eprintln!("gearsieve: {e:#}");
+            eprintln!("gearsieve: {}", flags::message(&e));
             EXIT_BAD_INPUT
         }
     }

@@ -12,9 +12,10 @@ use gearsieve::numbers::range::{parse_int_range, parse_signed_range, IntRange};
 use gearsieve::numbers::target::{parse_ratio, parse_tolerance};
 use gearsieve::report::Report;
 use gearsieve::trades::reducer::{Hunting, Priority, ReducerPlan, ReducerSpec, DEFAULT_MAX_STAGE_RATIO};
-use gearsieve::{Error, RunOptions};
+use gearsieve::{Quantity, RunOptions};
 
 use super::args::{load_stock, PrintArgs};
+use super::flags::refuse;
 use super::run::{self, Job, Print, Words};
 
 /// The hunting-tooth flag.
@@ -97,28 +98,28 @@ pub struct ReducerArgs {
 }
 
 impl TryFrom<&ReducerArgs> for ReducerSpec {
-    type Error = Error;
+    type Error = anyhow::Error;
 
-    fn try_from(a: &ReducerArgs) -> Result<ReducerSpec, Error> {
-        let input_rpm = a.input_rpm.as_deref().map(|s| parse_ratio(s, "--input-rpm")).transpose()?;
+    fn try_from(a: &ReducerArgs) -> anyhow::Result<ReducerSpec> {
+        let input_rpm = a.input_rpm.as_deref().map(|s| parse_ratio(s, Quantity::InputSpeed)).transpose()?;
         let (ratio, ratio_text) = match (&a.ratio, &a.output_rpm, input_rpm) {
-            (Some(r), _, _) => (parse_ratio(r, "--ratio")?, r.trim().to_string()),
+            (Some(r), _, _) => (parse_ratio(r, Quantity::TargetRatio)?, r.trim().to_string()),
             (None, Some(out), Some(inp)) => {
-                let out = parse_ratio(out, "--output-rpm")?;
+                let out = parse_ratio(out, Quantity::OutputSpeed)?;
                 let r = Exact::of(inp).over(Exact::of(out));
                 (r.value, format!("{inp} rpm in / {out} rpm out"))
             }
-            _ => return Err(Error::flag("--ratio", "give --ratio R, or --input-rpm and --output-rpm")),
+            _ => return Err(refuse("--ratio", "give --ratio R, or --input-rpm and --output-rpm")),
         };
         if a.min_teeth > a.max_teeth {
-            return Err(Error::flag(
+            return Err(refuse(
                 "--min-teeth",
                 format!("{} is above --max-teeth {}", a.min_teeth, a.max_teeth),
             ));
         }
         let teeth = parse_int_range(
             &format!("{}..{}", a.min_teeth, a.max_teeth),
-            "--min-teeth",
+            Quantity::ToothLimits,
             "teeth",
             MIN_TEETH,
             MAX_TEETH,
@@ -132,17 +133,17 @@ impl TryFrom<&ReducerArgs> for ReducerSpec {
             )?)
         };
         let shift_sum = match &a.shift_sum {
-            Some(s) => parse_signed_range(s, "--shift-sum", "modules")?,
+            Some(s) => parse_signed_range(s, Quantity::ShiftSum, "modules")?,
             None => gearsieve::model::problem::DEFAULT_SHIFT_SUM,
         };
         Ok(ReducerSpec {
             ratio,
             ratio_text,
-            tolerance: parse_tolerance(&a.tol, "--tol")?,
-            stages: parse_int_range(&a.stages, "--stages", "stages", 1, MAX_STAGES as u32)?,
+            tolerance: parse_tolerance(&a.tol)?,
+            stages: parse_int_range(&a.stages, Quantity::StageCount, "stages", 1, MAX_STAGES as u32)?,
             modules: a.modules.clone(),
             teeth: IntRange { lo: teeth.lo, hi: teeth.hi },
-            max_stage_ratio: parse_ratio(&a.max_stage_ratio, "--max-stage-ratio")?,
+            max_stage_ratio: parse_ratio(&a.max_stage_ratio, Quantity::MaxStageRatio)?,
             centre_distances_mm: a.centre_distances.clone(),
             shift_sum,
             hunting: match a.hunting {
@@ -164,8 +165,8 @@ impl TryFrom<&ReducerArgs> for ReducerSpec {
 impl Job for ReducerSpec {
     type Found = ReducerPlan;
 
-    fn search(&self, options: &RunOptions) -> Result<ReducerPlan, Error> {
-        self.plan(options)
+    fn search(&self, options: &RunOptions) -> anyhow::Result<ReducerPlan> {
+        Ok(self.plan(options)?)
     }
 
     fn report<'a>(&'a self, found: &'a ReducerPlan) -> Box<dyn Report + 'a> {

@@ -6,7 +6,6 @@ use std::path::PathBuf;
 
 use gearsieve::engine::{RunOptions, Shard};
 use gearsieve::report::{render, Format, RenderError, Report};
-use gearsieve::Error;
 
 use super::args::PrintArgs;
 use super::progress::Bar;
@@ -51,7 +50,7 @@ pub trait Job: Sync {
     type Found: Send;
 
     /// Run the search. Called inside the worker pool.
-    fn search(&self, options: &RunOptions) -> Result<Self::Found, Error>;
+    fn search(&self, options: &RunOptions) -> anyhow::Result<Self::Found>;
 
     /// Present what was found.
     fn report<'a>(&'a self, found: &'a Self::Found) -> Box<dyn Report + 'a>;

@@ -16,9 +16,10 @@ use gearsieve::numbers::target::Target;
 use gearsieve::report::search::stream::Stream;
 use gearsieve::report::search::SearchReport;
 use gearsieve::report::{RenderError, Report};
-use gearsieve::{EngineKind, Error, Problem, RunOptions, StageLimits};
+use gearsieve::{EngineKind, Problem, Quantity, RunOptions, StageLimits};
 
 use super::args::{load_stock, FormatArg, PrintArgs};
+use super::flags::refuse;
 use super::progress::Bar;
 use super::run::{self, Job, Print, Words};
 use super::EXIT_OK;
@@ -155,12 +156,12 @@ pub struct SearchJob {
     long: bool,
 }
 
-fn module_from_flags(module: Option<f64>, dp: Option<f64>) -> Result<Option<(f64, Option<f64>)>, Error> {
+fn module_from_flags(module: Option<f64>, dp: Option<f64>) -> anyhow::Result<Option<(f64, Option<f64>)>> {
     match (module, dp) {
         (Some(m), _) => Ok(Some((m, None))),
         (None, Some(p)) => match module_from_diametral_pitch(p) {
             Some(m) => Ok(Some((m, Some(p)))),
-            None => Err(Error::flag(
+            None => Err(refuse(
                 "--diametral-pitch",
                 format!("wanted a positive number of teeth per inch, found {p}"),
             )),
@@ -170,14 +171,14 @@ fn module_from_flags(module: Option<f64>, dp: Option<f64>) -> Result<Option<(f64
 }
 
 impl TryFrom<SearchArgs> for SearchJob {
-    type Error = Error;
+    type Error = anyhow::Error;
 
-    fn try_from(a: SearchArgs) -> Result<SearchJob, Error> {
-        let target = Target::parse(&a.ratio, &a.tol, "--ratio", "--tol")?;
+    fn try_from(a: SearchArgs) -> anyhow::Result<SearchJob> {
+        let target = Target::parse(&a.ratio, &a.tol)?;
         let module = module_from_flags(a.module, a.diametral_pitch)?;
         let pool = if a.stock.is_empty() {
             let teeth = a.teeth.as_deref().unwrap_or(DEFAULT_TEETH);
-            let teeth = parse_int_range(teeth, "--teeth", "teeth", MIN_TEETH, MAX_TEETH)?;
+            let teeth = parse_int_range(teeth, Quantity::ToothRange, "teeth", MIN_TEETH, MAX_TEETH)?;
             let (m, dp) = module.unwrap_or((1.0, None));
             Pool::to_cut(teeth, m, a.pressure_angle, dp)?
         } else {
@@ -185,39 +186,39 @@ impl TryFrom<SearchArgs> for SearchJob {
                 CatalogueDefaults { module_mm: module.map(|m| m.0), pressure_angle_deg: a.pressure_angle };
             load_stock(&a.stock, defaults)?
         };
-        let tooth_range = |s: &Option<String>, flag: &str| {
-            s.as_deref().map(|s| parse_int_range(s, flag, "teeth", MIN_TEETH, MAX_TEETH)).transpose()
+        let tooth_range = |s: &Option<String>, quantity: Quantity| {
+            s.as_deref().map(|s| parse_int_range(s, quantity, "teeth", MIN_TEETH, MAX_TEETH)).transpose()
         };
         let centre = a
             .centre_distance
             .as_deref()
-            .map(|s| parse_float_range(s, "--centre-distance", "mm"))
+            .map(|s| parse_float_range(s, Quantity::CentreDistance, "mm"))
             .transpose()?;
         let fixed_centre = centre.filter(|c| c.is_single()).map(|c| c.lo);
         let limits = StageLimits {
-            driver_teeth: tooth_range(&a.driver_teeth, "--driver-teeth")?,
-            driven_teeth: tooth_range(&a.driven_teeth, "--driven-teeth")?,
+            driver_teeth: tooth_range(&a.driver_teeth, Quantity::DriverTeeth)?,
+            driven_teeth: tooth_range(&a.driven_teeth, Quantity::DrivenTeeth)?,
             stage_ratio: a
                 .stage_ratio
                 .as_deref()
-                .map(|s| parse_ratio_range(s, "--stage-ratio"))
+                .map(|s| parse_ratio_range(s, Quantity::StageRatio))
                 .transpose()?,
             centre_distance_mm: centre.filter(|c| !c.is_single()),
         };
-        let stages = parse_int_range(&a.stages, "--stages", "stages", 1, MAX_STAGES as u32)?;
+        let stages = parse_int_range(&a.stages, Quantity::StageCount, "stages", 1, MAX_STAGES as u32)?;
         let direction = a.direction.map(|d| match d {
             DirectionArg::Same => Direction::Same,
             DirectionArg::Opposite => Direction::Opposite,
         });
-        let rank = parse_rank(&a.rank, "--rank")?;
+        let rank = parse_rank(&a.rank)?;
         let mut problem = Problem::new(target, pool, stages, limits, direction, rank, a.limit)?;
         problem.pareto = a.pareto;
         if a.limit == 0 {
             if a.pareto {
-                return Err(Error::flag("--limit", "0 streams every train; it does not go with --pareto"));
+                return Err(refuse("--limit", "0 streams every train; it does not go with --pareto"));
             }
             if matches!(a.print.format, FormatArg::Table | FormatArg::Markdown) {
-                return Err(Error::flag(
+                return Err(refuse(
                     "--limit",
                     "0 streams every train; give --format csv or --format json (JSON lines)",
                 ));
@@ -238,14 +239,14 @@ impl TryFrom<SearchArgs> for SearchJob {
                 ..MeshRules::default()
             };
             if let Some(s) = &a.shift_sum {
-                rules.shift_sum = parse_signed_range(s, "--shift-sum", "modules")?;
+                rules.shift_sum = parse_signed_range(s, Quantity::ShiftSum, "modules")?;
             }
             if let Some(c) = a.min_contact_ratio {
                 rules.limits.min_contact_ratio = c;
             }
             problem = problem.with_mesh_rules(rules)?;
         } else if a.explain {
-            return Err(Error::flag(
+            return Err(refuse(
                 "--explain",
                 "explains the mesh checks; give --check-meshes, a fixed --centre-distance or --coaxial too",
             ));
@@ -269,7 +270,7 @@ impl TryFrom<SearchArgs> for SearchJob {
 impl Job for SearchJob {
     type Found = gearsieve::Outcome;
 
-    fn search(&self, options: &RunOptions) -> Result<gearsieve::Outcome, Error> {
+    fn search(&self, options: &RunOptions) -> anyhow::Result<gearsieve::Outcome> {
         Ok(gearsieve::search(&self.problem, self.engine, options))
     }
 
@@ -337,15 +338,14 @@ fn forecast(job: &SearchJob, print: &Print) -> anyhow::Result<()> {
     );
     if wall > REFUSE_ABOVE_S && !job.long {
         let split = if e.shardable { "split it with --shard I/N, " } else { "" };
-        return Err(Error::flag(
+        return Err(refuse(
             "--long",
             format!(
                 "this search would take {what}; narrow it (fewer --stages, a narrower --teeth range, \
                  --driver-teeth or --stage-ratio limits, a tighter --tol), {split}or give --long to run it \
                  anyway"
             ),
-        )
-        .into());
+        ));
     }
     if wall > NOTE_ABOVE_S && !print.quiet {
         eprintln!("gearsieve: this search will take {what}; Ctrl-C stops it and prints the best so far");

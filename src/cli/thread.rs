@@ -17,9 +17,10 @@ use gearsieve::trades::thread::machine::{load_gearbox, parse_gearbox_list, Machi
 use gearsieve::trades::thread::pitch::{parse_leadscrew, parse_pitch};
 use gearsieve::trades::thread::series::{built_in, load_list, SeriesEntry};
 use gearsieve::trades::thread::{Lathe, Rejected, ThreadPlan, ThreadSpec};
-use gearsieve::{Error, RunOptions};
+use gearsieve::{Error, Quantity, RunOptions};
 
 use super::args::{load_stock, PrintArgs};
+use super::flags::refuse;
 use super::run::{self, Job, Print, Words};
 
 /// The lathe and its change gears, shared by `thread` and `chart`.
@@ -110,31 +111,31 @@ pub struct ChartArgs {
 
 fn banjo_from(a: &LatheArgs) -> Result<Option<Banjo>, Error> {
     if let Some(path) = &a.banjo {
-        return load_banjo(path, "--banjo").map(Some);
+        return load_banjo(path).map(Some);
     }
     match (a.stud_to_leadscrew, &a.intermediate_range, a.shaft_diameter) {
         (Some(d), Some(r), Some(s)) => {
-            let range = parse_float_range(r, "--intermediate-range", "mm")?;
-            Banjo::new(d, range, s, &|what, m| Error::flag(&format!("--{what}"), m)).map(Some)
+            let range = parse_float_range(r, Quantity::IntermediateRange, "mm")?;
+            Banjo::new(d, range, s, &|q, m| Error::value(q, m)).map(Some)
         }
         _ => Ok(None),
     }
 }
 
 impl TryFrom<&LatheArgs> for Lathe {
-    type Error = Error;
+    type Error = anyhow::Error;
 
-    fn try_from(a: &LatheArgs) -> Result<Lathe, Error> {
-        let leadscrew = parse_leadscrew(&a.leadscrew, "--leadscrew")?;
-        let stud_ratio = parse_ratio(&a.stud_ratio, "--stud-ratio")?;
+    fn try_from(a: &LatheArgs) -> anyhow::Result<Lathe> {
+        let leadscrew = parse_leadscrew(&a.leadscrew)?;
+        let stud_ratio = parse_ratio(&a.stud_ratio, Quantity::StudRatio)?;
         let gearbox = match &a.gearbox {
             None => Vec::new(),
-            Some(g) if Path::new(g).is_file() => load_gearbox(Path::new(g), "--gearbox")?,
-            Some(g) => parse_gearbox_list(g, "--gearbox")?,
+            Some(g) if Path::new(g).is_file() => load_gearbox(Path::new(g))?,
+            Some(g) => parse_gearbox_list(g)?,
         };
         let pool = match (&a.teeth, a.stock.is_empty()) {
             (Some(t), _) => {
-                let teeth = parse_int_range(t, "--teeth", "teeth", MIN_TEETH, MAX_TEETH)?;
+                let teeth = parse_int_range(t, Quantity::ToothRange, "teeth", MIN_TEETH, MAX_TEETH)?;
                 Pool::to_cut(teeth, a.module.unwrap_or(1.0), a.pressure_angle, None)?
             }
             (None, false) => load_stock(
@@ -142,22 +143,16 @@ impl TryFrom<&LatheArgs> for Lathe {
                 CatalogueDefaults { module_mm: a.module, pressure_angle_deg: a.pressure_angle },
             )?,
             (None, true) => {
-                return Err(Error::flag(
+                return Err(refuse(
                     "--stock",
                     "give the change gears on hand (--stock FILE) or a range to cut (--teeth LO..HI)",
                 ))
             }
         };
-        let stages = parse_int_range(&a.stages, "--stages", "stages", 1, MAX_STAGES as u32)?;
-        let tolerance = parse_tolerance(&a.tol, "--tol")?;
-        Lathe::new(
-            Machine { leadscrew, stud_ratio, gearbox },
-            pool,
-            banjo_from(a)?,
-            stages,
-            tolerance,
-            a.limit,
-        )
+        let stages = parse_int_range(&a.stages, Quantity::StageCount, "stages", 1, MAX_STAGES as u32)?;
+        let tolerance = parse_tolerance(&a.tol)?;
+        let machine = Machine { leadscrew, stud_ratio, gearbox };
+        Ok(Lathe::new(machine, pool, banjo_from(a)?, stages, tolerance, a.limit)?)
     }
 }
 
@@ -171,7 +166,7 @@ struct ThreadJob {
 impl Job for ThreadJob {
     type Found = (ThreadPlan, Option<Vec<Rejected>>);
 
-    fn search(&self, options: &RunOptions) -> Result<Self::Found, Error> {
+    fn search(&self, options: &RunOptions) -> anyhow::Result<Self::Found> {
         let plan = self.lathe.plan(&self.spec, options)?;
         let rejected = if self.explain { Some(self.lathe.explain(&self.spec, options)?) } else { None };
         Ok((plan, rejected))
@@ -198,9 +193,9 @@ impl Job for ThreadJob {
 pub fn run_thread(args: ThreadArgs) -> anyhow::Result<i32> {
     let lathe = Lathe::try_from(&args.lathe)?;
     if args.starts == 0 {
-        return Err(Error::flag("--starts", "a thread has at least one start").into());
+        return Err(refuse("--starts", "a thread has at least one start"));
     }
-    let spec = ThreadSpec { pitch: parse_pitch(&args.pitch, "--pitch")?, starts: args.starts };
+    let spec = ThreadSpec { pitch: parse_pitch(&args.pitch)?, starts: args.starts };
     run::run(&ThreadJob { lathe, spec, explain: args.explain }, &Print::from(&args.lathe.print))
 }
 
@@ -214,8 +209,8 @@ struct ChartJob {
 impl Job for ChartJob {
     type Found = Chart;
 
-    fn search(&self, options: &RunOptions) -> Result<Chart, Error> {
-        chart(&self.lathe, &self.series, options)
+    fn search(&self, options: &RunOptions) -> anyhow::Result<Chart> {
+        Ok(chart(&self.lathe, &self.series, options)?)
     }
 
     fn report<'a>(&'a self, found: &'a Chart) -> Box<dyn Report + 'a> {
@@ -242,9 +237,9 @@ impl Job for ChartJob {
 pub fn run_chart(args: ChartArgs) -> anyhow::Result<i32> {
     let lathe = Lathe::try_from(&args.lathe)?;
     let (name, series): (String, Vec<SeriesEntry>) = match (&args.series, &args.list) {
-        (Some(s), _) => (s.clone(), built_in(s, "--series")?),
-        (None, Some(f)) => (f.display().to_string(), load_list(f, "--list")?),
-        (None, None) => return Err(Error::flag("--series", "give --series NAME or --list FILE").into()),
+        (Some(s), _) => (s.clone(), built_in(s)?),
+        (None, Some(f)) => (f.display().to_string(), load_list(f)?),
+        (None, None) => return Err(refuse("--series", "give --series NAME or --list FILE")),
     };
     run::run(&ChartJob { lathe, name, series }, &Print::from(&args.lathe.print))
 }

@@ -200,6 +200,6 @@ impl std::error::Error for MeshDefect {}
 
 impl From<MeshDefect> for crate::error::Error {
     fn from(defect: MeshDefect) -> Self {
-        crate::error::Error::Problem(defect.to_string())
+        crate::error::Error::problem(defect.to_string())
     }
 }

@@ -4,7 +4,7 @@
 //! backlash.
 //!
 //! Everything is a method of [`ToothSystem`] taking the two tooth counts `[z1, z2]`; nothing here
-//! builds a whole mesh or judges it (see [`super::mesh`] and [`super::check`]). Methods that can
+//! builds a whole mesh or judges it (see [`super::working`] and [`super::check`]). Methods that can
 //! meet an impossible input (a centre distance at which the base circles overlap, a shift sum so
 //! negative that no pressure angle fits) return `None` rather than a NaN.
 

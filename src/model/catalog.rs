@@ -6,7 +6,7 @@
 //! - `teeth` (required): whole number from 3 to 1000;
 //! - `module` (mm) or `diametral_pitch` (teeth per inch of pitch diameter); both may be given
 //!   if they agree (module = 25.4 / diametral pitch). An empty cell, or no such column, takes the
-//!   default module given on the command line, and is an error without one;
+//!   default module the caller gives ([`CatalogueDefaults`]), and is an error without one;
 //! - `pressure_angle` (degrees, default 20);
 //! - `quantity` (whole number ≥ 1, default 1);
 //! - `label` (free text shown in results) and `note`/`notes` (free text, ignored).
@@ -17,7 +17,7 @@
 
 use std::path::Path;
 
-use crate::error::{Error, Result};
+use crate::error::{Error, Message, Quantity, Result};
 use crate::geometry::MM_PER_INCH;
 use crate::model::pool::{check_module, check_pressure_angle, StockGear, MAX_TEETH, MIN_TEETH};
 
@@ -41,7 +41,8 @@ const KNOWN: &[&str] =
 
 /// Read one catalogue file.
 pub fn load(path: &Path, defaults: CatalogueDefaults) -> Result<Vec<StockGear>> {
-    let file_err = |message: String| Error::CatalogueFile { path: path.to_path_buf(), message };
+    let file_err =
+        |message: String| Error::CatalogueFile { path: path.to_path_buf(), message: message.into() };
     if path.is_dir() {
         return Err(file_err("is a directory; wanted a CSV file".into()));
     }
@@ -51,7 +52,8 @@ pub fn load(path: &Path, defaults: CatalogueDefaults) -> Result<Vec<StockGear>> 
 
 /// Parse catalogue text; `path` is used only in error messages.
 pub fn parse(bytes: &[u8], path: &Path, defaults: CatalogueDefaults) -> Result<Vec<StockGear>> {
-    let file_err = |message: String| Error::CatalogueFile { path: path.to_path_buf(), message };
+    let file_err =
+        |message: String| Error::CatalogueFile { path: path.to_path_buf(), message: message.into() };
     let bytes = bytes.strip_prefix(b"\xEF\xBB\xBF").unwrap_or(bytes);
     let mut reader =
         csv::ReaderBuilder::new().comment(Some(b'#')).trim(csv::Trim::All).flexible(false).from_reader(bytes);
@@ -87,16 +89,17 @@ pub fn parse(bytes: &[u8], path: &Path, defaults: CatalogueDefaults) -> Result<V
             let row = e.position().map_or(0, |p| p.line());
             Error::CatalogueFile {
                 path: path.to_path_buf(),
-                message: format!("row {row}: {}", csv_reason(&e)),
+                message: format!("row {row}: {}", csv_reason(&e)).into(),
             }
         })?;
         let row = record.position().map_or(0, |p| p.line());
-        let field_err = |column: &str, message: String| Error::CatalogueField {
+        let field_message = |column: &str, message: Message| Error::CatalogueField {
             path: path.to_path_buf(),
             row,
             column: column.to_string(),
             message,
         };
+        let field_err = |column: &str, message: String| field_message(column, message.into());
         let cell = |c: Option<usize>| c.map(|c| &record[c]).filter(|s| !s.is_empty());
         let teeth_text = &record[teeth_col];
         let teeth = parse_whole(teeth_text)
@@ -133,10 +136,11 @@ pub fn parse(bytes: &[u8], path: &Path, defaults: CatalogueDefaults) -> Result<V
             (Some(m), None) => m,
             (None, Some(p)) => MM_PER_INCH / p,
             (None, None) => defaults.module_mm.ok_or_else(|| {
-                field_err(
+                field_message(
                     "module",
-                    "no module: fill in module or diametral_pitch, or give --module for the whole file"
-                        .into(),
+                    Message::from("no module: fill in module or diametral_pitch, or give ")
+                        .quantity(Quantity::Module)
+                        .text(" for the whole file"),
                 )
             })?,
         };
@@ -200,6 +204,16 @@ mod tests {
 
     fn p(text: &str) -> Result<Vec<StockGear>> {
         parse(text.as_bytes(), Path::new("t.csv"), CatalogueDefaults::default())
+    }
+
+    #[test]
+    fn a_missing_module_names_the_default_module_as_a_quantity() {
+        let e = p("teeth\n20\n").unwrap_err();
+        let wanted =
+            "catalogue t.csv, row 2, column module: no module: fill in module or diametral_pitch, or give";
+        assert_eq!(e.to_string(), format!("{wanted} the module for the whole file"));
+        let named = e.render(|q| if q == Quantity::Module { "MODULE" } else { "?" });
+        assert_eq!(named, format!("{wanted} MODULE for the whole file"));
     }
 
     #[test]

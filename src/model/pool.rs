@@ -5,7 +5,7 @@
 //! Owns the validity limits for a single gear (teeth, module, pressure angle); knows nothing of
 //! stages or ratios.
 
-use crate::error::{Error, Result};
+use crate::error::{Error, Quantity, Result};
 use crate::numbers::range::IntRange;
 
 /// Fewest teeth a gear or pinion may have (clock pinions go down to 6 leaves; 3 is a hard floor).
@@ -106,10 +106,11 @@ impl Pool {
         pressure_angle_deg: f64,
         diametral_pitch: Option<f64>,
     ) -> Result<Pool> {
-        check_module(module_mm, &|m| Error::flag("--module", m))?;
-        check_pressure_angle(pressure_angle_deg, &|m| Error::flag("--pressure-angle", m))?;
+        check_module(module_mm, &|m| Error::value(Quantity::Module, m))?;
+        check_pressure_angle(pressure_angle_deg, &|m| Error::value(Quantity::PressureAngle, m))?;
+        let teeth_err = |m: String| Error::value(Quantity::ToothRange, m);
         if teeth.lo < MIN_TEETH || teeth.hi > MAX_TEETH {
-            return Err(Error::flag("--teeth", format!("teeth must lie within {MIN_TEETH}..{MAX_TEETH}")));
+            return Err(teeth_err(format!("teeth must lie within {MIN_TEETH}..{MAX_TEETH}")));
         }
         let gears = (teeth.lo..=teeth.hi)
             .map(|t| GearKind { teeth: t, group: 0, quantity: None, labels: Vec::new() })
@@ -119,13 +120,19 @@ impl Pool {
             gears,
             from_stock: false,
         };
-        pool.check_can_mesh("--teeth")?;
+        pool.check_can_mesh(&teeth_err)?;
         Ok(pool)
     }
 
     /// Gears on hand. Gears of the same teeth, module and pressure angle merge and their
     /// quantities add up; `source` names the catalogues in errors.
     pub fn from_stock(stock: &[StockGear], source: &str) -> Result<Pool> {
+        Pool::from_stock_at(stock, &|m| Error::problem(format!("{source}: {m}")))
+    }
+
+    /// [`Pool::from_stock`] for gears that came from elsewhere than catalogues (a trade's own
+    /// gears to cut); `place` makes each error name where they came from.
+    pub fn from_stock_at(stock: &[StockGear], place: &dyn Fn(String) -> Error) -> Result<Pool> {
         let mut groups: Vec<MeshGroup> = Vec::new();
         let mut gears: Vec<GearKind> = Vec::new();
         for g in stock {
@@ -144,8 +151,8 @@ impl Pool {
                 Some(k) => {
                     // Nothing the user gave is silently capped: a total past u32 is refused.
                     let q = k.quantity.unwrap_or(0).checked_add(g.quantity).ok_or_else(|| {
-                        Error::Problem(format!(
-                            "{source}: the quantities of the {}-tooth gear add up to more than {}",
+                        place(format!(
+                            "the quantities of the {}-tooth gear add up to more than {}",
                             g.teeth,
                             u32::MAX
                         ))
@@ -164,25 +171,27 @@ impl Pool {
             }
         }
         if gears.is_empty() {
-            return Err(Error::Problem(format!("{source}: no gears in stock")));
+            return Err(place("no gears in stock".into()));
         }
         gears.sort_by_key(|k| (k.group, k.teeth));
         let pool = Pool { groups, gears, from_stock: true };
-        pool.check_can_mesh(source)?;
+        pool.check_can_mesh(place)?;
         Ok(pool)
     }
 
-    /// Refuse a pool in which no two gears of different tooth counts share a mesh group.
-    fn check_can_mesh(&self, source: &str) -> Result<()> {
+    /// Refuse a pool in which no two gears of different tooth counts share a mesh group; `place`
+    /// names where the gears came from.
+    fn check_can_mesh(&self, place: &dyn Fn(String) -> Error) -> Result<()> {
         let ok =
             self.gears.iter().any(|a| self.gears.iter().any(|b| a.group == b.group && a.teeth != b.teeth));
         if ok {
             Ok(())
         } else {
-            Err(Error::Problem(format!(
-                "{source}: nothing can mesh: a stage needs two gears of different tooth counts \
-                 with the same module and pressure angle"
-            )))
+            Err(place(
+                "nothing can mesh: a stage needs two gears of different tooth counts with the same \
+                 module and pressure angle"
+                    .into(),
+            ))
         }
     }
 
@@ -259,6 +268,18 @@ mod tests {
         assert!(e.to_string().contains("nothing can mesh"));
         assert!(Pool::from_stock(&[], "x.csv").is_err());
         assert!(Pool::to_cut(IntRange { lo: 20, hi: 20 }, 1.0, 20.0, None).is_err());
+    }
+
+    #[test]
+    fn errors_name_the_catalogues_or_the_quantity() {
+        let e = Pool::from_stock(&[g(20, 1.0, 5)], "catalogue x.csv").unwrap_err().to_string();
+        assert!(e.starts_with("catalogue x.csv: nothing can mesh: a stage needs two gears"), "{e}");
+        let e = Pool::to_cut(IntRange { lo: 20, hi: 20 }, 1.0, 20.0, None).unwrap_err();
+        assert!(e.to_string().starts_with("the tooth range: nothing can mesh: "), "{e}");
+        let e = Pool::to_cut(IntRange { lo: 12, hi: 40 }, 0.0, 20.0, None).unwrap_err().to_string();
+        assert_eq!(e, "the module: module must be a number of mm from 0.05 to 100, found 0");
+        let e = Pool::to_cut(IntRange { lo: 12, hi: 40 }, 1.0, 90.0, None).unwrap_err().to_string();
+        assert_eq!(e, "the pressure angle: pressure angle must be from 10° to 35°, found 90");
     }
 
     #[test]

@@ -5,7 +5,7 @@
 use std::fmt;
 use std::sync::Arc;
 
-use crate::error::{Error, Result};
+use crate::error::{Error, Quantity, Result};
 use crate::geometry::{MeshLimits, RackProfile};
 use crate::model::pool::{Pool, MAX_STAGES};
 use crate::model::rank::RankKey;
@@ -163,10 +163,16 @@ impl Problem {
         limit: usize,
     ) -> Result<Problem> {
         if stages.lo < 1 || stages.hi as usize > MAX_STAGES {
-            return Err(Error::flag("--stages", format!("stages must lie within 1..{MAX_STAGES}")));
+            return Err(Error::value(
+                Quantity::StageCount,
+                format!("stages must lie within 1..{MAX_STAGES}"),
+            ));
         }
         if rank.is_empty() {
-            return Err(Error::flag("--rank", "give at least one key of error, meshes, size, span"));
+            return Err(Error::value(
+                Quantity::RankKeys,
+                "give at least one key of error, meshes, size, span",
+            ));
         }
         let p = Problem {
             target,
@@ -182,8 +188,8 @@ impl Problem {
             extra_key: None,
         };
         if p.stage_counts().is_empty() {
-            return Err(Error::flag(
-                "--direction",
+            return Err(Error::value(
+                Quantity::Direction,
                 format!(
                     "no stage count in {} turns the output the {} way: each external mesh reverses it, so \
                      same needs an even number of stages and opposite an odd number",
@@ -208,27 +214,30 @@ impl Problem {
     pub fn with_mesh_rules(mut self, rules: MeshRules) -> Result<Problem> {
         let (lo, hi) = rules.shift_sum;
         if !(lo.is_finite() && hi.is_finite() && lo <= hi) {
-            return Err(Error::flag("--shift-sum", "wanted LO..HI in modules with LO ≤ HI, e.g. -0.5..1"));
+            return Err(Error::value(
+                Quantity::ShiftSum,
+                "wanted LO..HI in modules with LO ≤ HI, e.g. -0.5..1",
+            ));
         }
         if let Some(a) = rules.centre_distance_mm {
             if !(a.is_finite() && a > 0.0) {
-                return Err(Error::flag(
-                    "--centre-distance",
+                return Err(Error::value(
+                    Quantity::CentreDistance,
                     format!("wanted a positive distance in mm, found {a}"),
                 ));
             }
         }
         if !(rules.centre_tolerance_mm.is_finite() && rules.centre_tolerance_mm >= 0.0) {
-            return Err(Error::flag("--centre-tol", "wanted a distance of 0 mm or more"));
+            return Err(Error::value(Quantity::CentreTolerance, "wanted a distance of 0 mm or more"));
         }
         let l = rules.limits;
         if !(l.min_contact_ratio.is_finite() && l.min_contact_ratio >= 0.0) {
-            return Err(Error::flag("--min-contact-ratio", "wanted a number of 0 or more, e.g. 1.2"));
+            return Err(Error::value(Quantity::ContactRatio, "wanted a number of 0 or more, e.g. 1.2"));
         }
         self.mesh = Some(rules);
         if self.stage_counts().is_empty() {
-            return Err(Error::flag(
-                "--coaxial",
+            return Err(Error::value(
+                Quantity::Coaxial,
                 format!(
                     "a coaxial (reverted) train needs an even number of stages; none in {} qualifies",
                     self.stages
@@ -236,5 +245,37 @@ impl Problem {
             ));
         }
         Ok(self)
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::model::rank::DEFAULT_RANK;
+
+    fn problem(stages: IntRange, direction: Option<Direction>) -> Result<Problem> {
+        let target = Target::parse("2", "0")?;
+        let pool = Pool::to_cut(IntRange { lo: 12, hi: 40 }, 1.0, 20.0, None)?;
+        Problem::new(target, pool, stages, StageLimits::default(), direction, DEFAULT_RANK.to_vec(), 5)
+    }
+
+    #[test]
+    fn errors_name_the_quantity_not_a_flag() {
+        let e = problem(IntRange { lo: 1, hi: 9 }, None).unwrap_err().to_string();
+        assert_eq!(e, "the stage count: stages must lie within 1..6");
+        let e = problem(IntRange { lo: 1, hi: 1 }, Some(Direction::Same)).unwrap_err().to_string();
+        assert!(
+            e.starts_with("the output direction: no stage count in 1 turns the output the same way"),
+            "{e}"
+        );
+        let one_stage = problem(IntRange { lo: 1, hi: 1 }, None).unwrap();
+        let e = one_stage
+            .with_mesh_rules(MeshRules { coaxial: true, ..MeshRules::default() })
+            .unwrap_err()
+            .to_string();
+        assert!(
+            e.starts_with("the coaxial arrangement: a coaxial (reverted) train needs an even number"),
+            "{e}"
+        );
     }
 }

@@ -4,7 +4,7 @@
 
 use std::cmp::Ordering;
 
-use crate::error::{Error, Result};
+use crate::error::{Error, Quantity, Result};
 use crate::model::pool::MAX_STAGES;
 use crate::numbers::rational::RelError;
 
@@ -40,8 +40,8 @@ impl RankKey {
 /// The default ranking, `error,meshes,size`.
 pub const DEFAULT_RANK: [RankKey; 3] = [RankKey::Error, RankKey::Meshes, RankKey::Size];
 
-/// Parse a comma list such as `error,meshes,size`.
-pub fn parse_rank(text: &str, flag: &str) -> Result<Vec<RankKey>> {
+/// Parse a comma list such as `error,meshes,size`; errors name [`Quantity::RankKeys`].
+pub fn parse_rank(text: &str) -> Result<Vec<RankKey>> {
     let mut keys = Vec::new();
     for part in text.split(',').map(str::trim) {
         let key = match part {
@@ -50,14 +50,14 @@ pub fn parse_rank(text: &str, flag: &str) -> Result<Vec<RankKey>> {
             "size" => RankKey::Size,
             "span" => RankKey::Span,
             _ => {
-                return Err(Error::flag(
-                    flag,
+                return Err(Error::value(
+                    Quantity::RankKeys,
                     format!("unknown key \"{part}\"; wanted a comma list of error, meshes, size, span"),
                 ))
             }
         };
         if keys.contains(&key) {
-            return Err(Error::flag(flag, format!("key \"{part}\" is given twice")));
+            return Err(Error::value(Quantity::RankKeys, format!("key \"{part}\" is given twice")));
         }
         keys.push(key);
     }
@@ -352,10 +352,12 @@ mod tests {
 
     #[test]
     fn parses_keys() {
-        assert_eq!(parse_rank("size, error", "--rank").unwrap(), vec![RankKey::Size, RankKey::Error]);
-        assert!(parse_rank("error,colour", "--rank").is_err());
-        assert!(parse_rank("error,error", "--rank").is_err());
-        assert!(parse_rank("", "--rank").is_err());
+        assert_eq!(parse_rank("size, error").unwrap(), vec![RankKey::Size, RankKey::Error]);
+        assert!(parse_rank("error,colour").is_err());
+        assert!(parse_rank("error,error").is_err());
+        assert!(parse_rank("").is_err());
+        let e = parse_rank("error,colour").unwrap_err().to_string();
+        assert!(e.starts_with("the ranking keys: unknown key \"colour\""), "{e}");
     }
 
     #[test]

@@ -2,7 +2,7 @@
 //! (`..6`, `12..`). Owns only the syntax and the checks that a range is non-empty and inside the
 //! limits the caller allows.
 
-use crate::error::{Error, Result};
+use crate::error::{Error, Quantity, Result};
 use crate::numbers::rational::Ratio;
 use crate::numbers::target::parse_ratio;
 
@@ -39,11 +39,11 @@ fn split(text: &str) -> (&str, Option<&str>) {
     }
 }
 
-/// Parse `LO..HI`, `N`, `..HI` or `LO..` as whole numbers within `[min, max]`; `what` names the
-/// quantity in errors ("teeth", "stages").
-pub fn parse_int_range(text: &str, flag: &str, what: &str, min: u32, max: u32) -> Result<IntRange> {
+/// Parse `LO..HI`, `N`, `..HI` or `LO..` as whole numbers within `[min, max]`; errors name
+/// `quantity`, and `what` counts in the words of what is wanted ("teeth", "stages").
+pub fn parse_int_range(text: &str, quantity: Quantity, what: &str, min: u32, max: u32) -> Result<IntRange> {
     let wanted = format!("wanted {what} as N or LO..HI with {min} ≤ LO ≤ HI ≤ {max}");
-    let bad = |why: String| Error::flag(flag, format!("{why}; {wanted}"));
+    let bad = |why: String| Error::value(quantity, format!("{why}; {wanted}"));
     let num = |s: &str, default: u32| -> Result<u32> {
         if s.is_empty() {
             return Ok(default);
@@ -87,14 +87,14 @@ impl RatioRange {
     }
 }
 
-/// Parse a range of ratios such as `0.2..6`, `1/6..6` or `..6`.
-pub fn parse_ratio_range(text: &str, flag: &str) -> Result<RatioRange> {
+/// Parse a range of ratios such as `0.2..6`, `1/6..6` or `..6`; errors name `quantity`.
+pub fn parse_ratio_range(text: &str, quantity: Quantity) -> Result<RatioRange> {
     let (a, b) = split(text);
     let one = |s: &str| -> Result<Option<Ratio>> {
         if s.is_empty() {
             Ok(None)
         } else {
-            parse_ratio(s, flag).map(Some)
+            parse_ratio(s, quantity).map(Some)
         }
     };
     let (lo, hi) = match b {
@@ -105,11 +105,11 @@ pub fn parse_ratio_range(text: &str, flag: &str) -> Result<RatioRange> {
         }
     };
     if lo.is_none() && hi.is_none() {
-        return Err(Error::flag(flag, "empty range; wanted LO..HI such as 0.2..6 or ..6"));
+        return Err(Error::value(quantity, "empty range; wanted LO..HI such as 0.2..6 or ..6"));
     }
     if let (Some(l), Some(h)) = (lo, hi) {
         if l > h {
-            return Err(Error::flag(flag, format!("\"{}\" is inverted (LO > HI)", text.trim())));
+            return Err(Error::value(quantity, format!("\"{}\" is inverted (LO > HI)", text.trim())));
         }
     }
     Ok(RatioRange { lo, hi })
@@ -138,10 +138,10 @@ impl FloatRange {
 }
 
 /// Parse a range of positive finite numbers, `LO..HI`, `A` (a single value), `..HI` or `LO..`;
-/// `unit` is named in errors.
-pub fn parse_float_range(text: &str, flag: &str, unit: &str) -> Result<FloatRange> {
+/// errors name `quantity` and its `unit`.
+pub fn parse_float_range(text: &str, quantity: Quantity, unit: &str) -> Result<FloatRange> {
     let wanted = format!("wanted LO..HI in {unit}, positive, LO ≤ HI");
-    let bad = |why: String| Error::flag(flag, format!("{why}; {wanted}"));
+    let bad = |why: String| Error::value(quantity, format!("{why}; {wanted}"));
     let num = |s: &str, default: f64| -> Result<f64> {
         if s.is_empty() {
             return Ok(default);
@@ -167,10 +167,12 @@ pub fn parse_float_range(text: &str, flag: &str, unit: &str) -> Result<FloatRang
     Ok(FloatRange { lo, hi })
 }
 
-/// Parse a signed range `LO..HI` of finite numbers (profile shift sums such as `-0.5..1`).
-pub fn parse_signed_range(text: &str, flag: &str, unit: &str) -> Result<(f64, f64)> {
-    let bad =
-        |why: String| Error::flag(flag, format!("{why}; wanted LO..HI in {unit} with LO ≤ HI, e.g. -0.5..1"));
+/// Parse a signed range `LO..HI` of finite numbers (profile shift sums such as `-0.5..1`);
+/// errors name `quantity` and its `unit`.
+pub fn parse_signed_range(text: &str, quantity: Quantity, unit: &str) -> Result<(f64, f64)> {
+    let bad = |why: String| {
+        Error::value(quantity, format!("{why}; wanted LO..HI in {unit} with LO ≤ HI, e.g. -0.5..1"))
+    };
     let (a, b) = split(text);
     let b = b.ok_or_else(|| bad(format!("\"{}\" is not a range", text.trim())))?;
     let num = |s: &str| -> Result<f64> {
@@ -192,7 +194,7 @@ mod tests {
 
     #[test]
     fn int_ranges() {
-        let r = |s| parse_int_range(s, "--teeth", "teeth", 3, 1000);
+        let r = |s| parse_int_range(s, Quantity::ToothRange, "teeth", 3, 1000);
         assert_eq!(r("12..150").unwrap(), IntRange { lo: 12, hi: 150 });
         assert_eq!(r("40").unwrap(), IntRange { lo: 40, hi: 40 });
         assert_eq!(r("..20").unwrap(), IntRange { lo: 3, hi: 20 });
@@ -200,35 +202,47 @@ mod tests {
         assert_eq!(r("12..=15").unwrap(), IntRange { lo: 12, hi: 15 });
         for bad in ["", "..", "150..12", "2..10", "12..1000000000", "a..b", "-5..10", "1.5..3"] {
             let e = r(bad).unwrap_err().to_string();
-            assert!(e.starts_with("--teeth: "), "{bad}: {e}");
+            assert!(e.starts_with("the tooth range: "), "{bad}: {e}");
         }
     }
 
     #[test]
+    fn errors_name_the_quantity_and_the_value() {
+        let e = parse_int_range("50..20", Quantity::DriverTeeth, "teeth", 3, 1000).unwrap_err().to_string();
+        assert_eq!(e, "the driver teeth: \"50..20\" is inverted (LO > HI); wanted teeth as N or LO..HI with 3 ≤ LO ≤ HI ≤ 1000");
+        let e = parse_ratio_range("6..x", Quantity::StageRatio).unwrap_err().to_string();
+        assert!(e.starts_with("the stage ratio: \"x\" is not a number"), "{e}");
+        let e = parse_float_range("9..3", Quantity::CentreDistance, "mm").unwrap_err().to_string();
+        assert!(e.starts_with("the centre distance: \"9..3\" is inverted"), "{e}");
+        let e = parse_signed_range("a..1", Quantity::ShiftSum, "modules").unwrap_err().to_string();
+        assert!(e.starts_with("the profile shift sum: \"a\" is not a finite number"), "{e}");
+    }
+
+    #[test]
     fn ratio_ranges() {
-        let r = parse_ratio_range("1/6..6", "--stage-ratio").unwrap();
+        let r = parse_ratio_range("1/6..6", Quantity::StageRatio).unwrap();
         assert!(r.contains(6, 1) && r.contains(1, 6) && !r.contains(13, 2));
-        let open = parse_ratio_range("..6", "--stage-ratio").unwrap();
+        let open = parse_ratio_range("..6", Quantity::StageRatio).unwrap();
         assert!(open.contains(1, 1000) && !open.contains(61, 10));
-        assert!(parse_ratio_range("6..1", "--stage-ratio").is_err());
-        assert!(parse_ratio_range("..", "--stage-ratio").is_err());
+        assert!(parse_ratio_range("6..1", Quantity::StageRatio).is_err());
+        assert!(parse_ratio_range("..", Quantity::StageRatio).is_err());
     }
 
     #[test]
     fn signed_ranges() {
-        assert_eq!(parse_signed_range("-0.5..1", "--shift-sum", "modules").unwrap(), (-0.5, 1.0));
+        assert_eq!(parse_signed_range("-0.5..1", Quantity::ShiftSum, "modules").unwrap(), (-0.5, 1.0));
         for bad in ["", "1", "1..-1", "a..1", "-inf..1", "..1"] {
-            assert!(parse_signed_range(bad, "--shift-sum", "modules").is_err(), "{bad}");
+            assert!(parse_signed_range(bad, Quantity::ShiftSum, "modules").is_err(), "{bad}");
         }
     }
 
     #[test]
     fn float_ranges() {
-        let r = parse_float_range("40..80.5", "--centre-distance", "mm").unwrap();
+        let r = parse_float_range("40..80.5", Quantity::CentreDistance, "mm").unwrap();
         assert!(r.contains(80.5, 0.0) && !r.contains(80.6, 0.0));
-        assert!(parse_float_range("62.5", "--centre-distance", "mm").unwrap().is_single());
+        assert!(parse_float_range("62.5", Quantity::CentreDistance, "mm").unwrap().is_single());
         for bad in ["", "nan", "inf", "-3..4", "0", "9..3"] {
-            assert!(parse_float_range(bad, "--centre-distance", "mm").is_err(), "{bad}");
+            assert!(parse_float_range(bad, Quantity::CentreDistance, "mm").is_err(), "{bad}");
         }
     }
 }

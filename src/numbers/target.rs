@@ -5,7 +5,7 @@
 //! decimals (`37.5:1`), or `pi`. Tolerance syntax: a plain or scientific number (`0.0001`,
 //! `1e-4`), a percentage (`0.01%`), parts per million (`50ppm`) or per billion (`20ppb`).
 
-use crate::error::{Error, Result};
+use crate::error::{Error, Quantity, Result};
 use crate::numbers::rational::Ratio;
 
 /// π held as its continued-fraction convergent 2646693125139304345/842468587426513207, the last
@@ -31,12 +31,13 @@ pub struct Target {
 }
 
 impl Target {
-    /// Parse a ratio and a tolerance; `ratio_flag` and `tol_flag` name them in errors.
-    pub fn parse(ratio: &str, tol: &str, ratio_flag: &str, tol_flag: &str) -> Result<Target> {
+    /// Parse a ratio and a tolerance; errors name [`Quantity::TargetRatio`] or
+    /// [`Quantity::Tolerance`].
+    pub fn parse(ratio: &str, tol: &str) -> Result<Target> {
         Ok(Target {
             text: ratio.trim().to_string(),
-            ratio: parse_ratio(ratio, ratio_flag)?,
-            tolerance: parse_tolerance(tol, tol_flag)?,
+            ratio: parse_ratio(ratio, Quantity::TargetRatio)?,
+            tolerance: parse_tolerance(tol)?,
         })
     }
 
@@ -46,12 +47,13 @@ impl Target {
     }
 }
 
-/// Parse a positive ratio in any of the accepted forms.
-pub fn parse_ratio(text: &str, flag: &str) -> Result<Ratio> {
+/// Parse a positive ratio in any of the accepted forms; errors name `quantity`, the ratio being
+/// whatever the caller needs (a target, a stud ratio, a speed, a period).
+pub fn parse_ratio(text: &str, quantity: Quantity) -> Result<Ratio> {
     let t = text.trim();
     let wanted = "wanted a positive number such as 12, 1.0583, 127/120, 37.5:1 or pi";
     if t.is_empty() {
-        return Err(Error::flag(flag, format!("empty ratio; {wanted}")));
+        return Err(Error::value(quantity, format!("empty ratio; {wanted}")));
     }
     if t.eq_ignore_ascii_case("pi") || t == "π" {
         return Ok(PI);
@@ -63,7 +65,7 @@ pub fn parse_ratio(text: &str, flag: &str) -> Result<Ratio> {
     } else {
         (t, None, ' ')
     };
-    let bad = |why: &str| Error::flag(flag, format!("\"{t}\" {why}; {wanted}"));
+    let bad = |why: &str| Error::value(quantity, format!("\"{t}\" {why}; {wanted}"));
     let a = parse_decimal(a.trim()).map_err(&bad)?;
     let value = match b {
         None => a,
@@ -84,11 +86,11 @@ pub fn parse_ratio(text: &str, flag: &str) -> Result<Ratio> {
     Ratio::new(value.0, value.1).ok_or_else(|| bad("has too many digits to hold exactly"))
 }
 
-/// Parse a relative tolerance; the result is in `[0, 1)`.
-pub fn parse_tolerance(text: &str, flag: &str) -> Result<Ratio> {
+/// Parse a relative tolerance; the result is in `[0, 1)`. Errors name [`Quantity::Tolerance`].
+pub fn parse_tolerance(text: &str) -> Result<Ratio> {
     let t = text.trim();
     let wanted = "wanted a tolerance such as 0, 1e-4, 0.01% or 50ppm, below 100%";
-    let bad = |why: &str| Error::flag(flag, format!("\"{t}\" {why}; {wanted}"));
+    let bad = |why: &str| Error::value(Quantity::Tolerance, format!("\"{t}\" {why}; {wanted}"));
     if t.is_empty() {
         return Err(bad("is empty"));
     }
@@ -158,11 +160,11 @@ mod tests {
     use super::*;
 
     fn r(s: &str) -> String {
-        parse_ratio(s, "--ratio").unwrap().to_string()
+        parse_ratio(s, Quantity::TargetRatio).unwrap().to_string()
     }
 
     fn t(s: &str) -> String {
-        parse_tolerance(s, "--tol").unwrap().to_string()
+        parse_tolerance(s).unwrap().to_string()
     }
 
     #[test]
@@ -184,13 +186,31 @@ mod tests {
     }
 
     #[test]
-    fn bad_ratios_name_the_flag() {
+    fn bad_ratios_name_the_quantity() {
         for bad in ["", "0", "0/5", "-3", "1/0", "abc", "1.2.3", "nan", "inf", "3:", "1e5", "5/-2"] {
-            let e = parse_ratio(bad, "--ratio").unwrap_err().to_string();
-            assert!(e.starts_with("--ratio: "), "{bad}: {e}");
+            let e = parse_ratio(bad, Quantity::TargetRatio).unwrap_err().to_string();
+            assert!(e.starts_with("the target ratio: "), "{bad}: {e}");
         }
-        let e = parse_ratio("1/0", "--ratio").unwrap_err().to_string();
+        let e = parse_ratio("1/0", Quantity::TargetRatio).unwrap_err().to_string();
         assert!(e.contains("divides by zero"), "{e}");
+    }
+
+    #[test]
+    fn errors_name_the_quantity_and_the_value_never_a_flag() {
+        let e = parse_ratio("1e3x", Quantity::TargetRatio).unwrap_err();
+        assert_eq!(
+            e.to_string(),
+            "the target ratio: \"1e3x\" is not a number; wanted a positive number such as 12, 1.0583, \
+             127/120, 37.5:1 or pi"
+        );
+        assert!(matches!(e, Error::Value { quantity: Quantity::TargetRatio, .. }));
+        let e = parse_ratio("0", Quantity::StudRatio).unwrap_err().to_string();
+        assert!(e.starts_with("the stud ratio: \"0\" is zero"), "{e}");
+        let e = parse_tolerance("lots").unwrap_err().to_string();
+        assert!(e.starts_with("the tolerance: \"lots\" "), "{e}");
+        let e = Target::parse("2", "150%").unwrap_err().to_string();
+        assert!(e.starts_with("the tolerance: \"150%\" is 100% or more"), "{e}");
+        assert!(!e.contains("--"), "{e}");
     }
 
     #[test]
@@ -209,8 +229,8 @@ mod tests {
     #[test]
     fn bad_tolerances_are_refused() {
         for bad in ["", "-1e-4", "100%", "1", "150%", "nan", "inf", "x", "1e-99", "5ppmx", "1e"] {
-            let e = parse_tolerance(bad, "--tol").unwrap_err().to_string();
-            assert!(e.starts_with("--tol: "), "{bad}: {e}");
+            let e = parse_tolerance(bad).unwrap_err().to_string();
+            assert!(e.starts_with("the tolerance: "), "{bad}: {e}");
         }
     }
 }

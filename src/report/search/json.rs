@@ -16,7 +16,7 @@
 //! Field names and meanings are stable within a `schema_version`; fields may be added. The
 //! document is the whole of a search's result: the table, Markdown and CSV formats are made
 //! from it, and it reads back into [`Doc`] so that `gearsieve merge` can combine the parts of a
-//! split search and print exactly what one run prints, in any format. With `--limit 0` the
+//! split search and print exactly what one run prints, in any format. With a limit of 0 the
 //! trains stream as JSON lines instead (one [`TrainJson`] per line, then one [`Summary`] line).
 
 use std::io::{self, Write};

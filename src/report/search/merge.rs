@@ -1,4 +1,4 @@
-//! Combining the JSON documents of a search split with `--shard I/N` into exactly the document
+//! Combining the JSON documents of the parts (`I/N`) of a split search into exactly the document
 //! one unsplit run prints: counts add up, the listed trains are re-ranked with the same total
 //! order the search uses, and every part must be present once and ask the same question.
 //! Owns only the combining; reading files is the command line's job.
@@ -6,7 +6,7 @@
 use std::cmp::Ordering;
 
 use crate::engine::{Shard, COAXIAL_MISFIT_KIND};
-use crate::error::{Error, Result};
+use crate::error::{Error, Message, Quantity, Result};
 use crate::model::rank::{compare, dominates, parse_rank, Ranked};
 use crate::numbers::rational::{Ratio, RelError};
 use crate::numbers::target::parse_ratio;
@@ -56,8 +56,8 @@ impl Ranked for Listed {
 }
 
 fn listed(t: TrainJson, target: Ratio, name: &str) -> Result<Listed> {
-    let bad = |what: &str| Error::Problem(format!("{name}: a train's {what} is not what gearsieve writes"));
-    let ratio = parse_ratio(&t.ratio, name).map_err(|_| bad("ratio"))?;
+    let bad = |what: &str| Error::problem(format!("{name}: a train's {what} is not what gearsieve writes"));
+    let ratio = parse_ratio(&t.ratio, Quantity::TargetRatio).map_err(|_| bad("ratio"))?;
     let mut stages: Vec<(u32, u32, f64, f64)> =
         t.stages.iter().map(|s| (s.driven, s.driver, s.module_mm, s.pressure_angle_deg)).collect();
     if stages.is_empty() || stages.iter().any(|s| s.0 == 0 || s.1 == 0) {
@@ -67,17 +67,26 @@ fn listed(t: TrainJson, target: Ratio, name: &str) -> Result<Listed> {
     Ok(Listed { error: RelError::of(ratio.num(), ratio.den(), target), json: t, stages })
 }
 
+/// A value in a part's document that does not parse, named by the part's file instead of its
+/// quantity.
+fn in_file(name: &str, e: Error) -> Error {
+    match e {
+        Error::Value { message, .. } => Error::problem(Message::from(format!("{name}: ")).then(message)),
+        other => other,
+    }
+}
+
 /// Merge the documents of every part of one split search; `docs` pairs each with a name (its
 /// file) for errors.
 pub fn merge(docs: Vec<(String, Doc)>) -> Result<Doc> {
     let Some((first_name, first)) = docs.first().cloned() else {
-        return Err(Error::Problem("merge: give the JSON files of every part of the search".into()));
+        return Err(Error::problem("merge: give the JSON files of every part of the search"));
     };
     let part = |name: &str, d: &Doc| -> Result<Shard> {
         let text = d.shard.as_deref().ok_or_else(|| {
-            Error::Problem(format!(
-                "{name}: not part of a split search (it has no \"shard\"); run the parts with --shard I/N"
-            ))
+            let said =
+                format!("{name}: not part of a split search (it has no \"shard\"); run the parts with ");
+            Error::problem(Message::from(said).quantity(Quantity::Shard).text(" I/N"))
         })?;
         Shard::parse(text, name)
     };
@@ -86,13 +95,13 @@ pub fn merge(docs: Vec<(String, Doc)>) -> Result<Doc> {
     for (name, d) in &docs {
         let s = part(name, d)?;
         if s.count != n {
-            return Err(Error::Problem(format!(
+            return Err(Error::problem(format!(
                 "{name}: part {s} belongs to a search split {} ways, not {n}",
                 s.count
             )));
         }
         if std::mem::replace(&mut seen[s.index as usize - 1], true) {
-            return Err(Error::Problem(format!("{name}: part {s} is given twice")));
+            return Err(Error::problem(format!("{name}: part {s} is given twice")));
         }
         let same = d.target == first.target
             && d.ranked_by == first.ranked_by
@@ -100,17 +109,18 @@ pub fn merge(docs: Vec<(String, Doc)>) -> Result<Doc> {
             && d.pareto_size.is_some() == first.pareto_size.is_some()
             && d.convention == first.convention;
         if !same {
-            return Err(Error::Problem(format!(
+            return Err(Error::problem(format!(
                 "{name}: asks a different question from {first_name} (target, tolerance, ranking, limit or Pareto mode differ)"
             )));
         }
     }
     if let Some(missing) = seen.iter().position(|s| !s) {
-        return Err(Error::Problem(format!("merge: part {}/{n} is missing", missing + 1)));
+        return Err(Error::problem(format!("merge: part {}/{n} is missing", missing + 1)));
     }
-    let target = parse_ratio(&first.target.exact, &first_name)?;
+    let target =
+        parse_ratio(&first.target.exact, Quantity::TargetRatio).map_err(|e| in_file(&first_name, e))?;
     let names: Vec<String> = first.ranked_by.clone();
-    let keys = parse_rank(&names.join(","), &first_name)?;
+    let keys = parse_rank(&names.join(",")).map_err(|e| in_file(&first_name, e))?;
     let mut rejected = first.rejected.clone();
     for r in rejected.iter_mut().filter(|r| r.kind == COAXIAL_MISFIT_KIND) {
         r.count = docs

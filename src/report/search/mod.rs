@@ -22,7 +22,7 @@ pub struct SearchReport<'a> {
     pub outcome: &'a Outcome,
     /// Say why stage pairings were left out by the mesh checks.
     pub explain: bool,
-    /// The part of the search this report covers, when split with `--shard`.
+    /// The part of the search this report covers, when the search is split.
     pub shard: Option<Shard>,
 }
 

@@ -1,4 +1,4 @@
-//! A search streamed as it runs (`--limit 0`): every train written the moment it is found, as
+//! A search streamed as it runs (a limit of 0): every train written the moment it is found, as
 //! CSV rows or JSON lines, so that no train is held. The CSV rows have the columns of the
 //! listing with `order` (the order found) in place of `rank`; the JSON lines are one train each
 //! and a closing [`Summary`] line with the count.

@@ -26,10 +26,9 @@ fn header(d: &mut Document, lathe: &Lathe) {
     d.line(format!("Gears: {}", lathe.pool.describe()));
     match &lathe.banjo {
         Some(b) => d.line(format!("Banjo: {}", b.describe())),
-        None => d.line(
-            "Banjo: not checked (give --banjo FILE, or --stud-to-leadscrew, --intermediate-range \
-             and --shaft-diameter)",
-        ),
+        None => {
+            d.line("Banjo: not checked (no banjo was described, so setups are not placed on the machine)")
+        }
     }
     d.line(format!(
         "Pitch tolerance {}; stages {}",

@@ -16,7 +16,7 @@ pub struct ThreadReport<'a> {
     pub lathe: &'a Lathe,
     /// What was found.
     pub plan: &'a ThreadPlan,
-    /// With `--explain`: trains the banjo refused.
+    /// Trains the banjo refused, when they were asked for.
     pub rejected: Option<&'a [Rejected]>,
 }
 

@@ -6,7 +6,7 @@
 
 use super::clock_problem;
 use crate::engine::{search, EngineKind, RunOptions};
-use crate::error::{Error, Result};
+use crate::error::{Error, Quantity, Result};
 use crate::model::pool::Pool;
 use crate::model::problem::{Problem, StageLimits};
 use crate::model::train::Train;
@@ -42,15 +42,16 @@ pub const NAMED: [(&str, &str, &str); 3] = [
 
 impl Period {
     /// Parse a named period (`synodic-month`, `sidereal-day`, `tropical-year`) or a number of
-    /// days (`29.53`, `27.321661`).
-    pub fn parse(text: &str, flag: &str) -> Result<Period> {
+    /// days (`29.53`, `27.321661`). Errors name [`Quantity::AstronomicalPeriod`].
+    pub fn parse(text: &str) -> Result<Period> {
         let t = text.trim();
+        let quantity = Quantity::AstronomicalPeriod;
         if let Some((name, value, source)) = NAMED.iter().find(|(n, _, _)| *n == t) {
-            return Ok(Period { name: name.to_string(), days: parse_ratio(value, flag)?, source });
+            return Ok(Period { name: name.to_string(), days: parse_ratio(value, quantity)?, source });
         }
-        let days = parse_ratio(t, flag).map_err(|_| {
-            Error::flag(
-                flag,
+        let days = parse_ratio(t, quantity).map_err(|_| {
+            Error::value(
+                quantity,
                 format!("\"{t}\" is not a period; wanted synodic-month, sidereal-day, tropical-year or a number of days such as 27.321661"),
             )
         })?;
@@ -244,7 +245,10 @@ mod tests {
     use super::*;
 
     fn strings(r: &str, max: u64) -> Vec<String> {
-        convergents(parse_ratio(r, "r").unwrap(), max).iter().map(|c| c.to_string()).collect()
+        convergents(parse_ratio(r, Quantity::AstronomicalPeriod).unwrap(), max)
+            .iter()
+            .map(|c| c.to_string())
+            .collect()
     }
 
     #[test]
@@ -278,10 +282,11 @@ mod tests {
 
     #[test]
     fn periods_parse() {
-        assert_eq!(Period::parse("synodic-month", "--period").unwrap().days.to_string(), "7382647/250000");
-        let s = Period::parse("sidereal-day", "--period").unwrap().days.to_f64();
+        assert_eq!(Period::parse("synodic-month").unwrap().days.to_string(), "7382647/250000");
+        let s = Period::parse("sidereal-day").unwrap().days.to_f64();
         // The two published forms agree to the 9 decimals of the seconds figure.
         assert!((1.0 / s - 1.002737909350795).abs() < 1e-13);
-        assert!(Period::parse("fortnight", "--period").unwrap_err().to_string().starts_with("--period"));
+        let e = Period::parse("fortnight").unwrap_err().to_string();
+        assert!(e.starts_with("the astronomical period: \"fortnight\" is not a period"), "{e}");
     }
 }

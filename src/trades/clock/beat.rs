@@ -6,7 +6,7 @@
 //! through `beats_per_tooth` beats (two with an anchor or dead-beat escapement, one pallet
 //! each — common practice).
 
-use crate::error::{Error, Result};
+use crate::error::{Error, Quantity, Result};
 use crate::numbers::exact::Exact;
 use crate::numbers::rational::Ratio;
 
@@ -44,14 +44,14 @@ impl Beat {
     /// The beat of a simple pendulum `metres` long: period `T = 2π·√(L/g)`.
     pub fn from_length(metres: f64, gravity: f64) -> Result<Beat> {
         if !(metres.is_finite() && metres > 0.0 && metres <= 100.0) {
-            return Err(Error::flag(
-                "--pendulum",
+            return Err(Error::value(
+                Quantity::PendulumLength,
                 format!("wanted a length in m above 0 and at most 100, found {metres}"),
             ));
         }
         if !(gravity.is_finite() && gravity > 0.0 && gravity <= 100.0) {
-            return Err(Error::flag(
-                "--gravity",
+            return Err(Error::value(
+                Quantity::Gravity,
                 format!("wanted a positive gravity in m/s², found {gravity}"),
             ));
         }
@@ -104,17 +104,17 @@ pub struct Escapement {
 }
 
 impl Escapement {
-    /// Check the counts; flags name them in errors.
+    /// Check the counts; errors name [`Quantity::EscapeTeeth`] or [`Quantity::BeatsPerTooth`].
     pub fn new(teeth: u32, beats_per_tooth: u32) -> Result<Escapement> {
         if !(3..=1000).contains(&teeth) {
-            return Err(Error::flag(
-                "--escape-teeth",
+            return Err(Error::value(
+                Quantity::EscapeTeeth,
                 format!("wanted a whole number of teeth from 3 to 1000, found {teeth}"),
             ));
         }
         if !(1..=4).contains(&beats_per_tooth) {
-            return Err(Error::flag(
-                "--beats-per-tooth",
+            return Err(Error::value(
+                Quantity::BeatsPerTooth,
                 format!("wanted 1 to 4 beats per tooth (2 for an anchor or dead-beat escapement), found {beats_per_tooth}"),
             ));
         }
@@ -171,10 +171,11 @@ mod tests {
     }
 
     #[test]
-    fn bad_values_name_their_flag() {
-        assert!(Beat::from_length(-1.0, STANDARD_GRAVITY).unwrap_err().to_string().starts_with("--pendulum"));
-        assert!(Beat::from_length(1.0, 0.0).unwrap_err().to_string().starts_with("--gravity"));
-        assert!(Escapement::new(2, 2).unwrap_err().to_string().starts_with("--escape-teeth"));
-        assert!(Escapement::new(30, 0).unwrap_err().to_string().starts_with("--beats-per-tooth"));
+    fn bad_values_name_their_quantity() {
+        let e = Beat::from_length(-1.0, STANDARD_GRAVITY).unwrap_err().to_string();
+        assert_eq!(e, "the pendulum length: wanted a length in m above 0 and at most 100, found -1");
+        assert!(Beat::from_length(1.0, 0.0).unwrap_err().to_string().starts_with("the gravity: "));
+        assert!(Escapement::new(2, 2).unwrap_err().to_string().starts_with("the escape wheel teeth: "));
+        assert!(Escapement::new(30, 0).unwrap_err().to_string().starts_with("the beats per tooth: "));
     }
 }

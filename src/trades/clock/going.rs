@@ -5,7 +5,7 @@
 use super::beat::{Beat, Escapement};
 use super::{approx_ratio, arbor_speeds, clock_problem, SECONDS_PER_DAY};
 use crate::engine::{search, EngineKind, Outcome, RunOptions};
-use crate::error::{Error, Result};
+use crate::error::{Error, Quantity, Result};
 use crate::model::pool::Pool;
 use crate::model::problem::{Problem, StageLimits};
 use crate::model::train::Train;
@@ -23,14 +23,15 @@ pub const DEFAULT_PINIONS: IntRange = IntRange { lo: 6, hi: 16 };
 /// keeping time.
 pub const MAX_RATE_TOLERANCE_S_PER_DAY: u64 = 8640;
 
-/// Parse a rate tolerance in seconds per day: `0` (exact), `5`, `0.5`, `1/2`.
-pub fn parse_rate_tolerance(text: &str, flag: &str) -> Result<Ratio> {
+/// Parse a rate tolerance in seconds per day: `0` (exact), `5`, `0.5`, `1/2`. Errors name
+/// [`Quantity::RateTolerance`].
+pub fn parse_rate_tolerance(text: &str) -> Result<Ratio> {
     if text.trim().parse::<f64>().is_ok_and(|v| v == 0.0) {
         return Ok(Ratio::integer(0));
     }
-    crate::numbers::target::parse_ratio(text, flag).map_err(|_| {
-        Error::flag(
-            flag,
+    crate::numbers::target::parse_ratio(text, Quantity::RateTolerance).map_err(|_| {
+        Error::value(
+            Quantity::RateTolerance,
             format!("\"{}\" is not a rate; wanted seconds per day such as 0, 5 or 0.5", text.trim()),
         )
     })
@@ -107,8 +108,8 @@ impl GoingSpec {
     pub fn problem(&self) -> Result<Problem> {
         let t = self.rate_tolerance_s_per_day;
         if t >= Ratio::integer(MAX_RATE_TOLERANCE_S_PER_DAY) {
-            return Err(Error::flag(
-                "--rate-tol",
+            return Err(Error::value(
+                Quantity::RateTolerance,
                 format!(
                     "wanted seconds per day from 0 up to below {MAX_RATE_TOLERANCE_S_PER_DAY}, found {t}"
                 ),

@@ -7,7 +7,7 @@
 //! - [`going`]: the going train, its arbor speeds and rate error in seconds per day;
 //! - [`motion`]: the motion work (the reverted 12:1 train) and other hand ratios;
 //! - [`astro`]: named periods, convergents, drift per year;
-//! - [`table`], [`csv`], [`json`]: the output formats.
+//! - the output formats are in [`crate::report::clock`].
 //!
 //! Direction of the ratio (ISO 1122-1, as everywhere in gearsieve): `i` = input turns per
 //! output turn. A going train is searched from the driving arbor (input) to the escape arbor
@@ -23,7 +23,7 @@ pub mod beat;
 pub mod going;
 pub mod motion;
 
-use crate::error::{Error, Result};
+use crate::error::{Error, Quantity, Result};
 use crate::model::pool::Pool;
 use crate::model::problem::{Problem, StageLimits};
 use crate::model::rank::DEFAULT_RANK;
@@ -51,7 +51,7 @@ pub fn clock_problem(
     limit: usize,
 ) -> Result<Problem> {
     if limit == 0 {
-        return Err(Error::flag("--limit", "list at least one train"));
+        return Err(Error::value(Quantity::Limit, "list at least one train"));
     }
     Problem::new(target, pool, stages, limits, None, DEFAULT_RANK.to_vec(), limit)
 }

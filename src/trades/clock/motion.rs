@@ -8,7 +8,7 @@
 
 use super::clock_problem;
 use crate::engine::{search, EngineKind, RunOptions};
-use crate::error::{Error, Result};
+use crate::error::{Error, Quantity, Result};
 use crate::geometry::MeshLimits;
 use crate::model::pool::Pool;
 use crate::model::problem::{MeshRules, Problem, StageLimits};
@@ -34,13 +34,13 @@ pub enum Dial {
 }
 
 impl Dial {
-    /// Parse `hour`, `24h` or `week`.
-    pub fn parse(text: &str, flag: &str) -> Result<Dial> {
+    /// Parse `hour`, `24h` or `week`; errors name [`Quantity::Dial`].
+    pub fn parse(text: &str) -> Result<Dial> {
         match text.trim() {
             "hour" | "12h" => Ok(Dial::Hour),
             "24h" => Ok(Dial::TwentyFourHour),
             "week" => Ok(Dial::Week),
-            other => Err(Error::flag(flag, format!("unknown dial \"{other}\"; wanted hour (12:1), 24h (24:1) or week (7:1 from a daily arbor)"))),
+            other => Err(Error::value(Quantity::Dial, format!("unknown dial \"{other}\"; wanted hour (12:1), 24h (24:1) or week (7:1 from a daily arbor)"))),
         }
     }
 

@@ -8,7 +8,7 @@
 //!
 //! - [`hunting`]: hunting-tooth pairs and the balance key;
 //! - [`housing`]: which stage goes in which place, at which centre distance;
-//! - [`table`], [`csv`], [`json`]: the output formats.
+//! - the output formats are in [`crate::report::reducer`].
 //!
 //! One module per stage is held by drawing the gears from a pool with the tooth range in every
 //! module and a train check that place `i` (input to output) gets module `i`; the core keeps one
@@ -20,7 +20,7 @@ pub mod hunting;
 use std::sync::Arc;
 
 use crate::engine::{search, EngineKind, RunOptions};
-use crate::error::{Error, Result};
+use crate::error::{Error, Message, Quantity, Result};
 use crate::model::pool::{Pool, StockGear, MAX_STAGES};
 use crate::model::problem::{ExtraKey, MeshRules, Problem, StageLimits, TrainCheck};
 use crate::model::rank::RankKey;
@@ -127,18 +127,21 @@ impl ReducerSpec {
         if per_stage > 1 {
             let n = per_stage as u32;
             if !self.stages.contains(n) || (self.modules.len() > 1 && self.modules.len() != per_stage) {
-                return Err(Error::flag(
-                    "--modules",
-                    format!(
-                        "{} modules and {} centre distances given; give one per stage for --stages {n} (or one for all)",
-                        self.modules.len(),
-                        self.centre_distances_mm.len()
-                    ),
+                let given = format!(
+                    "{} modules and {} centre distances given; give one per stage for ",
+                    self.modules.len(),
+                    self.centre_distances_mm.len()
+                );
+                return Err(Error::value(
+                    Quantity::StageModules,
+                    Message::from(given)
+                        .quantity(Quantity::StageCount)
+                        .text(format!(" {n} (or one for all)")),
                 ));
             }
             if self.centre_distances_mm.len() > 1 && self.centre_distances_mm.len() != per_stage {
-                return Err(Error::flag(
-                    "--centre-distances",
+                return Err(Error::value(
+                    Quantity::StageCentreDistances,
                     format!("give one distance per stage ({per_stage})"),
                 ));
             }
@@ -167,9 +170,9 @@ impl ReducerSpec {
             })
             .collect();
         for &m in &modules {
-            crate::model::pool::check_module(m, &|msg| Error::flag("--modules", msg))?;
+            crate::model::pool::check_module(m, &|msg| Error::value(Quantity::StageModules, msg))?;
         }
-        let pool = Pool::from_stock(&stock, "--teeth")?;
+        let pool = Pool::from_stock_at(&stock, &|msg| Error::value(Quantity::ToothRange, msg))?;
         // Gears to cut: any number, as with a tooth range.
         Ok(Pool { from_stock: false, ..pool })
     }
@@ -190,28 +193,28 @@ impl ReducerSpec {
     /// and the hunting and balance key.
     pub fn problem(&self) -> Result<Problem> {
         if self.ratio <= Ratio::integer(1) {
-            return Err(Error::flag(
-                "--ratio",
+            return Err(Error::value(
+                Quantity::TargetRatio,
                 format!("a reducer's ratio is above 1 (input faster than output), found {}", self.ratio),
             ));
         }
         if self.max_stage_ratio <= Ratio::integer(1) {
-            return Err(Error::flag("--max-stage-ratio", "wanted a ratio above 1, e.g. 6"));
+            return Err(Error::value(Quantity::MaxStageRatio, "wanted a ratio above 1, e.g. 6"));
         }
         if self.modules.windows(2).any(|w| w[1] < w[0]) {
-            return Err(Error::flag(
-                "--modules",
+            return Err(Error::value(
+                Quantity::StageModules,
                 "give the modules input to output, coarser toward the output (e.g. 1,1.5,2)",
             ));
         }
         if let Some(a) = self.centre_distances_mm.iter().find(|a| !(a.is_finite() && **a > 0.0)) {
-            return Err(Error::flag(
-                "--centre-distances",
+            return Err(Error::value(
+                Quantity::StageCentreDistances,
                 format!("wanted positive distances in mm, found {a}"),
             ));
         }
         if self.stock.is_none() && self.modules.is_empty() {
-            return Err(Error::flag("--modules", "give the module of each stage, e.g. 1,1.5,2"));
+            return Err(Error::value(Quantity::StageModules, "give the module of each stage, e.g. 1,1.5,2"));
         }
         let stages = self.stage_range()?;
         let pool = self.pool()?;
@@ -233,7 +236,7 @@ impl ReducerSpec {
             Priority::Error => vec![RankKey::Error, RankKey::Extra, RankKey::Size],
         };
         if self.limit == 0 {
-            return Err(Error::flag("--limit", "list at least one train"));
+            return Err(Error::value(Quantity::Limit, "list at least one train"));
         }
         let target = Target::exact(self.ratio_text.clone(), self.ratio, self.tolerance);
         let mut p = Problem::new(target, pool, stages, limits, None, rank, self.limit)?;
@@ -266,5 +269,47 @@ impl ReducerSpec {
             })
             .collect();
         Ok(ReducerPlan { spec: self.clone(), problem, count: found.count, complete: found.complete, trains })
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    fn spec(modules: &[f64], teeth: IntRange) -> ReducerSpec {
+        ReducerSpec {
+            ratio: Ratio::integer(10),
+            ratio_text: "10".into(),
+            tolerance: Ratio::integer(0),
+            stages: IntRange { lo: 2, hi: 2 },
+            modules: modules.to_vec(),
+            teeth,
+            max_stage_ratio: Ratio::integer(DEFAULT_MAX_STAGE_RATIO),
+            centre_distances_mm: Vec::new(),
+            shift_sum: crate::model::problem::DEFAULT_SHIFT_SUM,
+            hunting: Hunting::Prefer,
+            priority: Priority::Balance,
+            input_rpm: None,
+            stock: None,
+            limit: 5,
+        }
+    }
+
+    #[test]
+    fn errors_name_quantities_and_can_name_another_inside() {
+        let e = spec(&[1.0, 1.5, 2.0], IntRange { lo: 17, hi: 100 }).problem().unwrap_err();
+        let said = "3 modules and 0 centre distances given; give one per stage for";
+        assert_eq!(
+            e.to_string(),
+            format!("the module of each stage: {said} the stage count 3 (or one for all)")
+        );
+        let short = |q| match q {
+            Quantity::StageModules => "MODULES",
+            Quantity::StageCount => "STAGES",
+            _ => "?",
+        };
+        assert_eq!(e.render(short), format!("MODULES: {said} STAGES 3 (or one for all)"));
+        let e = spec(&[1.0], IntRange { lo: 20, hi: 20 }).problem().unwrap_err().to_string();
+        assert!(e.starts_with("the tooth range: nothing can mesh: "), "{e}");
     }
 }

@@ -21,7 +21,7 @@
 
 use std::path::Path;
 
-use crate::error::{Error, Result};
+use crate::error::{Error, Message, Quantity, Result};
 use crate::model::pool::{fmt_num, Pool};
 use crate::model::train::{standard_centre_distance_mm, Train};
 use crate::numbers::range::{parse_float_range, FloatRange};
@@ -74,21 +74,23 @@ fn root_mm(m: f64, z: u32) -> f64 {
 }
 
 impl Banjo {
-    /// Check the numbers make a banjo; `place` names where they came from.
+    /// Check the numbers make a banjo; `place` makes the error for the quantity at fault, naming
+    /// where the numbers came from.
     pub fn new(
         stud_to_leadscrew_mm: f64,
         intermediate_from_leadscrew_mm: FloatRange,
         shaft_diameter_mm: f64,
-        place: &dyn Fn(&str, String) -> Error,
+        place: &dyn Fn(Quantity, String) -> Error,
     ) -> Result<Banjo> {
-        for (v, what) in [(stud_to_leadscrew_mm, "stud-to-leadscrew"), (shaft_diameter_mm, "shaft-diameter")]
+        for (v, quantity) in
+            [(stud_to_leadscrew_mm, Quantity::StudToLeadscrew), (shaft_diameter_mm, Quantity::ShaftDiameter)]
         {
             if !v.is_finite() || v <= 0.0 {
-                return Err(place(what, format!("wanted a positive distance in mm, found {v}")));
+                return Err(place(quantity, format!("wanted a positive distance in mm, found {v}")));
             }
         }
         if !intermediate_from_leadscrew_mm.hi.is_finite() {
-            return Err(place("intermediate-range", "wanted LO..HI mm with an upper end".into()));
+            return Err(place(Quantity::IntermediateRange, "wanted LO..HI mm with an upper end".into()));
         }
         Ok(Banjo { stud_to_leadscrew_mm, intermediate_from_leadscrew_mm, shaft_diameter_mm })
     }
@@ -322,11 +324,11 @@ pub fn spare_idlers(train: &Train, pool: &Pool) -> Vec<u32> {
 
 /// Read a banjo file: `key = value` lines (`#` starts a comment) with the keys
 /// `stud_to_leadscrew_mm`, `intermediate_from_leadscrew_mm` (`LO..HI`) and `shaft_diameter_mm`.
-/// Errors name the file, line and key.
-pub fn load_banjo(path: &Path, flag: &str) -> Result<Banjo> {
+/// Errors name [`Quantity::Banjo`], the file, line and key.
+pub fn load_banjo(path: &Path) -> Result<Banjo> {
     let name = path.display().to_string();
     let text = std::fs::read_to_string(path)
-        .map_err(|e| Error::flag(flag, format!("banjo file {name}: cannot read it: {e}")))?;
+        .map_err(|e| Error::value(Quantity::Banjo, format!("banjo file {name}: cannot read it: {e}")))?;
     let (mut dist, mut range, mut shaft) = (None, None, None);
     for (n, line) in text.lines().enumerate() {
         let line = line.split('#').next().unwrap_or("").trim();
@@ -335,26 +337,34 @@ pub fn load_banjo(path: &Path, flag: &str) -> Result<Banjo> {
         }
         let place = format!("banjo file {name}, line {}", n + 1);
         let Some((key, value)) = line.split_once('=') else {
-            return Err(Error::flag(flag, format!("{place}: wanted key = value, found \"{line}\"")));
+            return Err(Error::value(
+                Quantity::Banjo,
+                format!("{place}: wanted key = value, found \"{line}\""),
+            ));
         };
         let (key, value) = (key.trim(), value.trim());
         let number = || -> Result<f64> {
             value.parse::<f64>().ok().filter(|v| v.is_finite() && *v > 0.0).ok_or_else(|| {
-                Error::flag(flag, format!("{place}: {key} wants a positive number of mm, found \"{value}\""))
+                Error::value(
+                    Quantity::Banjo,
+                    format!("{place}: {key} wants a positive number of mm, found \"{value}\""),
+                )
             })
         };
         match key {
             "stud_to_leadscrew_mm" => dist = Some(number()?),
             "shaft_diameter_mm" => shaft = Some(number()?),
             "intermediate_from_leadscrew_mm" => {
-                range = Some(
-                    parse_float_range(value, flag, "mm")
-                        .map_err(|e| Error::flag(flag, format!("{place}: {key}: {e}")))?,
-                )
+                range = Some(parse_float_range(value, Quantity::Banjo, "mm").map_err(|e| {
+                    Error::value(
+                        Quantity::Banjo,
+                        Message::from(format!("{place}: {key}: ")).then(e.to_message()),
+                    )
+                })?)
             }
             _ => {
-                return Err(Error::flag(
-                    flag,
+                return Err(Error::value(
+                    Quantity::Banjo,
                     format!(
                         "{place}: unknown key \"{key}\"; known keys are stud_to_leadscrew_mm, \
                          intermediate_from_leadscrew_mm, shaft_diameter_mm"
@@ -363,13 +373,23 @@ pub fn load_banjo(path: &Path, flag: &str) -> Result<Banjo> {
             }
         }
     }
-    let missing = |k: &str| Error::flag(flag, format!("banjo file {name}: {k} is missing"));
+    let missing = |k: &str| Error::value(Quantity::Banjo, format!("banjo file {name}: {k} is missing"));
     Banjo::new(
         dist.ok_or_else(|| missing("stud_to_leadscrew_mm"))?,
         range.ok_or_else(|| missing("intermediate_from_leadscrew_mm"))?,
         shaft.ok_or_else(|| missing("shaft_diameter_mm"))?,
-        &|k, m| Error::flag(flag, format!("banjo file {name}: {k}: {m}")),
+        &|q, m| Error::value(Quantity::Banjo, format!("banjo file {name}: {}: {m}", file_label(q))),
     )
+}
+
+/// What a banjo file's errors call the banjo's numbers: the short names, not the file's keys.
+fn file_label(quantity: Quantity) -> &'static str {
+    match quantity {
+        Quantity::StudToLeadscrew => "stud-to-leadscrew",
+        Quantity::IntermediateRange => "intermediate-range",
+        Quantity::ShaftDiameter => "shaft-diameter",
+        other => other.name(),
+    }
 }
 
 #[cfg(test)]
@@ -409,6 +429,30 @@ mod tests {
             intermediate_from_leadscrew_mm: FloatRange { lo: 45.0, hi: 150.0 },
             shaft_diameter_mm: 20.0,
         }
+    }
+
+    #[test]
+    fn banjo_file_errors_name_the_banjo_the_file_and_the_key() {
+        let dir = tempfile::tempdir().unwrap();
+        let p = dir.path().join("b.banjo");
+        let f = p.display();
+        std::fs::write(
+            &p,
+            "stud_to_leadscrew_mm = 120\nintermediate_from_leadscrew_mm = 60..\nshaft_diameter_mm = 16\n",
+        )
+        .unwrap();
+        let e = load_banjo(&p).unwrap_err().to_string();
+        assert_eq!(
+            e,
+            format!("the banjo: banjo file {f}: intermediate-range: wanted LO..HI mm with an upper end")
+        );
+        std::fs::write(&p, "intermediate_from_leadscrew_mm = 90..60\n").unwrap();
+        let e = load_banjo(&p).unwrap_err().to_string();
+        let inverted = "the banjo: \"90..60\" is inverted (LO > HI); wanted LO..HI in mm, positive, LO ≤ HI";
+        assert_eq!(
+            e,
+            format!("the banjo: banjo file {f}, line 1: intermediate_from_leadscrew_mm: {inverted}")
+        );
     }
 
     #[test]

@@ -11,7 +11,7 @@
 use std::path::Path;
 
 use super::pitch::Pitch;
-use crate::error::{Error, Result};
+use crate::error::{Error, Message, Quantity, Result};
 use crate::numbers::exact::Exact;
 use crate::numbers::rational::Ratio;
 use crate::numbers::target::parse_ratio;
@@ -64,7 +64,8 @@ impl Machine {
 }
 
 /// Parse a gearbox list: `A=2,B=1,C=1/2`, or bare ratios `2,1,1/2` named 1, 2, 3 in order.
-pub fn parse_gearbox_list(text: &str, flag: &str) -> Result<Vec<GearboxPosition>> {
+/// Errors name [`Quantity::Gearbox`] and the position.
+pub fn parse_gearbox_list(text: &str) -> Result<Vec<GearboxPosition>> {
     let mut out: Vec<GearboxPosition> = Vec::new();
     for (i, item) in text.split(',').enumerate() {
         let item = item.trim();
@@ -72,42 +73,42 @@ pub fn parse_gearbox_list(text: &str, flag: &str) -> Result<Vec<GearboxPosition>
             Some((n, r)) => (n.trim().to_string(), r.trim()),
             None => ((i + 1).to_string(), item),
         };
-        let place = format!("{flag} position {}", i + 1);
-        out.push(position(&name, ratio, flag, &place)?);
-        check_unique(&out, flag, &place)?;
+        let place = Message::from(Quantity::Gearbox).text(format!(" position {}", i + 1));
+        out.push(position(&name, ratio, &place)?);
+        check_unique(&out, &place)?;
     }
     Ok(out)
 }
 
-fn position(name: &str, ratio: &str, flag: &str, place: &str) -> Result<GearboxPosition> {
+/// One position; `place` says where it was given, at the head of each error.
+fn position(name: &str, ratio: &str, place: &Message) -> Result<GearboxPosition> {
+    let bad = |why: String| Error::value(Quantity::Gearbox, place.clone().text(format!(": {why}")));
     if name.is_empty() {
-        return Err(Error::flag(flag, format!("{place}: the position has no name")));
+        return Err(bad("the position has no name".into()));
     }
-    let ratio = parse_ratio(ratio, flag).map_err(|_| {
-        Error::flag(
-            flag,
-            format!(
-                "{place}: \"{ratio}\" is not a ratio; wanted NAME=RATIO such as A=1/2 (input \
-                 turns per leadscrew turn)"
-            ),
-        )
+    let ratio = parse_ratio(ratio, Quantity::Gearbox).map_err(|_| {
+        bad(format!(
+            "\"{ratio}\" is not a ratio; wanted NAME=RATIO such as A=1/2 (input turns per leadscrew turn)"
+        ))
     })?;
     Ok(GearboxPosition { name: name.to_string(), ratio })
 }
 
-fn check_unique(out: &[GearboxPosition], flag: &str, place: &str) -> Result<()> {
+fn check_unique(out: &[GearboxPosition], place: &Message) -> Result<()> {
     let last = &out[out.len() - 1];
     if out[..out.len() - 1].iter().any(|p| p.name == last.name) {
-        return Err(Error::flag(flag, format!("{place}: position {} is named twice", last.name)));
+        let twice = place.clone().text(format!(": position {} is named twice", last.name));
+        return Err(Error::value(Quantity::Gearbox, twice));
     }
     Ok(())
 }
 
-/// Read a gearbox file: one `NAME = RATIO` a line, `#` starts a comment. Errors name the file
-/// and line.
-pub fn load_gearbox(path: &Path, flag: &str) -> Result<Vec<GearboxPosition>> {
+/// Read a gearbox file: one `NAME = RATIO` a line, `#` starts a comment. Errors name
+/// [`Quantity::Gearbox`], the file and the line.
+pub fn load_gearbox(path: &Path) -> Result<Vec<GearboxPosition>> {
+    let bad = |why: String| Error::value(Quantity::Gearbox, why);
     let text = std::fs::read_to_string(path)
-        .map_err(|e| Error::flag(flag, format!("gearbox file {}: cannot read it: {e}", path.display())))?;
+        .map_err(|e| bad(format!("gearbox file {}: cannot read it: {e}", path.display())))?;
     let mut out = Vec::new();
     for (n, line) in text.lines().enumerate() {
         let line = line.split('#').next().unwrap_or("").trim();
@@ -116,19 +117,14 @@ pub fn load_gearbox(path: &Path, flag: &str) -> Result<Vec<GearboxPosition>> {
         }
         let place = format!("gearbox file {}, line {}", path.display(), n + 1);
         let Some((name, ratio)) = line.split_once('=') else {
-            return Err(Error::flag(
-                flag,
-                format!("{place}: wanted NAME = RATIO such as A = 1/2, found \"{line}\""),
-            ));
+            return Err(bad(format!("{place}: wanted NAME = RATIO such as A = 1/2, found \"{line}\"")));
         };
-        out.push(position(name.trim(), ratio.trim(), flag, &place)?);
-        check_unique(&out, flag, &place)?;
+        let place = Message::from(place);
+        out.push(position(name.trim(), ratio.trim(), &place)?);
+        check_unique(&out, &place)?;
     }
     if out.is_empty() {
-        return Err(Error::flag(
-            flag,
-            format!("gearbox file {}: no positions; wanted lines NAME = RATIO", path.display()),
-        ));
+        return Err(bad(format!("gearbox file {}: no positions; wanted lines NAME = RATIO", path.display())));
     }
     Ok(out)
 }
@@ -140,14 +136,14 @@ mod tests {
 
     fn lathe(ls: &str) -> Machine {
         Machine {
-            leadscrew: parse_leadscrew(ls, "--leadscrew").unwrap(),
+            leadscrew: parse_leadscrew(ls).unwrap(),
             stud_ratio: Ratio::integer(1),
             gearbox: Vec::new(),
         }
     }
 
     fn need(ls: &str, pitch: &str) -> String {
-        let lead = parse_pitch(pitch, "--pitch").unwrap().mm;
+        let lead = parse_pitch(pitch).unwrap().mm;
         lathe(ls).train_ratio_for(lead, None).value.to_string()
     }
 
@@ -163,7 +159,7 @@ mod tests {
         // 20 wheel needs 25.555… teeth.
         assert_eq!(need("2tpi", "4tpi"), "2");
         assert_eq!(need("1tpi", "7tpi"), "7");
-        let r = lathe("1.8tpi").train_ratio_for(parse_pitch("2.3tpi", "--pitch").unwrap().mm, None).value;
+        let r = lathe("1.8tpi").train_ratio_for(parse_pitch("2.3tpi").unwrap().mm, None).value;
         assert_eq!(r.to_string(), "23/18");
         let on_20 = Ratio::new(20 * r.num() as u128, r.den() as u128).unwrap();
         assert_ne!(on_20.den(), 1, "not a whole number of teeth");
@@ -177,8 +173,8 @@ mod tests {
     fn lead_cut_inverts_train_ratio() {
         let mut m = lathe("8tpi");
         m.stud_ratio = Ratio::new(1, 2).unwrap();
-        m.gearbox = parse_gearbox_list("A=2,B=1,C=1/2", "--gearbox").unwrap();
-        let lead = parse_pitch("1.25mm", "--pitch").unwrap().mm;
+        m.gearbox = parse_gearbox_list("A=2,B=1,C=1/2").unwrap();
+        let lead = parse_pitch("1.25mm").unwrap().mm;
         for p in m.positions() {
             let i = m.train_ratio_for(lead, p);
             assert!(i.exact);
@@ -188,12 +184,12 @@ mod tests {
 
     #[test]
     fn gearbox_lists_parse_and_refuse() {
-        let g = parse_gearbox_list("1, 2 ,1/2", "--gearbox").unwrap();
+        let g = parse_gearbox_list("1, 2 ,1/2").unwrap();
         assert_eq!(g[2].name, "3");
         assert_eq!(g[2].ratio.to_string(), "1/2");
         for bad in ["A=1,A=2", "A=x", "=2", "1,,2"] {
-            let e = parse_gearbox_list(bad, "--gearbox").unwrap_err().to_string();
-            assert!(e.starts_with("--gearbox: "), "{bad}: {e}");
+            let e = parse_gearbox_list(bad).unwrap_err().to_string();
+            assert!(e.starts_with("the gearbox: the gearbox position "), "{bad}: {e}");
         }
     }
 }

@@ -7,7 +7,7 @@
 //! - [`banjo`]: setup geometry and the reasons a setup is rejected;
 //! - [`series`]: built-in thread series and list files;
 //! - [`chart`]: the best setup for every thread of a series;
-//! - [`table`], [`csv`], [`json`]: the output formats for setups and charts.
+//! - the output formats for setups and charts are in [`crate::report::thread`].
 //!
 //! The hand of the thread is set by the tumbler reverse (common practice), so a setup's output
 //! direction is not constrained here.
@@ -21,7 +21,7 @@ pub mod series;
 use std::cmp::Ordering;
 
 use crate::engine::{search, EngineKind, RunOptions};
-use crate::error::{Error, Result};
+use crate::error::{Error, Quantity, Result};
 use crate::model::pool::Pool;
 use crate::model::problem::{Problem, StageLimits, TrainCheck};
 use crate::model::rank::DEFAULT_RANK;
@@ -81,7 +81,7 @@ pub struct Lathe {
 }
 
 impl Lathe {
-    /// Check the parts; `tol_flag` names the tolerance in errors.
+    /// Check the parts against each other.
     pub fn new(
         machine: Machine,
         pool: Pool,
@@ -91,13 +91,13 @@ impl Lathe {
         limit: usize,
     ) -> Result<Lathe> {
         if tolerance > MAX_TOLERANCE {
-            return Err(Error::flag(
-                "--tol",
+            return Err(Error::value(
+                Quantity::Tolerance,
                 "a pitch tolerance above 10% cuts a different thread; give 0 (exact) up to 10%",
             ));
         }
         if limit == 0 {
-            return Err(Error::flag("--limit", "list at least one setup"));
+            return Err(Error::value(Quantity::Limit, "list at least one setup"));
         }
         // Problem::new checks the stage range; check it here too so the error comes early.
         let probe = Target::exact("1", Ratio::integer(1), Ratio::integer(0));

@@ -6,7 +6,7 @@
 
 use std::fmt;
 
-use crate::error::{Error, Result};
+use crate::error::{Error, Quantity, Result};
 use crate::numbers::exact::Exact;
 use crate::numbers::rational::Ratio;
 use crate::numbers::target::{parse_ratio, PI};
@@ -58,11 +58,11 @@ impl fmt::Display for Pitch {
 
 const WANTED: &str = "wanted a pitch such as 1.25mm, 11tpi, module:2 or dp:16";
 
-/// Parse a thread pitch; `flag` names it in errors.
-pub fn parse_pitch(text: &str, flag: &str) -> Result<Pitch> {
+/// Parse a thread pitch; errors name [`Quantity::ThreadPitch`].
+pub fn parse_pitch(text: &str) -> Result<Pitch> {
     let t = text.trim();
     let lower = t.to_ascii_lowercase();
-    let bad = |why: String| Error::flag(flag, format!("\"{t}\" {why}; {WANTED}"));
+    let bad = |why: String| Error::value(Quantity::ThreadPitch, format!("\"{t}\" {why}; {WANTED}"));
     let (kind, number) = if let Some(n) = lower.strip_prefix("module:") {
         (PitchKind::Module, n)
     } else if let Some(n) = lower.strip_prefix("dp:") {
@@ -79,7 +79,8 @@ pub fn parse_pitch(text: &str, flag: &str) -> Result<Pitch> {
     if number.is_empty() || number.chars().any(|c| c.is_ascii_alphabetic() || c == ':') {
         return Err(bad("does not start with a number".into()));
     }
-    let given = parse_ratio(number, flag).map_err(|_| bad("is not a positive number".into()))?;
+    let given =
+        parse_ratio(number, Quantity::ThreadPitch).map_err(|_| bad("is not a positive number".into()))?;
     if given.is_zero() {
         return Err(bad("is zero".into()));
     }
@@ -95,11 +96,12 @@ pub fn parse_pitch(text: &str, flag: &str) -> Result<Pitch> {
     Ok(Pitch { text: t.to_string(), kind, given, mm })
 }
 
-/// Parse a leadscrew pitch: threads per inch or mm only (a leadscrew is not a worm).
-pub fn parse_leadscrew(text: &str, flag: &str) -> Result<Pitch> {
-    let p = parse_pitch(text, flag).map_err(|_| {
-        Error::flag(
-            flag,
+/// Parse a leadscrew pitch: threads per inch or mm only (a leadscrew is not a worm). Errors
+/// name [`Quantity::Leadscrew`].
+pub fn parse_leadscrew(text: &str) -> Result<Pitch> {
+    let p = parse_pitch(text).map_err(|_| {
+        Error::value(
+            Quantity::Leadscrew,
             format!(
                 "\"{}\" is not a leadscrew pitch; wanted threads per inch such as 8tpi or a \
                  metric pitch such as 3mm",
@@ -109,8 +111,8 @@ pub fn parse_leadscrew(text: &str, flag: &str) -> Result<Pitch> {
     })?;
     match p.kind {
         PitchKind::Metric | PitchKind::Inch => Ok(p),
-        _ => Err(Error::flag(
-            flag,
+        _ => Err(Error::value(
+            Quantity::Leadscrew,
             format!("\"{}\": a leadscrew is given in threads per inch (8tpi) or mm (3mm)", p.text),
         )),
     }
@@ -162,7 +164,7 @@ mod tests {
     use super::*;
 
     fn mm(s: &str) -> String {
-        parse_pitch(s, "--pitch").unwrap().mm.value.to_string()
+        parse_pitch(s).unwrap().mm.value.to_string()
     }
 
     #[test]
@@ -171,7 +173,7 @@ mod tests {
         // "Inch", section "Modern standardisation").
         assert_eq!(mm("1tpi"), "127/5");
         assert_eq!(mm("25.4mm"), "127/5");
-        assert!(parse_pitch("1tpi", "--pitch").unwrap().mm.exact);
+        assert!(parse_pitch("1tpi").unwrap().mm.exact);
     }
 
     #[test]
@@ -187,31 +189,36 @@ mod tests {
     #[test]
     fn worms_carry_pi() {
         // Common practice: a module worm's axial pitch is π·m; a DP worm's is π/P inch.
-        let m = parse_pitch("module:2", "--pitch").unwrap();
+        let m = parse_pitch("module:2").unwrap();
         assert_eq!(m.kind, PitchKind::Module);
         assert!(!m.mm.exact);
         assert!((m.mm.value.to_f64() - 2.0 * std::f64::consts::PI).abs() < 1e-12);
-        let d = parse_pitch("dp:16", "--pitch").unwrap();
+        let d = parse_pitch("dp:16").unwrap();
         assert!((d.mm.value.to_f64() - std::f64::consts::PI * 25.4 / 16.0).abs() < 1e-12);
         assert_eq!(d.own_unit(), "in");
     }
 
     #[test]
-    fn bad_pitches_name_the_flag() {
+    fn bad_pitches_name_the_quantity() {
         for bad in ["", "3", "mm", "0mm", "-2mm", "pimm", "abc", "module:", "dp:x", "1.2.3tpi"] {
-            let e = parse_pitch(bad, "--pitch").unwrap_err().to_string();
-            assert!(e.starts_with("--pitch: "), "{bad}: {e}");
+            let e = parse_pitch(bad).unwrap_err().to_string();
+            assert!(e.starts_with("the thread pitch: "), "{bad}: {e}");
         }
-        let e = parse_leadscrew("module:2", "--leadscrew").unwrap_err().to_string();
-        assert!(e.starts_with("--leadscrew: "), "{e}");
-        assert!(parse_leadscrew("6tpi", "--leadscrew").is_ok());
+        let e = parse_leadscrew("module:2").unwrap_err().to_string();
+        assert!(e.starts_with("the leadscrew pitch: "), "{e}");
+        assert!(parse_leadscrew("6tpi").is_ok());
+        let e = parse_pitch("3").unwrap_err().to_string();
+        assert_eq!(
+            e,
+            "the thread pitch: \"3\" has no unit; wanted a pitch such as 1.25mm, 11tpi, module:2 or dp:16"
+        );
     }
 
     #[test]
     fn shown_in_their_own_units() {
-        let p = parse_pitch("11tpi", "--pitch").unwrap();
+        let p = parse_pitch("11tpi").unwrap();
         assert_eq!(p.show(25.4 / 11.0), "11.000 tpi");
-        let p = parse_pitch("1.25mm", "--pitch").unwrap();
+        let p = parse_pitch("1.25mm").unwrap();
         assert_eq!(p.show(1.25), "1.2500 mm");
         assert_eq!(p.lead_error_basis().1, "mm per 100 mm");
     }

@@ -9,7 +9,7 @@
 use std::path::Path;
 
 use super::pitch::{parse_pitch, Pitch};
-use crate::error::{Error, Result};
+use crate::error::{Error, Message, Quantity, Result};
 
 /// One thread of a series.
 #[derive(Debug, Clone, PartialEq)]
@@ -108,10 +108,10 @@ const UNF: &[(&str, &str)] = &[
 /// Names of the built-in series.
 pub const BUILT_IN: &[&str] = &["iso-coarse", "iso-fine", "unc", "unf"];
 
-/// A built-in series by name; `flag` names the option in errors.
-pub fn built_in(name: &str, flag: &str) -> Result<Vec<SeriesEntry>> {
+/// A built-in series by name; errors name [`Quantity::Series`].
+pub fn built_in(name: &str) -> Result<Vec<SeriesEntry>> {
     let entry = |label: String, pitch: String| -> Result<SeriesEntry> {
-        Ok(SeriesEntry { label, pitch: parse_pitch(&pitch, flag)? })
+        Ok(SeriesEntry { label, pitch: parse_pitch(&pitch)? })
     };
     match name.trim().to_ascii_lowercase().as_str() {
         "iso-coarse" => ISO_COARSE.iter().map(|(s, p)| entry(format!("{s}×{p}"), format!("{p}mm"))).collect(),
@@ -122,12 +122,14 @@ pub fn built_in(name: &str, flag: &str) -> Result<Vec<SeriesEntry>> {
         "unf" => {
             UNF.iter().map(|(s, t)| entry(format!("{s}-{} UNF", tpi_text(t)), format!("{t}tpi"))).collect()
         }
-        other => Err(Error::flag(
-            flag,
-            format!(
-                "unknown series \"{other}\"; built-in series are {}, or give --list FILE",
+        other => Err(Error::value(
+            Quantity::Series,
+            Message::from(format!(
+                "unknown series \"{other}\"; built-in series are {}, or give ",
                 BUILT_IN.join(", ")
-            ),
+            ))
+            .quantity(Quantity::ThreadList)
+            .text(" FILE"),
         )),
     }
 }
@@ -142,11 +144,13 @@ fn tpi_text(t: &str) -> String {
 }
 
 /// Read a list file: one thread a line, `LABEL, PITCH` or just `PITCH` (`#` starts a comment),
-/// pitches as for `--pitch`. Errors name the file and line.
-pub fn load_list(path: &Path, flag: &str) -> Result<Vec<SeriesEntry>> {
+/// pitches as for [`parse_pitch`]. Errors name [`Quantity::ThreadList`], the file and the line.
+pub fn load_list(path: &Path) -> Result<Vec<SeriesEntry>> {
     let name = path.display().to_string();
-    let text = std::fs::read_to_string(path)
-        .map_err(|e| Error::flag(flag, format!("list file {name}: cannot read it: {e}")))?;
+    let bad = |why: Message| {
+        Error::value(Quantity::ThreadList, Message::from(format!("list file {name}")).then(why))
+    };
+    let text = std::fs::read_to_string(path).map_err(|e| bad(format!(": cannot read it: {e}").into()))?;
     let mut out = Vec::new();
     for (n, line) in text.lines().enumerate() {
         let line = line.split('#').next().unwrap_or("").trim();
@@ -157,20 +161,17 @@ pub fn load_list(path: &Path, flag: &str) -> Result<Vec<SeriesEntry>> {
             Some((l, p)) => (l.trim(), p.trim()),
             None => (line, line),
         };
-        let pitch = parse_pitch(pitch, flag).map_err(|e| {
-            let msg = match e {
-                Error::Flag { message, .. } => message,
-                other => other.to_string(),
+        let pitch = parse_pitch(pitch).map_err(|e| {
+            let why = match e {
+                Error::Value { message, .. } => message,
+                other => other.to_message(),
             };
-            Error::flag(flag, format!("list file {name}, line {}: {msg}", n + 1))
+            bad(Message::from(format!(", line {}: ", n + 1)).then(why))
         })?;
         out.push(SeriesEntry { label: label.to_string(), pitch });
     }
     if out.is_empty() {
-        return Err(Error::flag(
-            flag,
-            format!("list file {name}: no threads; wanted one pitch a line such as 1.25mm or M8, 1.25mm"),
-        ));
+        return Err(bad(": no threads; wanted one pitch a line such as 1.25mm or M8, 1.25mm".into()));
     }
     Ok(out)
 }
@@ -183,20 +184,25 @@ mod tests {
     #[test]
     fn built_in_series_parse() {
         for name in BUILT_IN {
-            let s = built_in(name, "--series").unwrap();
+            let s = built_in(name).unwrap();
             assert!(s.len() >= 10, "{name}");
         }
         // From memory (ISO 261): M8 coarse is 1.25 mm; (ASME B1.1) 1/4-20 UNC, 2-4 1/2 UNC.
-        let c = built_in("iso-coarse", "--series").unwrap();
+        let c = built_in("iso-coarse").unwrap();
         let m8 = c.iter().find(|e| e.label == "M8×1.25").unwrap();
         assert_eq!(m8.pitch.mm.value.to_string(), "5/4");
-        let unc = built_in("unc", "--series").unwrap();
+        let unc = built_in("unc").unwrap();
         assert_eq!(unc[9].label, "1/4-20 UNC");
         assert_eq!(unc[9].pitch.kind, PitchKind::Inch);
         let last = unc.last().unwrap();
         assert_eq!(last.label, "2-4 1/2 UNC");
         assert_eq!(last.pitch.given.to_string(), "9/2");
-        assert!(built_in("bsw", "--series").unwrap_err().to_string().starts_with("--series: "));
+        let e = built_in("bsw").unwrap_err().to_string();
+        assert_eq!(
+            e,
+            "the thread series: unknown series \"bsw\"; built-in series are iso-coarse, iso-fine, unc, unf, \
+             or give the thread list FILE"
+        );
     }
 
     #[test]
@@ -204,11 +210,17 @@ mod tests {
         let dir = tempfile::tempdir().unwrap();
         let p = dir.path().join("mine.txt");
         std::fs::write(&p, "# my threads\nM8, 1.25mm\n11tpi\n\nworm, module:2\n").unwrap();
-        let l = load_list(&p, "--list").unwrap();
+        let l = load_list(&p).unwrap();
         assert_eq!(l.len(), 3);
         assert_eq!((l[1].label.as_str(), l[1].pitch.kind), ("11tpi", PitchKind::Inch));
         std::fs::write(&p, "M8, 1.25mm\nM10, 1.5\n").unwrap();
-        let e = load_list(&p, "--list").unwrap_err().to_string();
-        assert!(e.starts_with("--list: list file ") && e.contains("line 2:"), "{e}");
+        let e = load_list(&p).unwrap_err().to_string();
+        assert!(e.starts_with("the thread list: list file ") && e.contains("line 2:"), "{e}");
+        assert!(
+            e.ends_with(
+                "line 2: \"1.5\" has no unit; wanted a pitch such as 1.25mm, 11tpi, module:2 or dp:16"
+            ),
+            "{e}"
+        );
     }
 }
