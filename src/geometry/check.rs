@@ -136,6 +136,8 @@ pub enum MeshDefect {
         /// The least contact ratio wanted.
         min: f64,
     },
+    /// A defect only an internal mesh (a pinion inside a ring gear) can have.
+    Internal(super::internal::InternalDefect),
 }
 
 impl fmt::Display for MeshDefect {
@@ -197,6 +199,7 @@ impl fmt::Display for MeshDefect {
                 "the contact ratio would be {value:.3}, below the {min:.2} wanted for smooth \
                  running"
             ),
+            MeshDefect::Internal(defect) => defect.fmt(f),
         }
     }
 }

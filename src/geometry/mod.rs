@@ -21,6 +21,7 @@
 //! spur gears; the basic rack defaults to ISO 53 type A.
 
 pub mod check;
+pub mod internal;
 pub mod involute;
 pub mod modules;
 pub mod pair;
