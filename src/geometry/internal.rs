@@ -33,8 +33,8 @@
 //! pinion's ([`InternalDefect::BelowFormCircle`]): the ring's tip circle curves towards the
 //! pinion's centre where a rack's tip line runs straight, so a full-depth ring reaches lower on
 //! a rack-cut pinion than the rack that cut it, and unshifted pairs of the ISO 53 type A
-//! profile fail this check by a little (a positive ring shift, a shortened ring addendum or a
-//! tool with a longer straight flank cures it).
+//! profile fail this check by a little. A ring shift some tenths of a module larger than the
+//! pinion's, a shortened ring addendum or a tool with a longer straight flank cures it.
 
 use std::f64::consts::PI;
 use std::fmt;
@@ -237,6 +237,9 @@ pub enum InternalMounting {
     PinionShiftAtCentreDistance {
         /// The pinion's profile shift `x1`, in modules.
         pinion_shift: f64,
+        /// Tip shortening `k` the pinion was cut with for another mesh it makes (a planet's
+        /// with the sun), in modules; zero when none. The internal mesh itself never needs it.
+        pinion_tip_shortening: f64,
         /// Working centre distance, mm.
         centre_distance_mm: f64,
     },
@@ -256,6 +259,9 @@ pub struct InternalMeshGeometry {
     pub teeth: [u32; 2],
     /// Profile shifts `[x1, x2]`, in modules (the ring's positive outwards).
     pub shift: [f64; 2],
+    /// Tip shortening `k` of the pinion, in modules, as it was cut for another mesh (zero when
+    /// none).
+    pub pinion_tip_shortening: f64,
     /// Standard centre distance `a = m(z2 − z1)/2`, mm.
     pub standard_centre_distance_mm: f64,
     /// Working centre distance `a_w`, mm.
@@ -269,7 +275,7 @@ pub struct InternalMeshGeometry {
     pub working_pitch_diameter_mm: [f64; 2],
     /// Base circle diameters `db = d·cos α`, mm.
     pub base_diameter_mm: [f64; 2],
-    /// Tip diameters, mm: the pinion's `d1 + 2m(ha* + x1)`, the ring's (inner)
+    /// Tip diameters, mm: the pinion's `d1 + 2m(ha* + x1 − k)`, the ring's (inner)
     /// `d2 − 2m(ha* − x2)`.
     pub tip_diameter_mm: [f64; 2],
     /// Root diameters, mm: the pinion's `d1 − 2m(hf* − x1)`, the ring's (outer)
@@ -516,7 +522,7 @@ pub fn internal_mesh_geometry(
             })
         }
     };
-    let (shift, a_w) = match mounting {
+    let (shift, k, a_w) = match mounting {
         InternalMounting::Shifted { shift } => {
             let shift = [finite_shift(shift[0])?, finite_shift(shift[1])?];
             let difference = shift[1] - shift[0];
@@ -535,10 +541,20 @@ pub fn internal_mesh_geometry(
                     value: difference,
                 });
             }
-            (shift, a_w)
+            (shift, 0.0, a_w)
         }
-        InternalMounting::PinionShiftAtCentreDistance { pinion_shift, centre_distance_mm } => {
+        InternalMounting::PinionShiftAtCentreDistance {
+            pinion_shift,
+            pinion_tip_shortening,
+            centre_distance_mm,
+        } => {
             let x1 = finite_shift(pinion_shift)?;
+            if !(pinion_tip_shortening.is_finite() && pinion_tip_shortening >= 0.0) {
+                return Err(MeshDefect::InvalidInput {
+                    what: "the tip shortening must be a number of modules, zero or more",
+                    value: pinion_tip_shortening,
+                });
+            }
             if !(centre_distance_mm.is_finite() && centre_distance_mm > 0.0) {
                 return Err(MeshDefect::InvalidInput {
                     what: "the centre distance must be a positive number of millimetres",
@@ -551,18 +567,19 @@ pub fn internal_mesh_geometry(
                     centre_distance_mm,
                     min_mm: system.internal_base_circle_distance_mm(teeth),
                 })?;
-            ([x1, x1 + difference], centre_distance_mm)
+            ([x1, x1 + difference], pinion_tip_shortening, centre_distance_mm)
         }
     };
-    assemble(system, teeth, shift, a_w)
+    assemble(system, teeth, shift, k, a_w)
 }
 
-/// Puts together the geometry of a tight internal pair whose shifts and centre distance are
-/// settled.
+/// Puts together the geometry of a tight internal pair whose shifts, pinion tip shortening and
+/// centre distance are settled.
 fn assemble(
     system: &ToothSystem,
     teeth: [u32; 2],
     shift: [f64; 2],
+    pinion_tip_shortening: f64,
     a_w: f64,
 ) -> Result<InternalMeshGeometry, MeshDefect> {
     let unreachable = MeshDefect::CentreDistanceUnreachable {
@@ -571,8 +588,10 @@ fn assemble(
     };
     let alpha_w = system.internal_working_pressure_angle_at(teeth, a_w).ok_or(unreachable)?;
     let m = system.module_mm();
-    let tip =
-        [system.tip_diameter_mm(teeth[0], shift[0], 0.0), system.ring_tip_diameter_mm(teeth[1], shift[1])];
+    let tip = [
+        system.tip_diameter_mm(teeth[0], shift[0], pinion_tip_shortening),
+        system.ring_tip_diameter_mm(teeth[1], shift[1]),
+    ];
     let root =
         [system.root_diameter_mm(teeth[0], shift[0]), system.ring_root_diameter_mm(teeth[1], shift[1])];
     let base = [system.base_diameter_mm(teeth[0]), system.base_diameter_mm(teeth[1])];
@@ -608,6 +627,7 @@ fn assemble(
         rack: system.rack(),
         teeth,
         shift,
+        pinion_tip_shortening,
         standard_centre_distance_mm: system.internal_standard_centre_distance_mm(teeth),
         centre_distance_mm: a_w,
         working_pressure_angle_deg: alpha_w.to_degrees(),
@@ -1091,7 +1111,11 @@ mod tests {
             internal_mesh_geometry(
                 &s,
                 [20, 60],
-                InternalMounting::PinionShiftAtCentreDistance { pinion_shift: 0.1, centre_distance_mm: a },
+                InternalMounting::PinionShiftAtCentreDistance {
+                    pinion_shift: 0.1,
+                    pinion_tip_shortening: 0.0,
+                    centre_distance_mm: a,
+                },
             )
         };
         assert!(matches!(mounted(18.0), Err(MeshDefect::CentreDistanceUnreachable { .. })));
@@ -1100,6 +1124,31 @@ mod tests {
         assert_eq!(g.shift[0], 0.1);
         let back = shifted(&s, [20, 60], g.shift);
         assert!((back.centre_distance_mm - 20.5).abs() < 1e-9);
+        // A planet cut with shortened tips for the sun keeps them in the ring.
+        let short = internal_mesh_geometry(
+            &s,
+            [20, 60],
+            InternalMounting::PinionShiftAtCentreDistance {
+                pinion_shift: 0.1,
+                pinion_tip_shortening: 0.05,
+                centre_distance_mm: 20.5,
+            },
+        )
+        .unwrap();
+        assert!((g.tip_diameter_mm[0] - short.tip_diameter_mm[0] - 0.1).abs() < 1e-12);
+        assert!(short.contact_ratio < g.contact_ratio);
+        assert!(matches!(
+            internal_mesh_geometry(
+                &s,
+                [20, 60],
+                InternalMounting::PinionShiftAtCentreDistance {
+                    pinion_shift: 0.1,
+                    pinion_tip_shortening: -0.05,
+                    centre_distance_mm: 20.5,
+                },
+            ),
+            Err(MeshDefect::InvalidInput { .. })
+        ));
     }
 
     proptest! {
