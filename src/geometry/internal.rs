@@ -39,9 +39,10 @@
 use std::f64::consts::PI;
 use std::fmt;
 
-use super::check::{GearRef, MeshDefect, MeshLimits};
+// Through the geometry module's own exports, wherever the defect vocabulary lives.
 use super::involute::{inv, inv_inverse};
 use super::system::{RackProfile, ToothSystem};
+use super::{GearRef, MeshDefect, MeshLimits};
 
 /// A pinion counts as undercut when its shift is below the undercut limit by more than this
 /// (in modules), as for external meshes.
