@@ -33,12 +33,14 @@ fn tabular_speeds(teeth: &Teeth, fixed: usize) -> [i128; 3] {
     // With the carrier held, the first central member turning by `first` turns the second by
     // `second` (both scaled to whole numbers).
     let (first, second) = match *teeth {
-        // Sun Zs turns Zp·Zr: the planet turns −Zs·Zr, the ring −Zs·Zp (internal, same sense).
+        // The sun turning Zp·Zr times turns the planet −Zs·Zr times (external mesh: reversed)
+        // and the ring −Zs·Zp times (internal mesh: the planet's sense).
         Teeth::Simple { sun, planet, ring } => (w(planet) * w(ring), -w(sun) * w(planet)),
-        // Sun → first planet gear (reverses), second gear with it, ring with that (same sense):
-        // sun Zp1·Zr makes the planet −Zs·Zr and the ring −Zs·Zp2.
+        // The sun turning Zp1·Zr times turns the planet −Zs·Zr times through its first gear;
+        // its second gear turns the ring −Zs·Zp2 times.
         Teeth::Stepped { sun, planet, ring } => (w(planet[0]) * w(ring), -w(sun) * w(planet[1])),
-        // Held ring Zp1·Zr2 → planet Zr1·Zr2 (same sense) → output ring Zr1·Zp2 (same sense).
+        // The held ring turning Zp1·Zr2 times turns the planet Zr1·Zr2 times (internal: same
+        // sense), whose second gear turns the output ring Zr1·Zp2 times.
         Teeth::TwoRing { planet, ring } => (w(planet[0]) * w(ring[1]), w(ring[0]) * w(planet[1])),
     };
     let carrier_held = [first, second, 0];

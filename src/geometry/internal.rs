@@ -194,6 +194,10 @@ impl ToothSystem {
     /// `δ1 + inv α_a1 − inv α_w` from contact at the pitch point until its tip corner reaches the
     /// crossing point, while the ring turns `z1/z2` of that.
     ///
+    /// This is the condition as published, judged where the pinion's tip crosses the ring's tip
+    /// circle. Along the whole path out of mesh the tip can pass somewhat closer to the ring's
+    /// tooth than it is there, so a design with a clearance near zero deserves a closer look.
+    ///
     /// `None` when the tip circles do not cross (then the pinion's tips either never reach the
     /// ring's teeth, or overlap them all round), a tip circle is inside its base circle, or the
     /// centre distance cannot be reached.

@@ -763,6 +763,36 @@ mod tests {
     }
 
     #[test]
+    fn two_ring_assembly_condition_matches_the_phase_equations() {
+        // Held ring mesh: (Zr1 − Zp1)·k/n + Zp1·t ≡ 0; output ring mesh:
+        // (Zr2 − Zp2)·k/n + Zp2·t ≡ 0 (mod 1), for a planet turned `t` of a turn at place k.
+        let fits = |p1: u64, p2: u64, r1: u64, r2: u64, n: u64, k: u64| {
+            // t = (j − (Zr1 − Zp1)·k/n)/Zp1; the second condition times n·Zp1.
+            (0..p1).any(|j| {
+                let lhs = (p2 * j * n + (r2 - p2) * k * p1) as i64 - (p2 * (r1 - p1) * k) as i64;
+                lhs.rem_euclid((n * p1) as i64) == 0
+            })
+        };
+        let mut both = [false, false];
+        for p1 in 14u64..22 {
+            for p2 in 14u64..22 {
+                for r1 in 60u64..66 {
+                    let r2 = r1 - p1 + p2 + 1;
+                    let teeth =
+                        Teeth::TwoRing { planet: [p1 as u32, p2 as u32], ring: [r1 as u32, r2 as u32] };
+                    for n in 2u64..6 {
+                        let by_phase = (1..n).all(|k| fits(p1, p2, r1, r2, n, k));
+                        let by_condition = positions(&teeth, n as u32, Spacing::Equal).is_ok();
+                        assert_eq!(by_phase, by_condition, "{teeth:?} with {n}");
+                        both[usize::from(by_condition)] = true;
+                    }
+                }
+            }
+        }
+        assert_eq!(both, [true, true]);
+    }
+
+    #[test]
     fn mesh_checks_name_the_mesh() {
         // Unshifted 20/30/80 at ISO 53 type A: the ring's tips reach below the planet's form
         // circle (see geometry::internal), so with the meshes checked the design is refused and

@@ -150,13 +150,6 @@ impl MeshTeeth {
             MeshTeeth::Internal([a, b]) => i64::from(b) - i64::from(a),
         }
     }
-
-    /// The tooth counts in mesh order.
-    pub fn teeth(self) -> [u32; 2] {
-        match self {
-            MeshTeeth::External(t) | MeshTeeth::Internal(t) => t,
-        }
-    }
 }
 
 impl Teeth {
