@@ -871,7 +871,7 @@ mod tests {
 
     #[test]
     fn involute_interference_matches_the_published_condition() {
-        // The condition as usually printed: no involute interference when
+        // The condition in the form it is usually printed (from memory): no involute interference when
         // z1/z2 ≥ 1 − tan α_a2 / tan α_w, with cos α_a2 = db2/da2.
         let s = system(1.0, 20.0);
         let mut seen = [false, false];
