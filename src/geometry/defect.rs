@@ -7,7 +7,7 @@ use std::fmt;
 /// Which gear of a pair a defect concerns, with enough to name it in a message.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, serde::Serialize)]
 pub struct GearRef {
-    /// Position in the pair, 0 or 1 (the index into the `[_; 2]` fields of [`MeshGeometry`]).
+    /// Position in the pair, 0 or 1 (the index into the `[_; 2]` fields of [`super::MeshGeometry`]).
     pub index: usize,
     /// Its tooth count.
     pub teeth: u32,
@@ -131,6 +131,8 @@ pub enum MeshDefect {
         /// The least contact ratio wanted.
         min: f64,
     },
+    /// A defect only an internal mesh (a pinion inside a ring gear) can have.
+    Internal(super::internal::InternalDefect),
 }
 
 impl fmt::Display for MeshDefect {
@@ -192,6 +194,7 @@ impl fmt::Display for MeshDefect {
                 "the contact ratio would be {value:.3}, below the {min:.2} wanted for smooth \
                  running"
             ),
+            MeshDefect::Internal(defect) => defect.fmt(f),
         }
     }
 }

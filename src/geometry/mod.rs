@@ -15,6 +15,9 @@
 //!   for a search.
 //! - [`defect`]: the words for what can be wrong: [`MeshDefect`], [`GearRef`], [`Role`].
 //! - [`check`]: [`MeshLimits`] and [`check_mesh`].
+//! - [`internal`]: internal meshes (a pinion inside a ring gear): the ring's circles, working
+//!   pressure angle and centre distance from the shift difference, contact ratio, and the
+//!   interference checks of [`internal::check_internal_mesh`].
 //! - [`modules`]: DIN 780 module series and diametral pitch.
 //!
 //! Units: lengths in mm, angles in degrees at the interface (radians where the name says
@@ -23,6 +26,7 @@
 
 pub mod check;
 pub mod defect;
+pub mod internal;
 pub mod involute;
 pub mod modules;
 pub mod pair;

@@ -2,5 +2,6 @@
 //! core in its own words and reads its results back; none imports another.
 
 pub mod clock;
+pub mod planetary;
 pub mod reducer;
 pub mod thread;
