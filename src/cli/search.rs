@@ -15,7 +15,7 @@ use gearsieve::numbers::range::{parse_float_range, parse_int_range, parse_ratio_
 use gearsieve::numbers::target::Target;
 use gearsieve::report::search::{csv as csv_out, json as json_out};
 use gearsieve::report::{render, Format, Report};
-use gearsieve::{EngineKind, Error, Problem, RunOptions, StageLimits};
+use gearsieve::{EngineChoice, Error, Problem, RunOptions, StageLimits};
 
 use super::progress::Bar;
 use super::{Ending, EXIT_OK};
@@ -183,7 +183,7 @@ pub struct SearchArgs {
 /// A validated search, ready to run.
 pub struct SearchJob {
     problem: Problem,
-    engine: EngineKind,
+    engine: EngineChoice,
     print: PrintArgs,
     explain: bool,
     shard: Option<Shard>,
@@ -296,9 +296,9 @@ impl TryFrom<SearchArgs> for SearchJob {
             ));
         }
         let engine = match a.engine {
-            EngineArg::Fast => EngineKind::Fast,
-            EngineArg::Sieve => EngineKind::Sieve,
-            EngineArg::Exhaustive => EngineKind::Exhaustive,
+            EngineArg::Fast => EngineChoice::Auto,
+            EngineArg::Sieve => EngineChoice::Sieve,
+            EngineArg::Exhaustive => EngineChoice::Exhaustive,
         };
         Ok(SearchJob {
             problem,

@@ -18,7 +18,7 @@ use std::sync::atomic::{AtomicU64, Ordering as AtomicOrdering};
 
 use rayon::prelude::*;
 
-use super::{Keeper, SearchSpace};
+use super::{SearchSpace, Tally};
 use crate::model::pool::MAX_STAGES;
 use crate::model::rank::Candidate;
 use crate::numbers::rational::RelError;
@@ -29,13 +29,13 @@ pub const PAIR_TABLE_BUDGET_BYTES: usize = 1 << 30;
 /// Relative widening of the single-precision pair products, far above their rounding error.
 const F32_MARGIN: f64 = 1e-6;
 
-/// Values handled per unit of work for `n ≤ 3`, pairs per unit for `n = 4`.
+/// Distinct ratios handled per unit of work for `n ≤ 3`, pairs per unit for `n = 4`.
 pub const VALUES_PER_UNIT: usize = 16;
 /// Pairs of the left side handled per unit of work for `n = 4`.
 pub const PAIRS_PER_UNIT: usize = 1 << 16;
 
 /// The distinct stage ratios of a search space.
-pub struct Values {
+pub struct DistinctRatios {
     /// Ratio as `f64`, ascending.
     pub value: Vec<f64>,
     /// Reduced driven / driver.
@@ -52,10 +52,10 @@ pub struct Values {
     pub min_span: Vec<f64>,
 }
 
-impl Values {
+impl DistinctRatios {
     /// Fold the stage table into its distinct ratios.
-    pub fn new(space: &SearchSpace) -> Values {
-        let mut v = Values {
+    pub fn new(space: &SearchSpace) -> DistinctRatios {
+        let mut v = DistinctRatios {
             value: Vec::new(),
             num: Vec::new(),
             den: Vec::new(),
@@ -119,7 +119,7 @@ impl PairTable {
     }
 
     /// Build the table, or `None` when it would exceed the memory budget.
-    pub fn new(values: &Values) -> Option<PairTable> {
+    pub fn new(values: &DistinctRatios) -> Option<PairTable> {
         let d = values.count();
         if !PairTable::fits(d) {
             return None;
@@ -169,7 +169,7 @@ pub struct MeetUnit {
 }
 
 /// The units of work for `n` stages.
-pub fn units(n: usize, values: &Values, pairs: Option<&PairTable>) -> Vec<MeetUnit> {
+pub fn units(n: usize, values: &DistinctRatios, pairs: Option<&PairTable>) -> Vec<MeetUnit> {
     let (len, step) = if n == 4 {
         (pairs.map_or(0, PairTable::len), PAIRS_PER_UNIT)
     } else {
@@ -188,7 +188,7 @@ pub struct Meet<'a, 's> {
     /// The space.
     pub space: &'a SearchSpace<'s>,
     /// Its distinct ratios.
-    pub values: &'a Values,
+    pub values: &'a DistinctRatios,
     /// The pair table (needed for `n = 4`).
     pub pairs: Option<&'a PairTable>,
     /// Sequences judged exactly (for statistics).
@@ -196,17 +196,17 @@ pub struct Meet<'a, 's> {
 }
 
 impl Meet<'_, '_> {
-    /// Run one unit into `keep`.
+    /// Run one unit into `tally`.
     // The loop variables are value ids that go into the sequence, not just positions in `v`.
     #[allow(clippy::needless_range_loop)]
-    pub(crate) fn run(&self, unit: MeetUnit, keep: &mut Keeper) {
+    pub(crate) fn run(&self, unit: MeetUnit, tally: &mut Tally) {
         let v = &self.values.value;
         let (lo, hi) = (self.space.lo, self.space.hi);
         match unit.n {
             1 => {
                 for a in unit.from..unit.to {
                     if (lo..=hi).contains(&v[a]) {
-                        self.accept(&[a], keep);
+                        self.accept(&[a], tally);
                     }
                 }
             }
@@ -220,7 +220,7 @@ impl Meet<'_, '_> {
                         if v[a] * v[b] > hi {
                             break;
                         }
-                        self.accept(&[a, b], keep);
+                        self.accept(&[a, b], tally);
                     }
                 }
             }
@@ -243,7 +243,7 @@ impl Meet<'_, '_> {
                             if ab * v[c] > hi {
                                 break;
                             }
-                            self.accept(&[a, b, c], keep);
+                            self.accept(&[a, b, c], tally);
                         }
                     }
                 }
@@ -260,7 +260,7 @@ impl Meet<'_, '_> {
                     for p in &pairs.pairs[pairs.window(lo / pl, hi / pl)] {
                         let (c, d) = (p.a as usize, p.b as usize);
                         if c >= b && (lo..=hi).contains(&(pl * v[c] * v[d])) {
-                            self.accept(&[a, b, c, d], keep);
+                            self.accept(&[a, b, c, d], tally);
                         }
                     }
                 }
@@ -271,7 +271,7 @@ impl Meet<'_, '_> {
 
     /// A value sequence inside the float window: decide it exactly, count its trains, and spell
     /// them out if the best could be listed.
-    fn accept(&self, seq: &[usize], keep: &mut Keeper) {
+    fn accept(&self, seq: &[usize], tally: &mut Tally) {
         self.judged.fetch_add(1, AtomicOrdering::Relaxed);
         let vals = self.values;
         let (mut p, mut q) = (1u64, 1u64);
@@ -298,7 +298,7 @@ impl Meet<'_, '_> {
         let runs = &runs[..nruns];
         let count: u64 =
             runs.iter().map(|&(x, k)| choose(vals.len[x] as u64 + k as u64 - 1, k as u64)).product();
-        keep.add_count(count);
+        tally.add_count(count);
         let best = Candidate {
             stages: [0; MAX_STAGES],
             len: seq.len() as u8,
@@ -307,11 +307,11 @@ impl Meet<'_, '_> {
             span_mm: runs.iter().map(|&(x, _)| vals.min_span[x]).fold(0.0, f64::max),
             extra: 0.0,
         };
-        if !keep.could_accept(&best) {
+        if !tally.could_accept(&best) {
             return;
         }
         let mut idx = [0u32; MAX_STAGES];
-        self.spell(runs, 0, 0, &mut idx, seq.len(), keep);
+        self.spell(runs, 0, 0, &mut idx, seq.len(), tally);
     }
 
     /// Every choice of stages for `runs[r..]`, filling `idx` from position `at`.
@@ -322,17 +322,17 @@ impl Meet<'_, '_> {
         at: usize,
         idx: &mut [u32; MAX_STAGES],
         n: usize,
-        keep: &mut Keeper,
+        tally: &mut Tally,
     ) {
         if r == runs.len() {
             if let Some(c) = self.space.judge(&idx[..n]) {
-                keep.push_uncounted(c);
+                tally.push_uncounted(c);
             }
             return;
         }
         let (x, k) = runs[r];
         let (start, len) = (self.values.start[x], self.values.len[x]);
-        self.spell_run(runs, r, at, start, start + len, k, idx, n, keep);
+        self.spell_run(runs, r, at, start, start + len, k, idx, n, tally);
     }
 
     /// Non-decreasing choices of `k` stages from `from..end` for one run, then the next run.
@@ -347,15 +347,15 @@ impl Meet<'_, '_> {
         k: u32,
         idx: &mut [u32; MAX_STAGES],
         n: usize,
-        keep: &mut Keeper,
+        tally: &mut Tally,
     ) {
         if k == 0 {
-            self.spell(runs, r + 1, at, idx, n, keep);
+            self.spell(runs, r + 1, at, idx, n, tally);
             return;
         }
         for s in from..end {
             idx[at] = s;
-            self.spell_run(runs, r, at + 1, s, end, k - 1, idx, n, keep);
+            self.spell_run(runs, r, at + 1, s, end, k - 1, idx, n, tally);
         }
     }
 }

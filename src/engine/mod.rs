@@ -347,7 +347,7 @@ impl<'p> SearchSpace<'p> {
 }
 
 /// An engine enumerates candidate stage sequences of one unit of work.
-pub trait Engine: Sync {
+pub trait StageEngine: Sync {
     /// The engine's name on the command line.
     fn name(&self) -> &'static str;
 
@@ -357,32 +357,33 @@ pub trait Engine: Sync {
     fn visit_unit(&self, space: &SearchSpace, n: usize, first: usize, visit: &mut dyn FnMut(&[u32]));
 }
 
-/// The engines gearsieve ships.
+/// Which engines a search may use (`--engine`).
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
-pub enum EngineKind {
-    /// The default: the meet engine where it applies (gears to be cut, up to four stages),
-    /// the sieve elsewhere.
-    Fast,
+pub enum EngineChoice {
+    /// The default: per stage count, the factor engine where it applies
+    /// (exact targets), else the meet engine (gears to be cut, up to four stages), else the
+    /// sieve.
+    Auto,
     /// Depth-first over ratio-sorted stages with bound pruning, for every stage count.
     Sieve,
     /// Every combination, judged one by one: the reference.
     Exhaustive,
 }
 
-impl EngineKind {
-    /// The engine that enumerates unit by unit (the meet engine's fallback for `Fast`).
-    fn engine(self) -> &'static dyn Engine {
+impl EngineChoice {
+    /// The engine that enumerates unit by unit (the bulk engines' fallback for `Auto`).
+    fn engine(self) -> &'static dyn StageEngine {
         match self {
-            EngineKind::Fast | EngineKind::Sieve => &sieve::Sieve,
-            EngineKind::Exhaustive => &exhaustive::Exhaustive,
+            EngineChoice::Auto | EngineChoice::Sieve => &sieve::Sieve,
+            EngineChoice::Exhaustive => &exhaustive::Exhaustive,
         }
     }
 
     /// The engine [`search_each`] runs for this choice: streaming visits every train, so the
     /// bulk engines give way to the sieve. Forecast a stream with this one.
-    pub fn streaming(self) -> EngineKind {
+    pub fn streaming(self) -> EngineChoice {
         match self {
-            EngineKind::Fast => EngineKind::Sieve,
+            EngineChoice::Auto => EngineChoice::Sieve,
             other => other,
         }
     }
@@ -462,8 +463,11 @@ pub struct Outcome {
 /// The units of work of a search, in their deterministic order, after sharding.
 fn units(problem: &Problem, space: &SearchSpace, shard: Option<Shard>) -> Vec<(usize, usize)> {
     // The unit-by-unit plan: with the sieve every stage count is cut into (n, first) units.
-    let (units, _) = plan(problem, space, EngineKind::Sieve, shard);
-    units.into_iter().filter_map(|u| if let Unit::Visit(n, f) = u { Some((n, f)) } else { None }).collect()
+    let (units, _) = plan(problem, space, EngineChoice::Sieve, shard);
+    units
+        .into_iter()
+        .filter_map(|u| if let WorkUnit::Visit(n, f) = u { Some((n, f)) } else { None })
+        .collect()
 }
 
 fn in_shard(k: usize, shard: Option<Shard>) -> bool {
@@ -472,8 +476,8 @@ fn in_shard(k: usize, shard: Option<Shard>) -> bool {
 
 /// A unit of work of either kind of engine.
 #[derive(Debug, Clone, Copy)]
-enum Unit {
-    /// All trains of `n` stages starting with stage `first`, enumerated by an [`Engine`].
+enum WorkUnit {
+    /// All trains of `n` stages starting with stage `first`, enumerated by an [`StageEngine`].
     Visit(usize, usize),
     /// A run of the meet engine.
     Meet(meet::MeetUnit),
@@ -483,27 +487,27 @@ enum Unit {
 
 /// The distinct ratios and pair table, when the meet engine takes part.
 struct MeetData {
-    values: meet::Values,
+    values: meet::DistinctRatios,
     pairs: Option<meet::PairTable>,
 }
 
 /// What the bulk engines prepared for a search.
 struct EngineData {
     meet: Option<MeetData>,
-    factor: Option<factor::Factor>,
+    factor: Option<factor::FactorTables>,
     /// The factor engine's work, one per stage count it takes.
-    works: Vec<factor::Work>,
+    works: Vec<factor::BurnsideSum>,
 }
 
 impl EngineData {
-    fn work(&self, n: usize) -> Option<&factor::Work> {
+    fn work(&self, n: usize) -> Option<&factor::BurnsideSum> {
         self.works.iter().find(|w| w.stages() == n)
     }
 
     /// Progress ticks of a unit: one, or the factor engine's parts and listing.
-    fn ticks(&self, unit: &Unit) -> u64 {
+    fn ticks(&self, unit: &WorkUnit) -> u64 {
         match unit {
-            Unit::Factor(n) => self.work(*n).map_or(1, factor::Work::ticks),
+            WorkUnit::Factor(n) => self.work(*n).map_or(1, factor::BurnsideSum::ticks),
             _ => 1,
         }
     }
@@ -513,9 +517,9 @@ impl EngineData {
 fn factor_plan(
     problem: &Problem,
     space: &SearchSpace,
-    engine: EngineKind,
-) -> (Vec<usize>, Option<factor::Factor>) {
-    let factor = (engine == EngineKind::Fast).then(|| factor::Factor::new(space)).flatten();
+    engine: EngineChoice,
+) -> (Vec<usize>, Option<factor::FactorTables>) {
+    let factor = (engine == EngineChoice::Auto).then(|| factor::FactorTables::new(space)).flatten();
     let counts = match &factor {
         Some(f) => problem.stage_counts().into_iter().filter(|&n| f.applies(n)).collect(),
         None => Vec::new(),
@@ -528,14 +532,14 @@ fn factor_plan(
 fn plan(
     problem: &Problem,
     space: &SearchSpace,
-    engine: EngineKind,
+    engine: EngineChoice,
     shard: Option<Shard>,
-) -> (Vec<Unit>, EngineData) {
+) -> (Vec<WorkUnit>, EngineData) {
     let counts = problem.stage_counts();
     let (factor_counts, factor) = factor_plan(problem, space, engine);
     let meet_counts = meet_counts(problem, space, engine, &factor_counts);
     let meet = (!meet_counts.is_empty()).then(|| {
-        let values = meet::Values::new(space);
+        let values = meet::DistinctRatios::new(space);
         let pairs = meet_counts.contains(&4).then(|| meet::PairTable::new(&values)).flatten();
         MeetData { values, pairs }
     });
@@ -544,19 +548,19 @@ fn plan(
         let by_meet =
             meet.as_ref().is_some_and(|d| meet_counts.contains(&n) && (n <= 3 || d.pairs.is_some()));
         match (&meet, by_meet) {
-            _ if factor_counts.contains(&n) => all.push(Unit::Factor(n)),
+            _ if factor_counts.contains(&n) => all.push(WorkUnit::Factor(n)),
             (Some(d), true) => {
-                all.extend(meet::units(n, &d.values, d.pairs.as_ref()).into_iter().map(Unit::Meet))
+                all.extend(meet::units(n, &d.values, d.pairs.as_ref()).into_iter().map(WorkUnit::Meet))
             }
-            _ => all.extend((0..space.stages.len()).map(|f| Unit::Visit(n, f))),
+            _ => all.extend((0..space.stages.len()).map(|f| WorkUnit::Visit(n, f))),
         }
     }
-    let units: Vec<Unit> =
+    let units: Vec<WorkUnit> =
         all.into_iter().enumerate().filter(|(k, _)| in_shard(*k, shard)).map(|(_, u)| u).collect();
     let works = match &factor {
         Some(f) => units
             .iter()
-            .filter_map(|u| if let Unit::Factor(n) = u { Some(f.work(*n, true)) } else { None })
+            .filter_map(|u| if let WorkUnit::Factor(n) = u { Some(f.burnside_sum(*n, true)) } else { None })
             .collect(),
         None => Vec::new(),
     };
@@ -568,10 +572,10 @@ fn plan(
 fn meet_counts(
     problem: &Problem,
     space: &SearchSpace,
-    engine: EngineKind,
+    engine: EngineChoice,
     by_factor: &[usize],
 ) -> Vec<usize> {
-    if engine != EngineKind::Fast {
+    if engine != EngineChoice::Auto {
         return Vec::new();
     }
     problem
@@ -582,52 +586,52 @@ fn meet_counts(
 }
 
 /// What a search keeps while it runs.
-pub(crate) enum Keeper {
+pub(crate) enum Tally {
     Top(TopK),
     Front(ParetoFront),
 }
 
-impl Keeper {
-    fn new(problem: &Problem) -> Keeper {
+impl Tally {
+    fn new(problem: &Problem) -> Tally {
         if problem.pareto {
-            Keeper::Front(ParetoFront::default())
+            Tally::Front(ParetoFront::default())
         } else {
-            Keeper::Top(TopK::new(problem.limit, &problem.rank))
+            Tally::Top(TopK::new(problem.limit, &problem.rank))
         }
     }
 
     fn push(&mut self, c: Candidate) {
         match self {
-            Keeper::Top(t) => t.push(c),
-            Keeper::Front(f) => f.push(c),
+            Tally::Top(t) => t.push(c),
+            Tally::Front(f) => f.push(c),
         }
     }
 
     fn push_uncounted(&mut self, c: Candidate) {
         match self {
-            Keeper::Top(t) => t.push_uncounted(c),
-            Keeper::Front(f) => f.push_uncounted(c),
+            Tally::Top(t) => t.push_uncounted(c),
+            Tally::Front(f) => f.push_uncounted(c),
         }
     }
 
     fn add_count(&mut self, n: u64) {
         match self {
-            Keeper::Top(t) => t.add_count(n),
-            Keeper::Front(f) => f.add_count(n),
+            Tally::Top(t) => t.add_count(n),
+            Tally::Front(f) => f.add_count(n),
         }
     }
 
     fn could_accept(&self, best: &Candidate) -> bool {
         match self {
-            Keeper::Top(t) => t.could_accept(best),
-            Keeper::Front(f) => f.could_accept(best),
+            Tally::Top(t) => t.could_accept(best),
+            Tally::Front(f) => f.could_accept(best),
         }
     }
 
-    fn merge(self, other: Keeper) -> Keeper {
+    fn merge(self, other: Tally) -> Tally {
         match (self, other) {
-            (Keeper::Top(a), Keeper::Top(b)) => Keeper::Top(a.merge(b)),
-            (Keeper::Front(a), Keeper::Front(b)) => Keeper::Front(a.merge(b)),
+            (Tally::Top(a), Tally::Top(b)) => Tally::Top(a.merge(b)),
+            (Tally::Front(a), Tally::Front(b)) => Tally::Front(a.merge(b)),
             _ => unreachable!("one search keeps one kind"),
         }
     }
@@ -635,7 +639,7 @@ impl Keeper {
 
 /// Run a search with the chosen engine on the current rayon pool, keeping the best trains (or
 /// the Pareto front) and counting all.
-pub fn search(problem: &Problem, engine: EngineKind, options: &RunOptions) -> Outcome {
+pub fn search(problem: &Problem, engine: EngineChoice, options: &RunOptions) -> Outcome {
     let space = SearchSpace::new(problem, options.cancel);
     let (units, data) = plan(problem, &space, engine, options.shard);
     let engine = engine.engine();
@@ -658,37 +662,37 @@ pub fn search(problem: &Problem, engine: EngineKind, options: &RunOptions) -> Ou
         .par_iter()
         .with_max_len(1)
         .fold(
-            || Keeper::new(problem),
-            |mut keep, unit| {
+            || Tally::new(problem),
+            |mut tally, unit| {
                 match (*unit, &meet) {
                     _ if space.cancelled() => {}
-                    (Unit::Visit(n, first), _) => engine.visit_unit(&space, n, first, &mut |idx| {
+                    (WorkUnit::Visit(n, first), _) => engine.visit_unit(&space, n, first, &mut |idx| {
                         if let Some(c) = space.judge(idx) {
-                            keep.push(c);
+                            tally.push(c);
                         }
                     }),
-                    (Unit::Meet(u), Some(m)) => m.run(u, &mut keep),
-                    (Unit::Meet(_), None) => unreachable!("meet units come with their data"),
-                    (Unit::Factor(n), _) => match (&data.factor, data.work(n)) {
+                    (WorkUnit::Meet(u), Some(m)) => m.run(u, &mut tally),
+                    (WorkUnit::Meet(_), None) => unreachable!("meet units come with their data"),
+                    (WorkUnit::Factor(n), _) => match (&data.factor, data.work(n)) {
                         (Some(f), Some(w)) => {
                             // It ticks as it goes.
-                            f.run(&space, w, &mut keep, &tick);
-                            return keep;
+                            f.run(&space, w, &mut tally, &tick);
+                            return tally;
                         }
                         _ => unreachable!("factor units come with their data"),
                     },
                 }
                 tick();
-                keep
+                tally
             },
         )
-        .reduce(|| Keeper::new(problem), Keeper::merge);
+        .reduce(|| Tally::new(problem), Tally::merge);
     let (count, best, pareto_size) = match kept {
-        Keeper::Top(t) => {
+        Tally::Top(t) => {
             let (n, b) = t.into_sorted();
             (n, b, None)
         }
-        Keeper::Front(f) => {
+        Tally::Front(f) => {
             let (n, mut b) = f.into_sorted(&problem.rank);
             let size = b.len();
             // A part of a split search lists its whole front: the merge needs it to be exact.
@@ -732,22 +736,24 @@ fn multisets(s: usize, n: usize) -> f64 {
 
 /// Forecast a search on this thread for at most about `budget`: a timed sample of the
 /// unit-by-unit engines' units, and the factor engine's own probe estimate of its counts
-/// ([`factor::Factor::forecast_seconds`]). The meet engine's cost is bounded by its table and
+/// ([`factor::FactorTables::forecast_seconds`]). The meet engine's cost is bounded by its table and
 /// is not sampled.
-pub fn estimate(problem: &Problem, engine: EngineKind, budget: std::time::Duration) -> Estimate {
+pub fn estimate(problem: &Problem, engine: EngineChoice, budget: std::time::Duration) -> Estimate {
     let space = SearchSpace::new(problem, None);
     let counts = problem.stage_counts();
     let combinations = counts.iter().map(|&n| multisets(space.stages.len(), n)).sum();
     let (by_factor, factor) = factor_plan(problem, &space, engine);
     let by_meet = meet_counts(problem, &space, engine, &by_factor);
-    let table_fits = meet::PairTable::fits(meet::Values::new(&space).count());
+    let table_fits = meet::PairTable::fits(meet::DistinctRatios::new(&space).count());
     let visit: Vec<(usize, usize)> = counts
         .iter()
         .filter(|&&n| !by_factor.contains(&n) && !(by_meet.contains(&n) && (n <= 3 || table_fits)))
         .flat_map(|&n| (0..space.stages.len()).map(move |f| (n, f)))
         .collect();
-    let works: Vec<factor::Work> =
-        factor.as_ref().map(|f| by_factor.iter().map(|&n| f.work(n, false)).collect()).unwrap_or_default();
+    let works: Vec<factor::BurnsideSum> = factor
+        .as_ref()
+        .map(|f| by_factor.iter().map(|&n| f.burnside_sum(n, false)).collect())
+        .unwrap_or_default();
     let units = visit.len() + works.len();
     if units == 0 || combinations < 1e8 {
         return Estimate { combinations, units, seconds_one_thread: None, at_least: false, shardable: true };
@@ -829,7 +835,7 @@ const STREAM_BATCH: usize = 64;
 /// stops the search and the error is returned.
 pub fn search_each<E>(
     problem: &Problem,
-    engine: EngineKind,
+    engine: EngineChoice,
     options: &RunOptions,
     emit: &mut dyn FnMut(&Train) -> Result<(), E>,
 ) -> Result<Outcome, E> {
