@@ -8,27 +8,18 @@ use std::sync::atomic::{AtomicU64, Ordering as AtomicOrdering};
 use rayon::prelude::*;
 
 use super::lineup::EngineChoice;
-use super::meet;
 use super::options::{Outcome, Progress, RunOptions};
 use super::plan::{plan, WorkUnit};
 use super::space::SearchSpace;
 use super::tally::Tally;
 use crate::model::problem::Problem;
 
-/// Run a search with the chosen engine on the current rayon pool, keeping the best trains (or
+/// Run a search with the chosen engines on the current rayon pool, keeping the best trains (or
 /// the Pareto front) and counting all.
-pub fn search(problem: &Problem, engine: EngineChoice, options: &RunOptions) -> Outcome {
+pub fn search(problem: &Problem, choice: EngineChoice, options: &RunOptions) -> Outcome {
     let space = SearchSpace::new(problem, options.cancel);
-    let (units, data) = plan(problem, &space, engine, options.shard);
-    let engine = engine.engine();
-    let judged = AtomicU64::new(0);
-    let meet = data.meet.as_ref().map(|d| meet::Meet {
-        space: &space,
-        values: &d.values,
-        pairs: d.pairs.as_ref(),
-        judged: &judged,
-    });
-    let total = units.iter().map(|u| data.ticks(u)).sum();
+    let plan = plan(problem, &space, choice.lineup(), options.shard);
+    let total = plan.ticks;
     let done = AtomicU64::new(0);
     let tick = || {
         let d = done.fetch_add(1, AtomicOrdering::Relaxed) + 1;
@@ -36,50 +27,33 @@ pub fn search(problem: &Problem, engine: EngineChoice, options: &RunOptions) -> 
             p(Progress { done: d, total });
         }
     };
-    let kept = units
+    let tally = plan
+        .units
         .par_iter()
         .with_max_len(1)
         .fold(
             || Tally::new(problem),
-            |mut tally, unit| {
-                match (*unit, &meet) {
-                    _ if space.cancelled() => {}
-                    (WorkUnit::Visit(n, first), _) => engine.visit_unit(&space, n, first, &mut |idx| {
-                        if let Some(c) = space.judge(idx) {
-                            tally.push(c);
-                        }
-                    }),
-                    (WorkUnit::Meet(u), Some(m)) => m.run(u, &mut tally),
-                    (WorkUnit::Meet(_), None) => unreachable!("meet units come with their data"),
-                    (WorkUnit::Factor(n), _) => match (&data.factor, data.work(n)) {
-                        (Some(f), Some(w)) => {
-                            // It ticks as it goes.
-                            f.run(&space, w, &mut tally, &tick);
-                            return tally;
-                        }
-                        _ => unreachable!("factor units come with their data"),
-                    },
+            |mut tally, &unit| {
+                match unit {
+                    _ if space.cancelled() => tick(),
+                    WorkUnit::Proposed { stages, first } => {
+                        plan.stage.visit_unit(&space, stages, first, &mut |idx| {
+                            if let Some(c) = space.judge(idx) {
+                                tally.push(c);
+                            }
+                        });
+                        tick();
+                    }
+                    // It ticks as it goes.
+                    WorkUnit::Bulk { engine, stages, unit } => {
+                        plan.bulk[engine].run(&space, stages, unit, &mut tally, &tick)
+                    }
                 }
-                tick();
                 tally
             },
         )
         .reduce(|| Tally::new(problem), Tally::merge);
-    let (count, best, pareto_size) = match kept {
-        Tally::Top(t) => {
-            let (n, b) = t.into_sorted();
-            (n, b, None)
-        }
-        Tally::Front(f) => {
-            let (n, mut b) = f.into_sorted(&problem.rank);
-            let size = b.len();
-            // A part of a split search lists its whole front: the merge needs it to be exact.
-            if problem.limit > 0 && options.shard.is_none() {
-                b.truncate(problem.limit);
-            }
-            (n, b, Some(size))
-        }
-    };
+    let (count, best, pareto_size) = tally.into_ranked(problem, options.shard.is_some());
     Outcome {
         count,
         trains: best.iter().map(|c| space.train(c)).collect(),

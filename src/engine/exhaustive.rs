@@ -2,7 +2,8 @@
 //! design; it is the reference the fast engines are tested against and the baseline of the
 //! benchmarks.
 
-use super::{SearchSpace, StageEngine};
+use super::kinds::StageEngine;
+use super::space::SearchSpace;
 use crate::model::pool::MAX_STAGES;
 
 /// Visits every combination.

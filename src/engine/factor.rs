@@ -31,7 +31,9 @@ use std::collections::BTreeMap;
 
 use rayon::prelude::*;
 
-use super::{SearchSpace, Tally};
+use super::kinds::{BulkEngine, BulkPlan};
+use super::space::SearchSpace;
+use super::tally::Tally;
 use crate::model::pool::MAX_STAGES;
 use crate::model::rank::Candidate;
 use crate::numbers::rational::RelError;
@@ -49,6 +51,64 @@ const PART_SIZE: u64 = 1 << 14;
 
 /// How many values of `k` pass between two looks at the stop flag.
 const CANCEL_EVERY: u32 = 1 << 10;
+
+/// The factor engine.
+pub struct Factor;
+
+impl BulkEngine for Factor {
+    fn name(&self) -> &'static str {
+        "factor"
+    }
+
+    fn plan(&self, space: &SearchSpace, counts: &[usize]) -> Option<Box<dyn BulkPlan>> {
+        let tables = FactorTables::new(space)?;
+        let counts: Vec<usize> = counts.iter().copied().filter(|&n| tables.applies(n)).collect();
+        (!counts.is_empty())
+            .then(|| Box::new(FactorPlan { tables, counts, sums: Vec::new() }) as Box<dyn BulkPlan>)
+    }
+}
+
+/// The factor engine's share of one search: one unit per stage count, whose Burnside sum is
+/// cut into parts only when the unit is kept (cutting costs about a pass over the `k`).
+struct FactorPlan {
+    tables: FactorTables,
+    counts: Vec<usize>,
+    /// The sums of the units kept.
+    sums: Vec<BurnsideSum>,
+}
+
+impl BulkPlan for FactorPlan {
+    fn stage_counts(&self) -> &[usize] {
+        &self.counts
+    }
+
+    fn cut(&mut self, _space: &SearchSpace, _n: usize) -> usize {
+        1
+    }
+
+    fn prepare(&mut self, _space: &SearchSpace, n: usize, _unit: usize) -> u64 {
+        let sum = self.tables.burnside_sum(n, true);
+        let ticks = sum.ticks();
+        self.sums.push(sum);
+        ticks
+    }
+
+    fn run(&self, space: &SearchSpace, n: usize, _unit: usize, tally: &mut Tally, tick: &(dyn Fn() + Sync)) {
+        match self.sums.iter().find(|s| s.stages() == n) {
+            Some(sum) => self.tables.run(space, sum, tally, tick),
+            None => unreachable!("every unit kept is prepared before it runs"),
+        }
+    }
+
+    /// A stage count is one unit, so the driver cannot sample it: the forecast asks here.
+    fn forecast_counts(&self) -> &[usize] {
+        &self.counts
+    }
+
+    fn forecast_seconds(&self, _space: &SearchSpace, n: usize, budget: std::time::Duration) -> f64 {
+        self.tables.forecast_seconds(&self.tables.burnside_sum(n, false), budget)
+    }
+}
 
 /// Everything the factor engine needs, prepared once per search.
 pub struct FactorTables {

@@ -3,11 +3,12 @@
 //! into units. It runs nothing to completion and keeps no trains.
 
 use std::sync::atomic::{AtomicBool, Ordering as AtomicOrdering};
+use std::time::Duration;
 
+use super::kinds::BulkPlan;
 use super::lineup::EngineChoice;
-use super::plan::{factor_plan, meet_counts};
+use super::plan::assign;
 use super::space::SearchSpace;
-use super::{factor, meet};
 use crate::model::problem::Problem;
 
 /// A forecast of a search's cost, made before it runs.
@@ -15,7 +16,8 @@ use crate::model::problem::Problem;
 pub struct Estimate {
     /// Stage combinations in the whole space (before any pruning), summed over stage counts.
     pub combinations: f64,
-    /// Units of work: those of the unit-by-unit engines and the factor engine's counts.
+    /// Units of work: those of the stage engine, and the stage counts a bulk engine forecasts
+    /// as one (the factor engine's counts).
     pub units: usize,
     /// Projected time on one thread, seconds; `None` when the search is sure to be quick (the
     /// meet engine covers every stage count, or the space is small).
@@ -32,42 +34,37 @@ fn multisets(s: usize, n: usize) -> f64 {
     (0..n).fold(1.0, |acc, i| acc * (s + i) as f64 / (i + 1) as f64)
 }
 
-/// Forecast a search on this thread for at most about `budget`: a timed sample of the
-/// unit-by-unit engines' units, and the factor engine's own probe estimate of its counts
-/// ([`factor::FactorTables::forecast_seconds`]). The meet engine's cost is bounded by its table and
-/// is not sampled.
-pub fn estimate(problem: &Problem, engine: EngineChoice, budget: std::time::Duration) -> Estimate {
+/// Forecast a search on this thread for at most about `budget`: a timed sample of the units
+/// the stage engine would run, and the bulk engines' own estimates of the stage counts they
+/// cannot cut into units (the factor engine's probe estimate of its counts). The meet engine's
+/// cost is bounded by its table and is not forecast.
+pub fn estimate(problem: &Problem, choice: EngineChoice, budget: Duration) -> Estimate {
     let space = SearchSpace::new(problem, None);
     let counts = problem.stage_counts();
     let combinations = counts.iter().map(|&n| multisets(space.stages.len(), n)).sum();
-    let (by_factor, factor) = factor_plan(problem, &space, engine);
-    let by_meet = meet_counts(problem, &space, engine, &by_factor);
-    let table_fits = meet::PairTable::fits(meet::DistinctRatios::new(&space).count());
-    let visit: Vec<(usize, usize)> = counts
+    let assigned = assign(problem, &space, choice.lineup());
+    let proposed: Vec<(usize, usize)> =
+        assigned.stage_counts.iter().flat_map(|&n| (0..space.stages.len()).map(move |f| (n, f))).collect();
+    let unsplit_work: Vec<(&dyn BulkPlan, usize)> = assigned
+        .bulk
         .iter()
-        .filter(|&&n| !by_factor.contains(&n) && !(by_meet.contains(&n) && (n <= 3 || table_fits)))
-        .flat_map(|&n| (0..space.stages.len()).map(move |f| (n, f)))
+        .flat_map(|b| b.forecast_counts().iter().map(move |&n| (b.as_ref(), n)))
         .collect();
-    let works: Vec<factor::BurnsideSum> = factor
-        .as_ref()
-        .map(|f| by_factor.iter().map(|&n| f.burnside_sum(n, false)).collect())
-        .unwrap_or_default();
-    let units = visit.len() + works.len();
+    let units = proposed.len() + unsplit_work.len();
     if units == 0 || combinations < 1e8 {
         return Estimate { combinations, units, seconds_one_thread: None, at_least: false, shardable: true };
     }
-    let share = budget / (!visit.is_empty() as u32 + !works.is_empty() as u32);
+    let share = budget / (!proposed.is_empty() as u32 + !unsplit_work.is_empty() as u32);
     let mut seconds = 0.0;
     let mut at_least = false;
-    if !visit.is_empty() {
+    if !proposed.is_empty() {
         // The sample runs in a space of its own whose stop flag a timer raises when the budget
         // is spent, so even one enormous unit cannot hold the forecast up.
         let stop = AtomicBool::new(false);
         let sampled = SearchSpace::new(problem, Some(&stop));
-        let e = engine.engine();
-        let (s, cut) = timed_sample(visit.len(), share, &stop, &mut |k| {
-            let (n, first) = visit[k];
-            e.visit_unit(&sampled, n, first, &mut |idx| {
+        let (s, cut) = timed_sample(proposed.len(), share, &stop, &mut |k| {
+            let (n, first) = proposed[k];
+            assigned.stage.visit_unit(&sampled, n, first, &mut |idx| {
                 let _ = sampled.judge(idx);
             });
         });
@@ -75,10 +72,8 @@ pub fn estimate(problem: &Problem, engine: EngineChoice, budget: std::time::Dura
         at_least |= cut;
     }
     let mut unsplit = 0.0;
-    if let Some(f) = &factor {
-        for work in &works {
-            unsplit += f.forecast_seconds(work, share / works.len() as u32);
-        }
+    for &(plan, n) in &unsplit_work {
+        unsplit += plan.forecast_seconds(&space, n, share / unsplit_work.len() as u32);
     }
     Estimate {
         combinations,
@@ -93,12 +88,7 @@ pub fn estimate(problem: &Problem, engine: EngineChoice, budget: std::time::Dura
 /// both seen) for at most about `budget`, after which a timer raises `stop`; return the time
 /// projected for all `len` items on one thread, and whether an item was cut short (the
 /// projection is then a lower bound).
-fn timed_sample(
-    len: usize,
-    budget: std::time::Duration,
-    stop: &AtomicBool,
-    run: &mut dyn FnMut(usize),
-) -> (f64, bool) {
+fn timed_sample(len: usize, budget: Duration, stop: &AtomicBool, run: &mut dyn FnMut(usize)) -> (f64, bool) {
     stop.store(false, AtomicOrdering::Relaxed);
     let start = std::time::Instant::now();
     let sample = 64.min(len);

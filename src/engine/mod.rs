@@ -1,11 +1,27 @@
 //! Search engines and the driver that runs them.
 //!
-//! The driver builds the [`SearchSpace`] (every allowed stage, sorted by ratio, so that a train's
-//! canonical form is a non-decreasing sequence of stage indices), splits it into units of work
-//! (one per stage count and first stage), runs them in parallel with rayon, and keeps the
-//! counts and the best trains. Engines only enumerate candidate stage sequences; the driver
-//! decides every candidate exactly (ratio within tolerance, stock quantities), so an engine's
-//! pruning can make it faster but never make it wrong.
+//! How a search runs: [`SearchSpace::new`] lists every allowed stage, sorted by ratio, so that a
+//! train's canonical form is a non-decreasing sequence of stage indices. The planner asks the
+//! bulk engines of the chosen lineup ([`EngineChoice`]) in order which stage counts they take
+//! (the factor engine, then the meet engine) and leaves the rest to a stage engine (the sieve,
+//! or the exhaustive reference); it cuts every stage count into units of work in one fixed
+//! order, and a [`Shard`] keeps every N-th of them. The driver ([`search`]) runs the units on
+//! the rayon pool, each worker with its own [`Tally`], merged at the end; the total order of
+//! the ranking makes the result independent of the thread count. Engines only propose
+//! candidates or count in bulk: [`SearchSpace::judge`] decides every train that is listed,
+//! exactly, so an engine's pruning can make it faster but never wrong. [`estimate`] forecasts
+//! a search before it runs; [`search_each`] streams every train instead of keeping the best.
+//!
+//! Files, from the ground up:
+//! - `space.rs`: the stage space and the exact judge;
+//! - `tally.rs`: the counts and best trains a search keeps;
+//! - `kinds.rs`: the two kinds of engine, [`StageEngine`] and [`BulkEngine`] (with
+//!   [`BulkPlan`]);
+//! - the engines, one file each: [`sieve`], [`exhaustive`], [`meet`], [`factor`];
+//! - `lineup.rs`: which engines a choice asks, in which order (where an engine is registered);
+//! - `plan.rs`: who takes which stage count, units of work, shards;
+//! - `options.rs`: how to run a search and what it reports;
+//! - `driver.rs`, `forecast.rs`, `stream.rs`: running, forecasting and streaming a search.
 
 mod driver;
 pub mod exhaustive;
@@ -23,10 +39,10 @@ mod tally;
 
 pub use driver::search;
 pub use forecast::{estimate, Estimate};
-pub use kinds::StageEngine;
+pub use kinds::{BulkEngine, BulkPlan, StageEngine};
 pub use lineup::EngineChoice;
 pub use options::{Outcome, Progress, RunOptions};
 pub use plan::Shard;
 pub use space::{Rejection, SearchSpace, StageDef, COAXIAL_MISFIT_KIND};
 pub use stream::search_each;
-pub(crate) use tally::Tally;
+pub use tally::Tally;

@@ -1,10 +1,14 @@
-//! Units of work and shards: which engine takes which stage count of a problem, the units
-//! each stage count is cut into (in one fixed order, which makes shards and streams
-//! deterministic), and the part of them a shard keeps. It runs nothing.
+//! Units of work and shards. For each stage count of a problem, in ascending order, the
+//! planner asks the bulk engines of the lineup in turn whether they take it, and leaves the
+//! rest to the lineup's stage engine ([`assign`]); then it cuts every stage count into units of
+//! work in one fixed order (a bulk engine's units, or one per first stage), keeps a shard's
+//! share of them, and has the bulk engines prepare the units kept ([`plan`]). The fixed order
+//! is what makes shards disjoint and streams deterministic. It runs no unit and judges no
+//! train.
 
-use super::lineup::EngineChoice;
+use super::kinds::{BulkPlan, StageEngine};
+use super::lineup::Lineup;
 use super::space::SearchSpace;
-use super::{factor, meet};
 use crate::model::problem::Problem;
 
 /// One part of a search split `count` ways: part `index` (1-based) gets every unit of work whose
@@ -40,127 +44,99 @@ impl std::fmt::Display for Shard {
     }
 }
 
-/// The units of work of a search, in their deterministic order, after sharding.
-pub(super) fn units(problem: &Problem, space: &SearchSpace, shard: Option<Shard>) -> Vec<(usize, usize)> {
-    // The unit-by-unit plan: with the sieve every stage count is cut into (n, first) units.
-    let (units, _) = plan(problem, space, EngineChoice::Sieve, shard);
-    units
+/// A unit of work: what one task of the driver runs.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub(crate) enum WorkUnit {
+    /// The `stages`-stage trains whose first stage is `first`, proposed by the stage engine.
+    Proposed { stages: usize, first: usize },
+    /// Unit `unit` of the `stages`-stage trains of the bulk engine planned at
+    /// [`Plan::bulk`]`[engine]`.
+    Bulk { engine: usize, stages: usize, unit: usize },
+}
+
+/// Who takes which stage count of a search, before anything is cut into units.
+pub(crate) struct Assignment {
+    /// The plans of the bulk engines that took stage counts, in lineup order.
+    pub(crate) bulk: Vec<Box<dyn BulkPlan>>,
+    /// The engine for the stage counts left.
+    pub(crate) stage: &'static dyn StageEngine,
+    /// The stage counts left to it, ascending.
+    pub(crate) stage_counts: Vec<usize>,
+}
+
+/// Ask the lineup's bulk engines in order which stage counts they take; the stage engine
+/// gets the rest. Cheap enough for a forecast: no bulk engine builds its run's tables here.
+pub(crate) fn assign(problem: &Problem, space: &SearchSpace, lineup: Lineup) -> Assignment {
+    let mut left = problem.stage_counts();
+    let mut bulk: Vec<Box<dyn BulkPlan>> = Vec::new();
+    for engine in lineup.bulk {
+        if left.is_empty() {
+            break;
+        }
+        if let Some(plan) = engine.plan(space, &left) {
+            left.retain(|n| !plan.stage_counts().contains(n));
+            bulk.push(plan);
+        }
+    }
+    Assignment { bulk, stage: lineup.stage, stage_counts: left }
+}
+
+/// A search cut into units of work, ready to run.
+pub(crate) struct Plan {
+    /// The units this run keeps, in plan order.
+    pub(crate) units: Vec<WorkUnit>,
+    /// Progress ticks the units report in all.
+    pub(crate) ticks: u64,
+    /// The engine of the [`WorkUnit::Proposed`] units.
+    pub(crate) stage: &'static dyn StageEngine,
+    /// The bulk engines' plans, which [`WorkUnit::Bulk`] units index.
+    pub(crate) bulk: Vec<Box<dyn BulkPlan>>,
+}
+
+/// Assign the stage counts, cut each into units in a fixed order (stage counts ascending),
+/// keep the shard's share and prepare what is kept.
+pub(crate) fn plan(problem: &Problem, space: &SearchSpace, lineup: Lineup, shard: Option<Shard>) -> Plan {
+    let Assignment { mut bulk, stage, .. } = assign(problem, space, lineup);
+    let mut all = Vec::new();
+    for n in problem.stage_counts() {
+        match bulk.iter().position(|b| b.stage_counts().contains(&n)) {
+            Some(engine) => {
+                let units = bulk[engine].cut(space, n);
+                all.extend((0..units).map(|unit| WorkUnit::Bulk { engine, stages: n, unit }));
+            }
+            None => all.extend((0..space.stages.len()).map(|first| WorkUnit::Proposed { stages: n, first })),
+        }
+    }
+    let units: Vec<WorkUnit> =
+        all.into_iter().enumerate().filter(|(k, _)| in_shard(*k, shard)).map(|(_, u)| u).collect();
+    let mut ticks = 0;
+    for unit in &units {
+        ticks += match *unit {
+            WorkUnit::Proposed { .. } => 1,
+            WorkUnit::Bulk { engine, stages, unit } => bulk[engine].prepare(space, stages, unit),
+        };
+    }
+    Plan { units, ticks, stage, bulk }
+}
+
+/// The units of `stage` alone over every stage count, as (stage count, first stage), after
+/// sharding: what a stream runs, in the order of a plan without bulk engines.
+pub(crate) fn proposed_units(
+    problem: &Problem,
+    space: &SearchSpace,
+    stage: &'static dyn StageEngine,
+    shard: Option<Shard>,
+) -> Vec<(usize, usize)> {
+    let plan = plan(problem, space, Lineup { bulk: &[], stage }, shard);
+    plan.units
         .into_iter()
-        .filter_map(|u| if let WorkUnit::Visit(n, f) = u { Some((n, f)) } else { None })
+        .filter_map(|u| match u {
+            WorkUnit::Proposed { stages, first } => Some((stages, first)),
+            WorkUnit::Bulk { .. } => None,
+        })
         .collect()
 }
 
 fn in_shard(k: usize, shard: Option<Shard>) -> bool {
     shard.is_none_or(|s| k as u64 % s.count as u64 == (s.index - 1) as u64)
-}
-
-/// A unit of work of either kind of engine.
-#[derive(Debug, Clone, Copy)]
-pub(super) enum WorkUnit {
-    /// All trains of `n` stages starting with stage `first`, enumerated by an [`StageEngine`].
-    Visit(usize, usize),
-    /// A run of the meet engine.
-    Meet(meet::MeetUnit),
-    /// All trains of `n` stages, counted and listed by the factor engine.
-    Factor(usize),
-}
-
-/// The distinct ratios and pair table, when the meet engine takes part.
-pub(super) struct MeetData {
-    pub(super) values: meet::DistinctRatios,
-    pub(super) pairs: Option<meet::PairTable>,
-}
-
-/// What the bulk engines prepared for a search.
-pub(super) struct EngineData {
-    pub(super) meet: Option<MeetData>,
-    pub(super) factor: Option<factor::FactorTables>,
-    /// The factor engine's work, one per stage count it takes.
-    pub(super) works: Vec<factor::BurnsideSum>,
-}
-
-impl EngineData {
-    pub(super) fn work(&self, n: usize) -> Option<&factor::BurnsideSum> {
-        self.works.iter().find(|w| w.stages() == n)
-    }
-
-    /// Progress ticks of a unit: one, or the factor engine's parts and listing.
-    pub(super) fn ticks(&self, unit: &WorkUnit) -> u64 {
-        match unit {
-            WorkUnit::Factor(n) => self.work(*n).map_or(1, factor::BurnsideSum::ticks),
-            _ => 1,
-        }
-    }
-}
-
-/// The stage counts the factor engine takes, and its tables (exact targets only).
-pub(super) fn factor_plan(
-    problem: &Problem,
-    space: &SearchSpace,
-    engine: EngineChoice,
-) -> (Vec<usize>, Option<factor::FactorTables>) {
-    let factor = (engine == EngineChoice::Auto).then(|| factor::FactorTables::new(space)).flatten();
-    let counts = match &factor {
-        Some(f) => problem.stage_counts().into_iter().filter(|&n| f.applies(n)).collect(),
-        None => Vec::new(),
-    };
-    (counts, factor)
-}
-
-/// Decide which engine takes which stage count and list the units, in a deterministic order,
-/// after sharding.
-pub(super) fn plan(
-    problem: &Problem,
-    space: &SearchSpace,
-    engine: EngineChoice,
-    shard: Option<Shard>,
-) -> (Vec<WorkUnit>, EngineData) {
-    let counts = problem.stage_counts();
-    let (factor_counts, factor) = factor_plan(problem, space, engine);
-    let meet_counts = meet_counts(problem, space, engine, &factor_counts);
-    let meet = (!meet_counts.is_empty()).then(|| {
-        let values = meet::DistinctRatios::new(space);
-        let pairs = meet_counts.contains(&4).then(|| meet::PairTable::new(&values)).flatten();
-        MeetData { values, pairs }
-    });
-    let mut all = Vec::new();
-    for n in counts {
-        let by_meet =
-            meet.as_ref().is_some_and(|d| meet_counts.contains(&n) && (n <= 3 || d.pairs.is_some()));
-        match (&meet, by_meet) {
-            _ if factor_counts.contains(&n) => all.push(WorkUnit::Factor(n)),
-            (Some(d), true) => {
-                all.extend(meet::units(n, &d.values, d.pairs.as_ref()).into_iter().map(WorkUnit::Meet))
-            }
-            _ => all.extend((0..space.stages.len()).map(|f| WorkUnit::Visit(n, f))),
-        }
-    }
-    let units: Vec<WorkUnit> =
-        all.into_iter().enumerate().filter(|(k, _)| in_shard(*k, shard)).map(|(_, u)| u).collect();
-    let works = match &factor {
-        Some(f) => units
-            .iter()
-            .filter_map(|u| if let WorkUnit::Factor(n) = u { Some(f.burnside_sum(*n, true)) } else { None })
-            .collect(),
-        None => Vec::new(),
-    };
-    (units, EngineData { meet, factor, works })
-}
-
-/// The stage counts the meet engine may take (four only if its pair table could be built),
-/// leaving out those the factor engine takes.
-pub(super) fn meet_counts(
-    problem: &Problem,
-    space: &SearchSpace,
-    engine: EngineChoice,
-    by_factor: &[usize],
-) -> Vec<usize> {
-    if engine != EngineChoice::Auto {
-        return Vec::new();
-    }
-    problem
-        .stage_counts()
-        .into_iter()
-        .filter(|&n| !by_factor.contains(&n) && meet::applies(space, n))
-        .collect()
 }

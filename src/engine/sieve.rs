@@ -7,7 +7,8 @@
 //! stage that can reach, found by binary search). The last stage is a binary-searched window.
 //! Float bounds are widened by the space's margin; the driver decides exactly.
 
-use super::{SearchSpace, StageEngine};
+use super::kinds::StageEngine;
+use super::space::SearchSpace;
 use crate::model::pool::MAX_STAGES;
 
 /// Depth-first search with ratio bounds.

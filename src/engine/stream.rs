@@ -9,7 +9,7 @@ use rayon::prelude::*;
 
 use super::lineup::EngineChoice;
 use super::options::{Outcome, Progress, RunOptions};
-use super::plan::units;
+use super::plan::proposed_units;
 use super::space::SearchSpace;
 use crate::model::problem::Problem;
 use crate::model::rank::Candidate;
@@ -24,13 +24,14 @@ const STREAM_BATCH: usize = 64;
 /// stops the search and the error is returned.
 pub fn search_each<E>(
     problem: &Problem,
-    engine: EngineChoice,
+    choice: EngineChoice,
     options: &RunOptions,
     emit: &mut dyn FnMut(&Train) -> Result<(), E>,
 ) -> Result<Outcome, E> {
     let space = SearchSpace::new(problem, options.cancel);
-    let engine = engine.engine();
-    let units = units(problem, &space, options.shard);
+    // Streaming visits every train, so the bulk engines give way to the stage engine.
+    let engine = choice.lineup().stage;
+    let units = proposed_units(problem, &space, engine, options.shard);
     let total = units.len() as u64;
     let done = AtomicU64::new(0);
     let mut count = 0u64;
