@@ -29,7 +29,7 @@ pub const PAIR_TABLE_BUDGET_BYTES: usize = 1 << 30;
 /// Relative widening of the single-precision pair products, far above their rounding error.
 const F32_MARGIN: f64 = 1e-6;
 
-/// Distinct ratios handled per unit of work for `n ≤ 3`, pairs per unit for `n = 4`.
+/// Distinct ratios of the left side handled per unit of work for `n ≤ 3`.
 pub const VALUES_PER_UNIT: usize = 16;
 /// Pairs of the left side handled per unit of work for `n = 4`.
 pub const PAIRS_PER_UNIT: usize = 1 << 16;
