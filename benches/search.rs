@@ -7,7 +7,7 @@ use gearsieve::model::pool::Pool;
 use gearsieve::model::rank::DEFAULT_RANK;
 use gearsieve::numbers::range::IntRange;
 use gearsieve::numbers::target::Target;
-use gearsieve::{search, EngineKind, Problem, RunOptions, StageLimits};
+use gearsieve::{search, EngineChoice, Problem, RunOptions, StageLimits};
 
 fn problem(ratio: &str, tol: &str, teeth: (u32, u32), stages: (u32, u32)) -> Problem {
     let pool = Pool::to_cut(IntRange { lo: teeth.0, hi: teeth.1 }, 1.0, 20.0, None).expect("pool");
@@ -23,41 +23,41 @@ fn benches(c: &mut Criterion) {
 
     // Engine against engine on a space the exhaustive engine finishes quickly.
     let small = problem("7.3", "100ppm", (12, 60), (2, 2));
-    let reference = search(&small, EngineKind::Exhaustive, &RunOptions::default());
+    let reference = search(&small, EngineChoice::Exhaustive, &RunOptions::default());
     assert!(reference.count > 0);
     g.bench_function("exhaustive 2 stages 12..60 ratio 7.3 100ppm", |b| {
-        b.iter(|| assert_eq!(search(&small, EngineKind::Exhaustive, &RunOptions::default()), reference))
+        b.iter(|| assert_eq!(search(&small, EngineChoice::Exhaustive, &RunOptions::default()), reference))
     });
     g.bench_function("sieve 2 stages 12..60 ratio 7.3 100ppm", |b| {
-        b.iter(|| assert_eq!(search(&small, EngineKind::Sieve, &RunOptions::default()), reference))
+        b.iter(|| assert_eq!(search(&small, EngineChoice::Sieve, &RunOptions::default()), reference))
     });
 
     let two = problem("37.5", "1e-3", (12, 150), (2, 2));
     g.bench_function("sieve 2 stages 12..150 0.1%", |b| {
-        b.iter(|| assert!(search(&two, EngineKind::Sieve, &RunOptions::default()).count > 0))
+        b.iter(|| assert!(search(&two, EngineChoice::Sieve, &RunOptions::default()).count > 0))
     });
 
     let three = problem("37.5", "10ppm", (12, 150), (3, 3));
     g.bench_function("sieve 3 stages 12..150 10ppm", |b| {
-        b.iter(|| assert!(search(&three, EngineKind::Sieve, &RunOptions::default()).count > 1_000_000))
+        b.iter(|| assert!(search(&three, EngineChoice::Sieve, &RunOptions::default()).count > 1_000_000))
     });
 
     // Exact targets: the factor engine counts every train without visiting it. Side by side
     // with the sieve on a space the sieve finishes, then alone on one it cannot.
     let exact_small = problem("7/5", "0", (12, 48), (4, 4));
-    let by_sieve = search(&exact_small, EngineKind::Sieve, &RunOptions::default());
+    let by_sieve = search(&exact_small, EngineChoice::Sieve, &RunOptions::default());
     assert!(by_sieve.count > 100_000);
     g.bench_function("sieve 4 stages 12..48 7/5 exact", |b| {
-        b.iter(|| assert_eq!(search(&exact_small, EngineKind::Sieve, &RunOptions::default()), by_sieve))
+        b.iter(|| assert_eq!(search(&exact_small, EngineChoice::Sieve, &RunOptions::default()), by_sieve))
     });
     g.bench_function("fast (factor) 4 stages 12..48 7/5 exact", |b| {
-        b.iter(|| assert_eq!(search(&exact_small, EngineKind::Fast, &RunOptions::default()), by_sieve))
+        b.iter(|| assert_eq!(search(&exact_small, EngineChoice::Auto, &RunOptions::default()), by_sieve))
     });
     let exact = problem("127/120", "0", (12, 200), (4, 4));
     g.bench_function("fast (factor) 4 stages 12..200 127/120 exact", |b| {
         // The same count comes from an independent convolution of value-pair products with
         // Burnside's repeat terms (the ignored test in tests/engines.rs).
-        b.iter(|| assert_eq!(search(&exact, EngineKind::Fast, &RunOptions::default()).count, 4_011_513_973))
+        b.iter(|| assert_eq!(search(&exact, EngineChoice::Auto, &RunOptions::default()).count, 4_011_513_973))
     });
     g.finish();
 }

@@ -21,16 +21,6 @@ pub enum Error {
         /// What was wrong and what is wanted.
         message: Message,
     },
-    /// A value named by a command-line option. Only the engine's shard parser still builds this
-    /// (it is to take a [`Quantity`] like every other parser); everything else is a
-    /// [`Error::Value`].
-    #[error("{}", self.render(Quantity::name))]
-    Flag {
-        /// The option as typed.
-        flag: String,
-        /// What was wrong and what is wanted.
-        message: String,
-    },
     /// A catalogue file could not be opened or read at all.
     #[error("{}", self.render(Quantity::name))]
     CatalogueFile {
@@ -68,11 +58,6 @@ impl Error {
         Error::Problem(message.into())
     }
 
-    /// Shorthand for an [`Error::Flag`], for the one parser that still takes a flag.
-    pub fn flag(flag: &str, message: impl Into<String>) -> Self {
-        Error::Flag { flag: flag.to_string(), message: message.into() }
-    }
-
     /// The error as one line, each quantity written as `name` calls it. `Display` uses
     /// [`Quantity::name`]; the command line passes the flag that carries each quantity.
     pub fn render(&self, name: fn(Quantity) -> &'static str) -> String {
@@ -84,7 +69,6 @@ impl Error {
     pub fn to_message(&self) -> Message {
         match self {
             Error::Value { quantity, message } => Message::from(*quantity).text(": ").then(message.clone()),
-            Error::Flag { flag, message } => Message::from(format!("{flag}: {message}")),
             Error::CatalogueFile { path, message } => {
                 Message::from(format!("catalogue {}: ", path.display())).then(message.clone())
             }

@@ -13,14 +13,14 @@
 //! use gearsieve::numbers::range::IntRange;
 //! use gearsieve::model::rank::DEFAULT_RANK;
 //! use gearsieve::numbers::target::Target;
-//! use gearsieve::{search, EngineKind, Problem, RunOptions, StageLimits};
+//! use gearsieve::{search, EngineChoice, Problem, RunOptions, StageLimits};
 //!
 //! // 37.5:1 within 10 ppm from gears of 12..60 teeth, module 1, two or three stages.
 //! let target = Target::parse("37.5:1", "10ppm")?;
 //! let pool = Pool::to_cut(IntRange { lo: 12, hi: 60 }, 1.0, 20.0, None)?;
 //! let stages = IntRange { lo: 2, hi: 3 };
 //! let problem = Problem::new(target, pool, stages, StageLimits::default(), None, DEFAULT_RANK.to_vec(), 5)?;
-//! let found = search(&problem, EngineKind::Sieve, &RunOptions::default());
+//! let found = search(&problem, EngineChoice::Sieve, &RunOptions::default());
 //! let best = &found.trains[0];
 //! assert!(best.error.is_exact());
 //! assert_eq!(best.ratio_from_teeth().to_string(), "75/2");
@@ -40,6 +40,6 @@ pub mod numbers;
 pub mod report;
 pub mod trades;
 
-pub use engine::{search, EngineKind, Outcome, RunOptions};
+pub use engine::{search, EngineChoice, Outcome, RunOptions};
 pub use error::{Error, Message, Quantity, Result};
 pub use model::problem::{ExtraKey, MeshRules, Problem, StageLimits, TrainCheck};

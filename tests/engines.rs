@@ -11,10 +11,10 @@ use gearsieve::model::train::{Direction, Train};
 use gearsieve::numbers::range::{FloatRange, IntRange, RatioRange};
 use gearsieve::numbers::rational::{Ratio, RelError};
 use gearsieve::numbers::target::Target;
-use gearsieve::{search, EngineKind, Outcome, Problem, RunOptions, StageLimits};
+use gearsieve::{search, EngineChoice, Outcome, Problem, RunOptions, StageLimits};
 use proptest::prelude::*;
 
-fn run(p: &Problem, e: EngineKind) -> Outcome {
+fn run(p: &Problem, e: EngineChoice) -> Outcome {
     search(p, e, &RunOptions::default())
 }
 
@@ -126,9 +126,9 @@ proptest! {
 
     #[test]
     fn sieve_equals_exhaustive(p in problem_strategy()) {
-        let fast = run(&p, EngineKind::Fast);
-        let sieve = run(&p, EngineKind::Sieve);
-        let slow = run(&p, EngineKind::Exhaustive);
+        let fast = run(&p, EngineChoice::Auto);
+        let sieve = run(&p, EngineChoice::Sieve);
+        let slow = run(&p, EngineChoice::Exhaustive);
         prop_assert_eq!(&sieve, &slow);
         prop_assert_eq!(fast.count, slow.count);
         if std::env::var_os("GEARSIEVE_PROP_STATS").is_some() {
@@ -145,7 +145,7 @@ proptest! {
     fn every_listed_train_is_what_it_claims(p in problem_strategy()) {
         let mut p = p;
         p.limit = 1000;
-        let out = run(&p, EngineKind::Fast);
+        let out = run(&p, EngineChoice::Auto);
         prop_assert!(out.trains.len() as u64 == out.count.min(1000));
         for t in &out.trains {
             check_train(&p, t);
@@ -174,7 +174,11 @@ fn results_do_not_depend_on_thread_count() {
     )
     .unwrap();
     let with = |n| {
-        rayon::ThreadPoolBuilder::new().num_threads(n).build().unwrap().install(|| run(&p, EngineKind::Fast))
+        rayon::ThreadPoolBuilder::new()
+            .num_threads(n)
+            .build()
+            .unwrap()
+            .install(|| run(&p, EngineChoice::Auto))
     };
     let one = with(1);
     assert!(one.count > 50);
@@ -201,7 +205,7 @@ fn shards_merge(p: &Problem, parts: u32) -> Result<(), TestCaseError> {
     use gearsieve::engine::Shard;
     use gearsieve::report::search::{json, SearchReport};
     let doc_of = |shard: Option<Shard>| {
-        let o = search(p, EngineKind::Fast, &RunOptions { shard, ..RunOptions::default() });
+        let o = search(p, EngineChoice::Auto, &RunOptions { shard, ..RunOptions::default() });
         json::doc(&SearchReport { problem: p, outcome: &o, explain: false, shard })
     };
     let whole = doc_of(None);
@@ -225,11 +229,11 @@ fn meet_engine_matches_the_reference_on_four_stages() {
         let mut p =
             Problem::new(target, pool, IntRange { lo: 1, hi: 4 }, StageLimits::default(), None, rank, 25)
                 .unwrap();
-        let slow = run(&p, EngineKind::Exhaustive);
+        let slow = run(&p, EngineChoice::Exhaustive);
         assert!(slow.count > 25, "{ratio}: {}", slow.count);
-        assert_eq!(run(&p, EngineKind::Fast), slow, "{ratio}");
+        assert_eq!(run(&p, EngineChoice::Auto), slow, "{ratio}");
         p.pareto = true;
-        assert_eq!(run(&p, EngineKind::Fast), run(&p, EngineKind::Exhaustive), "{ratio} pareto");
+        assert_eq!(run(&p, EngineChoice::Auto), run(&p, EngineChoice::Exhaustive), "{ratio} pareto");
     }
 }
 
@@ -288,11 +292,11 @@ proptest! {
     /// The factor engine counts and lists exactly what the exhaustive engine finds.
     #[test]
     fn factor_engine_equals_exhaustive(p in exact_problem_strategy(4, 9)) {
-        use gearsieve::engine::{factor::Factor, SearchSpace};
+        use gearsieve::engine::{factor::FactorTables, SearchSpace};
         let space = SearchSpace::new(&p, None);
-        prop_assert!(space.stages.is_empty() || Factor::new(&space).is_some(), "the factor engine takes these");
-        let fast = run(&p, EngineKind::Fast);
-        let slow = run(&p, EngineKind::Exhaustive);
+        prop_assert!(space.stages.is_empty() || FactorTables::new(&space).is_some(), "the factor engine takes these");
+        let fast = run(&p, EngineChoice::Auto);
+        let slow = run(&p, EngineChoice::Exhaustive);
         prop_assert_eq!(&fast, &slow);
         for t in &fast.trains {
             check_train(&p, t);
@@ -314,9 +318,9 @@ fn factor_engine_equals_exhaustive_on_five_and_six_stages() {
         let p =
             Problem::new(target, pool, IntRange { lo: 5, hi: 6 }, limits, None, DEFAULT_RANK.to_vec(), 30)
                 .unwrap();
-        let slow = run(&p, EngineKind::Exhaustive);
+        let slow = run(&p, EngineChoice::Exhaustive);
         assert!(slow.count > 0, "{ratio}: {}", slow.count);
-        assert_eq!(run(&p, EngineKind::Fast), slow, "{ratio}");
+        assert_eq!(run(&p, EngineChoice::Auto), slow, "{ratio}");
     }
 }
 
@@ -331,9 +335,9 @@ fn factor_engine_agrees_with_the_sieve_on_four_stages() {
         let target = Target::parse(ratio, "0").unwrap();
         let p = Problem::new(target, pool, IntRange { lo: 4, hi: 4 }, StageLimits::default(), None, rank, 20)
             .unwrap();
-        let sieve = run(&p, EngineKind::Sieve);
+        let sieve = run(&p, EngineChoice::Sieve);
         assert!(sieve.count > 1000, "{ratio}: {}", sieve.count);
-        assert_eq!(run(&p, EngineKind::Fast), sieve, "{ratio}");
+        assert_eq!(run(&p, EngineChoice::Auto), sieve, "{ratio}");
     }
 }
 
@@ -398,7 +402,7 @@ fn factor_count(lo: u32, hi: u32, ratio: &str) -> u64 {
         1,
     )
     .unwrap();
-    run(&p, EngineKind::Fast).count
+    run(&p, EngineChoice::Auto).count
 }
 
 #[test]

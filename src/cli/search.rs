@@ -16,7 +16,7 @@ use gearsieve::numbers::target::Target;
 use gearsieve::report::search::stream::Stream;
 use gearsieve::report::search::SearchReport;
 use gearsieve::report::{RenderError, Report};
-use gearsieve::{EngineKind, Problem, Quantity, RunOptions, StageLimits};
+use gearsieve::{EngineChoice, Problem, Quantity, RunOptions, StageLimits};
 
 use super::args::{load_stock, FormatArg, PrintArgs};
 use super::flags::refuse;
@@ -30,8 +30,13 @@ pub const DEFAULT_TEETH: &str = "12..120";
 /// The engine flag.
 #[derive(Clone, Copy, Debug, ValueEnum)]
 pub enum EngineArg {
-    /// Meet-in-the-middle over distinct stage ratios where it applies (gears to be cut, up to
-    /// four stages), the sieve elsewhere.
+    /// Per stage count, the first engine that takes it: the factor engine for exact targets
+    /// (--tol 0) over gears to be cut when every pairing of allowed teeth is a stage (no
+    /// --stage-ratio, --centre-distance or mesh check leaves one out), up to four stages (six
+    /// when no gear has more than 255 teeth); then meet-in-the-middle over distinct stage
+    /// ratios for gears to be cut, up to four stages (four only while its pair table fits in
+    /// 1 GiB); the sieve for the rest (gears on hand, --coaxial without a fixed centre
+    /// distance, more stages) and for --limit 0.
     Fast,
     /// Depth-first with ratio bounds, for every case.
     Sieve,
@@ -149,7 +154,7 @@ pub struct SearchArgs {
 /// A validated search, ready to run.
 pub struct SearchJob {
     problem: Problem,
-    engine: EngineKind,
+    engine: EngineChoice,
     print: PrintArgs,
     explain: bool,
     shard: Option<Shard>,
@@ -252,14 +257,14 @@ impl TryFrom<SearchArgs> for SearchJob {
             ));
         }
         let engine = match a.engine {
-            EngineArg::Fast => EngineKind::Fast,
-            EngineArg::Sieve => EngineKind::Sieve,
-            EngineArg::Exhaustive => EngineKind::Exhaustive,
+            EngineArg::Fast => EngineChoice::Auto,
+            EngineArg::Sieve => EngineChoice::Sieve,
+            EngineArg::Exhaustive => EngineChoice::Exhaustive,
         };
         Ok(SearchJob {
             problem,
             engine,
-            shard: a.shard.as_deref().map(|s| Shard::parse(s, "--shard")).transpose()?,
+            shard: a.shard.as_deref().map(Shard::parse).transpose()?,
             print: a.print,
             explain: a.explain,
             long: a.long,

@@ -2,13 +2,14 @@
 //! design; it is the reference the fast engines are tested against and the baseline of the
 //! benchmarks.
 
-use super::{Engine, SearchSpace};
+use super::kinds::StageEngine;
+use super::space::SearchSpace;
 use crate::model::pool::MAX_STAGES;
 
 /// Visits every combination.
 pub struct Exhaustive;
 
-impl Engine for Exhaustive {
+impl StageEngine for Exhaustive {
     fn name(&self) -> &'static str {
         "exhaustive"
     }

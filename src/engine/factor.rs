@@ -31,7 +31,9 @@ use std::collections::BTreeMap;
 
 use rayon::prelude::*;
 
-use super::{Keeper, SearchSpace};
+use super::kinds::{BulkEngine, BulkPlan};
+use super::space::SearchSpace;
+use super::tally::Tally;
 use crate::model::pool::MAX_STAGES;
 use crate::model::rank::Candidate;
 use crate::numbers::rational::RelError;
@@ -50,8 +52,66 @@ const PART_SIZE: u64 = 1 << 14;
 /// How many values of `k` pass between two looks at the stop flag.
 const CANCEL_EVERY: u32 = 1 << 10;
 
+/// The factor engine.
+pub struct Factor;
+
+impl BulkEngine for Factor {
+    fn name(&self) -> &'static str {
+        "factor"
+    }
+
+    fn plan(&self, space: &SearchSpace, counts: &[usize]) -> Option<Box<dyn BulkPlan>> {
+        let tables = FactorTables::new(space)?;
+        let counts: Vec<usize> = counts.iter().copied().filter(|&n| tables.applies(n)).collect();
+        (!counts.is_empty())
+            .then(|| Box::new(FactorPlan { tables, counts, sums: Vec::new() }) as Box<dyn BulkPlan>)
+    }
+}
+
+/// The factor engine's share of one search: one unit per stage count, whose Burnside sum is
+/// cut into parts only when the unit is kept (cutting costs about a pass over the `k`).
+struct FactorPlan {
+    tables: FactorTables,
+    counts: Vec<usize>,
+    /// The sums of the units kept.
+    sums: Vec<BurnsideSum>,
+}
+
+impl BulkPlan for FactorPlan {
+    fn stage_counts(&self) -> &[usize] {
+        &self.counts
+    }
+
+    fn cut(&mut self, _space: &SearchSpace, _n: usize) -> usize {
+        1
+    }
+
+    fn prepare(&mut self, _space: &SearchSpace, n: usize, _unit: usize) -> u64 {
+        let sum = self.tables.burnside_sum(n, true);
+        let ticks = sum.ticks();
+        self.sums.push(sum);
+        ticks
+    }
+
+    fn run(&self, space: &SearchSpace, n: usize, _unit: usize, tally: &mut Tally, tick: &(dyn Fn() + Sync)) {
+        match self.sums.iter().find(|s| s.stages() == n) {
+            Some(sum) => self.tables.run(space, sum, tally, tick),
+            None => unreachable!("every unit kept is prepared before it runs"),
+        }
+    }
+
+    /// A stage count is one unit, so the driver cannot sample it: the forecast asks here.
+    fn forecast_counts(&self) -> &[usize] {
+        &self.counts
+    }
+
+    fn forecast_seconds(&self, _space: &SearchSpace, n: usize, budget: std::time::Duration) -> f64 {
+        self.tables.forecast_seconds(&self.tables.burnside_sum(n, false), budget)
+    }
+}
+
 /// Everything the factor engine needs, prepared once per search.
-pub struct Factor {
+pub struct FactorTables {
     driven: ToothSet,
     driver: ToothSet,
     /// Tooth counts allowed as both driver and driven: each makes one 1:1 pairing, which is not
@@ -67,9 +127,9 @@ pub struct Factor {
     module_mm: f64,
 }
 
-impl Factor {
+impl FactorTables {
     /// Prepare for `space`, or `None` when the engine does not apply to it.
-    pub fn new(space: &SearchSpace) -> Option<Factor> {
+    pub fn new(space: &SearchSpace) -> Option<FactorTables> {
         let problem = space.problem;
         let pool = &problem.pool;
         if !problem.target.tolerance.is_zero()
@@ -104,7 +164,7 @@ impl Factor {
         let ratio = problem.target.ratio;
         let parts = Factored::of(ratio.num(), &primes_up_to(hi_driven as u32))
             .zip(Factored::of(ratio.den(), &primes_up_to(hi_driver as u32)));
-        Some(Factor {
+        Some(FactorTables {
             driven: ToothSet::new(&driven, six),
             driver: ToothSet::new(&driver, six),
             both: both as i128,
@@ -120,13 +180,19 @@ impl Factor {
         (1..=MAX_STAGES).contains(&n) && self.driven.supports(n as u32) && self.driver.supports(n as u32)
     }
 
-    /// Count the trains of `work` into `keep` and offer those that could be listed, calling
+    /// Count the trains of `burnside` into `tally` and offer those that could be listed, calling
     /// `tick` once per part of the count and once for the listing.
-    pub(crate) fn run(&self, space: &SearchSpace, work: &Work, keep: &mut Keeper, tick: &(dyn Fn() + Sync)) {
-        let Some(count) = self.count(space, work, tick) else { return };
-        keep.add_count(count);
+    pub(crate) fn run(
+        &self,
+        space: &SearchSpace,
+        burnside: &BurnsideSum,
+        tally: &mut Tally,
+        tick: &(dyn Fn() + Sync),
+    ) {
+        let Some(count) = self.count(space, burnside, tick) else { return };
+        tally.add_count(count);
         if count > 0 {
-            self.list(space, work.n, keep);
+            self.list(space, burnside.n, tally);
         }
         tick();
     }
@@ -140,9 +206,9 @@ impl Factor {
         (lo.max(1), hi)
     }
 
-    /// The work of counting the `n`-stage trains: Burnside's terms and, when `cut`, the parts
+    /// Burnside's sum for the `n`-stage trains: its terms and, when `cut`, the parts
     /// of the sum over `k` (cutting costs about a pass over the `k`; a forecast needs no parts).
-    pub fn work(&self, n: usize, cut: bool) -> Work {
+    pub fn burnside_sum(&self, n: usize, cut: bool) -> BurnsideSum {
         let mut constant = 0;
         let mut terms = Vec::new();
         for (powers, coef) in cycle_terms(n, self.both) {
@@ -162,34 +228,34 @@ impl Factor {
         let k_hi = terms.iter().map(|t| t.k_hi).max().unwrap_or(0);
         let parts =
             if terms.is_empty() || !cut { Vec::new() } else { smooth_parts(&self.primes, k_hi, PART_SIZE) };
-        Work { n, constant, terms, k_lo, k_hi, parts }
+        BurnsideSum { n, constant, terms, k_lo, k_hi, parts }
     }
 
     /// Burnside's sum over one part of the `k`, or `None` when the search was stopped.
-    pub fn part_sum(&self, space: &SearchSpace, work: &Work, part: usize) -> Option<i128> {
+    pub fn part_sum(&self, space: &SearchSpace, burnside: &BurnsideSum, part: usize) -> Option<i128> {
         if space.cancelled() {
             return None;
         }
         let mut sum = 0i128;
         let mut seen = 0u32;
-        let done = work.parts[part].for_each(&self.primes, work.k_lo, work.k_hi, &mut |k| {
+        let done = burnside.parts[part].for_each(&self.primes, burnside.k_lo, burnside.k_hi, &mut |k| {
             seen += 1;
             if seen % CANCEL_EVERY == 0 && space.cancelled() {
                 return false;
             }
-            sum += self.k_sum(work, k);
+            sum += self.k_sum(burnside, k);
             true
         });
         done.then_some(sum)
     }
 
     /// Burnside's sum for one `k`: every term's ordered products on both sides.
-    fn k_sum(&self, work: &Work, k: &Factored) -> i128 {
+    fn k_sum(&self, burnside: &BurnsideSum, k: &Factored) -> i128 {
         let Some((p, q)) = &self.parts else { return 0 };
         // k is within the largest term's bound, so the products fit.
         let (Some(driven), Some(driver)) = (k.mul(p), k.mul(q)) else { return 0 };
         let mut sum = 0;
-        for t in &work.terms {
+        for t in &burnside.terms {
             if (t.k_lo..=t.k_hi).contains(&k.value()) {
                 let a = self.driven.ordered_products(&driven, &t.powers);
                 if a > 0 {
@@ -200,43 +266,48 @@ impl Factor {
         sum
     }
 
-    /// Forecast the seconds one thread needs for [`Factor::count`] on `work`: Knuth's probe
+    /// Forecast the seconds one thread needs for [`FactorTables::count`] on `burnside`: Knuth's probe
     /// estimate of the time to evaluate every `k`, each probed `k` timed, probing for about
     /// `budget`, or less once a few hundred probes agree that it is quick.
-    pub fn forecast_seconds(&self, work: &Work, budget: std::time::Duration) -> f64 {
+    pub fn forecast_seconds(&self, burnside: &BurnsideSum, budget: std::time::Duration) -> f64 {
         /// Below this many seconds a count is quick, and the forecast need not be sharp.
         const QUICK_S: f64 = 5.0;
-        if work.terms.is_empty() {
+        if burnside.terms.is_empty() {
             return 0.0;
         }
         let start = std::time::Instant::now();
         let mut keep_going =
             |probes: usize, seconds: f64| start.elapsed() < budget && (probes < 500 || seconds > QUICK_S);
-        estimate_smooth_sum(&self.primes, work.k_hi, &mut keep_going, &mut |k| {
-            if k.value() < work.k_lo {
+        estimate_smooth_sum(&self.primes, burnside.k_hi, &mut keep_going, &mut |k| {
+            if k.value() < burnside.k_lo {
                 return 0.0;
             }
             let t = std::time::Instant::now();
-            std::hint::black_box(self.k_sum(work, k));
+            std::hint::black_box(self.k_sum(burnside, k));
             t.elapsed().as_secs_f64()
         })
     }
 
-    /// The number of trains of `work` that hit the target, or `None` when the search was
+    /// The number of trains of `burnside` that hit the target, or `None` when the search was
     /// stopped before it was known; `tick` is called after each part.
-    pub fn count(&self, space: &SearchSpace, work: &Work, tick: &(dyn Fn() + Sync)) -> Option<u64> {
-        let n = work.n;
+    pub fn count(
+        &self,
+        space: &SearchSpace,
+        burnside: &BurnsideSum,
+        tick: &(dyn Fn() + Sync),
+    ) -> Option<u64> {
+        let n = burnside.n;
         // The parts differ in size, so each is its own task.
-        let sums: Vec<Option<i128>> = (0..work.parts.len())
+        let sums: Vec<Option<i128>> = (0..burnside.parts.len())
             .into_par_iter()
             .with_max_len(1)
             .map(|i| {
-                let sum = self.part_sum(space, work, i);
+                let sum = self.part_sum(space, burnside, i);
                 tick();
                 sum
             })
             .collect();
-        let mut total = work.constant;
+        let mut total = burnside.constant;
         for s in sums {
             total += s?;
         }
@@ -247,7 +318,7 @@ impl Factor {
     }
 
     /// Offer the `n`-stage trains that could be listed, walking `k` upwards.
-    fn list(&self, space: &SearchSpace, n: usize, keep: &mut Keeper) {
+    fn list(&self, space: &SearchSpace, n: usize, tally: &mut Tally) {
         let Some((p, q)) = &self.parts else { return };
         let (k_lo, k_hi) = self.k_range(n as u32);
         let error = RelError::of(p.value(), q.value(), space.problem.target.ratio);
@@ -275,15 +346,15 @@ impl Factor {
                     span_mm: self.module_mm * ceil_root(driven, n).max(ceil_root(driver, n)) as f64,
                     extra: 0.0,
                 };
-                if !keep.could_accept(&rising) {
+                if !tally.could_accept(&rising) {
                     return;
                 }
                 // A gear that carries a prime factor has at least that many teeth.
                 let largest = k_prime.max(p.largest_prime()).max(q.largest_prime());
                 let bound =
                     Candidate { span_mm: rising.span_mm.max(self.module_mm * largest as f64), ..rising };
-                if keep.could_accept(&bound) {
-                    self.spell(space, n, driven, driver, bound, keep);
+                if tally.could_accept(&bound) {
+                    self.spell(space, n, driven, driver, bound, tally);
                 }
             }
             from = cap + 1;
@@ -299,7 +370,7 @@ impl Factor {
         driven: u64,
         driver: u64,
         bound: Candidate,
-        keep: &mut Keeper,
+        tally: &mut Tally,
     ) {
         let driven_sets = factorisations(&self.driven, driven, n);
         if driven_sets.is_empty() {
@@ -314,12 +385,12 @@ impl Factor {
                     ..bound
                 };
                 // Every pairing of these gears has this size and span.
-                if !keep.could_accept(&group) {
+                if !tally.could_accept(&group) {
                     continue;
                 }
                 self.pairings(&d[..n], &r[..n], &mut |idx| {
                     if let Some(c) = space.judge(idx) {
-                        keep.push_uncounted(c);
+                        tally.push_uncounted(c);
                     }
                 });
             }
@@ -385,8 +456,9 @@ struct Term {
     k_hi: u64,
 }
 
-/// The count of one stage count's trains, cut into parts (see [`Factor::work`]).
-pub struct Work {
+/// Burnside's sum over `k` that counts one stage count's trains, cut into parts (see
+/// [`FactorTables::burnside_sum`]).
+pub struct BurnsideSum {
     n: usize,
     constant: i128,
     terms: Vec<Term>,
@@ -395,7 +467,7 @@ pub struct Work {
     parts: Vec<SmoothPart>,
 }
 
-impl Work {
+impl BurnsideSum {
     /// The stage count.
     pub fn stages(&self) -> usize {
         self.n

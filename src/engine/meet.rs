@@ -14,11 +14,11 @@
 //! the listing. It applies to gears to be cut with no train-level check or extra key, where
 //! every choice of stages is as valid as any other; anything else goes to the sieve.
 
-use std::sync::atomic::{AtomicU64, Ordering as AtomicOrdering};
-
 use rayon::prelude::*;
 
-use super::{Keeper, SearchSpace};
+use super::kinds::{BulkEngine, BulkPlan};
+use super::space::SearchSpace;
+use super::tally::Tally;
 use crate::model::pool::MAX_STAGES;
 use crate::model::rank::Candidate;
 use crate::numbers::rational::RelError;
@@ -29,13 +29,13 @@ pub const PAIR_TABLE_BUDGET_BYTES: usize = 1 << 30;
 /// Relative widening of the single-precision pair products, far above their rounding error.
 const F32_MARGIN: f64 = 1e-6;
 
-/// Values handled per unit of work for `n ≤ 3`, pairs per unit for `n = 4`.
+/// Distinct ratios of the left side handled per unit of work for `n ≤ 3`.
 pub const VALUES_PER_UNIT: usize = 16;
 /// Pairs of the left side handled per unit of work for `n = 4`.
 pub const PAIRS_PER_UNIT: usize = 1 << 16;
 
 /// The distinct stage ratios of a search space.
-pub struct Values {
+pub struct DistinctRatios {
     /// Ratio as `f64`, ascending.
     pub value: Vec<f64>,
     /// Reduced driven / driver.
@@ -52,10 +52,10 @@ pub struct Values {
     pub min_span: Vec<f64>,
 }
 
-impl Values {
+impl DistinctRatios {
     /// Fold the stage table into its distinct ratios.
-    pub fn new(space: &SearchSpace) -> Values {
-        let mut v = Values {
+    pub fn new(space: &SearchSpace) -> DistinctRatios {
+        let mut v = DistinctRatios {
             value: Vec::new(),
             num: Vec::new(),
             den: Vec::new(),
@@ -119,7 +119,7 @@ impl PairTable {
     }
 
     /// Build the table, or `None` when it would exceed the memory budget.
-    pub fn new(values: &Values) -> Option<PairTable> {
+    pub fn new(values: &DistinctRatios) -> Option<PairTable> {
         let d = values.count();
         if !PairTable::fits(d) {
             return None;
@@ -157,25 +157,65 @@ impl PairTable {
     }
 }
 
-/// A unit of work of the meet engine: a run of left-side entries for one stage count.
-#[derive(Debug, Clone, Copy, PartialEq, Eq)]
-pub struct MeetUnit {
-    /// Stages.
-    pub n: usize,
-    /// First left-side entry (value for `n ≤ 3`, pair for `n = 4`).
-    pub from: usize,
-    /// One past the last.
-    pub to: usize,
+/// The meet engine.
+pub struct Meet;
+
+impl BulkEngine for Meet {
+    fn name(&self) -> &'static str {
+        "meet"
+    }
+
+    /// Four stages only when the pair table fits its memory budget.
+    fn plan(&self, space: &SearchSpace, counts: &[usize]) -> Option<Box<dyn BulkPlan>> {
+        let mut counts: Vec<usize> = counts.iter().copied().filter(|&n| applies(space, n)).collect();
+        if counts.is_empty() {
+            return None;
+        }
+        let ratios = DistinctRatios::new(space);
+        counts.retain(|&n| n <= 3 || PairTable::fits(ratios.count()));
+        (!counts.is_empty()).then(|| Box::new(MeetPlan { counts, ratios, pairs: None }) as Box<dyn BulkPlan>)
+    }
 }
 
-/// The units of work for `n` stages.
-pub fn units(n: usize, values: &Values, pairs: Option<&PairTable>) -> Vec<MeetUnit> {
-    let (len, step) = if n == 4 {
-        (pairs.map_or(0, PairTable::len), PAIRS_PER_UNIT)
-    } else {
-        (values.count(), VALUES_PER_UNIT)
-    };
-    (0..len.div_ceil(step)).map(|k| MeetUnit { n, from: k * step, to: ((k + 1) * step).min(len) }).collect()
+/// The meet engine's share of one search.
+struct MeetPlan {
+    counts: Vec<usize>,
+    ratios: DistinctRatios,
+    /// Built when four stages are cut.
+    pairs: Option<PairTable>,
+}
+
+impl MeetPlan {
+    /// Left-side entries for `n` stages (values for `n ≤ 3`, pairs for `n = 4`), and how many
+    /// a unit takes.
+    fn left_side(&self, n: usize) -> (usize, usize) {
+        if n == 4 {
+            (self.pairs.as_ref().map_or(0, PairTable::len), PAIRS_PER_UNIT)
+        } else {
+            (self.ratios.count(), VALUES_PER_UNIT)
+        }
+    }
+}
+
+impl BulkPlan for MeetPlan {
+    fn stage_counts(&self) -> &[usize] {
+        &self.counts
+    }
+
+    fn cut(&mut self, _space: &SearchSpace, n: usize) -> usize {
+        if n == 4 && self.pairs.is_none() {
+            self.pairs = PairTable::new(&self.ratios);
+        }
+        let (len, step) = self.left_side(n);
+        len.div_ceil(step)
+    }
+
+    fn run(&self, space: &SearchSpace, n: usize, unit: usize, tally: &mut Tally, tick: &(dyn Fn() + Sync)) {
+        let (len, step) = self.left_side(n);
+        let run = MeetRun { space, ratios: &self.ratios, pairs: self.pairs.as_ref() };
+        run.left_entries(n, unit * step, ((unit + 1) * step).min(len), tally);
+        tick();
+    }
 }
 
 /// Binomial coefficient for small arguments.
@@ -184,34 +224,30 @@ fn choose(n: u64, k: u64) -> u64 {
 }
 
 /// Everything a unit needs.
-pub struct Meet<'a, 's> {
-    /// The space.
-    pub space: &'a SearchSpace<'s>,
-    /// Its distinct ratios.
-    pub values: &'a Values,
-    /// The pair table (needed for `n = 4`).
-    pub pairs: Option<&'a PairTable>,
-    /// Sequences judged exactly (for statistics).
-    pub judged: &'a AtomicU64,
+struct MeetRun<'a, 's> {
+    space: &'a SearchSpace<'s>,
+    ratios: &'a DistinctRatios,
+    /// Needed for `n = 4`.
+    pairs: Option<&'a PairTable>,
 }
 
-impl Meet<'_, '_> {
-    /// Run one unit into `keep`.
+impl MeetRun<'_, '_> {
+    /// Every value sequence of `n` stages whose left side is one of the entries `from..to`.
     // The loop variables are value ids that go into the sequence, not just positions in `v`.
     #[allow(clippy::needless_range_loop)]
-    pub(crate) fn run(&self, unit: MeetUnit, keep: &mut Keeper) {
-        let v = &self.values.value;
+    fn left_entries(&self, n: usize, from: usize, to: usize, tally: &mut Tally) {
+        let v = &self.ratios.value;
         let (lo, hi) = (self.space.lo, self.space.hi);
-        match unit.n {
+        match n {
             1 => {
-                for a in unit.from..unit.to {
+                for a in from..to {
                     if (lo..=hi).contains(&v[a]) {
-                        self.accept(&[a], keep);
+                        self.accept(&[a], tally);
                     }
                 }
             }
             2 => {
-                for a in unit.from..unit.to {
+                for a in from..to {
                     if v[a] * v[a] > hi {
                         break;
                     }
@@ -220,7 +256,7 @@ impl Meet<'_, '_> {
                         if v[a] * v[b] > hi {
                             break;
                         }
-                        self.accept(&[a, b], keep);
+                        self.accept(&[a, b], tally);
                     }
                 }
             }
@@ -228,7 +264,7 @@ impl Meet<'_, '_> {
                 // Three is cheap enough without the pair table: the middle value by loop, the
                 // last by binary search, as the sieve does, but over distinct values.
                 let vmax = v.last().copied().unwrap_or(0.0);
-                for a in unit.from..unit.to {
+                for a in from..to {
                     if v[a].powi(3) > hi {
                         break;
                     }
@@ -243,7 +279,7 @@ impl Meet<'_, '_> {
                             if ab * v[c] > hi {
                                 break;
                             }
-                            self.accept(&[a, b, c], keep);
+                            self.accept(&[a, b, c], tally);
                         }
                     }
                 }
@@ -251,7 +287,7 @@ impl Meet<'_, '_> {
             4 => {
                 let Some(pairs) = self.pairs else { return };
                 let root = hi.sqrt() * (1.0 + F32_MARGIN);
-                for left in &pairs.pairs[unit.from..unit.to] {
+                for left in &pairs.pairs[from..to] {
                     let (a, b) = (left.a as usize, left.b as usize);
                     let pl = v[a] * v[b];
                     if pl > root {
@@ -260,7 +296,7 @@ impl Meet<'_, '_> {
                     for p in &pairs.pairs[pairs.window(lo / pl, hi / pl)] {
                         let (c, d) = (p.a as usize, p.b as usize);
                         if c >= b && (lo..=hi).contains(&(pl * v[c] * v[d])) {
-                            self.accept(&[a, b, c, d], keep);
+                            self.accept(&[a, b, c, d], tally);
                         }
                     }
                 }
@@ -271,9 +307,8 @@ impl Meet<'_, '_> {
 
     /// A value sequence inside the float window: decide it exactly, count its trains, and spell
     /// them out if the best could be listed.
-    fn accept(&self, seq: &[usize], keep: &mut Keeper) {
-        self.judged.fetch_add(1, AtomicOrdering::Relaxed);
-        let vals = self.values;
+    fn accept(&self, seq: &[usize], tally: &mut Tally) {
+        let vals = self.ratios;
         let (mut p, mut q) = (1u64, 1u64);
         for &x in seq {
             p *= vals.num[x];
@@ -298,7 +333,7 @@ impl Meet<'_, '_> {
         let runs = &runs[..nruns];
         let count: u64 =
             runs.iter().map(|&(x, k)| choose(vals.len[x] as u64 + k as u64 - 1, k as u64)).product();
-        keep.add_count(count);
+        tally.add_count(count);
         let best = Candidate {
             stages: [0; MAX_STAGES],
             len: seq.len() as u8,
@@ -307,11 +342,11 @@ impl Meet<'_, '_> {
             span_mm: runs.iter().map(|&(x, _)| vals.min_span[x]).fold(0.0, f64::max),
             extra: 0.0,
         };
-        if !keep.could_accept(&best) {
+        if !tally.could_accept(&best) {
             return;
         }
         let mut idx = [0u32; MAX_STAGES];
-        self.spell(runs, 0, 0, &mut idx, seq.len(), keep);
+        self.spell(runs, 0, 0, &mut idx, seq.len(), tally);
     }
 
     /// Every choice of stages for `runs[r..]`, filling `idx` from position `at`.
@@ -322,17 +357,17 @@ impl Meet<'_, '_> {
         at: usize,
         idx: &mut [u32; MAX_STAGES],
         n: usize,
-        keep: &mut Keeper,
+        tally: &mut Tally,
     ) {
         if r == runs.len() {
             if let Some(c) = self.space.judge(&idx[..n]) {
-                keep.push_uncounted(c);
+                tally.push_uncounted(c);
             }
             return;
         }
         let (x, k) = runs[r];
-        let (start, len) = (self.values.start[x], self.values.len[x]);
-        self.spell_run(runs, r, at, start, start + len, k, idx, n, keep);
+        let (start, len) = (self.ratios.start[x], self.ratios.len[x]);
+        self.spell_run(runs, r, at, start, start + len, k, idx, n, tally);
     }
 
     /// Non-decreasing choices of `k` stages from `from..end` for one run, then the next run.
@@ -347,15 +382,15 @@ impl Meet<'_, '_> {
         k: u32,
         idx: &mut [u32; MAX_STAGES],
         n: usize,
-        keep: &mut Keeper,
+        tally: &mut Tally,
     ) {
         if k == 0 {
-            self.spell(runs, r + 1, at, idx, n, keep);
+            self.spell(runs, r + 1, at, idx, n, tally);
             return;
         }
         for s in from..end {
             idx[at] = s;
-            self.spell_run(runs, r, at + 1, s, end, k - 1, idx, n, keep);
+            self.spell_run(runs, r, at + 1, s, end, k - 1, idx, n, tally);
         }
     }
 }

@@ -7,13 +7,14 @@
 //! stage that can reach, found by binary search). The last stage is a binary-searched window.
 //! Float bounds are widened by the space's margin; the driver decides exactly.
 
-use super::{Engine, SearchSpace};
+use super::kinds::StageEngine;
+use super::space::SearchSpace;
 use crate::model::pool::MAX_STAGES;
 
 /// Depth-first search with ratio bounds.
 pub struct Sieve;
 
-impl Engine for Sieve {
+impl StageEngine for Sieve {
     fn name(&self) -> &'static str {
         "sieve"
     }

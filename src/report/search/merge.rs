@@ -88,7 +88,7 @@ pub fn merge(docs: Vec<(String, Doc)>) -> Result<Doc> {
                 format!("{name}: not part of a split search (it has no \"shard\"); run the parts with ");
             Error::problem(Message::from(said).quantity(Quantity::Shard).text(" I/N"))
         })?;
-        Shard::parse(text, name)
+        Shard::parse(text).map_err(|e| in_file(name, e))
     };
     let n = part(&first_name, &first)?.count;
     let mut seen = vec![false; n as usize];

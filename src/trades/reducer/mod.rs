@@ -19,7 +19,7 @@ pub mod hunting;
 
 use std::sync::Arc;
 
-use crate::engine::{search, EngineKind, RunOptions};
+use crate::engine::{search, EngineChoice, RunOptions};
 use crate::error::{Error, Message, Quantity, Result};
 use crate::model::pool::{Pool, StockGear, MAX_STAGES};
 use crate::model::problem::{ExtraKey, MeshRules, Problem, StageLimits, TrainCheck};
@@ -258,7 +258,7 @@ impl ReducerSpec {
     /// Search, and arrange each train found in its housing places.
     pub fn plan(&self, options: &RunOptions) -> Result<ReducerPlan> {
         let problem = self.problem()?;
-        let found = search(&problem, EngineKind::Sieve, options);
+        let found = search(&problem, EngineChoice::Sieve, options);
         let places = self.places();
         let trains = found
             .trains

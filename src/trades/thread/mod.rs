@@ -20,7 +20,7 @@ pub mod series;
 
 use std::cmp::Ordering;
 
-use crate::engine::{search, EngineKind, RunOptions};
+use crate::engine::{search, EngineChoice, RunOptions};
 use crate::error::{Error, Quantity, Result};
 use crate::model::pool::Pool;
 use crate::model::problem::{Problem, StageLimits, TrainCheck};
@@ -260,7 +260,7 @@ impl Lathe {
         for position in self.machine.positions() {
             let need = self.machine.train_ratio_for(lead, position).value;
             let problem = self.problem(need, tolerance, limit, true)?;
-            let found = search(&problem, EngineKind::Sieve, options);
+            let found = search(&problem, EngineChoice::Sieve, options);
             count += found.count;
             complete &= found.complete;
             setups.extend(found.trains.into_iter().map(|t| self.setup(thread, t, position, need)));
@@ -297,7 +297,7 @@ impl Lathe {
             let need = self.machine.train_ratio_for(lead, position).value;
             // Ratio-only search, then keep what the banjo refuses.
             let problem = self.problem(need, self.tolerance, self.limit * 4 + 16, false)?;
-            for t in search(&problem, EngineKind::Sieve, options).trains {
+            for t in search(&problem, EngineChoice::Sieve, options).trains {
                 if let Err(reasons) = banjo.fit(&t, &self.pool) {
                     out.push(Rejected {
                         pitch_error: pitch_error(t.ratio, need),

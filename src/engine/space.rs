@@ -1,0 +1,339 @@
+//! The stage space and the exact judge. [`SearchSpace::new`] lists every allowed stage of a
+//! problem (same mesh group, different tooth counts, every per-stage limit and mesh check),
+//! sorted by ratio, so that a train's canonical form is a non-decreasing sequence of stage
+//! indices; [`SearchSpace::judge`] decides each candidate train exactly (integer
+//! cross-multiplication, stock quantities, coaxial fit, train checks) and builds the trains
+//! that are reported. It owns no engine, no unit of work and no ranking: engines propose, the
+//! space decides, the tally keeps.
+
+use std::sync::atomic::{AtomicBool, AtomicU64, Ordering as AtomicOrdering};
+
+use crate::geometry::{
+    check_mesh, mesh_geometry, shift_for_centre_distance, MeshDefect, MeshGeometry, Mounting, ToothSystem,
+};
+use crate::model::pool::{MeshGroup, MAX_STAGES};
+use crate::model::problem::{MeshRules, Problem};
+use crate::model::rank::Candidate;
+use crate::model::train::{Gear, Stage, Train};
+use crate::numbers::rational::{Ratio, RelError};
+
+/// One allowed stage: a driver and a driven gear kind of one mesh group meeting every limit.
+#[derive(Debug, Clone, PartialEq)]
+pub struct StageDef {
+    /// Index of the driver in [`crate::model::pool::Pool::gears`].
+    pub driver: u32,
+    /// Index of the driven gear.
+    pub driven: u32,
+    /// Driver teeth.
+    pub driver_teeth: u32,
+    /// Driven teeth.
+    pub driven_teeth: u32,
+    /// driven / driver as `f64` (for pruning only).
+    pub value: f64,
+    /// The worked-out mesh, when the problem checks geometry at a known centre distance.
+    pub mesh: Option<MeshGeometry>,
+}
+
+/// The rejection kind of trains that could not be made coaxial; counted per train, so it adds
+/// up across the parts of a split search.
+pub const COAXIAL_MISFIT_KIND: &str = "NotCoaxial";
+
+/// Why some stage pairings or trains were left out, for an explanation.
+#[derive(Debug, Clone, PartialEq, Eq)]
+pub struct Rejection {
+    /// The kind of defect, e.g. `Undercut`.
+    pub kind: String,
+    /// How many stage pairings (or trains, for coaxial fit) it removed.
+    pub count: u64,
+    /// The message for the first one, in shop words.
+    pub example: String,
+}
+
+fn defect_kind(d: &MeshDefect) -> String {
+    let dbg = format!("{d:?}");
+    dbg.split([' ', '{', '(']).next().unwrap_or("").to_string()
+}
+
+/// Work out one stage's mesh under `rules` at its known centre distance (the fixed one, or the
+/// standard one with the undercut split of a zero shift sum), and check it runs.
+fn stage_mesh(rules: &MeshRules, group: &MeshGroup, teeth: [u32; 2]) -> Result<MeshGeometry, MeshDefect> {
+    let sys = ToothSystem::new(group.module_mm, group.pressure_angle_deg, rules.rack)?;
+    let standard = sys.standard_centre_distance_mm(teeth);
+    let mesh = match rules.centre_distance_mm {
+        Some(a_w) if (a_w - standard).abs() > rules.centre_tolerance_mm => {
+            shift_for_centre_distance(&sys, teeth, a_w, &(rules.shift_sum.0..=rules.shift_sum.1))?
+        }
+        _ => mesh_geometry(&sys, teeth, Mounting::Shifted { shift: sys.split_shift_sum(teeth, 0.0) })?,
+    };
+    match check_mesh(&mesh, &rules.limits).first() {
+        Some(d) => Err(*d),
+        None => Ok(mesh),
+    }
+}
+
+/// Everything an engine needs, prepared once per search.
+pub struct SearchSpace<'p> {
+    /// The problem.
+    pub problem: &'p Problem,
+    /// Allowed stages sorted by (ratio, driver teeth, driven teeth, module, pressure angle).
+    pub stages: Vec<StageDef>,
+    /// `stages[i].value`, contiguous for fast searching.
+    pub values: Vec<f64>,
+    /// Lower bound of acceptable train ratios, widened a little below the exact bound.
+    pub lo: f64,
+    /// Upper bound, widened a little above the exact bound.
+    pub hi: f64,
+    /// Stage pairings left out by the mesh checks, by kind, most first.
+    pub rejected: Vec<Rejection>,
+    coaxial_misfits: AtomicU64,
+    cancel: Option<&'p AtomicBool>,
+}
+
+/// Relative widening of the float window: far above the rounding error of a product of six
+/// ratios, far below any tolerance worth asking for. Exact checks decide after it.
+const FLOAT_MARGIN: f64 = 1e-9;
+
+impl<'p> SearchSpace<'p> {
+    /// Build the stage table for `problem`.
+    pub fn new(problem: &'p Problem, cancel: Option<&'p AtomicBool>) -> SearchSpace<'p> {
+        let pool = &problem.pool;
+        let lim = &problem.limits;
+        let mut stages = Vec::new();
+        let mut rejected: Vec<Rejection> = Vec::new();
+        // Coaxial trains without a fixed distance find their common distance per train.
+        let per_stage_mesh = problem.mesh.as_ref().filter(|r| !r.coaxial || r.centre_distance_mm.is_some());
+        for (i, a) in pool.gears.iter().enumerate() {
+            if lim.driver_teeth.is_some_and(|r| !r.contains(a.teeth)) {
+                continue;
+            }
+            for (j, b) in pool.gears.iter().enumerate() {
+                if a.group != b.group || a.teeth == b.teeth {
+                    continue;
+                }
+                if lim.driven_teeth.is_some_and(|r| !r.contains(b.teeth)) {
+                    continue;
+                }
+                if lim.stage_ratio.is_some_and(|r| !r.contains(b.teeth as u64, a.teeth as u64)) {
+                    continue;
+                }
+                if let Some(cd) = lim.centre_distance_mm {
+                    let a_mm =
+                        crate::model::train::standard_centre_distance_mm(pool.module_of(i), a.teeth, b.teeth);
+                    if !cd.contains(a_mm, 1e-9 * a_mm) {
+                        continue;
+                    }
+                }
+                let mesh = match per_stage_mesh {
+                    None => None,
+                    Some(rules) => match stage_mesh(rules, &pool.groups[a.group], [a.teeth, b.teeth]) {
+                        Ok(m) => Some(m),
+                        Err(d) => {
+                            let kind = defect_kind(&d);
+                            match rejected.iter_mut().find(|r| r.kind == kind) {
+                                Some(r) => r.count += 1,
+                                None => rejected.push(Rejection { kind, count: 1, example: d.to_string() }),
+                            }
+                            continue;
+                        }
+                    },
+                };
+                stages.push(StageDef {
+                    driver: i as u32,
+                    driven: j as u32,
+                    driver_teeth: a.teeth,
+                    driven_teeth: b.teeth,
+                    value: b.teeth as f64 / a.teeth as f64,
+                    mesh,
+                });
+            }
+        }
+        stages.sort_by(|x, y| {
+            (x.driven_teeth as u64 * y.driver_teeth as u64)
+                .cmp(&(y.driven_teeth as u64 * x.driver_teeth as u64))
+                .then(x.driver_teeth.cmp(&y.driver_teeth))
+                .then(x.driven_teeth.cmp(&y.driven_teeth))
+                .then_with(|| {
+                    let gx = &pool.groups[pool.gears[x.driver as usize].group];
+                    let gy = &pool.groups[pool.gears[y.driver as usize].group];
+                    gx.module_mm
+                        .total_cmp(&gy.module_mm)
+                        .then(gx.pressure_angle_deg.total_cmp(&gy.pressure_angle_deg))
+                })
+        });
+        rejected.sort_by(|x, y| y.count.cmp(&x.count).then(x.kind.cmp(&y.kind)));
+        let values = stages.iter().map(|s| s.value).collect();
+        let r = problem.target.ratio.to_f64();
+        let t = problem.target.tolerance.to_f64();
+        SearchSpace {
+            problem,
+            stages,
+            values,
+            lo: r * (1.0 - t) * (1.0 - FLOAT_MARGIN),
+            hi: r * (1.0 + t) * (1.0 + FLOAT_MARGIN),
+            rejected,
+            coaxial_misfits: AtomicU64::new(0),
+            cancel,
+        }
+    }
+
+    /// Has the user asked to stop?
+    pub fn cancelled(&self) -> bool {
+        self.cancel.is_some_and(|c| c.load(AtomicOrdering::Relaxed))
+    }
+
+    /// Exact verdict on a stage sequence: `Some(candidate)` when its ratio is within tolerance and
+    /// the stock holds enough of every gear it uses.
+    pub fn judge(&self, idx: &[u32]) -> Option<Candidate> {
+        let (mut p, mut q) = (1u64, 1u64);
+        for &i in idx {
+            let s = &self.stages[i as usize];
+            p *= s.driven_teeth as u64;
+            q *= s.driver_teeth as u64;
+        }
+        let error = RelError::of(p, q, self.problem.target.ratio);
+        if !error.within(self.problem.target.tolerance) {
+            return None;
+        }
+        if self.problem.pool.from_stock && !self.stock_suffices(idx) {
+            return None;
+        }
+        let pool = &self.problem.pool;
+        let mut stages = [0u32; MAX_STAGES];
+        stages[..idx.len()].copy_from_slice(idx);
+        let (mut size, mut span) = (0u32, 0f64);
+        for &i in idx {
+            let s = &self.stages[i as usize];
+            size += s.driver_teeth + s.driven_teeth;
+            span = span.max(pool.module_of(s.driver as usize) * s.driver_teeth.max(s.driven_teeth) as f64);
+        }
+        if self.needs_coaxial_fit() && self.coaxial_meshes(idx).is_none() {
+            self.coaxial_misfits.fetch_add(1, AtomicOrdering::Relaxed);
+            return None;
+        }
+        let mut c = Candidate { stages, len: idx.len() as u8, error, size, span_mm: span, extra: 0.0 };
+        if self.problem.train_check.is_some() || self.problem.extra_key.is_some() {
+            let train = self.train(&c);
+            if let Some(check) = &self.problem.train_check {
+                if !(check.0)(&train) {
+                    return None;
+                }
+            }
+            if let Some(k) = &self.problem.extra_key {
+                c.extra = (k.key)(&train);
+            }
+        }
+        Some(c)
+    }
+
+    /// Does the stock hold every gear the sequence uses, counting repeats across the train?
+    pub fn stock_suffices(&self, idx: &[u32]) -> bool {
+        let gears = &self.problem.pool.gears;
+        let mut used: [(u32, u32); 2 * MAX_STAGES] = [(u32::MAX, 0); 2 * MAX_STAGES];
+        let mut n = 0;
+        for &i in idx {
+            let s = &self.stages[i as usize];
+            for g in [s.driver, s.driven] {
+                match used[..n].iter_mut().find(|(k, _)| *k == g) {
+                    Some(e) => e.1 += 1,
+                    None => {
+                        used[n] = (g, 1);
+                        n += 1;
+                    }
+                }
+            }
+        }
+        used[..n].iter().all(|&(g, c)| gears[g as usize].quantity.is_none_or(|q| c <= q))
+    }
+
+    pub(crate) fn needs_coaxial_fit(&self) -> bool {
+        self.problem.mesh.as_ref().is_some_and(|r| r.coaxial && r.centre_distance_mm.is_none())
+    }
+
+    /// For a coaxial train without a fixed distance: one working centre distance every stage
+    /// can reach within the shift-sum range (the one nearest the mean of their standard
+    /// distances), and each stage's mesh there, if all run.
+    pub fn coaxial_meshes(&self, idx: &[u32]) -> Option<Vec<MeshGeometry>> {
+        let rules = self.problem.mesh.as_ref()?;
+        let pool = &self.problem.pool;
+        let mut systems = Vec::with_capacity(idx.len());
+        let (mut lo, mut hi, mut mean) = (f64::NEG_INFINITY, f64::INFINITY, 0.0);
+        for &i in idx {
+            let s = &self.stages[i as usize];
+            let g = &pool.groups[pool.gears[s.driver as usize].group];
+            let sys = ToothSystem::new(g.module_mm, g.pressure_angle_deg, rules.rack).ok()?;
+            let teeth = [s.driver_teeth, s.driven_teeth];
+            lo = lo.max(sys.centre_distance_for_shift_sum(teeth, rules.shift_sum.0)?);
+            hi = hi.min(sys.centre_distance_for_shift_sum(teeth, rules.shift_sum.1)?);
+            mean += sys.standard_centre_distance_mm(teeth) / idx.len() as f64;
+            systems.push((sys, teeth));
+        }
+        if lo > hi {
+            return None;
+        }
+        let a_w = mean.clamp(lo, hi);
+        // Widen the range by a hair so the ends of the interval, found by the inverse formula,
+        // are not lost to rounding on the way back.
+        let range = (rules.shift_sum.0 - 1e-9)..=(rules.shift_sum.1 + 1e-9);
+        systems
+            .iter()
+            .map(|(sys, teeth)| {
+                let m = shift_for_centre_distance(sys, *teeth, a_w, &range).ok()?;
+                check_mesh(&m, &rules.limits).is_empty().then_some(m)
+            })
+            .collect()
+    }
+
+    /// Everything left out by the mesh checks so far, including trains that could not be made
+    /// coaxial.
+    pub fn rejections(&self) -> Vec<Rejection> {
+        let mut r = self.rejected.clone();
+        let misfits = self.coaxial_misfits.load(AtomicOrdering::Relaxed);
+        if misfits > 0 {
+            r.push(Rejection {
+                kind: COAXIAL_MISFIT_KIND.into(),
+                count: misfits,
+                example: "trains within tolerance whose stages cannot all be shifted to one centre distance"
+                    .into(),
+            });
+        }
+        r
+    }
+
+    /// Turn a candidate into a full train for reporting.
+    pub fn train(&self, c: &Candidate) -> Train {
+        let pool = &self.problem.pool;
+        let coaxial = if self.needs_coaxial_fit() { self.coaxial_meshes(c.stage_indices()) } else { None };
+        let gear = |k: u32| {
+            let g = &pool.gears[k as usize];
+            Gear { teeth: g.teeth, labels: g.labels.clone() }
+        };
+        let mut stages: Vec<Stage> = c
+            .stage_indices()
+            .iter()
+            .enumerate()
+            .map(|(n, &i)| {
+                let s = &self.stages[i as usize];
+                let group = &pool.groups[pool.gears[s.driver as usize].group];
+                Stage {
+                    driver: gear(s.driver),
+                    driven: gear(s.driven),
+                    module_mm: group.module_mm,
+                    pressure_angle_deg: group.pressure_angle_deg,
+                    diametral_pitch: group.diametral_pitch,
+                    mesh: coaxial.as_ref().map(|m| m[n]).or(s.mesh),
+                }
+            })
+            .collect();
+        // Shown finer module first (toward the input, as reducers are built), then in table
+        // order: ascending stage ratio. Stable, so one multiset always prints one way.
+        stages.sort_by(|a, b| {
+            a.module_mm.total_cmp(&b.module_mm).then(a.pressure_angle_deg.total_cmp(&b.pressure_angle_deg))
+        });
+        let (mut p, mut q) = (1u128, 1u128);
+        for &i in c.stage_indices() {
+            p *= self.stages[i as usize].driven_teeth as u128;
+            q *= self.stages[i as usize].driver_teeth as u128;
+        }
+        Train { stages, ratio: Ratio::new(p, q).expect("fits"), error: c.error }
+    }
+}
