@@ -24,10 +24,10 @@ pub struct Shard {
 
 impl Shard {
     /// Parse `I/N`.
-    pub fn parse(text: &str) -> crate::Result<Shard> {
+    pub fn parse(text: &str) -> crate::error::Result<Shard> {
         let bad = || {
-            crate::Error::value(
-                crate::Quantity::Shard,
+            crate::error::Error::value(
+                crate::error::Quantity::Shard,
                 format!("\"{text}\" is not a part; wanted I/N with 1 ≤ I ≤ N, e.g. 3/8"),
             )
         };

@@ -132,7 +132,7 @@ pub enum MeshDefect {
         min: f64,
     },
     /// A defect only an internal mesh (a pinion inside a ring gear) can have.
-    Internal(super::internal::InternalDefect),
+    Internal(InternalDefect),
 }
 
 impl fmt::Display for MeshDefect {
@@ -204,5 +204,165 @@ impl std::error::Error for MeshDefect {}
 impl From<MeshDefect> for crate::error::Error {
     fn from(defect: MeshDefect) -> Self {
         crate::error::Error::problem(defect.to_string())
+    }
+}
+
+/// Which member of an internal pair a defect concerns.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, serde::Serialize)]
+pub enum InternalGear {
+    /// The external gear inside the ring, with its tooth count.
+    Pinion(u32),
+    /// The ring gear, with its tooth count.
+    Ring(u32),
+}
+
+impl fmt::Display for InternalGear {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        match self {
+            InternalGear::Pinion(z) => write!(f, "the {z}-tooth pinion"),
+            InternalGear::Ring(z) => write!(f, "the {z}-tooth ring"),
+        }
+    }
+}
+
+/// A reason an internal mesh cannot be built or would not run, beyond those it shares with an
+/// external mesh. Carried inside [`MeshDefect::Internal`].
+#[derive(Debug, Clone, Copy, PartialEq, serde::Serialize)]
+pub enum InternalDefect {
+    /// The ring does not have more teeth than the pinion.
+    NotInternal {
+        /// Pinion teeth.
+        pinion: u32,
+        /// Ring teeth.
+        ring: u32,
+    },
+    /// The shift difference `x2 − x1` is so negative that no working pressure angle exists.
+    ShiftDifferenceTooNegative {
+        /// The difference given, in modules.
+        shift_difference: f64,
+        /// It must be more than this, in modules.
+        min: f64,
+    },
+    /// The ring's tip circle lies inside its base circle, leaving its teeth no involute to run
+    /// on (with `ha* = 1` at 20° an unshifted ring needs `z2 ≥ 2/(1 − cos 20°) ≈ 33.2`).
+    RingTipInsideBase {
+        /// Ring teeth.
+        ring: u32,
+        /// Its tip diameter, mm.
+        tip_diameter_mm: f64,
+        /// Its base diameter, mm.
+        base_diameter_mm: f64,
+    },
+    /// The ring's tips meet the pinion below its base circle (involute interference).
+    InvoluteInterference {
+        /// Pinion teeth.
+        pinion: u32,
+        /// Ring teeth.
+        ring: u32,
+    },
+    /// The ring's tips meet the pinion above its base circle but below where its involute
+    /// begins, on the root fillet the rack left.
+    BelowFormCircle {
+        /// Pinion teeth.
+        pinion: u32,
+        /// Where contact would begin, mm (diameter).
+        active_diameter_mm: f64,
+        /// Where the pinion's involute begins, mm (diameter).
+        form_diameter_mm: f64,
+    },
+    /// Leaving the mesh, the pinion's tips strike the ring's tooth tips (trochoid interference).
+    TrochoidInterference {
+        /// Pinion teeth.
+        pinion: u32,
+        /// Ring teeth.
+        ring: u32,
+        /// The clearance, radians on the ring (negative).
+        clearance_rad: f64,
+    },
+    /// The pinion's tip circle reaches beyond the ring's tip circle all round, so its tips
+    /// would foul the ring's teeth everywhere, not only in the mesh.
+    TipCirclesOverlapAllRound {
+        /// Pinion teeth.
+        pinion: u32,
+        /// Ring teeth.
+        ring: u32,
+    },
+    /// The ring's teeth are too thin at the tip (or come to a point).
+    RingPointedTip {
+        /// Ring teeth.
+        ring: u32,
+        /// Tooth thickness at the tip circle, mm.
+        thickness_mm: f64,
+        /// The least wanted, mm.
+        min_mm: f64,
+    },
+}
+
+impl fmt::Display for InternalDefect {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        use InternalGear::{Pinion, Ring};
+        match *self {
+            InternalDefect::NotInternal { pinion, ring } => write!(
+                f,
+                "a ring gear must have more teeth than the pinion inside it: {} and {}",
+                Ring(ring),
+                Pinion(pinion)
+            ),
+            InternalDefect::ShiftDifferenceTooNegative { shift_difference, min } => write!(
+                f,
+                "a ring shift {shift_difference:.3} below the pinion's leaves no working pressure \
+                 angle: the difference must be more than {min:.3}"
+            ),
+            InternalDefect::RingTipInsideBase { ring, tip_diameter_mm, base_diameter_mm } => write!(
+                f,
+                "the tip circle of {} ({tip_diameter_mm:.3} mm) would lie inside its base circle \
+                 ({base_diameter_mm:.3} mm), leaving no involute flank to run on",
+                Ring(ring)
+            ),
+            InternalDefect::InvoluteInterference { pinion, ring } => write!(
+                f,
+                "the tips of {} would dig into the flanks of {} below its base circle (involute \
+                 interference)",
+                Ring(ring),
+                Pinion(pinion)
+            ),
+            InternalDefect::BelowFormCircle { pinion, active_diameter_mm, form_diameter_mm } => write!(
+                f,
+                "the ring's tips would meet {} on a {active_diameter_mm:.3} mm circle, below the \
+                 {form_diameter_mm:.3} mm circle where its involute begins",
+                Pinion(pinion)
+            ),
+            InternalDefect::TrochoidInterference { pinion, ring, clearance_rad } => write!(
+                f,
+                "leaving the mesh, the tips of {} would strike the tips of {} (trochoid \
+                 interference, {:.3}° short)",
+                Pinion(pinion),
+                Ring(ring),
+                -clearance_rad.to_degrees()
+            ),
+            InternalDefect::TipCirclesOverlapAllRound { pinion, ring } => write!(
+                f,
+                "the tip circle of {} would reach past the tip circle of {} all round",
+                Pinion(pinion),
+                Ring(ring)
+            ),
+            InternalDefect::RingPointedTip { ring, thickness_mm, min_mm } => {
+                if thickness_mm <= 0.0 {
+                    write!(
+                        f,
+                        "the teeth of {} would come to a point inside the tip circle: at least \
+                         {min_mm:.3} mm of tip is wanted",
+                        Ring(ring)
+                    )
+                } else {
+                    write!(
+                        f,
+                        "the teeth of {} would be too thin at the tip: {thickness_mm:.3} mm, at \
+                         least {min_mm:.3} mm is wanted",
+                        Ring(ring)
+                    )
+                }
+            }
+        }
     }
 }

@@ -542,7 +542,7 @@ pub fn check_design(problem: &PlanetaryProblem, teeth: &Teeth, planets: u32) -> 
 #[cfg(test)]
 mod tests {
     use super::*;
-    use crate::geometry::internal::InternalDefect;
+    use crate::geometry::defect::InternalDefect;
     use crate::numbers::rational::Ratio;
     use crate::trades::planetary::{Member, PlanetarySpec};
 
