@@ -56,13 +56,15 @@ pub fn check_mesh(mesh: &MeshGeometry, limits: &MeshLimits) -> Vec<MeshDefect> {
             });
         }
     }
-    if mesh.contact_ratio.is_nan() || mesh.contact_ratio < limits.min_contact_ratio {
-        defects.push(MeshDefect::ContactRatioTooLow {
-            value: mesh.contact_ratio,
-            min: limits.min_contact_ratio,
-        });
-    }
+    defects.extend(contact_ratio_defect(mesh.contact_ratio, limits));
     defects
+}
+
+/// The defect of a contact ratio below the least allowed (or not a number), for external and
+/// internal meshes alike.
+pub fn contact_ratio_defect(contact_ratio: f64, limits: &MeshLimits) -> Option<MeshDefect> {
+    (contact_ratio.is_nan() || contact_ratio < limits.min_contact_ratio)
+        .then_some(MeshDefect::ContactRatioTooLow { value: contact_ratio, min: limits.min_contact_ratio })
 }
 
 #[cfg(test)]

@@ -548,12 +548,7 @@ pub fn check_internal_mesh(mesh: &InternalMeshGeometry, limits: &MeshLimits) -> 
             }
         }
     }
-    if mesh.contact_ratio.is_nan() || mesh.contact_ratio < limits.min_contact_ratio {
-        defects.push(MeshDefect::ContactRatioTooLow {
-            value: mesh.contact_ratio,
-            min: limits.min_contact_ratio,
-        });
-    }
+    defects.extend(super::check::contact_ratio_defect(mesh.contact_ratio, limits));
     defects
 }
 

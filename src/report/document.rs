@@ -91,6 +91,19 @@ impl Table {
         Table { columns, rows: Vec::new(), head_in_text: true, gap: 2, indent: 0 }
     }
 
+    /// Rows numbered from 1 in their first cell, the rest from `cells`: a listing's rows.
+    pub fn numbered<T>(items: &[T], cells: impl Fn(&T) -> Vec<String>) -> Vec<Vec<String>> {
+        items
+            .iter()
+            .enumerate()
+            .map(|(n, item)| {
+                let mut row = vec![(n + 1).to_string()];
+                row.extend(cells(item));
+                row
+            })
+            .collect()
+    }
+
     /// Add a row.
     pub fn row(&mut self, cells: Vec<String>) {
         self.rows.push(cells);

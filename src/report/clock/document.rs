@@ -112,32 +112,26 @@ pub fn going(p: &GoingPlan) -> Document {
         } else {
             "driving"
         };
-        let rows: Vec<Vec<String>> = p
-            .trains
-            .iter()
-            .enumerate()
-            .map(|(n, g)| {
-                let names = arbor_names(g.train.stages.len(), driving);
-                let stages: Vec<String> = g
-                    .train
-                    .stages
-                    .iter()
-                    .map(|st| format!("{} → {}", st.driver.teeth, st.driven.teeth))
-                    .collect();
-                let arbors: Vec<String> = names
-                    .iter()
-                    .zip(&g.arbor_turns_per_hour)
-                    .map(|(a, v)| format!("{a} {}", speed(*v)))
-                    .collect();
-                vec![
-                    (n + 1).to_string(),
-                    stages.join(", "),
-                    g.train.ratio.to_string(),
-                    describe_rate(g.rate_s_per_day, g.train.error.is_exact() && exact),
-                    arbors.join("; "),
-                ]
-            })
-            .collect();
+        let rows = Table::numbered(&p.trains, |g| {
+            let names = arbor_names(g.train.stages.len(), driving);
+            let stages: Vec<String> = g
+                .train
+                .stages
+                .iter()
+                .map(|st| format!("{} → {}", st.driver.teeth, st.driven.teeth))
+                .collect();
+            let arbors: Vec<String> = names
+                .iter()
+                .zip(&g.arbor_turns_per_hour)
+                .map(|(a, v)| format!("{a} {}", speed(*v)))
+                .collect();
+            vec![
+                stages.join(", "),
+                g.train.ratio.to_string(),
+                describe_rate(g.rate_s_per_day, g.train.error.is_exact() && exact),
+                arbors.join("; "),
+            ]
+        });
         d.table(
             Table::new(
                 &["#", "wheel → pinion", "ratio i", "rate", "arbors (turns per hour, time per turn)"],
@@ -208,18 +202,12 @@ pub fn motion(p: &MotionPlan) -> Document {
     d.blank();
     d.line(count_line(p.count, p.trains.len(), p.complete, "train", "by error, then meshes, then size"));
     if !p.trains.is_empty() {
-        let rows: Vec<Vec<String>> = p
-            .trains
-            .iter()
-            .enumerate()
-            .map(|(n, t)| {
-                let mut r = vec![(n + 1).to_string()];
-                r.extend(mesh_cells(t, p.is_hour_motion_work(t)));
-                r.push(t.ratio.to_string());
-                r.push(describe_error(&t.error));
-                r
-            })
-            .collect();
+        let rows = Table::numbered(&p.trains, |t| {
+            let mut r = mesh_cells(t, p.is_hour_motion_work(t));
+            r.push(t.ratio.to_string());
+            r.push(describe_error(&t.error));
+            r
+        });
         d.table(
             Table::new(
                 &[
@@ -281,28 +269,18 @@ pub fn astro(p: &AstroPlan) -> Document {
     d.blank();
     d.line(count_line(p.count, p.trains.len(), p.complete, "train", "by error, then meshes, then size"));
     if !p.trains.is_empty() {
-        let rows: Vec<Vec<String>> = p
-            .trains
-            .iter()
-            .enumerate()
-            .map(|(n, a)| {
-                let st: Vec<String> = a
-                    .train
-                    .stages
-                    .iter()
-                    .map(|x| format!("{} → {}", x.driver.teeth, x.driven.teeth))
-                    .collect();
-                vec![
-                    (n + 1).to_string(),
-                    st.join(", "),
-                    a.train.ratio.to_string(),
-                    format!("{:.9} d", a.period_days),
-                    describe_error(&a.train.error),
-                    describe_drift(a.drift_days_per_year),
-                    describe_days(a.days_to_one_day),
-                ]
-            })
-            .collect();
+        let rows = Table::numbered(&p.trains, |a| {
+            let st: Vec<String> =
+                a.train.stages.iter().map(|x| format!("{} → {}", x.driver.teeth, x.driven.teeth)).collect();
+            vec![
+                st.join(", "),
+                a.train.ratio.to_string(),
+                format!("{:.9} d", a.period_days),
+                describe_error(&a.train.error),
+                describe_drift(a.drift_days_per_year),
+                describe_days(a.days_to_one_day),
+            ]
+        });
         d.table(
             Table::new(
                 &["#", "driver → driven", "ratio i", "dial period", "error", "drift", "until 1 day out"],
