@@ -124,7 +124,8 @@ const CASES: &[(&str, &[&str])] = &[
     ),
 ];
 
-const FORMATS: &[(&str, &str)] = &[("table", "txt"), ("csv", "csv"), ("json", "json"), ("markdown", "md")];
+const FORMATS: &[(&str, &str)] =
+    &[("table", "txt"), ("csv", "csv"), ("json", "json"), ("markdown", "md"), ("svg", "svg")];
 
 fn golden(name: &str) -> PathBuf {
     [env!("CARGO_MANIFEST_DIR"), "tests", "golden", name].iter().collect()

@@ -19,6 +19,8 @@ pub enum FormatArg {
     Json,
     /// Markdown with pipe tables.
     Markdown,
+    /// A drawing of the best result to scale (mm), as SVG.
+    Svg,
 }
 
 impl From<FormatArg> for Format {
@@ -28,6 +30,7 @@ impl From<FormatArg> for Format {
             FormatArg::Csv => Format::Csv,
             FormatArg::Json => Format::Json,
             FormatArg::Markdown => Format::Markdown,
+            FormatArg::Svg => Format::Svg,
         }
     }
 }

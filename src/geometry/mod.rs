@@ -19,6 +19,7 @@
 //!   pressure angle and centre distance from the shift difference, contact ratio, and the
 //!   interference checks of [`internal::check_internal_mesh`].
 //! - [`modules`]: DIN 780 module series and diametral pitch.
+//! - [`layout`]: where the shafts of a compound train sit.
 //!
 //! Units: lengths in mm, angles in degrees at the interface (radians where the name says
 //! `_rad`), profile shift, tip shortening and rack dimensions in modules. Gears are external
@@ -28,6 +29,7 @@ pub mod check;
 pub mod defect;
 pub mod internal;
 pub mod involute;
+pub mod layout;
 pub mod modules;
 pub mod pair;
 pub mod system;

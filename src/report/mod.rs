@@ -13,16 +13,21 @@
 //!
 //! - [`document`]: the format-neutral [`Document`] of titles, lines, lists and tables.
 //! - [`text`], [`markdown`]: sinks of a document.
+//! - [`drawing`], [`svg`], [`pictures`]: the format-neutral [`Drawing`], its SVG sink, and the
+//!   pictures of trains and pairs.
 //! - [`search`], [`mesh`], [`thread`], [`clock`], [`reducer`]: one folder per result family,
 //!   with its document, CSV and JSON.
 
 pub mod clock;
 pub mod document;
+pub mod drawing;
 pub mod fields;
 pub mod markdown;
 pub mod mesh;
+pub mod pictures;
 pub mod reducer;
 pub mod search;
+pub mod svg;
 pub mod text;
 pub mod thread;
 pub mod words;
@@ -30,6 +35,7 @@ pub mod words;
 use std::io::{self, Write};
 
 pub use document::{Align, Block, Column, Document, Table};
+pub use drawing::Drawing;
 
 /// The version of the JSON contracts of every result kind (`schema_version` in each
 /// document); it changes when a key is renamed or changes meaning.
@@ -46,6 +52,8 @@ pub enum Format {
     Json,
     /// Markdown with pipe tables, for notes, wikis and issues.
     Markdown,
+    /// A drawing to scale, for the eye, a printer or a cutter.
+    Svg,
 }
 
 impl Format {
@@ -56,6 +64,7 @@ impl Format {
             Format::Csv => "csv",
             Format::Json => "json",
             Format::Markdown => "markdown",
+            Format::Svg => "svg",
         }
     }
 }
@@ -121,6 +130,18 @@ pub trait Report {
     fn json(&self, _w: &mut dyn Write) -> Result<(), RenderError> {
         Err(RenderError::NotOffered { format: Format::Json, kind: self.kind() })
     }
+
+    /// The result drawn to scale; `None` when the kind has no picture.
+    fn drawing(&self) -> Option<Drawing> {
+        None
+    }
+
+    /// SVG.
+    fn svg(&self, w: &mut dyn Write) -> Result<(), RenderError> {
+        let drawing =
+            self.drawing().ok_or(RenderError::NotOffered { format: Format::Svg, kind: self.kind() })?;
+        Ok(svg::write(&drawing, w)?)
+    }
 }
 
 /// A borrowed result presents as the result itself.
@@ -152,6 +173,14 @@ impl<T: Report + ?Sized> Report for &T {
     fn json(&self, w: &mut dyn Write) -> Result<(), RenderError> {
         (**self).json(w)
     }
+
+    fn drawing(&self) -> Option<Drawing> {
+        (**self).drawing()
+    }
+
+    fn svg(&self, w: &mut dyn Write) -> Result<(), RenderError> {
+        (**self).svg(w)
+    }
 }
 
 /// Render `report` in `format` to `w`.
@@ -161,6 +190,7 @@ pub fn render(report: &dyn Report, format: Format, w: &mut dyn Write) -> Result<
         Format::Csv => report.csv(w),
         Format::Json => report.json(w),
         Format::Markdown => report.markdown(w),
+        Format::Svg => report.svg(w),
     }
 }
 

@@ -6,7 +6,10 @@ pub mod json;
 
 use std::io::Write;
 
-use super::{Completion, Document, RenderError, Report};
+use super::fields::TrainJson;
+use super::words::describe_error;
+use super::{pictures, Completion, Document, Drawing, RenderError, Report};
+use crate::geometry::layout::ShaftLayout;
 use crate::trades::clock::astro::AstroPlan;
 use crate::trades::clock::going::GoingPlan;
 use crate::trades::clock::motion::MotionPlan;
@@ -31,6 +34,16 @@ impl Report for GoingPlan {
     fn json(&self, w: &mut dyn Write) -> Result<(), RenderError> {
         json::write_going(self, w)
     }
+
+    fn drawing(&self) -> Option<Drawing> {
+        let best = self.trains.first()?;
+        let title = format!("Going train 1: i = {}, wheels driving pinions", best.train.ratio);
+        Some(pictures::train(
+            &TrainJson::from_train(&best.train).stages,
+            &title,
+            ("driving arbor", "escape arbor"),
+        ))
+    }
 }
 
 impl Report for MotionPlan {
@@ -53,6 +66,20 @@ impl Report for MotionPlan {
     fn json(&self, w: &mut dyn Write) -> Result<(), RenderError> {
         json::write_motion(self, w)
     }
+
+    /// The best train; a coaxial motion work folded back so the hand arbor sits on the input's.
+    fn drawing(&self) -> Option<Drawing> {
+        let best = self.trains.first()?;
+        let title = format!("Motion work 1: i = {} ({})", best.ratio, describe_error(&best.error));
+        let layout =
+            if self.spec.coaxial { ShaftLayout::Folded { turn_deg: 180.0 } } else { ShaftLayout::Inline };
+        Some(pictures::train_laid_out(
+            &TrainJson::from_train(best).stages,
+            &title,
+            ("minute arbor", "hand"),
+            layout,
+        ))
+    }
 }
 
 impl Report for AstroPlan {
@@ -74,5 +101,16 @@ impl Report for AstroPlan {
 
     fn json(&self, w: &mut dyn Write) -> Result<(), RenderError> {
         json::write_astro(self, w)
+    }
+
+    fn drawing(&self) -> Option<Drawing> {
+        let best = self.trains.first()?;
+        let title = format!(
+            "Astronomical train 1 for {}: i = {} ({})",
+            self.spec.period.name,
+            best.train.ratio,
+            describe_error(&best.train.error)
+        );
+        Some(pictures::train(&TrainJson::from_train(&best.train).stages, &title, ("input arbor", "dial")))
     }
 }

@@ -24,8 +24,11 @@ use std::io::Write;
 
 use serde::Serialize;
 
+use super::fields::StageJson;
 use super::words::MESH_CAUTION;
-use super::{write_json, Completion, Document, RenderError, Report, Table, SCHEMA_VERSION};
+use super::{
+    pictures, write_json, Completion, Document, Drawing, RenderError, Report, Table, SCHEMA_VERSION,
+};
 use crate::geometry::{MeshDefect, MeshGeometry, MeshLimits, RackProfile, MM_PER_INCH};
 use crate::model::pool::fmt_num;
 
@@ -95,6 +98,36 @@ impl Report for MeshReport<'_> {
 
     fn json(&self, w: &mut dyn Write) -> Result<(), RenderError> {
         json(self, w)
+    }
+
+    /// The pair at its working centre distance, driver on the left.
+    fn drawing(&self) -> Option<Drawing> {
+        let g = self.geometry;
+        let stage = StageJson {
+            driver: g.teeth[0],
+            driven: g.teeth[1],
+            module_mm: g.module_mm,
+            pressure_angle_deg: g.pressure_angle_deg,
+            diametral_pitch: self.inputs.diametral_pitch,
+            reference_centre_distance_mm: g.standard_centre_distance_mm,
+            driver_labels: Vec::new(),
+            driven_labels: Vec::new(),
+            shift: Some(g.shift),
+            working_centre_distance_mm: Some(g.centre_distance_mm),
+            working_pressure_angle_deg: Some(g.working_pressure_angle_deg),
+            contact_ratio: Some(g.contact_ratio),
+            tip_diameter_mm: Some(g.tip_diameter_mm),
+        };
+        let verdict = if self.defects.is_empty() { "runs" } else { "does not run" };
+        let title = format!(
+            "{}-tooth driver and {}-tooth driven gear, module {} mm, x {}/{}: {verdict}",
+            g.teeth[0],
+            g.teeth[1],
+            fmt_num(g.module_mm),
+            fmt_num(g.shift[0]),
+            fmt_num(g.shift[1])
+        );
+        Some(pictures::train(&[stage], &title, ("driver", "driven")))
     }
 }
 

@@ -6,7 +6,9 @@ pub mod json;
 
 use std::io::Write;
 
-use super::{Completion, Document, RenderError, Report};
+use super::fields::TrainJson;
+use super::words::describe_error;
+use super::{pictures, Completion, Document, Drawing, RenderError, Report};
 use crate::trades::reducer::ReducerPlan;
 
 impl Report for ReducerPlan {
@@ -28,5 +30,11 @@ impl Report for ReducerPlan {
 
     fn json(&self, w: &mut dyn Write) -> Result<(), RenderError> {
         json::write(self, w)
+    }
+
+    fn drawing(&self) -> Option<Drawing> {
+        let best = self.trains.first()?;
+        let title = format!("Reducer train 1: i = {} ({})", best.ratio, describe_error(&best.error));
+        Some(pictures::train(&TrainJson::from_train(best).stages, &title, ("motor", "output")))
     }
 }

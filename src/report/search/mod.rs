@@ -10,7 +10,8 @@ pub mod stream;
 
 use std::io::Write;
 
-use super::{Completion, Document, RenderError, Report};
+use super::words::describe_error_f64;
+use super::{pictures, Completion, Document, Drawing, RenderError, Report};
 use crate::engine::{Outcome, Shard};
 use crate::model::problem::Problem;
 
@@ -53,6 +54,10 @@ impl Report for SearchReport<'_> {
     fn json(&self, w: &mut dyn Write) -> Result<(), RenderError> {
         self.doc().json(w)
     }
+
+    fn drawing(&self) -> Option<Drawing> {
+        self.doc().drawing()
+    }
 }
 
 /// A search's JSON document, read back or merged from the parts of a split search: the same
@@ -76,5 +81,17 @@ impl Report for json::Doc {
 
     fn json(&self, w: &mut dyn Write) -> Result<(), RenderError> {
         Ok(json::write_doc(self, w)?)
+    }
+
+    /// The best train listed.
+    fn drawing(&self) -> Option<Drawing> {
+        let best = self.trains.first()?;
+        let title = format!(
+            "Train 1 for ratio {}: i = {} ({})",
+            self.target.ratio,
+            best.ratio,
+            describe_error_f64(best.error)
+        );
+        Some(pictures::train(&best.stages, &title, ("input", "output")))
     }
 }

@@ -6,7 +6,8 @@ pub mod json;
 
 use std::io::Write;
 
-use super::{Completion, Document, RenderError, Report};
+use super::fields::TrainJson;
+use super::{pictures, Completion, Document, Drawing, RenderError, Report};
 use crate::trades::thread::chart::Chart;
 use crate::trades::thread::{Lathe, Rejected, ThreadPlan};
 
@@ -49,6 +50,20 @@ impl Report for ThreadReport<'_> {
 
     fn json(&self, w: &mut dyn Write) -> Result<(), RenderError> {
         json::write_thread(self, w)
+    }
+
+    /// The best setup, its stages from the stud (shaft 1) to the leadscrew.
+    fn drawing(&self) -> Option<Drawing> {
+        let best = self.plan.setups.first()?;
+        let mut train = TrainJson::from_train(&best.train);
+        train.stages = best.fit.order.iter().filter_map(|&k| train.stages.get(k).cloned()).collect();
+        let title = format!(
+            "Setup 1 for {}: stud {} … leadscrew {}",
+            self.plan.thread.pitch,
+            best.stud(),
+            best.leadscrew()
+        );
+        Some(pictures::train(&train.stages, &title, ("stud", "leadscrew")))
     }
 }
 

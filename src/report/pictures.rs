@@ -1,0 +1,167 @@
+//! Pictures of results: a train drawn to scale on its shafts, and one pair. Each gear is drawn
+//! with its pitch, base and root circles and its tip (its true tooth outline where the geometry
+//! provides one); gears sharing a shaft are drawn on their planes, the front plane solid and the
+//! back plane dashed, so a compound train reads at a glance; each line of centres carries its
+//! working centre distance. Built from finished results (the JSON views every format shares);
+//! shaft positions come from [`crate::geometry::layout`].
+
+use super::drawing::{Drawing, Pen, Shape};
+use super::fields::StageJson;
+use crate::geometry::layout::{shaft_centres, ShaftLayout};
+use crate::geometry::RackProfile;
+use crate::model::pool::fmt_num;
+
+/// Letter height of labels, mm, for a picture whose largest gear has radius `r_mm`.
+fn label_mm(r_mm: f64) -> f64 {
+    (r_mm / 8.0).clamp(2.0, 6.0)
+}
+
+/// One gear of a picture: where it sits and what it is.
+struct GearAt {
+    shaft: usize,
+    centre: [f64; 2],
+    teeth: u32,
+    module_mm: f64,
+    pressure_angle_deg: f64,
+    shift: f64,
+    tip_diameter_mm: f64,
+    back: bool,
+}
+
+impl GearAt {
+    fn shapes(&self, rack: RackProfile, out: &mut Vec<Shape>) {
+        let m = self.module_mm;
+        let d = m * self.teeth as f64;
+        let base = d * self.pressure_angle_deg.to_radians().cos();
+        let root = d - 2.0 * m * (rack.dedendum - self.shift);
+        let c = self.centre;
+        let circle = |r: f64, pen| Shape::Circle { centre: c, radius_mm: r, pen };
+        out.push(circle(root / 2.0, Pen::Root));
+        out.push(circle(base / 2.0, Pen::Base));
+        out.push(circle(d / 2.0, Pen::Pitch));
+        out.push(circle(self.tip_diameter_mm / 2.0, if self.back { Pen::BackPlane } else { Pen::Outline }));
+    }
+}
+
+/// The gears of stage `k` placed on shaft `k` at `from` (driver) and shaft `k + 1` at `to`
+/// (driven).
+fn stage_gears(
+    s: &StageJson,
+    k: usize,
+    rack: RackProfile,
+    from: [f64; 2],
+    to: [f64; 2],
+    back: bool,
+) -> [GearAt; 2] {
+    let shift = s.shift.unwrap_or([0.0, 0.0]);
+    let tip = |k: usize, z: u32| {
+        s.tip_diameter_mm.map_or(s.module_mm * (z as f64 + 2.0 * (rack.addendum + shift[k])), |t| t[k])
+    };
+    let gear = |i: usize, centre: [f64; 2], teeth: u32| GearAt {
+        shaft: k + i,
+        centre,
+        teeth,
+        module_mm: s.module_mm,
+        pressure_angle_deg: s.pressure_angle_deg,
+        shift: shift[i],
+        tip_diameter_mm: tip(i, teeth),
+        back,
+    };
+    [gear(0, from, s.driver), gear(1, to, s.driven)]
+}
+
+/// What the first and the last shaft of a train are called in the trade's words: `input` and
+/// `output`, `stud` and `leadscrew`, `centre arbor` and `escape arbor`.
+pub type ShaftNames<'a> = (&'a str, &'a str);
+
+/// A train drawn to scale on its shafts, in a line with the input on the left, with `title`
+/// over it.
+pub fn train(stages: &[StageJson], title: &str, names: ShaftNames) -> Drawing {
+    train_laid_out(stages, title, names, ShaftLayout::Inline)
+}
+
+/// A train drawn to scale on shafts laid out as `layout` says (a reverted train folded back
+/// onto its input axis, for one).
+pub fn train_laid_out(stages: &[StageJson], title: &str, names: ShaftNames, layout: ShaftLayout) -> Drawing {
+    let rack = RackProfile::default();
+    let distances: Vec<f64> = stages
+        .iter()
+        .map(|s| s.working_centre_distance_mm.unwrap_or(s.reference_centre_distance_mm))
+        .collect();
+    let shafts = shaft_centres(&distances, layout);
+    let mut gears = Vec::new();
+    for (k, s) in stages.iter().enumerate() {
+        // Successive meshes alternate between the front and the back plane.
+        gears.extend(stage_gears(s, k, rack, shafts[k], shafts[k + 1], k % 2 == 1));
+    }
+    let largest = gears.iter().map(|g| g.tip_diameter_mm / 2.0).fold(0.0, f64::max);
+    let left = gears.iter().map(|g| g.centre[0] - g.tip_diameter_mm / 2.0).fold(0.0, f64::min);
+    let right = gears.iter().map(|g| g.centre[0] + g.tip_diameter_mm / 2.0).fold(0.0, f64::max);
+    let text = label_mm((right - left) / 8.0);
+    let mut shapes = Vec::new();
+    // Back plane first, so the front plane is drawn over it.
+    for g in gears.iter().filter(|g| g.back).chain(gears.iter().filter(|g| !g.back)) {
+        g.shapes(rack, &mut shapes);
+    }
+    // Each centre distance dimensioned beside its line of centres, on the right of the way the
+    // train runs (below an in-line train), clear of the gears.
+    let clear = largest + 1.5 * text;
+    for (k, pair) in shafts.windows(2).enumerate() {
+        let (p, q) = (pair[0], pair[1]);
+        shapes.push(Shape::Line { from: p, to: q, pen: Pen::Centre });
+        let len = (q[0] - p[0]).hypot(q[1] - p[1]).max(f64::MIN_POSITIVE);
+        let (u, nrm) =
+            ([(q[0] - p[0]) / len, (q[1] - p[1]) / len], [(q[1] - p[1]) / len, -(q[0] - p[0]) / len]);
+        let off = |at: [f64; 2], by: f64| [at[0] + nrm[0] * by, at[1] + nrm[1] * by];
+        let (a, b) = (off(p, clear), off(q, clear));
+        shapes.push(Shape::Line { from: a, to: b, pen: Pen::Dimension });
+        for end in [a, b] {
+            let tick = |by: f64| [end[0] + nrm[0] * by, end[1] + nrm[1] * by];
+            shapes.push(Shape::Line { from: tick(-0.4 * text), to: tick(0.4 * text), pen: Pen::Dimension });
+        }
+        let figure = format!("a{} = {}", k + 1, fmt_num(distances[k]));
+        // A figure too wide for its span drops a row on every other span.
+        let fits = 0.6 * text * figure.chars().count() as f64 <= len * u[0].abs().max(u[1].abs());
+        let row = if fits || k % 2 == 0 { 1.0 } else { 2.2 };
+        let mid = [(a[0] + b[0]) / 2.0, (a[1] + b[1]) / 2.0];
+        shapes.push(Shape::Text { at: off(mid, row * text), text: figure, size_mm: text });
+    }
+    // Shafts numbered beside their centres; what each carries is in the notes.
+    let mut carries = Vec::new();
+    for (k, c) in shafts.iter().enumerate() {
+        shapes.push(Shape::Circle { centre: *c, radius_mm: text * 0.25, pen: Pen::Centre });
+        // Shafts on one axis (a reverted train) share one label: `1, 3`.
+        let same: Vec<String> = (0..shafts.len())
+            .filter(|&j| (shafts[j][0] - c[0]).hypot(shafts[j][1] - c[1]) < 1e-6)
+            .map(|j| (j + 1).to_string())
+            .collect();
+        if same.first() == Some(&(k + 1).to_string()) {
+            let label = same.join(", ");
+            let at = [c[0] + 0.4 * text * (label.chars().count() as f64 + 1.0), c[1] + 0.8 * text];
+            shapes.push(Shape::Text { at, text: label, size_mm: text });
+        }
+        let on_shaft: Vec<String> = gears
+            .iter()
+            .filter(|g| g.shaft == k)
+            .map(|g| format!("{} teeth{}", g.teeth, if g.back { " (back plane)" } else { "" }))
+            .collect();
+        let name = if k == 0 {
+            format!(" ({})", names.0)
+        } else if k + 1 == shafts.len() {
+            format!(" ({})", names.1)
+        } else {
+            String::new()
+        };
+        carries.push(format!("shaft {}{name}: {}", k + 1, on_shaft.join(" + ")));
+    }
+    Drawing {
+        title: title.to_string(),
+        shapes,
+        notes: vec![
+            format!("{}.", carries.join("; ")),
+            "Centre distances a in mm. Solid: front plane; dashed grey: back plane of a shared shaft. \
+             Circles: tip, pitch (dash-dot), base (thin), root (dotted). Drawn to scale."
+                .to_string(),
+        ],
+    }
+}
