@@ -46,8 +46,8 @@ pub fn document(p: &ReducerPlan) -> Document {
             Hunting::Ignore => "not considered",
         },
         match s.priority {
-            Priority::Balance => "hunting pairs, stage balance, error, teeth",
-            Priority::Error => "error, hunting pairs, stage balance, teeth",
+            Priority::Balance => "hunting pairs, stage balance in steps of 10%, error, size",
+            Priority::Error => "error, hunting pairs, stage balance in steps of 10%, size",
         }
     ));
     d.blank();

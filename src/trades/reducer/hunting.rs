@@ -28,13 +28,26 @@ pub fn spread(t: &Train) -> f64 {
     }
 }
 
+/// Stage balance is ranked in steps of this factor of spread: trains whose spreads lie within
+/// one step count as equally balanced, so a negligible gain in balance never outranks a better
+/// ratio (within a step, the ratio error decides).
+pub const BALANCE_STEP: f64 = 1.1;
+
+/// The step of balance a train falls in: 0 for a spread below [`BALANCE_STEP`], 1 below its
+/// square, and so on.
+pub fn balance_class(t: &Train) -> u32 {
+    // A hair of slack so a spread of exactly one step's worth is not split by rounding.
+    (spread(t).ln() / BALANCE_STEP.ln() - 1e-9).floor().max(0.0) as u32
+}
+
 /// The ranking key: the count of non-hunting pairs when they are to be avoided, plus the
-/// spread mapped into `[0, 1)`, so that fewer non-hunting pairs always rank first and balance
-/// decides among equals. Smaller is better.
+/// balance class mapped into `[0, 1)`, so that fewer non-hunting pairs always rank first and
+/// the balance class decides among equals; trains of one class are left to the next key (the
+/// ratio error). Smaller is better.
 pub fn balance_key(t: &Train, prefer_hunting: bool) -> f64 {
-    let s = spread(t).ln();
+    let class = balance_class(t) as f64;
     let penalty = if prefer_hunting { non_hunting(t) as f64 } else { 0.0 };
-    penalty + s / (1.0 + s)
+    penalty + class / (1.0 + class)
 }
 
 #[cfg(test)]
@@ -78,5 +91,17 @@ mod tests {
         // Hunting counts first: the uneven hunting train beats the even non-hunting one.
         assert!(balance_key(&hunting_uneven, true) < balance_key(&even, true));
         assert!(balance_key(&uneven, true) < 3.0);
+    }
+
+    #[test]
+    fn spreads_within_one_step_are_equally_balanced() {
+        // 1.000 and 1.044 are one class (within 10 %); 1.25 is two steps of 1.1 further.
+        let level = train(&[(23, 77), (23, 77), (23, 77)]);
+        let near = train(&[(20, 68), (23, 75), (22, 74)]);
+        let far = train(&[(20, 60), (20, 75), (20, 80)]);
+        assert_eq!(balance_class(&level), 0);
+        assert!(spread(&near) > 1.0 && spread(&near) < 1.1, "{}", spread(&near));
+        assert_eq!(balance_key(&level, false), balance_key(&near, false));
+        assert!(balance_key(&far, false) > balance_key(&near, false));
     }
 }

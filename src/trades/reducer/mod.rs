@@ -48,7 +48,8 @@ pub enum Hunting {
 /// What ranks first.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
 pub enum Priority {
-    /// Hunting pairs (when preferred), then balance, then ratio error, then teeth.
+    /// Hunting pairs (when preferred), then balance in steps of [`hunting::BALANCE_STEP`], then
+    /// ratio error, then size.
     Balance,
     /// Ratio error, then hunting and balance, then teeth.
     Error,
