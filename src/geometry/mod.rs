@@ -16,6 +16,8 @@
 //! - [`defect`]: the words for what can be wrong: [`MeshDefect`], [`GearRef`], [`Role`].
 //! - [`check`]: [`MeshLimits`] and [`check_mesh`].
 //! - [`modules`]: DIN 780 module series and diametral pitch.
+//! - [`outline`]: the true outline of a gear as its basic rack cuts it (involute, root fillet,
+//!   undercut), as a polygon, and the rotation that makes two outlines mesh.
 //!
 //! Units: lengths in mm, angles in degrees at the interface (radians where the name says
 //! `_rad`), profile shift, tip shortening and rack dimensions in modules. Gears are external
@@ -25,6 +27,7 @@ pub mod check;
 pub mod defect;
 pub mod involute;
 pub mod modules;
+pub mod outline;
 pub mod pair;
 pub mod system;
 pub mod working;
