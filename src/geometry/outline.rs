@@ -48,6 +48,15 @@
 //! get equal steps whose sagitta `R·(1 − cos(Δ/2))` is within the tolerance. Every vertex lies
 //! on the true curve (to rounding).
 //!
+//! # Speed
+//!
+//! Measured with `cargo bench --bench outline` (criterion, release build, on a two-core machine
+//! shared with other work), ISO 53 type A at 20°, 1 µm tolerance: module 1, 100 teeth, no shift
+//! (5 200 points) in about 16 µs; module 5, 100 teeth, shift 0.3 (10 200 points) in about 23 µs;
+//! the undercut module 1, 12 teeth, shift −0.3 (960 points) in about 27 µs, most of it spent
+//! finding where the fillet crosses the involute. One flank is traced and the rest copied, so
+//! the tooth count costs only the copying.
+//!
 //! Units: lengths in mm, angles in radians (`_rad`), profile shift and tip shortening in modules.
 //! Angles count counter-clockwise with y up; a renderer whose y axis points down mirrors them.
 
