@@ -69,8 +69,8 @@ use super::working::MeshGeometry;
 /// The default chordal tolerance: one micrometre, in mm.
 pub const DEFAULT_TOLERANCE_MM: f64 = 0.001;
 
-/// The finest chordal tolerance accepted, mm. The number of points grows as the inverse square
-/// root of the tolerance; this keeps a slip of a digit from asking for millions of them.
+/// The finest chordal tolerance accepted, mm. Finer ones are refused: the number of points grows
+/// as the inverse square root of the tolerance, and no drawing or machine can use them.
 pub const MIN_TOLERANCE_MM: f64 = 1e-7;
 
 /// Pieces each curve is cut into before subdivision starts, so that the midpoint test never
@@ -863,7 +863,8 @@ mod tests {
 
     #[test]
     fn tooth_thickness_on_the_reference_circle() {
-        // ISO 21771: s = m(π/2 + 2x·tan α), as an arc of the reference circle. Measured on the
+        // ISO 21771 (from memory): s = m(π/2 + 2x·tan α), as an arc of the reference circle.
+        // Measured on the
         // polygon itself (traced to 1e-7 mm), where it crosses the reference circle, on
         // several teeth.
         for (module, deg, root_radius) in [(1.0, 20.0, 0.38), (2.5, 20.0, 0.38), (4.0, 25.0, 0.3)] {
@@ -893,7 +894,8 @@ mod tests {
 
     #[test]
     fn outline_reaches_the_tip_and_root_circles() {
-        // d_a = d + 2m(ha* + x − k), d_f = d − 2m(hf* − x) (ToothSystem, ISO 21771).
+        // d_a = d + 2m(ha* + x − k), d_f = d − 2m(hf* − x) (ISO 21771, from memory; the
+        // formulas of ToothSystem::tip_diameter_mm and root_diameter_mm).
         let s = system(2.0, 20.0);
         for (z, x, k) in [(12, 0.5, 0.0), (17, 0.0, 0.1), (40, -0.3, 0.0), (100, 0.6, 0.2), (23, 0.2, 0.05)] {
             let o = gear_outline(&s, z, x, k, DEFAULT_TOLERANCE_MM).unwrap();
@@ -963,7 +965,7 @@ mod tests {
 
     #[test]
     fn iso_53_rack_undercuts_where_its_straight_flank_ends() {
-        // The ISO 53 type A fillet (0.38 m at 20°) ends the straight flank
+        // The ISO 53 type A fillet (0.38 m at 20°, from memory) ends the straight flank
         // hf* − ρf*·(1 − sin α) = 0.999968 modules below the datum line, a hair above the
         // addendum, so this rack undercuts from 3.2e-5 modules below ToothSystem::min_shift.
         let s = system(1.0, 20.0);
@@ -973,6 +975,11 @@ mod tests {
             assert!((s.min_shift(z) - limit - 3.2e-5).abs() < 1e-6);
             let at = |x: f64| gear_outline(&s, z, x, 0.0, 1e-7).unwrap();
             assert!(!at(limit + 1e-9).undercut && at(limit - 1e-9).undercut, "z {z}");
+            // Right at the limit the fillet and the involute meet on the base circle.
+            for o in [at(limit + 1e-9), at(limit - 1e-9)] {
+                assert!((o.form_radius_mm - o.base_radius_mm).abs() < 1e-9);
+                assert_simple_ccw(&o, &format!("z {z} at the limit"));
+            }
             assert!(!at(s.min_shift(z) - 1e-5).undercut);
             let (above, below) = (s.min_shift(z) + 0.05, s.min_shift(z) - 0.05);
             assert!(cut_into_involute(&s, &at(above), z, above) < 2e-7);
@@ -1192,8 +1199,9 @@ mod tests {
                 let ccw = mesh_rotation(&mesh, driver, BacklashSide::DriverCounterClockwise);
                 let cw = mesh_rotation(&mesh, driver, BacklashSide::DriverClockwise);
                 let what = format!("m {module} {teeth:?} driver {driver}");
-                // Split: the normal gap on each side is half the backlash along the line of
-                // action, j·cos α_w / 2.
+                // Split: the normal gap on each side is half the backlash taken along the line
+                // of action, j·cos α_w / 2 (the flanks of mating involutes are both normal to
+                // it where they cross it: common practice).
                 let gap = pair.clearance(driver, split);
                 assert!((gap - mesh.backlash_mm * cos_w / 2.0).abs() < 3.0 * tol, "{what}: gap {gap}");
                 // Driving either way: touching, not overlapping.
