@@ -20,6 +20,8 @@
 //!   interference checks of [`internal::check_internal_mesh`].
 //! - [`modules`]: DIN 780 module series and diametral pitch.
 //! - [`layout`]: where the shafts of a compound train sit.
+//! - [`outline`]: the true outline of a gear as its basic rack cuts it (involute, root fillet,
+//!   undercut), as a polygon, and the rotation that makes two outlines mesh.
 //!
 //! Units: lengths in mm, angles in degrees at the interface (radians where the name says
 //! `_rad`), profile shift, tip shortening and rack dimensions in modules. Gears are external
@@ -31,6 +33,7 @@ pub mod internal;
 pub mod involute;
 pub mod layout;
 pub mod modules;
+pub mod outline;
 pub mod pair;
 pub mod system;
 pub mod working;
