@@ -5,6 +5,7 @@
 
 mod args;
 mod clock;
+mod draw;
 mod flags;
 mod merge;
 mod mesh;
@@ -61,6 +62,8 @@ enum Command {
     Clock(clock::ClockArgs),
     /// A spur reducer: a module per stage, balanced stages, hunting-tooth pairs, housing fit.
     Reducer(Box<reducer::ReducerArgs>),
+    /// Draw a train to scale with true teeth, or write one gear's outline to cut (SVG, DXF).
+    Draw(Box<draw::DrawArgs>),
 }
 
 /// Parse the command line, run, and return the exit status.
@@ -87,6 +90,7 @@ pub fn run() -> i32 {
         Command::Chart(args) => thread::run_chart(*args),
         Command::Clock(args) => clock::run(args),
         Command::Reducer(args) => reducer::run(*args),
+        Command::Draw(args) => draw::run(*args),
     };
     match result {
         Ok(code) => code,

@@ -228,6 +228,27 @@ pub struct StageJson {
     pub tip_diameter_mm: Option<[f64; 2]>,
 }
 
+impl StageJson {
+    /// A stage of gears cut without profile shift, at the reference centre distance.
+    pub fn plain(driver: u32, driven: u32, module_mm: f64, pressure_angle_deg: f64) -> StageJson {
+        StageJson {
+            driver,
+            driven,
+            module_mm,
+            pressure_angle_deg,
+            diametral_pitch: None,
+            reference_centre_distance_mm: module_mm * f64::from(driver + driven) / 2.0,
+            driver_labels: Vec::new(),
+            driven_labels: Vec::new(),
+            shift: None,
+            working_centre_distance_mm: None,
+            working_pressure_angle_deg: None,
+            contact_ratio: None,
+            tip_diameter_mm: None,
+        }
+    }
+}
+
 impl TrainJson {
     /// The JSON view of a train.
     pub fn from_train(t: &Train) -> TrainJson {

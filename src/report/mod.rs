@@ -25,6 +25,7 @@ pub mod fields;
 pub mod markdown;
 pub mod mesh;
 pub mod pictures;
+pub mod profile;
 pub mod reducer;
 pub mod search;
 pub mod svg;

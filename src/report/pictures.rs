@@ -7,9 +7,14 @@
 
 use super::drawing::{Drawing, Pen, Shape};
 use super::fields::StageJson;
+use super::{Completion, Document, Report, Table};
 use crate::geometry::layout::{shaft_centres, ShaftLayout};
-use crate::geometry::RackProfile;
+use crate::geometry::outline::{gear_outline, mesh_rotation, BacklashSide, Outline};
+use crate::geometry::{mesh_geometry, Mounting, RackProfile, ToothSystem};
 use crate::model::pool::fmt_num;
+
+/// Chordal tolerance of tooth outlines in pictures, mm: finer than a printed line is wide.
+const PICTURE_TOLERANCE_MM: f64 = 0.01;
 
 /// Letter height of labels, mm, for a picture whose largest gear has radius `r_mm`.
 fn label_mm(r_mm: f64) -> f64 {
@@ -20,6 +25,8 @@ fn label_mm(r_mm: f64) -> f64 {
 struct GearAt {
     shaft: usize,
     centre: [f64; 2],
+    /// The true tooth outline and its rotation, when the geometry could work it out.
+    outline: Option<(Outline, f64)>,
     teeth: u32,
     module_mm: f64,
     pressure_angle_deg: f64,
@@ -36,15 +43,23 @@ impl GearAt {
         let root = d - 2.0 * m * (rack.dedendum - self.shift);
         let c = self.centre;
         let circle = |r: f64, pen| Shape::Circle { centre: c, radius_mm: r, pen };
-        out.push(circle(root / 2.0, Pen::Root));
+        let pen = if self.back { Pen::BackPlane } else { Pen::Outline };
         out.push(circle(base / 2.0, Pen::Base));
         out.push(circle(d / 2.0, Pen::Pitch));
-        out.push(circle(self.tip_diameter_mm / 2.0, if self.back { Pen::BackPlane } else { Pen::Outline }));
+        match &self.outline {
+            Some((outline, rotation)) => {
+                out.push(Shape::Path { points: outline.placed(c, *rotation), closed: true, pen })
+            }
+            None => {
+                out.push(circle(root / 2.0, Pen::Root));
+                out.push(circle(self.tip_diameter_mm / 2.0, pen));
+            }
+        }
     }
 }
 
 /// The gears of stage `k` placed on shaft `k` at `from` (driver) and shaft `k + 1` at `to`
-/// (driven).
+/// (driven), with their true outlines turned so that their teeth interleave.
 fn stage_gears(
     s: &StageJson,
     k: usize,
@@ -54,12 +69,14 @@ fn stage_gears(
     back: bool,
 ) -> [GearAt; 2] {
     let shift = s.shift.unwrap_or([0.0, 0.0]);
-    let tip = |k: usize, z: u32| {
-        s.tip_diameter_mm.map_or(s.module_mm * (z as f64 + 2.0 * (rack.addendum + shift[k])), |t| t[k])
+    let tip = |i: usize, z: u32| {
+        s.tip_diameter_mm.map_or(s.module_mm * (z as f64 + 2.0 * (rack.addendum + shift[i])), |t| t[i])
     };
+    let outlines = stage_outlines(s, rack, shift, from, to);
     let gear = |i: usize, centre: [f64; 2], teeth: u32| GearAt {
         shaft: k + i,
         centre,
+        outline: outlines.as_ref().map(|o| o[i].clone()),
         teeth,
         module_mm: s.module_mm,
         pressure_angle_deg: s.pressure_angle_deg,
@@ -68,6 +85,25 @@ fn stage_gears(
         back,
     };
     [gear(0, from, s.driver), gear(1, to, s.driven)]
+}
+
+/// Both gears' outlines and rotations for a pair meshing tight with these shifts along the line
+/// from `from` to `to`, backlash split; `None` when the geometry cannot work the pair out (the
+/// picture then shows tip and root circles).
+fn stage_outlines(
+    s: &StageJson,
+    rack: RackProfile,
+    shift: [f64; 2],
+    from: [f64; 2],
+    to: [f64; 2],
+) -> Option<[(Outline, f64); 2]> {
+    let system = ToothSystem::new(s.module_mm, s.pressure_angle_deg, rack).ok()?;
+    let teeth = [s.driver, s.driven];
+    let mesh = mesh_geometry(&system, teeth, Mounting::Shifted { shift }).ok()?;
+    let heading = (to[1] - from[1]).atan2(to[0] - from[0]);
+    let outline =
+        |i: usize| gear_outline(&system, teeth[i], shift[i], mesh.tip_shortening, PICTURE_TOLERANCE_MM).ok();
+    Some([(outline(0)?, heading), (outline(1)?, heading + mesh_rotation(&mesh, 0.0, BacklashSide::Split))])
 }
 
 /// What the first and the last shaft of a train are called in the trade's words: `input` and
@@ -160,8 +196,55 @@ pub fn train_laid_out(stages: &[StageJson], title: &str, names: ShaftNames, layo
         notes: vec![
             format!("{}.", carries.join("; ")),
             "Centre distances a in mm. Solid: front plane; dashed grey: back plane of a shared shaft. \
-             Circles: tip, pitch (dash-dot), base (thin), root (dotted). Drawn to scale."
+             Teeth as the basic rack cuts them; circles: pitch (dash-dot), base (thin). Drawn to scale."
                 .to_string(),
         ],
+    }
+}
+
+/// A train to look at, given by its stages (`gearsieve draw --stages`, or one train of a
+/// result file): the picture, and its stages as a table.
+#[derive(Debug, Clone)]
+pub struct TrainPicture {
+    /// What the picture shows.
+    pub title: String,
+    /// The stages, input to output.
+    pub stages: Vec<StageJson>,
+    /// How its first and last shafts are called.
+    pub names: (String, String),
+    /// How its shafts are laid out.
+    pub layout: ShaftLayout,
+}
+
+impl Report for TrainPicture {
+    fn kind(&self) -> &'static str {
+        "a train picture"
+    }
+
+    fn completion(&self) -> Completion {
+        Completion { complete: true, found: !self.stages.is_empty() }
+    }
+
+    fn document(&self) -> Option<Document> {
+        let mut d = Document::new();
+        d.title(&self.title);
+        d.blank();
+        let rows = Table::numbered(&self.stages, |s| {
+            vec![
+                s.driver.to_string(),
+                s.driven.to_string(),
+                fmt_num(s.module_mm),
+                fmt_num(s.working_centre_distance_mm.unwrap_or(s.reference_centre_distance_mm)),
+            ]
+        });
+        d.table(
+            Table::new(&["stage", "driver", "driven", "module mm", "centre distance mm"], &[0, 1, 2, 4])
+                .with_rows(rows),
+        );
+        Some(d)
+    }
+
+    fn drawing(&self) -> Option<Drawing> {
+        Some(train_laid_out(&self.stages, &self.title, (&self.names.0, &self.names.1), self.layout))
     }
 }
