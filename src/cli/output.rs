@@ -65,6 +65,12 @@ impl Sink {
             Sink::File { tmp, path } => {
                 let path = if complete { path } else { incomplete_name(&path) };
                 let tmp = tmp.into_inner().map_err(|e| e.into_error())?;
+                // A temporary file is private to its owner; the result is an ordinary file.
+                #[cfg(unix)]
+                {
+                    use std::os::unix::fs::PermissionsExt;
+                    tmp.as_file().set_permissions(std::fs::Permissions::from_mode(0o644))?;
+                }
                 tmp.as_file().sync_all()?;
                 tmp.persist(&path).map_err(|e| e.error)?;
                 Ok(Some(path))
