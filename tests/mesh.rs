@@ -288,13 +288,20 @@ fn bad_input_names_the_flag_and_what_is_wanted() {
     bad(&["--teeth", "12,40,60", "--module", "2"], "--teeth", two_counts);
     bad(&["--teeth", "12,x", "--module", "2"], "--teeth", two_counts);
     bad(&["--teeth", "2,40", "--module", "2"], "--teeth", "each from 3 to 1000");
-    bad(&["--teeth", "12,40", "--module", "0"], "--module", "positive number of millimetres");
-    bad(&["--teeth", "12,40", "--module", "inf"], "--module", "positive");
-    bad(&["--teeth", "12,40", "--diametral-pitch", "-4"], "--diametral-pitch", "teeth per inch");
+    // The same limits as search and every other command: module 0.05 to 100 mm.
+    let module = "module must be a number of mm from 0.05 to 100";
+    bad(&["--teeth", "12,40", "--module", "0"], "--module", module);
+    bad(&["--teeth", "12,40", "--module", "inf"], "--module", module);
+    bad(&["--teeth", "12,40", "--module", "1e9"], "--module", &format!("{module}, found 1000000000"));
+    bad(
+        &["--teeth", "12,40", "--diametral-pitch", "-4"],
+        "--diametral-pitch",
+        "teeth per inch from 0.254 to 508",
+    );
     bad(
         &["--teeth", "12,40", "--module", "2", "--pressure-angle", "90"],
         "--pressure-angle",
-        "between 0 and 90",
+        "pressure angle must be from 10° to 35°, found 90",
     );
     bad(&["--teeth", "12,40", "--module", "2", "--shift", "0.3"], "--shift", "two profile shifts");
     bad(
@@ -311,12 +318,12 @@ fn bad_input_names_the_flag_and_what_is_wanted() {
     bad(
         &["--teeth", "12,40", "--module", "2", "--min-contact-ratio", "nan"],
         "--min-contact-ratio",
-        "zero or more",
+        "wanted a number of 0 or more such as 1.2, found NaN",
     );
     bad(
         &["--teeth", "12,40", "--module", "2", "--centre-distance", "wide"],
         "--centre-distance",
-        "positive working centre distance in mm",
+        "\"wide\" is not a number; wanted a length above 0 in mm such as 52.5, or with a unit",
     );
     bad(
         &["--teeth", "12,40", "--module", "2", "--centre-distance", "53", "--shift-sum", "2..1"],

@@ -11,7 +11,7 @@ use gearsieve::model::catalog::{self, CatalogueDefaults};
 use gearsieve::model::pool::{
     Pool, StockGear, MAX_TEETH, MIN_TEETH, MODULE_RANGE_MM, PRESSURE_ANGLE_RANGE_DEG,
 };
-use gearsieve::numbers::range::{parse_float_range, parse_int_range, parse_ratio_range};
+use gearsieve::numbers::range::{parse_int_range, parse_length_range, parse_ratio_range};
 use gearsieve::numbers::rational::{gcd, Ratio};
 use gearsieve::numbers::target::{parse_ratio, parse_tolerance};
 use gearsieve::Quantity;
@@ -30,7 +30,7 @@ pub struct TextOutcome {
     pub int_range: bool,
     /// `parse_ratio_range` returned a range.
     pub ratio_range: bool,
-    /// `parse_float_range` returned a range.
+    /// `parse_length_range` returned a range.
     pub float_range: bool,
 }
 
@@ -131,7 +131,7 @@ pub fn check_text(input: &str) -> TextOutcome {
         Err(e) => assert_names_quantity(&e.to_string(), Quantity::StageRatio, input),
     }
 
-    match parse_float_range(input, Quantity::CentreDistance, "mm") {
+    match parse_length_range(input, Quantity::CentreDistance) {
         Ok(r) => {
             seen.float_range = true;
             assert!(r.lo <= r.hi, "length range of {input:?} is inverted or NaN: {r:?}");

@@ -4,9 +4,9 @@ use std::path::PathBuf;
 
 use clap::{Args, ValueEnum};
 use gearsieve::model::catalog::{self, CatalogueDefaults};
-use gearsieve::model::pool::Pool;
+use gearsieve::model::pool::{check_module, Pool};
 use gearsieve::report::Format;
-use gearsieve::Error;
+use gearsieve::{Error, Quantity};
 
 /// The output format flag.
 #[derive(Clone, Copy, Debug, ValueEnum)]
@@ -49,8 +49,17 @@ pub struct PrintArgs {
     pub quiet: bool,
 }
 
-/// Load every `--stock` file into one pool.
-pub fn load_stock(files: &[PathBuf], defaults: CatalogueDefaults) -> Result<Pool, Error> {
+/// Load every `--stock` file into one pool. A default module given on the command line (as
+/// `module_from`) is checked first, so that its error names that flag and not the first row
+/// that lacks a module.
+pub fn load_stock(
+    files: &[PathBuf],
+    defaults: CatalogueDefaults,
+    module_from: Quantity,
+) -> Result<Pool, Error> {
+    if let Some(m) = defaults.module_mm {
+        check_module(m, &|e| Error::value(module_from, e))?;
+    }
     let mut gears = Vec::new();
     for f in files {
         gears.extend(catalog::load(f, defaults)?);

@@ -8,11 +8,15 @@ use std::path::PathBuf;
 use clap::{ArgGroup, Args, Subcommand};
 use gearsieve::model::catalog::CatalogueDefaults;
 use gearsieve::model::pool::{Pool, MAX_STAGES, MAX_TEETH, MIN_TEETH};
+use gearsieve::numbers::length::{parse_length, LengthUnit};
+use gearsieve::numbers::period::{parse_period, TimeUnit};
 use gearsieve::numbers::range::{parse_int_range, IntRange};
 use gearsieve::numbers::target::{parse_ratio, parse_tolerance};
 use gearsieve::report::Report;
 use gearsieve::trades::clock::astro::{AstroPlan, AstroSpec, InputArbor, Period};
-use gearsieve::trades::clock::beat::{Beat, Escapement, STANDARD_GRAVITY};
+use gearsieve::trades::clock::beat::{
+    parse_beats_per_hour, parse_gravity, Beat, Escapement, STANDARD_GRAVITY,
+};
 use gearsieve::trades::clock::going::{parse_rate_tolerance, GoingPlan, GoingSpec};
 use gearsieve::trades::clock::motion::{Dial, MotionPlan, MotionSpec};
 use gearsieve::trades::clock::{going, motion};
@@ -66,18 +70,21 @@ pub struct ClockGears {
 #[derive(Args, Debug)]
 #[command(group(ArgGroup::new("beat").required(true).args(["pendulum", "period", "beats_per_hour"])))]
 pub struct GoingArgs {
-    /// Pendulum length in m (simple pendulum, small swings): period 2π·√(L/g).
-    #[arg(long, value_name = "M", allow_negative_numbers = true)]
-    pub pendulum: Option<f64>,
-    /// Pendulum period in s, a full swing there and back (2 for a seconds pendulum).
-    #[arg(long, value_name = "S")]
+    /// Pendulum length in m (simple pendulum, small swings): period 2π·√(L/g). Other units:
+    /// 994mm, 39.13in.
+    #[arg(long, value_name = "M", allow_hyphen_values = true)]
+    pub pendulum: Option<String>,
+    /// Pendulum period in s, a full swing there and back (2 for a seconds pendulum). Other
+    /// units: 2s, 1.5min.
+    #[arg(long, value_name = "S", allow_hyphen_values = true)]
     pub period: Option<String>,
     /// Beats per hour (a beat is one swing, half a period).
-    #[arg(long, value_name = "N")]
+    #[arg(long, value_name = "N", allow_hyphen_values = true)]
     pub beats_per_hour: Option<String>,
-    /// Local gravity for --pendulum, m/s².
-    #[arg(long, value_name = "G", default_value_t = STANDARD_GRAVITY, allow_negative_numbers = true)]
-    pub gravity: f64,
+    /// Local gravity, m/s², from 1 to 30: sets the period of a --pendulum, and the simple
+    /// pendulum a --period or --beats-per-hour stands for.
+    #[arg(long, value_name = "G", default_value_t = STANDARD_GRAVITY.to_string(), allow_hyphen_values = true)]
+    pub gravity: String,
     /// Escape wheel teeth.
     #[arg(long, value_name = "N", default_value_t = 30)]
     pub escape_teeth: u32,
@@ -166,7 +173,11 @@ fn pool(g: &ClockGears, teeth: IntRange) -> Result<Pool, Error> {
     if g.stock.is_empty() {
         Pool::to_cut(teeth, g.module, 20.0, None)
     } else {
-        load_stock(&g.stock, CatalogueDefaults { module_mm: Some(g.module), pressure_angle_deg: 20.0 })
+        load_stock(
+            &g.stock,
+            CatalogueDefaults { module_mm: Some(g.module), pressure_angle_deg: 20.0 },
+            Quantity::Module,
+        )
     }
 }
 
@@ -182,10 +193,16 @@ impl TryFrom<&GoingArgs> for GoingSpec {
     type Error = anyhow::Error;
 
     fn try_from(a: &GoingArgs) -> anyhow::Result<GoingSpec> {
+        let gravity = parse_gravity(&a.gravity)?;
         let beat = match (&a.pendulum, &a.period, &a.beats_per_hour) {
-            (Some(m), _, _) => Beat::from_length(*m, a.gravity)?,
-            (None, Some(s), _) => Beat::from_period(parse_ratio(s, Quantity::PendulumPeriod)?),
-            (None, None, Some(b)) => Beat::from_beats_per_hour(parse_ratio(b, Quantity::BeatsPerHour)?),
+            (Some(l), _, _) => {
+                let length = parse_length(l, Quantity::PendulumLength, Some(LengthUnit::Metre))?;
+                Beat::from_length(length.mm_f64() / 1000.0, gravity)?
+            }
+            (None, Some(p), _) => {
+                Beat::from_period(parse_period(p, Quantity::PendulumPeriod, TimeUnit::Second)?, gravity)?
+            }
+            (None, None, Some(b)) => Beat::from_beats_per_hour(parse_beats_per_hour(b)?, gravity)?,
             _ => return Err(refuse("--period", "give --pendulum M, --period S or --beats-per-hour N")),
         };
         let wheels = teeth(&a.wheels, Quantity::WheelTeeth)?;
@@ -220,9 +237,6 @@ impl TryFrom<&MotionArgs> for MotionSpec {
         };
         let pinions = teeth(&a.pinions, Quantity::PinionLeaves)?;
         let wheels = teeth(&a.wheels, Quantity::WheelTeeth)?;
-        if !(a.min_contact_ratio.is_finite() && a.min_contact_ratio >= 0.0) {
-            return Err(refuse("--min-contact-ratio", "wanted a number of 0 or more, e.g. 1.2"));
-        }
         Ok(MotionSpec {
             ratio,
             ratio_text,

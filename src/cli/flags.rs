@@ -31,6 +31,7 @@ pub fn flag_for(quantity: Quantity) -> &'static str {
         Quantity::Direction => "--direction",
         Quantity::Module => "--module",
         Quantity::StageModules => "--modules",
+        Quantity::DiametralPitch => "--diametral-pitch",
         Quantity::PressureAngle => "--pressure-angle",
         Quantity::RankKeys => "--rank",
         Quantity::Limit => "--limit",
@@ -96,7 +97,7 @@ mod tests {
         assert!(e.to_string().starts_with("the target ratio: \"1e3x\" is not a number; wanted "), "{e}");
         assert_eq!(
             printed(e),
-            "--ratio: \"1e3x\" is not a number; wanted a positive number such as 12, 1.0583, 127/120, 37.5:1 or pi"
+            "--ratio: \"1e3x\" is not a number; wanted a positive number such as 12, 1.0583, 2.5e-1, 127/120, 37.5:1 or pi"
         );
         let e = parse_ratio("0", Quantity::InputTurnsPerHour).unwrap_err();
         assert!(printed(e).starts_with("--from-turns-per-hour: \"0\" is zero"));
@@ -106,9 +107,18 @@ mod tests {
 
     #[test]
     fn quantities_named_inside_a_message_become_flags_too() {
+        let e = Error::value(
+            Quantity::StageModules,
+            gearsieve::Message::from("give one per stage for ").quantity(Quantity::StageCount).text(" 3"),
+        );
+        assert_eq!(e.to_string(), "the module of each stage: give one per stage for the stage count 3");
+        assert_eq!(printed(e), "--modules: give one per stage for --stages 3");
+    }
+
+    #[test]
+    fn a_flag_is_named_once() {
         let e = parse_gearbox_list("A=1,A=2").unwrap_err();
-        assert_eq!(e.to_string(), "the gearbox: the gearbox position 2: position A is named twice");
-        assert_eq!(printed(e), "--gearbox: --gearbox position 2: position A is named twice");
+        assert_eq!(printed(e), "--gearbox: position 2: position A is named twice");
     }
 
     #[test]
@@ -154,6 +164,7 @@ mod tests {
             Quantity::Direction,
             Quantity::Module,
             Quantity::StageModules,
+            Quantity::DiametralPitch,
             Quantity::PressureAngle,
             Quantity::RankKeys,
             Quantity::Limit,

@@ -130,6 +130,7 @@ impl TryFrom<&ReducerArgs> for ReducerSpec {
             Some(load_stock(
                 &a.stock,
                 CatalogueDefaults { module_mm: a.modules.first().copied(), pressure_angle_deg: 20.0 },
+                Quantity::StageModules,
             )?)
         };
         let shift_sum = match &a.shift_sum {

@@ -5,18 +5,18 @@ use std::path::PathBuf;
 
 use clap::{Args, ValueEnum};
 use gearsieve::engine::Shard;
-use gearsieve::geometry::{module_from_diametral_pitch, MeshLimits};
+use gearsieve::geometry::MeshLimits;
 use gearsieve::model::catalog::CatalogueDefaults;
-use gearsieve::model::pool::{Pool, MAX_STAGES, MAX_TEETH, MIN_TEETH};
+use gearsieve::model::pool::{check_diametral_pitch, check_module, Pool, MAX_STAGES, MAX_TEETH, MIN_TEETH};
 use gearsieve::model::problem::MeshRules;
 use gearsieve::model::rank::parse_rank;
 use gearsieve::model::train::Direction;
-use gearsieve::numbers::range::{parse_float_range, parse_int_range, parse_ratio_range, parse_signed_range};
+use gearsieve::numbers::range::{parse_int_range, parse_length_range, parse_ratio_range, parse_signed_range};
 use gearsieve::numbers::target::Target;
 use gearsieve::report::search::stream::Stream;
 use gearsieve::report::search::SearchReport;
 use gearsieve::report::{RenderError, Report};
-use gearsieve::{EngineKind, Problem, Quantity, RunOptions, StageLimits};
+use gearsieve::{EngineKind, Error, Problem, Quantity, RunOptions, StageLimits};
 
 use super::args::{load_stock, FormatArg, PrintArgs};
 use super::flags::refuse;
@@ -156,18 +156,16 @@ pub struct SearchJob {
     long: bool,
 }
 
+/// The module the flags give (checked here, so that with `--stock` an error names the flag and
+/// not a catalogue row), with the diametral pitch it came from.
 fn module_from_flags(module: Option<f64>, dp: Option<f64>) -> anyhow::Result<Option<(f64, Option<f64>)>> {
-    match (module, dp) {
-        (Some(m), _) => Ok(Some((m, None))),
-        (None, Some(p)) => match module_from_diametral_pitch(p) {
-            Some(m) => Ok(Some((m, Some(p)))),
-            None => Err(refuse(
-                "--diametral-pitch",
-                format!("wanted a positive number of teeth per inch, found {p}"),
-            )),
-        },
-        (None, None) => Ok(None),
-    }
+    Ok(match (module, dp) {
+        (Some(m), _) => Some((check_module(m, &|e| Error::value(Quantity::Module, e))?, None)),
+        (None, Some(p)) => {
+            Some((check_diametral_pitch(p, &|e| Error::value(Quantity::DiametralPitch, e))?, Some(p)))
+        }
+        (None, None) => None,
+    })
 }
 
 impl TryFrom<SearchArgs> for SearchJob {
@@ -184,7 +182,7 @@ impl TryFrom<SearchArgs> for SearchJob {
         } else {
             let defaults =
                 CatalogueDefaults { module_mm: module.map(|m| m.0), pressure_angle_deg: a.pressure_angle };
-            load_stock(&a.stock, defaults)?
+            load_stock(&a.stock, defaults, Quantity::Module)?
         };
         let tooth_range = |s: &Option<String>, quantity: Quantity| {
             s.as_deref().map(|s| parse_int_range(s, quantity, "teeth", MIN_TEETH, MAX_TEETH)).transpose()
@@ -192,7 +190,7 @@ impl TryFrom<SearchArgs> for SearchJob {
         let centre = a
             .centre_distance
             .as_deref()
-            .map(|s| parse_float_range(s, Quantity::CentreDistance, "mm"))
+            .map(|s| parse_length_range(s, Quantity::CentreDistance))
             .transpose()?;
         let fixed_centre = centre.filter(|c| c.is_single()).map(|c| c.lo);
         let limits = StageLimits {

@@ -2,18 +2,19 @@
 //! the best setup for every thread of a series. The clap structs mirror the flags; `TryFrom`
 //! turns them into a validated [`Lathe`] and the thread or series to run.
 
-use std::path::{Path, PathBuf};
+use std::path::PathBuf;
 
 use clap::{ArgGroup, Args};
 use gearsieve::model::catalog::CatalogueDefaults;
 use gearsieve::model::pool::{Pool, MAX_STAGES, MAX_TEETH, MIN_TEETH};
-use gearsieve::numbers::range::{parse_float_range, parse_int_range};
+use gearsieve::numbers::length::{parse_length, LengthUnit};
+use gearsieve::numbers::range::{parse_int_range, parse_length_range};
 use gearsieve::numbers::target::{parse_ratio, parse_tolerance};
 use gearsieve::report::thread::{ChartReport, ThreadReport};
 use gearsieve::report::Report;
 use gearsieve::trades::thread::banjo::{load_banjo, Banjo};
 use gearsieve::trades::thread::chart::{chart, Chart};
-use gearsieve::trades::thread::machine::{load_gearbox, parse_gearbox_list, Machine};
+use gearsieve::trades::thread::machine::{parse_gearbox, Machine};
 use gearsieve::trades::thread::pitch::{parse_leadscrew, parse_pitch};
 use gearsieve::trades::thread::series::{built_in, load_list, SeriesEntry};
 use gearsieve::trades::thread::{Lathe, Rejected, ThreadPlan, ThreadSpec};
@@ -53,15 +54,15 @@ pub struct LatheArgs {
     /// shaft_diameter_mm); setups that cannot be set up on it are rejected.
     #[arg(long, value_name = "FILE", conflicts_with_all = ["stud_to_leadscrew", "intermediate_range", "shaft_diameter"])]
     pub banjo: Option<PathBuf>,
-    /// Banjo: distance between the stud and leadscrew axes, mm.
-    #[arg(long, value_name = "MM", requires_all = ["intermediate_range", "shaft_diameter"], allow_negative_numbers = true)]
-    pub stud_to_leadscrew: Option<f64>,
+    /// Banjo: distance between the stud and leadscrew axes, mm (or with a unit: 4.5in).
+    #[arg(long, value_name = "MM", requires_all = ["intermediate_range", "shaft_diameter"], allow_hyphen_values = true)]
+    pub stud_to_leadscrew: Option<String>,
     /// Banjo: distances from the leadscrew the intermediate stud can take, LO..HI mm.
-    #[arg(long, value_name = "LO..HI", requires_all = ["stud_to_leadscrew", "shaft_diameter"])]
+    #[arg(long, value_name = "LO..HI", requires_all = ["stud_to_leadscrew", "shaft_diameter"], allow_hyphen_values = true)]
     pub intermediate_range: Option<String>,
-    /// Banjo: diameter of the shafts and spacers the gears must clear, mm.
-    #[arg(long, value_name = "MM", requires_all = ["stud_to_leadscrew", "intermediate_range"], allow_negative_numbers = true)]
-    pub shaft_diameter: Option<f64>,
+    /// Banjo: diameter of the shafts and spacers the gears must clear, mm (or with a unit).
+    #[arg(long, value_name = "MM", requires_all = ["stud_to_leadscrew", "intermediate_range"], allow_hyphen_values = true)]
+    pub shaft_diameter: Option<String>,
     /// Change-gear stages: 1 is a simple train through an idler, 2 a compound train; N or A..B.
     #[arg(long, value_name = "N|A..B", default_value = "1..2")]
     pub stages: String,
@@ -113,9 +114,13 @@ fn banjo_from(a: &LatheArgs) -> Result<Option<Banjo>, Error> {
     if let Some(path) = &a.banjo {
         return load_banjo(path).map(Some);
     }
-    match (a.stud_to_leadscrew, &a.intermediate_range, a.shaft_diameter) {
+    match (&a.stud_to_leadscrew, &a.intermediate_range, &a.shaft_diameter) {
         (Some(d), Some(r), Some(s)) => {
-            let range = parse_float_range(r, Quantity::IntermediateRange, "mm")?;
+            let mm = |text: &str, quantity| -> Result<f64, Error> {
+                Ok(parse_length(text, quantity, Some(LengthUnit::Millimetre))?.mm_f64())
+            };
+            let range = parse_length_range(r, Quantity::IntermediateRange)?;
+            let (d, s) = (mm(d, Quantity::StudToLeadscrew)?, mm(s, Quantity::ShaftDiameter)?);
             Banjo::new(d, range, s, &|q, m| Error::value(q, m)).map(Some)
         }
         _ => Ok(None),
@@ -128,11 +133,7 @@ impl TryFrom<&LatheArgs> for Lathe {
     fn try_from(a: &LatheArgs) -> anyhow::Result<Lathe> {
         let leadscrew = parse_leadscrew(&a.leadscrew)?;
         let stud_ratio = parse_ratio(&a.stud_ratio, Quantity::StudRatio)?;
-        let gearbox = match &a.gearbox {
-            None => Vec::new(),
-            Some(g) if Path::new(g).is_file() => load_gearbox(Path::new(g))?,
-            Some(g) => parse_gearbox_list(g)?,
-        };
+        let gearbox = a.gearbox.as_deref().map(parse_gearbox).transpose()?.unwrap_or_default();
         let pool = match (&a.teeth, a.stock.is_empty()) {
             (Some(t), _) => {
                 let teeth = parse_int_range(t, Quantity::ToothRange, "teeth", MIN_TEETH, MAX_TEETH)?;
@@ -141,6 +142,7 @@ impl TryFrom<&LatheArgs> for Lathe {
             (None, false) => load_stock(
                 &a.stock,
                 CatalogueDefaults { module_mm: a.module, pressure_angle_deg: a.pressure_angle },
+                Quantity::Module,
             )?,
             (None, true) => {
                 return Err(refuse(

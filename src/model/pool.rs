@@ -17,6 +17,9 @@ pub const MAX_TEETH: u32 = 1000;
 pub const MAX_STAGES: usize = 6;
 /// Module range accepted, mm.
 pub const MODULE_RANGE_MM: (f64, f64) = (0.05, 100.0);
+/// Diametral pitches accepted, teeth per inch: the modules of [`MODULE_RANGE_MM`] (25.4 / 100
+/// to 25.4 / 0.05).
+pub const DIAMETRAL_PITCH_RANGE: (f64, f64) = (0.254, 508.0);
 /// Pressure angles accepted, degrees.
 pub const PRESSURE_ANGLE_RANGE_DEG: (f64, f64) = (10.0, 35.0);
 
@@ -89,6 +92,20 @@ pub fn check_module(module_mm: f64, place: &dyn Fn(String) -> Error) -> Result<f
     Ok(module_mm)
 }
 
+/// Check a diametral pitch (teeth per inch of pitch diameter) and give its module, mm, 25.4 / P:
+/// the limits are [`MODULE_RANGE_MM`]'s said in teeth per inch; `place` names where it came from.
+pub fn check_diametral_pitch(teeth_per_inch: f64, place: &dyn Fn(String) -> Error) -> Result<f64> {
+    let (lo, hi) = DIAMETRAL_PITCH_RANGE;
+    let (m_lo, m_hi) = MODULE_RANGE_MM;
+    match crate::geometry::module_from_diametral_pitch(teeth_per_inch) {
+        Some(m) if (lo..=hi).contains(&teeth_per_inch) => Ok(m),
+        _ => Err(place(format!(
+            "diametral pitch must be a number of teeth per inch from {lo} to {hi} (a module of {m_lo} \
+             to {m_hi} mm), found {teeth_per_inch}"
+        ))),
+    }
+}
+
 /// Check a pressure angle; `place` names where it came from.
 pub fn check_pressure_angle(deg: f64, place: &dyn Fn(String) -> Error) -> Result<f64> {
     let (lo, hi) = PRESSURE_ANGLE_RANGE_DEG;
@@ -106,7 +123,12 @@ impl Pool {
         pressure_angle_deg: f64,
         diametral_pitch: Option<f64>,
     ) -> Result<Pool> {
-        check_module(module_mm, &|m| Error::value(Quantity::Module, m))?;
+        match diametral_pitch {
+            Some(p) => {
+                check_diametral_pitch(p, &|m| Error::value(Quantity::DiametralPitch, m)).map(|_| ())?
+            }
+            None => check_module(module_mm, &|m| Error::value(Quantity::Module, m)).map(|_| ())?,
+        }
         check_pressure_angle(pressure_angle_deg, &|m| Error::value(Quantity::PressureAngle, m))?;
         let teeth_err = |m: String| Error::value(Quantity::ToothRange, m);
         if teeth.lo < MIN_TEETH || teeth.hi > MAX_TEETH {

@@ -151,6 +151,10 @@ impl ReducerSpec {
     }
 
     fn pool(&self) -> Result<Pool> {
+        // The same limits whether the modules are cut or looked for on the shelf.
+        for &m in &self.modules {
+            crate::model::pool::check_module(m, &|msg| Error::value(Quantity::StageModules, msg))?;
+        }
         if let Some(p) = &self.stock {
             return Ok(p.clone());
         }
@@ -169,9 +173,6 @@ impl ReducerSpec {
                 })
             })
             .collect();
-        for &m in &modules {
-            crate::model::pool::check_module(m, &|msg| Error::value(Quantity::StageModules, msg))?;
-        }
         let pool = Pool::from_stock_at(&stock, &|msg| Error::value(Quantity::ToothRange, msg))?;
         // Gears to cut: any number, as with a tooth range.
         Ok(Pool { from_stock: false, ..pool })
