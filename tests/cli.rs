@@ -135,7 +135,12 @@ fn nothing_found_exits_1_and_still_writes_json() {
     assert_eq!(v["trains"].as_array().unwrap().len(), 0);
     let r = gearsieve(&["search", "--ratio", "1000", "--teeth", "12..20", "--stages", "1"]);
     assert_eq!(r.code, 1);
-    assert!(r.stderr.contains("Try a looser --tol"), "{}", r.stderr);
+    // A looser tolerance cannot bring 1000 within reach of one stage of 20/12: not named.
+    assert_eq!(
+        r.stderr,
+        "gearsieve: no train meets every constraint. 1000 is out of reach: 1 stage of these gears makes \
+         at most 1.6667. Try a wider --teeth range.\n"
+    );
     assert!(r.stdout.contains("No train meets every constraint"));
 }
 

@@ -3,14 +3,16 @@
 //! time, the year). The clap structs mirror the flags; `TryFrom` turns them into the library's
 //! specs, valid by construction.
 
+use std::borrow::Cow;
 use std::path::PathBuf;
 
 use clap::{ArgGroup, Args, Subcommand};
 use gearsieve::model::catalog::CatalogueDefaults;
-use gearsieve::model::pool::{Pool, MAX_STAGES, MAX_TEETH, MIN_TEETH};
+use gearsieve::model::pool::{fmt_num, Pool, MAX_STAGES, MAX_TEETH, MIN_TEETH};
 use gearsieve::numbers::length::{parse_length, LengthUnit};
 use gearsieve::numbers::period::{parse_period, TimeUnit};
 use gearsieve::numbers::range::{parse_int_range, IntRange};
+use gearsieve::numbers::rational::Ratio;
 use gearsieve::numbers::target::{parse_ratio, parse_tolerance};
 use gearsieve::report::Report;
 use gearsieve::trades::clock::astro::{AstroPlan, AstroSpec, InputArbor, Period};
@@ -20,11 +22,12 @@ use gearsieve::trades::clock::beat::{
 use gearsieve::trades::clock::going::{parse_rate_tolerance, GoingPlan, GoingSpec};
 use gearsieve::trades::clock::motion::{Dial, MotionPlan, MotionSpec};
 use gearsieve::trades::clock::{going, motion};
-use gearsieve::{Error, Quantity, RunOptions};
+use gearsieve::{Error, Problem, Quantity, RunOptions};
 
 use super::args::{load_stock, PrintArgs};
 use super::flags::refuse;
-use super::run::{self, Job, Print, Words};
+use super::hints::{self, ExactBlocked, OutOfReach};
+use super::run::{self, Job, Outlook, Print, Words};
 
 /// Clock trains: the going train, the motion work, astronomical trains.
 #[derive(Args, Debug)]
@@ -60,6 +63,9 @@ pub struct ClockGears {
     /// Trains to list; all are counted.
     #[arg(long, value_name = "K", default_value_t = 10)]
     pub limit: usize,
+    /// Run even when the search is forecast to take more than an hour.
+    #[arg(long)]
+    pub long: bool,
     #[command(flatten)]
     pub print: PrintArgs,
 }
@@ -273,67 +279,232 @@ impl TryFrom<&AstroArgs> for AstroSpec {
     }
 }
 
-/// What a clock command says when interrupted or when nothing was found.
-fn words(hint: &str) -> Words {
-    Words {
-        interrupted: Some("the trains above are the best found so far".into()),
-        nothing: Some(format!("no train meets every constraint. {hint}")),
+/// A clock spec with how to run it.
+struct ClockJob<S> {
+    spec: S,
+    /// `--long`: run whatever the forecast.
+    long: bool,
+}
+
+impl<S> ClockJob<S> {
+    /// The forecast of one search of `problem` with the trades' engine.
+    fn outlook(&self, problem: Problem, narrow: Vec<String>) -> Outlook<'_> {
+        Outlook {
+            searches: vec![(Cow::Owned(problem), gearsieve::trades::ENGINE)],
+            long: self.long,
+            shard: None,
+            narrow,
+            can_shard: false,
+        }
     }
 }
 
-impl Job for GoingSpec {
+/// What a clock command says when interrupted, and when nothing was found.
+fn words(nothing: String) -> Words {
+    Words { interrupted: Some("the trains above are the best found so far".into()), nothing: Some(nothing) }
+}
+
+/// "wider --wheels and --pinions", or the one of them that can be wider.
+fn wider_wheels_and_pinions(wheels: IntRange, pinions: IntRange) -> Option<String> {
+    let full = |r: IntRange, least: u32| r.lo <= least && r.hi >= MAX_TEETH;
+    match (full(wheels, MIN_TEETH), full(pinions, 6)) {
+        (false, false) => Some("wider --wheels and --pinions".into()),
+        (false, true) => Some("wider --wheels".into()),
+        (true, false) => Some("wider --pinions".into()),
+        (true, true) => None,
+    }
+}
+
+/// The reasons and hints for a clock train that was not found, shared by the three: out of
+/// reach, an exact ratio no gear can make, or else `otherwise`. `target` is the ratio as shown,
+/// `gears` is how to have more gears, `tolerance` how to accept a less exact train.
+fn nothing_found(
+    problem: &Problem,
+    target: &str,
+    gears: Option<String>,
+    tolerance: String,
+    otherwise: Vec<String>,
+) -> String {
+    if let Some(reach) = OutOfReach::of(problem) {
+        let mut h: Vec<String> =
+            reach.stages_needed.map(|n| format!("--stages up to {n}")).into_iter().collect();
+        h.extend(gears);
+        return hints::nothing(&reach.sentence(target), &h);
+    }
+    if let Some(blocked) = ExactBlocked::of(problem) {
+        let mut h = vec![tolerance];
+        h.extend(gears);
+        return hints::nothing(&blocked.sentence(target), &h);
+    }
+    hints::nothing("", &otherwise)
+}
+
+impl Job for ClockJob<GoingSpec> {
     type Found = GoingPlan;
 
     fn search(&self, options: &RunOptions) -> anyhow::Result<GoingPlan> {
-        Ok(self.plan(options)?)
+        Ok(self.spec.plan(options)?)
     }
 
     fn report<'a>(&'a self, found: &'a GoingPlan) -> Box<dyn Report + 'a> {
         Box::new(found)
     }
 
-    fn words(&self) -> Words {
-        words("Try a --rate-tol above 0 s/day, more --stages, or wider --wheels and --pinions.")
+    fn words(&self, found: &GoingPlan) -> Words {
+        let s = &self.spec;
+        let gears = if s.pool.from_stock {
+            Some("more stock".to_string())
+        } else {
+            wider_wheels_and_pinions(s.wheels, s.pinions)
+        };
+        let t = s.rate_tolerance_s_per_day;
+        let looser = format!("a --rate-tol above {} s/day", fmt_num(t.to_f64()));
+        let (_, exact) = s.needed_ratio();
+        if !exact && t.is_zero() && OutOfReach::of(&found.problem).is_none() {
+            // A beat from a pendulum's length carries π and a square root: no ratio of whole
+            // numbers is it, so only a rate tolerance can let a train through.
+            let why =
+                "A pendulum given by its length beats at no ratio of whole numbers, so no train is exact. ";
+            return words(hints::nothing(why, &[looser]));
+        }
+        let mut otherwise = Vec::new();
+        if t < Ratio::integer(going::MAX_RATE_TOLERANCE_S_PER_DAY) {
+            otherwise.push(looser.clone());
+        }
+        otherwise.extend(hints::more_stages(s.stages));
+        otherwise.extend(gears.clone());
+        // A ratio worked out from a pendulum's length is no short fraction: show it as a number.
+        let target = if exact {
+            found.problem.target.text.clone()
+        } else {
+            fmt_num(found.problem.target.ratio.to_f64())
+        };
+        words(nothing_found(&found.problem, &target, gears, looser, otherwise))
+    }
+
+    fn forecast(&self) -> anyhow::Result<Option<Outlook<'_>>> {
+        let s = &self.spec;
+        let mut narrow = narrow_clock(s.stages);
+        narrow.push("narrower --wheels or --pinions".into());
+        if !s.rate_tolerance_s_per_day.is_zero() {
+            narrow.push("a tighter --rate-tol".into());
+        }
+        Ok(Some(self.outlook(s.problem()?, narrow)))
     }
 }
 
-impl Job for MotionSpec {
+impl Job for ClockJob<MotionSpec> {
     type Found = MotionPlan;
 
     fn search(&self, options: &RunOptions) -> anyhow::Result<MotionPlan> {
-        Ok(self.plan(options)?)
+        Ok(self.spec.plan(options)?)
     }
 
     fn report<'a>(&'a self, found: &'a MotionPlan) -> Box<dyn Report + 'a> {
         Box::new(found)
     }
 
-    fn words(&self) -> Words {
-        words("Try wider --wheels and --pinions, a lower --min-contact-ratio, or --not-coaxial.")
+    fn words(&self, found: &MotionPlan) -> Words {
+        let s = &self.spec;
+        let gears = if s.pool.from_stock {
+            Some("more stock".to_string())
+        } else {
+            wider_wheels_and_pinions(s.wheels, s.pinions)
+        };
+        let mut otherwise: Vec<String> = gears.clone().into_iter().collect();
+        if s.min_contact_ratio > 0.0 {
+            otherwise.push("a lower --min-contact-ratio".into());
+        }
+        if !s.allow_undercut {
+            otherwise.push("leaving out --no-undercut".into());
+        }
+        if s.coaxial {
+            otherwise.push("--not-coaxial".into());
+        } else {
+            otherwise.extend(hints::more_stages(s.stages));
+        }
+        // Hands want an exact ratio: a looser tolerance is named only when one was already
+        // accepted, or when no exact train can exist.
+        if !s.tolerance.is_zero() {
+            otherwise.push("a looser --tol".into());
+        }
+        let hand_drifts = "a --tol above 0 (the hand then drifts)".to_string();
+        words(nothing_found(&found.problem, &found.problem.target.text, gears, hand_drifts, otherwise))
+    }
+
+    fn forecast(&self) -> anyhow::Result<Option<Outlook<'_>>> {
+        let s = &self.spec;
+        let mut narrow = narrow_clock(s.stages);
+        narrow.push("narrower --wheels or --pinions".into());
+        if !s.tolerance.is_zero() {
+            narrow.push("a tighter --tol".into());
+        }
+        Ok(Some(self.outlook(s.problem()?, narrow)))
     }
 }
 
-impl Job for AstroSpec {
+impl Job for ClockJob<AstroSpec> {
     type Found = AstroPlan;
 
     fn search(&self, options: &RunOptions) -> anyhow::Result<AstroPlan> {
-        Ok(self.plan(options)?)
+        Ok(self.spec.plan(options)?)
     }
 
     fn report<'a>(&'a self, found: &'a AstroPlan) -> Box<dyn Report + 'a> {
         Box::new(found)
     }
 
-    fn words(&self) -> Words {
-        words("Try a looser --tol, more --stages or a wider --teeth range.")
+    fn words(&self, found: &AstroPlan) -> Words {
+        let s = &self.spec;
+        let gears = hints::more_gears(&found.problem.pool, "--teeth");
+        let mut otherwise = vec!["a looser --tol".to_string()];
+        otherwise.extend(hints::more_stages(s.stages));
+        otherwise.extend(gears.clone());
+        words(nothing_found(
+            &found.problem,
+            &found.problem.target.text,
+            gears,
+            "a --tol above 0".into(),
+            otherwise,
+        ))
+    }
+
+    fn forecast(&self) -> anyhow::Result<Option<Outlook<'_>>> {
+        let s = &self.spec;
+        let mut narrow = narrow_clock(s.stages);
+        if !s.pool.from_stock {
+            narrow.push("a narrower --teeth range".into());
+        }
+        if !s.tolerance.is_zero() {
+            narrow.push("a tighter --tol".into());
+        }
+        Ok(Some(self.outlook(s.problem()?, narrow)))
+    }
+}
+
+/// "fewer --stages" when a train may have more than one.
+fn narrow_clock(stages: IntRange) -> Vec<String> {
+    if stages.hi > 1 {
+        vec!["fewer --stages".into()]
+    } else {
+        Vec::new()
     }
 }
 
 /// Run `gearsieve clock`.
 pub fn run(args: ClockArgs) -> anyhow::Result<i32> {
     match &args.what {
-        ClockCommand::Going(a) => run::run(&GoingSpec::try_from(a.as_ref())?, &Print::from(&a.gears.print)),
-        ClockCommand::Motion(a) => run::run(&MotionSpec::try_from(a.as_ref())?, &Print::from(&a.gears.print)),
-        ClockCommand::Astro(a) => run::run(&AstroSpec::try_from(a.as_ref())?, &Print::from(&a.gears.print)),
+        ClockCommand::Going(a) => {
+            let job = ClockJob { spec: GoingSpec::try_from(a.as_ref())?, long: a.gears.long };
+            run::run(&job, &Print::from(&a.gears.print))
+        }
+        ClockCommand::Motion(a) => {
+            let job = ClockJob { spec: MotionSpec::try_from(a.as_ref())?, long: a.gears.long };
+            run::run(&job, &Print::from(&a.gears.print))
+        }
+        ClockCommand::Astro(a) => {
+            let job = ClockJob { spec: AstroSpec::try_from(a.as_ref())?, long: a.gears.long };
+            run::run(&job, &Print::from(&a.gears.print))
+        }
     }
 }

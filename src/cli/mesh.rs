@@ -294,7 +294,7 @@ impl Job for MeshJob {
         })
     }
 
-    fn words(&self) -> Words {
+    fn words(&self, _found: &Self::Found) -> Words {
         // The verdict in the report says why the mesh would not run.
         Words { interrupted: None, nothing: None }
     }

@@ -6,6 +6,7 @@
 mod args;
 mod clock;
 mod flags;
+mod hints;
 mod merge;
 mod mesh;
 mod output;

@@ -1,6 +1,7 @@
 //! `gearsieve search`: the general search. The clap struct mirrors the flags; `TryFrom` turns it
 //! into a validated [`Problem`] plus how to run and print it.
 
+use std::borrow::Cow;
 use std::path::PathBuf;
 
 use clap::{Args, ValueEnum};
@@ -20,8 +21,9 @@ use gearsieve::{EngineKind, Error, Problem, Quantity, RunOptions, StageLimits};
 
 use super::args::{load_stock, FormatArg, PrintArgs};
 use super::flags::refuse;
+use super::hints;
 use super::progress::Bar;
-use super::run::{self, Job, Print, Words};
+use super::run::{self, Job, Outlook, Print, Words};
 use super::EXIT_OK;
 
 /// Tooth range used when neither `--teeth` nor `--stock` is given.
@@ -281,12 +283,19 @@ impl Job for SearchJob {
         })
     }
 
-    fn words(&self) -> Words {
-        words()
+    fn words(&self, _found: &gearsieve::Outcome) -> Words {
+        words(self)
     }
 
-    fn forecast(&self, print: &Print) -> anyhow::Result<()> {
-        forecast(self, print)
+    fn forecast(&self) -> anyhow::Result<Option<Outlook<'_>>> {
+        let engine = if self.problem.limit == 0 { self.engine.streaming() } else { self.engine };
+        Ok(Some(Outlook {
+            searches: vec![(Cow::Borrowed(&self.problem), engine)],
+            long: self.long,
+            shard: self.shard,
+            narrow: hints::narrow_search(&self.problem),
+            can_shard: true,
+        }))
     }
 
     fn shard(&self) -> Option<Shard> {
@@ -299,7 +308,7 @@ pub fn run(args: SearchArgs) -> anyhow::Result<i32> {
     let job = SearchJob::try_from(args)?;
     let print = Print::from(&job.print);
     if job.problem.limit == 0 {
-        forecast(&job, &print)?;
+        run::forecast(job.forecast()?, &print)?;
         let bar = Bar::new(print.quiet);
         let progress = |p| bar.update(p);
         let options =
@@ -309,57 +318,6 @@ pub fn run(args: SearchArgs) -> anyhow::Result<i32> {
         return code;
     }
     run::run(&job, &print)
-}
-
-/// Forecast searches longer than this (wall seconds) are refused without `--long`.
-const REFUSE_ABOVE_S: f64 = 3600.0;
-/// Forecast searches longer than this get a note on stderr before they start.
-const NOTE_ABOVE_S: f64 = 30.0;
-
-/// Before a big search: forecast its time from a short sample, say so when it is long, and
-/// refuse one that would plainly run for hours unless `--long` is given.
-fn forecast(job: &SearchJob, print: &Print) -> anyhow::Result<()> {
-    let engine = if job.problem.limit == 0 { job.engine.streaming() } else { job.engine };
-    let e = gearsieve::engine::estimate(&job.problem, engine, std::time::Duration::from_secs(1));
-    let Some(one) = e.seconds_one_thread else { return Ok(()) };
-    let threads = print.threads.unwrap_or_else(rayon::current_num_threads).max(1);
-    let mut wall = one / threads as f64;
-    if let Some(s) = job.shard.filter(|_| e.shardable) {
-        wall /= s.count as f64;
-    }
-    let what = format!(
-        "{} {} on {threads} thread{} ({:.1e} stage combinations before pruning)",
-        if e.at_least { "at least" } else { "about" },
-        human_duration(wall),
-        if threads == 1 { "" } else { "s" },
-        e.combinations
-    );
-    if wall > REFUSE_ABOVE_S && !job.long {
-        let split = if e.shardable { "split it with --shard I/N, " } else { "" };
-        return Err(refuse(
-            "--long",
-            format!(
-                "this search would take {what}; narrow it (fewer --stages, a narrower --teeth range, \
-                 --driver-teeth or --stage-ratio limits, a tighter --tol), {split}or give --long to run it \
-                 anyway"
-            ),
-        ));
-    }
-    if wall > NOTE_ABOVE_S && !print.quiet {
-        eprintln!("gearsieve: this search will take {what}; Ctrl-C stops it and prints the best so far");
-    }
-    Ok(())
-}
-
-/// `45 s`, `12 min`, `3.2 hours`.
-fn human_duration(s: f64) -> String {
-    if s < 90.0 {
-        format!("{s:.0} s")
-    } else if s < 5400.0 {
-        format!("{:.0} min", s / 60.0)
-    } else {
-        format!("{:.1} hours", s / 3600.0)
-    }
 }
 
 /// `--limit 0`: write every train as it is found, CSV rows or JSON lines, ending JSON with a
@@ -384,17 +342,13 @@ fn stream(job: &SearchJob, print: &Print, options: &RunOptions) -> anyhow::Resul
         Ok(_) => {}
         Err(e) => return super::output::quiet_broken_pipe(Err(e), path).map(|_| EXIT_OK),
     }
-    Ok(run::status(outcome.complete, outcome.count > 0, &words()))
+    Ok(run::status(outcome.complete, outcome.count > 0, &words(job)))
 }
 
 /// What `search` says when interrupted or when nothing was found.
-fn words() -> Words {
+fn words(job: &SearchJob) -> Words {
     Words {
         interrupted: Some("the trains above are the best found so far and the count is a lower bound".into()),
-        nothing: Some(
-            "no train meets every constraint. Try a looser --tol, more --stages, a wider --teeth range \
-             or more stock, or fewer per-stage limits."
-                .into(),
-        ),
+        nothing: Some(hints::nothing_from_search(&job.problem)),
     }
 }

@@ -2,6 +2,7 @@
 //! the best setup for every thread of a series. The clap structs mirror the flags; `TryFrom`
 //! turns them into a validated [`Lathe`] and the thread or series to run.
 
+use std::borrow::Cow;
 use std::path::PathBuf;
 
 use clap::{ArgGroup, Args};
@@ -17,12 +18,13 @@ use gearsieve::trades::thread::chart::{chart, Chart};
 use gearsieve::trades::thread::machine::{parse_gearbox, Machine};
 use gearsieve::trades::thread::pitch::{parse_leadscrew, parse_pitch};
 use gearsieve::trades::thread::series::{built_in, load_list, SeriesEntry};
-use gearsieve::trades::thread::{Lathe, Rejected, ThreadPlan, ThreadSpec};
-use gearsieve::{Error, Quantity, RunOptions};
+use gearsieve::trades::thread::{Lathe, Rejected, ThreadPlan, ThreadSpec, MAX_TOLERANCE};
+use gearsieve::{Error, Problem, Quantity, RunOptions};
 
 use super::args::{load_stock, PrintArgs};
 use super::flags::refuse;
-use super::run::{self, Job, Print, Words};
+use super::hints;
+use super::run::{self, either, Job, Outlook, Print, Words};
 
 /// The lathe and its change gears, shared by `thread` and `chart`.
 #[derive(Args, Debug)]
@@ -69,9 +71,9 @@ pub struct LatheArgs {
     /// Pitch tolerance |pitch cut / pitch − 1| ≤ T: 0 (exact), 0.1%, 50ppm; at most 10%.
     #[arg(long, value_name = "T", default_value = "0.1%", allow_hyphen_values = true)]
     pub tol: String,
-    /// Setups to list; all are counted.
-    #[arg(long, value_name = "K", default_value_t = 10)]
-    pub limit: usize,
+    /// Run even when the search is forecast to take more than an hour.
+    #[arg(long)]
+    pub long: bool,
     #[command(flatten)]
     pub print: PrintArgs,
 }
@@ -92,6 +94,9 @@ pub struct ThreadArgs {
     /// Also list trains that cut the thread but cannot be set up on the banjo, and why.
     #[arg(long)]
     pub explain: bool,
+    /// Setups to list; all are counted.
+    #[arg(long, value_name = "K", default_value_t = 10)]
+    pub limit: usize,
     #[command(flatten)]
     pub lathe: LatheArgs,
 }
@@ -106,6 +111,9 @@ pub struct ChartArgs {
     /// A list file instead: one thread a line, LABEL, PITCH or just PITCH.
     #[arg(long, value_name = "FILE")]
     pub list: Option<PathBuf>,
+    /// Not for charts, which list one setup per thread; taken only to say so.
+    #[arg(long, value_name = "K", hide = true, allow_hyphen_values = true)]
+    pub limit: Option<String>,
     #[command(flatten)]
     pub lathe: LatheArgs,
 }
@@ -127,34 +135,81 @@ fn banjo_from(a: &LatheArgs) -> Result<Option<Banjo>, Error> {
     }
 }
 
-impl TryFrom<&LatheArgs> for Lathe {
-    type Error = anyhow::Error;
+/// The lathe the flags describe, listing `limit` setups per thread.
+fn lathe(a: &LatheArgs, limit: usize) -> anyhow::Result<Lathe> {
+    let leadscrew = parse_leadscrew(&a.leadscrew)?;
+    let stud_ratio = parse_ratio(&a.stud_ratio, Quantity::StudRatio)?;
+    let gearbox = a.gearbox.as_deref().map(parse_gearbox).transpose()?.unwrap_or_default();
+    let pool = match (&a.teeth, a.stock.is_empty()) {
+        (Some(t), _) => {
+            let teeth = parse_int_range(t, Quantity::ToothRange, "teeth", MIN_TEETH, MAX_TEETH)?;
+            Pool::to_cut(teeth, a.module.unwrap_or(1.0), a.pressure_angle, None)?
+        }
+        (None, false) => load_stock(
+            &a.stock,
+            CatalogueDefaults { module_mm: a.module, pressure_angle_deg: a.pressure_angle },
+            Quantity::Module,
+        )?,
+        (None, true) => {
+            return Err(refuse(
+                "--stock",
+                "give the change gears on hand (--stock FILE) or a range to cut (--teeth LO..HI)",
+            ))
+        }
+    };
+    let stages = parse_int_range(&a.stages, Quantity::StageCount, "stages", 1, MAX_STAGES as u32)?;
+    let tolerance = parse_tolerance(&a.tol)?;
+    let machine = Machine { leadscrew, stud_ratio, gearbox };
+    Ok(Lathe::new(machine, pool, banjo_from(a)?, stages, tolerance, limit)?)
+}
 
-    fn try_from(a: &LatheArgs) -> anyhow::Result<Lathe> {
-        let leadscrew = parse_leadscrew(&a.leadscrew)?;
-        let stud_ratio = parse_ratio(&a.stud_ratio, Quantity::StudRatio)?;
-        let gearbox = a.gearbox.as_deref().map(parse_gearbox).transpose()?.unwrap_or_default();
-        let pool = match (&a.teeth, a.stock.is_empty()) {
-            (Some(t), _) => {
-                let teeth = parse_int_range(t, Quantity::ToothRange, "teeth", MIN_TEETH, MAX_TEETH)?;
-                Pool::to_cut(teeth, a.module.unwrap_or(1.0), a.pressure_angle, None)?
-            }
-            (None, false) => load_stock(
-                &a.stock,
-                CatalogueDefaults { module_mm: a.module, pressure_angle_deg: a.pressure_angle },
-                Quantity::Module,
-            )?,
-            (None, true) => {
-                return Err(refuse(
-                    "--stock",
-                    "give the change gears on hand (--stock FILE) or a range to cut (--teeth LO..HI)",
-                ))
-            }
-        };
-        let stages = parse_int_range(&a.stages, Quantity::StageCount, "stages", 1, MAX_STAGES as u32)?;
-        let tolerance = parse_tolerance(&a.tol)?;
-        let machine = Machine { leadscrew, stud_ratio, gearbox };
-        Ok(Lathe::new(machine, pool, banjo_from(a)?, stages, tolerance, a.limit)?)
+/// Ways to get more setups from this lathe, in its flags: a looser tolerance while one is
+/// allowed, more stages while a train may have more, more gears.
+fn more_setups(lathe: &Lathe) -> Vec<String> {
+    let mut hints = Vec::new();
+    if lathe.tolerance < MAX_TOLERANCE {
+        hints.push("a looser --tol".to_string());
+    }
+    hints.extend(hints::more_stages(lathe.stages));
+    hints.extend(hints::more_gears(&lathe.pool, "--teeth"));
+    hints
+}
+
+/// How a lathe search that would run for hours could be made smaller, in its flags.
+fn narrow_lathe(lathe: &Lathe) -> Vec<String> {
+    let mut narrow = Vec::new();
+    if lathe.stages.hi > 1 {
+        narrow.push("fewer --stages".to_string());
+    }
+    if !lathe.pool.from_stock && lathe.pool.gears.len() > 1 {
+        narrow.push("a narrower --teeth range".into());
+    }
+    if !lathe.tolerance.is_zero() {
+        narrow.push("a tighter --tol".into());
+    }
+    narrow
+}
+
+/// The forecast of `problems`, searched with the trades' engine.
+fn lathe_outlook<'a>(problems: Vec<Problem>, lathe: &Lathe, long: bool) -> Outlook<'a> {
+    Outlook {
+        searches: problems.into_iter().map(|p| (Cow::Owned(p), gearsieve::trades::ENGINE)).collect(),
+        long,
+        shard: None,
+        narrow: narrow_lathe(lathe),
+        can_shard: false,
+    }
+}
+
+/// What a lathe command says after nothing was found: `{first} Try {hints}.`, with a pointer to
+/// `--explain` when the banjo may have refused setups and it was not given.
+fn lathe_nothing(first: String, hints: &[String], point_to_explain: bool) -> String {
+    let explain = "--explain shows what the banjo refused";
+    match (hints.is_empty(), point_to_explain) {
+        (false, true) => format!("{first} Try {}; {explain}.", either(hints)),
+        (false, false) => format!("{first} Try {}.", either(hints)),
+        (true, true) => format!("{first} {explain}."),
+        (true, false) => first,
     }
 }
 
@@ -163,6 +218,8 @@ struct ThreadJob {
     lathe: Lathe,
     spec: ThreadSpec,
     explain: bool,
+    /// `--long`: run whatever the forecast.
+    long: bool,
 }
 
 impl Job for ThreadJob {
@@ -178,27 +235,32 @@ impl Job for ThreadJob {
         Box::new(ThreadReport { lathe: &self.lathe, plan: &found.0, rejected: found.1.as_deref() })
     }
 
-    fn words(&self) -> Words {
+    fn words(&self, _found: &Self::Found) -> Words {
+        let hints = more_setups(&self.lathe);
+        // --explain is named only when a banjo may have refused setups and it was not given.
+        let point_to_explain = self.lathe.banjo.is_some() && !self.explain;
+        let first = format!("no setup cuts {} within the tolerance from these gears.", self.spec.pitch);
         Words {
             interrupted: Some("the setups above are the best found so far".into()),
-            nothing: Some(format!(
-                "no setup cuts {} within the tolerance from these gears. Try a looser --tol, more \
-                 --stages or more stock{}.",
-                self.spec.pitch,
-                if self.lathe.banjo.is_some() { "; --explain shows what the banjo refused" } else { "" }
-            )),
+            nothing: Some(lathe_nothing(first, &hints, point_to_explain)),
         }
+    }
+
+    fn forecast(&self) -> anyhow::Result<Option<Outlook<'_>>> {
+        let problems = self.lathe.problems(&self.spec, self.explain)?;
+        Ok(Some(lathe_outlook(problems, &self.lathe, self.long)))
     }
 }
 
 /// Run `gearsieve thread`.
 pub fn run_thread(args: ThreadArgs) -> anyhow::Result<i32> {
-    let lathe = Lathe::try_from(&args.lathe)?;
+    let lathe = lathe(&args.lathe, args.limit)?;
     if args.starts == 0 {
         return Err(refuse("--starts", "a thread has at least one start"));
     }
     let spec = ThreadSpec { pitch: parse_pitch(&args.pitch)?, starts: args.starts };
-    run::run(&ThreadJob { lathe, spec, explain: args.explain }, &Print::from(&args.lathe.print))
+    let job = ThreadJob { lathe, spec, explain: args.explain, long: args.lathe.long };
+    run::run(&job, &Print::from(&args.lathe.print))
 }
 
 /// A validated chart.
@@ -206,6 +268,8 @@ struct ChartJob {
     lathe: Lathe,
     name: String,
     series: Vec<SeriesEntry>,
+    /// `--long`: run whatever the forecast.
+    long: bool,
 }
 
 impl Job for ChartJob {
@@ -219,15 +283,23 @@ impl Job for ChartJob {
         Box::new(ChartReport { lathe: &self.lathe, series: &self.name, chart: found })
     }
 
-    fn words(&self) -> Words {
+    fn words(&self, _found: &Chart) -> Words {
+        let first = format!("no thread of {} can be cut within the tolerance from these gears.", self.name);
         Words {
             interrupted: Some("the chart above stops early".into()),
-            nothing: Some(format!(
-                "no thread of {} can be cut within the tolerance from these gears. Try a looser --tol, \
-                 more --stages or more stock.",
-                self.name
-            )),
+            nothing: Some(lathe_nothing(first, &more_setups(&self.lathe), false)),
         }
+    }
+
+    fn forecast(&self) -> anyhow::Result<Option<Outlook<'_>>> {
+        // Each row is one thread's search (the nearest pitch of a thread out of reach is looked
+        // for only then, so it is not weighed here).
+        let mut problems = Vec::new();
+        for e in &self.series {
+            let thread = ThreadSpec { pitch: e.pitch.clone(), starts: 1 };
+            problems.extend(self.lathe.problems(&thread, false)?);
+        }
+        Ok(Some(lathe_outlook(problems, &self.lathe, self.long)))
     }
 
     fn shows_progress(&self) -> bool {
@@ -237,11 +309,19 @@ impl Job for ChartJob {
 
 /// Run `gearsieve chart`.
 pub fn run_chart(args: ChartArgs) -> anyhow::Result<i32> {
-    let lathe = Lathe::try_from(&args.lathe)?;
+    if args.limit.is_some() {
+        return Err(refuse(
+            "--limit",
+            "a chart lists the best setup of each thread, one row each; for more setups of one thread \
+             give gearsieve thread --pitch P --limit K",
+        ));
+    }
+    // A chart lists one setup per thread.
+    let lathe = lathe(&args.lathe, 1)?;
     let (name, series): (String, Vec<SeriesEntry>) = match (&args.series, &args.list) {
         (Some(s), _) => (s.clone(), built_in(s)?),
         (None, Some(f)) => (f.display().to_string(), load_list(f)?),
         (None, None) => return Err(refuse("--series", "give --series NAME or --list FILE")),
     };
-    run::run(&ChartJob { lathe, name, series }, &Print::from(&args.lathe.print))
+    run::run(&ChartJob { lathe, name, series, long: args.lathe.long }, &Print::from(&args.lathe.print))
 }

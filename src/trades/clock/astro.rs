@@ -5,7 +5,7 @@
 //! fractions, with whether gear teeth can make them.
 
 use super::clock_problem;
-use crate::engine::{search, EngineKind, RunOptions};
+use crate::engine::{search, RunOptions};
 use crate::error::{Error, Quantity, Result};
 use crate::model::pool::Pool;
 use crate::model::problem::{Problem, StageLimits};
@@ -202,7 +202,7 @@ impl AstroSpec {
     /// Search, and list the convergents.
     pub fn plan(&self, options: &RunOptions) -> Result<AstroPlan> {
         let problem = self.problem()?;
-        let found = search(&problem, EngineKind::Sieve, options);
+        let found = search(&problem, crate::trades::ENGINE, options);
         let per_turn = 1.0 / self.from.turns_per_day() as f64;
         let trains = found
             .trains
