@@ -209,7 +209,9 @@ impl TryFrom<&GoingArgs> for GoingSpec {
                 Beat::from_period(parse_period(p, Quantity::PendulumPeriod, TimeUnit::Second)?, gravity)?
             }
             (None, None, Some(b)) => Beat::from_beats_per_hour(parse_beats_per_hour(b)?, gravity)?,
-            _ => return Err(refuse("--period", "give --pendulum M, --period S or --beats-per-hour N")),
+            _ => {
+                return Err(anyhow::anyhow!("give the beat: --pendulum M, --period S or --beats-per-hour N"))
+            }
         };
         let wheels = teeth(&a.wheels, Quantity::WheelTeeth)?;
         let pinions = teeth(&a.pinions, Quantity::PinionLeaves)?;
@@ -326,8 +328,7 @@ fn nothing_found(
     otherwise: Vec<String>,
 ) -> String {
     if let Some(reach) = OutOfReach::of(problem) {
-        let mut h: Vec<String> =
-            reach.stages_needed.map(|n| format!("--stages up to {n}")).into_iter().collect();
+        let mut h: Vec<String> = reach.stages_hint().into_iter().collect();
         h.extend(gears);
         return hints::nothing(&reach.sentence(target), &h);
     }

@@ -25,6 +25,9 @@ pub struct OutOfReach {
     /// The fewest stages whose products of these stage ratios could reach the target, when
     /// more than are allowed now and no more than a train may have.
     pub stages_needed: Option<u32>,
+    /// The most stages that could still reach the target, when fewer than the least allowed
+    /// now (every stage steps the wrong way, so each one takes the train further off).
+    pub stages_fewer: Option<u32>,
 }
 
 /// Relative slack on float products of stage ratios, far above their rounding error: the claim
@@ -52,15 +55,42 @@ impl OutOfReach {
             let n = (want.ln() / v.ln() - SLACK).ceil();
             (n.is_finite() && n > hi_n as f64 && n <= MAX_STAGES as f64).then_some(n as u32)
         };
+        let fewer = |v: f64, want: f64| {
+            let n = (want.ln() / v.ln() + SLACK).floor();
+            (n.is_finite() && n >= 1.0 && n < lo_n as f64).then_some(n as u32)
+        };
         if want_lo > top * (1.0 + SLACK) {
-            let stages_needed = if vmax > 1.0 { needed(vmax, want_lo) } else { None };
-            return Some(OutOfReach { above: true, nearest: top, stages: top_n, stages_needed });
+            let (stages_needed, stages_fewer) =
+                if vmax > 1.0 { (needed(vmax, want_lo), None) } else { (None, fewer(vmax, want_lo)) };
+            return Some(OutOfReach {
+                above: true,
+                nearest: top,
+                stages: top_n,
+                stages_needed,
+                stages_fewer,
+            });
         }
         if want_hi < bottom * (1.0 - SLACK) {
-            let stages_needed = if vmin < 1.0 { needed(vmin, want_hi) } else { None };
-            return Some(OutOfReach { above: false, nearest: bottom, stages: bottom_n, stages_needed });
+            let (stages_needed, stages_fewer) =
+                if vmin < 1.0 { (needed(vmin, want_hi), None) } else { (None, fewer(vmin, want_hi)) };
+            return Some(OutOfReach {
+                above: false,
+                nearest: bottom,
+                stages: bottom_n,
+                stages_needed,
+                stages_fewer,
+            });
         }
         None
+    }
+
+    /// The stage-count hint: `--stages up to 3` or `--stages down to 1`, when one applies.
+    pub fn stages_hint(&self) -> Option<String> {
+        match (self.stages_needed, self.stages_fewer) {
+            (Some(n), _) => Some(format!("--stages up to {n}")),
+            (None, Some(n)) => Some(format!("--stages down to {n}")),
+            (None, None) => None,
+        }
     }
 
     /// The reason in words: `1000 is out of reach: 1 stage of these gears makes at most 1.667.`
@@ -163,7 +193,7 @@ pub fn nothing_from_search(problem: &Problem) -> String {
     let limits = given_limits(problem);
     let widen_limits = (!limits.is_empty()).then(|| format!("wider {} limits", either_or(&limits)));
     if let Some(reach) = OutOfReach::of(problem) {
-        hints.extend(reach.stages_needed.map(|n| format!("--stages up to {n}")));
+        hints.extend(reach.stages_hint());
         hints.extend(more_gears(&problem.pool, "--teeth"));
         hints.extend(widen_limits);
         return nothing(&reach.sentence(target), &hints);
@@ -276,6 +306,28 @@ mod tests {
         assert!(!r.above);
         assert_eq!(r.stages_needed, Some(3));
         // Within reach, or reachable at the edge of the tolerance.
+        // Stages of 60/61 and 61/60 come nowhere near 1/2 within six: no stage count to name.
+        let r = OutOfReach::of(&problem("1/2", "0", (60, 61), (2, 3))).unwrap();
+        assert_eq!((r.above, r.stages_needed, r.stages_fewer), (false, None, None));
+        let r = OutOfReach::of(&problem("2", "0", (30, 100), (3, 3)));
+        assert_eq!(r.map(|r| r.stages_fewer), None);
+        // Every stage steps up by at least 1.2: three overshoot 1.3 from above, one reaches it.
+        let up = Pool::to_cut(IntRange { lo: 20, hi: 30 }, 1.0, 20.0, None).unwrap();
+        let limits = StageLimits {
+            stage_ratio: Some(
+                gearsieve::numbers::range::parse_ratio_range("1.2..", gearsieve::Quantity::StageRatio)
+                    .unwrap(),
+            ),
+            ..StageLimits::default()
+        };
+        let target = Target::parse("1.3", "0").unwrap();
+        let stages = IntRange { lo: 3, hi: 3 };
+        let p = Problem::new(target, up, stages, limits, None, DEFAULT_RANK.to_vec(), 5).unwrap();
+        let r = OutOfReach::of(&p).unwrap();
+        assert_eq!(
+            (r.above, r.stages_fewer, r.stages_hint()),
+            (false, Some(1), Some("--stages down to 1".into()))
+        );
         assert_eq!(OutOfReach::of(&problem("25", "0", (12, 60), (1, 2))), None);
         assert_eq!(OutOfReach::of(&problem("26", "4%", (12, 60), (1, 2))), None);
     }

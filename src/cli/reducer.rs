@@ -131,7 +131,7 @@ impl TryFrom<&ReducerArgs> for ReducerSpec {
                 let r = Exact::of(inp).over(Exact::of(out));
                 (r.value, format!("{inp} rpm in / {out} rpm out"))
             }
-            _ => return Err(refuse("--ratio", "give --ratio R, or --input-rpm and --output-rpm")),
+            _ => return Err(anyhow::anyhow!("give --ratio R, or --input-rpm and --output-rpm")),
         };
         if a.min_teeth > a.max_teeth {
             return Err(refuse(
@@ -151,10 +151,10 @@ impl TryFrom<&ReducerArgs> for ReducerSpec {
             // Built from the stage count asked for, so that following it works.
             let how = match example_modules(stages) {
                 Some(list) => format!(
-                    "the module in mm of each stage, input to output, such as --modules {list} for --stages \
-                     {stages} (or --modules 1 for every stage)"
+                    "the module in mm of each stage, input to output, such as {list} for --stages {stages} (or \
+                     1 for every stage)"
                 ),
-                None => format!("the module in mm for every stage of --stages {stages}, such as --modules 1"),
+                None => format!("one module in mm for every stage of --stages {stages}, such as 1"),
             };
             return Err(refuse("--modules", format!("give {how}; or gears on hand with --stock FILE")));
         }
@@ -239,20 +239,29 @@ impl Job for ReducerJob {
             (s.teeth.hi < MAX_TEETH).then(|| "a higher --max-teeth".to_string())
         };
         let more_stages = if self.per_stage() { None } else { hints::more_stages(s.stages) };
+        // Which caps a stage's ratio: the largest stage ratio, or the teeth (most over least).
+        let teeth = problem.pool.gears.iter().map(|g| g.teeth);
+        let (lo, hi) = (teeth.clone().min().unwrap_or(1), teeth.max().unwrap_or(1));
+        let teeth_cap = hi as f64 / lo as f64;
+        let ratio_binds = s.max_stage_ratio.to_f64() < teeth_cap;
+        let higher_ratio = ratio_binds.then(|| "a higher --max-stage-ratio".to_string());
         let nothing = if let Some(reach) = OutOfReach::of(problem) {
             let mut h = Vec::new();
             if !self.per_stage() {
-                h.extend(reach.stages_needed.map(|n| format!("--stages up to {n}")));
+                h.extend(reach.stages_hint());
             }
-            h.push("a higher --max-stage-ratio".into());
-            h.extend(more_teeth);
+            h.extend(higher_ratio);
+            if !ratio_binds {
+                h.extend(more_teeth);
+            }
             hints::nothing(&reach.sentence(&problem.target.text), &h)
         } else if let Some(blocked) = ExactBlocked::of(problem) {
             let mut h = vec!["a --tol above 0".to_string()];
             h.extend(more_teeth);
             hints::nothing(&blocked.sentence(&problem.target.text), &h)
         } else {
-            let mut h = vec!["a looser --tol".to_string(), "a higher --max-stage-ratio".into()];
+            let mut h = vec!["a looser --tol".to_string()];
+            h.extend(higher_ratio);
             h.extend(more_teeth);
             if s.stock.is_none() && s.teeth.lo > MIN_TEETH {
                 h.push("a lower --min-teeth".into());

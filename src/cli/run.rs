@@ -11,7 +11,6 @@ use gearsieve::report::{render, Format, RenderError, Report};
 use gearsieve::Problem;
 
 use super::args::PrintArgs;
-use super::flags::refuse;
 use super::progress::Bar;
 use super::{output, CANCEL, EXIT_INTERRUPTED, EXIT_NOTHING_FOUND, EXIT_OK};
 
@@ -159,7 +158,8 @@ pub fn forecast(outlook: Option<Outlook<'_>>, print: &Print) -> anyhow::Result<(
             ways.push("split it with --shard I/N".to_string());
         }
         ways.push("give --long to run it anyway".to_string());
-        return Err(refuse("--long", format!("this search would take {what}; {}", either(&ways))));
+        // The remedy names --long; the message is about the search, so it leads with that.
+        return Err(anyhow::anyhow!("this search would take {what}; {}", either(&ways)));
     }
     if wall > NOTE_ABOVE_S && !print.quiet {
         eprintln!("gearsieve: this search will take {what}; Ctrl-C stops it and prints the best so far");

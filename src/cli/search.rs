@@ -220,7 +220,7 @@ impl TryFrom<SearchArgs> for SearchJob {
             if matches!(a.print.format, FormatArg::Table | FormatArg::Markdown) {
                 return Err(refuse(
                     "--limit",
-                    "0 streams every train; give --format csv or --format json (JSON lines)",
+                    "0 streams every train; give --format csv, or json for JSON lines",
                 ));
             }
         }

@@ -140,23 +140,22 @@ fn lathe(a: &LatheArgs, limit: usize) -> anyhow::Result<Lathe> {
     let leadscrew = parse_leadscrew(&a.leadscrew)?;
     let stud_ratio = parse_ratio(&a.stud_ratio, Quantity::StudRatio)?;
     let gearbox = a.gearbox.as_deref().map(parse_gearbox).transpose()?.unwrap_or_default();
-    let pool = match (&a.teeth, a.stock.is_empty()) {
-        (Some(t), _) => {
-            let teeth = parse_int_range(t, Quantity::ToothRange, "teeth", MIN_TEETH, MAX_TEETH)?;
-            Pool::to_cut(teeth, a.module.unwrap_or(1.0), a.pressure_angle, None)?
-        }
-        (None, false) => load_stock(
-            &a.stock,
-            CatalogueDefaults { module_mm: a.module, pressure_angle_deg: a.pressure_angle },
-            Quantity::Module,
-        )?,
-        (None, true) => {
-            return Err(refuse(
+    let pool =
+        match (&a.teeth, a.stock.is_empty()) {
+            (Some(t), _) => {
+                let teeth = parse_int_range(t, Quantity::ToothRange, "teeth", MIN_TEETH, MAX_TEETH)?;
+                Pool::to_cut(teeth, a.module.unwrap_or(1.0), a.pressure_angle, None)?
+            }
+            (None, false) => load_stock(
+                &a.stock,
+                CatalogueDefaults { module_mm: a.module, pressure_angle_deg: a.pressure_angle },
+                Quantity::Module,
+            )?,
+            (None, true) => return Err(refuse(
                 "--stock",
-                "give the change gears on hand (--stock FILE) or a range to cut (--teeth LO..HI)",
-            ))
-        }
-    };
+                "give the change gears on hand as a catalogue FILE, or a range to cut with --teeth LO..HI",
+            )),
+        };
     let stages = parse_int_range(&a.stages, Quantity::StageCount, "stages", 1, MAX_STAGES as u32)?;
     let tolerance = parse_tolerance(&a.tol)?;
     let machine = Machine { leadscrew, stud_ratio, gearbox };
@@ -312,8 +311,8 @@ pub fn run_chart(args: ChartArgs) -> anyhow::Result<i32> {
     if args.limit.is_some() {
         return Err(refuse(
             "--limit",
-            "a chart lists the best setup of each thread, one row each; for more setups of one thread \
-             give gearsieve thread --pitch P --limit K",
+            "a chart lists only the best setup of each thread; gearsieve thread --pitch P lists more \
+             setups of one thread",
         ));
     }
     // A chart lists one setup per thread.
@@ -321,7 +320,7 @@ pub fn run_chart(args: ChartArgs) -> anyhow::Result<i32> {
     let (name, series): (String, Vec<SeriesEntry>) = match (&args.series, &args.list) {
         (Some(s), _) => (s.clone(), built_in(s)?),
         (None, Some(f)) => (f.display().to_string(), load_list(f)?),
-        (None, None) => return Err(refuse("--series", "give --series NAME or --list FILE")),
+        (None, None) => return Err(anyhow::anyhow!("give --series NAME or --list FILE")),
     };
     run::run(&ChartJob { lathe, name, series, long: args.lathe.long }, &Print::from(&args.lathe.print))
 }

@@ -81,10 +81,10 @@ impl Length {
         } else {
             match default {
                 Some(unit) => (lower.as_str(), unit),
-                None => return Err("has no unit".into()),
+                None => return Err(unknown_unit(t).unwrap_or_else(|| "has no unit".into())),
             }
         };
-        let given = parse_number(number)?;
+        let given = parse_number(number).map_err(|why| unknown_unit(t).unwrap_or(why))?;
         if given.is_zero() {
             return Err("is zero".into());
         }
@@ -99,6 +99,14 @@ impl Length {
     pub fn mm_f64(&self) -> f64 {
         self.mm.to_f64()
     }
+}
+
+/// "has an unknown unit \"ft\"" when `text` is a number followed by letters that are no unit this
+/// reader knows (those it knows were stripped before the number was read).
+pub(crate) fn unknown_unit(text: &str) -> Option<String> {
+    let number = text.trim_end_matches(|c: char| c.is_alphabetic());
+    let unit = &text[number.len()..];
+    (!unit.is_empty() && parse_number(number).is_ok()).then(|| format!("has an unknown unit \"{unit}\""))
 }
 
 /// Parse a positive length; a bare number is in `default` (`None`: a unit must be written).
@@ -160,6 +168,13 @@ mod tests {
             "the pendulum length: \"0mm\" is zero; wanted a length above 0 in m such as 0.994, or with a \
              unit: 994mm, 0.994m or 39.13in"
         );
+        let e = parse_length("3ft", Quantity::CentreDistance, Some(LengthUnit::Millimetre)).unwrap_err();
+        assert!(
+            e.to_string().starts_with("the centre distance: \"3ft\" has an unknown unit \"ft\"; wanted "),
+            "{e}"
+        );
+        assert_eq!(Length::parse("3ft", None).unwrap_err(), "has an unknown unit \"ft\"");
+        assert_eq!(Length::parse("1e3", None).unwrap_err(), "has no unit");
         for bad in ["", "mm", "-2mm", "abc", "2min", "1.2.3in", "pi mm", "nan", "3ft"] {
             let e = parse_length(bad, Quantity::CentreDistance, Some(LengthUnit::Millimetre)).unwrap_err();
             assert!(e.to_string().starts_with("the centre distance: "), "{bad}: {e}");

@@ -4,6 +4,7 @@
 
 use crate::error::{Error, Quantity, Result};
 use crate::numbers::exact::Exact;
+use crate::numbers::length::unknown_unit;
 use crate::numbers::rational::Ratio;
 use crate::numbers::target::parse_number;
 
@@ -58,7 +59,7 @@ pub fn read_period(text: &str, unit: TimeUnit) -> std::result::Result<Ratio, Str
         .into_iter()
         .find_map(|u| lower.strip_suffix(u.symbol()).map(|n| (n, u)))
         .unwrap_or((lower.as_str(), unit));
-    let given = parse_number(number)?;
+    let given = parse_number(number).map_err(|why| unknown_unit(text.trim()).unwrap_or(why))?;
     if given.is_zero() {
         return Err("is zero".into());
     }
@@ -115,6 +116,9 @@ mod tests {
             "the pendulum period: \"0\" is zero; wanted a period above 0 in s such as 2, or with a unit: \
              2s, 1.5min, 1h"
         );
+        let e = read_period("2 weeks", TimeUnit::Second).unwrap_err();
+        assert_eq!(e, "has an unknown unit \"weeks\"");
+        assert_eq!(read_period("2ms", TimeUnit::Second).unwrap_err(), "has an unknown unit \"ms\"");
         for bad in ["", "s", "-2s", "2ms", "two", "2 weeks", "1e99s"] {
             let e = parse_period(bad, Quantity::PendulumPeriod, TimeUnit::Second).unwrap_err().to_string();
             assert!(e.starts_with("the pendulum period: "), "{bad}: {e}");

@@ -139,7 +139,7 @@ impl ReducerSpec {
             return Err(Error::value(
                 Quantity::StageCentreDistances,
                 Message::from(format!("{c} distances given, but ")).quantity(Quantity::StageModules).text(
-                    format!(" gives {m} modules; give as many of each (one per stage), or one for all"),
+                    format!(" lists {m} modules; give as many of each (one per stage), or one for all"),
                 ),
             ));
         }
@@ -149,18 +149,16 @@ impl ReducerSpec {
         }
         let n = per_stage as u32;
         if self.stages != (IntRange { lo: n, hi: n }) {
-            let (list, what) = if m > 1 {
-                (Quantity::StageModules, format!("{m} modules"))
+            let (list, what, one) = if m > 1 {
+                (Quantity::StageModules, format!("{m} modules"), "module")
             } else {
-                (Quantity::StageCentreDistances, format!("{c} centre distances"))
+                (Quantity::StageCentreDistances, format!("{c} centre distances"), "distance")
             };
             return Err(Error::value(
                 Quantity::StageCount,
-                Message::from(format!("{} does not fit ", self.stages))
-                    .quantity(list)
-                    .text(format!(", which gives {what}, one per stage; give "))
-                    .quantity(Quantity::StageCount)
-                    .text(format!(" {n}, or one value for every stage")),
+                Message::from(format!("{} does not fit ", self.stages)).quantity(list).text(format!(
+                    ", which lists {what}, one per stage; give {n} stages, or one {one} for all"
+                )),
             ));
         }
         Ok(self.stages)
@@ -327,8 +325,8 @@ mod tests {
         let e = spec(&[1.0, 1.5, 2.0], IntRange { lo: 17, hi: 100 }).problem().unwrap_err();
         assert_eq!(
             e.to_string(),
-            "the stage count: 2 does not fit the module of each stage, which gives 3 modules, one per \
-             stage; give the stage count 3, or one value for every stage"
+            "the stage count: 2 does not fit the module of each stage, which lists 3 modules, one per \
+             stage; give 3 stages, or one module for all"
         );
         let short = |q| match q {
             Quantity::StageModules => "MODULES",
@@ -337,8 +335,8 @@ mod tests {
         };
         assert_eq!(
             e.render(short),
-            "STAGES: 2 does not fit MODULES, which gives 3 modules, one per stage; give STAGES 3, or one \
-             value for every stage"
+            "STAGES: 2 does not fit MODULES, which lists 3 modules, one per stage; give 3 stages, or one \
+             module for all"
         );
         let e = spec(&[1.0], IntRange { lo: 20, hi: 20 }).problem().unwrap_err().to_string();
         assert!(e.starts_with("the tooth range: nothing can mesh: "), "{e}");
