@@ -221,6 +221,23 @@ fn bad_input_gets_one_line_and_exit_2() {
             &["search", "--ratio", "2", "--limit", "0"],
             "--limit: 0 streams every train; give --format csv, or json for JSON lines",
         ),
+        // Values clap reads get one line too, saying what is accepted.
+        (
+            &["search", "--ratio", "2", "--module", "2mm"],
+            "--module: \"2mm\" is not a number; wanted a number such as 1.5, 0.25 or 2.5e-1",
+        ),
+        (
+            &["search", "--ratio", "2", "--limit", "x"],
+            "--limit: \"x\" is not a whole number; wanted a whole number such as 10",
+        ),
+        (
+            &["search", "--ratio", "2", "--format", "xml"],
+            "--format: \"xml\" is not one of table, csv, json, markdown",
+        ),
+        (
+            &["search", "--ratio", "2", "--threads", "0"],
+            "--threads: \"0\" is not accepted: 0 is not in 1..=1024",
+        ),
     ];
     for (args, want) in exact {
         refused(args, want);

@@ -291,7 +291,11 @@ fn bad_input_names_the_flag_and_what_is_wanted() {
     // The same limits as search and every other command: module 0.05 to 100 mm.
     let module = "module must be a number of mm from 0.05 to 100";
     bad(&["--teeth", "12,40", "--module", "0"], "--module", module);
-    bad(&["--teeth", "12,40", "--module", "inf"], "--module", module);
+    bad(
+        &["--teeth", "12,40", "--module", "inf"],
+        "--module",
+        "\"inf\" is not a number; wanted a number such as 1.5",
+    );
     bad(&["--teeth", "12,40", "--module", "1e9"], "--module", &format!("{module}, found 1000000000"));
     bad(
         &["--teeth", "12,40", "--diametral-pitch", "-4"],
@@ -318,7 +322,7 @@ fn bad_input_names_the_flag_and_what_is_wanted() {
     bad(
         &["--teeth", "12,40", "--module", "2", "--min-contact-ratio", "nan"],
         "--min-contact-ratio",
-        "wanted a number of 0 or more such as 1.2, found NaN",
+        "\"nan\" is not a number; wanted a number such as 1.5",
     );
     bad(
         &["--teeth", "12,40", "--module", "2", "--centre-distance", "wide"],

@@ -24,7 +24,7 @@ use gearsieve::trades::clock::motion::{Dial, MotionPlan, MotionSpec};
 use gearsieve::trades::clock::{going, motion};
 use gearsieve::{Error, Problem, Quantity, RunOptions};
 
-use super::args::{load_stock, PrintArgs};
+use super::args::{load_stock, number, PrintArgs};
 use super::flags::refuse;
 use super::hints::{self, ExactBlocked, OutOfReach};
 use super::run::{self, Job, Outlook, Print, Words};
@@ -55,7 +55,7 @@ pub struct ClockGears {
     #[arg(long, value_name = "FILE")]
     pub stock: Vec<PathBuf>,
     /// Module in mm of the wheels to cut, or for catalogue rows that give none.
-    #[arg(long, value_name = "MM", default_value_t = 0.5, allow_negative_numbers = true)]
+    #[arg(long, value_name = "MM", default_value_t = 0.5, allow_negative_numbers = true, value_parser = number)]
     pub module: f64,
     /// Stages (meshes): N or A..B.
     #[arg(long, value_name = "N|A..B", allow_hyphen_values = true)]
@@ -139,7 +139,7 @@ pub struct MotionArgs {
     #[arg(long)]
     pub no_undercut: bool,
     /// Least transverse contact ratio of an involute mesh.
-    #[arg(long, value_name = "X", default_value_t = 1.0, allow_negative_numbers = true)]
+    #[arg(long, value_name = "X", default_value_t = 1.0, allow_negative_numbers = true, value_parser = number)]
     pub min_contact_ratio: f64,
     #[command(flatten)]
     pub gears: ClockGears,

@@ -21,7 +21,7 @@ use gearsieve::report::mesh::{MeshInputs, MeshReport, MountingInput};
 use gearsieve::report::Report;
 use gearsieve::{Error, Quantity};
 
-use super::args::FormatArg;
+use super::args::{number, FormatArg};
 use super::flags::refuse;
 use super::run::{self, Job, Print, Words};
 
@@ -38,14 +38,14 @@ pub struct MeshArgs {
     #[arg(long, value_name = "Z1,Z2")]
     pub teeth: String,
     /// Module, mm.
-    #[arg(long, value_name = "MM", conflicts_with = "diametral_pitch", allow_negative_numbers = true)]
+    #[arg(long, value_name = "MM", conflicts_with = "diametral_pitch", allow_negative_numbers = true, value_parser = number)]
     pub module: Option<f64>,
     /// Diametral pitch (teeth per inch of pitch diameter) instead of a module: m = 25.4 / P.
     /// Inch figures are shown beside the millimetres.
-    #[arg(long, value_name = "P", allow_negative_numbers = true)]
+    #[arg(long, value_name = "P", allow_negative_numbers = true, value_parser = number)]
     pub diametral_pitch: Option<f64>,
     /// Pressure angle, degrees (20 is usual, 14.5 on older inch gearing).
-    #[arg(long, value_name = "DEG", default_value_t = 20.0, allow_negative_numbers = true)]
+    #[arg(long, value_name = "DEG", default_value_t = 20.0, allow_negative_numbers = true, value_parser = number)]
     pub pressure_angle: f64,
     /// Profile shifts of driver and driven gear, in modules (positive away from the centre);
     /// the pair is mounted tight [default: 0,0].
@@ -61,19 +61,19 @@ pub struct MeshArgs {
     #[arg(long, value_name = "LO..HI", requires = "centre_distance", allow_hyphen_values = true)]
     pub shift_sum: Option<String>,
     /// Addendum of the basic rack, in modules (ISO 53 type A: 1).
-    #[arg(long, value_name = "MODULES", default_value_t = RackProfile::default().addendum, allow_negative_numbers = true)]
+    #[arg(long, value_name = "MODULES", default_value_t = RackProfile::default().addendum, allow_negative_numbers = true, value_parser = number)]
     pub addendum: f64,
     /// Dedendum of the basic rack, in modules (ISO 53 type A: 1.25).
-    #[arg(long, value_name = "MODULES", default_value_t = RackProfile::default().dedendum, allow_negative_numbers = true)]
+    #[arg(long, value_name = "MODULES", default_value_t = RackProfile::default().dedendum, allow_negative_numbers = true, value_parser = number)]
     pub dedendum: f64,
     /// Root fillet radius of the basic rack, in modules (ISO 53 type A: 0.38).
-    #[arg(long, value_name = "MODULES", default_value_t = RackProfile::default().root_radius, allow_negative_numbers = true)]
+    #[arg(long, value_name = "MODULES", default_value_t = RackProfile::default().root_radius, allow_negative_numbers = true, value_parser = number)]
     pub root_radius: f64,
     /// Least transverse contact ratio for the mesh to count as running (1.2 is common practice).
-    #[arg(long, value_name = "R", default_value_t = MeshLimits::default().min_contact_ratio, allow_negative_numbers = true)]
+    #[arg(long, value_name = "R", default_value_t = MeshLimits::default().min_contact_ratio, allow_negative_numbers = true, value_parser = number)]
     pub min_contact_ratio: f64,
     /// Least tooth thickness at the tip, in modules.
-    #[arg(long, value_name = "MODULES", default_value_t = MeshLimits::default().min_tip_thickness_modules, allow_negative_numbers = true)]
+    #[arg(long, value_name = "MODULES", default_value_t = MeshLimits::default().min_tip_thickness_modules, allow_negative_numbers = true, value_parser = number)]
     pub min_tip_thickness: f64,
     /// Accept undercut gears (small clock pinions are often cut so); still reported.
     #[arg(long)]

@@ -69,6 +69,10 @@ pub fn run() -> i32 {
     let cli = match Cli::try_parse() {
         Ok(c) => c,
         Err(e) => {
+            if let Some(line) = flags::bad_value(&e) {
+                eprintln!("gearsieve: {line}");
+                return EXIT_BAD_INPUT;
+            }
             let code = if e.use_stderr() { EXIT_BAD_INPUT } else { EXIT_OK };
             let _ = e.print();
             return code;

@@ -18,7 +18,7 @@ use gearsieve::trades::reducer::{
 };
 use gearsieve::{Error, Quantity, RunOptions};
 
-use super::args::{load_stock, PrintArgs};
+use super::args::{load_stock, number, PrintArgs};
 use super::flags::refuse;
 use super::hints::{self, ExactBlocked, OutOfReach};
 use super::run::{self, Job, Outlook, Print, Words};
@@ -69,7 +69,7 @@ pub struct ReducerArgs {
     pub stages: Option<String>,
     /// Module per stage in mm, input to output, coarser toward the output (1,1.5,2), or one
     /// for every stage. Required unless --stock is given.
-    #[arg(long, value_name = "MM,…", value_delimiter = ',', allow_negative_numbers = true)]
+    #[arg(long, value_name = "MM,…", value_delimiter = ',', allow_negative_numbers = true, value_parser = number)]
     pub modules: Vec<f64>,
     /// Least teeth of any gear (17 avoids undercut at 20°, common practice).
     #[arg(long, value_name = "N", default_value_t = 17)]

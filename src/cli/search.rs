@@ -19,7 +19,7 @@ use gearsieve::report::search::SearchReport;
 use gearsieve::report::{RenderError, Report};
 use gearsieve::{EngineKind, Error, Problem, Quantity, RunOptions, StageLimits};
 
-use super::args::{load_stock, FormatArg, PrintArgs};
+use super::args::{load_stock, number, FormatArg, PrintArgs};
 use super::flags::refuse;
 use super::hints;
 use super::progress::Bar;
@@ -74,13 +74,13 @@ pub struct SearchArgs {
     #[arg(long, value_name = "FILE")]
     pub stock: Vec<PathBuf>,
     /// Module in mm for --teeth (default 1), or for catalogue rows that give none.
-    #[arg(long, value_name = "MM", conflicts_with = "diametral_pitch", allow_negative_numbers = true)]
+    #[arg(long, value_name = "MM", conflicts_with = "diametral_pitch", allow_negative_numbers = true, value_parser = number)]
     pub module: Option<f64>,
     /// Diametral pitch (teeth per inch of pitch diameter) instead of a module: m = 25.4 / P.
-    #[arg(long, value_name = "P", allow_negative_numbers = true)]
+    #[arg(long, value_name = "P", allow_negative_numbers = true, value_parser = number)]
     pub diametral_pitch: Option<f64>,
     /// Pressure angle in degrees for --teeth, and for catalogue rows that give none.
-    #[arg(long, value_name = "DEG", default_value_t = 20.0, allow_negative_numbers = true)]
+    #[arg(long, value_name = "DEG", default_value_t = 20.0, allow_negative_numbers = true, value_parser = number)]
     pub pressure_angle: f64,
     /// Allowed driver teeth per stage (e.g. clock pinions 6..12).
     #[arg(long, value_name = "LO..HI", allow_hyphen_values = true)]
@@ -97,7 +97,7 @@ pub struct SearchArgs {
     #[arg(long, value_name = "A|LO..HI", allow_hyphen_values = true)]
     pub centre_distance: Option<String>,
     /// How close a standard centre distance must be to a fixed one to need no shift, mm.
-    #[arg(long, value_name = "MM", default_value_t = gearsieve::model::problem::DEFAULT_CENTRE_TOLERANCE_MM)]
+    #[arg(long, value_name = "MM", default_value_t = gearsieve::model::problem::DEFAULT_CENTRE_TOLERANCE_MM, allow_negative_numbers = true, value_parser = number)]
     pub centre_tol: f64,
     /// Allowed profile shift sum x1+x2 per stage, in modules [default: -0.5..1].
     #[arg(long, value_name = "LO..HI", allow_hyphen_values = true)]
@@ -107,7 +107,7 @@ pub struct SearchArgs {
     #[arg(long)]
     pub check_meshes: bool,
     /// Least transverse contact ratio of a mesh [default: 1.2, common practice].
-    #[arg(long, value_name = "X", allow_negative_numbers = true)]
+    #[arg(long, value_name = "X", allow_negative_numbers = true, value_parser = number)]
     pub min_contact_ratio: Option<f64>,
     /// Accept undercut gears (small clock pinions are often cut so).
     #[arg(long)]

@@ -21,7 +21,7 @@ use gearsieve::trades::thread::series::{built_in, load_list, SeriesEntry};
 use gearsieve::trades::thread::{Lathe, Rejected, ThreadPlan, ThreadSpec, MAX_TOLERANCE};
 use gearsieve::{Error, Problem, Quantity, RunOptions};
 
-use super::args::{load_stock, PrintArgs};
+use super::args::{load_stock, number, PrintArgs};
 use super::flags::refuse;
 use super::hints;
 use super::run::{self, either, Job, Outlook, Print, Words};
@@ -47,10 +47,10 @@ pub struct LatheArgs {
     #[arg(long, value_name = "LO..HI", conflicts_with = "stock")]
     pub teeth: Option<String>,
     /// Module in mm for --teeth (default 1), or for catalogue rows that give none.
-    #[arg(long, value_name = "MM", allow_negative_numbers = true)]
+    #[arg(long, value_name = "MM", allow_negative_numbers = true, value_parser = number)]
     pub module: Option<f64>,
     /// Pressure angle in degrees for --teeth, and for catalogue rows that give none.
-    #[arg(long, value_name = "DEG", default_value_t = 20.0, allow_negative_numbers = true)]
+    #[arg(long, value_name = "DEG", default_value_t = 20.0, allow_negative_numbers = true, value_parser = number)]
     pub pressure_angle: f64,
     /// Banjo geometry from a file (stud_to_leadscrew_mm, intermediate_from_leadscrew_mm,
     /// shaft_diameter_mm); setups that cannot be set up on it are rejected.
