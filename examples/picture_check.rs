@@ -17,7 +17,8 @@ fn ink(p: &Pixmap, n: u32) -> Vec<f64> {
             let Some(c) = p.pixel(x, y) else { continue };
             // Premultiplied over white: an empty pixel is white.
             let a = f64::from(c.alpha()) / 255.0;
-            let grey = (f64::from(c.red()) + f64::from(c.green()) + f64::from(c.blue())) / 3.0 + 255.0 * (1.0 - a);
+            let grey =
+                (f64::from(c.red()) + f64::from(c.green()) + f64::from(c.blue())) / 3.0 + 255.0 * (1.0 - a);
             if grey < 200.0 {
                 cells[(y * n / h * n + x * n / w) as usize] += 1.0;
             }
@@ -40,7 +41,8 @@ fn correlation(a: &[f64], b: &[f64]) -> f64 {
 fn check(svg_path: &str, shot_path: &str) -> Result<String, String> {
     let svg = std::fs::read_to_string(svg_path).map_err(|e| format!("{svg_path}: {e}"))?;
     let shot = Pixmap::load_png(shot_path).map_err(|e| format!("{shot_path}: {e}"))?;
-    let tree = resvg::usvg::Tree::from_str(&svg, &resvg::usvg::Options::default()).map_err(|e| e.to_string())?;
+    let tree =
+        resvg::usvg::Tree::from_str(&svg, &resvg::usvg::Options::default()).map_err(|e| e.to_string())?;
     // Render at the screenshot's size, so the two can be laid over each other.
     let (sw, sh) = (shot.width(), shot.height());
     let size = tree.size();

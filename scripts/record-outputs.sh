@@ -55,7 +55,7 @@ cases=(
     "search --ratio pi --tol 1e-3 --teeth 12..100 --stages 1..3 --pareto --limit 4"
     "mesh --teeth 17,53 --module 2 --centre-distance 71"
     "thread --leadscrew 8tpi --pitch 1.25mm --stock catalogs/lathe-change-gears.csv --banjo catalogs/lathe/brackenfold.banjo --limit 3 --explain"
-    "chart --series iso-coarse --leadscrew 8tpi --stock catalogs/lathe-change-gears.csv --limit 3"
+    "chart --series iso-coarse --leadscrew 8tpi --stock catalogs/lathe-change-gears.csv"
     "clock going --period 2 --escape-teeth 30 --pinions 8 --stages 2 --limit 3"
     "clock motion --limit 3"
     "clock astro --period synodic-month --tol 10ppm --limit 3"

@@ -64,6 +64,16 @@ impl Error {
         self.to_message().render(name)
     }
 
+    /// What was wrong, without the quantity a value error names at its head: for quoting inside
+    /// another error about the same quantity, which names it once itself ("the banjo: banjo
+    /// file b, line 3: …", not "the banjo: … the banjo: …"). Other errors as [`Error::to_message`].
+    pub fn detail(&self) -> Message {
+        match self {
+            Error::Value { message, .. } => message.clone(),
+            other => other.to_message(),
+        }
+    }
+
     /// The whole error as a message, its quantities still named only when rendered, so that it
     /// can be quoted inside another error.
     pub fn to_message(&self) -> Message {
@@ -205,6 +215,8 @@ pub enum Quantity {
     Module,
     /// A reducer's module of each stage, mm.
     StageModules,
+    /// The diametral pitch of gears to be cut, teeth per inch of pitch diameter.
+    DiametralPitch,
     /// The pressure angle of gears to be cut, degrees.
     PressureAngle,
     /// The keys trains are ranked by.
@@ -283,6 +295,7 @@ impl Quantity {
             Quantity::Direction => "the output direction",
             Quantity::Module => "the module",
             Quantity::StageModules => "the module of each stage",
+            Quantity::DiametralPitch => "the diametral pitch",
             Quantity::PressureAngle => "the pressure angle",
             Quantity::RankKeys => "the ranking keys",
             Quantity::Limit => "the number of results to list",
@@ -346,6 +359,15 @@ mod tests {
         let outer = Error::value(Quantity::Banjo, Message::from("line 3: ").then(inner.to_message()));
         assert_eq!(outer.to_string(), "the banjo: line 3: the stage count: empty range");
         assert_eq!(outer.render(short), "OTHER: line 3: STAGES: empty range");
+    }
+
+    #[test]
+    fn a_detail_quoted_under_its_own_quantity_names_it_once() {
+        let inner = Error::value(Quantity::Banjo, "\"9..3\" is inverted");
+        let outer =
+            Error::value(Quantity::Banjo, Message::from("banjo file b, line 3: ").then(inner.detail()));
+        assert_eq!(outer.to_string(), "the banjo: banjo file b, line 3: \"9..3\" is inverted");
+        assert_eq!(Error::problem("no mesh").detail(), Message::from("no mesh"));
     }
 
     #[test]

@@ -135,7 +135,12 @@ fn nothing_found_exits_1_and_still_writes_json() {
     assert_eq!(v["trains"].as_array().unwrap().len(), 0);
     let r = gearsieve(&["search", "--ratio", "1000", "--teeth", "12..20", "--stages", "1"]);
     assert_eq!(r.code, 1);
-    assert!(r.stderr.contains("Try a looser --tol"), "{}", r.stderr);
+    // A looser tolerance cannot bring 1000 within reach of one stage of 20/12: not named.
+    assert_eq!(
+        r.stderr,
+        "gearsieve: no train meets every constraint. 1000 is out of reach: 1 stage of these gears makes \
+         at most 1.6667. Try a wider --teeth range.\n"
+    );
     assert!(r.stdout.contains("No train meets every constraint"));
 }
 
@@ -177,7 +182,157 @@ fn bad_input_gets_one_line_and_exit_2() {
         assert!(r.stderr.contains(want), "{args:?}: {}", r.stderr);
         assert!(!r.stderr.contains("panicked"), "{args:?}: {}", r.stderr);
         assert!(r.stdout.is_empty(), "{args:?} printed {}", r.stdout);
+        if !r.stderr.starts_with("error:") {
+            assert_flags_named_once(&r.stderr);
+        }
     }
+    // Each message in full: what was wrong, where (the flag, once), and what is accepted.
+    let exact: &[(&[&str], &str)] = &[
+        (
+            &["search", "--ratio", "1e3x"],
+            "--ratio: \"1e3x\" is not a number; wanted a positive number such as 12, 1.0583, 2.5e-1, \
+             127/120, 37.5:1 or pi",
+        ),
+        (
+            &["search", "--ratio", "1e31"],
+            "--ratio: \"1e31\" has an exponent out of range; wanted a positive number such as 12, 1.0583, \
+             2.5e-1, 127/120, 37.5:1 or pi",
+        ),
+        // The same limits for the module as mesh, thread and clock.
+        (
+            &["search", "--ratio", "2", "--module", "1e9"],
+            "--module: module must be a number of mm from 0.05 to 100, found 1000000000",
+        ),
+        (
+            &["search", "--ratio", "2", "--module", "1e9", "--stock", "catalogs/lathe-change-gears.csv"],
+            "--module: module must be a number of mm from 0.05 to 100, found 1000000000",
+        ),
+        (
+            &["search", "--ratio", "2", "--diametral-pitch", "0.001"],
+            "--diametral-pitch: diametral pitch must be a number of teeth per inch from 0.254 to 500 \
+             (modules of 0.0508 to 100 mm), found 0.001",
+        ),
+        (
+            &["search", "--ratio", "2", "--centre-distance", "3ft"],
+            "--centre-distance: \"3ft\" has an unknown unit \"ft\"; wanted LO..HI or one length, in mm such \
+             as 40..80 or 75 (or with units: 1.5in..3in), above 0, LO ≤ HI",
+        ),
+        (
+            &["search", "--ratio", "2", "--limit", "0"],
+            "--limit: 0 streams every train; give --format csv, or json for JSON lines",
+        ),
+        // Values clap reads get one line too, saying what is accepted.
+        (
+            &["search", "--ratio", "2", "--module", "2mm"],
+            "--module: \"2mm\" is not a number; wanted a number such as 1.5, 0.25 or 2.5e-1",
+        ),
+        (
+            &["search", "--ratio", "2", "--limit", "x"],
+            "--limit: \"x\" is not a whole number; wanted a whole number such as 10",
+        ),
+        (
+            &["search", "--ratio", "2", "--format", "xml"],
+            "--format: \"xml\" is not one of table, csv, json, markdown, svg",
+        ),
+        (
+            &["search", "--ratio", "2", "--threads", "0"],
+            "--threads: \"0\" is not accepted: 0 is not in 1..=1024",
+        ),
+    ];
+    for (args, want) in exact {
+        refused(args, want);
+    }
+}
+
+#[test]
+fn ratios_take_the_number_syntax_of_tolerances() {
+    let target = |ratio: &str| {
+        let (code, v) =
+            json(&["search", "--ratio", ratio, "--teeth", "12..120", "--stages", "1..2", "--limit", "3"]);
+        assert_eq!(code, 0, "{ratio}");
+        (v["target"]["value"].as_f64().unwrap(), v["trains"].clone())
+    };
+    // 1e2 = 100 = 120/12 · 120/12; 2.5e-1 = 1/4 = 12/48.
+    assert_eq!(target("1e2").0, 100.0);
+    assert_eq!(target("1e2").1, target("100").1);
+    assert_eq!(target("2.5e-1").0, 0.25);
+    assert_eq!(target("2.5e-1").1, target("1/4").1);
+}
+
+#[test]
+fn lengths_take_units_where_a_length_is_meant() {
+    let first = |cd: &str| {
+        let (code, v) = json(&[
+            "search",
+            "--ratio",
+            "2",
+            "--teeth",
+            "12..60",
+            "--stages",
+            "1",
+            "--centre-distance",
+            cd,
+            "--limit",
+            "50",
+        ]);
+        assert_eq!(code, 0, "{cd}");
+        v["trains"].clone()
+    };
+    // 1 in = 25.4 mm exactly.
+    assert_eq!(first("1in..2in"), first("25.4..50.8"));
+    assert_eq!(first("0.03m..40mm"), first("30..40"));
+}
+
+#[test]
+fn a_search_out_of_reach_or_too_long_names_only_what_would_help() {
+    // Exact and out of reach: a looser tolerance cannot help, a tighter one does not apply.
+    let r = gearsieve(&["search", "--ratio", "127/120", "--teeth", "12..100", "--stages", "1..3"]);
+    assert_eq!(r.code, 1);
+    assert_eq!(
+        r.stderr,
+        "gearsieve: no train meets every constraint. An exact 127/120 cannot be made from these gears: 127 \
+         divides it and shares no factor with any tooth count up to 100. Try a --tol above 0, or a --teeth \
+         range up to 127.\n"
+    );
+    let r = gearsieve(&["search", "--ratio", "30", "--teeth", "12..60", "--stages", "1..2"]);
+    assert_eq!(
+        r.stderr,
+        "gearsieve: no train meets every constraint. 30 is out of reach: 2 stages of these gears make at \
+         most 25. Try --stages up to 3, or a wider --teeth range.\n"
+    );
+    // In reach but not found: the tolerance can be loosened, the limits given widened.
+    // 13/10 lies within one stage of 12..20 teeth, but 26/20 is the smallest pair that makes it.
+    let r = gearsieve(&[
+        "search",
+        "--ratio",
+        "1.3",
+        "--teeth",
+        "12..20",
+        "--stages",
+        "1",
+        "--stage-ratio",
+        "1..3",
+    ]);
+    assert_eq!(r.code, 1);
+    assert_eq!(
+        r.stderr,
+        "gearsieve: no train meets every constraint. Try a looser --tol, more --stages, a wider --teeth \
+         range, or wider --stage-ratio limits.\n"
+    );
+    // An exact search that would run for hours is not told to tighten its tolerance.
+    let r = gearsieve(&[
+        "search", "--ratio", "127/120", "--teeth", "12..200", "--stages", "6", "--engine", "sieve",
+    ]);
+    assert_eq!(r.code, 2, "{}", r.stderr);
+    assert!(
+        r.stderr.contains(
+            "narrow it (fewer --stages, a narrower --teeth range, --driver-teeth or --stage-ratio limits)"
+        ),
+        "{}",
+        r.stderr
+    );
+    assert!(!r.stderr.contains("--tol"), "{}", r.stderr);
+    assert_flags_named_once(&r.stderr);
 }
 
 #[test]

@@ -285,6 +285,142 @@ fn bad_input_names_the_flag_and_exits_2() {
 }
 
 #[test]
+fn each_mistake_gets_its_whole_message() {
+    let length = "wanted a length above 0 in m such as 0.994, or with a unit: 994mm, 0.994m or 39.13in";
+    refused(
+        &["clock", "going", "--pendulum", "3ft"],
+        &format!("--pendulum: \"3ft\" has an unknown unit \"ft\"; {length}"),
+    );
+    refused(
+        &["clock", "going", "--pendulum", "200"],
+        "--pendulum: wanted a length in m above 0 and at most 100, found 200",
+    );
+    // A period has its own message, not the ratio's.
+    let period = "wanted a period above 0 in s such as 2, or with a unit: 2s, 1.5min, 1h";
+    refused(&["clock", "going", "--period", "0"], &format!("--period: \"0\" is zero; {period}"));
+    refused(
+        &["clock", "going", "--period", "2x"],
+        &format!("--period: \"2x\" has an unknown unit \"x\"; {period}"),
+    );
+    refused(
+        &["clock", "going", "--beats-per-hour", "0"],
+        "--beats-per-hour: \"0\" is zero; wanted beats per hour above 0 such as 3600",
+    );
+    // Gravity: non-positive and absurd values are refused with the accepted range.
+    for g in ["0", "-9.81", "98.0665"] {
+        let r = gearsieve(&["clock", "going", "--period", "2", "--gravity", g]);
+        assert_eq!(r.code, 2, "{g}: {}", r.stderr);
+        assert_eq!(r.stderr.lines().count(), 1, "{g}: {}", r.stderr);
+        assert!(r.stderr.starts_with("gearsieve: --gravity: "), "{g}: {}", r.stderr);
+    }
+    refused(
+        &["clock", "going", "--period", "2", "--gravity", "0"],
+        "--gravity: wanted m/s² from 1 to 30 (9.80665 is standard), found 0",
+    );
+    refused(
+        &["clock", "going", "--pendulum", "1", "--gravity", "-9.81"],
+        "--gravity: \"-9.81\" is negative; wanted m/s² such as 9.80665",
+    );
+    let astro = "wanted synodic-month, sidereal-day, tropical-year or a period above 0 in d such as \
+                 27.321661, or with a unit: 29.53d, 708.7h";
+    refused(&["clock", "astro", "--period", "0"], &format!("--period: \"0\" is zero; {astro}"));
+    refused(&["clock", "astro", "--period", "eon"], &format!("--period: \"eon\" is not a number; {astro}"));
+    refused(
+        &["clock", "motion", "--min-contact-ratio", "-1"],
+        "--min-contact-ratio: wanted a number of 0 or more such as 1.2, found -1",
+    );
+    refused(
+        &["clock", "going", "--period", "2", "--module", "1e9"],
+        "--module: module must be a number of mm from 0.05 to 100, found 1000000000",
+    );
+}
+
+#[test]
+fn lengths_periods_and_gravity_are_read_with_their_units() {
+    let going = |beat: &[&str]| {
+        let args =
+            [&["clock", "going"][..], beat, &["--pinions", "8", "--stages", "2", "--limit", "2"]].concat();
+        let r = gearsieve(&args);
+        assert_eq!(r.code, 0, "{beat:?}: {}", r.stderr);
+        r.stdout
+    };
+    assert_eq!(going(&["--period", "2s"]), going(&["--period", "2"]));
+    assert_eq!(
+        going(&["--period", "2"]),
+        going(&["--beats-per-hour", "3600"])
+            .replace("3600 beats/h → period 2 s", "period 2 s → 3600 beats/h")
+    );
+    let half_minute = gearsieve(&["clock", "going", "--period", "0.5min", "--stages", "1", "--limit", "1"]);
+    assert!(half_minute.stdout.contains("period 30 s"), "{}", half_minute.stderr);
+    let rate = |length: &str| {
+        let (code, v) =
+            json(&["clock", "going", "--pendulum", length, "--rate-tol", "10", "--limit", "1", "-q"]);
+        assert_eq!(code, 0, "{length}");
+        v["trains"][0]["rate_s_per_day"].clone()
+    };
+    assert_eq!(rate("994mm"), rate("0.994"));
+    assert_eq!(rate("994mm"), rate("0.994m"));
+    // The report uses the gravity given: the simple pendulum of a 2 s period is g/π² long.
+    let local = going(&["--period", "2", "--gravity", "9.81"]);
+    assert!(local.contains("(simple pendulum 0.994 m at g = 9.81 m/s²)"), "{local}");
+    let standard = going(&["--period", "2"]);
+    assert!(standard.contains("(simple pendulum 0.9936 m at g = 9.80665 m/s²)"), "{standard}");
+    let moon = going(&["--period", "2", "--gravity", "1.62"]);
+    assert!(moon.contains("(simple pendulum 0.1641 m at g = 1.62 m/s²)"), "{moon}");
+    // An astronomical period in days, or with a unit.
+    let astro = |period: &str| {
+        let (code, v) = json(&["clock", "astro", "--period", period, "--limit", "1", "-q"]);
+        assert_eq!(code, 0, "{period}");
+        v["target_period_days"].clone()
+    };
+    assert_eq!(astro("29.53d"), astro("29.53"));
+    assert_eq!(astro("708.72h"), astro("29.53"));
+}
+
+#[test]
+fn nothing_found_names_only_what_would_help() {
+    // The rate tolerance given is in force: the hint is a looser one than that, not "above 0".
+    nothing_found(
+        &[
+            "clock",
+            "going",
+            "--period",
+            "2",
+            "--wheels",
+            "30..40",
+            "--pinions",
+            "8..9",
+            "--stages",
+            "2",
+            "--rate-tol",
+            "5",
+        ],
+        "no train meets every constraint. 1/60 is out of reach: 2 stages of these gears make at least \
+         0.04. Try --stages up to 3, or wider --wheels and --pinions.",
+    );
+    // 1/60 lies between (7/60)² and (7/50)², but no two wheels of 50..60 make 7·7/(a·b) = 1/60
+    // (a·b = 2940 has no such pair) within 5 s/day.
+    nothing_found(
+        &["clock", "going", "--period", "2", "--wheels", "50..60", "--pinions", "7", "--stages", "2", "--rate-tol", "5"],
+        "no train meets every constraint. Try a --rate-tol above 5 s/day, more --stages, or wider --wheels and \
+         --pinions.",
+    );
+    // Every stage speeds up by at least 30/8: two overshoot the 1/4 a 30 s period needs, one
+    // (8/32) makes it.
+    nothing_found(
+        &["clock", "going", "--period", "30s", "--stages", "2", "--pinions", "8"],
+        "no train meets every constraint. 1/4 is out of reach: 2 stages of these gears make at most \
+         0.0711. Try --stages down to 1, or wider --wheels and --pinions.",
+    );
+    // A pendulum's length gives no exact ratio: only a rate tolerance can help.
+    nothing_found(
+        &["clock", "going", "--pendulum", "994mm"],
+        "no train meets every constraint. A pendulum given by its length beats at no ratio of whole numbers, \
+         so no train is exact. Try a --rate-tol above 0 s/day.",
+    );
+}
+
+#[test]
 fn the_demo_bench_stock_gives_a_going_train() {
     // The invented restorer's drawer (catalogs/clock-blanks.csv): each blank used at most once.
     let (code, v) = json(&["clock", "going", "--period", "2", "--stock", "catalogs/clock-blanks.csv", "-q"]);

@@ -84,8 +84,6 @@ const CASES: &[(&str, &[&str])] = &[
             "8tpi",
             "--stock",
             "catalogs/lathe-change-gears.csv",
-            "--limit",
-            "3",
         ],
     ),
     (

@@ -3,7 +3,7 @@
 
 mod common;
 
-use common::{gearsieve, json};
+use common::{gearsieve, json, refused};
 use gearsieve::model::problem::DEFAULT_SHIFT_SUM;
 use serde_json::Value;
 
@@ -288,13 +288,24 @@ fn bad_input_names_the_flag_and_what_is_wanted() {
     bad(&["--teeth", "12,40,60", "--module", "2"], "--teeth", two_counts);
     bad(&["--teeth", "12,x", "--module", "2"], "--teeth", two_counts);
     bad(&["--teeth", "2,40", "--module", "2"], "--teeth", "each from 3 to 1000");
-    bad(&["--teeth", "12,40", "--module", "0"], "--module", "positive number of millimetres");
-    bad(&["--teeth", "12,40", "--module", "inf"], "--module", "positive");
-    bad(&["--teeth", "12,40", "--diametral-pitch", "-4"], "--diametral-pitch", "teeth per inch");
+    // The same limits as search and every other command: module 0.05 to 100 mm.
+    let module = "module must be a number of mm from 0.05 to 100";
+    bad(&["--teeth", "12,40", "--module", "0"], "--module", module);
+    bad(
+        &["--teeth", "12,40", "--module", "inf"],
+        "--module",
+        "\"inf\" is not a number; wanted a number such as 1.5",
+    );
+    bad(&["--teeth", "12,40", "--module", "1e9"], "--module", &format!("{module}, found 1000000000"));
+    bad(
+        &["--teeth", "12,40", "--diametral-pitch", "-4"],
+        "--diametral-pitch",
+        "teeth per inch from 0.254 to 500",
+    );
     bad(
         &["--teeth", "12,40", "--module", "2", "--pressure-angle", "90"],
         "--pressure-angle",
-        "between 0 and 90",
+        "pressure angle must be from 10° to 35°, found 90",
     );
     bad(&["--teeth", "12,40", "--module", "2", "--shift", "0.3"], "--shift", "two profile shifts");
     bad(
@@ -311,18 +322,65 @@ fn bad_input_names_the_flag_and_what_is_wanted() {
     bad(
         &["--teeth", "12,40", "--module", "2", "--min-contact-ratio", "nan"],
         "--min-contact-ratio",
-        "zero or more",
+        "\"nan\" is not a number; wanted a number such as 1.5",
     );
     bad(
         &["--teeth", "12,40", "--module", "2", "--centre-distance", "wide"],
         "--centre-distance",
-        "positive working centre distance in mm",
+        "\"wide\" is not a number; wanted a length above 0 in mm such as 52.5, or with a unit",
     );
     bad(
         &["--teeth", "12,40", "--module", "2", "--centre-distance", "53", "--shift-sum", "2..1"],
         "--shift-sum",
         "inverted",
     );
+}
+
+#[test]
+fn each_mistake_gets_its_whole_message() {
+    // The same limits as search for the same quantities.
+    refused(
+        &["mesh", "--teeth", "17,53", "--module", "1e9"],
+        "--module: module must be a number of mm from 0.05 to 100, found 1000000000",
+    );
+    refused(
+        &["mesh", "--teeth", "17,53", "--module", "2", "--pressure-angle", "45"],
+        "--pressure-angle: pressure angle must be from 10° to 35°, found 45",
+    );
+    refused(
+        &["mesh", "--teeth", "17,53", "--diametral-pitch", "0.001"],
+        "--diametral-pitch: diametral pitch must be a number of teeth per inch from 0.254 to 500 (modules of \
+         0.0508 to 100 mm), found 0.001",
+    );
+    refused(
+        &["mesh", "--teeth", "17,53", "--module", "2", "--centre-distance", "3ft"],
+        "--centre-distance: \"3ft\" has an unknown unit \"ft\"; wanted a length above 0 in mm such as 52.5, or \
+         with a unit: 52.5mm, 0.0525m or 2.067in",
+    );
+    refused(
+        &["mesh", "--teeth", "17,53", "--module", "2", "--min-contact-ratio", "-1"],
+        "--min-contact-ratio: wanted a number of 0 or more such as 1.2, found -1",
+    );
+    // The same search limits: what search refuses, mesh refuses with the same words.
+    for given in [&["--module", "1e9"][..], &["--module", "2", "--pressure-angle", "45"]] {
+        let search = gearsieve(&[&["search", "--ratio", "2"][..], given].concat());
+        let mesh = gearsieve(&[&["mesh", "--teeth", "17,53"][..], given].concat());
+        assert_eq!((search.code, &search.stderr), (2, &mesh.stderr), "{given:?}");
+    }
+}
+
+#[test]
+fn centre_distances_take_the_units_of_every_length() {
+    let at = |cd: &str| {
+        let (code, v) = json(&["mesh", "--teeth", "17,53", "--module", "2", "--centre-distance", cd]);
+        assert_eq!(code, 0, "{cd}");
+        v["geometry"]["working_centre_distance_mm"].as_f64().unwrap()
+    };
+    assert_eq!(at("71"), 71.0);
+    assert_eq!(at("71mm"), 71.0);
+    assert_eq!(at("0.071m"), 71.0);
+    // 2.8 in = 71.12 mm exactly.
+    assert_eq!(at("2.8in"), 71.12);
 }
 
 #[test]

@@ -169,11 +169,16 @@ fn the_caution_is_printed() {
 
 #[test]
 fn nothing_found_exits_1_with_output() {
-    // Two stages of at most 6:1 cannot make 100:1.
+    // Two stages of at most 100/17 (the teeth cap each stage below the 6:1 limit) cannot make
+    // 100:1; three can.
     let r = gearsieve(&["reducer", "--ratio", "100", "--modules", "1", "--stages", "2", "--tol", "0", "-q"]);
     assert_eq!(r.code, 1);
     assert!(r.stdout.contains("No train meets every constraint."));
-    assert!(r.stderr.contains("--max-stage-ratio"));
+    assert_eq!(
+        r.stderr,
+        "gearsieve: no train meets every constraint. 100 is out of reach: 2 stages of these gears make at \
+         most 34.6021. Try --stages up to 3, or a higher --max-teeth.\n"
+    );
 }
 
 #[test]
@@ -225,4 +230,155 @@ fn a_better_ratio_outranks_a_negligibly_better_balance() {
     assert_eq!(first["ratio"], "75/2", "{first}");
     assert_eq!(first["non_hunting_pairs"], 0);
     assert!(first["balance"].as_f64().unwrap() < 1.1);
+}
+
+#[test]
+fn each_mistake_gets_its_whole_message() {
+    // The example follows the stage count asked for, and following it works.
+    refused(
+        &["reducer", "--ratio", "20"],
+        "--modules: give the module in mm of each stage, input to output, such as 1,1.5 for --stages 2 (or 1 \
+         for every stage); or gears on hand with --stock FILE",
+    );
+    let r = gearsieve(&["reducer", "--ratio", "20", "--modules", "1,1.5", "--limit", "1", "-q"]);
+    assert_eq!(r.code, 0, "{}", r.stderr);
+    refused(
+        &["reducer", "--ratio", "20", "--stages", "3"],
+        "--modules: give the module in mm of each stage, input to output, such as 1,1.5,2 for --stages 3 (or \
+         1 for every stage); or gears on hand with --stock FILE",
+    );
+    refused(
+        &["reducer", "--ratio", "20", "--stages", "2..3"],
+        "--modules: give one module in mm for every stage of --stages 2..3, such as 1; or gears on hand with \
+         --stock FILE",
+    );
+    // A stage count that does not fit a list given per stage is refused, not narrowed.
+    refused(
+        &["reducer", "--ratio", "20", "--stages", "2..3", "--modules", "1,1.5"],
+        "--stages: 2..3 does not fit --modules, which lists 2 modules, one per stage; give 2 stages, or one \
+         module for all",
+    );
+    refused(
+        &["reducer", "--ratio", "20", "--stages", "2", "--modules", "1,1.5,2"],
+        "--stages: 2 does not fit --modules, which lists 3 modules, one per stage; give 3 stages, or one \
+         module for all",
+    );
+    refused(
+        &["reducer", "--ratio", "20", "--modules", "1", "--stages", "3", "--centre-distances", "60,80"],
+        "--stages: 3 does not fit --centre-distances, which lists 2 centre distances, one per stage; give 2 \
+         stages, or one distance for all",
+    );
+    refused(
+        &["reducer", "--ratio", "20", "--modules", "1,1.5", "--centre-distances", "60,70,80"],
+        "--centre-distances: 3 distances given, but --modules lists 2 modules; give as many of each (one per \
+         stage), or one for all",
+    );
+    refused(
+        &["reducer", "--ratio", "20", "--modules", "1", "--centre-distances", "60,3ft"],
+        "--centre-distances: \"3ft\" has an unknown unit \"ft\"; wanted a length above 0 in mm such as 52.5, \
+         or with a unit: 52.5mm, 0.0525m or 2.067in",
+    );
+    refused(
+        &["reducer", "--ratio", "20", "--modules", "1e9"],
+        "--modules: module must be a number of mm from 0.05 to 100, found 1000000000",
+    );
+    refused(
+        &["reducer", "--ratio", "20", "--modules", "1e9", "--stock", "catalogs/lathe-change-gears.csv"],
+        "--modules: module must be a number of mm from 0.05 to 100, found 1000000000",
+    );
+}
+
+#[test]
+fn the_stage_count_follows_a_list_given_per_stage() {
+    // Three modules and no --stages: three stages, as the list says.
+    let (code, v) = json(&[
+        "reducer",
+        "--ratio",
+        "10",
+        "--modules",
+        "1,1.5,2",
+        "--max-teeth",
+        "40",
+        "--tol",
+        "2%",
+        "--limit",
+        "1",
+        "-q",
+    ]);
+    assert_eq!(code, 0);
+    assert_eq!(stages(&trains(&v)[0]).len(), 3);
+    // Centre distances with units are the same distances in mm.
+    let trains_at = |cd: &str| {
+        let (code, v) = json(&[
+            "reducer",
+            "--ratio",
+            "20",
+            "--modules",
+            "1,1.5",
+            "--centre-distances",
+            cd,
+            "--limit",
+            "2",
+            "-q",
+        ]);
+        assert_eq!(code, 0, "{cd}");
+        v["trains"].clone()
+    };
+    assert_eq!(trains_at("2in,3in"), trains_at("50.8,76.2"));
+    assert_eq!(trains_at("60mm,0.08m"), trains_at("60,80"));
+}
+
+#[test]
+fn a_reducer_that_would_run_for_days_needs_long() {
+    // Four stages of up to 200 teeth: forecast first, refused without --long, even in a pipe.
+    let r = gearsieve(&["reducer", "--ratio", "20", "--stages", "4", "--modules", "1", "--max-teeth", "200"]);
+    assert_eq!(r.code, 2, "{}", r.stderr);
+    assert!(r.stdout.is_empty());
+    assert_eq!(r.stderr.lines().count(), 1, "{}", r.stderr);
+    assert!(r.stderr.starts_with("gearsieve: this search would take at least "), "{}", r.stderr);
+    assert!(
+        r.stderr.ends_with(
+            "narrow it (fewer --stages, a lower --max-teeth, a lower --max-stage-ratio, a tighter --tol), or \
+             give --long to run it anyway\n"
+        ),
+        "{}",
+        r.stderr
+    );
+    assert_flags_named_once(&r.stderr);
+}
+
+#[test]
+fn nothing_found_names_only_what_would_help() {
+    // --hunting prefer is the default: not suggested; out of reach, so no looser --tol either.
+    // The stage ratio limit caps each stage: raising it, or more stages, would help.
+    nothing_found(
+        &[
+            "reducer",
+            "--ratio",
+            "20",
+            "--modules",
+            "1",
+            "--stages",
+            "1",
+            "--hunting",
+            "prefer",
+            "--max-stage-ratio",
+            "3",
+        ],
+        "no train meets every constraint. 20 is out of reach: 1 stage of these gears makes at most 3. Try \
+         --stages up to 3, or a higher --max-stage-ratio.",
+    );
+    // The teeth, not the stage ratio limit, cap each stage here: the hint says so.
+    nothing_found(
+        &["reducer", "--ratio", "20", "--modules", "1,1.5,2", "--max-teeth", "30"],
+        "no train meets every constraint. 20 is out of reach: 3 stages of these gears make at most 5.4956. Try \
+         a higher --max-teeth.",
+    );
+    // Exactly 4:1 in one stage pairs z with 4z, which share z: never hunting. Relaxing the
+    // requirement is a hint; the stage ratio limit (6) does not bind, so it is not named.
+    nothing_found(
+        &["reducer", "--ratio", "4", "--modules", "1", "--stages", "1", "--tol", "0", "--hunting", "require"],
+        "no train meets every constraint. Try a looser --tol, a higher --max-teeth, a lower --min-teeth, more \
+         --stages, or --hunting prefer.",
+    );
 }

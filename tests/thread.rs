@@ -359,6 +359,129 @@ fn bad_input_is_one_line_and_exit_2() {
 }
 
 #[test]
+fn each_mistake_gets_its_whole_message() {
+    let lathe = ["thread", "--leadscrew", "8tpi", "--pitch", "1mm", "--teeth", "20..80"];
+    fn with<'a>(lathe: &[&'a str], more: &[&'a str]) -> Vec<&'a str> {
+        [lathe, more].concat()
+    }
+    // A gearbox that is neither a file nor a list is not read as a list.
+    refused(
+        &with(&lathe, &["--gearbox", "nosuchfile"]),
+        "--gearbox: there is no file \"nosuchfile\", and it is not a list; wanted a file of NAME = RATIO \
+         lines, or a list NAME=RATIO,… such as A=2,B=1,C=1/2",
+    );
+    refused(
+        &with(&lathe, &["--gearbox", "A=x"]),
+        "--gearbox: position 1: \"x\" is not a ratio; wanted NAME=RATIO such as A=1/2 (input turns per \
+         leadscrew turn)",
+    );
+    refused(&with(&lathe, &["--gearbox", "A=1,A=2"]), "--gearbox: position 2: position A is named twice");
+    refused(
+        &with(
+            &lathe,
+            &["--stud-to-leadscrew", "100", "--intermediate-range", "50..40", "--shaft-diameter", "10"],
+        ),
+        "--intermediate-range: \"50..40\" is inverted (LO > HI); wanted LO..HI or one length, in mm such \
+         as 40..80 or 75 (or with units: 1.5in..3in), above 0, LO ≤ HI",
+    );
+    refused(
+        &with(
+            &lathe,
+            &["--stud-to-leadscrew", "100", "--intermediate-range", "40..50", "--shaft-diameter", "0"],
+        ),
+        "--shaft-diameter: \"0\" is zero; wanted a length above 0 in mm such as 52.5, or with a unit: \
+         52.5mm, 0.0525m or 2.067in",
+    );
+    // The banjo file's range error names --banjo once, then the file, line and key.
+    let (_d, banjo) = temp_catalogue(
+        "b.banjo",
+        b"stud_to_leadscrew_mm = 120\nintermediate_from_leadscrew_mm = 90..60\nshaft_diameter_mm = 16\n",
+    );
+    refused(
+        &with(&lathe, &["--banjo", &banjo]),
+        &format!(
+            "--banjo: banjo file {banjo}, line 2: intermediate_from_leadscrew_mm: \"90..60\" is inverted (LO \
+             > HI); wanted LO..HI or one length, in mm such as 40..80 or 75 (or with units: 1.5in..3in), \
+             above 0, LO ≤ HI"
+        ),
+    );
+    refused(
+        &["thread", "--leadscrew", "8tpi", "--pitch", "3", "--teeth", "20..80"],
+        "--pitch: \"3\" has no unit; wanted a pitch such as 1.25mm, 11tpi, 0.05in, module:2 or dp:16",
+    );
+    refused(
+        &["thread", "--leadscrew", "8tpi", "--pitch", "0.003ft", "--teeth", "20..80"],
+        "--pitch: \"0.003ft\" has an unknown unit \"ft\"; wanted a pitch such as 1.25mm, 11tpi, 0.05in, \
+         module:2 or dp:16",
+    );
+    refused(
+        &["thread", "--leadscrew", "8tpi", "--pitch", "1mm"],
+        "--stock: give the change gears on hand as a catalogue FILE, or a range to cut with --teeth LO..HI",
+    );
+    // --limit did nothing on a chart: refused, saying what to use.
+    refused(
+        &["chart", "--series", "unc", "--leadscrew", "8tpi", "--teeth", "20..80", "--limit", "3"],
+        "--limit: a chart lists only the best setup of each thread; gearsieve thread --pitch P lists more \
+         setups of one thread",
+    );
+}
+
+#[test]
+fn inch_pitches_and_feeds_are_lengths() {
+    // 0.25 in between threads is 4 threads per inch, exactly: the same setups.
+    let setups = |pitch: &str| {
+        let (code, v) = json(&[
+            "thread",
+            "--leadscrew",
+            "8tpi",
+            "--pitch",
+            pitch,
+            "--stock",
+            "catalogs/lathe-change-gears.csv",
+        ]);
+        assert_eq!(code, 0, "{pitch}");
+        v["trains"].as_array().unwrap().iter().map(|t| t["ratio"].clone()).collect::<Vec<_>>()
+    };
+    assert_eq!(setups("0.25in"), setups("4tpi"));
+    let r = gearsieve(&[
+        "thread",
+        "--leadscrew",
+        "8tpi",
+        "--pitch",
+        "0.05in",
+        "--stock",
+        "catalogs/lathe-change-gears.csv",
+        "--limit",
+        "1",
+    ]);
+    assert_eq!(r.code, 0, "{}", r.stderr);
+    assert!(r.stdout.contains("0.05000 in"), "{}", r.stdout);
+}
+
+#[test]
+fn nothing_found_names_only_what_would_help() {
+    let no127 = "catalogs/lathe-change-gears-no127.csv";
+    let banjo = "catalogs/lathe/brackenfold.banjo";
+    let args = ["thread", "--leadscrew", "8tpi", "--pitch", "1.25mm", "--stock", no127, "--banjo", banjo];
+    let tight = [&args[..], &["--tol", "0"]].concat();
+    nothing_found(
+        &tight,
+        "no setup cuts 1.25mm within the tolerance from these gears. Try a looser --tol, more --stages, or \
+         more stock; --explain shows what the banjo refused.",
+    );
+    // With --explain given, it is not suggested again; at the largest tolerance, no looser one.
+    nothing_found(
+        &[&tight[..], &["--explain"]].concat(),
+        "no setup cuts 1.25mm within the tolerance from these gears. Try a looser --tol, more --stages, or \
+         more stock.",
+    );
+    nothing_found(
+        &["thread", "--leadscrew", "8tpi", "--pitch", "1mm", "--teeth", "20..21", "--stages", "1", "--tol", "10%"],
+        "no setup cuts 1mm within the tolerance from these gears. Try more --stages, or a wider --teeth range.",
+    );
+}
+
+#[test]
 fn chart_covers_the_series_and_marks_what_is_out_of_reach() {
     let (code, v) = json(&[
         "chart",

@@ -11,7 +11,9 @@ use gearsieve::model::catalog::{self, CatalogueDefaults};
 use gearsieve::model::pool::{
     Pool, StockGear, MAX_TEETH, MIN_TEETH, MODULE_RANGE_MM, PRESSURE_ANGLE_RANGE_DEG,
 };
-use gearsieve::numbers::range::{parse_float_range, parse_int_range, parse_ratio_range};
+use gearsieve::numbers::length::{parse_length, LengthUnit};
+use gearsieve::numbers::period::{parse_period, TimeUnit};
+use gearsieve::numbers::range::{parse_int_range, parse_length_range, parse_ratio_range};
 use gearsieve::numbers::rational::{gcd, Ratio};
 use gearsieve::numbers::target::{parse_ratio, parse_tolerance};
 use gearsieve::Quantity;
@@ -30,7 +32,7 @@ pub struct TextOutcome {
     pub int_range: bool,
     /// `parse_ratio_range` returned a range.
     pub ratio_range: bool,
-    /// `parse_float_range` returned a range.
+    /// `parse_length_range` returned a range.
     pub float_range: bool,
 }
 
@@ -65,6 +67,7 @@ fn assert_names_quantity(message: &str, quantity: Quantity, input: &str) {
 /// - A ratio range has at least one end, each end positive and reduced, `lo ≤ hi`.
 /// - A length range has `lo ≤ hi`; each end is finite and positive unless left open (`0` below,
 ///   infinity above).
+/// - A length or a period (with or without a unit) is positive and reduced.
 /// - Every error message starts with the quantity it was given.
 ///
 /// Panics on a broken invariant (and, of course, if a parser panics).
@@ -131,7 +134,7 @@ pub fn check_text(input: &str) -> TextOutcome {
         Err(e) => assert_names_quantity(&e.to_string(), Quantity::StageRatio, input),
     }
 
-    match parse_float_range(input, Quantity::CentreDistance, "mm") {
+    match parse_length_range(input, Quantity::CentreDistance) {
         Ok(r) => {
             seen.float_range = true;
             assert!(r.lo <= r.hi, "length range of {input:?} is inverted or NaN: {r:?}");
@@ -146,6 +149,26 @@ pub fn check_text(input: &str) -> TextOutcome {
             assert!(r.lo > 0.0 || r.hi.is_finite(), "length range of {input:?} is open at both ends: {r:?}");
         }
         Err(e) => assert_names_quantity(&e.to_string(), Quantity::CentreDistance, input),
+    }
+
+    // Lengths and periods: positive and exact when read, or refused naming their quantity.
+    for default in [None, Some(LengthUnit::Millimetre), Some(LengthUnit::Metre)] {
+        match parse_length(input, Quantity::CentreDistance, default) {
+            Ok(l) => {
+                assert!(l.mm.num() > 0, "length of {input:?} is not positive: {l:?}");
+                assert_reduced_positive(l.mm, "length", input);
+            }
+            Err(e) => assert_names_quantity(&e.to_string(), Quantity::CentreDistance, input),
+        }
+    }
+    for unit in [TimeUnit::Second, TimeUnit::Day] {
+        match parse_period(input, Quantity::PendulumPeriod, unit) {
+            Ok(p) => {
+                assert!(p.num() > 0, "period of {input:?} is not positive: {p:?}");
+                assert_reduced_positive(p, "period", input);
+            }
+            Err(e) => assert_names_quantity(&e.to_string(), Quantity::PendulumPeriod, input),
+        }
     }
 
     seen

@@ -4,9 +4,10 @@ use std::path::PathBuf;
 
 use clap::{Args, ValueEnum};
 use gearsieve::model::catalog::{self, CatalogueDefaults};
-use gearsieve::model::pool::Pool;
+use gearsieve::model::pool::{check_module, Pool};
+use gearsieve::numbers::target::parse_number;
 use gearsieve::report::Format;
-use gearsieve::Error;
+use gearsieve::{Error, Quantity};
 
 /// The output format flag.
 #[derive(Clone, Copy, Debug, ValueEnum)]
@@ -52,8 +53,32 @@ pub struct PrintArgs {
     pub quiet: bool,
 }
 
-/// Load every `--stock` file into one pool.
-pub fn load_stock(files: &[PathBuf], defaults: CatalogueDefaults) -> Result<Pool, Error> {
+/// A number for a flag read as a float (a module, an angle, a contact ratio), in the syntax
+/// every number shares (`1.5`, `2.5e-1`, `3/2`), with a minus sign where the value may be
+/// negative. Each flag's own limits are checked where the value is used; this says only what
+/// a number looks like, so that text which is none is told so in one line.
+pub fn number(text: &str) -> Result<f64, String> {
+    let t = text.trim();
+    let (sign, body) = match t.strip_prefix('-') {
+        Some(rest) => (-1.0, rest),
+        None => (1.0, t),
+    };
+    parse_number(body)
+        .map(|v| sign * v.to_f64())
+        .map_err(|why| format!("{why}; wanted a number such as 1.5, 0.25 or 2.5e-1"))
+}
+
+/// Load every `--stock` file into one pool. A default module given on the command line (as
+/// `module_from`) is checked first, so that its error names that flag and not the first row
+/// that lacks a module.
+pub fn load_stock(
+    files: &[PathBuf],
+    defaults: CatalogueDefaults,
+    module_from: Quantity,
+) -> Result<Pool, Error> {
+    if let Some(m) = defaults.module_mm {
+        check_module(m, &|e| Error::value(module_from, e))?;
+    }
     let mut gears = Vec::new();
     for f in files {
         gears.extend(catalog::load(f, defaults)?);

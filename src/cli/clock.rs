@@ -3,24 +3,31 @@
 //! time, the year). The clap structs mirror the flags; `TryFrom` turns them into the library's
 //! specs, valid by construction.
 
+use std::borrow::Cow;
 use std::path::PathBuf;
 
 use clap::{ArgGroup, Args, Subcommand};
 use gearsieve::model::catalog::CatalogueDefaults;
-use gearsieve::model::pool::{Pool, MAX_STAGES, MAX_TEETH, MIN_TEETH};
+use gearsieve::model::pool::{fmt_num, Pool, MAX_STAGES, MAX_TEETH, MIN_TEETH};
+use gearsieve::numbers::length::{parse_length, LengthUnit};
+use gearsieve::numbers::period::{parse_period, TimeUnit};
 use gearsieve::numbers::range::{parse_int_range, IntRange};
+use gearsieve::numbers::rational::Ratio;
 use gearsieve::numbers::target::{parse_ratio, parse_tolerance};
 use gearsieve::report::Report;
 use gearsieve::trades::clock::astro::{AstroPlan, AstroSpec, InputArbor, Period};
-use gearsieve::trades::clock::beat::{Beat, Escapement, STANDARD_GRAVITY};
+use gearsieve::trades::clock::beat::{
+    parse_beats_per_hour, parse_gravity, Beat, Escapement, STANDARD_GRAVITY,
+};
 use gearsieve::trades::clock::going::{parse_rate_tolerance, GoingPlan, GoingSpec};
 use gearsieve::trades::clock::motion::{Dial, MotionPlan, MotionSpec};
 use gearsieve::trades::clock::{going, motion};
-use gearsieve::{Error, Quantity, RunOptions};
+use gearsieve::{Error, Problem, Quantity, RunOptions};
 
-use super::args::{load_stock, PrintArgs};
+use super::args::{load_stock, number, PrintArgs};
 use super::flags::refuse;
-use super::run::{self, Job, Print, Words};
+use super::hints::{self, ExactBlocked, OutOfReach};
+use super::run::{self, Job, Outlook, Print, Words};
 
 /// Clock trains: the going train, the motion work, astronomical trains.
 #[derive(Args, Debug)]
@@ -48,7 +55,7 @@ pub struct ClockGears {
     #[arg(long, value_name = "FILE")]
     pub stock: Vec<PathBuf>,
     /// Module in mm of the wheels to cut, or for catalogue rows that give none.
-    #[arg(long, value_name = "MM", default_value_t = 0.5, allow_negative_numbers = true)]
+    #[arg(long, value_name = "MM", default_value_t = 0.5, allow_negative_numbers = true, value_parser = number)]
     pub module: f64,
     /// Stages (meshes): N or A..B.
     #[arg(long, value_name = "N|A..B", allow_hyphen_values = true)]
@@ -56,6 +63,9 @@ pub struct ClockGears {
     /// Trains to list; all are counted.
     #[arg(long, value_name = "K", default_value_t = 10)]
     pub limit: usize,
+    /// Run even when the search is forecast to take more than an hour.
+    #[arg(long)]
+    pub long: bool,
     #[command(flatten)]
     pub print: PrintArgs,
 }
@@ -66,18 +76,21 @@ pub struct ClockGears {
 #[derive(Args, Debug)]
 #[command(group(ArgGroup::new("beat").required(true).args(["pendulum", "period", "beats_per_hour"])))]
 pub struct GoingArgs {
-    /// Pendulum length in m (simple pendulum, small swings): period 2π·√(L/g).
-    #[arg(long, value_name = "M", allow_negative_numbers = true)]
-    pub pendulum: Option<f64>,
-    /// Pendulum period in s, a full swing there and back (2 for a seconds pendulum).
-    #[arg(long, value_name = "S")]
+    /// Pendulum length in m (simple pendulum, small swings): period 2π·√(L/g). Other units:
+    /// 994mm, 39.13in.
+    #[arg(long, value_name = "M", allow_hyphen_values = true)]
+    pub pendulum: Option<String>,
+    /// Pendulum period in s, a full swing there and back (2 for a seconds pendulum). Other
+    /// units: 2s, 1.5min.
+    #[arg(long, value_name = "S", allow_hyphen_values = true)]
     pub period: Option<String>,
     /// Beats per hour (a beat is one swing, half a period).
-    #[arg(long, value_name = "N")]
+    #[arg(long, value_name = "N", allow_hyphen_values = true)]
     pub beats_per_hour: Option<String>,
-    /// Local gravity for --pendulum, m/s².
-    #[arg(long, value_name = "G", default_value_t = STANDARD_GRAVITY, allow_negative_numbers = true)]
-    pub gravity: f64,
+    /// Local gravity, m/s², from 1 to 30: sets the period of a --pendulum, and the simple
+    /// pendulum a --period or --beats-per-hour stands for.
+    #[arg(long, value_name = "G", default_value_t = STANDARD_GRAVITY.to_string(), allow_hyphen_values = true)]
+    pub gravity: String,
     /// Escape wheel teeth.
     #[arg(long, value_name = "N", default_value_t = 30)]
     pub escape_teeth: u32,
@@ -126,7 +139,7 @@ pub struct MotionArgs {
     #[arg(long)]
     pub no_undercut: bool,
     /// Least transverse contact ratio of an involute mesh.
-    #[arg(long, value_name = "X", default_value_t = 1.0, allow_negative_numbers = true)]
+    #[arg(long, value_name = "X", default_value_t = 1.0, allow_negative_numbers = true, value_parser = number)]
     pub min_contact_ratio: f64,
     #[command(flatten)]
     pub gears: ClockGears,
@@ -166,7 +179,11 @@ fn pool(g: &ClockGears, teeth: IntRange) -> Result<Pool, Error> {
     if g.stock.is_empty() {
         Pool::to_cut(teeth, g.module, 20.0, None)
     } else {
-        load_stock(&g.stock, CatalogueDefaults { module_mm: Some(g.module), pressure_angle_deg: 20.0 })
+        load_stock(
+            &g.stock,
+            CatalogueDefaults { module_mm: Some(g.module), pressure_angle_deg: 20.0 },
+            Quantity::Module,
+        )
     }
 }
 
@@ -182,11 +199,19 @@ impl TryFrom<&GoingArgs> for GoingSpec {
     type Error = anyhow::Error;
 
     fn try_from(a: &GoingArgs) -> anyhow::Result<GoingSpec> {
+        let gravity = parse_gravity(&a.gravity)?;
         let beat = match (&a.pendulum, &a.period, &a.beats_per_hour) {
-            (Some(m), _, _) => Beat::from_length(*m, a.gravity)?,
-            (None, Some(s), _) => Beat::from_period(parse_ratio(s, Quantity::PendulumPeriod)?),
-            (None, None, Some(b)) => Beat::from_beats_per_hour(parse_ratio(b, Quantity::BeatsPerHour)?),
-            _ => return Err(refuse("--period", "give --pendulum M, --period S or --beats-per-hour N")),
+            (Some(l), _, _) => {
+                let length = parse_length(l, Quantity::PendulumLength, Some(LengthUnit::Metre))?;
+                Beat::from_length(length.mm_f64() / 1000.0, gravity)?
+            }
+            (None, Some(p), _) => {
+                Beat::from_period(parse_period(p, Quantity::PendulumPeriod, TimeUnit::Second)?, gravity)?
+            }
+            (None, None, Some(b)) => Beat::from_beats_per_hour(parse_beats_per_hour(b)?, gravity)?,
+            _ => {
+                return Err(anyhow::anyhow!("give the beat: --pendulum M, --period S or --beats-per-hour N"))
+            }
         };
         let wheels = teeth(&a.wheels, Quantity::WheelTeeth)?;
         let pinions = teeth(&a.pinions, Quantity::PinionLeaves)?;
@@ -220,9 +245,6 @@ impl TryFrom<&MotionArgs> for MotionSpec {
         };
         let pinions = teeth(&a.pinions, Quantity::PinionLeaves)?;
         let wheels = teeth(&a.wheels, Quantity::WheelTeeth)?;
-        if !(a.min_contact_ratio.is_finite() && a.min_contact_ratio >= 0.0) {
-            return Err(refuse("--min-contact-ratio", "wanted a number of 0 or more, e.g. 1.2"));
-        }
         Ok(MotionSpec {
             ratio,
             ratio_text,
@@ -259,67 +281,231 @@ impl TryFrom<&AstroArgs> for AstroSpec {
     }
 }
 
-/// What a clock command says when interrupted or when nothing was found.
-fn words(hint: &str) -> Words {
-    Words {
-        interrupted: Some("the trains above are the best found so far".into()),
-        nothing: Some(format!("no train meets every constraint. {hint}")),
+/// A clock spec with how to run it.
+struct ClockJob<S> {
+    spec: S,
+    /// `--long`: run whatever the forecast.
+    long: bool,
+}
+
+impl<S> ClockJob<S> {
+    /// The forecast of one search of `problem` with the trades' engine.
+    fn outlook(&self, problem: Problem, narrow: Vec<String>) -> Outlook<'_> {
+        Outlook {
+            searches: vec![(Cow::Owned(problem), gearsieve::trades::ENGINE)],
+            long: self.long,
+            shard: None,
+            narrow,
+            can_shard: false,
+        }
     }
 }
 
-impl Job for GoingSpec {
+/// What a clock command says when interrupted, and when nothing was found.
+fn words(nothing: String) -> Words {
+    Words { interrupted: Some("the trains above are the best found so far".into()), nothing: Some(nothing) }
+}
+
+/// "wider --wheels and --pinions", or the one of them that can be wider.
+fn wider_wheels_and_pinions(wheels: IntRange, pinions: IntRange) -> Option<String> {
+    let full = |r: IntRange, least: u32| r.lo <= least && r.hi >= MAX_TEETH;
+    match (full(wheels, MIN_TEETH), full(pinions, 6)) {
+        (false, false) => Some("wider --wheels and --pinions".into()),
+        (false, true) => Some("wider --wheels".into()),
+        (true, false) => Some("wider --pinions".into()),
+        (true, true) => None,
+    }
+}
+
+/// The reasons and hints for a clock train that was not found, shared by the three: out of
+/// reach, an exact ratio no gear can make, or else `otherwise`. `target` is the ratio as shown,
+/// `gears` is how to have more gears, `tolerance` how to accept a less exact train.
+fn nothing_found(
+    problem: &Problem,
+    target: &str,
+    gears: Option<String>,
+    tolerance: String,
+    otherwise: Vec<String>,
+) -> String {
+    if let Some(reach) = OutOfReach::of(problem) {
+        let mut h: Vec<String> = reach.stages_hint().into_iter().collect();
+        h.extend(gears);
+        return hints::nothing(&reach.sentence(target), &h);
+    }
+    if let Some(blocked) = ExactBlocked::of(problem) {
+        let mut h = vec![tolerance];
+        h.extend(gears);
+        return hints::nothing(&blocked.sentence(target), &h);
+    }
+    hints::nothing("", &otherwise)
+}
+
+impl Job for ClockJob<GoingSpec> {
     type Found = GoingPlan;
 
     fn search(&self, options: &RunOptions) -> anyhow::Result<GoingPlan> {
-        Ok(self.plan(options)?)
+        Ok(self.spec.plan(options)?)
     }
 
     fn report<'a>(&'a self, found: &'a GoingPlan) -> Box<dyn Report + 'a> {
         Box::new(found)
     }
 
-    fn words(&self) -> Words {
-        words("Try a --rate-tol above 0 s/day, more --stages, or wider --wheels and --pinions.")
+    fn words(&self, found: &GoingPlan) -> Words {
+        let s = &self.spec;
+        let gears = if s.pool.from_stock {
+            Some("more stock".to_string())
+        } else {
+            wider_wheels_and_pinions(s.wheels, s.pinions)
+        };
+        let t = s.rate_tolerance_s_per_day;
+        let looser = format!("a --rate-tol above {} s/day", fmt_num(t.to_f64()));
+        let (_, exact) = s.needed_ratio();
+        if !exact && t.is_zero() && OutOfReach::of(&found.problem).is_none() {
+            // A beat from a pendulum's length carries π and a square root: no ratio of whole
+            // numbers is it, so only a rate tolerance can let a train through.
+            let why =
+                "A pendulum given by its length beats at no ratio of whole numbers, so no train is exact. ";
+            return words(hints::nothing(why, &[looser]));
+        }
+        let mut otherwise = Vec::new();
+        if t < Ratio::integer(going::MAX_RATE_TOLERANCE_S_PER_DAY) {
+            otherwise.push(looser.clone());
+        }
+        otherwise.extend(hints::more_stages(s.stages));
+        otherwise.extend(gears.clone());
+        // A ratio worked out from a pendulum's length is no short fraction: show it as a number.
+        let target = if exact {
+            found.problem.target.text.clone()
+        } else {
+            fmt_num(found.problem.target.ratio.to_f64())
+        };
+        words(nothing_found(&found.problem, &target, gears, looser, otherwise))
+    }
+
+    fn forecast(&self) -> anyhow::Result<Option<Outlook<'_>>> {
+        let s = &self.spec;
+        let mut narrow = narrow_clock(s.stages);
+        narrow.push("narrower --wheels or --pinions".into());
+        if !s.rate_tolerance_s_per_day.is_zero() {
+            narrow.push("a tighter --rate-tol".into());
+        }
+        Ok(Some(self.outlook(s.problem()?, narrow)))
     }
 }
 
-impl Job for MotionSpec {
+impl Job for ClockJob<MotionSpec> {
     type Found = MotionPlan;
 
     fn search(&self, options: &RunOptions) -> anyhow::Result<MotionPlan> {
-        Ok(self.plan(options)?)
+        Ok(self.spec.plan(options)?)
     }
 
     fn report<'a>(&'a self, found: &'a MotionPlan) -> Box<dyn Report + 'a> {
         Box::new(found)
     }
 
-    fn words(&self) -> Words {
-        words("Try wider --wheels and --pinions, a lower --min-contact-ratio, or --not-coaxial.")
+    fn words(&self, found: &MotionPlan) -> Words {
+        let s = &self.spec;
+        let gears = if s.pool.from_stock {
+            Some("more stock".to_string())
+        } else {
+            wider_wheels_and_pinions(s.wheels, s.pinions)
+        };
+        let mut otherwise: Vec<String> = gears.clone().into_iter().collect();
+        if s.min_contact_ratio > 0.0 {
+            otherwise.push("a lower --min-contact-ratio".into());
+        }
+        if !s.allow_undercut {
+            otherwise.push("leaving out --no-undercut".into());
+        }
+        if s.coaxial {
+            otherwise.push("--not-coaxial".into());
+        } else {
+            otherwise.extend(hints::more_stages(s.stages));
+        }
+        // Hands want an exact ratio: a looser tolerance is named only when one was already
+        // accepted, or when no exact train can exist.
+        if !s.tolerance.is_zero() {
+            otherwise.push("a looser --tol".into());
+        }
+        let hand_drifts = "a --tol above 0 (the hand then drifts)".to_string();
+        words(nothing_found(&found.problem, &found.problem.target.text, gears, hand_drifts, otherwise))
+    }
+
+    fn forecast(&self) -> anyhow::Result<Option<Outlook<'_>>> {
+        let s = &self.spec;
+        let mut narrow = narrow_clock(s.stages);
+        narrow.push("narrower --wheels or --pinions".into());
+        if !s.tolerance.is_zero() {
+            narrow.push("a tighter --tol".into());
+        }
+        Ok(Some(self.outlook(s.problem()?, narrow)))
     }
 }
 
-impl Job for AstroSpec {
+impl Job for ClockJob<AstroSpec> {
     type Found = AstroPlan;
 
     fn search(&self, options: &RunOptions) -> anyhow::Result<AstroPlan> {
-        Ok(self.plan(options)?)
+        Ok(self.spec.plan(options)?)
     }
 
     fn report<'a>(&'a self, found: &'a AstroPlan) -> Box<dyn Report + 'a> {
         Box::new(found)
     }
 
-    fn words(&self) -> Words {
-        words("Try a looser --tol, more --stages or a wider --teeth range.")
+    fn words(&self, found: &AstroPlan) -> Words {
+        let s = &self.spec;
+        let gears = hints::more_gears(&found.problem.pool, "--teeth");
+        let mut otherwise = vec!["a looser --tol".to_string()];
+        otherwise.extend(hints::more_stages(s.stages));
+        otherwise.extend(gears.clone());
+        words(nothing_found(
+            &found.problem,
+            &found.problem.target.text,
+            gears,
+            "a --tol above 0".into(),
+            otherwise,
+        ))
+    }
+
+    fn forecast(&self) -> anyhow::Result<Option<Outlook<'_>>> {
+        let s = &self.spec;
+        let mut narrow = narrow_clock(s.stages);
+        if !s.pool.from_stock {
+            narrow.push("a narrower --teeth range".into());
+        }
+        if !s.tolerance.is_zero() {
+            narrow.push("a tighter --tol".into());
+        }
+        Ok(Some(self.outlook(s.problem()?, narrow)))
+    }
+}
+
+/// "fewer --stages" when a train may have more than one.
+fn narrow_clock(stages: IntRange) -> Vec<String> {
+    if stages.hi > 1 {
+        vec!["fewer --stages".into()]
+    } else {
+        Vec::new()
     }
 }
 
 /// Run `gearsieve clock`.
 pub fn run(args: ClockArgs) -> anyhow::Result<i32> {
     match &args.what {
-        ClockCommand::Going(a) => run::run(&GoingSpec::try_from(a.as_ref())?, &Print::from(&a.gears.print)),
-        ClockCommand::Motion(a) => run::run(&MotionSpec::try_from(a.as_ref())?, &Print::from(&a.gears.print)),
-        ClockCommand::Astro(a) => run::run(&AstroSpec::try_from(a.as_ref())?, &Print::from(&a.gears.print)),
+        ClockCommand::Going(a) => {
+            let job = ClockJob { spec: GoingSpec::try_from(a.as_ref())?, long: a.gears.long };
+            run::run(&job, &Print::from(&a.gears.print))
+        }
+        ClockCommand::Motion(a) => {
+            let job = ClockJob { spec: MotionSpec::try_from(a.as_ref())?, long: a.gears.long };
+            run::run(&job, &Print::from(&a.gears.print))
+        }
+        ClockCommand::Astro(a) => {
+            let job = ClockJob { spec: AstroSpec::try_from(a.as_ref())?, long: a.gears.long };
+            run::run(&job, &Print::from(&a.gears.print))
+        }
     }
 }

@@ -193,7 +193,7 @@ impl Job for DrawJob {
         }
     }
 
-    fn words(&self) -> Words {
+    fn words(&self, _found: &()) -> Words {
         Words { interrupted: None, nothing: None }
     }
 

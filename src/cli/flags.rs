@@ -31,6 +31,7 @@ pub fn flag_for(quantity: Quantity) -> &'static str {
         Quantity::Direction => "--direction",
         Quantity::Module => "--module",
         Quantity::StageModules => "--modules",
+        Quantity::DiametralPitch => "--diametral-pitch",
         Quantity::PressureAngle => "--pressure-angle",
         Quantity::RankKeys => "--rank",
         Quantity::Limit => "--limit",
@@ -74,6 +75,47 @@ pub fn message(e: &anyhow::Error) -> String {
         .join(": ")
 }
 
+/// A value clap could not read, as one line like every other bad value: `--flag: "text" why`,
+/// or for a value outside a fixed list `--flag: "text" is not one of a, b, c`. `None` for
+/// clap's other errors (an unknown or missing flag), which clap prints itself with the usage.
+pub fn bad_value(e: &clap::Error) -> Option<String> {
+    use clap::error::{ContextKind, ContextValue, ErrorKind};
+    let text = |kind| match e.get(kind) {
+        Some(ContextValue::String(s)) => Some(s.clone()),
+        _ => None,
+    };
+    // "--module <MM>" names the flag; the placeholder is not what the user typed.
+    let arg = text(ContextKind::InvalidArg)?;
+    let flag = arg.split_whitespace().next()?.to_string();
+    let value = text(ContextKind::InvalidValue)?;
+    match e.kind() {
+        ErrorKind::ValueValidation => {
+            let why = std::error::Error::source(e).map(|s| s.to_string())?;
+            // Whole numbers are read by the standard parser, whose words are put in ours.
+            let whole = "; wanted a whole number such as 10";
+            let why = match why.as_str() {
+                "invalid digit found in string" => format!("is not a whole number{whole}"),
+                "cannot parse integer from empty string" => format!("is empty{whole}"),
+                "number too large to fit in target type" => format!("is too large{whole}"),
+                _ => why,
+            };
+            // Our own readers say "is …" or "has …" of the value; others say something else.
+            if why.starts_with("is ") || why.starts_with("has ") {
+                Some(format!("{flag}: \"{value}\" {why}"))
+            } else {
+                Some(format!("{flag}: \"{value}\" is not accepted: {why}"))
+            }
+        }
+        ErrorKind::InvalidValue => match e.get(ContextKind::ValidValue) {
+            Some(ContextValue::Strings(valid)) => {
+                Some(format!("{flag}: \"{value}\" is not one of {}", valid.join(", ")))
+            }
+            _ => None,
+        },
+        _ => None,
+    }
+}
+
 /// A value the command line refuses by itself: `--flag: message`.
 pub fn refuse(flag: &str, message: impl std::fmt::Display) -> anyhow::Error {
     anyhow::anyhow!("{flag}: {message}")
@@ -96,7 +138,7 @@ mod tests {
         assert!(e.to_string().starts_with("the target ratio: \"1e3x\" is not a number; wanted "), "{e}");
         assert_eq!(
             printed(e),
-            "--ratio: \"1e3x\" is not a number; wanted a positive number such as 12, 1.0583, 127/120, 37.5:1 or pi"
+            "--ratio: \"1e3x\" is not a number; wanted a positive number such as 12, 1.0583, 2.5e-1, 127/120, 37.5:1 or pi"
         );
         let e = parse_ratio("0", Quantity::InputTurnsPerHour).unwrap_err();
         assert!(printed(e).starts_with("--from-turns-per-hour: \"0\" is zero"));
@@ -106,9 +148,18 @@ mod tests {
 
     #[test]
     fn quantities_named_inside_a_message_become_flags_too() {
+        let e = Error::value(
+            Quantity::StageModules,
+            gearsieve::Message::from("give one per stage for ").quantity(Quantity::StageCount).text(" 3"),
+        );
+        assert_eq!(e.to_string(), "the module of each stage: give one per stage for the stage count 3");
+        assert_eq!(printed(e), "--modules: give one per stage for --stages 3");
+    }
+
+    #[test]
+    fn a_flag_is_named_once() {
         let e = parse_gearbox_list("A=1,A=2").unwrap_err();
-        assert_eq!(e.to_string(), "the gearbox: the gearbox position 2: position A is named twice");
-        assert_eq!(printed(e), "--gearbox: --gearbox position 2: position A is named twice");
+        assert_eq!(printed(e), "--gearbox: position 2: position A is named twice");
     }
 
     #[test]
@@ -120,6 +171,34 @@ mod tests {
         // Context around a library error comes first, then the error with its flag.
         let wrapped = anyhow::Error::from(Target::parse("x", "0").unwrap_err()).context("reading the job");
         assert!(message(&wrapped).starts_with("reading the job: --ratio: "), "{}", message(&wrapped));
+    }
+
+    #[test]
+    fn values_clap_cannot_read_get_one_line() {
+        use clap::Parser;
+        let line = |args: &[&str]| {
+            let e = super::super::Cli::try_parse_from([&["gearsieve"][..], args].concat()).err().unwrap();
+            bad_value(&e)
+        };
+        assert_eq!(
+            line(&["search", "--ratio", "2", "--module", "2mm"]).as_deref(),
+            Some("--module: \"2mm\" is not a number; wanted a number such as 1.5, 0.25 or 2.5e-1")
+        );
+        assert_eq!(
+            line(&["search", "--ratio", "2", "--format", "xml"]).as_deref(),
+            Some("--format: \"xml\" is not one of table, csv, json, markdown, svg")
+        );
+        assert_eq!(
+            line(&["search", "--ratio", "2", "--threads", "0"]).as_deref(),
+            Some("--threads: \"0\" is not accepted: 0 is not in 1..=1024")
+        );
+        assert_eq!(
+            line(&["search", "--ratio", "2", "--limit", "x"]).as_deref(),
+            Some("--limit: \"x\" is not a whole number; wanted a whole number such as 10")
+        );
+        // Unknown or missing flags are clap's to explain, with the usage.
+        assert_eq!(line(&["search", "--ratio", "2", "--colour", "red"]), None);
+        assert_eq!(line(&["search"]), None);
     }
 
     /// Every long option of `cmd` and its subcommands, with the dashes.
@@ -154,6 +233,7 @@ mod tests {
             Quantity::Direction,
             Quantity::Module,
             Quantity::StageModules,
+            Quantity::DiametralPitch,
             Quantity::PressureAngle,
             Quantity::RankKeys,
             Quantity::Limit,

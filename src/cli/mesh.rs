@@ -8,17 +8,20 @@ use std::path::PathBuf;
 use clap::{ArgGroup, Args};
 use gearsieve::engine::RunOptions;
 use gearsieve::geometry::{
-    check_mesh, mesh_geometry, module_from_diametral_pitch, shift_for_centre_distance, MeshDefect,
-    MeshGeometry, MeshLimits, Mounting, RackProfile, ToothSystem, MM_PER_INCH,
+    check_mesh, mesh_geometry, shift_for_centre_distance, MeshDefect, MeshGeometry, MeshLimits, Mounting,
+    RackProfile, ToothSystem, MM_PER_INCH,
 };
-use gearsieve::model::pool::{fmt_num, MAX_TEETH, MIN_TEETH};
-use gearsieve::model::problem::DEFAULT_SHIFT_SUM;
+use gearsieve::model::pool::{
+    check_diametral_pitch, check_module, check_pressure_angle, fmt_num, MAX_TEETH, MIN_TEETH,
+};
+use gearsieve::model::problem::{check_min_contact_ratio, DEFAULT_SHIFT_SUM};
+use gearsieve::numbers::length::{parse_length, LengthUnit};
 use gearsieve::numbers::range::parse_signed_range;
 use gearsieve::report::mesh::{MeshInputs, MeshReport, MountingInput};
 use gearsieve::report::Report;
 use gearsieve::{Error, Quantity};
 
-use super::args::FormatArg;
+use super::args::{number, FormatArg};
 use super::flags::refuse;
 use super::run::{self, Job, Print, Words};
 
@@ -35,14 +38,14 @@ pub struct MeshArgs {
     #[arg(long, value_name = "Z1,Z2")]
     pub teeth: String,
     /// Module, mm.
-    #[arg(long, value_name = "MM", conflicts_with = "diametral_pitch", allow_negative_numbers = true)]
+    #[arg(long, value_name = "MM", conflicts_with = "diametral_pitch", allow_negative_numbers = true, value_parser = number)]
     pub module: Option<f64>,
     /// Diametral pitch (teeth per inch of pitch diameter) instead of a module: m = 25.4 / P.
     /// Inch figures are shown beside the millimetres.
-    #[arg(long, value_name = "P", allow_negative_numbers = true)]
+    #[arg(long, value_name = "P", allow_negative_numbers = true, value_parser = number)]
     pub diametral_pitch: Option<f64>,
     /// Pressure angle, degrees (20 is usual, 14.5 on older inch gearing).
-    #[arg(long, value_name = "DEG", default_value_t = 20.0, allow_negative_numbers = true)]
+    #[arg(long, value_name = "DEG", default_value_t = 20.0, allow_negative_numbers = true, value_parser = number)]
     pub pressure_angle: f64,
     /// Profile shifts of driver and driven gear, in modules (positive away from the centre);
     /// the pair is mounted tight [default: 0,0].
@@ -58,19 +61,19 @@ pub struct MeshArgs {
     #[arg(long, value_name = "LO..HI", requires = "centre_distance", allow_hyphen_values = true)]
     pub shift_sum: Option<String>,
     /// Addendum of the basic rack, in modules (ISO 53 type A: 1).
-    #[arg(long, value_name = "MODULES", default_value_t = RackProfile::default().addendum, allow_negative_numbers = true)]
+    #[arg(long, value_name = "MODULES", default_value_t = RackProfile::default().addendum, allow_negative_numbers = true, value_parser = number)]
     pub addendum: f64,
     /// Dedendum of the basic rack, in modules (ISO 53 type A: 1.25).
-    #[arg(long, value_name = "MODULES", default_value_t = RackProfile::default().dedendum, allow_negative_numbers = true)]
+    #[arg(long, value_name = "MODULES", default_value_t = RackProfile::default().dedendum, allow_negative_numbers = true, value_parser = number)]
     pub dedendum: f64,
     /// Root fillet radius of the basic rack, in modules (ISO 53 type A: 0.38).
-    #[arg(long, value_name = "MODULES", default_value_t = RackProfile::default().root_radius, allow_negative_numbers = true)]
+    #[arg(long, value_name = "MODULES", default_value_t = RackProfile::default().root_radius, allow_negative_numbers = true, value_parser = number)]
     pub root_radius: f64,
     /// Least transverse contact ratio for the mesh to count as running (1.2 is common practice).
-    #[arg(long, value_name = "R", default_value_t = MeshLimits::default().min_contact_ratio, allow_negative_numbers = true)]
+    #[arg(long, value_name = "R", default_value_t = MeshLimits::default().min_contact_ratio, allow_negative_numbers = true, value_parser = number)]
     pub min_contact_ratio: f64,
     /// Least tooth thickness at the tip, in modules.
-    #[arg(long, value_name = "MODULES", default_value_t = MeshLimits::default().min_tip_thickness_modules, allow_negative_numbers = true)]
+    #[arg(long, value_name = "MODULES", default_value_t = MeshLimits::default().min_tip_thickness_modules, allow_negative_numbers = true, value_parser = number)]
     pub min_tip_thickness: f64,
     /// Accept undercut gears (small clock pinions are often cut so); still reported.
     #[arg(long)]
@@ -132,31 +135,6 @@ fn parse_shift(text: &str) -> anyhow::Result<[f64; 2]> {
     Ok([shift(a)?, shift(b)?])
 }
 
-/// A positive length in mm, or in inches with an `in` suffix (`mm` is accepted too).
-fn parse_centre_distance(text: &str) -> anyhow::Result<f64> {
-    let t = text.trim();
-    let (number, per_unit) = match (t.strip_suffix("in"), t.strip_suffix("mm")) {
-        (Some(n), _) => (n, MM_PER_INCH),
-        (None, Some(n)) => (n, 1.0),
-        (None, None) => (t, 1.0),
-    };
-    number
-        .trim()
-        .parse::<f64>()
-        .ok()
-        .map(|v| v * per_unit)
-        .filter(|mm| mm.is_finite() && *mm > 0.0)
-        .ok_or_else(|| {
-            refuse(
-                "--centre-distance",
-                format!(
-                    "wanted a positive working centre distance in mm such as 52.5, or in \
-                     inches such as 14.25in, found \"{text}\""
-                ),
-            )
-        })
-}
-
 /// A number that must be finite and satisfy `ok`, else `--flag: wanted …, found …`.
 fn check_number(flag: &str, value: f64, ok: bool, wanted: &str) -> anyhow::Result<f64> {
     if value.is_finite() && ok {
@@ -171,26 +149,15 @@ impl TryFrom<MeshArgs> for MeshJob {
 
     fn try_from(a: MeshArgs) -> anyhow::Result<MeshJob> {
         let teeth = parse_teeth(&a.teeth)?;
+        // The same limits as every other command that takes a module or a pressure angle.
         let (module_mm, diametral_pitch) = match (a.module, a.diametral_pitch) {
-            (Some(m), _) => (check_number("--module", m, m > 0.0, "a positive number of millimetres")?, None),
-            (None, Some(p)) => match module_from_diametral_pitch(p) {
-                Some(m) => (m, Some(p)),
-                None => {
-                    return Err(refuse(
-                        "--diametral-pitch",
-                        format!("wanted a positive number of teeth per inch, found {p}"),
-                    ))
-                }
-            },
+            (Some(m), _) => (check_module(m, &|e| Error::value(Quantity::Module, e))?, None),
+            (None, Some(p)) => {
+                (check_diametral_pitch(p, &|e| Error::value(Quantity::DiametralPitch, e))?, Some(p))
+            }
             (None, None) => return Err(refuse("--module", "wanted a module in mm, or --diametral-pitch")),
         };
-        let pa = a.pressure_angle;
-        check_number(
-            "--pressure-angle",
-            pa,
-            pa > 0.0 && pa < 90.0,
-            "degrees between 0 and 90 (20 is usual)",
-        )?;
+        let pa = check_pressure_angle(a.pressure_angle, &|e| Error::value(Quantity::PressureAngle, e))?;
         let ha = a.addendum;
         check_number("--addendum", ha, ha > 0.0, "a positive number of modules")?;
         let hf = a.dedendum;
@@ -204,12 +171,7 @@ impl TryFrom<MeshArgs> for MeshJob {
         check_number("--root-radius", rho, rho >= 0.0, "zero or more modules")?;
         let rack = RackProfile { addendum: ha, dedendum: hf, root_radius: rho };
         let limits = MeshLimits {
-            min_contact_ratio: check_number(
-                "--min-contact-ratio",
-                a.min_contact_ratio,
-                a.min_contact_ratio >= 0.0,
-                "a contact ratio of zero or more, such as 1.2",
-            )?,
+            min_contact_ratio: check_min_contact_ratio(a.min_contact_ratio)?,
             min_tip_thickness_modules: check_number(
                 "--min-tip-thickness",
                 a.min_tip_thickness,
@@ -220,7 +182,8 @@ impl TryFrom<MeshArgs> for MeshJob {
         };
         let mounting = match &a.centre_distance {
             Some(cd) => MountingInput::AtCentreDistance {
-                centre_distance_mm: parse_centre_distance(cd)?,
+                centre_distance_mm: parse_length(cd, Quantity::CentreDistance, Some(LengthUnit::Millimetre))?
+                    .mm_f64(),
                 // The same default and syntax as `search --shift-sum`, so a pair that
                 // search reports at a centre distance is checked here the same way.
                 shift_sum_range: match &a.shift_sum {
@@ -331,7 +294,7 @@ impl Job for MeshJob {
         })
     }
 
-    fn words(&self) -> Words {
+    fn words(&self, _found: &Self::Found) -> Words {
         // The verdict in the report says why the mesh would not run.
         Words { interrupted: None, nothing: None }
     }

@@ -7,6 +7,7 @@ mod args;
 mod clock;
 mod draw;
 mod flags;
+mod hints;
 mod merge;
 mod mesh;
 mod output;
@@ -71,6 +72,10 @@ pub fn run() -> i32 {
     let cli = match Cli::try_parse() {
         Ok(c) => c,
         Err(e) => {
+            if let Some(line) = flags::bad_value(&e) {
+                eprintln!("gearsieve: {line}");
+                return EXIT_BAD_INPUT;
+            }
             let code = if e.use_stderr() { EXIT_BAD_INPUT } else { EXIT_OK };
             let _ = e.print();
             return code;

@@ -2,21 +2,26 @@
 //! least teeth, a per-stage ratio limit and optionally the housing's centre distances. The clap
 //! struct mirrors the flags; `TryFrom` turns it into a [`ReducerSpec`].
 
+use std::borrow::Cow;
 use std::path::PathBuf;
 
 use clap::{ArgGroup, Args, ValueEnum};
 use gearsieve::model::catalog::CatalogueDefaults;
 use gearsieve::model::pool::{MAX_STAGES, MAX_TEETH, MIN_TEETH};
 use gearsieve::numbers::exact::Exact;
+use gearsieve::numbers::length::{parse_length, LengthUnit};
 use gearsieve::numbers::range::{parse_int_range, parse_signed_range, IntRange};
 use gearsieve::numbers::target::{parse_ratio, parse_tolerance};
 use gearsieve::report::Report;
-use gearsieve::trades::reducer::{Hunting, Priority, ReducerPlan, ReducerSpec, DEFAULT_MAX_STAGE_RATIO};
-use gearsieve::{Quantity, RunOptions};
+use gearsieve::trades::reducer::{
+    example_modules, Hunting, Priority, ReducerPlan, ReducerSpec, DEFAULT_MAX_STAGE_RATIO,
+};
+use gearsieve::{Error, Quantity, RunOptions};
 
-use super::args::{load_stock, PrintArgs};
+use super::args::{load_stock, number, PrintArgs};
 use super::flags::refuse;
-use super::run::{self, Job, Print, Words};
+use super::hints::{self, ExactBlocked, OutOfReach};
+use super::run::{self, Job, Outlook, Print, Words};
 
 /// The hunting-tooth flag.
 #[derive(Clone, Copy, Debug, ValueEnum)]
@@ -59,12 +64,13 @@ pub struct ReducerArgs {
     /// Relative tolerance on the ratio: 1%, 0.5%, 0 (exact).
     #[arg(long, value_name = "T", default_value = "1%")]
     pub tol: String,
-    /// Stages: N or A..B (a single count when modules or distances are given per stage).
-    #[arg(long, value_name = "N|A..B", default_value = "2")]
-    pub stages: String,
+    /// Stages: N or A..B [default: as many as the modules or centre distances listed one per
+    /// stage, else 2].
+    #[arg(long, value_name = "N|A..B", allow_hyphen_values = true)]
+    pub stages: Option<String>,
     /// Module per stage in mm, input to output, coarser toward the output (1,1.5,2), or one
-    /// for every stage.
-    #[arg(long, value_name = "MM,…", value_delimiter = ',')]
+    /// for every stage. Required unless --stock is given.
+    #[arg(long, value_name = "MM,…", value_delimiter = ',', allow_negative_numbers = true, value_parser = number)]
     pub modules: Vec<f64>,
     /// Least teeth of any gear (17 avoids undercut at 20°, common practice).
     #[arg(long, value_name = "N", default_value_t = 17)]
@@ -76,9 +82,9 @@ pub struct ReducerArgs {
     #[arg(long, value_name = "R", default_value_t = DEFAULT_MAX_STAGE_RATIO.to_string())]
     pub max_stage_ratio: String,
     /// The housing's fixed centre distance of each stage, mm, input to output (or one for all):
-    /// reached by profile shift.
-    #[arg(long, value_name = "MM,…", value_delimiter = ',', allow_negative_numbers = true)]
-    pub centre_distances: Vec<f64>,
+    /// reached by profile shift. Other units: 2.5in.
+    #[arg(long, value_name = "MM,…", value_delimiter = ',', allow_hyphen_values = true)]
+    pub centre_distances: Vec<String>,
     /// Allowed profile shift sum x1+x2 per stage, in modules [default: -0.5..1].
     #[arg(long, value_name = "LO..HI", allow_hyphen_values = true)]
     pub shift_sum: Option<String>,
@@ -94,8 +100,24 @@ pub struct ReducerArgs {
     /// Trains to list; all are counted.
     #[arg(long, value_name = "K", default_value_t = 5)]
     pub limit: usize,
+    /// Run even when the search is forecast to take more than an hour.
+    #[arg(long)]
+    pub long: bool,
     #[command(flatten)]
     pub print: PrintArgs,
+}
+
+/// The stage count: as given, or one per value of a list given per stage, else 2.
+fn stage_count(a: &ReducerArgs) -> Result<IntRange, Error> {
+    let per_stage = a.modules.len().max(a.centre_distances.len());
+    let default = if per_stage > 1 { per_stage.to_string() } else { "2".to_string() };
+    parse_int_range(
+        a.stages.as_deref().unwrap_or(&default),
+        Quantity::StageCount,
+        "stages",
+        1,
+        MAX_STAGES as u32,
+    )
 }
 
 impl TryFrom<&ReducerArgs> for ReducerSpec {
@@ -110,7 +132,7 @@ impl TryFrom<&ReducerArgs> for ReducerSpec {
                 let r = Exact::of(inp).over(Exact::of(out));
                 (r.value, format!("{inp} rpm in / {out} rpm out"))
             }
-            _ => return Err(refuse("--ratio", "give --ratio R, or --input-rpm and --output-rpm")),
+            _ => return Err(anyhow::anyhow!("give --ratio R, or --input-rpm and --output-rpm")),
         };
         if a.min_teeth > a.max_teeth {
             return Err(refuse(
@@ -125,12 +147,33 @@ impl TryFrom<&ReducerArgs> for ReducerSpec {
             MIN_TEETH,
             MAX_TEETH,
         )?;
+        let stages = stage_count(a)?;
+        if a.stock.is_empty() && a.modules.is_empty() {
+            // Built from the stage count asked for, so that following it works.
+            let how = match example_modules(stages) {
+                Some(list) => format!(
+                    "the module in mm of each stage, input to output, such as {list} for --stages {stages} (or \
+                     1 for every stage)"
+                ),
+                None => format!("one module in mm for every stage of --stages {stages}, such as 1"),
+            };
+            return Err(refuse("--modules", format!("give {how}; or gears on hand with --stock FILE")));
+        }
+        let centre_distances_mm = a
+            .centre_distances
+            .iter()
+            .map(|d| {
+                parse_length(d, Quantity::StageCentreDistances, Some(LengthUnit::Millimetre))
+                    .map(|l| l.mm_f64())
+            })
+            .collect::<Result<Vec<f64>, Error>>()?;
         let stock = if a.stock.is_empty() {
             None
         } else {
             Some(load_stock(
                 &a.stock,
                 CatalogueDefaults { module_mm: a.modules.first().copied(), pressure_angle_deg: 20.0 },
+                Quantity::StageModules,
             )?)
         };
         let shift_sum = match &a.shift_sum {
@@ -141,11 +184,11 @@ impl TryFrom<&ReducerArgs> for ReducerSpec {
             ratio,
             ratio_text,
             tolerance: parse_tolerance(&a.tol)?,
-            stages: parse_int_range(&a.stages, Quantity::StageCount, "stages", 1, MAX_STAGES as u32)?,
+            stages,
             modules: a.modules.clone(),
             teeth: IntRange { lo: teeth.lo, hi: teeth.hi },
             max_stage_ratio: parse_ratio(&a.max_stage_ratio, Quantity::MaxStageRatio)?,
-            centre_distances_mm: a.centre_distances.clone(),
+            centre_distances_mm,
             shift_sum,
             hunting: match a.hunting {
                 HuntingArg::Prefer => Hunting::Prefer,
@@ -163,30 +206,107 @@ impl TryFrom<&ReducerArgs> for ReducerSpec {
     }
 }
 
-impl Job for ReducerSpec {
+/// A validated reducer search.
+struct ReducerJob {
+    spec: ReducerSpec,
+    /// `--long`: run whatever the forecast.
+    long: bool,
+}
+
+impl ReducerJob {
+    /// True when the stage count is set by a list of modules or distances, one per stage.
+    fn per_stage(&self) -> bool {
+        self.spec.modules.len().max(self.spec.centre_distances_mm.len()) > 1
+    }
+}
+
+impl Job for ReducerJob {
     type Found = ReducerPlan;
 
     fn search(&self, options: &RunOptions) -> anyhow::Result<ReducerPlan> {
-        Ok(self.plan(options)?)
+        Ok(self.spec.plan(options)?)
     }
 
     fn report<'a>(&'a self, found: &'a ReducerPlan) -> Box<dyn Report + 'a> {
         Box::new(found)
     }
 
-    fn words(&self) -> Words {
+    fn words(&self, found: &ReducerPlan) -> Words {
+        let s = &self.spec;
+        let problem = &found.problem;
+        let more_teeth = if s.stock.is_some() {
+            Some("more stock".to_string())
+        } else {
+            (s.teeth.hi < MAX_TEETH).then(|| "a higher --max-teeth".to_string())
+        };
+        let more_stages = if self.per_stage() { None } else { hints::more_stages(s.stages) };
+        // Which caps a stage's ratio: the largest stage ratio, or the teeth (most over least).
+        let teeth = problem.pool.gears.iter().map(|g| g.teeth);
+        let (lo, hi) = (teeth.clone().min().unwrap_or(1), teeth.max().unwrap_or(1));
+        let teeth_cap = hi as f64 / lo as f64;
+        let ratio_binds = s.max_stage_ratio.to_f64() < teeth_cap;
+        let higher_ratio = ratio_binds.then(|| "a higher --max-stage-ratio".to_string());
+        let nothing = if let Some(reach) = OutOfReach::of(problem) {
+            let mut h = Vec::new();
+            if !self.per_stage() {
+                h.extend(reach.stages_hint());
+            }
+            h.extend(higher_ratio);
+            if !ratio_binds {
+                h.extend(more_teeth);
+            }
+            hints::nothing(&reach.sentence(&problem.target.text), &h)
+        } else if let Some(blocked) = ExactBlocked::of(problem) {
+            let mut h = vec!["a --tol above 0".to_string()];
+            h.extend(more_teeth);
+            hints::nothing(&blocked.sentence(&problem.target.text), &h)
+        } else {
+            let mut h = vec!["a looser --tol".to_string()];
+            h.extend(higher_ratio);
+            h.extend(more_teeth);
+            if s.stock.is_none() && s.teeth.lo > MIN_TEETH {
+                h.push("a lower --min-teeth".into());
+            }
+            h.extend(more_stages);
+            if s.hunting == Hunting::Require {
+                h.push("--hunting prefer".into());
+            }
+            if !s.centre_distances_mm.is_empty() {
+                h.push("a wider --shift-sum for the housing".into());
+            }
+            hints::nothing("", &h)
+        };
         Words {
             interrupted: Some("the trains above are the best found so far".into()),
-            nothing: Some(
-                "no train meets every constraint. Try a looser --tol, a higher --max-stage-ratio, more \
-                 teeth, --hunting prefer, or a wider --shift-sum for the housing."
-                    .into(),
-            ),
+            nothing: Some(nothing),
         }
+    }
+
+    fn forecast(&self) -> anyhow::Result<Option<Outlook<'_>>> {
+        let s = &self.spec;
+        let mut narrow = Vec::new();
+        if s.stages.hi > 1 && !self.per_stage() {
+            narrow.push("fewer --stages".to_string());
+        }
+        if s.stock.is_none() && s.teeth.hi > s.teeth.lo {
+            narrow.push("a lower --max-teeth".into());
+        }
+        narrow.push("a lower --max-stage-ratio".into());
+        if !s.tolerance.is_zero() {
+            narrow.push("a tighter --tol".into());
+        }
+        Ok(Some(Outlook {
+            searches: vec![(Cow::Owned(s.problem()?), gearsieve::trades::ENGINE)],
+            long: self.long,
+            shard: None,
+            narrow,
+            can_shard: false,
+        }))
     }
 }
 
 /// Run `gearsieve reducer`.
 pub fn run(args: ReducerArgs) -> anyhow::Result<i32> {
-    run::run(&ReducerSpec::try_from(&args)?, &Print::from(&args.print))
+    let job = ReducerJob { spec: ReducerSpec::try_from(&args)?, long: args.long };
+    run::run(&job, &Print::from(&args.print))
 }

@@ -2,10 +2,13 @@
 //! Ctrl-C, render in the chosen format, write stdout or `--output` atomically, and the exit
 //! status with its last word on stderr.
 
+use std::borrow::Cow;
 use std::path::PathBuf;
+use std::time::Duration;
 
-use gearsieve::engine::{RunOptions, Shard};
+use gearsieve::engine::{estimate, EngineChoice, RunOptions, Shard};
 use gearsieve::report::{render, Format, RenderError, Report};
+use gearsieve::Problem;
 
 use super::args::PrintArgs;
 use super::progress::Bar;
@@ -55,12 +58,14 @@ pub trait Job: Sync {
     /// Present what was found.
     fn report<'a>(&'a self, found: &'a Self::Found) -> Box<dyn Report + 'a>;
 
-    /// The words for an interrupted run and for one that found nothing.
-    fn words(&self) -> Words;
+    /// The words for an interrupted run and for one that found nothing, built from what was
+    /// asked and what was found.
+    fn words(&self, found: &Self::Found) -> Words;
 
-    /// Before a big search: say how long it will take, or refuse one of hours.
-    fn forecast(&self, _print: &Print) -> anyhow::Result<()> {
-        Ok(())
+    /// What the forecast weighs before the run ([`forecast`]): the searches the job will make.
+    /// `None` for work that is never long (a single mesh).
+    fn forecast(&self) -> anyhow::Result<Option<Outlook<'_>>> {
+        Ok(None)
     }
 
     /// The part of a split search to run.
@@ -84,16 +89,114 @@ pub fn with_threads<T: Send>(threads: Option<usize>, f: impl FnOnce() -> T + Sen
     Ok(pool.install(f))
 }
 
+/// What a job will search, for the forecast: each problem with its engine, and how the user
+/// could make the work smaller in this command's own flags.
+pub struct Outlook<'a> {
+    /// The searches, in the order they run.
+    pub searches: Vec<(Cow<'a, Problem>, EngineChoice)>,
+    /// `--long` was given: run whatever the forecast.
+    pub long: bool,
+    /// The part of a split search to run, which divides the work that can be split.
+    pub shard: Option<Shard>,
+    /// Changes that would shrink this search, each naming flags of this command ("fewer
+    /// --stages"); only those that apply to what was asked.
+    pub narrow: Vec<String>,
+    /// Whether `--shard` can split this command's search.
+    pub can_shard: bool,
+}
+
+/// Forecast searches longer than this (wall seconds) are refused without `--long`.
+const REFUSE_ABOVE_S: f64 = 3600.0;
+/// Forecast searches longer than this get a note on stderr before they start.
+const NOTE_ABOVE_S: f64 = 30.0;
+/// Time spent forecasting, at most, shared between a job's searches.
+const FORECAST_BUDGET: Duration = Duration::from_secs(1);
+
+/// Before a big job: forecast its time from a short sample of each search, say so when it is
+/// long, and refuse one that would plainly run for hours unless `--long` is given. The one
+/// forecast every command that can run long goes through.
+pub fn forecast(outlook: Option<Outlook<'_>>, print: &Print) -> anyhow::Result<()> {
+    let Some(o) = outlook else { return Ok(()) };
+    if o.searches.is_empty() {
+        return Ok(());
+    }
+    let budget = FORECAST_BUDGET / o.searches.len() as u32;
+    let (mut one_thread, mut split, mut combinations, mut at_least, mut shardable) =
+        (0.0, 0.0, 0.0, false, true);
+    let mut timed = false;
+    for (problem, engine) in &o.searches {
+        let e = estimate(problem, *engine, budget);
+        combinations += e.combinations;
+        let Some(seconds) = e.seconds_one_thread else { continue };
+        timed = true;
+        at_least |= e.at_least;
+        shardable &= e.shardable;
+        if e.shardable {
+            split += seconds;
+        } else {
+            one_thread += seconds;
+        }
+    }
+    if !timed {
+        return Ok(());
+    }
+    let threads = print.threads.unwrap_or_else(rayon::current_num_threads).max(1);
+    let parts = o.shard.map_or(1.0, |s| s.count as f64);
+    let wall = (one_thread + split / parts) / threads as f64;
+    let what = format!(
+        "{} {} on {threads} thread{} ({combinations:.1e} stage combinations before pruning)",
+        if at_least { "at least" } else { "about" },
+        human_duration(wall),
+        if threads == 1 { "" } else { "s" },
+    );
+    if wall > REFUSE_ABOVE_S && !o.long {
+        let mut ways = Vec::new();
+        if !o.narrow.is_empty() {
+            ways.push(format!("narrow it ({})", o.narrow.join(", ")));
+        }
+        if o.can_shard && shardable {
+            ways.push("split it with --shard I/N".to_string());
+        }
+        ways.push("give --long to run it anyway".to_string());
+        // The remedy names --long; the message is about the search, so it leads with that.
+        return Err(anyhow::anyhow!("this search would take {what}; {}", either(&ways)));
+    }
+    if wall > NOTE_ABOVE_S && !print.quiet {
+        eprintln!("gearsieve: this search will take {what}; Ctrl-C stops it and prints the best so far");
+    }
+    Ok(())
+}
+
+/// `a`, `a or b`, `a, b or c`: choices in words.
+pub fn either(items: &[String]) -> String {
+    match items {
+        [] => String::new(),
+        [one] => one.clone(),
+        [rest @ .., last] => format!("{}, or {last}", rest.join(", ")),
+    }
+}
+
+/// `45 s`, `12 min`, `3.2 hours`.
+fn human_duration(s: f64) -> String {
+    if s < 90.0 {
+        format!("{s:.0} s")
+    } else if s < 5400.0 {
+        format!("{:.0} min", s / 60.0)
+    } else {
+        format!("{:.1} hours", s / 3600.0)
+    }
+}
+
 /// Run `job` and print what it found: the path every command takes.
 pub fn run<J: Job>(job: &J, print: &Print) -> anyhow::Result<i32> {
-    job.forecast(print)?;
+    forecast(job.forecast()?, print)?;
     let bar = Bar::new(print.quiet || !job.shows_progress());
     let progress = |p| bar.update(p);
     let options = RunOptions { progress: Some(&progress), cancel: Some(&CANCEL), shard: job.shard() };
     let found = with_threads(print.threads, || job.search(&options))??;
     bar.finish();
     let report = job.report(&found);
-    present(report.as_ref(), print, &job.words())
+    present(report.as_ref(), print, &job.words(&found))
 }
 
 /// Render `report`, write it, and choose the exit status.

@@ -1,27 +1,29 @@
 //! `gearsieve search`: the general search. The clap struct mirrors the flags; `TryFrom` turns it
 //! into a validated [`Problem`] plus how to run and print it.
 
+use std::borrow::Cow;
 use std::path::PathBuf;
 
 use clap::{Args, ValueEnum};
 use gearsieve::engine::Shard;
-use gearsieve::geometry::{module_from_diametral_pitch, MeshLimits};
+use gearsieve::geometry::MeshLimits;
 use gearsieve::model::catalog::CatalogueDefaults;
-use gearsieve::model::pool::{Pool, MAX_STAGES, MAX_TEETH, MIN_TEETH};
+use gearsieve::model::pool::{check_diametral_pitch, check_module, Pool, MAX_STAGES, MAX_TEETH, MIN_TEETH};
 use gearsieve::model::problem::MeshRules;
 use gearsieve::model::rank::parse_rank;
 use gearsieve::model::train::Direction;
-use gearsieve::numbers::range::{parse_float_range, parse_int_range, parse_ratio_range, parse_signed_range};
+use gearsieve::numbers::range::{parse_int_range, parse_length_range, parse_ratio_range, parse_signed_range};
 use gearsieve::numbers::target::Target;
 use gearsieve::report::search::stream::Stream;
 use gearsieve::report::search::SearchReport;
 use gearsieve::report::{RenderError, Report};
-use gearsieve::{EngineChoice, Problem, Quantity, RunOptions, StageLimits};
+use gearsieve::{EngineChoice, Error, Problem, Quantity, RunOptions, StageLimits};
 
-use super::args::{load_stock, FormatArg, PrintArgs};
+use super::args::{load_stock, number, FormatArg, PrintArgs};
 use super::flags::refuse;
+use super::hints;
 use super::progress::Bar;
-use super::run::{self, Job, Print, Words};
+use super::run::{self, Job, Outlook, Print, Words};
 use super::EXIT_OK;
 
 /// Tooth range used when neither `--teeth` nor `--stock` is given.
@@ -77,13 +79,13 @@ pub struct SearchArgs {
     #[arg(long, value_name = "FILE")]
     pub stock: Vec<PathBuf>,
     /// Module in mm for --teeth (default 1), or for catalogue rows that give none.
-    #[arg(long, value_name = "MM", conflicts_with = "diametral_pitch", allow_negative_numbers = true)]
+    #[arg(long, value_name = "MM", conflicts_with = "diametral_pitch", allow_negative_numbers = true, value_parser = number)]
     pub module: Option<f64>,
     /// Diametral pitch (teeth per inch of pitch diameter) instead of a module: m = 25.4 / P.
-    #[arg(long, value_name = "P", allow_negative_numbers = true)]
+    #[arg(long, value_name = "P", allow_negative_numbers = true, value_parser = number)]
     pub diametral_pitch: Option<f64>,
     /// Pressure angle in degrees for --teeth, and for catalogue rows that give none.
-    #[arg(long, value_name = "DEG", default_value_t = 20.0, allow_negative_numbers = true)]
+    #[arg(long, value_name = "DEG", default_value_t = 20.0, allow_negative_numbers = true, value_parser = number)]
     pub pressure_angle: f64,
     /// Allowed driver teeth per stage (e.g. clock pinions 6..12).
     #[arg(long, value_name = "LO..HI", allow_hyphen_values = true)]
@@ -100,7 +102,7 @@ pub struct SearchArgs {
     #[arg(long, value_name = "A|LO..HI", allow_hyphen_values = true)]
     pub centre_distance: Option<String>,
     /// How close a standard centre distance must be to a fixed one to need no shift, mm.
-    #[arg(long, value_name = "MM", default_value_t = gearsieve::model::problem::DEFAULT_CENTRE_TOLERANCE_MM)]
+    #[arg(long, value_name = "MM", default_value_t = gearsieve::model::problem::DEFAULT_CENTRE_TOLERANCE_MM, allow_negative_numbers = true, value_parser = number)]
     pub centre_tol: f64,
     /// Allowed profile shift sum x1+x2 per stage, in modules [default: -0.5..1].
     #[arg(long, value_name = "LO..HI", allow_hyphen_values = true)]
@@ -110,7 +112,7 @@ pub struct SearchArgs {
     #[arg(long)]
     pub check_meshes: bool,
     /// Least transverse contact ratio of a mesh [default: 1.2, common practice].
-    #[arg(long, value_name = "X", allow_negative_numbers = true)]
+    #[arg(long, value_name = "X", allow_negative_numbers = true, value_parser = number)]
     pub min_contact_ratio: Option<f64>,
     /// Accept undercut gears (small clock pinions are often cut so).
     #[arg(long)]
@@ -161,18 +163,16 @@ pub struct SearchJob {
     long: bool,
 }
 
+/// The module the flags give (checked here, so that with `--stock` an error names the flag and
+/// not a catalogue row), with the diametral pitch it came from.
 fn module_from_flags(module: Option<f64>, dp: Option<f64>) -> anyhow::Result<Option<(f64, Option<f64>)>> {
-    match (module, dp) {
-        (Some(m), _) => Ok(Some((m, None))),
-        (None, Some(p)) => match module_from_diametral_pitch(p) {
-            Some(m) => Ok(Some((m, Some(p)))),
-            None => Err(refuse(
-                "--diametral-pitch",
-                format!("wanted a positive number of teeth per inch, found {p}"),
-            )),
-        },
-        (None, None) => Ok(None),
-    }
+    Ok(match (module, dp) {
+        (Some(m), _) => Some((check_module(m, &|e| Error::value(Quantity::Module, e))?, None)),
+        (None, Some(p)) => {
+            Some((check_diametral_pitch(p, &|e| Error::value(Quantity::DiametralPitch, e))?, Some(p)))
+        }
+        (None, None) => None,
+    })
 }
 
 impl TryFrom<SearchArgs> for SearchJob {
@@ -189,7 +189,7 @@ impl TryFrom<SearchArgs> for SearchJob {
         } else {
             let defaults =
                 CatalogueDefaults { module_mm: module.map(|m| m.0), pressure_angle_deg: a.pressure_angle };
-            load_stock(&a.stock, defaults)?
+            load_stock(&a.stock, defaults, Quantity::Module)?
         };
         let tooth_range = |s: &Option<String>, quantity: Quantity| {
             s.as_deref().map(|s| parse_int_range(s, quantity, "teeth", MIN_TEETH, MAX_TEETH)).transpose()
@@ -197,7 +197,7 @@ impl TryFrom<SearchArgs> for SearchJob {
         let centre = a
             .centre_distance
             .as_deref()
-            .map(|s| parse_float_range(s, Quantity::CentreDistance, "mm"))
+            .map(|s| parse_length_range(s, Quantity::CentreDistance))
             .transpose()?;
         let fixed_centre = centre.filter(|c| c.is_single()).map(|c| c.lo);
         let limits = StageLimits {
@@ -225,7 +225,7 @@ impl TryFrom<SearchArgs> for SearchJob {
             if matches!(a.print.format, FormatArg::Table | FormatArg::Markdown | FormatArg::Svg) {
                 return Err(refuse(
                     "--limit",
-                    "0 streams every train; give --format csv or --format json (JSON lines)",
+                    "0 streams every train; give --format csv, or json for JSON lines",
                 ));
             }
         }
@@ -288,12 +288,19 @@ impl Job for SearchJob {
         })
     }
 
-    fn words(&self) -> Words {
-        words()
+    fn words(&self, _found: &gearsieve::Outcome) -> Words {
+        words(self)
     }
 
-    fn forecast(&self, print: &Print) -> anyhow::Result<()> {
-        forecast(self, print)
+    fn forecast(&self) -> anyhow::Result<Option<Outlook<'_>>> {
+        let engine = if self.problem.limit == 0 { self.engine.streaming() } else { self.engine };
+        Ok(Some(Outlook {
+            searches: vec![(Cow::Borrowed(&self.problem), engine)],
+            long: self.long,
+            shard: self.shard,
+            narrow: hints::narrow_search(&self.problem),
+            can_shard: true,
+        }))
     }
 
     fn shard(&self) -> Option<Shard> {
@@ -306,7 +313,7 @@ pub fn run(args: SearchArgs) -> anyhow::Result<i32> {
     let job = SearchJob::try_from(args)?;
     let print = Print::from(&job.print);
     if job.problem.limit == 0 {
-        forecast(&job, &print)?;
+        run::forecast(job.forecast()?, &print)?;
         let bar = Bar::new(print.quiet);
         let progress = |p| bar.update(p);
         let options =
@@ -316,57 +323,6 @@ pub fn run(args: SearchArgs) -> anyhow::Result<i32> {
         return code;
     }
     run::run(&job, &print)
-}
-
-/// Forecast searches longer than this (wall seconds) are refused without `--long`.
-const REFUSE_ABOVE_S: f64 = 3600.0;
-/// Forecast searches longer than this get a note on stderr before they start.
-const NOTE_ABOVE_S: f64 = 30.0;
-
-/// Before a big search: forecast its time from a short sample, say so when it is long, and
-/// refuse one that would plainly run for hours unless `--long` is given.
-fn forecast(job: &SearchJob, print: &Print) -> anyhow::Result<()> {
-    let engine = if job.problem.limit == 0 { job.engine.streaming() } else { job.engine };
-    let e = gearsieve::engine::estimate(&job.problem, engine, std::time::Duration::from_secs(1));
-    let Some(one) = e.seconds_one_thread else { return Ok(()) };
-    let threads = print.threads.unwrap_or_else(rayon::current_num_threads).max(1);
-    let mut wall = one / threads as f64;
-    if let Some(s) = job.shard.filter(|_| e.shardable) {
-        wall /= s.count as f64;
-    }
-    let what = format!(
-        "{} {} on {threads} thread{} ({:.1e} stage combinations before pruning)",
-        if e.at_least { "at least" } else { "about" },
-        human_duration(wall),
-        if threads == 1 { "" } else { "s" },
-        e.combinations
-    );
-    if wall > REFUSE_ABOVE_S && !job.long {
-        let split = if e.shardable { "split it with --shard I/N, " } else { "" };
-        return Err(refuse(
-            "--long",
-            format!(
-                "this search would take {what}; narrow it (fewer --stages, a narrower --teeth range, \
-                 --driver-teeth or --stage-ratio limits, a tighter --tol), {split}or give --long to run it \
-                 anyway"
-            ),
-        ));
-    }
-    if wall > NOTE_ABOVE_S && !print.quiet {
-        eprintln!("gearsieve: this search will take {what}; Ctrl-C stops it and prints the best so far");
-    }
-    Ok(())
-}
-
-/// `45 s`, `12 min`, `3.2 hours`.
-fn human_duration(s: f64) -> String {
-    if s < 90.0 {
-        format!("{s:.0} s")
-    } else if s < 5400.0 {
-        format!("{:.0} min", s / 60.0)
-    } else {
-        format!("{:.1} hours", s / 3600.0)
-    }
 }
 
 /// `--limit 0`: write every train as it is found, CSV rows or JSON lines, ending JSON with a
@@ -391,17 +347,13 @@ fn stream(job: &SearchJob, print: &Print, options: &RunOptions) -> anyhow::Resul
         Ok(_) => {}
         Err(e) => return super::output::quiet_broken_pipe(Err(e), path).map(|_| EXIT_OK),
     }
-    Ok(run::status(outcome.complete, outcome.count > 0, &words()))
+    Ok(run::status(outcome.complete, outcome.count > 0, &words(job)))
 }
 
 /// What `search` says when interrupted or when nothing was found.
-fn words() -> Words {
+fn words(job: &SearchJob) -> Words {
     Words {
         interrupted: Some("the trains above are the best found so far and the count is a lower bound".into()),
-        nothing: Some(
-            "no train meets every constraint. Try a looser --tol, more --stages, a wider --teeth range \
-             or more stock, or fewer per-stage limits."
-                .into(),
-        ),
+        nothing: Some(hints::nothing_from_search(&job.problem)),
     }
 }

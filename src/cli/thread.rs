@@ -2,26 +2,29 @@
 //! the best setup for every thread of a series. The clap structs mirror the flags; `TryFrom`
 //! turns them into a validated [`Lathe`] and the thread or series to run.
 
-use std::path::{Path, PathBuf};
+use std::borrow::Cow;
+use std::path::PathBuf;
 
 use clap::{ArgGroup, Args};
 use gearsieve::model::catalog::CatalogueDefaults;
 use gearsieve::model::pool::{Pool, MAX_STAGES, MAX_TEETH, MIN_TEETH};
-use gearsieve::numbers::range::{parse_float_range, parse_int_range};
+use gearsieve::numbers::length::{parse_length, LengthUnit};
+use gearsieve::numbers::range::{parse_int_range, parse_length_range};
 use gearsieve::numbers::target::{parse_ratio, parse_tolerance};
 use gearsieve::report::thread::{ChartReport, ThreadReport};
 use gearsieve::report::Report;
 use gearsieve::trades::thread::banjo::{load_banjo, Banjo};
 use gearsieve::trades::thread::chart::{chart, Chart};
-use gearsieve::trades::thread::machine::{load_gearbox, parse_gearbox_list, Machine};
+use gearsieve::trades::thread::machine::{parse_gearbox, Machine};
 use gearsieve::trades::thread::pitch::{parse_leadscrew, parse_pitch};
 use gearsieve::trades::thread::series::{built_in, load_list, SeriesEntry};
-use gearsieve::trades::thread::{Lathe, Rejected, ThreadPlan, ThreadSpec};
-use gearsieve::{Error, Quantity, RunOptions};
+use gearsieve::trades::thread::{Lathe, Rejected, ThreadPlan, ThreadSpec, MAX_TOLERANCE};
+use gearsieve::{Error, Problem, Quantity, RunOptions};
 
-use super::args::{load_stock, PrintArgs};
+use super::args::{load_stock, number, PrintArgs};
 use super::flags::refuse;
-use super::run::{self, Job, Print, Words};
+use super::hints;
+use super::run::{self, either, Job, Outlook, Print, Words};
 
 /// The lathe and its change gears, shared by `thread` and `chart`.
 #[derive(Args, Debug)]
@@ -44,33 +47,33 @@ pub struct LatheArgs {
     #[arg(long, value_name = "LO..HI", conflicts_with = "stock")]
     pub teeth: Option<String>,
     /// Module in mm for --teeth (default 1), or for catalogue rows that give none.
-    #[arg(long, value_name = "MM", allow_negative_numbers = true)]
+    #[arg(long, value_name = "MM", allow_negative_numbers = true, value_parser = number)]
     pub module: Option<f64>,
     /// Pressure angle in degrees for --teeth, and for catalogue rows that give none.
-    #[arg(long, value_name = "DEG", default_value_t = 20.0, allow_negative_numbers = true)]
+    #[arg(long, value_name = "DEG", default_value_t = 20.0, allow_negative_numbers = true, value_parser = number)]
     pub pressure_angle: f64,
     /// Banjo geometry from a file (stud_to_leadscrew_mm, intermediate_from_leadscrew_mm,
     /// shaft_diameter_mm); setups that cannot be set up on it are rejected.
     #[arg(long, value_name = "FILE", conflicts_with_all = ["stud_to_leadscrew", "intermediate_range", "shaft_diameter"])]
     pub banjo: Option<PathBuf>,
-    /// Banjo: distance between the stud and leadscrew axes, mm.
-    #[arg(long, value_name = "MM", requires_all = ["intermediate_range", "shaft_diameter"], allow_negative_numbers = true)]
-    pub stud_to_leadscrew: Option<f64>,
+    /// Banjo: distance between the stud and leadscrew axes, mm (or with a unit: 4.5in).
+    #[arg(long, value_name = "MM", requires_all = ["intermediate_range", "shaft_diameter"], allow_hyphen_values = true)]
+    pub stud_to_leadscrew: Option<String>,
     /// Banjo: distances from the leadscrew the intermediate stud can take, LO..HI mm.
-    #[arg(long, value_name = "LO..HI", requires_all = ["stud_to_leadscrew", "shaft_diameter"])]
+    #[arg(long, value_name = "LO..HI", requires_all = ["stud_to_leadscrew", "shaft_diameter"], allow_hyphen_values = true)]
     pub intermediate_range: Option<String>,
-    /// Banjo: diameter of the shafts and spacers the gears must clear, mm.
-    #[arg(long, value_name = "MM", requires_all = ["stud_to_leadscrew", "intermediate_range"], allow_negative_numbers = true)]
-    pub shaft_diameter: Option<f64>,
+    /// Banjo: diameter of the shafts and spacers the gears must clear, mm (or with a unit).
+    #[arg(long, value_name = "MM", requires_all = ["stud_to_leadscrew", "intermediate_range"], allow_hyphen_values = true)]
+    pub shaft_diameter: Option<String>,
     /// Change-gear stages: 1 is a simple train through an idler, 2 a compound train; N or A..B.
     #[arg(long, value_name = "N|A..B", default_value = "1..2")]
     pub stages: String,
     /// Pitch tolerance |pitch cut / pitch − 1| ≤ T: 0 (exact), 0.1%, 50ppm; at most 10%.
     #[arg(long, value_name = "T", default_value = "0.1%", allow_hyphen_values = true)]
     pub tol: String,
-    /// Setups to list; all are counted.
-    #[arg(long, value_name = "K", default_value_t = 10)]
-    pub limit: usize,
+    /// Run even when the search is forecast to take more than an hour.
+    #[arg(long)]
+    pub long: bool,
     #[command(flatten)]
     pub print: PrintArgs,
 }
@@ -91,6 +94,9 @@ pub struct ThreadArgs {
     /// Also list trains that cut the thread but cannot be set up on the banjo, and why.
     #[arg(long)]
     pub explain: bool,
+    /// Setups to list; all are counted.
+    #[arg(long, value_name = "K", default_value_t = 10)]
+    pub limit: usize,
     #[command(flatten)]
     pub lathe: LatheArgs,
 }
@@ -105,6 +111,9 @@ pub struct ChartArgs {
     /// A list file instead: one thread a line, LABEL, PITCH or just PITCH.
     #[arg(long, value_name = "FILE")]
     pub list: Option<PathBuf>,
+    /// Not for charts, which list one setup per thread; taken only to say so.
+    #[arg(long, value_name = "K", hide = true, allow_hyphen_values = true)]
+    pub limit: Option<String>,
     #[command(flatten)]
     pub lathe: LatheArgs,
 }
@@ -113,27 +122,26 @@ fn banjo_from(a: &LatheArgs) -> Result<Option<Banjo>, Error> {
     if let Some(path) = &a.banjo {
         return load_banjo(path).map(Some);
     }
-    match (a.stud_to_leadscrew, &a.intermediate_range, a.shaft_diameter) {
+    match (&a.stud_to_leadscrew, &a.intermediate_range, &a.shaft_diameter) {
         (Some(d), Some(r), Some(s)) => {
-            let range = parse_float_range(r, Quantity::IntermediateRange, "mm")?;
+            let mm = |text: &str, quantity| -> Result<f64, Error> {
+                Ok(parse_length(text, quantity, Some(LengthUnit::Millimetre))?.mm_f64())
+            };
+            let range = parse_length_range(r, Quantity::IntermediateRange)?;
+            let (d, s) = (mm(d, Quantity::StudToLeadscrew)?, mm(s, Quantity::ShaftDiameter)?);
             Banjo::new(d, range, s, &|q, m| Error::value(q, m)).map(Some)
         }
         _ => Ok(None),
     }
 }
 
-impl TryFrom<&LatheArgs> for Lathe {
-    type Error = anyhow::Error;
-
-    fn try_from(a: &LatheArgs) -> anyhow::Result<Lathe> {
-        let leadscrew = parse_leadscrew(&a.leadscrew)?;
-        let stud_ratio = parse_ratio(&a.stud_ratio, Quantity::StudRatio)?;
-        let gearbox = match &a.gearbox {
-            None => Vec::new(),
-            Some(g) if Path::new(g).is_file() => load_gearbox(Path::new(g))?,
-            Some(g) => parse_gearbox_list(g)?,
-        };
-        let pool = match (&a.teeth, a.stock.is_empty()) {
+/// The lathe the flags describe, listing `limit` setups per thread.
+fn lathe(a: &LatheArgs, limit: usize) -> anyhow::Result<Lathe> {
+    let leadscrew = parse_leadscrew(&a.leadscrew)?;
+    let stud_ratio = parse_ratio(&a.stud_ratio, Quantity::StudRatio)?;
+    let gearbox = a.gearbox.as_deref().map(parse_gearbox).transpose()?.unwrap_or_default();
+    let pool =
+        match (&a.teeth, a.stock.is_empty()) {
             (Some(t), _) => {
                 let teeth = parse_int_range(t, Quantity::ToothRange, "teeth", MIN_TEETH, MAX_TEETH)?;
                 Pool::to_cut(teeth, a.module.unwrap_or(1.0), a.pressure_angle, None)?
@@ -141,18 +149,66 @@ impl TryFrom<&LatheArgs> for Lathe {
             (None, false) => load_stock(
                 &a.stock,
                 CatalogueDefaults { module_mm: a.module, pressure_angle_deg: a.pressure_angle },
+                Quantity::Module,
             )?,
-            (None, true) => {
-                return Err(refuse(
-                    "--stock",
-                    "give the change gears on hand (--stock FILE) or a range to cut (--teeth LO..HI)",
-                ))
-            }
+            (None, true) => return Err(refuse(
+                "--stock",
+                "give the change gears on hand as a catalogue FILE, or a range to cut with --teeth LO..HI",
+            )),
         };
-        let stages = parse_int_range(&a.stages, Quantity::StageCount, "stages", 1, MAX_STAGES as u32)?;
-        let tolerance = parse_tolerance(&a.tol)?;
-        let machine = Machine { leadscrew, stud_ratio, gearbox };
-        Ok(Lathe::new(machine, pool, banjo_from(a)?, stages, tolerance, a.limit)?)
+    let stages = parse_int_range(&a.stages, Quantity::StageCount, "stages", 1, MAX_STAGES as u32)?;
+    let tolerance = parse_tolerance(&a.tol)?;
+    let machine = Machine { leadscrew, stud_ratio, gearbox };
+    Ok(Lathe::new(machine, pool, banjo_from(a)?, stages, tolerance, limit)?)
+}
+
+/// Ways to get more setups from this lathe, in its flags: a looser tolerance while one is
+/// allowed, more stages while a train may have more, more gears.
+fn more_setups(lathe: &Lathe) -> Vec<String> {
+    let mut hints = Vec::new();
+    if lathe.tolerance < MAX_TOLERANCE {
+        hints.push("a looser --tol".to_string());
+    }
+    hints.extend(hints::more_stages(lathe.stages));
+    hints.extend(hints::more_gears(&lathe.pool, "--teeth"));
+    hints
+}
+
+/// How a lathe search that would run for hours could be made smaller, in its flags.
+fn narrow_lathe(lathe: &Lathe) -> Vec<String> {
+    let mut narrow = Vec::new();
+    if lathe.stages.hi > 1 {
+        narrow.push("fewer --stages".to_string());
+    }
+    if !lathe.pool.from_stock && lathe.pool.gears.len() > 1 {
+        narrow.push("a narrower --teeth range".into());
+    }
+    if !lathe.tolerance.is_zero() {
+        narrow.push("a tighter --tol".into());
+    }
+    narrow
+}
+
+/// The forecast of `problems`, searched with the trades' engine.
+fn lathe_outlook<'a>(problems: Vec<Problem>, lathe: &Lathe, long: bool) -> Outlook<'a> {
+    Outlook {
+        searches: problems.into_iter().map(|p| (Cow::Owned(p), gearsieve::trades::ENGINE)).collect(),
+        long,
+        shard: None,
+        narrow: narrow_lathe(lathe),
+        can_shard: false,
+    }
+}
+
+/// What a lathe command says after nothing was found: `{first} Try {hints}.`, with a pointer to
+/// `--explain` when the banjo may have refused setups and it was not given.
+fn lathe_nothing(first: String, hints: &[String], point_to_explain: bool) -> String {
+    let explain = "--explain shows what the banjo refused";
+    match (hints.is_empty(), point_to_explain) {
+        (false, true) => format!("{first} Try {}; {explain}.", either(hints)),
+        (false, false) => format!("{first} Try {}.", either(hints)),
+        (true, true) => format!("{first} {explain}."),
+        (true, false) => first,
     }
 }
 
@@ -161,6 +217,8 @@ struct ThreadJob {
     lathe: Lathe,
     spec: ThreadSpec,
     explain: bool,
+    /// `--long`: run whatever the forecast.
+    long: bool,
 }
 
 impl Job for ThreadJob {
@@ -176,27 +234,32 @@ impl Job for ThreadJob {
         Box::new(ThreadReport { lathe: &self.lathe, plan: &found.0, rejected: found.1.as_deref() })
     }
 
-    fn words(&self) -> Words {
+    fn words(&self, _found: &Self::Found) -> Words {
+        let hints = more_setups(&self.lathe);
+        // --explain is named only when a banjo may have refused setups and it was not given.
+        let point_to_explain = self.lathe.banjo.is_some() && !self.explain;
+        let first = format!("no setup cuts {} within the tolerance from these gears.", self.spec.pitch);
         Words {
             interrupted: Some("the setups above are the best found so far".into()),
-            nothing: Some(format!(
-                "no setup cuts {} within the tolerance from these gears. Try a looser --tol, more \
-                 --stages or more stock{}.",
-                self.spec.pitch,
-                if self.lathe.banjo.is_some() { "; --explain shows what the banjo refused" } else { "" }
-            )),
+            nothing: Some(lathe_nothing(first, &hints, point_to_explain)),
         }
+    }
+
+    fn forecast(&self) -> anyhow::Result<Option<Outlook<'_>>> {
+        let problems = self.lathe.problems(&self.spec, self.explain)?;
+        Ok(Some(lathe_outlook(problems, &self.lathe, self.long)))
     }
 }
 
 /// Run `gearsieve thread`.
 pub fn run_thread(args: ThreadArgs) -> anyhow::Result<i32> {
-    let lathe = Lathe::try_from(&args.lathe)?;
+    let lathe = lathe(&args.lathe, args.limit)?;
     if args.starts == 0 {
         return Err(refuse("--starts", "a thread has at least one start"));
     }
     let spec = ThreadSpec { pitch: parse_pitch(&args.pitch)?, starts: args.starts };
-    run::run(&ThreadJob { lathe, spec, explain: args.explain }, &Print::from(&args.lathe.print))
+    let job = ThreadJob { lathe, spec, explain: args.explain, long: args.lathe.long };
+    run::run(&job, &Print::from(&args.lathe.print))
 }
 
 /// A validated chart.
@@ -204,6 +267,8 @@ struct ChartJob {
     lathe: Lathe,
     name: String,
     series: Vec<SeriesEntry>,
+    /// `--long`: run whatever the forecast.
+    long: bool,
 }
 
 impl Job for ChartJob {
@@ -217,15 +282,23 @@ impl Job for ChartJob {
         Box::new(ChartReport { lathe: &self.lathe, series: &self.name, chart: found })
     }
 
-    fn words(&self) -> Words {
+    fn words(&self, _found: &Chart) -> Words {
+        let first = format!("no thread of {} can be cut within the tolerance from these gears.", self.name);
         Words {
             interrupted: Some("the chart above stops early".into()),
-            nothing: Some(format!(
-                "no thread of {} can be cut within the tolerance from these gears. Try a looser --tol, \
-                 more --stages or more stock.",
-                self.name
-            )),
+            nothing: Some(lathe_nothing(first, &more_setups(&self.lathe), false)),
         }
+    }
+
+    fn forecast(&self) -> anyhow::Result<Option<Outlook<'_>>> {
+        // Each row is one thread's search (the nearest pitch of a thread out of reach is looked
+        // for only then, so it is not weighed here).
+        let mut problems = Vec::new();
+        for e in &self.series {
+            let thread = ThreadSpec { pitch: e.pitch.clone(), starts: 1 };
+            problems.extend(self.lathe.problems(&thread, false)?);
+        }
+        Ok(Some(lathe_outlook(problems, &self.lathe, self.long)))
     }
 
     fn shows_progress(&self) -> bool {
@@ -235,11 +308,19 @@ impl Job for ChartJob {
 
 /// Run `gearsieve chart`.
 pub fn run_chart(args: ChartArgs) -> anyhow::Result<i32> {
-    let lathe = Lathe::try_from(&args.lathe)?;
+    if args.limit.is_some() {
+        return Err(refuse(
+            "--limit",
+            "a chart lists only the best setup of each thread; gearsieve thread --pitch P lists more \
+             setups of one thread",
+        ));
+    }
+    // A chart lists one setup per thread.
+    let lathe = lathe(&args.lathe, 1)?;
     let (name, series): (String, Vec<SeriesEntry>) = match (&args.series, &args.list) {
         (Some(s), _) => (s.clone(), built_in(s)?),
         (None, Some(f)) => (f.display().to_string(), load_list(f)?),
-        (None, None) => return Err(refuse("--series", "give --series NAME or --list FILE")),
+        (None, None) => return Err(anyhow::anyhow!("give --series NAME or --list FILE")),
     };
-    run::run(&ChartJob { lathe, name, series }, &Print::from(&args.lathe.print))
+    run::run(&ChartJob { lathe, name, series, long: args.lathe.long }, &Print::from(&args.lathe.print))
 }

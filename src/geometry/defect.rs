@@ -7,7 +7,7 @@ use std::fmt;
 /// Which gear of a pair a defect concerns, with enough to name it in a message.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, serde::Serialize)]
 pub struct GearRef {
-    /// Position in the pair, 0 or 1 (the index into the `[_; 2]` fields of [`super::MeshGeometry`]).
+    /// Position in the pair, 0 or 1 (the index into the `[_; 2]` fields of [`MeshGeometry`](super::MeshGeometry)).
     pub index: usize,
     /// Its tooth count.
     pub teeth: u32,

@@ -18,8 +18,9 @@
 use std::path::Path;
 
 use crate::error::{Error, Message, Quantity, Result};
-use crate::geometry::MM_PER_INCH;
-use crate::model::pool::{check_module, check_pressure_angle, StockGear, MAX_TEETH, MIN_TEETH};
+use crate::model::pool::{
+    check_diametral_pitch, check_module, check_pressure_angle, StockGear, MAX_TEETH, MIN_TEETH,
+};
 
 /// Defaults for cells a catalogue leaves empty.
 #[derive(Debug, Clone, Copy, PartialEq)]
@@ -122,31 +123,35 @@ pub fn parse(bytes: &[u8], path: &Path, defaults: CatalogueDefaults) -> Result<V
             })?),
             None => None,
         };
-        let module_mm = match (module, dp) {
-            (Some(m), Some(p)) => {
-                let from_dp = MM_PER_INCH / p;
+        // A diametral pitch is held to the module limits said in teeth per inch, so its error
+        // names the column and the unit the row gave.
+        let dp_module = dp
+            .map(|p| check_diametral_pitch(p, &|m| field_err("diametral_pitch", m)).map(|m| (p, m)))
+            .transpose()?;
+        let module_mm = match (module, dp_module) {
+            (Some(m), Some((p, from_dp))) => {
                 if (m - from_dp).abs() > 1e-6 * m {
                     return Err(field_err(
                         "diametral_pitch",
                         format!("diametral pitch {p} means module {:.4} mm, but module says {m}; give one or make them agree", from_dp),
                     ));
                 }
-                m
+                check_module(m, &|e| field_err("module", e))?
             }
-            (Some(m), None) => m,
-            (None, Some(p)) => MM_PER_INCH / p,
-            (None, None) => defaults.module_mm.ok_or_else(|| {
-                field_message(
-                    "module",
-                    Message::from("no module: fill in module or diametral_pitch, or give ")
-                        .quantity(Quantity::Module)
-                        .text(" for the whole file"),
-                )
-            })?,
+            (Some(m), None) => check_module(m, &|e| field_err("module", e))?,
+            (None, Some((_, from_dp))) => from_dp,
+            (None, None) => {
+                let m = defaults.module_mm.ok_or_else(|| {
+                    field_message(
+                        "module",
+                        Message::from("no module: fill in module or diametral_pitch, or give ")
+                            .quantity(Quantity::Module)
+                            .text(" for the whole file"),
+                    )
+                })?;
+                check_module(m, &|e| field_err("module", e))?
+            }
         };
-        let module_mm = check_module(module_mm, &|m| {
-            field_err(if dp.is_some() { "diametral_pitch" } else { "module" }, m)
-        })?;
         let pressure_angle_deg = match cell(pa_col) {
             Some(s) => {
                 let v: f64 = s.parse().map_err(|_| {

@@ -17,6 +17,10 @@ pub const MAX_TEETH: u32 = 1000;
 pub const MAX_STAGES: usize = 6;
 /// Module range accepted, mm.
 pub const MODULE_RANGE_MM: (f64, f64) = (0.05, 100.0);
+/// Diametral pitches accepted, teeth per inch: modules of 25.4 / 500 = 0.0508 to 25.4 / 0.254 =
+/// 100 mm, inside [`MODULE_RANGE_MM`] (508, which is 0.05 mm exactly, is left out because its
+/// module in floating point falls a hair below 0.05).
+pub const DIAMETRAL_PITCH_RANGE: (f64, f64) = (0.254, 500.0);
 /// Pressure angles accepted, degrees.
 pub const PRESSURE_ANGLE_RANGE_DEG: (f64, f64) = (10.0, 35.0);
 
@@ -89,6 +93,21 @@ pub fn check_module(module_mm: f64, place: &dyn Fn(String) -> Error) -> Result<f
     Ok(module_mm)
 }
 
+/// Check a diametral pitch (teeth per inch of pitch diameter) and give its module, mm, 25.4 / P,
+/// which then lies in [`MODULE_RANGE_MM`]; `place` names where it came from.
+pub fn check_diametral_pitch(teeth_per_inch: f64, place: &dyn Fn(String) -> Error) -> Result<f64> {
+    let (lo, hi) = DIAMETRAL_PITCH_RANGE;
+    match crate::geometry::module_from_diametral_pitch(teeth_per_inch) {
+        Some(m) if (lo..=hi).contains(&teeth_per_inch) => Ok(m),
+        _ => Err(place(format!(
+            "diametral pitch must be a number of teeth per inch from {lo} to {hi} (modules of {} to {} \
+             mm), found {teeth_per_inch}",
+            25.4 / hi,
+            25.4 / lo
+        ))),
+    }
+}
+
 /// Check a pressure angle; `place` names where it came from.
 pub fn check_pressure_angle(deg: f64, place: &dyn Fn(String) -> Error) -> Result<f64> {
     let (lo, hi) = PRESSURE_ANGLE_RANGE_DEG;
@@ -106,7 +125,12 @@ impl Pool {
         pressure_angle_deg: f64,
         diametral_pitch: Option<f64>,
     ) -> Result<Pool> {
-        check_module(module_mm, &|m| Error::value(Quantity::Module, m))?;
+        match diametral_pitch {
+            Some(p) => {
+                check_diametral_pitch(p, &|m| Error::value(Quantity::DiametralPitch, m)).map(|_| ())?
+            }
+            None => check_module(module_mm, &|m| Error::value(Quantity::Module, m)).map(|_| ())?,
+        }
         check_pressure_angle(pressure_angle_deg, &|m| Error::value(Quantity::PressureAngle, m))?;
         let teeth_err = |m: String| Error::value(Quantity::ToothRange, m);
         if teeth.lo < MIN_TEETH || teeth.hi > MAX_TEETH {
@@ -289,6 +313,27 @@ mod tests {
         assert!(Pool::to_cut(r, f64::NAN, 20.0, None).is_err());
         assert!(Pool::to_cut(r, 1.0, 90.0, None).is_err());
         assert!(Pool::to_cut(r, 1.0, 14.5, None).is_ok());
+    }
+
+    #[test]
+    fn a_diametral_pitch_is_held_to_the_module_limits_in_its_own_unit() {
+        let place = |m: String| Error::value(Quantity::DiametralPitch, m);
+        let (m_lo, m_hi) = MODULE_RANGE_MM;
+        for p in [0.254, 1.0, 16.0, 500.0] {
+            let m = check_diametral_pitch(p, &place).unwrap();
+            assert!((m_lo..=m_hi).contains(&m), "{p}: {m}");
+        }
+        let e = check_diametral_pitch(0.001, &place).unwrap_err().to_string();
+        assert_eq!(
+            e,
+            "the diametral pitch: diametral pitch must be a number of teeth per inch from 0.254 to 500 \
+             (modules of 0.0508 to 100 mm), found 0.001"
+        );
+        assert!(check_diametral_pitch(508.0, &place).is_err());
+        assert!(check_diametral_pitch(f64::NAN, &place).is_err());
+        // Gears to cut in diametral pitch are checked as such, named by their own quantity.
+        let e = Pool::to_cut(IntRange { lo: 12, hi: 40 }, 25400.0, 20.0, Some(0.001)).unwrap_err();
+        assert!(e.to_string().starts_with("the diametral pitch: "), "{e}");
     }
 
     #[test]

@@ -230,10 +230,7 @@ impl Problem {
         if !(rules.centre_tolerance_mm.is_finite() && rules.centre_tolerance_mm >= 0.0) {
             return Err(Error::value(Quantity::CentreTolerance, "wanted a distance of 0 mm or more"));
         }
-        let l = rules.limits;
-        if !(l.min_contact_ratio.is_finite() && l.min_contact_ratio >= 0.0) {
-            return Err(Error::value(Quantity::ContactRatio, "wanted a number of 0 or more, e.g. 1.2"));
-        }
+        check_min_contact_ratio(rules.limits.min_contact_ratio)?;
         self.mesh = Some(rules);
         if self.stage_counts().is_empty() {
             return Err(Error::value(
@@ -245,6 +242,19 @@ impl Problem {
             ));
         }
         Ok(self)
+    }
+}
+
+/// Check a least transverse contact ratio, the same wherever one is asked for (a search's mesh
+/// checks, a mesh check, a motion work). Errors name [`Quantity::ContactRatio`].
+pub fn check_min_contact_ratio(ratio: f64) -> Result<f64> {
+    if ratio.is_finite() && ratio >= 0.0 {
+        Ok(ratio)
+    } else {
+        Err(Error::value(
+            Quantity::ContactRatio,
+            format!("wanted a number of 0 or more such as 1.2, found {ratio}"),
+        ))
     }
 }
 

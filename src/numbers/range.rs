@@ -3,6 +3,7 @@
 //! limits the caller allows.
 
 use crate::error::{Error, Quantity, Result};
+use crate::numbers::length::{Length, LengthUnit};
 use crate::numbers::rational::Ratio;
 use crate::numbers::target::parse_ratio;
 
@@ -115,7 +116,7 @@ pub fn parse_ratio_range(text: &str, quantity: Quantity) -> Result<RatioRange> {
     Ok(RatioRange { lo, hi })
 }
 
-/// An inclusive range of lengths or angles in floating point.
+/// An inclusive range of lengths in millimetres, in floating point.
 #[derive(Debug, Clone, Copy, PartialEq)]
 pub struct FloatRange {
     /// Smallest, inclusive.
@@ -137,20 +138,20 @@ impl FloatRange {
     }
 }
 
-/// Parse a range of positive finite numbers, `LO..HI`, `A` (a single value), `..HI` or `LO..`;
-/// errors name `quantity` and its `unit`.
-pub fn parse_float_range(text: &str, quantity: Quantity, unit: &str) -> Result<FloatRange> {
-    let wanted = format!("wanted LO..HI in {unit}, positive, LO ≤ HI");
+/// Parse a range of lengths, `LO..HI`, `A` (a single value), `..HI` or `LO..`, each end a
+/// length as [`crate::numbers::length::parse_length`] reads it (a bare number in mm, or `2in`, `0.05m`); the range is
+/// in mm. Errors name `quantity`.
+pub fn parse_length_range(text: &str, quantity: Quantity) -> Result<FloatRange> {
+    let wanted = "wanted LO..HI or one length, in mm such as 40..80 or 75 (or with units: 1.5in..3in), \
+                  above 0, LO ≤ HI";
     let bad = |why: String| Error::value(quantity, format!("{why}; {wanted}"));
     let num = |s: &str, default: f64| -> Result<f64> {
         if s.is_empty() {
             return Ok(default);
         }
-        let v: f64 = s.parse().map_err(|_| bad(format!("\"{s}\" is not a number")))?;
-        if !v.is_finite() || v <= 0.0 {
-            return Err(bad(format!("{s} is not a positive finite number")));
-        }
-        Ok(v)
+        let length =
+            Length::parse(s, Some(LengthUnit::Millimetre)).map_err(|why| bad(format!("\"{s}\" {why}")))?;
+        Ok(length.mm_f64())
     };
     let (a, b) = split(text);
     if a.is_empty() && b.is_none_or(str::is_empty) {
@@ -212,7 +213,7 @@ mod tests {
         assert_eq!(e, "the driver teeth: \"50..20\" is inverted (LO > HI); wanted teeth as N or LO..HI with 3 ≤ LO ≤ HI ≤ 1000");
         let e = parse_ratio_range("6..x", Quantity::StageRatio).unwrap_err().to_string();
         assert!(e.starts_with("the stage ratio: \"x\" is not a number"), "{e}");
-        let e = parse_float_range("9..3", Quantity::CentreDistance, "mm").unwrap_err().to_string();
+        let e = parse_length_range("9..3", Quantity::CentreDistance).unwrap_err().to_string();
         assert!(e.starts_with("the centre distance: \"9..3\" is inverted"), "{e}");
         let e = parse_signed_range("a..1", Quantity::ShiftSum, "modules").unwrap_err().to_string();
         assert!(e.starts_with("the profile shift sum: \"a\" is not a finite number"), "{e}");
@@ -237,12 +238,14 @@ mod tests {
     }
 
     #[test]
-    fn float_ranges() {
-        let r = parse_float_range("40..80.5", Quantity::CentreDistance, "mm").unwrap();
+    fn length_ranges() {
+        let r = parse_length_range("40..80.5", Quantity::CentreDistance).unwrap();
         assert!(r.contains(80.5, 0.0) && !r.contains(80.6, 0.0));
-        assert!(parse_float_range("62.5", Quantity::CentreDistance, "mm").unwrap().is_single());
-        for bad in ["", "nan", "inf", "-3..4", "0", "9..3"] {
-            assert!(parse_float_range(bad, Quantity::CentreDistance, "mm").is_err(), "{bad}");
+        assert!(parse_length_range("62.5", Quantity::CentreDistance).unwrap().is_single());
+        let inch = parse_length_range("1in..0.1m", Quantity::CentreDistance).unwrap();
+        assert_eq!((inch.lo, inch.hi), (25.4, 100.0));
+        for bad in ["", "nan", "inf", "-3..4", "0", "9..3", "3ft..4"] {
+            assert!(parse_length_range(bad, Quantity::CentreDistance).is_err(), "{bad}");
         }
     }
 }

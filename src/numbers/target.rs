@@ -1,8 +1,9 @@
 //! The target of a search: the ratio the user asked for and the tolerance around it, parsed from
 //! text into exact rationals. Owns the ratio and tolerance syntax; knows nothing of gears.
 //!
-//! Ratio syntax: an integer (`12`), a decimal (`1.0583`), a fraction (`127/120`), a ratio of two
-//! decimals (`37.5:1`), or `pi`. Tolerance syntax: a plain or scientific number (`0.0001`,
+//! One number syntax serves every quantity ([`parse_number`]): a decimal (`1.0583`), in
+//! scientific notation (`1e3`, `2.5e-1`) or a fraction (`127/120`), held exactly. Ratio syntax
+//! adds a ratio of two numbers (`37.5:1`) and `pi`. Tolerance syntax: a number (`0.0001`,
 //! `1e-4`), a percentage (`0.01%`), parts per million (`50ppm`) or per billion (`20ppb`).
 
 use crate::error::{Error, Quantity, Result};
@@ -16,7 +17,7 @@ pub const PI: Ratio = match Ratio::from_parts(2646693125139304345, 8424685874265
     None => panic!("the π convergent is reduced"),
 };
 
-/// Largest decimal exponent accepted in a tolerance such as `1e-12`.
+/// Largest decimal exponent accepted in a number such as `1e-12`.
 const MAX_EXPONENT: u32 = 30;
 
 /// A required ratio and tolerance.
@@ -47,43 +48,57 @@ impl Target {
     }
 }
 
+/// What a ratio error says is wanted.
+const RATIO_WANTED: &str = "wanted a positive number such as 12, 1.0583, 2.5e-1, 127/120, 37.5:1 or pi";
+
 /// Parse a positive ratio in any of the accepted forms; errors name `quantity`, the ratio being
-/// whatever the caller needs (a target, a stud ratio, a speed, a period).
+/// whatever the caller needs (a target, a stud ratio, a speed). Each number takes the same
+/// syntax as a tolerance: `1e3` is 1000 and `2.5e-1` is 1/4, exactly.
 pub fn parse_ratio(text: &str, quantity: Quantity) -> Result<Ratio> {
     let t = text.trim();
-    let wanted = "wanted a positive number such as 12, 1.0583, 127/120, 37.5:1 or pi";
     if t.is_empty() {
-        return Err(Error::value(quantity, format!("empty ratio; {wanted}")));
+        return Err(Error::value(quantity, format!("empty ratio; {RATIO_WANTED}")));
     }
     if t.eq_ignore_ascii_case("pi") || t == "π" {
         return Ok(PI);
     }
-    let (a, b, sep) = if let Some((a, b)) = t.split_once(':') {
-        (a, Some(b), ':')
-    } else if let Some((a, b)) = t.split_once('/') {
-        (a, Some(b), '/')
-    } else {
-        (t, None, ' ')
-    };
-    let bad = |why: &str| Error::value(quantity, format!("\"{t}\" {why}; {wanted}"));
-    let a = parse_decimal(a.trim()).map_err(&bad)?;
-    let value = match b {
-        None => a,
-        Some(b) => {
-            let b = parse_decimal(b.trim()).map_err(&bad)?;
-            if b.0 == 0 {
-                return Err(bad(&format!("divides by zero after '{sep}'")));
-            }
-            (
-                a.0.checked_mul(b.1).ok_or_else(|| bad("has too many digits"))?,
-                a.1.checked_mul(b.0).ok_or_else(|| bad("has too many digits"))?,
-            )
-        }
-    };
-    if value.0 == 0 {
+    let bad = |why: &str| Error::value(quantity, format!("\"{t}\" {why}; {RATIO_WANTED}"));
+    let value = match t.split_once(':') {
+        Some((a, b)) => quotient(a, b, ':'),
+        None => parse_number(t),
+    }
+    .map_err(|why| bad(&why))?;
+    if value.is_zero() {
         return Err(bad("is zero: a train cannot stop its output"));
     }
-    Ratio::new(value.0, value.1).ok_or_else(|| bad("has too many digits to hold exactly"))
+    Ok(value)
+}
+
+/// An exact number of zero or more as typed for any quantity: a decimal (`1.25`, `.5`), in
+/// scientific notation (`1e3`, `2.5e-1`) or a fraction of two such (`9/2`). `Err` says what is
+/// wrong, in words that follow the quoted text ("is not a number"); the caller names the
+/// quantity and says what it wants.
+pub fn parse_number(text: &str) -> std::result::Result<Ratio, String> {
+    match text.split_once('/') {
+        Some((a, b)) => quotient(a, b, '/'),
+        None => {
+            let (num, den) = parse_decimal(text.trim()).map_err(str::to_string)?;
+            Ratio::new(num, den).ok_or_else(|| "has too many digits to hold exactly".to_string())
+        }
+    }
+}
+
+/// `a / b` of two decimals, exactly; `sep` is how the user wrote the division.
+fn quotient(a: &str, b: &str, sep: char) -> std::result::Result<Ratio, String> {
+    let a = parse_decimal(a.trim()).map_err(str::to_string)?;
+    let b = parse_decimal(b.trim()).map_err(str::to_string)?;
+    if b.0 == 0 {
+        return Err(format!("divides by zero after '{sep}'"));
+    }
+    let too_many = || "has too many digits to hold exactly".to_string();
+    let num = a.0.checked_mul(b.1).ok_or_else(too_many)?;
+    let den = a.1.checked_mul(b.0).ok_or_else(too_many)?;
+    Ratio::new(num, den).ok_or_else(too_many)
 }
 
 /// Parse a relative tolerance; the result is in `[0, 1)`. Errors name [`Quantity::Tolerance`].
@@ -104,36 +119,17 @@ pub fn parse_tolerance(text: &str) -> Result<Ratio> {
     } else {
         (lower.as_str(), 1)
     };
-    let number = number.trim();
-    let (mantissa, exponent) = match number.split_once('e') {
-        Some((m, e)) => {
-            let e: i32 = e.parse().map_err(|_| bad("has an unreadable exponent"))?;
-            if e.unsigned_abs() > MAX_EXPONENT {
-                return Err(bad("has an exponent out of range"));
-            }
-            (m, e)
-        }
-        None => (number, 0),
-    };
-    if mantissa.starts_with('-') {
-        return Err(bad("is negative"));
-    }
-    let (mut num, mut den) = parse_decimal(mantissa).map_err(&bad)?;
-    let pow = 10u128.pow(exponent.unsigned_abs());
-    let overflow = || bad("has too many digits to hold exactly");
-    if exponent >= 0 {
-        num = num.checked_mul(pow).ok_or_else(overflow)?;
-    } else {
-        den = den.checked_mul(pow).ok_or_else(overflow)?;
-    }
-    den = den.checked_mul(scale).ok_or_else(overflow)?;
+    let (num, den) = parse_decimal(number.trim()).map_err(&bad)?;
+    let den = den.checked_mul(scale).ok_or_else(|| bad("has too many digits to hold exactly"))?;
     if num >= den {
         return Err(bad("is 100% or more: every ratio would pass"));
     }
-    Ratio::new(num, den).ok_or_else(overflow)
+    Ratio::new(num, den).ok_or_else(|| bad("has too many digits to hold exactly"))
 }
 
-/// A plain unsigned decimal `123`, `1.25` or `.5` as an unreduced `(num, den)`.
+/// An unsigned decimal `123`, `1.25` or `.5`, optionally with a decimal exponent (`1e3`,
+/// `2.5E-1`, at most 30 either way), as an unreduced `(num, den)`: the one number syntax every
+/// ratio, tolerance, length and period shares.
 fn parse_decimal(s: &str) -> std::result::Result<(u128, u128), &'static str> {
     if s.is_empty() {
         return Err("has an empty number");
@@ -141,18 +137,44 @@ fn parse_decimal(s: &str) -> std::result::Result<(u128, u128), &'static str> {
     if s.starts_with('-') {
         return Err("is negative");
     }
-    let (int, frac) = s.split_once('.').unwrap_or((s, ""));
+    let (mantissa, exponent) = s.split_once(['e', 'E']).map_or((s, None), |(m, e)| (m, Some(e)));
+    let (int, frac) = mantissa.split_once('.').unwrap_or((mantissa, ""));
     if int.is_empty() && frac.is_empty() {
         return Err("is not a number");
     }
     if !int.bytes().chain(frac.bytes()).all(|b| b.is_ascii_digit()) {
         return Err("is not a number");
     }
+    let exponent: i32 = match exponent {
+        None => 0,
+        Some(e) => {
+            let digits = e.strip_prefix(['+', '-']).unwrap_or(e);
+            if !digits.bytes().all(|b| b.is_ascii_digit()) {
+                return Err("is not a number");
+            }
+            if digits.is_empty() {
+                return Err("has an unreadable exponent");
+            }
+            match e.parse::<i32>() {
+                Ok(e) if e.unsigned_abs() <= MAX_EXPONENT => e,
+                _ => return Err("has an exponent out of range"),
+            }
+        }
+    };
     if int.len() + frac.len() > 36 {
         return Err("has too many digits to hold exactly");
     }
     let digits: u128 = format!("{int}{frac}").parse().map_err(|_| "is not a number")?;
-    Ok((digits, 10u128.pow(frac.len() as u32)))
+    let (mut num, mut den) = (digits, 10u128.pow(frac.len() as u32));
+    let pow = 10u128.pow(exponent.unsigned_abs());
+    let scaled = if exponent >= 0 { num.checked_mul(pow) } else { den.checked_mul(pow) };
+    let scaled = scaled.ok_or("has too many digits to hold exactly")?;
+    if exponent >= 0 {
+        num = scaled;
+    } else {
+        den = scaled;
+    }
+    Ok((num, den))
 }
 
 #[cfg(test)]
@@ -180,6 +202,24 @@ mod tests {
     }
 
     #[test]
+    fn ratios_take_the_number_syntax_of_tolerances() {
+        assert_eq!(r("1e3"), "1000");
+        assert_eq!(r("2.5e-1"), "1/4");
+        assert_eq!(r("1E3"), "1000");
+        assert_eq!(r("1.5e+2:3"), "50");
+        assert_eq!(r("1e3/7"), "1000/7");
+        // The same text, read as a tolerance, is the same number.
+        assert_eq!(t("2.5e-1"), r("2.5e-1"));
+        let e = parse_ratio("1e3x", Quantity::TargetRatio).unwrap_err().to_string();
+        assert!(e.starts_with("the target ratio: \"1e3x\" is not a number"), "{e}");
+        let e = parse_ratio("1e31", Quantity::TargetRatio).unwrap_err().to_string();
+        assert!(e.starts_with("the target ratio: \"1e31\" has an exponent out of range"), "{e}");
+        assert_eq!(parse_number("0").unwrap(), Ratio::integer(0));
+        assert_eq!(parse_number("9/2").unwrap().to_string(), "9/2");
+        assert_eq!(parse_number("pi").unwrap_err(), "is not a number");
+    }
+
+    #[test]
     fn pi_is_a_convergent_of_pi() {
         // Convergents of π: 355/113 (OEIS A002485/A002486); ours must agree to f64 precision.
         assert!((PI.to_f64() - std::f64::consts::PI).abs() < 1e-15);
@@ -187,7 +227,7 @@ mod tests {
 
     #[test]
     fn bad_ratios_name_the_quantity() {
-        for bad in ["", "0", "0/5", "-3", "1/0", "abc", "1.2.3", "nan", "inf", "3:", "1e5", "5/-2"] {
+        for bad in ["", "0", "0/5", "-3", "1/0", "abc", "1.2.3", "nan", "inf", "3:", "1e", "1e-99", "5/-2"] {
             let e = parse_ratio(bad, Quantity::TargetRatio).unwrap_err().to_string();
             assert!(e.starts_with("the target ratio: "), "{bad}: {e}");
         }
@@ -201,7 +241,7 @@ mod tests {
         assert_eq!(
             e.to_string(),
             "the target ratio: \"1e3x\" is not a number; wanted a positive number such as 12, 1.0583, \
-             127/120, 37.5:1 or pi"
+             2.5e-1, 127/120, 37.5:1 or pi"
         );
         assert!(matches!(e, Error::Value { quantity: Quantity::TargetRatio, .. }));
         let e = parse_ratio("0", Quantity::StudRatio).unwrap_err().to_string();

@@ -49,3 +49,34 @@ pub fn temp_catalogue(name: &str, bytes: &[u8]) -> (tempfile::TempDir, String) {
     let s = path.to_string_lossy().into_owned();
     (dir, s)
 }
+
+/// Every option a message names appears in it once: `--gearbox: position 1: …`, never
+/// `--gearbox: --gearbox position 1: …`.
+pub fn assert_flags_named_once(message: &str) {
+    let flags: Vec<&str> = message
+        .split(|c: char| !(c.is_ascii_alphanumeric() || c == '-'))
+        .filter(|w| w.starts_with("--") && w.len() > 2)
+        .collect();
+    for f in &flags {
+        assert_eq!(flags.iter().filter(|g| *g == f).count(), 1, "{f} named more than once: {message}");
+    }
+}
+
+/// Run with bad input and check the whole answer: exit 2, nothing on standard output, and
+/// exactly `gearsieve: {message}` on one line of standard error, each flag named once.
+pub fn refused(args: &[&str], message: &str) {
+    let r = gearsieve(args);
+    assert_eq!(r.code, 2, "{args:?}: {}", r.stderr);
+    assert!(r.stdout.is_empty(), "{args:?} printed {}", r.stdout);
+    assert_eq!(r.stderr, format!("gearsieve: {message}\n"), "{args:?}");
+    assert_flags_named_once(&r.stderr);
+}
+
+/// Run a search that finds nothing and check the hint: exit 1 and exactly
+/// `gearsieve: {message}` on standard error.
+pub fn nothing_found(args: &[&str], message: &str) {
+    let r = gearsieve(args);
+    assert_eq!(r.code, 1, "{args:?}: {}", r.stderr);
+    assert_eq!(r.stderr, format!("gearsieve: {message}\n"), "{args:?}");
+    assert_flags_named_once(&r.stderr);
+}

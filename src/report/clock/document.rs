@@ -6,7 +6,7 @@ use crate::model::train::Train;
 use crate::report::words::{count_line, describe_error, describe_tolerance, CONVENTION};
 use crate::report::{Document, Table};
 use crate::trades::clock::astro::AstroPlan;
-use crate::trades::clock::beat::{BeatSource, STANDARD_GRAVITY};
+use crate::trades::clock::beat::BeatSource;
 use crate::trades::clock::going::GoingPlan;
 use crate::trades::clock::motion::{stage_names, MotionPlan};
 
@@ -37,21 +37,24 @@ pub fn speed(turns_per_hour: f64) -> String {
 pub fn describe_beat(p: &GoingPlan) -> String {
     let b = &p.spec.beat;
     match b.source {
-        BeatSource::Length { metres, gravity } => format!(
-            "pendulum {} m at g = {gravity} m/s² → period {} s, {} beats/h",
+        BeatSource::Length { metres } => format!(
+            "pendulum {} m at g = {} m/s² → period {} s, {} beats/h",
             fmt_num(metres),
+            b.gravity,
             fmt_num(b.period_s()),
             fmt_num(b.beats_per_hour)
         ),
         BeatSource::Period(s) => format!(
-            "period {s} s → {} beats/h (simple pendulum {} m at g = {STANDARD_GRAVITY} m/s²)",
+            "period {s} s → {} beats/h (simple pendulum {} m at g = {} m/s²)",
             fmt_num(b.beats_per_hour),
-            fmt_num(b.length_m(STANDARD_GRAVITY))
+            fmt_num(b.length_m()),
+            b.gravity
         ),
         BeatSource::BeatsPerHour(r) => format!(
-            "{r} beats/h → period {} s (simple pendulum {} m at g = {STANDARD_GRAVITY} m/s²)",
+            "{r} beats/h → period {} s (simple pendulum {} m at g = {} m/s²)",
             fmt_num(b.period_s()),
-            fmt_num(b.length_m(STANDARD_GRAVITY))
+            fmt_num(b.length_m()),
+            b.gravity
         ),
     }
 }

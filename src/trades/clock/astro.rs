@@ -5,12 +5,13 @@
 //! fractions, with whether gear teeth can make them.
 
 use super::clock_problem;
-use crate::engine::{search, EngineChoice, RunOptions};
+use crate::engine::{search, RunOptions};
 use crate::error::{Error, Quantity, Result};
 use crate::model::pool::Pool;
 use crate::model::problem::{Problem, StageLimits};
 use crate::model::train::Train;
 use crate::numbers::exact::Exact;
+use crate::numbers::period::{period_wanted, read_period, TimeUnit};
 use crate::numbers::range::IntRange;
 use crate::numbers::rational::Ratio;
 use crate::numbers::target::{parse_ratio, Target};
@@ -41,18 +42,20 @@ pub const NAMED: [(&str, &str, &str); 3] = [
 ];
 
 impl Period {
-    /// Parse a named period (`synodic-month`, `sidereal-day`, `tropical-year`) or a number of
-    /// days (`29.53`, `27.321661`). Errors name [`Quantity::AstronomicalPeriod`].
+    /// Parse a named period (`synodic-month`, `sidereal-day`, `tropical-year`) or a period as
+    /// [`read_period`] reads it, in days when no unit is written (`27.321661`, `29.53d`,
+    /// `708.7h`). Errors name [`Quantity::AstronomicalPeriod`].
     pub fn parse(text: &str) -> Result<Period> {
         let t = text.trim();
         let quantity = Quantity::AstronomicalPeriod;
         if let Some((name, value, source)) = NAMED.iter().find(|(n, _, _)| *n == t) {
             return Ok(Period { name: name.to_string(), days: parse_ratio(value, quantity)?, source });
         }
-        let days = parse_ratio(t, quantity).map_err(|_| {
+        let days = read_period(t, TimeUnit::Day).map_err(|why| {
+            let names = NAMED.map(|(n, _, _)| n).join(", ");
             Error::value(
                 quantity,
-                format!("\"{t}\" is not a period; wanted synodic-month, sidereal-day, tropical-year or a number of days such as 27.321661"),
+                format!("\"{t}\" {why}; wanted {names} or {}", period_wanted(TimeUnit::Day)),
             )
         })?;
         Ok(Period { name: t.to_string(), days, source: "as given" })
@@ -199,7 +202,7 @@ impl AstroSpec {
     /// Search, and list the convergents.
     pub fn plan(&self, options: &RunOptions) -> Result<AstroPlan> {
         let problem = self.problem()?;
-        let found = search(&problem, EngineChoice::Sieve, options);
+        let found = search(&problem, crate::trades::ENGINE, options);
         let per_turn = 1.0 / self.from.turns_per_day() as f64;
         let trains = found
             .trains
@@ -286,7 +289,16 @@ mod tests {
         let s = Period::parse("sidereal-day").unwrap().days.to_f64();
         // The two published forms agree to the 9 decimals of the seconds figure.
         assert!((1.0 / s - 1.002737909350795).abs() < 1e-13);
+        assert_eq!(Period::parse("29.53d").unwrap().days.to_string(), "2953/100");
+        assert_eq!(Period::parse("29.53d").unwrap().name, "29.53d");
+        assert_eq!(Period::parse("708.7h").unwrap().days.to_string(), "7087/240");
         let e = Period::parse("fortnight").unwrap_err().to_string();
-        assert!(e.starts_with("the astronomical period: \"fortnight\" is not a period"), "{e}");
+        assert_eq!(
+            e,
+            "the astronomical period: \"fortnight\" is not a number; wanted synodic-month, sidereal-day, \
+             tropical-year or a period above 0 in d such as 27.321661, or with a unit: 29.53d, 708.7h"
+        );
+        let e = Period::parse("0").unwrap_err().to_string();
+        assert!(e.starts_with("the astronomical period: \"0\" is zero; wanted "), "{e}");
     }
 }

@@ -4,7 +4,7 @@
 
 use super::beat::{Beat, Escapement};
 use super::{approx_ratio, arbor_speeds, clock_problem, SECONDS_PER_DAY};
-use crate::engine::{search, EngineChoice, Outcome, RunOptions};
+use crate::engine::{search, Outcome, RunOptions};
 use crate::error::{Error, Quantity, Result};
 use crate::model::pool::Pool;
 use crate::model::problem::{Problem, StageLimits};
@@ -129,7 +129,7 @@ impl GoingSpec {
     /// Search.
     pub fn plan(&self, options: &RunOptions) -> Result<GoingPlan> {
         let problem = self.problem()?;
-        let found: Outcome = search(&problem, EngineChoice::Sieve, options);
+        let found: Outcome = search(&problem, crate::trades::ENGINE, options);
         let escape = self.escapement.turns_per_hour(&self.beat);
         let from = self.from_turns_per_hour.to_f64();
         let trains = found

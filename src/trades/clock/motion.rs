@@ -7,7 +7,7 @@
 //! undercut; that is accepted unless asked otherwise (common practice).
 
 use super::clock_problem;
-use crate::engine::{search, EngineChoice, RunOptions};
+use crate::engine::{search, RunOptions};
 use crate::error::{Error, Quantity, Result};
 use crate::geometry::MeshLimits;
 use crate::model::pool::Pool;
@@ -129,7 +129,7 @@ impl MotionSpec {
     /// Search.
     pub fn plan(&self, options: &RunOptions) -> Result<MotionPlan> {
         let problem = self.problem()?;
-        let found = search(&problem, EngineChoice::Sieve, options);
+        let found = search(&problem, crate::trades::ENGINE, options);
         Ok(MotionPlan {
             spec: self.clone(),
             problem,

@@ -19,7 +19,7 @@ pub mod hunting;
 
 use std::sync::Arc;
 
-use crate::engine::{search, EngineChoice, RunOptions};
+use crate::engine::{search, RunOptions};
 use crate::error::{Error, Message, Quantity, Result};
 use crate::model::pool::{Pool, StockGear, MAX_STAGES};
 use crate::model::problem::{ExtraKey, MeshRules, Problem, StageLimits, TrainCheck};
@@ -121,37 +121,55 @@ pub fn centre_distance_sum_mm(t: &Train) -> f64 {
     t.stages.iter().map(|s| s.mesh.map_or(s.centre_distance_mm(), |m| m.centre_distance_mm)).sum()
 }
 
+/// Modules one per stage for a fixed stage count above one, coarser toward the output
+/// (`1,1.5` for two stages), to show how a list is given; `None` for one stage or a range of
+/// counts, where one module for every stage is the way.
+pub fn example_modules(stages: IntRange) -> Option<String> {
+    const MODULES: [&str; MAX_STAGES] = ["1", "1.5", "2", "2.5", "3", "4"];
+    let n = stages.lo as usize;
+    (stages.lo == stages.hi && n > 1 && n <= MAX_STAGES).then(|| MODULES[..n].join(","))
+}
+
 impl ReducerSpec {
-    /// The stage count searched (a single count when modules or distances are given per stage).
+    /// The stage count searched. A list of more than one module or distance gives one per
+    /// stage, so the stage count must be exactly its length: a range or another count is
+    /// refused rather than narrowed.
     fn stage_range(&self) -> Result<IntRange> {
-        let per_stage = self.modules.len().max(self.centre_distances_mm.len());
-        if per_stage > 1 {
-            let n = per_stage as u32;
-            if !self.stages.contains(n) || (self.modules.len() > 1 && self.modules.len() != per_stage) {
-                let given = format!(
-                    "{} modules and {} centre distances given; give one per stage for ",
-                    self.modules.len(),
-                    self.centre_distances_mm.len()
-                );
-                return Err(Error::value(
-                    Quantity::StageModules,
-                    Message::from(given)
-                        .quantity(Quantity::StageCount)
-                        .text(format!(" {n} (or one for all)")),
-                ));
-            }
-            if self.centre_distances_mm.len() > 1 && self.centre_distances_mm.len() != per_stage {
-                return Err(Error::value(
-                    Quantity::StageCentreDistances,
-                    format!("give one distance per stage ({per_stage})"),
-                ));
-            }
-            return Ok(IntRange { lo: n, hi: n });
+        let (m, c) = (self.modules.len(), self.centre_distances_mm.len());
+        if m > 1 && c > 1 && m != c {
+            return Err(Error::value(
+                Quantity::StageCentreDistances,
+                Message::from(format!("{c} distances given, but ")).quantity(Quantity::StageModules).text(
+                    format!(" lists {m} modules; give as many of each (one per stage), or one for all"),
+                ),
+            ));
+        }
+        let per_stage = m.max(c);
+        if per_stage <= 1 {
+            return Ok(self.stages);
+        }
+        let n = per_stage as u32;
+        if self.stages != (IntRange { lo: n, hi: n }) {
+            let (list, what, one) = if m > 1 {
+                (Quantity::StageModules, format!("{m} modules"), "module")
+            } else {
+                (Quantity::StageCentreDistances, format!("{c} centre distances"), "distance")
+            };
+            return Err(Error::value(
+                Quantity::StageCount,
+                Message::from(format!("{} does not fit ", self.stages)).quantity(list).text(format!(
+                    ", which lists {what}, one per stage; give {n} stages, or one {one} for all"
+                )),
+            ));
         }
         Ok(self.stages)
     }
 
     fn pool(&self) -> Result<Pool> {
+        // The same limits whether the modules are cut or looked for on the shelf.
+        for &m in &self.modules {
+            crate::model::pool::check_module(m, &|msg| Error::value(Quantity::StageModules, msg))?;
+        }
         if let Some(p) = &self.stock {
             return Ok(p.clone());
         }
@@ -170,9 +188,6 @@ impl ReducerSpec {
                 })
             })
             .collect();
-        for &m in &modules {
-            crate::model::pool::check_module(m, &|msg| Error::value(Quantity::StageModules, msg))?;
-        }
         let pool = Pool::from_stock_at(&stock, &|msg| Error::value(Quantity::ToothRange, msg))?;
         // Gears to cut: any number, as with a tooth range.
         Ok(Pool { from_stock: false, ..pool })
@@ -215,7 +230,17 @@ impl ReducerSpec {
             ));
         }
         if self.stock.is_none() && self.modules.is_empty() {
-            return Err(Error::value(Quantity::StageModules, "give the module of each stage, e.g. 1,1.5,2"));
+            return Err(Error::value(
+                Quantity::StageModules,
+                match example_modules(self.stages) {
+                    Some(list) => format!(
+                        "give the module in mm of each stage, input to output, such as {list} for {} stages \
+                         (or 1 for every stage)",
+                        self.stages
+                    ),
+                    None => format!("give the module in mm for every stage of {}, such as 1", self.stages),
+                },
+            ));
         }
         let stages = self.stage_range()?;
         let pool = self.pool()?;
@@ -259,7 +284,7 @@ impl ReducerSpec {
     /// Search, and arrange each train found in its housing places.
     pub fn plan(&self, options: &RunOptions) -> Result<ReducerPlan> {
         let problem = self.problem()?;
-        let found = search(&problem, EngineChoice::Sieve, options);
+        let found = search(&problem, crate::trades::ENGINE, options);
         let places = self.places();
         let trains = found
             .trains
@@ -299,18 +324,40 @@ mod tests {
     #[test]
     fn errors_name_quantities_and_can_name_another_inside() {
         let e = spec(&[1.0, 1.5, 2.0], IntRange { lo: 17, hi: 100 }).problem().unwrap_err();
-        let said = "3 modules and 0 centre distances given; give one per stage for";
         assert_eq!(
             e.to_string(),
-            format!("the module of each stage: {said} the stage count 3 (or one for all)")
+            "the stage count: 2 does not fit the module of each stage, which lists 3 modules, one per \
+             stage; give 3 stages, or one module for all"
         );
         let short = |q| match q {
             Quantity::StageModules => "MODULES",
             Quantity::StageCount => "STAGES",
             _ => "?",
         };
-        assert_eq!(e.render(short), format!("MODULES: {said} STAGES 3 (or one for all)"));
+        assert_eq!(
+            e.render(short),
+            "STAGES: 2 does not fit MODULES, which lists 3 modules, one per stage; give 3 stages, or one \
+             module for all"
+        );
         let e = spec(&[1.0], IntRange { lo: 20, hi: 20 }).problem().unwrap_err().to_string();
         assert!(e.starts_with("the tooth range: nothing can mesh: "), "{e}");
+        // A range of stage counts is not silently narrowed to the length of a list.
+        let mut two = spec(&[1.0, 1.5], IntRange { lo: 17, hi: 100 });
+        two.stages = IntRange { lo: 2, hi: 3 };
+        let e = two.problem().unwrap_err().to_string();
+        assert!(e.starts_with("the stage count: 2..3 does not fit the module of each stage"), "{e}");
+        two.stages = IntRange { lo: 2, hi: 2 };
+        assert_eq!(two.problem().unwrap().stages, IntRange { lo: 2, hi: 2 });
+        let mut none = spec(&[], IntRange { lo: 17, hi: 100 });
+        assert_eq!(
+            none.problem().unwrap_err().to_string(),
+            "the module of each stage: give the module in mm of each stage, input to output, such as 1,1.5 \
+             for 2 stages (or 1 for every stage)"
+        );
+        none.stages = IntRange { lo: 2, hi: 3 };
+        assert_eq!(
+            none.problem().unwrap_err().to_string(),
+            "the module of each stage: give the module in mm for every stage of 2..3, such as 1"
+        );
     }
 }

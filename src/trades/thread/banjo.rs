@@ -24,7 +24,8 @@ use std::path::Path;
 use crate::error::{Error, Message, Quantity, Result};
 use crate::model::pool::{fmt_num, Pool};
 use crate::model::train::{standard_centre_distance_mm, Train};
-use crate::numbers::range::{parse_float_range, FloatRange};
+use crate::numbers::length::{parse_length, LengthUnit};
+use crate::numbers::range::{parse_length_range, FloatRange};
 
 /// Slack for distances computed in floating point, mm.
 const SLACK_MM: f64 = 1e-9;
@@ -343,24 +344,18 @@ pub fn load_banjo(path: &Path) -> Result<Banjo> {
             ));
         };
         let (key, value) = (key.trim(), value.trim());
+        // The file's own errors name the banjo once, then the file, line and key.
+        let at_key = |e: Error| {
+            Error::value(Quantity::Banjo, Message::from(format!("{place}: {key}: ")).then(e.detail()))
+        };
         let number = || -> Result<f64> {
-            value.parse::<f64>().ok().filter(|v| v.is_finite() && *v > 0.0).ok_or_else(|| {
-                Error::value(
-                    Quantity::Banjo,
-                    format!("{place}: {key} wants a positive number of mm, found \"{value}\""),
-                )
-            })
+            Ok(parse_length(value, Quantity::Banjo, Some(LengthUnit::Millimetre)).map_err(at_key)?.mm_f64())
         };
         match key {
             "stud_to_leadscrew_mm" => dist = Some(number()?),
             "shaft_diameter_mm" => shaft = Some(number()?),
             "intermediate_from_leadscrew_mm" => {
-                range = Some(parse_float_range(value, Quantity::Banjo, "mm").map_err(|e| {
-                    Error::value(
-                        Quantity::Banjo,
-                        Message::from(format!("{place}: {key}: ")).then(e.to_message()),
-                    )
-                })?)
+                range = Some(parse_length_range(value, Quantity::Banjo).map_err(at_key)?)
             }
             _ => {
                 return Err(Error::value(
@@ -448,11 +443,22 @@ mod tests {
         );
         std::fs::write(&p, "intermediate_from_leadscrew_mm = 90..60\n").unwrap();
         let e = load_banjo(&p).unwrap_err().to_string();
-        let inverted = "the banjo: \"90..60\" is inverted (LO > HI); wanted LO..HI in mm, positive, LO ≤ HI";
+        let inverted = "\"90..60\" is inverted (LO > HI); wanted LO..HI or one length, in mm such as 40..80 \
+                        or 75 (or with units: 1.5in..3in), above 0, LO ≤ HI";
+        // The banjo is named once, at the head; the rest says where in the file.
         assert_eq!(
             e,
             format!("the banjo: banjo file {f}, line 1: intermediate_from_leadscrew_mm: {inverted}")
         );
+        std::fs::write(&p, "stud_to_leadscrew_mm = 4.5in\nshaft_diameter_mm = -3\n").unwrap();
+        let e = load_banjo(&p).unwrap_err().to_string();
+        assert!(
+            e.starts_with(&format!(
+                "the banjo: banjo file {f}, line 2: shaft_diameter_mm: \"-3\" is negative"
+            )),
+            "{e}"
+        );
+        assert_eq!(e.matches("the banjo").count(), 1, "{e}");
     }
 
     #[test]

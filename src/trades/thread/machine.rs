@@ -73,7 +73,7 @@ pub fn parse_gearbox_list(text: &str) -> Result<Vec<GearboxPosition>> {
             Some((n, r)) => (n.trim().to_string(), r.trim()),
             None => ((i + 1).to_string(), item),
         };
-        let place = Message::from(Quantity::Gearbox).text(format!(" position {}", i + 1));
+        let place = Message::from(format!("position {}", i + 1));
         out.push(position(&name, ratio, &place)?);
         check_unique(&out, &place)?;
     }
@@ -101,6 +101,36 @@ fn check_unique(out: &[GearboxPosition], place: &Message) -> Result<()> {
         return Err(Error::value(Quantity::Gearbox, twice));
     }
     Ok(())
+}
+
+/// Read a gearbox given either way: the file of that name when there is one, else a list as
+/// for [`parse_gearbox_list`]. Text that is neither (a file name that does not exist) is
+/// refused as such rather than read as a list. Errors name [`Quantity::Gearbox`].
+pub fn parse_gearbox(text: &str) -> Result<Vec<GearboxPosition>> {
+    let path = Path::new(text);
+    if path.is_dir() {
+        return Err(Error::value(
+            Quantity::Gearbox,
+            format!(
+                "{text} is a folder; wanted a file of NAME = RATIO lines, or a list such as A=2,B=1,C=1/2"
+            ),
+        ));
+    }
+    if path.is_file() {
+        return load_gearbox(path);
+    }
+    let t = text.trim();
+    let looks_like_a_list = t.contains(['=', ',']) || parse_ratio(t, Quantity::Gearbox).is_ok();
+    if !looks_like_a_list {
+        return Err(Error::value(
+            Quantity::Gearbox,
+            format!(
+                "there is no file \"{t}\", and it is not a list; wanted a file of NAME = RATIO lines, or \
+                 a list NAME=RATIO,… such as A=2,B=1,C=1/2"
+            ),
+        ));
+    }
+    parse_gearbox_list(text)
 }
 
 /// Read a gearbox file: one `NAME = RATIO` a line, `#` starts a comment. Errors name
@@ -189,7 +219,30 @@ mod tests {
         assert_eq!(g[2].ratio.to_string(), "1/2");
         for bad in ["A=1,A=2", "A=x", "=2", "1,,2"] {
             let e = parse_gearbox_list(bad).unwrap_err().to_string();
-            assert!(e.starts_with("the gearbox: the gearbox position "), "{bad}: {e}");
+            assert!(e.starts_with("the gearbox: position "), "{bad}: {e}");
+            assert_eq!(e.matches("gearbox").count(), 1, "{e}");
         }
+        assert_eq!(
+            parse_gearbox_list("A=1,A=2").unwrap_err().to_string(),
+            "the gearbox: position 2: position A is named twice"
+        );
+    }
+
+    #[test]
+    fn a_gearbox_is_a_file_or_a_list_never_a_missing_file_read_as_a_list() {
+        assert_eq!(parse_gearbox("A=2,B=1/2").unwrap().len(), 2);
+        assert_eq!(parse_gearbox("2").unwrap()[0].name, "1");
+        let e = parse_gearbox("nosuchfile").unwrap_err().to_string();
+        assert_eq!(
+            e,
+            "the gearbox: there is no file \"nosuchfile\", and it is not a list; wanted a file of NAME = \
+             RATIO lines, or a list NAME=RATIO,… such as A=2,B=1,C=1/2"
+        );
+        let dir = tempfile::tempdir().unwrap();
+        let file = dir.path().join("box");
+        std::fs::write(&file, "A = 2\nB = 1/2\n").unwrap();
+        assert_eq!(parse_gearbox(&file.to_string_lossy()).unwrap()[1].ratio.to_string(), "1/2");
+        let e = parse_gearbox(&dir.path().to_string_lossy()).unwrap_err().to_string();
+        assert!(e.contains("is a folder; wanted a file of NAME = RATIO lines"), "{e}");
     }
 }

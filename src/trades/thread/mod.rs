@@ -20,7 +20,7 @@ pub mod series;
 
 use std::cmp::Ordering;
 
-use crate::engine::{search, EngineChoice, RunOptions};
+use crate::engine::{search, RunOptions};
 use crate::error::{Error, Quantity, Result};
 use crate::model::pool::Pool;
 use crate::model::problem::{Problem, StageLimits, TrainCheck};
@@ -248,6 +248,40 @@ impl Lathe {
         }
     }
 
+    /// One search per gearbox position: the position, the train ratio it needs, the problem.
+    fn searches(
+        &self,
+        thread: &ThreadSpec,
+        tolerance: Ratio,
+        limit: usize,
+        geometry: bool,
+    ) -> Result<Vec<(Option<&GearboxPosition>, Ratio, Problem)>> {
+        let lead = thread.lead_mm();
+        let mut out = Vec::new();
+        for position in self.machine.positions() {
+            let need = self.machine.train_ratio_for(lead, position).value;
+            out.push((position, need, self.problem(need, tolerance, limit, geometry)?));
+        }
+        Ok(out)
+    }
+
+    /// The problems [`Lathe::plan`] searches for `thread` (one per gearbox position), and with
+    /// `explain` those [`Lathe::explain`] searches too: what a forecast of the run weighs.
+    pub fn problems(&self, thread: &ThreadSpec, explain: bool) -> Result<Vec<Problem>> {
+        let mut out: Vec<Problem> =
+            self.searches(thread, self.tolerance, self.limit, true)?.into_iter().map(|s| s.2).collect();
+        if explain && self.banjo.is_some() {
+            let rejected = self.searches(thread, self.tolerance, self.explain_limit(), false)?;
+            out.extend(rejected.into_iter().map(|s| s.2));
+        }
+        Ok(out)
+    }
+
+    /// How many ratio-only trains [`Lathe::explain`] looks through for ones the banjo refuses.
+    fn explain_limit(&self) -> usize {
+        self.limit * 4 + 16
+    }
+
     fn run(
         &self,
         thread: &ThreadSpec,
@@ -255,12 +289,9 @@ impl Lathe {
         limit: usize,
         options: &RunOptions,
     ) -> Result<ThreadPlan> {
-        let lead = thread.lead_mm();
         let (mut count, mut complete, mut setups) = (0, true, Vec::new());
-        for position in self.machine.positions() {
-            let need = self.machine.train_ratio_for(lead, position).value;
-            let problem = self.problem(need, tolerance, limit, true)?;
-            let found = search(&problem, EngineChoice::Sieve, options);
+        for (position, need, problem) in self.searches(thread, tolerance, limit, true)? {
+            let found = search(&problem, crate::trades::ENGINE, options);
             count += found.count;
             complete &= found.complete;
             setups.extend(found.trains.into_iter().map(|t| self.setup(thread, t, position, need)));
@@ -291,13 +322,10 @@ impl Lathe {
         let Some(banjo) = &self.banjo else {
             return Ok(Vec::new());
         };
-        let lead = thread.lead_mm();
         let mut out = Vec::new();
-        for position in self.machine.positions() {
-            let need = self.machine.train_ratio_for(lead, position).value;
-            // Ratio-only search, then keep what the banjo refuses.
-            let problem = self.problem(need, self.tolerance, self.limit * 4 + 16, false)?;
-            for t in search(&problem, EngineChoice::Sieve, options).trains {
+        // Ratio-only searches, then keep what the banjo refuses.
+        for (position, need, problem) in self.searches(thread, self.tolerance, self.explain_limit(), false)? {
+            for t in search(&problem, crate::trades::ENGINE, options).trains {
                 if let Err(reasons) = banjo.fit(&t, &self.pool) {
                     out.push(Rejected {
                         pitch_error: pitch_error(t.ratio, need),

@@ -1,29 +1,28 @@
-//! Pitches and leadscrews as typed: `8tpi`, `3mm`, `1.25mm`, `module:2` (a module worm, axial
-//! pitch π·m) and `dp:16` (a diametral-pitch worm, axial pitch π/P inch). Every value is held in
-//! millimetres as an exact rational where it can be (1 in = 25.4 mm = 127/5 mm exactly); values
-//! that carry π use [`crate::numbers::target::PI`] and are marked inexact. Owns the syntax and the units a
-//! pitch is shown in; knows nothing of gears.
+//! Pitches and leadscrews as typed: `8tpi`, a length (`3mm`, `1.25mm`, `0.003in`, read by
+//! [`crate::numbers::length`]), `module:2` (a module worm, axial pitch π·m) and `dp:16` (a
+//! diametral-pitch worm, axial pitch π/P inch). Every value is held in millimetres as an exact
+//! rational where it can be (1 in = 25.4 mm = 127/5 mm exactly); values that carry π use
+//! [`crate::numbers::target::PI`] and are marked inexact. Owns the syntax and the units a pitch
+//! is shown in; knows nothing of gears.
 
 use std::fmt;
 
 use crate::error::{Error, Quantity, Result};
 use crate::numbers::exact::Exact;
+pub use crate::numbers::length::MM_PER_INCH;
+use crate::numbers::length::{Length, LengthUnit};
 use crate::numbers::rational::Ratio;
-use crate::numbers::target::{parse_ratio, PI};
-
-/// Millimetres in one inch, exactly (international inch, 1959): 25.4 = 127/5.
-pub const MM_PER_INCH: Ratio = match Ratio::from_parts(127, 5) {
-    Some(r) => r,
-    None => panic!("127/5 is reduced"),
-};
+use crate::numbers::target::{parse_number, PI};
 
 /// How a pitch was given, which decides the unit it is shown in.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
 pub enum PitchKind {
-    /// Millimetres between threads (`1.25mm`).
+    /// Millimetres between threads (`1.25mm`, or another metric length such as `0.00125m`).
     Metric,
     /// Threads per inch (`11tpi`).
     Inch,
+    /// Inches between threads, or a feed in inches per turn (`0.003in`).
+    InchLength,
     /// A module worm: axial pitch π·m mm (`module:2`).
     Module,
     /// A diametral-pitch worm: axial pitch π/P inch (`dp:16`).
@@ -33,7 +32,7 @@ pub enum PitchKind {
 impl PitchKind {
     /// True for pitches counted in inches (shown as TPI or inch, lead error in inch per inch).
     pub fn is_inch(self) -> bool {
-        matches!(self, PitchKind::Inch | PitchKind::Diametral)
+        matches!(self, PitchKind::Inch | PitchKind::InchLength | PitchKind::Diametral)
     }
 }
 
@@ -44,7 +43,7 @@ pub struct Pitch {
     pub text: String,
     /// How it was given.
     pub kind: PitchKind,
-    /// The number given: mm, threads per inch, module or diametral pitch.
+    /// The number given: mm, threads per inch, inches, module or diametral pitch.
     pub given: Ratio,
     /// Axial pitch in mm (exact unless it carries π).
     pub mm: Exact,
@@ -56,31 +55,31 @@ impl fmt::Display for Pitch {
     }
 }
 
-const WANTED: &str = "wanted a pitch such as 1.25mm, 11tpi, module:2 or dp:16";
+const WANTED: &str = "wanted a pitch such as 1.25mm, 11tpi, 0.05in, module:2 or dp:16";
 
 /// Parse a thread pitch; errors name [`Quantity::ThreadPitch`].
 pub fn parse_pitch(text: &str) -> Result<Pitch> {
     let t = text.trim();
     let lower = t.to_ascii_lowercase();
     let bad = |why: String| Error::value(Quantity::ThreadPitch, format!("\"{t}\" {why}; {WANTED}"));
-    let (kind, number) = if let Some(n) = lower.strip_prefix("module:") {
-        (PitchKind::Module, n)
+    let counted = if let Some(n) = lower.strip_prefix("module:") {
+        Some((PitchKind::Module, n))
     } else if let Some(n) = lower.strip_prefix("dp:") {
-        (PitchKind::Diametral, n)
-    } else if let Some(n) = lower.strip_suffix("tpi") {
-        (PitchKind::Inch, n)
-    } else if let Some(n) = lower.strip_suffix("mm") {
-        (PitchKind::Metric, n)
+        Some((PitchKind::Diametral, n))
     } else {
-        return Err(bad("has no unit".into()));
+        lower.strip_suffix("tpi").map(|n| (PitchKind::Inch, n))
     };
-    let number = number.trim();
-    // parse_ratio also takes `pi`; a pitch number is a plain decimal or fraction.
-    if number.is_empty() || number.chars().any(|c| c.is_ascii_alphabetic() || c == ':') {
-        return Err(bad("does not start with a number".into()));
-    }
-    let given =
-        parse_ratio(number, Quantity::ThreadPitch).map_err(|_| bad("is not a positive number".into()))?;
+    let Some((kind, number)) = counted else {
+        // A length between threads, in any unit a length takes; a unit must be written.
+        let length = Length::parse(t, None).map_err(bad)?;
+        let kind = match length.unit {
+            LengthUnit::Inch => PitchKind::InchLength,
+            LengthUnit::Millimetre | LengthUnit::Metre => PitchKind::Metric,
+        };
+        let given = if kind == PitchKind::Metric { length.mm } else { length.given };
+        return Ok(Pitch { text: t.to_string(), kind, given, mm: Exact::of(length.mm) });
+    };
+    let given = parse_number(number).map_err(bad)?;
     if given.is_zero() {
         return Err(bad("is zero".into()));
     }
@@ -88,10 +87,9 @@ pub fn parse_pitch(text: &str) -> Result<Pitch> {
     let inch = Exact::of(MM_PER_INCH);
     let pi = Exact { value: PI, exact: false };
     let mm = match kind {
-        PitchKind::Metric => g,
         PitchKind::Inch => inch.over(g),
         PitchKind::Module => pi.times(g),
-        PitchKind::Diametral => pi.times(inch).over(g),
+        _ => pi.times(inch).over(g),
     };
     Ok(Pitch { text: t.to_string(), kind, given, mm })
 }
@@ -104,16 +102,20 @@ pub fn parse_leadscrew(text: &str) -> Result<Pitch> {
             Quantity::Leadscrew,
             format!(
                 "\"{}\" is not a leadscrew pitch; wanted threads per inch such as 8tpi or a \
-                 metric pitch such as 3mm",
+                 pitch such as 3mm or 0.25in",
                 text.trim()
             ),
         )
     })?;
     match p.kind {
-        PitchKind::Metric | PitchKind::Inch => Ok(p),
+        PitchKind::Metric | PitchKind::Inch | PitchKind::InchLength => Ok(p),
         _ => Err(Error::value(
             Quantity::Leadscrew,
-            format!("\"{}\": a leadscrew is given in threads per inch (8tpi) or mm (3mm)", p.text),
+            format!(
+                "\"{}\" is a worm; a leadscrew is given in threads per inch (8tpi) or as a pitch \
+                 (3mm, 0.25in)",
+                p.text
+            ),
         )),
     }
 }
@@ -125,7 +127,7 @@ impl Pitch {
         match self.kind {
             PitchKind::Metric | PitchKind::Module => mm,
             PitchKind::Inch => 25.4 / mm,
-            PitchKind::Diametral => mm / 25.4,
+            PitchKind::InchLength | PitchKind::Diametral => mm / 25.4,
         }
     }
 
@@ -134,7 +136,7 @@ impl Pitch {
         match self.kind {
             PitchKind::Metric | PitchKind::Module => "mm",
             PitchKind::Inch => "tpi",
-            PitchKind::Diametral => "in",
+            PitchKind::InchLength | PitchKind::Diametral => "in",
         }
     }
 
@@ -143,7 +145,7 @@ impl Pitch {
         let v = self.in_own_unit(mm);
         match self.kind {
             PitchKind::Inch => format!("{v:.3} tpi"),
-            PitchKind::Diametral => format!("{v:.5} in"),
+            PitchKind::InchLength | PitchKind::Diametral => format!("{v:.5} in"),
             _ => format!("{v:.4} mm"),
         }
     }
@@ -184,6 +186,22 @@ mod tests {
         assert_eq!(mm("11TPI"), "127/55");
         assert_eq!(mm("2.3tpi"), "254/23");
         assert_eq!(mm("9/2tpi"), "254/45");
+        assert_eq!(mm("1.25e0mm"), "5/4");
+        assert_eq!(mm("0.00125m"), "5/4");
+    }
+
+    #[test]
+    fn inch_pitches_and_feeds_are_lengths() {
+        let p = parse_pitch("0.003in").unwrap();
+        assert_eq!(p.kind, PitchKind::InchLength);
+        assert!(p.mm.exact);
+        assert_eq!(p.mm.value.to_string(), "381/5000");
+        assert_eq!(p.given.to_string(), "3/1000");
+        assert_eq!(p.show(p.mm.value.to_f64()), "0.00300 in");
+        assert_eq!(p.lead_error_basis().1, "in per in");
+        // A quarter-inch pitch is four threads per inch, exactly.
+        assert_eq!(parse_pitch("0.25in").unwrap().mm.value, parse_pitch("4tpi").unwrap().mm.value);
+        assert!(parse_leadscrew("0.25in").is_ok());
     }
 
     #[test]
@@ -210,7 +228,14 @@ mod tests {
         let e = parse_pitch("3").unwrap_err().to_string();
         assert_eq!(
             e,
-            "the thread pitch: \"3\" has no unit; wanted a pitch such as 1.25mm, 11tpi, module:2 or dp:16"
+            "the thread pitch: \"3\" has no unit; wanted a pitch such as 1.25mm, 11tpi, 0.05in, module:2 or \
+             dp:16"
+        );
+        let e = parse_leadscrew("module:2").unwrap_err().to_string();
+        assert_eq!(
+            e,
+            "the leadscrew pitch: \"module:2\" is a worm; a leadscrew is given in threads per inch (8tpi) or \
+             as a pitch (3mm, 0.25in)"
         );
     }
 

@@ -161,13 +161,8 @@ pub fn load_list(path: &Path) -> Result<Vec<SeriesEntry>> {
             Some((l, p)) => (l.trim(), p.trim()),
             None => (line, line),
         };
-        let pitch = parse_pitch(pitch).map_err(|e| {
-            let why = match e {
-                Error::Value { message, .. } => message,
-                other => other.to_message(),
-            };
-            bad(Message::from(format!(", line {}: ", n + 1)).then(why))
-        })?;
+        let pitch = parse_pitch(pitch)
+            .map_err(|e| bad(Message::from(format!(", line {}: ", n + 1)).then(e.detail())))?;
         out.push(SeriesEntry { label: label.to_string(), pitch });
     }
     if out.is_empty() {
@@ -218,7 +213,7 @@ mod tests {
         assert!(e.starts_with("the thread list: list file ") && e.contains("line 2:"), "{e}");
         assert!(
             e.ends_with(
-                "line 2: \"1.5\" has no unit; wanted a pitch such as 1.25mm, 11tpi, module:2 or dp:16"
+                "line 2: \"1.5\" has no unit; wanted a pitch such as 1.25mm, 11tpi, 0.05in, module:2 or dp:16"
             ),
             "{e}"
         );
