@@ -9,6 +9,7 @@ mod flags;
 mod merge;
 mod mesh;
 mod output;
+mod planetary;
 mod progress;
 mod reducer;
 mod run;
@@ -61,6 +62,8 @@ enum Command {
     Clock(clock::ClockArgs),
     /// A spur reducer: a module per stage, balanced stages, hunting-tooth pairs, housing fit.
     Reducer(Box<reducer::ReducerArgs>),
+    /// Planetary trains: sun, planets on a carrier, ring; coaxial, assembled, planets clear.
+    Planetary(Box<planetary::PlanetaryArgs>),
 }
 
 /// Parse the command line, run, and return the exit status.
@@ -87,6 +90,7 @@ pub fn run() -> i32 {
         Command::Chart(args) => thread::run_chart(*args),
         Command::Clock(args) => clock::run(args),
         Command::Reducer(args) => reducer::run(*args),
+        Command::Planetary(args) => planetary::run(*args),
     };
     match result {
         Ok(code) => code,

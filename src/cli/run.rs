@@ -58,6 +58,12 @@ pub trait Job: Sync {
     /// The words for an interrupted run and for one that found nothing.
     fn words(&self) -> Words;
 
+    /// What to say when nothing was found, worked out from what the search found (which
+    /// changes would help); `None` keeps the words of [`Job::words`].
+    fn nothing_found(&self, _found: &Self::Found) -> Option<String> {
+        None
+    }
+
     /// Before a big search: say how long it will take, or refuse one of hours.
     fn forecast(&self, _print: &Print) -> anyhow::Result<()> {
         Ok(())
@@ -93,7 +99,13 @@ pub fn run<J: Job>(job: &J, print: &Print) -> anyhow::Result<i32> {
     let found = with_threads(print.threads, || job.search(&options))??;
     bar.finish();
     let report = job.report(&found);
-    present(report.as_ref(), print, &job.words())
+    let mut words = job.words();
+    if !report.completion().found {
+        if let Some(hint) = job.nothing_found(&found) {
+            words.nothing = Some(hint);
+        }
+    }
+    present(report.as_ref(), print, &words)
 }
 
 /// Render `report`, write it, and choose the exit status.
