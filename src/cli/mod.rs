@@ -63,6 +63,16 @@ enum Command {
     /// A spur reducer: a module per stage, balanced stages, hunting-tooth pairs, housing fit.
     Reducer(Box<reducer::ReducerArgs>),
     /// Planetary trains: sun, planets on a carrier, ring; coaxial, assembled, planets clear.
+    ///
+    /// By default a simple train with the ring held, the sun driving and the carrier driven:
+    /// i = 1 + Zr/Zs (Willis' equation). Every design listed is coaxial (both meshes at the
+    /// carrier's centre distance), can be assembled with its planets where they are listed, and
+    /// its neighbouring planets clear each other. Ratio convention (ISO 1122-1): i = input turns
+    /// per output turn; the output's direction is given beside it.
+    ///
+    /// gearsieve sizes geometry only: a planetary train that carries power needs a load-capacity
+    /// rating (e.g. ISO 6336 or AGMA 2001), a check of load sharing between the planets and of
+    /// the bearings, by a qualified person.
     Planetary(Box<planetary::PlanetaryArgs>),
 }
 

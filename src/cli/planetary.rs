@@ -21,7 +21,6 @@ use gearsieve::{Quantity, RunOptions};
 use super::args::PrintArgs;
 use super::flags::refuse;
 use super::run::{self, Job, Print, Words};
-use super::search::DirectionArg;
 
 /// Sun teeth when `--sun` is not given: from 18, the fewest teeth an unshifted gear of the
 /// 20° ISO 53 rack has without undercut (2/sin²20° = 17.1), to 60, a large sun at module 1.
@@ -48,6 +47,15 @@ impl From<MemberArg> for Member {
     }
 }
 
+/// The direction flag.
+#[derive(Clone, Copy, Debug, PartialEq, Eq, ValueEnum)]
+pub enum TurnArg {
+    /// The output turns the same way as the input.
+    Same,
+    /// The output turns against the input.
+    Opposite,
+}
+
 /// The spacing flag.
 #[derive(Clone, Copy, Debug, PartialEq, Eq, ValueEnum)]
 pub enum SpacingArg {
@@ -58,18 +66,7 @@ pub enum SpacingArg {
     NearEqual,
 }
 
-/// Planetary (epicyclic) trains: a sun, planets on a carrier and a ring gear; one member held,
-/// one driving, the third the output.
-///
-/// By default a simple train with the ring held, the sun driving and the carrier as output:
-/// i = 1 + Zr/Zs (Willis' equation). Every design found is coaxial (both meshes at the
-/// carrier's centre distance), can be assembled with its planets where they are listed, and its
-/// neighbouring planets clear each other. Ratio convention (ISO 1122-1): i = input turns per
-/// output turn; the output's direction is reported beside it.
-///
-/// gearsieve sizes geometry only: a planetary train that carries power needs a load-capacity
-/// rating (e.g. ISO 6336 or AGMA 2001), a check of load sharing between the planets and of the
-/// bearings, by a qualified person.
+/// The flags of `gearsieve planetary` (its help is the doc comment of its `Command` variant).
 #[derive(Args, Debug)]
 pub struct PlanetaryArgs {
     /// Ratio wanted, input turns per output turn: 5, 4.5, 37/8 or 7:1.
@@ -118,7 +115,7 @@ pub struct PlanetaryArgs {
     pub two_ring: bool,
     /// Required output direction relative to the input.
     #[arg(long, value_enum)]
-    pub direction: Option<DirectionArg>,
+    pub direction: Option<TurnArg>,
     /// Module of every gear, mm.
     #[arg(long, value_name = "MM", default_value_t = 1.0, allow_negative_numbers = true)]
     pub module: f64,
@@ -244,8 +241,8 @@ impl TryFrom<&PlanetaryArgs> for PlanetaryJob {
             ratio: parse_ratio(&a.ratio, Quantity::TargetRatio)?,
             tolerance: parse_tolerance(&a.tol)?,
             direction: a.direction.map(|d| match d {
-                DirectionArg::Same => Direction::Same,
-                DirectionArg::Opposite => Direction::Opposite,
+                TurnArg::Same => Direction::Same,
+                TurnArg::Opposite => Direction::Opposite,
             }),
             sun_teeth: teeth(a.sun.as_deref().unwrap_or(DEFAULT_SUN), Quantity::SunTeeth)?,
             planet_teeth: teeth(&a.planet, Quantity::PlanetTeeth)?,
@@ -281,7 +278,8 @@ fn percent(t: Ratio) -> String {
 /// The changes a designer would try when nothing is found, each alone: a looser tolerance
 /// (the first of a few steps that finds designs counts), another planet count, nearly equal
 /// spacing, no clearance margin, profile shift, a carrier offset for checked meshes, no
-/// direction asked, another drive, wider tooth ranges.
+/// direction asked, another drive, stepped planets, larger planets and rings, smaller suns or
+/// planets.
 fn changes(spec: &PlanetarySpec) -> Vec<Change> {
     let mut out = Vec::new();
     let mut add = |flags: String, spec: PlanetarySpec| out.push(Change { flags, spec });
@@ -324,7 +322,7 @@ fn changes(spec: &PlanetarySpec) -> Vec<Change> {
         add(flags, PlanetarySpec { shift_sum, carrier_offset_modules: 0.5, ..spec.clone() });
     }
     if spec.direction.is_some() {
-        add("no --direction".into(), PlanetarySpec { direction: None, ..spec.clone() });
+        add("without --direction".into(), PlanetarySpec { direction: None, ..spec.clone() });
     }
     if let Arrangement::Simple { fixed, input } | Arrangement::Stepped { fixed, input } = spec.arrangement {
         let members = [Member::Ring, Member::Sun, Member::Carrier];
@@ -344,12 +342,20 @@ fn changes(spec: &PlanetarySpec) -> Vec<Change> {
             }
         }
     }
-    let r = spec.ring_teeth;
-    if r.hi < MAX_TEETH {
-        let hi = (2 * r.hi).min(MAX_TEETH);
+    if let Arrangement::Simple { fixed, input } = spec.arrangement {
         add(
-            format!("--ring {}..{hi}", r.lo),
-            PlanetarySpec { ring_teeth: IntRange { lo: r.lo, hi }, ..spec.clone() },
+            "--stepped".into(),
+            PlanetarySpec { arrangement: Arrangement::Stepped { fixed, input }, ..spec.clone() },
+        );
+    }
+    // Larger planets go with larger rings (coaxiality), so both widen together.
+    let (p, r) = (spec.planet_teeth, spec.ring_teeth);
+    if p.hi < MAX_TEETH || r.hi < MAX_TEETH {
+        let planet_teeth = IntRange { lo: p.lo, hi: (2 * p.hi).min(MAX_TEETH) };
+        let ring_teeth = IntRange { lo: r.lo, hi: (2 * r.hi).min(MAX_TEETH) };
+        add(
+            format!("--planet {planet_teeth} --ring {ring_teeth}"),
+            PlanetarySpec { planet_teeth, ring_teeth, ..spec.clone() },
         );
     }
     for (flag, range, which) in [("--sun", spec.sun_teeth, 0), ("--planet", spec.planet_teeth, 1)] {
@@ -434,7 +440,8 @@ impl Job for PlanetaryJob {
         if found.helps.is_empty() {
             return Some(format!(
                 "no design meets every condition, and none of the changes tried alone (tolerance, \
-                 planet count, spacing, clearance, profile shift, drive, wider tooth ranges) finds one{explain}."
+                 planet count, spacing, clearance, profile shift, drive, stepped planets, wider tooth \
+                 ranges) finds one{explain}."
             ));
         }
         let helps: Vec<String> = found

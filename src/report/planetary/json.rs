@@ -12,8 +12,8 @@
 //! and each design gives its tooth counts under the names of its gears (`sun`, `planet` or
 //! `planet_sun` and `planet_ring`, `ring`; `ring`, `planet_ring`, `planet_ring2`, `ring2` for
 //! the two-ring train), `planets`, the exact `ratio` with its `value`, `error` and `direction`,
-//! the carrier, each gear as cut (`gear_sizes`), the places and angles of the planets and each
-//! mesh's figures. Every key is described in `docs/output-fields.md`.
+//! the carrier, each gear as cut (`gear_sizes`), the places and angles of the planets and the
+//! figures of the planet's two meshes (`planet_meshes`). Every key is described in `docs/output-fields.md`.
 
 use std::io::Write;
 
@@ -57,7 +57,7 @@ struct DesignJson {
     places: u64,
     equally_spaced: bool,
     planet_angles_deg: Vec<f64>,
-    meshes: Vec<MeshJson>,
+    planet_meshes: Vec<MeshJson>,
 }
 
 #[derive(Serialize)]
@@ -156,7 +156,7 @@ fn design_json(r: &PlanetaryReport, rank: usize, d: &Design) -> DesignJson {
         places: d.positions.places,
         equally_spaced: d.positions.equally_spaced(),
         planet_angles_deg: d.positions.angles_deg(),
-        meshes: mesh_figures(d)
+        planet_meshes: mesh_figures(d)
             .into_iter()
             .enumerate()
             .map(|(i, m)| {

@@ -26,10 +26,15 @@ fn gear_shapes(g: &GearCircles, at: [f64; 2], outline: Pen, out: &mut Vec<Shape>
 /// The best design of `r` to scale; a drawing that says so when nothing was found.
 pub fn drawing(r: &PlanetaryReport) -> Drawing {
     let Some(best) = r.outcome.designs.first() else {
+        // The words as the picture, so that the page is wide enough to read them.
         return Drawing {
-            title: "Planetary train: no design meets every condition".to_string(),
-            shapes: Vec::new(),
-            notes: vec!["Nothing to draw.".to_string()],
+            title: "Planetary train".to_string(),
+            shapes: vec![Shape::Text {
+                at: [0.0, 0.0],
+                text: "No design meets every condition.".to_string(),
+                size_mm: 4.0,
+            }],
+            notes: vec![format!("CAUTION: {CAUTION}")],
         };
     };
     let spec = r.problem.spec();
