@@ -6,6 +6,7 @@
 
 use clap::{Args, ValueEnum};
 use gearsieve::geometry::MeshLimits;
+use gearsieve::model::pool::fmt_num;
 use gearsieve::model::train::Direction;
 use gearsieve::numbers::range::{parse_int_range, parse_signed_range, IntRange};
 use gearsieve::numbers::rational::Ratio;
@@ -272,7 +273,7 @@ impl TryFrom<&PlanetaryArgs> for PlanetaryJob {
 
 /// `0.5%` for a tolerance of 1/200.
 fn percent(t: Ratio) -> String {
-    format!("{}%", gearsieve::model::pool::fmt_num(t.to_f64() * 100.0))
+    format!("{}%", fmt_num(t.to_f64() * 100.0))
 }
 
 /// The changes a designer would try when nothing is found, each alone: a looser tolerance
@@ -309,13 +310,7 @@ fn changes(spec: &PlanetarySpec) -> Vec<Change> {
     if spec.mesh_limits.is_some() && spec.carrier_offset_modules == 0.0 {
         let (lo, hi) = spec.shift_sum;
         let (flags, shift_sum) = if hi < 1.0 {
-            (
-                format!(
-                    "--shift-sum {}..1 --carrier-offset 0.5",
-                    gearsieve::model::pool::fmt_num(lo.min(0.0))
-                ),
-                (lo.min(0.0), 1.0),
-            )
+            (format!("--shift-sum {}..1 --carrier-offset 0.5", fmt_num(lo.min(0.0))), (lo.min(0.0), 1.0))
         } else {
             ("--carrier-offset 0.5".to_string(), (lo, hi))
         };

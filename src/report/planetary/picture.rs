@@ -6,6 +6,7 @@
 //! planet centres come from [`crate::trades::planetary::layout`].
 
 use crate::model::pool::fmt_num;
+use crate::model::train::Direction;
 use crate::report::drawing::{Drawing, Pen, Shape};
 use crate::report::fields::decimals;
 use crate::report::words::describe_error;
@@ -122,8 +123,8 @@ pub fn drawing(r: &PlanetaryReport) -> Drawing {
          on the carrier circle (dash-dot, radius a = {} mm, the working centre distance of both \
          meshes) at {}.",
         match best.ratio.direction {
-            crate::model::train::Direction::Same => "the same way as",
-            crate::model::train::Direction::Opposite => "against",
+            Direction::Same => "the same way as",
+            Direction::Opposite => "against",
         },
         best.planets,
         fmt_num(a_w),
