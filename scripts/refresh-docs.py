@@ -5,7 +5,7 @@ A shown example is a ```text or ```console block whose lines starting with `$ ` 
 the lines after each command, up to the next command or the end of the block, are what it
 printed (standard output and standard error together), and a last line `[exit N]`, where an
 example shows one, its exit status. `gearsieve` in a command runs the release binary built from
-this checkout.
+this checkout (into $CARGO_TARGET_DIR when it is set).
 
     scripts/refresh-docs.py           # rewrite the examples in place
     scripts/refresh-docs.py --check   # exit 1 and name each example that no longer matches
@@ -72,7 +72,9 @@ def refresh(path, binary):
 def main():
     check = "--check" in sys.argv[1:]
     subprocess.run(["cargo", "build", "--release", "--locked", "--quiet"], cwd=ROOT, check=True)
-    binary = os.path.join(ROOT, "target", "release", "gearsieve")
+    # Cargo builds where CARGO_TARGET_DIR says (relative to the checkout), ./target by default.
+    target = os.path.join(ROOT, os.environ.get("CARGO_TARGET_DIR") or "target")
+    binary = os.path.join(target, "release", "gearsieve")
     all_changed = []
     for path in [os.path.join(ROOT, "README.md")] + sorted(glob.glob(os.path.join(ROOT, "docs", "*.md"))):
         text, changed = refresh(path, binary)

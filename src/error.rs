@@ -269,6 +269,29 @@ pub enum Quantity {
     AstronomicalPeriod,
     /// Which part of a split search, `I/N`.
     Shard,
+    /// The teeth a planetary train's sun may have.
+    SunTeeth,
+    /// The teeth a planet gear may have (unless a range of its own is given for it).
+    PlanetTeeth,
+    /// The teeth a planet gear meshing the ring may have: a stepped planet's second gear, a
+    /// two-ring planet's gear meshing the held ring.
+    PlanetRingTeeth,
+    /// The teeth a two-ring planet's gear meshing the output ring may have.
+    PlanetRing2Teeth,
+    /// The teeth a ring gear may have (the held ring of a two-ring train).
+    RingTeeth,
+    /// The teeth the output ring of a two-ring train may have.
+    OutputRingTeeth,
+    /// How many planets a carrier may hold.
+    PlanetCount,
+    /// The member of a planetary train held still.
+    HeldMember,
+    /// The member of a planetary train that drives.
+    DrivingMember,
+    /// How far the planet carrier's centre distance is set beyond midway, in modules.
+    CarrierOffset,
+    /// The least gap between the tip circles of neighbouring planets, mm.
+    PlanetClearance,
 }
 
 impl Quantity {
@@ -322,6 +345,17 @@ impl Quantity {
             Quantity::Dial => "the dial",
             Quantity::AstronomicalPeriod => "the astronomical period",
             Quantity::Shard => "the shard",
+            Quantity::SunTeeth => "the sun teeth",
+            Quantity::PlanetTeeth => "the planet teeth",
+            Quantity::PlanetRingTeeth => "the teeth of the planet gear meshing the ring",
+            Quantity::PlanetRing2Teeth => "the teeth of the planet gear meshing the output ring",
+            Quantity::RingTeeth => "the ring teeth",
+            Quantity::OutputRingTeeth => "the output ring teeth",
+            Quantity::PlanetCount => "the planet count",
+            Quantity::HeldMember => "the held member",
+            Quantity::DrivingMember => "the driving member",
+            Quantity::CarrierOffset => "the carrier's offset from midway",
+            Quantity::PlanetClearance => "the clearance between neighbouring planets",
         }
     }
 }

@@ -121,6 +121,55 @@ const CASES: &[(&str, &[&str])] = &[
             "2",
         ],
     ),
+    ("planetary", &["planetary", "--ratio", "5", "--planets", "3..4", "--limit", "4"]),
+    (
+        "planetary-stepped",
+        &[
+            "planetary",
+            "--stepped",
+            "--ratio",
+            "9",
+            "--tol",
+            "0.5%",
+            "--sun",
+            "18..30",
+            "--planet",
+            "18..50",
+            "--ring",
+            "60..120",
+            "--shift-sum",
+            "-0.5..1",
+            "--carrier-offset",
+            "0.3",
+            "--check-meshes",
+            "--spacing",
+            "near-equal",
+            "--limit",
+            "3",
+            "--explain",
+        ],
+    ),
+    (
+        "planetary-two-ring",
+        &["planetary", "--two-ring", "--ratio", "41", "--planets", "3..4", "--limit", "2"],
+    ),
+    (
+        "planetary-nothing",
+        &[
+            "planetary",
+            "--ratio",
+            "5",
+            "--sun",
+            "21",
+            "--planet",
+            "30",
+            "--ring",
+            "80",
+            "--planets",
+            "4",
+            "--explain",
+        ],
+    ),
 ];
 
 const FORMATS: &[(&str, &str)] =
@@ -208,7 +257,7 @@ fn merge_prints_its_golden_file() {
 }
 
 /// The names `docs/output-fields.md` documents: the backticked names in the first column of
-/// its tables, with stage and arbor numbers written `N`.
+/// its tables, with stage, arbor, planet and mesh numbers written `N`.
 fn documented_names() -> std::collections::BTreeSet<String> {
     let path: PathBuf = [env!("CARGO_MANIFEST_DIR"), "docs", "output-fields.md"].iter().collect();
     let text = std::fs::read_to_string(path).expect("docs/output-fields.md");
@@ -220,9 +269,10 @@ fn documented_names() -> std::collections::BTreeSet<String> {
     names
 }
 
-/// `stage2_driver` → `stageN_driver`, `arbor3_name` → `arborN_name`.
+/// `stage2_driver` → `stageN_driver`, `arbor3_name` → `arborN_name`, `planet4_angle_deg` →
+/// `planetN_angle_deg`, `mesh1_contact_ratio` → `meshN_contact_ratio`.
 fn numbered(name: &str) -> String {
-    for prefix in ["stage", "arbor"] {
+    for prefix in ["stage", "arbor", "planet", "mesh"] {
         if let Some(rest) = name.strip_prefix(prefix) {
             let digits = rest.chars().take_while(char::is_ascii_digit).count();
             if digits > 0 && rest[digits..].starts_with('_') {

@@ -10,9 +10,11 @@ use gearsieve::geometry::MeshLimits;
 use gearsieve::model::train::Direction;
 use gearsieve::numbers::range::IntRange;
 use gearsieve::numbers::rational::Ratio;
-use gearsieve::trades::planetary::conditions::{check_design, Design};
+use gearsieve::trades::planetary::conditions::{check_design, Condition, Design, Unmet};
+use gearsieve::trades::planetary::layout::Gear;
 use gearsieve::trades::planetary::{
-    search, Arrangement, Member, PlanetaryOutcome, PlanetaryProblem, PlanetarySpec, Spacing, Teeth,
+    search, search_explained, Arrangement, Member, PlanetaryOutcome, PlanetaryProblem, PlanetarySpec,
+    Spacing, Teeth,
 };
 use proptest::prelude::*;
 use proptest::test_runner::TestCaseError;
@@ -274,34 +276,35 @@ fn simple_count_and_listing_equal_the_brute_force() {
     assert!(found >= 16, "only {found} of 64 cases found designs");
 }
 
-/// Every design in the ranges of `problem` judged one by one by [`check_design`], ranked as
-/// documented.
-fn judge_everything(problem: &PlanetaryProblem) -> Vec<Design> {
+/// Every candidate in the ranges of `problem`, each set of tooth counts with each planet count,
+/// judged one by one by [`check_design`].
+fn judge_each(problem: &PlanetaryProblem) -> Vec<(Teeth, u32, Result<Design, Vec<Unmet>>)> {
     let spec = problem.spec();
-    let (p, r) = (spec.planet_teeth, spec.ring_teeth);
+    let range = |gear| {
+        let r: IntRange = spec.range_of(gear);
+        r.lo..=r.hi
+    };
     let mut all = Vec::new();
     let mut each = |teeth: Teeth| {
         for n in spec.planets.lo..=spec.planets.hi {
-            if let Ok(d) = check_design(problem, &teeth, n) {
-                all.push(d);
-            }
+            all.push((teeth, n, check_design(problem, &teeth, n)));
         }
     };
     match spec.arrangement {
         Arrangement::Simple { .. } => {
-            for sun in spec.sun_teeth.lo..=spec.sun_teeth.hi {
-                for planet in p.lo..=p.hi {
-                    for ring in r.lo..=r.hi {
+            for sun in range(Gear::Sun) {
+                for planet in range(Gear::Planet) {
+                    for ring in range(Gear::Ring) {
                         each(Teeth::Simple { sun, planet, ring });
                     }
                 }
             }
         }
         Arrangement::Stepped { .. } => {
-            for sun in spec.sun_teeth.lo..=spec.sun_teeth.hi {
-                for p1 in p.lo..=p.hi {
-                    for p2 in p.lo..=p.hi {
-                        for ring in r.lo..=r.hi {
+            for sun in range(Gear::Sun) {
+                for p1 in range(Gear::PlanetSun) {
+                    for p2 in range(Gear::PlanetRing) {
+                        for ring in range(Gear::Ring) {
                             each(Teeth::Stepped { sun, planet: [p1, p2], ring });
                         }
                     }
@@ -309,10 +312,10 @@ fn judge_everything(problem: &PlanetaryProblem) -> Vec<Design> {
             }
         }
         Arrangement::TwoRing => {
-            for p1 in p.lo..=p.hi {
-                for p2 in p.lo..=p.hi {
-                    for r1 in r.lo..=r.hi {
-                        for r2 in r.lo..=r.hi {
+            for p1 in range(Gear::PlanetRing) {
+                for p2 in range(Gear::PlanetRing2) {
+                    for r1 in range(Gear::Ring) {
+                        for r2 in range(Gear::Ring2) {
                             each(Teeth::TwoRing { planet: [p1, p2], ring: [r1, r2] });
                         }
                     }
@@ -320,6 +323,13 @@ fn judge_everything(problem: &PlanetaryProblem) -> Vec<Design> {
             }
         }
     }
+    all
+}
+
+/// Every design in the ranges of `problem` judged one by one by [`check_design`], ranked as
+/// documented.
+fn judge_everything(problem: &PlanetaryProblem) -> Vec<Design> {
+    let mut all: Vec<Design> = judge_each(problem).into_iter().filter_map(|(_, _, d)| d.ok()).collect();
     let key = |d: &Design| Found {
         teeth: d.teeth,
         planets: d.planets,
@@ -418,6 +428,98 @@ fn search_with_shifts_and_mesh_checks_equals_the_judge() {
         Ok(outcome.count)
     });
     assert!(found >= 4, "only {found} of 32 cases found designs");
+}
+
+#[test]
+fn explained_search_counts_each_candidate_under_its_first_unmet_condition() {
+    let strategy = (
+        arb_drive(),
+        0usize..3,
+        0u32..6,
+        (0u32..12, 0u32..14, 0u32..14),
+        (0usize..3, any::<bool>(), any::<bool>()),
+        (prop_oneof![Just(0.0), Just(0.5)], any::<bool>(), 0usize..3),
+    );
+    let seen = std::sync::Mutex::new(std::collections::BTreeSet::new());
+    let found = run_cases(
+        12,
+        strategy,
+        |((fixed, input), arrangement, lo, aim, (tol, near, second), (offset, checked, direction))| {
+            let arrangement = [
+                Arrangement::Simple { fixed, input },
+                Arrangement::Stepped { fixed, input },
+                Arrangement::TwoRing,
+            ][arrangement];
+            let (sun, planet, ring, aim) = judged_ranges(arrangement, lo, aim);
+            let Some(ratio) = arrangement.ratio(&aim) else { return Ok(0) };
+            let tolerance =
+                [Ratio::new(1, 100).unwrap(), Ratio::new(1, 20).unwrap(), Ratio::new(1, 5).unwrap()][tol];
+            let base = judged_spec(arrangement, ratio.magnitude, tolerance, offset);
+            let spec = PlanetarySpec {
+                sun_teeth: sun,
+                planet_teeth: planet,
+                ring_teeth: ring,
+                // Planet gears and the output ring in ranges of their own.
+                planet_ring_teeth: (second && arrangement != Arrangement::Simple { fixed, input })
+                    .then_some(range(planet.lo, planet.lo + 6)),
+                planet_ring2_teeth: (second && arrangement == Arrangement::TwoRing)
+                    .then_some(range(planet.lo + 2, planet.hi)),
+                output_ring_teeth: (second && arrangement == Arrangement::TwoRing)
+                    .then_some(range(ring.lo + 6, ring.hi)),
+                spacing: if near { Spacing::NearEqual } else { Spacing::Equal },
+                mesh_limits: if checked { base.mesh_limits } else { None },
+                direction: [None, Some(Direction::Same), Some(Direction::Opposite)][direction],
+                ..base
+            };
+            let problem = PlanetaryProblem::new(spec).unwrap();
+            let plain = search(&problem);
+            let explained = search_explained(&problem);
+            prop_assert_eq!(plain.left_out.as_ref(), None);
+            prop_assert_eq!(explained.count, plain.count);
+            prop_assert_eq!(&explained.designs, &plain.designs);
+            let left = explained.left_out.unwrap();
+            // Candidate by candidate: the first condition check_design names, and the first
+            // candidate (by tooth counts, then planets) of each condition with its complaint.
+            let judged = judge_each(&problem);
+            let mut want: Vec<(Condition, u64, Teeth, u32, Unmet)> = Vec::new();
+            let mut passed = 0u64;
+            for (teeth, planets, verdict) in &judged {
+                let first = match verdict {
+                    Ok(_) => {
+                        passed += 1;
+                        continue;
+                    }
+                    Err(unmet) => unmet[0].clone(),
+                };
+                match want.iter_mut().find(|w| w.0 == first.condition()) {
+                    Some(w) => {
+                        w.1 += 1;
+                        if (*teeth, *planets) < (w.2, w.3) {
+                            (w.2, w.3, w.4) = (*teeth, *planets, first);
+                        }
+                    }
+                    None => want.push((first.condition(), 1, *teeth, *planets, first)),
+                }
+            }
+            want.sort_by_key(|w| w.0);
+            prop_assert_eq!(left.candidates, judged.len() as u64);
+            prop_assert_eq!(passed, explained.count);
+            let got: Vec<(Condition, u64, Teeth, u32, Unmet)> = left
+                .conditions
+                .iter()
+                .map(|c| (c.condition, c.count, c.teeth, c.planets, c.unmet.clone()))
+                .collect();
+            prop_assert_eq!(got, want);
+            seen.lock().unwrap().extend(left.conditions.iter().map(|c| c.condition));
+            Ok(explained.count)
+        },
+    );
+    assert!(found >= 2, "only {found} of 12 cases found designs");
+    // The cases reached the conditions that matter, not only the ratio.
+    let seen = seen.into_inner().unwrap();
+    for condition in [Condition::Ratio, Condition::Coaxiality, Condition::Assembly] {
+        assert!(seen.contains(&condition), "{condition} never left anything out: {seen:?}");
+    }
 }
 
 #[test]

@@ -58,6 +58,17 @@ pub fn flag_for(quantity: Quantity) -> &'static str {
         Quantity::Dial => "--dial",
         Quantity::AstronomicalPeriod => "--period",
         Quantity::Shard => "--shard",
+        Quantity::SunTeeth => "--sun",
+        Quantity::PlanetTeeth => "--planet",
+        Quantity::PlanetRingTeeth => "--planet-ring",
+        Quantity::PlanetRing2Teeth => "--planet-ring2",
+        Quantity::RingTeeth => "--ring",
+        Quantity::OutputRingTeeth => "--ring2",
+        Quantity::PlanetCount => "--planets",
+        Quantity::HeldMember => "--fixed",
+        Quantity::DrivingMember => "--input",
+        Quantity::CarrierOffset => "--carrier-offset",
+        Quantity::PlanetClearance => "--tip-clearance",
     }
 }
 
@@ -260,6 +271,17 @@ mod tests {
             Quantity::Dial,
             Quantity::AstronomicalPeriod,
             Quantity::Shard,
+            Quantity::SunTeeth,
+            Quantity::PlanetTeeth,
+            Quantity::PlanetRingTeeth,
+            Quantity::PlanetRing2Teeth,
+            Quantity::RingTeeth,
+            Quantity::OutputRingTeeth,
+            Quantity::PlanetCount,
+            Quantity::HeldMember,
+            Quantity::DrivingMember,
+            Quantity::CarrierOffset,
+            Quantity::PlanetClearance,
         ];
         for q in all {
             assert!(options.iter().any(|o| o == flag_for(q)), "{q}: {} is no option", flag_for(q));

@@ -11,6 +11,7 @@ mod hints;
 mod merge;
 mod mesh;
 mod output;
+mod planetary;
 mod progress;
 mod reducer;
 mod run;
@@ -65,6 +66,18 @@ enum Command {
     Reducer(Box<reducer::ReducerArgs>),
     /// Draw a train to scale with true teeth, or write one gear's outline to cut (SVG, DXF).
     Draw(Box<draw::DrawArgs>),
+    /// Planetary trains: sun, planets on a carrier, ring; coaxial, assembled, planets clear.
+    ///
+    /// By default a simple train with the ring held, the sun driving and the carrier driven:
+    /// i = 1 + Zr/Zs (Willis' equation). Every design listed is coaxial (both meshes at the
+    /// carrier's centre distance), can be assembled with its planets where they are listed, and
+    /// its neighbouring planets clear each other. Ratio convention (ISO 1122-1): i = input turns
+    /// per output turn; the output's direction is given beside it.
+    ///
+    /// gearsieve sizes geometry only: a planetary train that carries power needs a load-capacity
+    /// rating (e.g. ISO 6336 or AGMA 2001), a check of load sharing between the planets and of
+    /// the bearings, by a qualified person.
+    Planetary(Box<planetary::PlanetaryArgs>),
 }
 
 /// Parse the command line, run, and return the exit status.
@@ -96,6 +109,7 @@ pub fn run() -> i32 {
         Command::Clock(args) => clock::run(args),
         Command::Reducer(args) => reducer::run(*args),
         Command::Draw(args) => draw::run(*args),
+        Command::Planetary(args) => planetary::run(*args),
     };
     match result {
         Ok(code) => code,

@@ -2,8 +2,8 @@
 //! and labels in millimetres, y up, each with the [`Pen`] it is drawn with. Result kinds that
 //! have a picture (a train, a pair) build one from their finished results; the SVG sink lays it
 //! out. It holds shapes only: where the shafts sit comes from the geometry core
-//! ([`crate::geometry::layout`]), and the tooth outlines from [`crate::geometry::outline`] when
-//! they are drawn.
+//! ([`crate::geometry::layout`]), and tooth outlines, when they are drawn, from the geometry
+//! core too.
 
 /// A picture to scale, in mm with y up.
 #[derive(Debug, Clone, Default, PartialEq)]

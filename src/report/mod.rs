@@ -15,7 +15,7 @@
 //! - [`text`], [`markdown`]: sinks of a document.
 //! - [`drawing`], [`svg`], [`pictures`]: the format-neutral [`Drawing`], its SVG sink, and the
 //!   pictures of trains and pairs.
-//! - [`search`], [`mesh`], [`thread`], [`clock`], [`reducer`]: one folder per result family,
+//! - [`search`], [`mesh`], [`thread`], [`clock`], [`reducer`], [`planetary`]: one folder per result family,
 //!   with its document, CSV and JSON.
 
 pub mod clock;
@@ -25,6 +25,7 @@ pub mod fields;
 pub mod markdown;
 pub mod mesh;
 pub mod pictures;
+pub mod planetary;
 pub mod profile;
 pub mod reducer;
 pub mod search;

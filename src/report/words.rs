@@ -28,6 +28,12 @@ pub const MESH_CAUTION: &str = "gearsieve sizes geometry only. A pair that carri
                                 load-capacity rating (e.g. ISO 6336 or AGMA 2001) by a qualified \
                                 person.";
 
+/// The ratio convention of planetary trains, in words, for reports and help.
+pub const PLANETARY_CONVENTION: &str = "ratio i = input turns per output turn (ISO 1122-1), from \
+                                        Willis' equation for the member held and the member \
+                                        driving; above 1 reduces speed. Direction: whether the \
+                                        output turns the same way as the input or the opposite way";
+
 /// A relative error for people: `exact`, `+3.21 ppm` or `-0.0123%`.
 pub fn describe_error(e: &RelError) -> String {
     if e.is_exact() {

@@ -140,6 +140,54 @@ impl Design {
     }
 }
 
+/// The conditions by name, in the order they are judged: what an [`Unmet`] is a case of, and
+/// what the search's count of left-out candidates is kept by
+/// ([`super::search::LeftOut`]).
+#[derive(Debug, Clone, Copy, PartialEq, Eq, PartialOrd, Ord, Hash)]
+pub enum Condition {
+    /// The tooth counts are of the arrangement asked for.
+    Arrangement,
+    /// Every tooth count and the planet count lie in their ranges.
+    Ranges,
+    /// The ratio is within the tolerance (and the output can turn at all).
+    Ratio,
+    /// The output turns the way asked for.
+    Direction,
+    /// Every ring has more teeth than the planet gear meshing it.
+    RingSize,
+    /// Both meshes share the carrier's centre distance within the allowed profile shift.
+    Coaxiality,
+    /// The planets can be fitted at the places asked for.
+    Assembly,
+    /// Neighbouring planets' tip circles clear by the margin.
+    Clearance,
+    /// Both meshes can be worked out and pass the mesh checks.
+    Meshes,
+}
+
+impl Condition {
+    /// The condition's name in words: `ratio`, `coaxiality`, `neighbour clearance`, ….
+    pub fn name(self) -> &'static str {
+        match self {
+            Condition::Arrangement => "arrangement",
+            Condition::Ranges => "ranges",
+            Condition::Ratio => "ratio",
+            Condition::Direction => "direction",
+            Condition::RingSize => "ring size",
+            Condition::Coaxiality => "coaxiality",
+            Condition::Assembly => "assembly",
+            Condition::Clearance => "neighbour clearance",
+            Condition::Meshes => "meshes",
+        }
+    }
+}
+
+impl fmt::Display for Condition {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        f.write_str(self.name())
+    }
+}
+
 /// A condition a design does not meet, with its numbers.
 #[derive(Debug, Clone, PartialEq)]
 pub enum Unmet {
@@ -147,7 +195,7 @@ pub enum Unmet {
     OtherArrangement,
     /// A tooth count lies outside its range.
     TeethOutOfRange {
-        /// `sun`, `planet` or `ring`.
+        /// The gear, in words ([`super::layout::Gear::name`]).
         member: &'static str,
         /// The tooth count.
         teeth: u32,
@@ -218,6 +266,23 @@ pub enum Unmet {
         /// What is wrong with it.
         defect: MeshDefect,
     },
+}
+
+impl Unmet {
+    /// The condition this is a case of.
+    pub fn condition(&self) -> Condition {
+        match self {
+            Unmet::OtherArrangement => Condition::Arrangement,
+            Unmet::TeethOutOfRange { .. } | Unmet::PlanetsOutOfRange { .. } => Condition::Ranges,
+            Unmet::NoRatio | Unmet::Ratio { .. } => Condition::Ratio,
+            Unmet::Direction { .. } => Condition::Direction,
+            Unmet::RingNotLarger { .. } => Condition::RingSize,
+            Unmet::Coaxiality { .. } => Condition::Coaxiality,
+            Unmet::Assembly { .. } | Unmet::TooFewPlaces { .. } => Condition::Assembly,
+            Unmet::Clearance { .. } => Condition::Clearance,
+            Unmet::Mesh { .. } => Condition::Meshes,
+        }
+    }
 }
 
 impl fmt::Display for Unmet {
@@ -492,25 +557,10 @@ pub fn check_design(problem: &PlanetaryProblem, teeth: &Teeth, planets: u32) -> 
         return Err(vec![Unmet::OtherArrangement]);
     }
     let mut unmet = Vec::new();
-    let mut in_range = |member, teeth: u32, range: IntRange| {
-        if !range.contains(teeth) {
-            unmet.push(Unmet::TeethOutOfRange { member, teeth, range });
-        }
-    };
-    match *teeth {
-        Teeth::Simple { sun, planet, ring } => {
-            in_range("sun", sun, spec.sun_teeth);
-            in_range("planet", planet, spec.planet_teeth);
-            in_range("ring", ring, spec.ring_teeth);
-        }
-        Teeth::Stepped { sun, planet, ring } => {
-            in_range("sun", sun, spec.sun_teeth);
-            planet.iter().for_each(|&p| in_range("planet", p, spec.planet_teeth));
-            in_range("ring", ring, spec.ring_teeth);
-        }
-        Teeth::TwoRing { planet, ring } => {
-            planet.iter().for_each(|&p| in_range("planet", p, spec.planet_teeth));
-            ring.iter().for_each(|&r| in_range("ring", r, spec.ring_teeth));
+    for g in teeth.gears() {
+        let range = spec.range_of(g.gear);
+        if !range.contains(g.teeth) {
+            unmet.push(Unmet::TeethOutOfRange { member: g.gear.name(), teeth: g.teeth, range });
         }
     }
     if !spec.planets.contains(planets) {

@@ -13,7 +13,10 @@
 //! - [`conditions`]: coaxiality, assembly with equally or nearly equally spaced planets,
 //!   neighbouring planets' clearance, the meshes, and [`conditions::check_design`], which names
 //!   every condition a given design fails;
-//! - [`mod@search`]: the exact count and the best designs ([`search()`]).
+//! - [`mod@search`]: the exact count and the best designs ([`search()`]), and with
+//!   [`search_explained`] the candidates left out, counted by the first condition each fails;
+//! - [`layout`]: the gears by name ([`layout::Gear`]), their circles as cut, and where the
+//!   planets sit, for the formats and drawings.
 //!
 //! Three arrangements ([`Arrangement`]): the simple train (one planet gear meshing sun and
 //! ring), stepped planets (a planet gear of `Zp1` teeth meshing the sun and one of `Zp2`
@@ -27,17 +30,20 @@
 //! gearsieve sizes geometry only: see [`CAUTION`].
 
 pub mod conditions;
+pub mod layout;
 pub mod search;
 pub mod willis;
 
-use crate::error::{Error, Result};
+use crate::error::{Error, Message, Quantity, Result};
 use crate::geometry::{MeshLimits, RackProfile, ToothSystem};
 use crate::model::train::Direction;
 use crate::numbers::range::IntRange;
 use crate::numbers::rational::Ratio;
 
-pub use conditions::{check_design, Carrier, Design, PlanetMesh, Positions, Unmet};
-pub use search::{search, PlanetaryOutcome};
+use layout::Gear;
+
+pub use conditions::{check_design, Carrier, Condition, Design, PlanetMesh, Positions, Unmet};
+pub use search::{search, search_explained, ConditionCount, LeftOut, PlanetaryOutcome};
 pub use willis::{willis_ratio, SpeedRatio};
 
 /// The caution that belongs with every planetary result.
@@ -215,10 +221,20 @@ pub struct PlanetarySpec {
     pub direction: Option<Direction>,
     /// Sun teeth (not used by the two-ring train).
     pub sun_teeth: IntRange,
-    /// Teeth of every planet gear.
+    /// Teeth of every planet gear that has no range of its own below (see
+    /// [`PlanetarySpec::range_of`]).
     pub planet_teeth: IntRange,
-    /// Teeth of every ring.
+    /// Teeth of the planet gear meshing the ring: a stepped planet's second gear, a two-ring
+    /// planet's gear meshing the held ring; `None`: as [`Self::planet_teeth`].
+    pub planet_ring_teeth: Option<IntRange>,
+    /// Teeth of a two-ring planet's gear meshing the output ring; `None`: as
+    /// [`Self::planet_teeth`].
+    pub planet_ring2_teeth: Option<IntRange>,
+    /// Teeth of the ring (the held ring of a two-ring train, and its output ring unless
+    /// [`Self::output_ring_teeth`] says otherwise).
     pub ring_teeth: IntRange,
+    /// Teeth of the output ring of a two-ring train; `None`: as [`Self::ring_teeth`].
+    pub output_ring_teeth: Option<IntRange>,
     /// Planet counts.
     pub planets: IntRange,
     /// How the planets are spaced.
@@ -248,6 +264,41 @@ pub struct PlanetarySpec {
 }
 
 impl PlanetarySpec {
+    /// The teeth `gear` may have.
+    pub fn range_of(&self, gear: Gear) -> IntRange {
+        match gear {
+            Gear::Sun => self.sun_teeth,
+            Gear::Planet | Gear::PlanetSun => self.planet_teeth,
+            Gear::PlanetRing => self.planet_ring_teeth.unwrap_or(self.planet_teeth),
+            Gear::PlanetRing2 => self.planet_ring2_teeth.unwrap_or(self.planet_teeth),
+            Gear::Ring => self.ring_teeth,
+            Gear::Ring2 => self.output_ring_teeth.unwrap_or(self.ring_teeth),
+        }
+    }
+
+    /// The one design the ranges allow when each holds a single tooth count: a design asked
+    /// for by name.
+    pub fn single_teeth(&self) -> Option<Teeth> {
+        let one = |gear| {
+            let r = self.range_of(gear);
+            (r.lo == r.hi).then_some(r.lo)
+        };
+        Some(match self.arrangement {
+            Arrangement::Simple { .. } => {
+                Teeth::Simple { sun: one(Gear::Sun)?, planet: one(Gear::Planet)?, ring: one(Gear::Ring)? }
+            }
+            Arrangement::Stepped { .. } => Teeth::Stepped {
+                sun: one(Gear::Sun)?,
+                planet: [one(Gear::PlanetSun)?, one(Gear::PlanetRing)?],
+                ring: one(Gear::Ring)?,
+            },
+            Arrangement::TwoRing => Teeth::TwoRing {
+                planet: [one(Gear::PlanetRing)?, one(Gear::PlanetRing2)?],
+                ring: [one(Gear::Ring)?, one(Gear::Ring2)?],
+            },
+        })
+    }
+
     /// A simple train, ring held, sun driving, carrier output: the plain reduction. Every
     /// other field at a modest default: tolerance zero, any direction, sun and planet 12..60,
     /// ring 40..200, three to six planets equally spaced, module 1 mm, 20°, ISO 53 type A,
@@ -261,7 +312,10 @@ impl PlanetarySpec {
             direction: None,
             sun_teeth: IntRange { lo: 12, hi: 60 },
             planet_teeth: IntRange { lo: 12, hi: 60 },
+            planet_ring_teeth: None,
+            planet_ring2_teeth: None,
             ring_teeth: IntRange { lo: 40, hi: 200 },
+            output_ring_teeth: None,
             planets: IntRange { lo: 3, hi: 6 },
             spacing: Spacing::Equal,
             module_mm: 1.0,
@@ -284,64 +338,107 @@ pub struct PlanetaryProblem {
 }
 
 impl PlanetaryProblem {
-    /// Checks `spec`: tooth ranges within [`MIN_TEETH`]..=[`MAX_TEETH`] and low to high, planet
-    /// counts within 2..=[`MAX_PLANETS`], a positive ratio, a tolerance below 1, a usable tooth
-    /// system, a shift range from low to high, a clearance of zero or more, and a held member
-    /// that is not the driving one.
+    /// Checks `spec`: tooth ranges within [`MIN_TEETH`]..=[`MAX_TEETH`] and low to high (the
+    /// second planet gear's and the output ring's only for the arrangements that have them),
+    /// planet counts within 2..=[`MAX_PLANETS`], a positive ratio, a tolerance below 1, a
+    /// positive module, a pressure angle between 0° and 90°, a shift range from low to high, a
+    /// finite carrier offset, a clearance of zero or more, and a held member that is not the
+    /// driving one. Each error names the [`Quantity`] at fault.
     pub fn new(spec: PlanetarySpec) -> Result<PlanetaryProblem> {
-        let problem = |message: String| Err(Error::problem(message));
-        let mut ranges = vec![("planet", spec.planet_teeth), ("ring", spec.ring_teeth)];
-        if !matches!(spec.arrangement, Arrangement::TwoRing) {
-            ranges.insert(0, ("sun", spec.sun_teeth));
+        let refuse = |quantity: Quantity, message: String| Err(Error::value(quantity, message));
+        let (stepped, two_ring) = match spec.arrangement {
+            Arrangement::Simple { .. } => (false, false),
+            Arrangement::Stepped { .. } => (true, false),
+            Arrangement::TwoRing => (false, true),
+        };
+        let mut ranges = vec![
+            (Quantity::PlanetTeeth, Some(spec.planet_teeth)),
+            (Quantity::RingTeeth, Some(spec.ring_teeth)),
+        ];
+        if !two_ring {
+            ranges.insert(0, (Quantity::SunTeeth, Some(spec.sun_teeth)));
         }
-        for (member, range) in ranges {
+        ranges.push((Quantity::PlanetRingTeeth, spec.planet_ring_teeth));
+        ranges.push((Quantity::PlanetRing2Teeth, spec.planet_ring2_teeth));
+        ranges.push((Quantity::OutputRingTeeth, spec.output_ring_teeth));
+        for (quantity, range) in ranges {
+            let Some(range) = range else { continue };
             if range.lo > range.hi || range.lo < MIN_TEETH || range.hi > MAX_TEETH {
-                return problem(format!(
-                    "the {member} tooth range must run from low to high within {MIN_TEETH}..{MAX_TEETH}, \
-                     found {}..{}",
-                    range.lo, range.hi
-                ));
+                return refuse(
+                    quantity,
+                    format!("{range} is not a range from low to high within {MIN_TEETH}..{MAX_TEETH}"),
+                );
             }
         }
+        if spec.planet_ring_teeth.is_some() && !(stepped || two_ring) {
+            return refuse(
+                Quantity::PlanetRingTeeth,
+                "the planet of a simple train is one gear, meshing sun and ring; wanted stepped planets \
+                 or a two-ring train"
+                    .into(),
+            );
+        }
+        if spec.planet_ring2_teeth.is_some() && !two_ring {
+            return refuse(Quantity::PlanetRing2Teeth, "only the two-ring train has an output ring".into());
+        }
+        if spec.output_ring_teeth.is_some() && !two_ring {
+            return refuse(Quantity::OutputRingTeeth, "only the two-ring train has an output ring".into());
+        }
         if spec.planets.lo > spec.planets.hi || spec.planets.lo < 2 || spec.planets.hi > MAX_PLANETS {
-            return problem(format!(
-                "the planet count must run from low to high within 2..{MAX_PLANETS}, found {}..{}",
-                spec.planets.lo, spec.planets.hi
-            ));
+            return refuse(
+                Quantity::PlanetCount,
+                format!("{} is not a range from low to high within 2..{MAX_PLANETS}", spec.planets),
+            );
         }
         if spec.ratio.is_zero() {
-            return problem("the target ratio must be more than zero".into());
+            return refuse(Quantity::TargetRatio, "zero is no ratio; wanted more than zero".into());
         }
         if spec.tolerance >= Ratio::integer(1) {
-            return problem(format!("the ratio tolerance must be below 1 (100%), found {}", spec.tolerance));
+            return refuse(Quantity::Tolerance, format!("{} is not below 1 (100%)", spec.tolerance));
+        }
+        if !(spec.module_mm.is_finite() && spec.module_mm > 0.0) {
+            return refuse(
+                Quantity::Module,
+                format!("{} is not a positive number of millimetres", spec.module_mm),
+            );
+        }
+        if !(spec.pressure_angle_deg > 0.0 && spec.pressure_angle_deg < 90.0) {
+            return refuse(
+                Quantity::PressureAngle,
+                format!("{} does not lie between 0 and 90 degrees", spec.pressure_angle_deg),
+            );
         }
         let (lo, hi) = spec.shift_sum;
         if !(lo.is_finite() && hi.is_finite() && lo <= hi) {
-            return problem(format!(
-                "the allowed profile shift per mesh must run from low to high, found {lo} to {hi}"
-            ));
+            return refuse(
+                Quantity::ShiftSum,
+                format!("the profile shift allowed per mesh must run from low to high, found {lo} to {hi}"),
+            );
         }
         if !spec.carrier_offset_modules.is_finite() {
-            return problem(format!(
-                "the carrier's offset from midway must be a number of modules, found {}",
-                spec.carrier_offset_modules
-            ));
+            return refuse(
+                Quantity::CarrierOffset,
+                format!("{} is not a number of modules", spec.carrier_offset_modules),
+            );
         }
         if !(spec.tip_clearance_mm.is_finite() && spec.tip_clearance_mm >= 0.0) {
-            return problem(format!(
-                "the clearance between neighbouring planets must be a length of zero or more, found {} mm",
-                spec.tip_clearance_mm
-            ));
+            return refuse(
+                Quantity::PlanetClearance,
+                format!("{} mm is not a length of zero or more", spec.tip_clearance_mm),
+            );
         }
         if let Arrangement::Simple { fixed, input } | Arrangement::Stepped { fixed, input } = spec.arrangement
         {
             if fixed == input {
-                return problem(format!(
-                    "the held member and the driving member must differ, both are the {}",
-                    fixed.name()
+                return Err(Error::value(
+                    Quantity::DrivingMember,
+                    Message::from(format!("the {} cannot drive while held by ", input.name()))
+                        .quantity(Quantity::HeldMember)
+                        .text("; wanted another member"),
                 ));
             }
         }
+        // The checks above leave only the basic rack, which callers do not choose here.
         let system = ToothSystem::new(spec.module_mm, spec.pressure_angle_deg, spec.rack)?;
         Ok(PlanetaryProblem { spec, system })
     }
@@ -364,40 +461,95 @@ mod tests {
     #[test]
     fn bad_specs_name_the_quantity() {
         let base = PlanetarySpec::reduction(Ratio::integer(5));
-        let message = |spec: PlanetarySpec| match PlanetaryProblem::new(spec) {
-            Err(e @ Error::Problem(_)) => e.to_string(),
+        let refused = |spec: PlanetarySpec| match PlanetaryProblem::new(spec) {
+            Err(e @ Error::Value { quantity, .. }) => (quantity, e.to_string()),
             other => panic!("{other:?}"),
         };
-        let m = message(PlanetarySpec { ring_teeth: IntRange { lo: 90, hi: 80 }, ..base.clone() });
-        assert_eq!(m, "the ring tooth range must run from low to high within 3..1000, found 90..80");
-        let m = message(PlanetarySpec { sun_teeth: IntRange { lo: 2, hi: 80 }, ..base.clone() });
-        assert!(m.starts_with("the sun tooth range"), "{m}");
-        let m = message(PlanetarySpec { planets: IntRange { lo: 1, hi: 3 }, ..base.clone() });
-        assert!(m.starts_with("the planet count"), "{m}");
-        let m = message(PlanetarySpec {
+        let (q, m) = refused(PlanetarySpec { ring_teeth: IntRange { lo: 90, hi: 80 }, ..base.clone() });
+        assert_eq!(q, Quantity::RingTeeth);
+        assert_eq!(m, "the ring teeth: 90..80 is not a range from low to high within 3..1000");
+        let cases = [
+            (PlanetarySpec { sun_teeth: IntRange { lo: 2, hi: 80 }, ..base.clone() }, Quantity::SunTeeth),
+            (
+                PlanetarySpec { planet_teeth: IntRange { lo: 20, hi: 1001 }, ..base.clone() },
+                Quantity::PlanetTeeth,
+            ),
+            (PlanetarySpec { planets: IntRange { lo: 1, hi: 3 }, ..base.clone() }, Quantity::PlanetCount),
+            (PlanetarySpec { planets: IntRange { lo: 3, hi: 33 }, ..base.clone() }, Quantity::PlanetCount),
+            (PlanetarySpec { ratio: Ratio::integer(0), ..base.clone() }, Quantity::TargetRatio),
+            (PlanetarySpec { tolerance: Ratio::integer(1), ..base.clone() }, Quantity::Tolerance),
+            (PlanetarySpec { module_mm: 0.0, ..base.clone() }, Quantity::Module),
+            (PlanetarySpec { module_mm: f64::INFINITY, ..base.clone() }, Quantity::Module),
+            (PlanetarySpec { pressure_angle_deg: 90.0, ..base.clone() }, Quantity::PressureAngle),
+            (PlanetarySpec { shift_sum: (0.5, -0.5), ..base.clone() }, Quantity::ShiftSum),
+            (PlanetarySpec { carrier_offset_modules: f64::NAN, ..base.clone() }, Quantity::CarrierOffset),
+            (PlanetarySpec { tip_clearance_mm: -1.0, ..base.clone() }, Quantity::PlanetClearance),
+            // A second planet gear or an output ring the arrangement does not have.
+            (
+                PlanetarySpec { planet_ring_teeth: Some(IntRange { lo: 20, hi: 30 }), ..base.clone() },
+                Quantity::PlanetRingTeeth,
+            ),
+            (
+                PlanetarySpec {
+                    arrangement: Arrangement::Stepped { fixed: Member::Ring, input: Member::Sun },
+                    planet_ring2_teeth: Some(IntRange { lo: 20, hi: 30 }),
+                    ..base.clone()
+                },
+                Quantity::PlanetRing2Teeth,
+            ),
+            (
+                PlanetarySpec { output_ring_teeth: Some(IntRange { lo: 80, hi: 90 }), ..base.clone() },
+                Quantity::OutputRingTeeth,
+            ),
+            (
+                PlanetarySpec {
+                    arrangement: Arrangement::TwoRing,
+                    output_ring_teeth: Some(IntRange { lo: 90, hi: 2000 }),
+                    ..base.clone()
+                },
+                Quantity::OutputRingTeeth,
+            ),
+        ];
+        for (spec, want) in cases {
+            let (q, m) = refused(spec);
+            assert_eq!(q, want, "{m}");
+            assert!(m.starts_with(want.name()), "{m}");
+            // Quantities are named, not command-line flags.
+            assert!(!m.contains("--"), "{m}");
+        }
+        let (q, m) = refused(PlanetarySpec {
             arrangement: Arrangement::Simple { fixed: Member::Sun, input: Member::Sun },
             ..base.clone()
         });
-        assert_eq!(m, "the held member and the driving member must differ, both are the sun");
-        let m = message(PlanetarySpec { tolerance: Ratio::integer(1), ..base.clone() });
-        assert!(m.starts_with("the ratio tolerance"), "{m}");
-        let m = message(PlanetarySpec { shift_sum: (0.5, -0.5), ..base.clone() });
-        assert!(m.starts_with("the allowed profile shift"), "{m}");
-        let m = message(PlanetarySpec { carrier_offset_modules: f64::NAN, ..base.clone() });
-        assert!(m.starts_with("the carrier's offset from midway"), "{m}");
-        let m = message(PlanetarySpec { tip_clearance_mm: -1.0, ..base.clone() });
-        assert!(m.starts_with("the clearance between neighbouring planets"), "{m}");
-        let m = message(PlanetarySpec { module_mm: 0.0, ..base.clone() });
-        assert!(m.starts_with("the module must be a positive number"), "{m}");
-        // The two-ring train has no sun, so its sun range is not looked at.
+        assert_eq!(q, Quantity::DrivingMember);
+        assert_eq!(
+            m,
+            "the driving member: the sun cannot drive while held by the held member; wanted another member"
+        );
+        // The two-ring train has no sun, so its sun range is not looked at; each gear may have a
+        // range of its own, and one tooth count in every range names one design.
         let two = PlanetarySpec {
             arrangement: Arrangement::TwoRing,
             sun_teeth: IntRange { lo: 0, hi: 0 },
+            planet_teeth: IntRange { lo: 20, hi: 20 },
+            planet_ring2_teeth: Some(IntRange { lo: 21, hi: 21 }),
+            ring_teeth: IntRange { lo: 80, hi: 80 },
+            output_ring_teeth: Some(IntRange { lo: 82, hi: 82 }),
             ..base.clone()
         };
-        assert!(PlanetaryProblem::new(two).is_ok());
-        // Quantities are named, not command-line flags.
-        assert!(!message(PlanetarySpec { ring_teeth: IntRange { lo: 9, hi: 2000 }, ..base }).contains("--"));
+        let problem = PlanetaryProblem::new(two).unwrap();
+        assert_eq!(problem.spec().single_teeth(), Some(Teeth::TwoRing { planet: [20, 21], ring: [80, 82] }));
+        let stepped = PlanetarySpec {
+            arrangement: Arrangement::Stepped { fixed: Member::Ring, input: Member::Sun },
+            planet_ring_teeth: Some(IntRange { lo: 12, hi: 20 }),
+            ..base
+        };
+        let problem = PlanetaryProblem::new(stepped).unwrap();
+        let spec = problem.spec();
+        assert_eq!(spec.range_of(Gear::PlanetRing), IntRange { lo: 12, hi: 20 });
+        assert_eq!(spec.range_of(Gear::PlanetSun), spec.planet_teeth);
+        assert_eq!(spec.range_of(Gear::Ring2), spec.ring_teeth);
+        assert_eq!(spec.single_teeth(), None);
     }
 
     #[test]

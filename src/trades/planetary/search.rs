@@ -16,6 +16,9 @@
 //! Meshes are worked out once per set of tooth counts, and only
 //! when some planet count passes the cheaper conditions. Rayon shares the outermost tooth count
 //! among the threads; each keeps its own best, merged at the end.
+//!
+//! [`search_explained`] runs the same search without the window and counts every candidate
+//! left out under the first condition it fails ([`LeftOut`]), for a designer asking why.
 
 use std::cmp::Ordering;
 
@@ -25,8 +28,10 @@ use crate::model::train::Direction;
 use crate::numbers::rational::RelError;
 
 use super::conditions::{
-    carrier, check_design, mesh_defects, neighbour_gap, planet_meshes, positions, Design,
+    carrier, check_design, mesh_defects, neighbour_gap, planet_meshes, positions, Condition, Design, Unmet,
 };
+use super::layout::Gear;
+use super::willis::SpeedRatio;
 use super::{Arrangement, PlanetaryProblem, Teeth};
 
 /// The outcome of a planetary search.
@@ -36,6 +41,35 @@ pub struct PlanetaryOutcome {
     pub count: u64,
     /// The best of them, at most the problem's limit, best first.
     pub designs: Vec<Design>,
+    /// What was left out and why, when the search was asked to say ([`search_explained`]).
+    pub left_out: Option<LeftOut>,
+}
+
+/// The candidates a search left out, each counted once under the first condition it fails in
+/// the order of [`Condition`] (ratio, direction, ring size, coaxiality, assembly, neighbour
+/// clearance, meshes), the order [`check_design`] lists them in.
+#[derive(Debug, Clone, PartialEq)]
+pub struct LeftOut {
+    /// Every candidate the ranges hold: each set of tooth counts with each planet count. It is
+    /// the search's count plus every count of `conditions`.
+    pub candidates: u64,
+    /// The conditions that left candidates out, in the order judged; none with a count of 0.
+    pub conditions: Vec<ConditionCount>,
+}
+
+/// How many candidates one condition left out, with the first of them.
+#[derive(Debug, Clone, PartialEq)]
+pub struct ConditionCount {
+    /// The condition.
+    pub condition: Condition,
+    /// Candidates (sets of tooth counts with a planet count) it was the first to fail.
+    pub count: u64,
+    /// The first such candidate by tooth counts (in the order of [`Teeth`]), then planets.
+    pub teeth: Teeth,
+    /// Its planet count.
+    pub planets: u32,
+    /// Why it failed, with the numbers: [`check_design`]'s first complaint about it.
+    pub unmet: Unmet,
 }
 
 /// A design as the search holds it: enough to rank it.
@@ -55,14 +89,41 @@ fn rank(a: &Entry, b: &Entry) -> Ordering {
         .then_with(|| a.teeth.cmp(&b.teeth))
 }
 
-/// A count and the best entries seen, holding at most about twice the limit.
+/// A count and the best entries seen, holding at most about twice the limit; and, when
+/// explaining, the candidates seen and those left out by condition.
 #[derive(Debug, Default)]
 struct Tally {
     count: u64,
     best: Vec<Entry>,
+    explain: bool,
+    candidates: u64,
+    left_out: Vec<ConditionCount>,
 }
 
 impl Tally {
+    fn new(explain: bool) -> Tally {
+        Tally { explain, ..Tally::default() }
+    }
+
+    /// Counts `count` candidates of `teeth` left out by the condition of `unmet`, keeping the
+    /// first (`unmet` is only worked out when it is).
+    fn leave_out(&mut self, teeth: Teeth, planets: u32, count: u64, unmet: impl FnOnce() -> Unmet) {
+        if !self.explain || count == 0 {
+            return;
+        }
+        let unmet = unmet();
+        let condition = unmet.condition();
+        match self.left_out.iter_mut().find(|c| c.condition == condition) {
+            Some(c) => {
+                c.count += count;
+                if (teeth, planets) < (c.teeth, c.planets) {
+                    (c.teeth, c.planets, c.unmet) = (teeth, planets, unmet);
+                }
+            }
+            None => self.left_out.push(ConditionCount { condition, count, teeth, planets, unmet }),
+        }
+    }
+
     fn push(&mut self, entry: Entry, limit: usize) {
         self.count += 1;
         if limit == 0 {
@@ -83,6 +144,11 @@ impl Tally {
         self.count += other.count;
         self.best.extend(other.best);
         self.shrink(limit);
+        self.explain |= other.explain;
+        self.candidates += other.candidates;
+        for c in other.left_out {
+            self.leave_out(c.teeth, c.planets, c.count, || c.unmet);
+        }
         self
     }
 }
@@ -93,29 +159,50 @@ impl Tally {
 /// worked out in full by [`check_design`], the same judge that names what a rejected design
 /// fails.
 pub fn search(problem: &PlanetaryProblem) -> PlanetaryOutcome {
+    run(problem, false)
+}
+
+/// [`search`], and every candidate in the ranges that it leaves out counted under the first
+/// condition it fails ([`PlanetaryOutcome::left_out`]). Slower: every set of tooth counts in
+/// the ranges is judged, not only those the coaxiality window lets through.
+pub fn search_explained(problem: &PlanetaryProblem) -> PlanetaryOutcome {
+    run(problem, true)
+}
+
+fn run(problem: &PlanetaryProblem, explain: bool) -> PlanetaryOutcome {
     let spec = problem.spec();
     let limit = spec.limit;
-    let window = shift_window(spec.shift_sum.1, spec.carrier_offset_modules);
-    let outer: Vec<u32> = match spec.arrangement {
-        Arrangement::TwoRing => (spec.planet_teeth.lo..=spec.planet_teeth.hi).collect(),
-        _ => (spec.sun_teeth.lo..=spec.sun_teeth.hi).collect(),
+    // Explaining, no window: every set is judged, and those the window would have skipped
+    // are counted under the condition they fail.
+    let window =
+        if explain { UNBOUNDED } else { shift_window(spec.shift_sum.1, spec.carrier_offset_modules) };
+    let outer = match spec.arrangement {
+        Arrangement::TwoRing => spec.range_of(Gear::PlanetRing),
+        _ => spec.sun_teeth,
     };
+    let outer: Vec<u32> = (outer.lo..=outer.hi).collect();
     let tally = outer
         .into_par_iter()
         .map(|first| {
-            let mut tally = Tally::default();
+            let mut tally = Tally::new(explain);
             visit(problem, first, window, &mut |teeth| judge(problem, teeth, &mut tally));
             tally
         })
-        .reduce(Tally::default, |a, b| a.merge(b, limit));
+        .reduce(|| Tally::new(explain), |a, b| a.merge(b, limit));
     let mut best = tally.best;
     best.sort_by(rank);
     best.truncate(limit);
+    let mut conditions = tally.left_out;
+    conditions.sort_by_key(|c| c.condition);
     PlanetaryOutcome {
         count: tally.count,
         designs: best.iter().filter_map(|e| check_design(problem, &e.teeth, e.planets).ok()).collect(),
+        left_out: explain.then_some(LeftOut { candidates: tally.candidates, conditions }),
     }
 }
+
+/// A window wider than any two tooth ranges can differ by.
+const UNBOUNDED: i64 = 1 << 40;
 
 /// How far, in doubled standard centre distances, the two meshes may differ when no mesh may
 /// take a shift above `hi` modules and the carrier is `offset` modules beyond midway:
@@ -139,7 +226,7 @@ fn clipped(lo: i64, hi: i64, range: crate::numbers::range::IntRange) -> std::ops
 /// `window`.
 fn visit(problem: &PlanetaryProblem, first: u32, window: i64, found: &mut dyn FnMut(Teeth)) {
     let spec = problem.spec();
-    let (planets, rings) = (spec.planet_teeth, spec.ring_teeth);
+    let rings = spec.ring_teeth;
     let i = i64::from;
     match spec.arrangement {
         Arrangement::Simple { .. } => {
@@ -149,15 +236,16 @@ fn visit(problem: &PlanetaryProblem, first: u32, window: i64, found: &mut dyn Fn
                 let d = i(ring) - i(sun);
                 let lo = (d - window + 1).div_euclid(2);
                 let hi = (d + window).div_euclid(2);
-                for planet in clipped(lo, hi, planets) {
+                for planet in clipped(lo, hi, spec.planet_teeth) {
                     found(Teeth::Simple { sun, planet, ring });
                 }
             }
         }
         Arrangement::Stepped { .. } => {
             let sun = first;
-            for p1 in planets.lo..=planets.hi {
-                for p2 in planets.lo..=planets.hi {
+            let (firsts, seconds) = (spec.range_of(Gear::PlanetSun), spec.range_of(Gear::PlanetRing));
+            for p1 in firsts.lo..=firsts.hi {
+                for p2 in seconds.lo..=seconds.hi {
                     // s2 − s1 = (ring − p2) − (sun + p1).
                     let centre = i(sun) + i(p1) + i(p2);
                     for ring in clipped(centre - window, centre + window, rings) {
@@ -168,11 +256,12 @@ fn visit(problem: &PlanetaryProblem, first: u32, window: i64, found: &mut dyn Fn
         }
         Arrangement::TwoRing => {
             let p1 = first;
-            for p2 in planets.lo..=planets.hi {
+            let (seconds, outputs) = (spec.range_of(Gear::PlanetRing2), spec.range_of(Gear::Ring2));
+            for p2 in seconds.lo..=seconds.hi {
                 for r1 in rings.lo..=rings.hi {
                     // s2 − s1 = (r2 − p2) − (r1 − p1).
                     let centre = i(r1) - i(p1) + i(p2);
-                    for r2 in clipped(centre - window, centre + window, rings) {
+                    for r2 in clipped(centre - window, centre + window, outputs) {
                         found(Teeth::TwoRing { planet: [p1, p2], ring: [r1, r2] });
                     }
                 }
@@ -182,37 +271,74 @@ fn visit(problem: &PlanetaryProblem, first: u32, window: i64, found: &mut dyn Fn
 }
 
 /// Judges one set of tooth counts for every planet count, as [`check_design`] would, and
-/// counts and keeps those that pass.
+/// counts and keeps those that pass; when explaining, counts those that fail by the first
+/// condition they fail.
 fn judge(problem: &PlanetaryProblem, teeth: Teeth, tally: &mut Tally) {
     let spec = problem.spec();
+    let (lo, hi) = (spec.planets.lo, spec.planets.hi);
+    let every = u64::from(hi - lo + 1);
+    if tally.explain {
+        tally.candidates += every;
+    }
     let Some((num, den, direction)) = spec.arrangement.unreduced_ratio(&teeth) else {
+        tally.leave_out(teeth, lo, every, || Unmet::NoRatio);
         return;
     };
     let error = RelError::of(num, den, spec.ratio);
-    if !error.within(spec.tolerance) || spec.direction.is_some_and(|d: Direction| d != direction) {
+    if !error.within(spec.tolerance) {
+        tally.leave_out(teeth, lo, every, || match SpeedRatio::new(num.into(), den.into(), direction) {
+            // The error of the reduced ratio, as check_design words it, to the last bit.
+            Some(ratio) => {
+                let error = RelError::of(ratio.magnitude.num(), ratio.magnitude.den(), spec.ratio);
+                Unmet::Ratio { ratio, error: error.to_f64() }
+            }
+            None => Unmet::NoRatio,
+        });
         return;
     }
-    let Ok(carrier) = carrier(problem.system(), &teeth, spec.shift_sum, spec.carrier_offset_modules) else {
+    if let Some(wanted) = spec.direction.filter(|&d: &Direction| d != direction) {
+        tally.leave_out(teeth, lo, every, || Unmet::Direction { wanted });
         return;
-    };
-    let mut meshes_run: Option<bool> = None;
-    for planets in spec.planets.lo..=spec.planets.hi {
-        let Ok(positions) = positions(&teeth, planets, spec.spacing) else {
-            continue;
-        };
-        if neighbour_gap(&carrier, &positions, spec.tip_clearance_mm).is_err() {
-            continue;
-        }
-        let runs = *meshes_run.get_or_insert_with(|| match &spec.mesh_limits {
-            None => true,
-            Some(limits) => {
-                let meshes = planet_meshes(problem.system(), &teeth, &carrier);
-                mesh_defects(&teeth, &meshes, limits).is_empty()
-            }
-        });
-        if !runs {
+    }
+    let carrier = match carrier(problem.system(), &teeth, spec.shift_sum, spec.carrier_offset_modules) {
+        Ok(carrier) => carrier,
+        Err(unmet) => {
+            tally.leave_out(teeth, lo, every, || unmet);
             return;
         }
-        tally.push(Entry { teeth, planets, error }, spec.limit);
+    };
+    // The meshes are worked out once per set of tooth counts, when a planet count first gets
+    // that far: `Ok` when they pass (or are not checked), else the first defect.
+    let mut meshes_run: Option<Result<(), Unmet>> = None;
+    for planets in lo..=hi {
+        let positions = match positions(&teeth, planets, spec.spacing) {
+            Ok(p) => p,
+            Err(unmet) => {
+                tally.leave_out(teeth, planets, 1, || unmet);
+                continue;
+            }
+        };
+        if let Err(unmet) = neighbour_gap(&carrier, &positions, spec.tip_clearance_mm) {
+            tally.leave_out(teeth, planets, 1, || unmet);
+            continue;
+        }
+        let runs = meshes_run.get_or_insert_with(|| match &spec.mesh_limits {
+            None => Ok(()),
+            Some(limits) => {
+                let meshes = planet_meshes(problem.system(), &teeth, &carrier);
+                mesh_defects(&teeth, &meshes, limits).into_iter().next().map_or(Ok(()), Err)
+            }
+        });
+        match runs {
+            Ok(()) => tally.push(Entry { teeth, planets, error }, spec.limit),
+            Err(unmet) => {
+                if !tally.explain {
+                    // No later planet count can pass either.
+                    return;
+                }
+                let unmet = unmet.clone();
+                tally.leave_out(teeth, planets, 1, || unmet);
+            }
+        }
     }
 }
