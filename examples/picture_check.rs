@@ -1,5 +1,6 @@
 //! Compare a browser's screenshot of an SVG gearsieve wrote with resvg's render of the same
-//! file: `cargo run --example picture_check -- FILE.svg SHOT.png`. Used by
+//! file: `cargo run --example picture_check -- FILE.svg SHOT.png` (`--size FILE.svg` prints the
+//! size in CSS pixels the browser window needs). Used by
 //! `scripts/browser-check.sh`; exits non-zero, saying why, when the screenshot is blank, the
 //! wrong size, or shows something else than the drawing.
 
@@ -7,8 +8,8 @@ use std::process::ExitCode;
 
 use resvg::tiny_skia::{Pixmap, Transform};
 
-/// Ink per cell of an `n`×`n` grid: the share of the cell's pixels that are darker than light
-/// grey.
+/// Ink per cell of an `n`×`n` grid: the share of the cell's pixels that are darker than the
+/// palest grey of an antialiased line's edge.
 fn ink(p: &Pixmap, n: u32) -> Vec<f64> {
     let mut cells = vec![0.0; (n * n) as usize];
     let (w, h) = (p.width(), p.height());
@@ -19,13 +20,51 @@ fn ink(p: &Pixmap, n: u32) -> Vec<f64> {
             let a = f64::from(c.alpha()) / 255.0;
             let grey =
                 (f64::from(c.red()) + f64::from(c.green()) + f64::from(c.blue())) / 3.0 + 255.0 * (1.0 - a);
-            if grey < 200.0 {
+            if grey < 235.0 {
                 cells[(y * n / h * n + x * n / w) as usize] += 1.0;
             }
         }
     }
     let per_cell = f64::from(w * h) / f64::from(n * n);
     cells.iter().map(|c| c / per_cell).collect()
+}
+
+/// The boxes `[x0, y0, x1, y1]`, in the drawing's user units, of its labels: resvg is built here
+/// without fonts, so labels are compared by where they stand, not by their letters.
+fn label_boxes(svg: &str) -> Vec<[f32; 4]> {
+    let attr = |tag: &str, name: &str| -> Option<f32> {
+        tag.split(&format!(" {name}=\"")).nth(1)?.split('"').next()?.parse().ok()
+    };
+    svg.split("<text ")
+        .skip(1)
+        .filter_map(|t| {
+            let (tag, rest) = t.split_once('>')?;
+            let tag = format!(" {tag}");
+            let tag = tag.as_str();
+            let words = rest.split("</text>").next()?;
+            let (x, y, size) = (attr(tag, "x")?, attr(tag, "y")?, attr(tag, "font-size")?);
+            let width = 0.65 * size * words.chars().count() as f32;
+            let x0 = if tag.contains("text-anchor=\"middle\"") { x - width / 2.0 } else { x };
+            Some([x0 - size, y - 1.2 * size, x0 + width + size, y + 0.5 * size])
+        })
+        .collect()
+}
+
+/// Paint the `boxes` (user units, `k` pixels per unit) white.
+fn blank_out(p: &mut Pixmap, boxes: &[[f32; 4]], k: f32) {
+    let (w, h) = (p.width() as f32, p.height() as f32);
+    for b in boxes {
+        let to = |v: f32, most: f32| (v * k).clamp(0.0, most) as u32;
+        for y in to(b[1], h)..to(b[3], h) {
+            for x in to(b[0], w)..to(b[2], w) {
+                let i = (y * p.width() + x) as usize;
+                if let Some(px) = p.pixels_mut().get_mut(i) {
+                    *px =
+                        resvg::tiny_skia::PremultipliedColorU8::from_rgba(255, 255, 255, 255).unwrap_or(*px);
+                }
+            }
+        }
+    }
 }
 
 /// Pearson correlation of two equally long series.
@@ -40,20 +79,39 @@ fn correlation(a: &[f64], b: &[f64]) -> f64 {
 
 fn check(svg_path: &str, shot_path: &str) -> Result<String, String> {
     let svg = std::fs::read_to_string(svg_path).map_err(|e| format!("{svg_path}: {e}"))?;
-    let shot = Pixmap::load_png(shot_path).map_err(|e| format!("{shot_path}: {e}"))?;
+    let mut shot = Pixmap::load_png(shot_path).map_err(|e| format!("{shot_path}: {e}"))?;
     let tree =
         resvg::usvg::Tree::from_str(&svg, &resvg::usvg::Options::default()).map_err(|e| e.to_string())?;
     // Render at the screenshot's size, so the two can be laid over each other.
     let (sw, sh) = (shot.width(), shot.height());
     let size = tree.size();
-    let want = (size.width().round() as u32, size.height().round() as u32);
-    if sw.abs_diff(want.0) > 2 || sh.abs_diff(want.1) > 2 {
-        return Err(format!("the screenshot is {sw}×{sh} px, the drawing {}×{} px", want.0, want.1));
+    // The browser may draw at a device scale factor: the screenshot is then that many times the
+    // drawing's CSS size.
+    let css = (size.width().round() as u32, size.height().round() as u32);
+    let factor = (sw as f32 / size.width()).round().max(1.0) as u32;
+    let slack = 2 * factor;
+    if sw.abs_diff(css.0 * factor) > slack || sh.abs_diff(css.1 * factor) > slack {
+        return Err(format!(
+            "the screenshot is {sw}×{sh} px, the drawing {}×{} px at scale {factor}",
+            css.0, css.1
+        ));
     }
     let mut ours = Pixmap::new(sw, sh).ok_or("an empty picture")?;
     ours.fill(resvg::tiny_skia::Color::WHITE);
     let k = sw as f32 / size.width();
     resvg::render(&tree, Transform::from_scale(k, k), &mut ours.as_mut());
+    // Labels compared by place only: cleared from both pictures (user units to pixels: the
+    // viewBox is in mm, the CSS size in px).
+    let view_box_width: f32 = svg
+        .split("viewBox=\"")
+        .nth(1)
+        .and_then(|v| v.split(' ').nth(2))
+        .and_then(|w| w.parse().ok())
+        .ok_or("the drawing has no viewBox")?;
+    let per_unit = sw as f32 / view_box_width;
+    let boxes = label_boxes(&svg);
+    blank_out(&mut shot, &boxes, per_unit);
+    blank_out(&mut ours, &boxes, per_unit);
     let (a, b) = (ink(&shot, 24), ink(&ours, 24));
     let covered = a.iter().filter(|&&c| c > 0.0).count();
     if covered < 20 {
@@ -66,10 +124,32 @@ fn check(svg_path: &str, shot_path: &str) -> Result<String, String> {
     Ok(format!("{sw}×{sh} px, ink in {covered} of 576 cells, correlation with resvg {r:.3}"))
 }
 
+/// The size in CSS pixels a browser gives the drawing: `W H`.
+fn size(svg_path: &str) -> Result<String, String> {
+    let svg = std::fs::read_to_string(svg_path).map_err(|e| format!("{svg_path}: {e}"))?;
+    let tree =
+        resvg::usvg::Tree::from_str(&svg, &resvg::usvg::Options::default()).map_err(|e| e.to_string())?;
+    Ok(format!("{} {}", tree.size().width().round(), tree.size().height().round()))
+}
+
 fn main() -> ExitCode {
     let args: Vec<String> = std::env::args().skip(1).collect();
+    if let [flag, svg] = &args[..] {
+        if flag == "--size" {
+            return match size(svg) {
+                Ok(s) => {
+                    println!("{s}");
+                    ExitCode::SUCCESS
+                }
+                Err(why) => {
+                    eprintln!("{why}");
+                    ExitCode::FAILURE
+                }
+            };
+        }
+    }
     let [svg, shot] = &args[..] else {
-        eprintln!("usage: picture_check FILE.svg SHOT.png");
+        eprintln!("usage: picture_check FILE.svg SHOT.png, or picture_check --size FILE.svg");
         return ExitCode::from(2);
     };
     match check(svg, shot) {
