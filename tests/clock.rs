@@ -135,7 +135,9 @@ fn lunar_month_convergent_443_15_is_the_best_single_stage() {
     // Wikipedia, "Lunar calendar": 443/15 is a convergent of the synodic month. With wheels of
     // at most 460 teeth a single stage has at most 15 on its driver, and a convergent is the
     // best fraction of no larger denominator, so the best single stage is 15 → 443. Input
-    // 29.530588 d (1911 encyclopaedia), which has the same convergents up to 1447/49.
+    // the built-in mean synodic month 29.530588853 d (Chapront-Touzé and Chapront, quoted in the
+    // Explanatory Supplement to the Astronomical Almanac, 1992 — from memory), which has the
+    // same convergents up to 25101/850.
     let (code, v) = json(&[
         "clock",
         "astro",
@@ -151,17 +153,93 @@ fn lunar_month_convergent_443_15_is_the_best_single_stage() {
     ]);
     assert_eq!(code, 0);
     assert_eq!(pairs(&trains(&v)[0]), vec![(15, 443)]);
-    assert_eq!(v["target_period_days"], "7382647/250000");
+    assert_eq!(v["target_period_days"], "29530588853/1000000000");
     let conv: Vec<&str> =
         v["convergents"].as_array().unwrap().iter().map(|c| c["ratio"].as_str().unwrap()).collect();
-    assert_eq!(&conv[..7], ["29", "30", "59/2", "443/15", "502/17", "1447/49", "23654/801"]);
+    assert_eq!(&conv[..8], ["29", "30", "59/2", "443/15", "502/17", "1447/49", "25101/850", "51649/1749"]);
     // The drift of a train is its error seen on the dial, and the days to one day out its
     // inverse (computed).
     let t = &trains(&v)[0];
     let e = t["error"].as_f64().unwrap();
     let drift = t["drift_days_per_year"].as_f64().unwrap();
-    assert!((drift + e / (1.0 + e) * 365.2425).abs() < 1e-12);
-    assert!((t["days_to_one_day"].as_f64().unwrap() * drift.abs() / 365.2425 - 1.0).abs() < 1e-9);
+    // Both are rounded to the significant figures the period's digits support.
+    let digits = t["significant_digits"].as_u64().unwrap() as i32;
+    assert!(digits >= 3, "{digits}");
+    let close = |a: f64, b: f64| (a / b - 1.0).abs() < 10f64.powi(1 - digits);
+    assert!(close(drift, -e / (1.0 + e) * 365.2425));
+    assert!(close(t["days_to_one_day"].as_f64().unwrap() * drift.abs() / 365.2425, 1.0));
+}
+
+#[test]
+fn best_two_stage_lunar_train_is_judged_against_every_digit_of_the_month() {
+    // Mean synodic month 29.530588853 d (Chapront-Touzé and Chapront's lunar theory, quoted in the
+    // Explanatory Supplement to the Astronomical Almanac, 1992 — from memory). The best two-stage
+    // train of 8..150 teeth is 43 → 97, 11 → 144 = 13968/473; its error against that value is
+    // 13968/473 / 29.530588853 − 1 = +2.2531931e-6 (computed with exact fractions), where the
+    // cut value 29.530588 gave +2.282e-6: the constant's own error (2.9e-8) was larger than the
+    // difference between good trains.
+    let (code, v) = json(&[
+        "clock",
+        "astro",
+        "--period",
+        "synodic-month",
+        "--stages",
+        "2",
+        "--tol",
+        "10ppm",
+        "--limit",
+        "1",
+        "-q",
+    ]);
+    assert_eq!(code, 0);
+    let t = &trains(&v)[0];
+    assert_eq!(t["ratio"], "13968/473");
+    assert!((t["error"].as_f64().unwrap() - 2.2531931496e-6).abs() < 1e-15);
+    // Drift −e/(1+e) × 365.2425 = −0.00082296 d/yr, days to one day out (1+e)/e = 443815.6
+    // (computed): five significant figures stand, since the month's last digit is worth
+    // 1.7e-11 of it.
+    assert_eq!(t["significant_digits"], 5);
+    assert_eq!(t["drift_days_per_year"].as_f64().unwrap(), -0.00082296);
+    assert_eq!(t["days_to_one_day"].as_f64().unwrap(), 443820.0);
+}
+
+#[test]
+fn the_report_gives_the_basis_of_the_period_not_a_credit() {
+    for format in ["table", "csv", "json", "markdown"] {
+        let r = gearsieve(&[
+            "clock",
+            "astro",
+            "--period",
+            "synodic-month",
+            "--tol",
+            "10ppm",
+            "--limit",
+            "1",
+            "-q",
+            "--format",
+            format,
+        ]);
+        assert_eq!(r.code, 0, "{}", r.stderr);
+        for credit in ["encyclopaedia", "Wikipedia", "1911"] {
+            assert!(!r.stdout.contains(credit), "{format}: {}", r.stdout);
+        }
+    }
+    let r =
+        gearsieve(&["clock", "astro", "--period", "synodic-month", "--tol", "10ppm", "--limit", "1", "-q"]);
+    assert!(
+        r.stdout.starts_with(
+            "Astronomical train: synodic-month (mean synodic month 29.530588853 d; mean, J2000)"
+        ),
+        "{}",
+        r.stdout
+    );
+    let (_, v) =
+        json(&["clock", "astro", "--period", "sidereal-year", "--tol", "10ppm", "--limit", "1", "-q"]);
+    assert!(v.get("source").is_none());
+    assert_eq!(v["basis"], "mean, J2000");
+    assert_eq!(v["target_period_days"], "365256363/1000000");
+    let (_, v) = json(&["clock", "astro", "--period", "27.3", "--limit", "1", "-q"]);
+    assert_eq!(v["basis"], "as given");
 }
 
 #[test]
@@ -229,6 +307,8 @@ fn hourly_arbor_multiplies_the_ratio_by_24() {
         "1",
         "-q",
     ]);
+    // Mean tropical year 365.242190 d at J2000 (Explanatory Supplement to the Astronomical
+    // Almanac, 1992 — from memory).
     assert_eq!(day["target"]["exact"], "36524219/100000");
     // 365.24219 d × 24 turns a day = 8765.81256 turns (computed).
     assert_eq!(hour["target"]["exact"], "109572657/12500");
@@ -321,8 +401,9 @@ fn each_mistake_gets_its_whole_message() {
         &["clock", "going", "--pendulum", "1", "--gravity", "-9.81"],
         "--gravity: \"-9.81\" is negative; wanted m/s² such as 9.80665",
     );
-    let astro = "wanted synodic-month, sidereal-day, tropical-year or a period above 0 in d such as \
-                 27.321661, or with a unit: 29.53d, 708.7h";
+    let astro = "wanted synodic-month, sidereal-month, draconic-month, anomalistic-month, sidereal-day, \
+                 tropical-year, sidereal-year or a period above 0 in d such as 27.321661, or with a unit: \
+                 29.53d, 708.7h";
     refused(&["clock", "astro", "--period", "0"], &format!("--period: \"0\" is zero; {astro}"));
     refused(&["clock", "astro", "--period", "eon"], &format!("--period: \"eon\" is not a number; {astro}"));
     refused(

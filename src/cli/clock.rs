@@ -149,7 +149,8 @@ pub struct MotionArgs {
 /// an hour). Reports drift per year and the days until the dial is one day out.
 #[derive(Args, Debug)]
 pub struct AstroArgs {
-    /// synodic-month (29.530588 d), sidereal-day, tropical-year, or a number of days.
+    /// A mean period at J2000: synodic-month (29.530588853 d), sidereal-month, draconic-month,
+    /// anomalistic-month, sidereal-day, tropical-year, sidereal-year; or a number of days.
     #[arg(long, value_name = "NAME|DAYS")]
     pub period: String,
     /// The input arbor turns once a day or once an hour.

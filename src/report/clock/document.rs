@@ -232,18 +232,43 @@ pub fn motion(p: &MotionPlan) -> Document {
     d
 }
 
-/// Days for people: `12.3 d (0.03 years)` or `never (exact)`.
-pub fn describe_days(d: Option<f64>) -> String {
-    match d {
-        None => "never (exact)".into(),
-        Some(d) if d >= 1e12 => "over 10¹² d".into(),
-        Some(d) => format!("{:.0} d ({} years)", d, fmt_num(d / crate::trades::clock::astro::DAYS_PER_YEAR)),
+/// `v` to `digits` significant figures, without trailing zeros after the point (all of
+/// [`fmt_num`]'s for `None`).
+fn significant(v: f64, digits: Option<u32>) -> String {
+    match digits {
+        Some(n) if n > 0 && v != 0.0 => {
+            let places = (n as i32 - 1 - v.abs().log10().floor() as i32).max(0) as usize;
+            let v = crate::trades::clock::astro::round_significant(v, Some(n));
+            crate::report::fields::decimals(v, places)
+        }
+        _ => fmt_num(v),
     }
 }
 
-/// Drift for people: `+0.000662 d/yr`, or `+1.5e-9 d/yr` when very small.
-pub fn describe_drift(d: f64) -> String {
-    if d == 0.0 {
+/// Days for people: `438200 d (1199.8 years)`, to the significant figures the period supports,
+/// or `never (exact)`.
+pub fn describe_days(d: Option<f64>, digits: Option<u32>) -> String {
+    match (d, digits) {
+        (None, _) => "never (exact)".into(),
+        (Some(_), Some(0)) => "beyond the period's digits".into(),
+        (Some(d), _) if d >= 1e12 => "over 10¹² d".into(),
+        (Some(d), None) => {
+            format!("{:.0} d ({} years)", d, fmt_num(d / crate::trades::clock::astro::DAYS_PER_YEAR))
+        }
+        (Some(d), digits) => format!(
+            "{} d ({} years)",
+            significant(d, digits),
+            significant(d / crate::trades::clock::astro::DAYS_PER_YEAR, digits)
+        ),
+    }
+}
+
+/// Drift for people: `+0.000662 d/yr`, or `+1.5e-9 d/yr` when very small; "within the period's
+/// digits" when the period's own uncertainty is larger.
+pub fn describe_drift(d: f64, digits: Option<u32>) -> String {
+    if digits == Some(0) {
+        "within the period's digits".into()
+    } else if d == 0.0 {
         "0 d/yr".into()
     } else if d.abs() < 1e-4 {
         format!("{d:+.2e} d/yr")
@@ -261,7 +286,7 @@ pub fn astro(p: &AstroPlan) -> Document {
         crate::trades::clock::astro::InputArbor::Daily => "an arbor turning once a day",
         crate::trades::clock::astro::InputArbor::Hourly => "an arbor turning once an hour",
     };
-    d.title(format!("Astronomical train: {} ({})", s.period.name, s.period.source));
+    d.title(format!("Astronomical train: {} ({}; {})", s.period.name, s.period.description, s.period.basis));
     d.line(format!("From {from} to a dial turning once per period: i = {r} = {:.9}", r.to_f64()));
     d.line(format!(
         "Gears: {}; stages {}; tolerance {}",
@@ -280,8 +305,8 @@ pub fn astro(p: &AstroPlan) -> Document {
                 a.train.ratio.to_string(),
                 format!("{:.9} d", a.period_days),
                 describe_error(&a.train.error),
-                describe_drift(a.drift_days_per_year),
-                describe_days(a.days_to_one_day),
+                describe_drift(a.drift_days_per_year, a.significant_digits),
+                describe_days(a.days_to_one_day, a.significant_digits),
             ]
         });
         d.table(
@@ -300,7 +325,7 @@ pub fn astro(p: &AstroPlan) -> Document {
         .map(|c| {
             vec![
                 c.ratio.to_string(),
-                describe_drift(c.drift_days_per_year),
+                describe_drift(c.drift_days_per_year, c.significant_digits),
                 match c.blocking_prime {
                     Some(q) => format!("no train: needs the prime {q}, above the largest gear"),
                     None => String::new(),

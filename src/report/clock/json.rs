@@ -169,12 +169,14 @@ struct AstroTrainJson {
     period_days: f64,
     drift_days_per_year: f64,
     days_to_one_day: Option<f64>,
+    significant_digits: Option<u32>,
 }
 
 #[derive(Serialize)]
 struct ConvergentJson {
     ratio: String,
     drift_days_per_year: f64,
+    significant_digits: Option<u32>,
     blocking_prime: Option<u64>,
 }
 
@@ -184,7 +186,8 @@ struct AstroDoc {
     clock_train: &'static str,
     period: String,
     target_period_days: String,
-    source: &'static str,
+    basis: &'static str,
+    period_half_unit_days: String,
     input_turns_per_day: u64,
     target: TargetJson,
     count: u64,
@@ -203,7 +206,8 @@ pub fn write_astro(p: &AstroPlan, w: &mut dyn Write) -> Result<(), RenderError> 
         clock_train: "astro",
         period: s.period.name.clone(),
         target_period_days: s.period.days.to_string(),
-        source: s.period.source,
+        basis: s.period.basis,
+        period_half_unit_days: s.period.half_unit_days.to_string(),
         input_turns_per_day: s.from.turns_per_day(),
         target: TargetJson {
             ratio: s.ratio().to_string(),
@@ -223,6 +227,7 @@ pub fn write_astro(p: &AstroPlan, w: &mut dyn Write) -> Result<(), RenderError> 
                 period_days: a.period_days,
                 drift_days_per_year: a.drift_days_per_year,
                 days_to_one_day: a.days_to_one_day,
+                significant_digits: a.significant_digits,
             })
             .collect(),
         convergents: p
@@ -231,6 +236,7 @@ pub fn write_astro(p: &AstroPlan, w: &mut dyn Write) -> Result<(), RenderError> 
             .map(|c| ConvergentJson {
                 ratio: c.ratio.to_string(),
                 drift_days_per_year: c.drift_days_per_year,
+                significant_digits: c.significant_digits,
                 blocking_prime: c.blocking_prime,
             })
             .collect(),

@@ -24,41 +24,145 @@ pub const DAYS_PER_YEAR: f64 = 365.2425;
 pub struct Period {
     /// Its name, or the number as given.
     pub name: String,
+    /// What it is, for people: `mean synodic month 29.530588853 d`, or the number as given.
+    pub description: String,
     /// Length in mean solar days, exactly as held.
     pub days: Ratio,
-    /// Where the value comes from.
-    pub source: &'static str,
+    /// The value's basis: `mean, J2000` for the built-in periods, `as given` for a number.
+    pub basis: &'static str,
+    /// Half a unit in the last digit of a built-in value, days: how far the period it stands
+    /// for may lie from it. Zero for a period as given, which is taken as exact.
+    pub half_unit_days: Ratio,
 }
 
-/// The named periods.
-pub const NAMED: [(&str, &str, &str); 3] = [
-    ("synodic-month", "29.530588", "synodic month 29.530588 d (1911 encyclopaedia, \"Calendar\")"),
-    (
-        "sidereal-day",
-        "86164.090530833/86400",
-        "sidereal day 86164.090530833 s = 1/1.002737909350795 d (Wikipedia, \"Sidereal time\")",
-    ),
-    ("tropical-year", "365.24219", "mean tropical year 365.24219 d (from memory)"),
+/// A built-in period: its name, its value in days as published (every digit kept), what it is
+/// and its basis.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub struct NamedPeriod {
+    /// The name to ask for it by.
+    pub name: &'static str,
+    /// The value in mean solar days, as published.
+    pub days: &'static str,
+    /// What it is.
+    pub what: &'static str,
+    /// Mean value, and the epoch it holds at.
+    pub basis: &'static str,
+}
+
+/// The built-in periods, mean values at the epoch J2000.0, to the digits published.
+///
+/// Sources, all from memory (not checked against a printed copy here): the mean synodic
+/// month 29.530588853 d is that of the lunar theory of M. Chapront-Touzé and J. Chapront
+/// ("Lunar Tables and Programs from 4000 B.C. to A.D. 8000", 1991), the value quoted in the
+/// "Explanatory Supplement to the Astronomical Almanac" (P. K. Seidelmann, ed., 1992; J. Meeus,
+/// "Astronomical Algorithms", 2nd ed. 1998, gives 29.530588861 d at J2000); the sidereal,
+/// draconic and anomalistic months, the tropical and sidereal years and the sidereal day
+/// (86164.0905 s = 0.99726956633 d) are the mean values at J2000 of the same Supplement.
+pub const NAMED: [NamedPeriod; 7] = [
+    NamedPeriod {
+        name: "synodic-month",
+        days: "29.530588853",
+        what: "mean synodic month",
+        basis: "mean, J2000",
+    },
+    NamedPeriod {
+        name: "sidereal-month",
+        days: "27.321661",
+        what: "mean sidereal month",
+        basis: "mean, J2000",
+    },
+    NamedPeriod {
+        name: "draconic-month",
+        days: "27.212221",
+        what: "mean draconic month",
+        basis: "mean, J2000",
+    },
+    NamedPeriod {
+        name: "anomalistic-month",
+        days: "27.554550",
+        what: "mean anomalistic month",
+        basis: "mean, J2000",
+    },
+    NamedPeriod {
+        name: "sidereal-day",
+        days: "0.99726956633",
+        what: "mean sidereal day",
+        basis: "mean, J2000",
+    },
+    NamedPeriod {
+        name: "tropical-year",
+        days: "365.242190",
+        what: "mean tropical year",
+        basis: "mean, J2000",
+    },
+    NamedPeriod { name: "sidereal-year", days: "365.256363", what: "sidereal year", basis: "mean, J2000" },
 ];
 
+/// Half a unit in the last digit of a decimal written `text` (`29.530588853` → 5·10⁻¹⁰).
+fn half_unit_of_last_digit(text: &str) -> Ratio {
+    let places = text.split_once('.').map_or(0, |(_, f)| f.len() as u32);
+    Ratio::new(1, 2 * 10u128.pow(places)).unwrap_or(Ratio::integer(0))
+}
+
 impl Period {
-    /// Parse a named period (`synodic-month`, `sidereal-day`, `tropical-year`) or a period as
-    /// [`read_period`] reads it, in days when no unit is written (`27.321661`, `29.53d`,
-    /// `708.7h`). Errors name [`Quantity::AstronomicalPeriod`].
+    /// Parse a named period (see [`NAMED`]) or a period as [`read_period`] reads it, in days
+    /// when no unit is written (`27.321661`, `29.53d`, `708.7h`). Errors name
+    /// [`Quantity::AstronomicalPeriod`].
     pub fn parse(text: &str) -> Result<Period> {
         let t = text.trim();
         let quantity = Quantity::AstronomicalPeriod;
-        if let Some((name, value, source)) = NAMED.iter().find(|(n, _, _)| *n == t) {
-            return Ok(Period { name: name.to_string(), days: parse_ratio(value, quantity)?, source });
+        if let Some(n) = NAMED.iter().find(|n| n.name == t) {
+            return Ok(Period {
+                name: n.name.to_string(),
+                description: format!("{} {} d", n.what, n.days),
+                days: parse_ratio(n.days, quantity)?,
+                basis: n.basis,
+                half_unit_days: half_unit_of_last_digit(n.days),
+            });
         }
         let days = read_period(t, TimeUnit::Day).map_err(|why| {
-            let names = NAMED.map(|(n, _, _)| n).join(", ");
+            let names = NAMED.map(|n| n.name).join(", ");
             Error::value(
                 quantity,
                 format!("\"{t}\" {why}; wanted {names} or {}", period_wanted(TimeUnit::Day)),
             )
         })?;
-        Ok(Period { name: t.to_string(), days, source: "as given" })
+        Ok(Period {
+            name: t.to_string(),
+            description: format!("{} d", days),
+            days,
+            basis: "as given",
+            half_unit_days: Ratio::integer(0),
+        })
+    }
+
+    /// The period's own relative uncertainty: half a unit in its last digit over its value
+    /// (zero for a period as given).
+    pub fn relative_uncertainty(&self) -> f64 {
+        self.half_unit_days.to_f64() / self.days.to_f64()
+    }
+
+    /// How many significant figures a figure derived from a relative error `e` (a drift, the
+    /// days until a day out) can carry, given the period's own digits: `None` when the period
+    /// is exact, `Some(0)` when `e` lies within the period's own uncertainty.
+    pub fn supported_digits(&self, e: f64) -> Option<u32> {
+        let u = self.relative_uncertainty();
+        if u == 0.0 {
+            return None;
+        }
+        let ratio = e.abs() / u;
+        Some(if ratio < 1.0 { 0 } else { (ratio.log10().floor() as u32).clamp(1, 15) })
+    }
+}
+
+/// `v` rounded to `digits` significant figures (unchanged for `None` or zero).
+pub fn round_significant(v: f64, digits: Option<u32>) -> f64 {
+    match digits {
+        Some(n) if n > 0 && v != 0.0 && v.is_finite() => {
+            let scale = 10f64.powi(n as i32 - 1 - v.abs().log10().floor() as i32);
+            (v * scale).round() / scale
+        }
+        _ => v,
     }
 }
 
@@ -109,6 +213,10 @@ pub struct AstroTrain {
     pub drift_days_per_year: f64,
     /// Days until the dial is one day out (`None` when exact).
     pub days_to_one_day: Option<f64>,
+    /// Significant figures the drift and the days to a day out carry (they are rounded to
+    /// them), as far as the period's own digits support: `None` when the period is exact,
+    /// `Some(0)` when the train's error lies within the period's own uncertainty.
+    pub significant_digits: Option<u32>,
 }
 
 /// A convergent of the target ratio and whether gear teeth can make it.
@@ -116,8 +224,10 @@ pub struct AstroTrain {
 pub struct Convergent {
     /// The fraction, input turns per dial turn.
     pub ratio: Ratio,
-    /// Its drift, days per year.
+    /// Its drift, days per year, rounded to [`Convergent::significant_digits`].
     pub drift_days_per_year: f64,
+    /// Significant figures its drift carries, as for [`AstroTrain::significant_digits`].
+    pub significant_digits: Option<u32>,
     /// A prime factor of its numerator or denominator above the largest tooth count, which no
     /// train of those teeth can make.
     pub blocking_prime: Option<u64>,
@@ -136,7 +246,9 @@ pub struct AstroPlan {
     pub complete: bool,
     /// The best trains.
     pub trains: Vec<AstroTrain>,
-    /// The convergents of the ratio, up to the first whose parts pass 10⁶.
+    /// The convergents of the ratio, up to the first whose parts pass 10⁶ or whose error lies
+    /// within the period's own uncertainty (the later ones approximate the digits of the
+    /// decimal, not the period).
     pub convergents: Vec<Convergent>,
 }
 
@@ -208,30 +320,36 @@ impl AstroSpec {
             .trains
             .into_iter()
             .map(|train| {
-                let drift = drift_days_per_day(train.error.to_f64());
+                let e = train.error.to_f64();
+                let drift = drift_days_per_day(e);
+                let digits = self.period.supported_digits(e);
                 AstroTrain {
                     period_days: train.ratio.to_f64() * per_turn,
-                    drift_days_per_year: drift * DAYS_PER_YEAR,
-                    days_to_one_day: (drift != 0.0).then(|| 1.0 / drift.abs()),
+                    drift_days_per_year: round_significant(drift * DAYS_PER_YEAR, digits),
+                    days_to_one_day: (drift != 0.0).then(|| round_significant(1.0 / drift.abs(), digits)),
+                    significant_digits: digits,
                     train,
                 }
             })
             .collect();
         let r = self.ratio();
         let max_teeth = self.pool.gears.iter().map(|g| g.teeth).max().unwrap_or(0) as u64;
-        let convergents = convergents(r, 1_000_000)
-            .into_iter()
-            .filter(|c| !c.is_zero())
-            .map(|c| {
-                let e = c.to_f64() / r.to_f64() - 1.0;
-                let p = largest_prime_factor(c.num()).max(largest_prime_factor(c.den()));
-                Convergent {
-                    ratio: c,
-                    drift_days_per_year: drift_days_per_day(e) * DAYS_PER_YEAR,
-                    blocking_prime: (p > max_teeth).then_some(p),
-                }
-            })
-            .collect();
+        let mut listed = Vec::new();
+        for c in convergents(r, 1_000_000).into_iter().filter(|c| !c.is_zero()) {
+            let e = c.to_f64() / r.to_f64() - 1.0;
+            let p = largest_prime_factor(c.num()).max(largest_prime_factor(c.den()));
+            let digits = self.period.supported_digits(e);
+            listed.push(Convergent {
+                ratio: c,
+                drift_days_per_year: round_significant(drift_days_per_day(e) * DAYS_PER_YEAR, digits),
+                significant_digits: digits,
+                blocking_prime: (p > max_teeth).then_some(p),
+            });
+            if digits == Some(0) {
+                break;
+            }
+        }
+        let convergents = listed;
         Ok(AstroPlan {
             spec: self.clone(),
             problem,
@@ -262,10 +380,24 @@ mod tests {
             strings("29.530589", 10_000),
             ["29", "30", "59/2", "443/15", "502/17", "1447/49", "25101/850"]
         );
-        // With 29.530588 (1911 encyclopaedia) the one after 1447/49 is 23654/801 (computed).
+        // With the mean synodic month 29.530588853 d (Chapront-Touzé and Chapront, quoted in the
+        // Explanatory Supplement to the Astronomical Almanac, 1992 — from memory) the one after
+        // 1447/49 is 25101/850 again, then 51649/1749 (computed by hand from that input, and
+        // with Python's fractions module).
         assert_eq!(
-            strings("29.530588", 10_000),
-            ["29", "30", "59/2", "443/15", "502/17", "1447/49", "23654/801"]
+            strings("29.530588853", 500_000),
+            [
+                "29",
+                "30",
+                "59/2",
+                "443/15",
+                "502/17",
+                "1447/49",
+                "25101/850",
+                "51649/1749",
+                "283346/9595",
+                "618341/20939"
+            ]
         );
     }
 
@@ -284,19 +416,57 @@ mod tests {
     }
 
     #[test]
+    fn built_in_periods_hold_every_published_digit() {
+        // Mean values at J2000, all from memory: the synodic month of Chapront-Touzé and
+        // Chapront's lunar theory as quoted in the Explanatory Supplement to the Astronomical
+        // Almanac (1992); the other months, the years and the sidereal day (86164.0905 s) from
+        // the same Supplement. Each is held exactly as its decimal.
+        let exact = |name: &str| Period::parse(name).unwrap().days.to_string();
+        assert_eq!(exact("synodic-month"), "29530588853/1000000000");
+        assert_eq!(exact("sidereal-month"), "27321661/1000000");
+        assert_eq!(exact("draconic-month"), "27212221/1000000");
+        assert_eq!(exact("anomalistic-month"), "551091/20000");
+        assert_eq!(exact("tropical-year"), "36524219/100000");
+        assert_eq!(exact("sidereal-year"), "365256363/1000000");
+        assert_eq!(exact("sidereal-day"), "99726956633/100000000000");
+        // Half a unit in the last published digit: 27.554550 keeps its sixth decimal.
+        assert_eq!(Period::parse("anomalistic-month").unwrap().half_unit_days.to_string(), "1/2000000");
+        assert_eq!(Period::parse("synodic-month").unwrap().half_unit_days.to_string(), "1/2000000000");
+        let day = Period::parse("sidereal-day").unwrap();
+        // 0.99726956633 d × 86400 = 86164.09053091 s (computed), the 86164.0905 s of the
+        // Supplement to its digits; and 1/1.002737909350795 d (Wikipedia, "Sidereal time") to
+        // the eleven decimals held.
+        assert!((day.days.to_f64() * 86400.0 - 86164.0905).abs() < 5e-5);
+        assert!((1.0 / day.days.to_f64() - 1.002737909350795).abs() < 1e-11);
+        assert_eq!(day.basis, "mean, J2000");
+        assert_eq!(Period::parse("29.53").unwrap().basis, "as given");
+        assert!(Period::parse("29.53").unwrap().half_unit_days.is_zero());
+    }
+
+    #[test]
+    fn derived_figures_keep_the_digits_the_period_supports() {
+        let month = Period::parse("synodic-month").unwrap();
+        // Relative uncertainty 5e-10 / 29.530588853 = 1.693e-11 (computed); an error of
+        // 2.253e-6 is 1.33e5 times that: five significant figures.
+        assert_eq!(month.supported_digits(2.2531931e-6), Some(5));
+        assert_eq!(month.supported_digits(1e-11), Some(0));
+        assert_eq!(Period::parse("29.53").unwrap().supported_digits(1e-11), None);
+        assert_eq!(round_significant(443815.5927, Some(5)), 443820.0);
+        assert_eq!(round_significant(-0.00082296004, Some(3)), -0.000823);
+        assert_eq!(round_significant(1.5, None), 1.5);
+    }
+
+    #[test]
     fn periods_parse() {
-        assert_eq!(Period::parse("synodic-month").unwrap().days.to_string(), "7382647/250000");
-        let s = Period::parse("sidereal-day").unwrap().days.to_f64();
-        // The two published forms agree to the 9 decimals of the seconds figure.
-        assert!((1.0 / s - 1.002737909350795).abs() < 1e-13);
         assert_eq!(Period::parse("29.53d").unwrap().days.to_string(), "2953/100");
         assert_eq!(Period::parse("29.53d").unwrap().name, "29.53d");
         assert_eq!(Period::parse("708.7h").unwrap().days.to_string(), "7087/240");
         let e = Period::parse("fortnight").unwrap_err().to_string();
         assert_eq!(
             e,
-            "the astronomical period: \"fortnight\" is not a number; wanted synodic-month, sidereal-day, \
-             tropical-year or a period above 0 in d such as 27.321661, or with a unit: 29.53d, 708.7h"
+            "the astronomical period: \"fortnight\" is not a number; wanted synodic-month, sidereal-month, \
+             draconic-month, anomalistic-month, sidereal-day, tropical-year, sidereal-year or a period above \
+             0 in d such as 27.321661, or with a unit: 29.53d, 708.7h"
         );
         let e = Period::parse("0").unwrap_err().to_string();
         assert!(e.starts_with("the astronomical period: \"0\" is zero; wanted "), "{e}");
