@@ -214,16 +214,16 @@ fn gearbox_positions_are_named() {
     let names: Vec<&str> =
         v["trains"].as_array().unwrap().iter().map(|t| t["gearbox_position"].as_str().unwrap()).collect();
     // 4 per inch on 8 per inch needs the leadscrew at 1/2 of the spindle speed: a train of
-    // 1/4 through A (2), 1/2 through B (1), 1 through C (1/2). No stage has a ratio of 1
-    // (a stage needs two tooth counts), so C has no simple train.
-    for n in ["A", "B"] {
+    // 1/4 through A (2), 1/2 through B (1), 1 through C (1/2). Through C the stage is of equal
+    // gears, which an idler turns into an ordinary setup (common practice).
+    for n in ["A", "B", "C"] {
         assert!(names.contains(&n), "{names:?}");
     }
-    assert!(!names.contains(&"C"), "{names:?}");
     for t in v["trains"].as_array().unwrap() {
         let want = match t["gearbox_position"].as_str().unwrap() {
             "A" => "1/4",
-            _ => "1/2",
+            "B" => "1/2",
+            _ => "1",
         };
         assert_eq!(t["ratio"], want);
     }
@@ -698,4 +698,92 @@ proptest! {
             let _ = stock(&teeth);
         }
     }
+}
+
+#[test]
+fn an_idler_is_two_meshes_turning_the_leadscrew_the_same_way() {
+    // Common practice: stud → idler → leadscrew is two external meshes, so the leadscrew turns
+    // the same way as the stud, and the idler's teeth cancel from the ratio. 16 tpi on an 8 tpi
+    // leadscrew needs ratio 2 (1/16 in lead over 1/8 in); the best setup is 20 → 50 → 40, whose
+    // meshes sit at m·(z1 + z2)/2 = 1.5·70/2 = 52.5 mm and 1.5·90/2 = 67.5 mm (computed).
+    let args = [
+        "thread",
+        "--pitch",
+        "16tpi",
+        "--leadscrew",
+        "8tpi",
+        "--stock",
+        "catalogs/lathe-change-gears.csv",
+        "--banjo",
+        "catalogs/lathe/brackenfold.banjo",
+        "--limit",
+        "1",
+        "-q",
+    ];
+    let (code, v) = json(&args);
+    assert_eq!(code, 0);
+    let t = &v["trains"][0];
+    assert_eq!(gear(t, "idler"), Some(50));
+    assert_eq!(t["ratio"], "2");
+    assert_eq!(t["meshes"], 2);
+    assert_eq!(t["direction"], "same");
+    let stages: Vec<(u64, u64, f64)> = t["stages"]
+        .as_array()
+        .unwrap()
+        .iter()
+        .map(|s| {
+            (
+                s["driver"].as_u64().unwrap(),
+                s["driven"].as_u64().unwrap(),
+                s["reference_centre_distance_mm"].as_f64().unwrap(),
+            )
+        })
+        .collect();
+    assert_eq!(stages, vec![(20, 50, 52.5), (50, 40, 67.5)]);
+    assert_eq!(t["idler_stud_from_leadscrew_mm"], 67.5);
+    // The CSV says the same, and the table counts both meshes with both centre distances.
+    let mut csv_args = args.to_vec();
+    csv_args.extend(["--format", "csv"]);
+    let r = gearsieve(&csv_args);
+    let mut lines = r.stdout.lines();
+    let head: Vec<&str> = lines.next().unwrap().split(',').collect();
+    let row: Vec<&str> = lines.next().unwrap().split(',').collect();
+    let cell = |name: &str| row[head.iter().position(|h| *h == name).unwrap()];
+    assert_eq!(cell("meshes"), "2");
+    assert_eq!(cell("stage1_driven"), "50");
+    assert_eq!(cell("stage1_reference_centre_distance_mm"), "52.5");
+    assert_eq!(cell("stage2_driver"), "50");
+    assert_eq!(cell("stage2_reference_centre_distance_mm"), "67.5");
+    let r = gearsieve(&args);
+    assert!(r.stdout.contains("2, same way"), "{}", r.stdout);
+    assert!(r.stdout.contains("centres 52.5 and 67.5 mm"), "{}", r.stdout);
+}
+
+#[test]
+fn equal_gears_through_an_idler_cut_the_leadscrew_pitch() {
+    // Common practice: equal gears on the stud and the leadscrew, bridged by an idler, cut the
+    // leadscrew's own pitch (ratio 1). The demo stock has two 40s; a one-stage search must find
+    // 40 → idler → 40.
+    let (code, v) = json(&[
+        "thread",
+        "--pitch",
+        "8tpi",
+        "--leadscrew",
+        "8tpi",
+        "--stages",
+        "1",
+        "--stock",
+        "catalogs/lathe-change-gears.csv",
+        "--banjo",
+        "catalogs/lathe/brackenfold.banjo",
+        "-q",
+    ]);
+    assert_eq!(code, 0, "{v}");
+    let t = &v["trains"][0];
+    assert_eq!(t["ratio"], "1");
+    assert_eq!(t["exact_pitch"], true);
+    assert_eq!((gear(t, "stud"), gear(t, "leadscrew")), (Some(40), Some(40)));
+    assert!(gear(t, "idler").is_some());
+    assert_eq!(t["meshes"], 2);
+    assert_eq!(t["direction"], "same");
 }

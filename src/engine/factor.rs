@@ -137,6 +137,7 @@ impl FactorTables {
             || pool.groups.len() != 1
             || problem.train_check.is_some()
             || problem.extra_key.is_some()
+            || problem.equal_teeth_stages
             || space.needs_coaxial_fit()
             || space.stages.is_empty()
         {

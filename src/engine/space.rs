@@ -107,7 +107,7 @@ impl<'p> SearchSpace<'p> {
                 continue;
             }
             for (j, b) in pool.gears.iter().enumerate() {
-                if a.group != b.group || a.teeth == b.teeth {
+                if a.group != b.group || (a.teeth == b.teeth && !problem.equal_teeth_stages) {
                     continue;
                 }
                 if lim.driven_teeth.is_some_and(|r| !r.contains(b.teeth)) {

@@ -149,6 +149,10 @@ pub struct Problem {
     pub pareto: bool,
     /// The extra ranking key, needed when `rank` names [`RankKey::Extra`].
     pub extra_key: Option<ExtraKey>,
+    /// Whether a stage may pair gears of equal teeth (ratio 1). Off by default: in a train of
+    /// its own such a stage changes nothing; a trade turns it on where an idler or a compound
+    /// stud makes it meaningful (set after [`Problem::new`]).
+    pub equal_teeth_stages: bool,
 }
 
 impl Problem {
@@ -186,6 +190,7 @@ impl Problem {
             mesh: None,
             pareto: false,
             extra_key: None,
+            equal_teeth_stages: false,
         };
         if p.stage_counts().is_empty() {
             return Err(Error::value(

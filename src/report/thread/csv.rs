@@ -28,9 +28,11 @@ const SETUP_COLUMNS: [&str; 16] = [
     "idler_stud_from_leadscrew_mm",
 ];
 
-/// The stage columns of a lathe's setups: as many as it allows, stud first.
+/// The stage columns of a lathe's setups: as many as it allows, stud first, and two for a
+/// simple setup through an idler on a banjo.
 fn stage_columns(lathe: &Lathe) -> StageColumns {
-    StageColumns { stages: lathe.stages.hi as usize, mesh: false }
+    let hi = lathe.stages.hi as usize;
+    StageColumns { stages: if lathe.banjo.is_some() { hi.max(2) } else { hi }, mesh: false }
 }
 
 fn header(first: &[&str], lathe: &Lathe) -> Vec<String> {
@@ -51,7 +53,7 @@ fn setup_fields(s: &Setup, pitch: &Pitch, lathe: &Lathe) -> Vec<String> {
         s.fit.idler.map_or(String::new(), |z| z.to_string()),
         s.leadscrew().to_string(),
         s.train.ratio.to_string(),
-        s.train.meshes().to_string(),
+        s.meshes().to_string(),
         decimals(pitch.in_own_unit(s.pitch_cut_mm.value.to_f64()), 6),
         pitch.own_unit().to_string(),
         decimals(s.lead_cut_mm.value.to_f64(), 6),
@@ -64,10 +66,9 @@ fn setup_fields(s: &Setup, pitch: &Pitch, lathe: &Lathe) -> Vec<String> {
         idler,
         s.fit.stud_mesh_inner.map_or(String::new(), |b| b.to_string()),
     ];
-    let mut train = TrainJson::from_train(&s.train);
-    // The stages as they sit on the machine, stud first.
-    train.stages = s.fit.order.iter().filter_map(|&k| train.stages.get(k).cloned()).collect();
-    row.extend(stage_columns(lathe).cells(&train));
+    // The stages as they sit on the machine, stud first (the setup's train is in that order
+    // already), an idler as two.
+    row.extend(stage_columns(lathe).cells(&TrainJson::from_train(&s.mounted_train())));
     row
 }
 

@@ -4,6 +4,7 @@
 
 use super::{ChartReport, ThreadReport};
 use crate::model::pool::fmt_num;
+use crate::model::train::standard_centre_distance_mm;
 use crate::report::words::{describe_error, describe_tolerance, group_thousands, THREAD_CAUTION};
 use crate::report::{Document, Table};
 use crate::trades::thread::pitch::Pitch;
@@ -68,10 +69,18 @@ fn setup_cells(s: &Setup, lathe: &Lathe, pitch: &Pitch) -> Vec<String> {
         format!("{:+.4} {unit}", s.lead_error(pitch))
     };
     let error = if s.is_exact() { "exact".to_string() } else { describe_error(&s.pitch_error) };
+    let mounted = s.mounted_train();
     let banjo = match (s.fit.stud_mesh_inner, s.fit.intermediate_from_leadscrew_mm) {
         (Some(true), Some(r)) => format!("stud mesh inner; int. stud {} mm", fmt_num(r)),
         (Some(false), Some(r)) => format!("leadscrew mesh inner; int. stud {} mm", fmt_num(r)),
-        (None, Some(r)) => format!("idler stud {} mm", fmt_num(r)),
+        (None, Some(r)) => {
+            let centres: Vec<String> = mounted
+                .stages
+                .iter()
+                .map(|x| fmt_num(standard_centre_distance_mm(x.module_mm, x.driver.teeth, x.driven.teeth)))
+                .collect();
+            format!("idler stud {} mm; centres {} mm", fmt_num(r), centres.join(" and "))
+        }
         _ if lathe.banjo.is_some() && s.train.stages.len() == 1 => "direct mesh".to_string(),
         _ => "-".to_string(),
     };
@@ -81,6 +90,7 @@ fn setup_cells(s: &Setup, lathe: &Lathe, pitch: &Pitch) -> Vec<String> {
         idler,
         if mids.is_empty() { "-".to_string() } else { mids.join("; ") },
         s.leadscrew().to_string(),
+        format!("{}, {} way", mounted.meshes(), mounted.direction().as_str()),
         pitch.show(s.pitch_cut_mm.value.to_f64()),
         error,
         lead,
@@ -88,12 +98,13 @@ fn setup_cells(s: &Setup, lathe: &Lathe, pitch: &Pitch) -> Vec<String> {
     ]
 }
 
-const SETUP_HEAD: [&str; 9] = [
+const SETUP_HEAD: [&str; 10] = [
     "box",
     "stud",
     "idler",
     "intermediate",
     "leadscrew",
+    "meshes",
     "pitch cut",
     "pitch error",
     "lead error",

@@ -75,7 +75,8 @@ pub struct PositionJson {
 impl SetupJson {
     /// The JSON view of a setup for a thread of `pitch`.
     pub fn from_setup(s: &Setup, pitch: &Pitch) -> SetupJson {
-        let mut train = TrainJson::from_train(&s.train);
+        // Every mesh the machine has: an idler is two stages, stud → idler → leadscrew.
+        let mut train = TrainJson::from_train(&s.mounted_train());
         train.error = s.pitch_error.to_f64();
         SetupJson {
             train,

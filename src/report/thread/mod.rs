@@ -55,8 +55,8 @@ impl Report for ThreadReport<'_> {
     /// The best setup, its stages from the stud (shaft 1) to the leadscrew.
     fn drawing(&self) -> Option<Drawing> {
         let best = self.plan.setups.first()?;
-        let mut train = TrainJson::from_train(&best.train);
-        train.stages = best.fit.order.iter().filter_map(|&k| train.stages.get(k).cloned()).collect();
+        // Stud first (the setup's train is in that order already), an idler as its two meshes.
+        let train = TrainJson::from_train(&best.mounted_train());
         let title = format!(
             "Setup 1 for {}: stud {} … leadscrew {}",
             self.plan.thread.pitch,

@@ -25,7 +25,7 @@ use crate::error::{Error, Quantity, Result};
 use crate::model::pool::Pool;
 use crate::model::problem::{Problem, StageLimits, TrainCheck};
 use crate::model::rank::DEFAULT_RANK;
-use crate::model::train::Train;
+use crate::model::train::{Gear, Stage, Train};
 use crate::numbers::range::IntRange;
 use crate::numbers::rational::{Ratio, RelError};
 use crate::numbers::target::Target;
@@ -143,6 +143,26 @@ impl Setup {
         out
     }
 
+    /// The train as it turns on the machine, stud to leadscrew: a simple setup through an idler
+    /// is two meshes, stud → idler and idler → leadscrew, each at its own centre distance, so
+    /// the leadscrew turns the same way as the stud. The ratio is unchanged (the idler's teeth
+    /// cancel).
+    pub fn mounted_train(&self) -> Train {
+        let (Some(zi), [s]) = (self.fit.idler, self.train.stages.as_slice()) else {
+            return self.train.clone();
+        };
+        let idler = Gear { teeth: zi, labels: Vec::new() };
+        // A worked-out mesh was of the direct pair, which the machine does not have.
+        let to_idler = Stage { driven: idler.clone(), mesh: None, ..s.clone() };
+        let from_idler = Stage { driver: idler, mesh: None, ..s.clone() };
+        Train { stages: vec![to_idler, from_idler], ..self.train.clone() }
+    }
+
+    /// Meshes on the machine, the idler's two included.
+    pub fn meshes(&self) -> usize {
+        self.train.meshes() + usize::from(self.fit.idler.is_some())
+    }
+
     /// Teeth on the stud.
     pub fn stud(&self) -> u32 {
         self.train.stages[0].driver.teeth
@@ -198,7 +218,7 @@ fn widened(t: Ratio) -> Ratio {
 fn by_quality(a: &Setup, b: &Setup) -> Ordering {
     a.pitch_error
         .cmp_abs(&b.pitch_error)
-        .then(a.train.meshes().cmp(&b.train.meshes()))
+        .then(a.meshes().cmp(&b.meshes()))
         .then(a.train.size().cmp(&b.train.size()))
 }
 
@@ -214,6 +234,9 @@ impl Lathe {
             DEFAULT_RANK.to_vec(),
             limit,
         )?;
+        // Equal gears turn the leadscrew at the stud's speed: through an idler (40 → idler → 40
+        // cuts the leadscrew's own pitch) or on a compound stud they are an ordinary setup.
+        p.equal_teeth_stages = true;
         let banjo = if geometry { self.banjo.clone() } else { None };
         let pool = self.pool.clone();
         p.train_check = Some(TrainCheck::new(move |t: &Train| {
