@@ -6,7 +6,7 @@
 //! The JSON contract:
 //!
 //! ```text
-//! {"schema_version": 2,
+//! {"schema_version": 3,
 //!  "inputs": {"teeth": [z1, z2], "module_mm": f64, "diametral_pitch": f64 (inch input only),
 //!             "pressure_angle_deg": f64, "rack": {"addendum", "dedendum", "root_radius"},
 //!             "mounting": {"shifted": {"shift": [x1, x2]}}

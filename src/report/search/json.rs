@@ -2,7 +2,7 @@
 //! `docs/output-fields.md`):
 //!
 //! ```text
-//! {"schema_version": 2,
+//! {"schema_version": 3,
 //!  "target": {"ratio": "<as given>", "value": f64, "tolerance": f64, "exact": "p/q"},
 //!  "gears": "<the gears searched>", "stage_counts": [n, …], "stage_options": n,
 //!  "mesh_checks": bool, "mixed_modules": bool,
