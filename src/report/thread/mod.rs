@@ -3,11 +3,11 @@
 pub mod csv;
 pub mod document;
 pub mod json;
+pub mod picture;
 
 use std::io::Write;
 
-use super::fields::TrainJson;
-use super::{pictures, Completion, Document, Drawing, RenderError, Report};
+use super::{Completion, Document, Drawing, RenderError, Report};
 use crate::trades::thread::chart::Chart;
 use crate::trades::thread::{Lathe, Rejected, ThreadPlan};
 
@@ -52,18 +52,16 @@ impl Report for ThreadReport<'_> {
         json::write_thread(self, w)
     }
 
-    /// The best setup, its stages from the stud (shaft 1) to the leadscrew.
+    /// The best setup from the stud to the leadscrew, on the banjo when one is described.
     fn drawing(&self) -> Option<Drawing> {
         let best = self.plan.setups.first()?;
-        let mut train = TrainJson::from_train(&best.train);
-        train.stages = best.fit.order.iter().filter_map(|&k| train.stages.get(k).cloned()).collect();
         let title = format!(
             "Setup 1 for {}: stud {} … leadscrew {}",
             self.plan.thread.pitch,
             best.stud(),
             best.leadscrew()
         );
-        Some(pictures::train(&train.stages, &title, ("stud", "leadscrew")))
+        Some(picture::setup(best, self.lathe.banjo.as_ref(), &title))
     }
 }
 
