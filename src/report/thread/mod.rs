@@ -85,4 +85,17 @@ impl Report for ChartReport<'_> {
     fn json(&self, w: &mut dyn Write) -> Result<(), RenderError> {
         json::write_chart(self, w)
     }
+
+    /// Each reachable thread's best setup, in chart order, on the banjo when one is described.
+    fn figures(&self) -> Vec<Drawing> {
+        self.chart
+            .rows
+            .iter()
+            .filter_map(|row| {
+                let best = row.best.as_ref()?;
+                let title = format!("{}: stud {} … leadscrew {}", row.label, best.stud(), best.leadscrew());
+                Some(picture::setup(best, self.lathe.banjo.as_ref(), &title))
+            })
+            .collect()
+    }
 }
