@@ -1,6 +1,7 @@
 //! Compare a browser's screenshot of an SVG gearsieve wrote with resvg's render of the same
 //! file: `cargo run --example picture_check -- FILE.svg SHOT.png` (`--size FILE.svg` prints the
-//! size in CSS pixels the browser window needs). Used by
+//! size in CSS pixels the browser window needs; `--not-blank SHOT.png W H` checks a screenshot
+//! of a page, an HTML page for one, taken in a W×H window: its size, and ink on it). Used by
 //! `scripts/browser-check.sh`; exits non-zero, saying why, when the screenshot is blank, the
 //! wrong size, or shows something else than the drawing.
 
@@ -124,6 +125,23 @@ fn check(svg_path: &str, shot_path: &str) -> Result<String, String> {
     Ok(format!("{sw}×{sh} px, ink in {covered} of 576 cells, correlation with resvg {r:.3}"))
 }
 
+/// A screenshot of a page taken in a `w`×`h` window: that size (times the device scale factor)
+/// and ink in enough of it to be a page, not a blank or an error screen.
+fn not_blank(shot_path: &str, w: &str, h: &str) -> Result<String, String> {
+    let shot = Pixmap::load_png(shot_path).map_err(|e| format!("{shot_path}: {e}"))?;
+    let (w, h): (u32, u32) = (w.parse().map_err(|_| "W: a number")?, h.parse().map_err(|_| "H: a number")?);
+    let (sw, sh) = (shot.width(), shot.height());
+    let factor = (sw / w.max(1)).max(1);
+    if sw != w * factor || sh != h * factor {
+        return Err(format!("the screenshot is {sw}×{sh} px, the window {w}×{h} px at scale {factor}"));
+    }
+    let covered = ink(&shot, 24).iter().filter(|&&c| c > 0.0).count();
+    if covered < 60 {
+        return Err(format!("the screenshot is nearly blank ({covered} of 576 cells hold ink)"));
+    }
+    Ok(format!("{sw}×{sh} px, ink in {covered} of 576 cells"))
+}
+
 /// The size in CSS pixels a browser gives the drawing: `W H`.
 fn size(svg_path: &str) -> Result<String, String> {
     let svg = std::fs::read_to_string(svg_path).map_err(|e| format!("{svg_path}: {e}"))?;
@@ -148,8 +166,25 @@ fn main() -> ExitCode {
             };
         }
     }
+    if let [flag, shot, w, h] = &args[..] {
+        if flag == "--not-blank" {
+            return match not_blank(shot, w, h) {
+                Ok(said) => {
+                    println!("{shot}: {said}");
+                    ExitCode::SUCCESS
+                }
+                Err(why) => {
+                    eprintln!("{shot}: {why}");
+                    ExitCode::FAILURE
+                }
+            };
+        }
+    }
     let [svg, shot] = &args[..] else {
-        eprintln!("usage: picture_check FILE.svg SHOT.png, or picture_check --size FILE.svg");
+        eprintln!(
+            "usage: picture_check FILE.svg SHOT.png, picture_check --size FILE.svg, or \
+             picture_check --not-blank SHOT.png W H"
+        );
         return ExitCode::from(2);
     };
     match check(svg, shot) {

@@ -1,7 +1,9 @@
 #!/usr/bin/env bash
 # Open gearsieve's pictures in a real browser: headless Chromium (Debian package `chromium`,
 # installed when missing) takes a screenshot of each SVG, and examples/picture_check compares
-# it with resvg's render of the same file (size, not blank, the same drawing). Run by .ci/run.
+# it with resvg's render of the same file (size, not blank, the same drawing); the HTML chart
+# page (a thread chart with each setup drawn on the banjo) is checked for size and ink. Run by
+# .ci/run.
 set -euo pipefail
 cd "$(dirname "$0")/.."
 
@@ -30,4 +32,9 @@ for svg in "$dir"/*.svg; do
         --window-size="$w,$h" --screenshot="$shot" "file://$svg" >/dev/null 2>&1
     "$check" "$svg" "$shot"
 done
+"$g" chart --series iso-coarse --leadscrew 8tpi --stock catalogs/lathe-change-gears.csv \
+    --banjo catalogs/lathe/brackenfold.banjo --format html >"$dir/chart.html"
+chromium --headless --no-sandbox --disable-gpu --hide-scrollbars \
+    --window-size=900,1300 --screenshot="$dir/chart.png" "file://$dir/chart.html" >/dev/null 2>&1
+"$check" --not-blank "$dir/chart.png" 900 1300
 echo "browser check passed"

@@ -232,7 +232,7 @@ fn bad_input_gets_one_line_and_exit_2() {
         ),
         (
             &["search", "--ratio", "2", "--format", "xml"],
-            "--format: \"xml\" is not one of table, csv, json, markdown, svg",
+            "--format: \"xml\" is not one of table, csv, json, markdown, svg, html",
         ),
         (
             &["search", "--ratio", "2", "--threads", "0"],

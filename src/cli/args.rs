@@ -22,6 +22,8 @@ pub enum FormatArg {
     Markdown,
     /// A drawing of the best result to scale (mm), as SVG.
     Svg,
+    /// A self-contained page to print on A4 (a chart adds a drawing of each setup).
+    Html,
 }
 
 impl From<FormatArg> for Format {
@@ -32,6 +34,7 @@ impl From<FormatArg> for Format {
             FormatArg::Json => Format::Json,
             FormatArg::Markdown => Format::Markdown,
             FormatArg::Svg => Format::Svg,
+            FormatArg::Html => Format::Html,
         }
     }
 }

@@ -197,7 +197,7 @@ mod tests {
         );
         assert_eq!(
             line(&["search", "--ratio", "2", "--format", "xml"]).as_deref(),
-            Some("--format: \"xml\" is not one of table, csv, json, markdown, svg")
+            Some("--format: \"xml\" is not one of table, csv, json, markdown, svg, html")
         );
         assert_eq!(
             line(&["search", "--ratio", "2", "--threads", "0"]).as_deref(),

@@ -12,7 +12,7 @@
 //! is in [`words`], once.
 //!
 //! - [`document`]: the format-neutral [`Document`] of titles, lines, lists and tables.
-//! - [`text`], [`markdown`]: sinks of a document.
+//! - [`text`], [`markdown`], [`html`]: sinks of a document (HTML with the result's figures).
 //! - [`drawing`], [`svg`], [`pictures`]: the format-neutral [`Drawing`], its SVG sink, and the
 //!   pictures of trains and pairs.
 //! - [`search`], [`mesh`], [`thread`], [`clock`], [`reducer`], [`planetary`]: one folder per result family,
@@ -22,6 +22,7 @@ pub mod clock;
 pub mod document;
 pub mod drawing;
 pub mod fields;
+pub mod html;
 pub mod markdown;
 pub mod mesh;
 pub mod pictures;
@@ -56,10 +57,12 @@ pub enum Format {
     Markdown,
     /// A drawing to scale, for the eye, a printer or a cutter.
     Svg,
+    /// One self-contained page to print on A4, with the result's figures drawn inline.
+    Html,
 }
 
 impl Format {
-    /// The format's name as users write it: `table`, `csv`, `json`, `markdown`.
+    /// The format's name as users write it: `table`, `csv`, `json`, `markdown`, `svg`, `html`.
     pub fn name(self) -> &'static str {
         match self {
             Format::Table => "table",
@@ -67,6 +70,7 @@ impl Format {
             Format::Json => "json",
             Format::Markdown => "markdown",
             Format::Svg => "svg",
+            Format::Html => "html",
         }
     }
 }
@@ -144,6 +148,18 @@ pub trait Report {
             self.drawing().ok_or(RenderError::NotOffered { format: Format::Svg, kind: self.kind() })?;
         Ok(svg::write(&drawing, w)?)
     }
+
+    /// Drawings the HTML page shows after the document (a chart's setups); none by default.
+    fn figures(&self) -> Vec<Drawing> {
+        Vec::new()
+    }
+
+    /// An HTML page: the document and the figures.
+    fn html(&self, w: &mut dyn Write) -> Result<(), RenderError> {
+        let doc =
+            self.document().ok_or(RenderError::NotOffered { format: Format::Html, kind: self.kind() })?;
+        Ok(html::write(&doc, &self.figures(), w)?)
+    }
 }
 
 /// A borrowed result presents as the result itself.
@@ -183,6 +199,14 @@ impl<T: Report + ?Sized> Report for &T {
     fn svg(&self, w: &mut dyn Write) -> Result<(), RenderError> {
         (**self).svg(w)
     }
+
+    fn figures(&self) -> Vec<Drawing> {
+        (**self).figures()
+    }
+
+    fn html(&self, w: &mut dyn Write) -> Result<(), RenderError> {
+        (**self).html(w)
+    }
 }
 
 /// Render `report` in `format` to `w`.
@@ -193,6 +217,7 @@ pub fn render(report: &dyn Report, format: Format, w: &mut dyn Write) -> Result<
         Format::Json => report.json(w),
         Format::Markdown => report.markdown(w),
         Format::Svg => report.svg(w),
+        Format::Html => report.html(w),
     }
 }
 

@@ -17,7 +17,7 @@ use crate::model::pool::fmt_num;
 const PICTURE_TOLERANCE_MM: f64 = 0.01;
 
 /// Letter height of labels, mm, for a picture whose largest gear has radius `r_mm`.
-fn label_mm(r_mm: f64) -> f64 {
+pub fn label_mm(r_mm: f64) -> f64 {
     (r_mm / 8.0).clamp(2.0, 6.0)
 }
 
@@ -67,12 +67,13 @@ fn stage_gears(
     from: [f64; 2],
     to: [f64; 2],
     back: bool,
+    driver_rotation: Option<f64>,
 ) -> [GearAt; 2] {
     let shift = s.shift.unwrap_or([0.0, 0.0]);
     let tip = |i: usize, z: u32| {
         s.tip_diameter_mm.map_or(s.module_mm * (z as f64 + 2.0 * (rack.addendum + shift[i])), |t| t[i])
     };
-    let outlines = stage_outlines(s, rack, shift, from, to);
+    let outlines = stage_outlines(s, rack, shift, from, to, driver_rotation);
     let gear = |i: usize, centre: [f64; 2], teeth: u32| GearAt {
         shaft: k + i,
         centre,
@@ -88,7 +89,8 @@ fn stage_gears(
 }
 
 /// Both gears' outlines and rotations for a pair meshing tight with these shifts along the line
-/// from `from` to `to`, backlash split; `None` when the geometry cannot work the pair out (the
+/// from `from` to `to`, backlash split, the driver turned by `driver_rotation` (radians from the
+/// x axis; by default a tooth points along the line); `None` when the geometry cannot work the pair out (the
 /// picture then shows tip and root circles).
 fn stage_outlines(
     s: &StageJson,
@@ -96,6 +98,7 @@ fn stage_outlines(
     shift: [f64; 2],
     from: [f64; 2],
     to: [f64; 2],
+    driver_rotation: Option<f64>,
 ) -> Option<[(Outline, f64); 2]> {
     let system = ToothSystem::new(s.module_mm, s.pressure_angle_deg, rack).ok()?;
     let teeth = [s.driver, s.driven];
@@ -103,7 +106,10 @@ fn stage_outlines(
     let heading = (to[1] - from[1]).atan2(to[0] - from[0]);
     let outline =
         |i: usize| gear_outline(&system, teeth[i], shift[i], mesh.tip_shortening, PICTURE_TOLERANCE_MM).ok();
-    Some([(outline(0)?, heading), (outline(1)?, heading + mesh_rotation(&mesh, 0.0, BacklashSide::Split))])
+    // The mesh's own frame runs along the line of centres.
+    let driver = driver_rotation.unwrap_or(heading);
+    let driven = heading + mesh_rotation(&mesh, driver - heading, BacklashSide::Split);
+    Some([(outline(0)?, driver), (outline(1)?, driven)])
 }
 
 /// What the first and the last shaft of a train are called in the trade's words: `input` and
@@ -119,16 +125,54 @@ pub fn train(stages: &[StageJson], title: &str, names: ShaftNames) -> Drawing {
 /// A train drawn to scale on shafts laid out as `layout` says (a reverted train folded back
 /// onto its input axis, for one).
 pub fn train_laid_out(stages: &[StageJson], title: &str, names: ShaftNames, layout: ShaftLayout) -> Drawing {
-    let rack = RackProfile::default();
     let distances: Vec<f64> = stages
         .iter()
         .map(|s| s.working_centre_distance_mm.unwrap_or(s.reference_centre_distance_mm))
         .collect();
     let shafts = shaft_centres(&distances, layout);
-    let mut gears = Vec::new();
+    // Successive meshes alternate between the front and the back plane.
+    let back: Vec<bool> = (0..stages.len()).map(|k| k % 2 == 1).collect();
+    let at = Arrangement { shafts: &shafts, back: &back, idler: false, dimensions_close_left: false };
+    train_on_centres(stages, &at, title, names)
+}
+
+/// Where the shafts of a train stand and how its gears sit on them, for
+/// [`train_on_centres`].
+#[derive(Debug, Clone, Copy)]
+pub struct Arrangement<'a> {
+    /// The shaft centres, mm, y up: one more than the stages.
+    pub shafts: &'a [[f64; 2]],
+    /// Per stage: whether its gears are in the back plane.
+    pub back: &'a [bool],
+    /// Whether every shaft between the first and the last carries one gear, driven by one
+    /// stage and driving the next (an idler): drawn once and turned to mesh with both.
+    pub idler: bool,
+    /// Whether each centre distance is dimensioned close to the left of its line of centres
+    /// (outside a train that bends to the right, as on a banjo) instead of on its right clear
+    /// of every gear.
+    pub dimensions_close_left: bool,
+}
+
+/// A train drawn to scale on shafts arranged as `at` says.
+pub fn train_on_centres(stages: &[StageJson], at: &Arrangement, title: &str, names: ShaftNames) -> Drawing {
+    let Arrangement { shafts, back, idler, dimensions_close_left } = *at;
+    let rack = RackProfile::default();
+    let distances: Vec<f64> = stages
+        .iter()
+        .map(|s| s.working_centre_distance_mm.unwrap_or(s.reference_centre_distance_mm))
+        .collect();
+    let mut gears: Vec<GearAt> = Vec::new();
     for (k, s) in stages.iter().enumerate() {
-        // Successive meshes alternate between the front and the back plane.
-        gears.extend(stage_gears(s, k, rack, shafts[k], shafts[k + 1], k % 2 == 1));
+        let (Some(&from), Some(&to)) = (shafts.get(k), shafts.get(k + 1)) else { break };
+        let plane = back.get(k).copied().unwrap_or(false);
+        let shared =
+            if idler && k > 0 { gears.last().map(|g| g.outline.as_ref().map(|o| o.1)) } else { None };
+        let [driver, driven] = stage_gears(s, k, rack, from, to, plane, shared.flatten());
+        // The idler is the previous stage's driven gear, already drawn.
+        if shared.is_none() {
+            gears.push(driver);
+        }
+        gears.push(driven);
     }
     let largest = gears.iter().map(|g| g.tip_diameter_mm / 2.0).fold(0.0, f64::max);
     let left = gears.iter().map(|g| g.centre[0] - g.tip_diameter_mm / 2.0).fold(0.0, f64::min);
@@ -141,7 +185,8 @@ pub fn train_laid_out(stages: &[StageJson], title: &str, names: ShaftNames, layo
     }
     // Each centre distance dimensioned beside its line of centres, on the right of the way the
     // train runs (below an in-line train), clear of the gears.
-    let clear = largest + 1.5 * text;
+    let clear = if dimensions_close_left { -2.5 * text } else { largest + 1.5 * text };
+    let side = clear.signum();
     for (k, pair) in shafts.windows(2).enumerate() {
         let (p, q) = (pair[0], pair[1]);
         shapes.push(Shape::Line { from: p, to: q, pen: Pen::Centre });
@@ -160,7 +205,7 @@ pub fn train_laid_out(stages: &[StageJson], title: &str, names: ShaftNames, layo
         let fits = 0.6 * text * figure.chars().count() as f64 <= len * u[0].abs().max(u[1].abs());
         let row = if fits || k % 2 == 0 { 1.0 } else { 2.2 };
         let mid = [(a[0] + b[0]) / 2.0, (a[1] + b[1]) / 2.0];
-        shapes.push(Shape::Text { at: off(mid, row * text), text: figure, size_mm: text });
+        shapes.push(Shape::Text { at: off(mid, side * row * text), text: figure, size_mm: text });
     }
     // Shafts numbered beside their centres; what each carries is in the notes.
     let mut carries = Vec::new();

@@ -74,8 +74,20 @@ fn wrap(text: &str, width: usize) -> Vec<String> {
     lines
 }
 
-/// Write `drawing` as SVG.
+/// Write `drawing` as a standalone SVG file.
 pub fn write(drawing: &Drawing, w: &mut dyn Write) -> io::Result<()> {
+    writeln!(w, r#"<?xml version="1.0" encoding="UTF-8"?>"#)?;
+    write_element(drawing, r#" xmlns="http://www.w3.org/2000/svg""#, w)
+}
+
+/// Write `drawing` as one `<svg>` element to sit inside an HTML page: no XML declaration, and
+/// no namespace, which HTML gives its `<svg>` elements itself.
+pub fn write_inline(drawing: &Drawing, w: &mut dyn Write) -> io::Result<()> {
+    write_element(drawing, "", w)
+}
+
+/// The `<svg>` element, with `namespace` among its attributes.
+fn write_element(drawing: &Drawing, namespace: &str, w: &mut dyn Write) -> io::Result<()> {
     let [x0, y0, x1, y1] = drawing.bounds().unwrap_or([0.0, 0.0, 10.0, 10.0]);
     let width = x1 - x0 + 2.0 * MARGIN_MM;
     // Text in proportion to a small drawing, never above TEXT_MM; notes wrapped to the page
@@ -89,10 +101,9 @@ pub fn write(drawing: &Drawing, w: &mut dyn Write) -> io::Result<()> {
     // Drawing coordinates (y up) into the page (y down): page = (x − x0 + m, y1 + m + title − y).
     let top = MARGIN_MM + 1.6 * text_mm;
     let (dx, dy) = (MARGIN_MM - x0, top + y1);
-    writeln!(w, r#"<?xml version="1.0" encoding="UTF-8"?>"#)?;
     writeln!(
         w,
-        r#"<svg xmlns="http://www.w3.org/2000/svg" width="{}mm" height="{}mm" viewBox="0 0 {} {}">"#,
+        r#"<svg{namespace} width="{}mm" height="{}mm" viewBox="0 0 {} {}">"#,
         n(width),
         n(height),
         n(width),

@@ -3,11 +3,11 @@
 pub mod csv;
 pub mod document;
 pub mod json;
+pub mod picture;
 
 use std::io::Write;
 
-use super::fields::TrainJson;
-use super::{pictures, Completion, Document, Drawing, RenderError, Report};
+use super::{Completion, Document, Drawing, RenderError, Report};
 use crate::trades::thread::chart::Chart;
 use crate::trades::thread::{Lathe, Rejected, ThreadPlan};
 
@@ -52,18 +52,16 @@ impl Report for ThreadReport<'_> {
         json::write_thread(self, w)
     }
 
-    /// The best setup, its stages from the stud (shaft 1) to the leadscrew.
+    /// The best setup from the stud to the leadscrew, on the banjo when one is described.
     fn drawing(&self) -> Option<Drawing> {
         let best = self.plan.setups.first()?;
-        // Stud first (the setup's train is in that order already), an idler as its two meshes.
-        let train = TrainJson::from_train(&best.mounted_train());
         let title = format!(
             "Setup 1 for {}: stud {} … leadscrew {}",
             self.plan.thread.pitch,
             best.stud(),
             best.leadscrew()
         );
-        Some(pictures::train(&train.stages, &title, ("stud", "leadscrew")))
+        Some(picture::setup(best, self.lathe.banjo.as_ref(), &title))
     }
 }
 
@@ -86,5 +84,18 @@ impl Report for ChartReport<'_> {
 
     fn json(&self, w: &mut dyn Write) -> Result<(), RenderError> {
         json::write_chart(self, w)
+    }
+
+    /// Each reachable thread's best setup, in chart order, on the banjo when one is described.
+    fn figures(&self) -> Vec<Drawing> {
+        self.chart
+            .rows
+            .iter()
+            .filter_map(|row| {
+                let best = row.best.as_ref()?;
+                let title = format!("{}: stud {} … leadscrew {}", row.label, best.stud(), best.leadscrew());
+                Some(picture::setup(best, self.lathe.banjo.as_ref(), &title))
+            })
+            .collect()
     }
 }

@@ -301,6 +301,71 @@ impl Banjo {
     }
 }
 
+/// Where the shafts of a setup sit on the banjo, in mm in the plane of the gears: the leadscrew
+/// axis at the origin, the stud on the negative x axis at the stud-to-leadscrew distance, and
+/// the intermediate (or idler) stud, when there is one, above that line (y ≥ 0). Of the two
+/// points at the right distances from both axes the upper one is taken: a fixed choice, so
+/// pictures of setups compare; the lower one is its mirror image and serves as well.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct Placement {
+    /// The stud axis, mm.
+    pub stud: [f64; 2],
+    /// The intermediate or idler stud, mm; `None` when the stud gear meshes the leadscrew gear
+    /// directly.
+    pub intermediate: Option<[f64; 2]>,
+    /// The leadscrew axis (the origin), mm.
+    pub leadscrew: [f64; 2],
+}
+
+impl Placement {
+    /// The axes in order from the stud to the leadscrew.
+    pub fn shafts(&self) -> Vec<[f64; 2]> {
+        let mut out = vec![self.stud];
+        out.extend(self.intermediate);
+        out.push(self.leadscrew);
+        out
+    }
+}
+
+impl Banjo {
+    /// The intermediate stud's centre, mm, when it sits `intermediate_from_leadscrew_mm` from
+    /// the leadscrew and `stud_mesh_mm` (the stud-side centre distance) from the stud: the upper
+    /// meeting point of the two circles (see [`Placement`]). `None` when the circles do not
+    /// meet (the triangle does not close).
+    pub fn intermediate_at(
+        &self,
+        stud_mesh_mm: f64,
+        intermediate_from_leadscrew_mm: f64,
+    ) -> Option<[f64; 2]> {
+        let (d, a, r) = (self.stud_to_leadscrew_mm, stud_mesh_mm, intermediate_from_leadscrew_mm);
+        // |P| = r and |P − (−d, 0)| = a give r² + 2·d·x + d² = a².
+        let x = (a * a - r * r - d * d) / (2.0 * d);
+        let y2 = r * r - x * x;
+        // A triangle closed to within the fit's slack is flat, not open.
+        if y2 < -2.0 * r.max(a) * SLACK_MM {
+            return None;
+        }
+        Some([x, y2.max(0.0).sqrt()])
+    }
+
+    /// Where the shafts of `train`, placed on this banjo as `fit` says, sit. `None` for a train
+    /// this model does not place (three or more stages) or a fit that does not close.
+    pub fn placement(&self, train: &Train, fit: &Fit) -> Option<Placement> {
+        let stud = [-self.stud_to_leadscrew_mm, 0.0];
+        let leadscrew = [0.0, 0.0];
+        let first = train.stages.get(*fit.order.first()?)?;
+        let stud_mesh_mm = match (train.stages.len(), fit.idler) {
+            (1, Some(zi)) => standard_centre_distance_mm(first.module_mm, first.driver.teeth, zi),
+            (1, None) => return Some(Placement { stud, intermediate: None, leadscrew }),
+            (2, _) => first.centre_distance_mm(),
+            _ => return None,
+        };
+        let r = fit.intermediate_from_leadscrew_mm?;
+        let intermediate = Some(self.intermediate_at(stud_mesh_mm, r)?);
+        Some(Placement { stud, intermediate, leadscrew })
+    }
+}
+
 /// Tooth counts of the gears left over once `train` has taken its own, in the mesh group of a
 /// one-stage train, ascending: the candidates for an idler.
 pub fn spare_idlers(train: &Train, pool: &Pool) -> Vec<u32> {
@@ -524,6 +589,61 @@ mod tests {
         // A 25 idler: 33.75 + 48.75 mm cannot reach 120 mm.
         let why = banjo().fit(&t, &pool(&[20, 25, 40])).unwrap_err();
         assert!(why[0].contains("25 idler"), "{why:?}");
+    }
+
+    fn distance(p: [f64; 2], q: [f64; 2]) -> f64 {
+        (p[0] - q[0]).hypot(p[1] - q[1])
+    }
+
+    #[test]
+    fn a_compound_setup_is_placed_at_its_centre_distances() {
+        for (stages, teeth) in [
+            (vec![stage(20, 60), stage(40, 80)], vec![20, 60, 40, 80]),
+            (vec![stage(30, 45), stage(50, 70)], vec![30, 45, 50, 70]),
+        ] {
+            let t = train(stages);
+            let b = banjo();
+            let f = b.fit(&t, &pool(&teeth)).unwrap();
+            let p = b.placement(&t, &f).unwrap();
+            let (s1, s2) = (&t.stages[f.order[0]], &t.stages[f.order[1]]);
+            let i = p.intermediate.unwrap();
+            assert!((distance(p.stud, p.leadscrew) - 120.0).abs() < 1e-9);
+            assert!((distance(p.stud, i) - s1.centre_distance_mm()).abs() < 1e-9);
+            assert!((distance(i, p.leadscrew) - s2.centre_distance_mm()).abs() < 1e-9);
+            assert!(b.intermediate_from_leadscrew_mm.contains(distance(i, p.leadscrew), 0.0));
+            assert!(i[1] >= 0.0, "above the line stud–leadscrew: {i:?}");
+            assert_eq!(p.shafts(), vec![p.stud, i, p.leadscrew]);
+        }
+    }
+
+    #[test]
+    fn an_idler_is_placed_between_stud_and_leadscrew_gears() {
+        // 20→40 through an 80 idler: 75 mm from the stud, 90 mm from the leadscrew; 75² + 90²
+        // = 13725 < 120² = 14400, so the idler stands just short of a right angle at itself.
+        let t = train(vec![stage(20, 40)]);
+        let b = banjo();
+        let f = b.fit(&t, &pool(&[20, 40, 80])).unwrap();
+        let p = b.placement(&t, &f).unwrap();
+        let i = p.intermediate.unwrap();
+        assert!((distance(p.stud, i) - 75.0).abs() < 1e-9);
+        assert!((distance(i, p.leadscrew) - 90.0).abs() < 1e-9);
+        assert!(b.intermediate_from_leadscrew_mm.contains(distance(i, p.leadscrew), 0.0));
+        assert!(i[1] > 0.0);
+    }
+
+    #[test]
+    fn direct_meshes_and_open_triangles() {
+        // 40→120 at module 1.5 spans exactly 120 mm: no intermediate stud.
+        let t = train(vec![stage(40, 120)]);
+        let b = banjo();
+        let f = b.fit(&t, &pool(&[40, 120])).unwrap();
+        let p = b.placement(&t, &f).unwrap();
+        assert_eq!(p.intermediate, None);
+        assert_eq!(p.shafts(), vec![[-120.0, 0.0], [0.0, 0.0]]);
+        // 30 + 40 mm cannot reach across 120 mm; a flat triangle (50 + 70) closes on the line.
+        assert_eq!(b.intermediate_at(30.0, 40.0), None);
+        let flat = b.intermediate_at(50.0, 70.0).unwrap();
+        assert!((flat[0] + 70.0).abs() < 1e-9 && flat[1].abs() < 1e-6, "{flat:?}");
     }
 
     #[test]
