@@ -174,6 +174,7 @@ fn draw_refuses_what_it_cannot_draw() {
         (vec!["draw", "--gear", "20", "--profile", "gear.svg", "--tolerance", "0"], "--tolerance"),
         (vec!["draw", "--gear", "20", "--profile", "gear.svg", "--module", "0"], "--module"),
         (vec!["draw", "--from", "/no/such/file.json"], "--from"),
+        (vec!["draw", "--stages", "20:40,15:45", "--line-of-action", "3"], "--line-of-action"),
     ] {
         let r = gearsieve(&args);
         assert_eq!(r.code, 2, "{args:?}: {}", r.stdout);
@@ -181,4 +182,15 @@ fn draw_refuses_what_it_cannot_draw() {
         assert!(line.starts_with(&format!("gearsieve: {flag}: ")), "{args:?}: {line}");
         assert_eq!(line.lines().count(), 1, "{line}");
     }
+}
+
+#[test]
+fn the_line_of_action_is_drawn_on_request() {
+    let r = gearsieve(&["draw", "--stages", "20:40,15:45", "--module", "2", "--line-of-action", "2"]);
+    assert_eq!(r.code, 0, "{}", r.stderr);
+    // Unshifted at the reference centre distance, the working pressure angle is 20°.
+    assert!(r.stdout.contains("αw = 20°"), "{}", r.stdout);
+    assert_eq!(r.stdout.matches("stroke=\"#d9822b\"").count(), 1);
+    let plain = gearsieve(&["draw", "--stages", "20:40,15:45", "--module", "2"]);
+    assert!(!plain.stdout.contains("αw ="));
 }

@@ -39,6 +39,9 @@ pub struct DrawArgs {
     /// Which listed train of --from to draw, from 1.
     #[arg(long, value_name = "N", default_value_t = 1, requires = "from")]
     pub train: usize,
+    /// Draw the line of action and the working pressure angle of stage K (from 1).
+    #[arg(long, value_name = "K", conflicts_with = "gear")]
+    pub line_of_action: Option<usize>,
     /// One gear's tooth count, for --profile.
     #[arg(long, value_name = "Z", requires = "profile")]
     pub gear: Option<u32>,
@@ -93,8 +96,18 @@ fn parse_stages(text: &str, module_mm: f64, pressure_angle_deg: f64) -> anyhow::
         .collect()
 }
 
+/// `--line-of-action K` names a stage of a train of `stages` stages.
+fn check_stage(k: Option<usize>, stages: usize) -> anyhow::Result<()> {
+    match k {
+        Some(k) if k == 0 || k > stages => {
+            Err(refuse("--line-of-action", format!("the train has stages 1 to {stages}; found {k}")))
+        }
+        _ => Ok(()),
+    }
+}
+
 /// Train `n` (from 1) of a search's JSON file.
-fn train_from(path: &Path, n: usize) -> anyhow::Result<TrainPicture> {
+fn train_from(path: &Path, n: usize, line_of_action: Option<usize>) -> anyhow::Result<TrainPicture> {
     let name = path.display().to_string();
     let text = std::fs::read_to_string(path)
         .map_err(|e| refuse("--from", format!("{name}: cannot read it: {e}")))?;
@@ -104,11 +117,13 @@ fn train_from(path: &Path, n: usize) -> anyhow::Result<TrainPicture> {
     let Some(train) = n.checked_sub(1).and_then(|i| doc.trains.get(i)) else {
         return Err(refuse("--train", format!("{name} lists trains 1 to {listed}; found {n}")));
     };
+    check_stage(line_of_action, train.stages.len())?;
     Ok(TrainPicture {
         title: format!("Train {n} of {name}: i = {} for ratio {}", train.ratio, doc.target.ratio),
         stages: train.stages.clone(),
         names: ("input".into(), "output".into()),
         layout: ShaftLayout::Inline,
+        line_of_action,
     })
 }
 
@@ -120,16 +135,18 @@ impl TryFrom<DrawArgs> for DrawJob {
         let module = check_module(a.module, &|m| Error::value(Quantity::Module, m))?;
         let pa = check_pressure_angle(a.pressure_angle, &|m| Error::value(Quantity::PressureAngle, m))?;
         if let Some(path) = &a.from {
-            return Ok(DrawJob::Train(train_from(path, a.train)?));
+            return Ok(DrawJob::Train(train_from(path, a.train, a.line_of_action)?));
         }
         if let Some(text) = &a.stages {
             let stages = parse_stages(text, module, pa)?;
+            check_stage(a.line_of_action, stages.len())?;
             let list: Vec<String> = stages.iter().map(|s| format!("{}→{}", s.driver, s.driven)).collect();
             return Ok(DrawJob::Train(TrainPicture {
                 title: format!("Train {}, module {} mm", list.join(" "), module),
                 stages,
                 names: ("input".into(), "output".into()),
                 layout: ShaftLayout::Inline,
+                line_of_action: a.line_of_action,
             }));
         }
         let (Some(teeth), Some(file)) = (a.gear, a.profile) else {

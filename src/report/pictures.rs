@@ -259,6 +259,45 @@ pub struct TrainPicture {
     pub names: (String, String),
     /// How its shafts are laid out.
     pub layout: ShaftLayout,
+    /// The stage (from 1) whose line of action and working pressure angle are drawn.
+    pub line_of_action: Option<usize>,
+}
+
+/// Add the line of action of the mesh from `driver` to `driven` (shaft centres, mm): the common
+/// tangent of the two base circles through the pitch point, inclined at the working pressure
+/// angle to the perpendicular of the line of centres, with the angle written beside it.
+pub fn add_line_of_action(d: &mut Drawing, stage: &StageJson, driver: [f64; 2], driven: [f64; 2]) {
+    let a = (driven[0] - driver[0]).hypot(driven[1] - driver[1]);
+    if a <= 0.0 {
+        return;
+    }
+    let u = [(driven[0] - driver[0]) / a, (driven[1] - driver[1]) / a];
+    let n = [-u[1], u[0]];
+    let base = |z: u32| stage.module_mm * f64::from(z) * stage.pressure_angle_deg.to_radians().cos() / 2.0;
+    // At the drawn centre distance: cos αw = (rb1 + rb2) / a (the ISO 21771 relation), so the
+    // line is tangent to both circles as drawn.
+    let cos_w = (base(stage.driver) + base(stage.driven)) / a;
+    let alpha_w = if cos_w <= 1.0 {
+        cos_w.acos().to_degrees()
+    } else {
+        stage.working_pressure_angle_deg.unwrap_or(stage.pressure_angle_deg)
+    };
+    let (s, c) = alpha_w.to_radians().sin_cos();
+    // The radius to each tangent point is perpendicular to the line of action.
+    let e = [c * u[0] - s * n[0], c * u[1] - s * n[1]];
+    let t1 = [driver[0] + base(stage.driver) * e[0], driver[1] + base(stage.driver) * e[1]];
+    let t2 = [driven[0] - base(stage.driven) * e[0], driven[1] - base(stage.driven) * e[1]];
+    d.shapes.push(Shape::Line { from: t1, to: t2, pen: Pen::Action });
+    let text = label_mm(a / 6.0);
+    let pitch = stage.driver as f64 / f64::from(stage.driver + stage.driven);
+    let at =
+        [driver[0] + u[0] * a * pitch + n[0] * 2.0 * text, driver[1] + u[1] * a * pitch + n[1] * 2.0 * text];
+    d.shapes.push(Shape::Text { at, text: format!("αw = {}°", fmt_num(alpha_w)), size_mm: text });
+    d.notes.push(format!(
+        "Orange dashed: the line of action, tangent to both base circles, at the working pressure \
+         angle αw = {}° (contact runs along it between the tip circles).",
+        fmt_num(alpha_w)
+    ));
 }
 
 impl Report for TrainPicture {
@@ -290,6 +329,59 @@ impl Report for TrainPicture {
     }
 
     fn drawing(&self) -> Option<Drawing> {
-        Some(train_laid_out(&self.stages, &self.title, (&self.names.0, &self.names.1), self.layout))
+        let mut d = train_laid_out(&self.stages, &self.title, (&self.names.0, &self.names.1), self.layout);
+        if let Some(k) = self.line_of_action.and_then(|k| k.checked_sub(1)) {
+            let distances: Vec<f64> = self
+                .stages
+                .iter()
+                .map(|s| s.working_centre_distance_mm.unwrap_or(s.reference_centre_distance_mm))
+                .collect();
+            let shafts = shaft_centres(&distances, self.layout);
+            if let (Some(stage), Some(&from), Some(&to)) =
+                (self.stages.get(k), shafts.get(k), shafts.get(k + 1))
+            {
+                add_line_of_action(&mut d, stage, from, to);
+            }
+        }
+        Some(d)
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    /// The line of action is tangent to both base circles (ISO 21771: rb = m·z·cos α / 2) and
+    /// crosses the line of centres at the pitch point, a·z1/(z1 + z2) from the driver.
+    #[test]
+    fn the_line_of_action_touches_both_base_circles_through_the_pitch_point() {
+        let mut stage = StageJson::plain(17, 53, 2.0, 20.0);
+        stage.working_pressure_angle_deg = Some(22.1108);
+        let (c1, c2) = ([0.0, 0.0], [71.0, 0.0]);
+        let mut d = Drawing::default();
+        add_line_of_action(&mut d, &stage, c1, c2);
+        let Some(Shape::Line { from: t1, to: t2, pen: Pen::Action }) = d.shapes.first().cloned() else {
+            panic!("no line of action: {:?}", d.shapes)
+        };
+        let rb = |z: f64| 2.0 * z * 20f64.to_radians().cos() / 2.0;
+        let dist = |p: [f64; 2], q: [f64; 2]| (p[0] - q[0]).hypot(p[1] - q[1]);
+        assert!((dist(t1, c1) - rb(17.0)).abs() < 1e-9);
+        assert!((dist(t2, c2) - rb(53.0)).abs() < 1e-9);
+        // Tangent: the line is perpendicular to each radius.
+        let along = [t2[0] - t1[0], t2[1] - t1[1]];
+        let dot = |r: [f64; 2]| along[0] * r[0] + along[1] * r[1];
+        assert!(dot([t1[0] - c1[0], t1[1] - c1[1]]).abs() < 1e-9);
+        assert!(dot([t2[0] - c2[0], t2[1] - c2[1]]).abs() < 1e-9);
+        // Through the pitch point, at the working pressure angle to the common tangent.
+        let pitch = 71.0 * 17.0 / 70.0;
+        let k = (pitch - t1[0]) / along[0];
+        assert!((t1[1] + k * along[1]).abs() < 1e-9);
+        // 70·cos 20° / 71 = cos αw: 22.1108° (the mesh check's figure for this pair).
+        let angle = (along[0] / along[1]).abs().atan().to_degrees();
+        assert!(
+            (angle - (70.0 * 20f64.to_radians().cos() / 71.0).acos().to_degrees()).abs() < 1e-9,
+            "{angle}"
+        );
+        assert!((angle - 22.1108).abs() < 1e-4, "{angle}");
     }
 }

@@ -127,7 +127,9 @@ impl Report for MeshReport<'_> {
             fmt_num(g.shift[0]),
             fmt_num(g.shift[1])
         );
-        Some(pictures::train(&[stage], &title, ("driver", "driven")))
+        let mut d = pictures::train(std::slice::from_ref(&stage), &title, ("driver", "driven"));
+        pictures::add_line_of_action(&mut d, &stage, [0.0, 0.0], [g.centre_distance_mm, 0.0]);
+        Some(d)
     }
 }
 
