@@ -4,26 +4,10 @@
 
 mod common;
 
-use common::{gearsieve, json};
+use common::{gearsieve, json, render};
 
 const STOCK: &str = "catalogs/lathe-change-gears.csv";
 const BANJO: &str = "catalogs/lathe/brackenfold.banjo";
-
-/// Render an SVG document to pixels, `scale` pixels per mm of its `viewBox`.
-fn render(svg: &str, scale: f32) -> resvg::tiny_skia::Pixmap {
-    let tree = resvg::usvg::Tree::from_str(svg, &resvg::usvg::Options::default()).expect("a valid SVG");
-    let view_box_width: f32 = svg
-        .split("viewBox=\"")
-        .nth(1)
-        .and_then(|v| v.split(' ').nth(2))
-        .and_then(|w| w.parse().ok())
-        .expect("a viewBox");
-    let k = scale * view_box_width / tree.size().width();
-    let size = tree.size().to_int_size().scale_by(k).expect("a size");
-    let mut pixmap = resvg::tiny_skia::Pixmap::new(size.width(), size.height()).expect("a pixmap");
-    resvg::render(&tree, resvg::tiny_skia::Transform::from_scale(k, k), &mut pixmap.as_mut());
-    pixmap
-}
 
 /// Closed paths drawn with the pen of a gear's outline (front plane black, back plane grey):
 /// one per gear; the banjo's slot is closed too but drawn with the machine's pen.

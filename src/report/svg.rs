@@ -45,15 +45,9 @@ fn escape(s: &str) -> String {
     s.replace('&', "&amp;").replace('<', "&lt;").replace('>', "&gt;").replace('"', "&quot;")
 }
 
-/// A number for SVG: enough digits for 1 µm, none wasted.
+/// A number for SVG: enough digits for 0.1 µm, none wasted.
 fn n(v: f64) -> String {
-    let s = format!("{v:.4}");
-    let s = s.trim_end_matches('0').trim_end_matches('.');
-    if s == "-0" {
-        "0".into()
-    } else {
-        s.into()
-    }
+    super::fields::decimals(v, 4)
 }
 
 /// `text` cut into lines of at most `width` characters at spaces.

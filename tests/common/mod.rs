@@ -80,3 +80,21 @@ pub fn nothing_found(args: &[&str], message: &str) {
     assert_eq!(r.stderr, format!("gearsieve: {message}\n"), "{args:?}");
     assert_flags_named_once(&r.stderr);
 }
+
+/// Render an SVG document to pixels, `scale` pixels per mm (the drawings' user unit: their
+/// `viewBox` is in mm, their size says mm too).
+pub fn render(svg: &str, scale: f32) -> resvg::tiny_skia::Pixmap {
+    let tree = resvg::usvg::Tree::from_str(svg, &resvg::usvg::Options::default()).expect("a valid SVG");
+    let view_box_width: f32 = svg
+        .split("viewBox=\"")
+        .nth(1)
+        .and_then(|v| v.split(' ').nth(2))
+        .and_then(|w| w.parse().ok())
+        .expect("a viewBox");
+    // usvg sizes the tree in CSS pixels; one viewBox unit is one mm.
+    let k = scale * view_box_width / tree.size().width();
+    let size = tree.size().to_int_size().scale_by(k).expect("a size");
+    let mut pixmap = resvg::tiny_skia::Pixmap::new(size.width(), size.height()).expect("a pixmap");
+    resvg::render(&tree, resvg::tiny_skia::Transform::from_scale(k, k), &mut pixmap.as_mut());
+    pixmap
+}
