@@ -75,6 +75,7 @@ fn problem_strategy() -> impl Strategy<Value = Problem> {
                         pressure_angle_deg: 20.0,
                         quantity,
                         label: String::new(),
+                        made: Some(Default::default()),
                     })
                     .collect();
                 Pool::from_stock(&stock, "random").ok()

@@ -7,9 +7,12 @@
 //! space decides, the tally keeps.
 
 use std::sync::atomic::{AtomicBool, AtomicU64, Ordering as AtomicOrdering};
+use std::sync::{Mutex, OnceLock};
 
+use crate::geometry::Making;
 use crate::geometry::{
-    check_mesh, mesh_geometry, shift_for_centre_distance, MeshDefect, MeshGeometry, Mounting, ToothSystem,
+    check_mesh, common_windows, mesh_as_made, running_window, MeshDefect, MeshGeometry, MeshLimits,
+    ToothSystem,
 };
 use crate::model::pool::{MeshGroup, MAX_STAGES};
 use crate::model::problem::{MeshRules, Problem};
@@ -32,6 +35,9 @@ pub struct StageDef {
     pub value: f64,
     /// The worked-out mesh, when the problem checks geometry at a known centre distance.
     pub mesh: Option<MeshGeometry>,
+    /// What is wrong with the gears on hand of this stage as they are made (undercut, pointed
+    /// tips, low contact ratio), found whether or not the problem checks meshes.
+    pub made_defects: Vec<MeshDefect>,
 }
 
 /// The rejection kind of trains that could not be made coaxial; counted per train, so it adds
@@ -54,20 +60,55 @@ fn defect_kind(d: &MeshDefect) -> String {
     dbg.split([' ', '{', '(']).next().unwrap_or("").to_string()
 }
 
-/// Work out one stage's mesh under `rules` at its known centre distance (the fixed one, or the
-/// standard one with the undercut split of a zero shift sum), and check it runs.
-fn stage_mesh(rules: &MeshRules, group: &MeshGroup, teeth: [u32; 2]) -> Result<MeshGeometry, MeshDefect> {
+/// Work out one stage's mesh under `rules` at its known centre distance (the fixed one, or as
+/// close as the gears go: gears to cut with the undercut split of a zero shift sum), and check
+/// it runs. Gears on hand keep their shift and tip (see [`mesh_as_made`]).
+fn stage_mesh(
+    rules: &MeshRules,
+    group: &MeshGroup,
+    teeth: [u32; 2],
+    made: Making,
+) -> Result<MeshGeometry, MeshDefect> {
     let sys = ToothSystem::new(group.module_mm, group.pressure_angle_deg, rules.rack)?;
     let standard = sys.standard_centre_distance_mm(teeth);
-    let mesh = match rules.centre_distance_mm {
-        Some(a_w) if (a_w - standard).abs() > rules.centre_tolerance_mm => {
-            shift_for_centre_distance(&sys, teeth, a_w, &(rules.shift_sum.0..=rules.shift_sum.1))?
-        }
-        _ => mesh_geometry(&sys, teeth, Mounting::Shifted { shift: sys.split_shift_sum(teeth, 0.0) })?,
+    let at = match rules.centre_distance_mm {
+        // Gears to cut this close to a fixed distance are cut standard.
+        Some(a_w) if made == [None, None] && (a_w - standard).abs() <= rules.centre_tolerance_mm => None,
+        at => at,
     };
+    let mesh = mesh_as_made(
+        &sys,
+        teeth,
+        made,
+        at,
+        &(rules.shift_sum.0..=rules.shift_sum.1),
+        rules.centre_tolerance_mm,
+    )?;
     match check_mesh(&mesh, &rules.limits).first() {
         Some(d) => Err(*d),
         None => Ok(mesh),
+    }
+}
+
+/// What is wrong with a stage of gears on hand as they are, mounted tight, judged by the default
+/// limits: reported on every listing, whether or not the search checks meshes.
+fn made_defects(group: &MeshGroup, teeth: [u32; 2], made: Making) -> Vec<MeshDefect> {
+    let Ok(sys) = ToothSystem::new(group.module_mm, group.pressure_angle_deg, Default::default()) else {
+        return Vec::new();
+    };
+    let range = crate::model::problem::DEFAULT_SHIFT_SUM.0..=crate::model::problem::DEFAULT_SHIFT_SUM.1;
+    match mesh_as_made(&sys, teeth, made, None, &range, 0.0) {
+        Ok(m) => check_mesh(&m, &MeshLimits::default())
+            .into_iter()
+            // Only what the gears on hand bring: a gear to cut could be shifted clear.
+            .filter(|d| match d {
+                MeshDefect::Undercut { gear, .. } | MeshDefect::PointedTip { gear, .. } => {
+                    made[gear.index].is_some()
+                }
+                _ => made.iter().all(Option::is_some),
+            })
+            .collect(),
+        Err(d) => vec![d],
     }
 }
 
@@ -86,6 +127,10 @@ pub struct SearchSpace<'p> {
     /// Stage pairings left out by the mesh checks, by kind, most first.
     pub rejected: Vec<Rejection>,
     coaxial_misfits: AtomicU64,
+    /// The first train (by stage indices) that found no common centre distance, and why.
+    first_misfit: Mutex<Option<(Vec<u32>, String)>>,
+    /// Each stage's running window, worked out when a coaxial train first needs it.
+    windows: Vec<OnceLock<Vec<(f64, f64)>>>,
     cancel: Option<&'p AtomicBool>,
 }
 
@@ -125,17 +170,21 @@ impl<'p> SearchSpace<'p> {
                 }
                 let mesh = match per_stage_mesh {
                     None => None,
-                    Some(rules) => match stage_mesh(rules, &pool.groups[a.group], [a.teeth, b.teeth]) {
-                        Ok(m) => Some(m),
-                        Err(d) => {
-                            let kind = defect_kind(&d);
-                            match rejected.iter_mut().find(|r| r.kind == kind) {
-                                Some(r) => r.count += 1,
-                                None => rejected.push(Rejection { kind, count: 1, example: d.to_string() }),
+                    Some(rules) => {
+                        match stage_mesh(rules, &pool.groups[a.group], [a.teeth, b.teeth], [a.made, b.made]) {
+                            Ok(m) => Some(m),
+                            Err(d) => {
+                                let kind = defect_kind(&d);
+                                match rejected.iter_mut().find(|r| r.kind == kind) {
+                                    Some(r) => r.count += 1,
+                                    None => {
+                                        rejected.push(Rejection { kind, count: 1, example: d.to_string() })
+                                    }
+                                }
+                                continue;
                             }
-                            continue;
                         }
-                    },
+                    }
                 };
                 stages.push(StageDef {
                     driver: i as u32,
@@ -144,6 +193,11 @@ impl<'p> SearchSpace<'p> {
                     driven_teeth: b.teeth,
                     value: b.teeth as f64 / a.teeth as f64,
                     mesh,
+                    made_defects: if a.made.is_some() || b.made.is_some() {
+                        made_defects(&pool.groups[a.group], [a.teeth, b.teeth], [a.made, b.made])
+                    } else {
+                        Vec::new()
+                    },
                 });
             }
         }
@@ -164,6 +218,8 @@ impl<'p> SearchSpace<'p> {
         let values = stages.iter().map(|s| s.value).collect();
         let r = problem.target.ratio.to_f64();
         let t = problem.target.tolerance.to_f64();
+        let coaxial = problem.mesh.as_ref().is_some_and(|r| r.coaxial && r.centre_distance_mm.is_none());
+        let windows = if coaxial { stages.iter().map(|_| OnceLock::new()).collect() } else { Vec::new() };
         SearchSpace {
             problem,
             stages,
@@ -172,6 +228,8 @@ impl<'p> SearchSpace<'p> {
             hi: r * (1.0 + t) * (1.0 + FLOAT_MARGIN),
             rejected,
             coaxial_misfits: AtomicU64::new(0),
+            first_misfit: Mutex::new(None),
+            windows,
             cancel,
         }
     }
@@ -206,9 +264,18 @@ impl<'p> SearchSpace<'p> {
             size += s.driver_teeth + s.driven_teeth;
             span = span.max(pool.module_of(s.driver as usize) * s.driver_teeth.max(s.driven_teeth) as f64);
         }
-        if self.needs_coaxial_fit() && self.coaxial_meshes(idx).is_none() {
-            self.coaxial_misfits.fetch_add(1, AtomicOrdering::Relaxed);
-            return None;
+        if self.needs_coaxial_fit() {
+            if let Err(why) = self.coaxial_fit(idx) {
+                self.coaxial_misfits.fetch_add(1, AtomicOrdering::Relaxed);
+                // Keep the first by stage indices, so the example is the same whatever the
+                // thread count.
+                if let Ok(mut first) = self.first_misfit.lock() {
+                    if first.as_ref().is_none_or(|(f, _)| idx < f.as_slice()) {
+                        *first = Some((idx.to_vec(), why));
+                    }
+                }
+                return None;
+            }
         }
         let mut c = Candidate { stages, len: idx.len() as u8, error, size, span_mm: span, extra: 0.0 };
         if self.problem.train_check.is_some() || self.problem.extra_key.is_some() {
@@ -249,36 +316,94 @@ impl<'p> SearchSpace<'p> {
         self.problem.mesh.as_ref().is_some_and(|r| r.coaxial && r.centre_distance_mm.is_none())
     }
 
-    /// For a coaxial train without a fixed distance: one working centre distance every stage
-    /// can reach within the shift-sum range (the one nearest the mean of their standard
-    /// distances), and each stage's mesh there, if all run.
-    pub fn coaxial_meshes(&self, idx: &[u32]) -> Option<Vec<MeshGeometry>> {
-        let rules = self.problem.mesh.as_ref()?;
-        let pool = &self.problem.pool;
-        let mut systems = Vec::with_capacity(idx.len());
-        let (mut lo, mut hi, mut mean) = (f64::NEG_INFINITY, f64::INFINITY, 0.0);
-        for &i in idx {
+    /// A stage's running window: the centre distances at which it runs (see [`running_window`]).
+    fn window(&self, i: u32, rules: &MeshRules) -> &[(f64, f64)] {
+        self.windows[i as usize].get_or_init(|| {
+            let pool = &self.problem.pool;
             let s = &self.stages[i as usize];
             let g = &pool.groups[pool.gears[s.driver as usize].group];
-            let sys = ToothSystem::new(g.module_mm, g.pressure_angle_deg, rules.rack).ok()?;
-            let teeth = [s.driver_teeth, s.driven_teeth];
-            lo = lo.max(sys.centre_distance_for_shift_sum(teeth, rules.shift_sum.0)?);
-            hi = hi.min(sys.centre_distance_for_shift_sum(teeth, rules.shift_sum.1)?);
-            mean += sys.standard_centre_distance_mm(teeth) / idx.len() as f64;
-            systems.push((sys, teeth));
+            let made = [pool.gears[s.driver as usize].made, pool.gears[s.driven as usize].made];
+            match ToothSystem::new(g.module_mm, g.pressure_angle_deg, rules.rack) {
+                Ok(sys) => running_window(
+                    &sys,
+                    [s.driver_teeth, s.driven_teeth],
+                    made,
+                    &(rules.shift_sum.0..=rules.shift_sum.1),
+                    rules.centre_tolerance_mm,
+                    &rules.limits,
+                ),
+                Err(_) => Vec::new(),
+            }
+        })
+    }
+
+    /// For a coaxial train without a fixed distance: the working centre distance every stage
+    /// runs at, and each stage's mesh there. The stages' running windows (every distance at
+    /// which the stage passes every check, within the shift-sum range; for gears on hand, from
+    /// their tight distance to the centre-distance tolerance beyond it) are intersected, and the
+    /// middle of the widest common interval is taken: the distance furthest from every limit.
+    pub fn coaxial_meshes(&self, idx: &[u32]) -> Option<Vec<MeshGeometry>> {
+        self.coaxial_fit(idx).ok()
+    }
+
+    /// [`Self::coaxial_meshes`], or why the stages share no distance, in shop words.
+    fn coaxial_fit(&self, idx: &[u32]) -> Result<Vec<MeshGeometry>, String> {
+        let rules = self.problem.mesh.as_ref().ok_or_else(String::new)?;
+        let pool = &self.problem.pool;
+        let name = |i: u32| {
+            let s = &self.stages[i as usize];
+            format!("{}→{}", s.driver_teeth, s.driven_teeth)
+        };
+        let windows: Vec<Vec<(f64, f64)>> = idx.iter().map(|&i| self.window(i, rules).to_vec()).collect();
+        if let Some(n) = windows.iter().position(Vec::is_empty) {
+            return Err(format!(
+                "stage {} runs at no centre distance its profile shift range reaches{}",
+                name(idx[n]),
+                if self.problem.pool.gears[self.stages[idx[n] as usize].driver as usize].made.is_some() {
+                    " (gears on hand mesh only near their own distance)"
+                } else {
+                    ""
+                }
+            ));
         }
-        if lo > hi {
-            return None;
-        }
-        let a_w = mean.clamp(lo, hi);
-        // Widen the range by a hair so the ends of the interval, found by the inverse formula,
-        // are not lost to rounding on the way back.
+        let common = common_windows(&windows);
+        let Some(&(lo, hi)) = common.iter().fold(None, |best: Option<&(f64, f64)>, w| match best {
+            Some(b) if b.1 - b.0 >= w.1 - w.0 => Some(b),
+            _ => Some(w),
+        }) else {
+            let runs: Vec<String> = idx
+                .iter()
+                .zip(&windows)
+                .enumerate()
+                .map(|(n, (&i, w))| {
+                    let spans: Vec<String> = w.iter().map(|(a, b)| format!("{a:.3}–{b:.3} mm")).collect();
+                    format!("{} {}at {}", name(i), if n == 0 { "runs only " } else { "" }, spans.join(" or "))
+                })
+                .collect();
+            return Err(format!("no centre distance suits every stage: {}", runs.join(", ")));
+        };
+        let a_w = 0.5 * (lo + hi);
         let range = (rules.shift_sum.0 - 1e-9)..=(rules.shift_sum.1 + 1e-9);
-        systems
-            .iter()
-            .map(|(sys, teeth)| {
-                let m = shift_for_centre_distance(sys, *teeth, a_w, &range).ok()?;
-                check_mesh(&m, &rules.limits).is_empty().then_some(m)
+        idx.iter()
+            .map(|&i| {
+                let s = &self.stages[i as usize];
+                let g = &pool.groups[pool.gears[s.driver as usize].group];
+                let made = [pool.gears[s.driver as usize].made, pool.gears[s.driven as usize].made];
+                let sys = ToothSystem::new(g.module_mm, g.pressure_angle_deg, rules.rack)
+                    .map_err(|d| d.to_string())?;
+                let m = mesh_as_made(
+                    &sys,
+                    [s.driver_teeth, s.driven_teeth],
+                    made,
+                    Some(a_w),
+                    &range,
+                    rules.centre_tolerance_mm,
+                )
+                .map_err(|d| format!("stage {}: {d}", name(i)))?;
+                match check_mesh(&m, &rules.limits).first() {
+                    Some(d) => Err(format!("stage {} at {a_w:.3} mm: {d}", name(i))),
+                    None => Ok(m),
+                }
             })
             .collect()
     }
@@ -292,8 +417,13 @@ impl<'p> SearchSpace<'p> {
             r.push(Rejection {
                 kind: COAXIAL_MISFIT_KIND.into(),
                 count: misfits,
-                example: "trains within tolerance whose stages cannot all be shifted to one centre distance"
-                    .into(),
+                example: match self.first_misfit.lock().ok().and_then(|f| f.as_ref().map(|(_, w)| w.clone()))
+                {
+                    Some(why) => {
+                        format!("trains within tolerance whose stages share no centre distance, e.g. {why}")
+                    }
+                    None => "trains within tolerance whose stages share no centre distance".into(),
+                },
             });
         }
         r
@@ -321,6 +451,7 @@ impl<'p> SearchSpace<'p> {
                     pressure_angle_deg: group.pressure_angle_deg,
                     diametral_pitch: group.diametral_pitch,
                     mesh: coaxial.as_ref().map(|m| m[n]).or(s.mesh),
+                    on_hand_defects: s.made_defects.clone(),
                 }
             })
             .collect();

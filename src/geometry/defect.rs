@@ -77,6 +77,15 @@ pub enum MeshDefect {
         /// The least centre distance the cut gears fit at (tight mesh), mm.
         tight_mm: f64,
     },
+    /// Gears already made would stand further apart than the centre-distance tolerance allows.
+    TooMuchPlay {
+        /// The centre distance asked for, mm.
+        centre_distance_mm: f64,
+        /// The distance at which they mesh tight, mm.
+        tight_mm: f64,
+        /// How far beyond it they may stand, mm.
+        play_mm: f64,
+    },
     /// The profile shift sum lies outside the range allowed.
     ShiftSumOutOfRange {
         /// The shift sum x1 + x2 the centre distance needs, in modules.
@@ -148,6 +157,13 @@ impl fmt::Display for MeshDefect {
                 f,
                 "the gears as cut would jam at a centre distance of {centre_distance_mm:.3} mm: \
                  they need at least {tight_mm:.3} mm"
+            ),
+            MeshDefect::TooMuchPlay { centre_distance_mm, tight_mm, play_mm } => write!(
+                f,
+                "the gears as made mesh tight at {tight_mm:.3} mm; at {centre_distance_mm:.3} mm they \
+                 would stand {:.3} mm apart beyond that, more than the centre-distance tolerance of \
+                 {play_mm:.3} mm",
+                centre_distance_mm - tight_mm
             ),
             MeshDefect::ShiftSumOutOfRange { shift_sum, lo, hi } => write!(
                 f,

@@ -13,6 +13,8 @@
 //!   gears, tip shortening, contact ratio, backlash.
 //! - [`working`]: a whole [`MeshGeometry`] from a [`Mounting`], and [`shift_for_centre_distance`]
 //!   for a search.
+//! - [`made`]: pairs with gears already made (a gear on hand keeps its shift and tip; only a
+//!   gear to cut is shifted), and the window of centre distances at which a pair runs.
 //! - [`defect`]: the words for what can be wrong: [`MeshDefect`], [`GearRef`], [`Role`].
 //! - [`check`]: [`MeshLimits`] and [`check_mesh`].
 //! - [`internal`]: internal meshes (a pinion inside a ring gear): the ring's circles, working
@@ -32,6 +34,7 @@ pub mod defect;
 pub mod internal;
 pub mod involute;
 pub mod layout;
+pub mod made;
 pub mod modules;
 pub mod outline;
 pub mod pair;
@@ -41,6 +44,7 @@ pub mod working;
 pub use check::{check_mesh, MeshLimits};
 pub use defect::{GearRef, MeshDefect, Role};
 pub use involute::{inv, inv_inverse};
+pub use made::{common_windows, mesh_as_made, running_window, AsMade, Making};
 pub use modules::{
     is_standard_module, module_from_diametral_pitch, Series, MM_PER_INCH, MODULE_SERIES_I, MODULE_SERIES_II,
 };

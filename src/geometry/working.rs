@@ -245,7 +245,11 @@ fn unreachable(system: &ToothSystem, teeth: [u32; 2], centre_distance_mm: f64) -
 
 /// The working pressure angle at a centre distance that must be a positive finite length and
 /// beyond where the base circles touch.
-fn working_angle(system: &ToothSystem, teeth: [u32; 2], centre_distance_mm: f64) -> Result<f64, MeshDefect> {
+pub(super) fn working_angle(
+    system: &ToothSystem,
+    teeth: [u32; 2],
+    centre_distance_mm: f64,
+) -> Result<f64, MeshDefect> {
     if !(centre_distance_mm.is_finite() && centre_distance_mm > 0.0) {
         return Err(MeshDefect::InvalidInput {
             what: "the centre distance must be a positive number of millimetres",
@@ -267,9 +271,23 @@ fn assemble(
     centre_distance_mm: f64,
     alpha_w: f64,
 ) -> Result<MeshGeometry, MeshDefect> {
+    let tip: [f64; 2] = from_fn(|i| system.tip_diameter_mm(teeth[i], shift[i], tip_shortening));
+    assemble_with_tips(system, teeth, shift, tip, tip_shortening, centre_distance_mm, alpha_w)
+}
+
+/// [`assemble`] for gears whose tip diameters are known (gears already made, whose tips may
+/// differ from the tip their shift gives); `tip_shortening` is what is reported.
+pub(super) fn assemble_with_tips(
+    system: &ToothSystem,
+    teeth: [u32; 2],
+    shift: [f64; 2],
+    tip: [f64; 2],
+    tip_shortening: f64,
+    centre_distance_mm: f64,
+    alpha_w: f64,
+) -> Result<MeshGeometry, MeshDefect> {
     let m = system.module_mm();
     let a_w = centre_distance_mm;
-    let tip: [f64; 2] = from_fn(|i| system.tip_diameter_mm(teeth[i], shift[i], tip_shortening));
     let root: [f64; 2] = from_fn(|i| system.root_diameter_mm(teeth[i], shift[i]));
     let base: [f64; 2] = from_fn(|i| system.base_diameter_mm(teeth[i]));
     let min_shift: [f64; 2] = from_fn(|i| system.min_shift(teeth[i]));

@@ -9,6 +9,9 @@
 //!   default module the caller gives ([`CatalogueDefaults`]), and is an error without one;
 //! - `pressure_angle` (degrees, default 20);
 //! - `quantity` (whole number ≥ 1, default 1);
+//! - `shift` (the profile shift coefficient the gear was cut with, in modules, from -1 to 2;
+//!   default 0) and `tip_diameter_mm` (its tip diameter as measured, mm; default the tip as cut
+//!   for its shift): a gear on hand is used as it is made, never re-cut;
 //! - `label` (free text shown in results) and `note`/`notes` (free text, ignored).
 //!
 //! Lines starting with `#` are comments; a UTF-8 byte-order mark, CRLF line ends, quoted fields
@@ -19,7 +22,7 @@ use std::path::Path;
 
 use crate::error::{Error, Message, Quantity, Result};
 use crate::model::pool::{
-    check_diametral_pitch, check_module, check_pressure_angle, StockGear, MAX_TEETH, MIN_TEETH,
+    check_diametral_pitch, check_module, check_pressure_angle, AsMade, StockGear, MAX_TEETH, MIN_TEETH,
 };
 
 /// Defaults for cells a catalogue leaves empty.
@@ -37,8 +40,22 @@ impl Default for CatalogueDefaults {
     }
 }
 
-const KNOWN: &[&str] =
-    &["teeth", "module", "diametral_pitch", "pressure_angle", "quantity", "label", "note", "notes"];
+const KNOWN: &[&str] = &[
+    "teeth",
+    "module",
+    "diametral_pitch",
+    "pressure_angle",
+    "quantity",
+    "shift",
+    "tip_diameter_mm",
+    "label",
+    "note",
+    "notes",
+];
+
+/// Profile shift coefficients a catalogue row may give, in modules: wider than any gear is
+/// usually cut with, so only a slip (a shift in mm, say) is refused.
+pub const SHIFT_RANGE: (f64, f64) = (-1.0, 2.0);
 
 /// Read one catalogue file.
 pub fn load(path: &Path, defaults: CatalogueDefaults) -> Result<Vec<StockGear>> {
@@ -83,6 +100,7 @@ pub fn parse(bytes: &[u8], path: &Path, defaults: CatalogueDefaults) -> Result<V
         col("teeth").ok_or_else(|| file_err("has no teeth column; the header must name one".into()))?;
     let (module_col, dp_col, pa_col, qty_col, label_col) =
         (col("module"), col("diametral_pitch"), col("pressure_angle"), col("quantity"), col("label"));
+    let (shift_col, tip_col) = (col("shift"), col("tip_diameter_mm"));
 
     let mut out = Vec::new();
     for record in reader.records() {
@@ -172,7 +190,52 @@ pub fn parse(bytes: &[u8], path: &Path, defaults: CatalogueDefaults) -> Result<V
             None => 1,
         };
         let label = cell(label_col).unwrap_or("").to_string();
-        out.push(StockGear { teeth, module_mm, diametral_pitch: dp, pressure_angle_deg, quantity, label });
+        let shift = match cell(shift_col) {
+            Some(s) => s.parse::<f64>().ok().filter(|x| (SHIFT_RANGE.0..=SHIFT_RANGE.1).contains(x)).ok_or_else(
+                || {
+                    field_err(
+                        "shift",
+                        format!(
+                            "shift must be the profile shift coefficient in modules, from {} to {}, found \"{s}\"",
+                            SHIFT_RANGE.0, SHIFT_RANGE.1
+                        ),
+                    )
+                },
+            )?,
+            None => 0.0,
+        };
+        let tip_diameter_mm = match cell(tip_col) {
+            Some(s) => {
+                // The tip as cut, d + 2m(1 + x) for the usual rack; a measured tip far from it is
+                // a slip (inches, or the wrong gear), not a worn blank.
+                let as_cut = module_mm * (f64::from(teeth) + 2.0 * (1.0 + shift));
+                match s.parse::<f64>().ok().filter(|d| d.is_finite() && (d - as_cut).abs() <= module_mm) {
+                    Some(d) => Some(d),
+                    None => {
+                        return Err(field_err(
+                            "tip_diameter_mm",
+                            format!(
+                                "tip diameter must be the measured tip in mm, within one module of the {} mm \
+                                 a {teeth}-tooth gear of module {} with shift {} has as cut, found \"{s}\"",
+                                crate::model::pool::fmt_num(as_cut),
+                                crate::model::pool::fmt_num(module_mm),
+                                crate::model::pool::fmt_num(shift),
+                            ),
+                        ))
+                    }
+                }
+            }
+            None => None,
+        };
+        out.push(StockGear {
+            teeth,
+            module_mm,
+            diametral_pitch: dp,
+            pressure_angle_deg,
+            quantity,
+            label,
+            made: Some(AsMade { shift, tip_diameter_mm }),
+        });
     }
     if out.is_empty() {
         return Err(file_err("has a header but no gears".into()));

@@ -6,6 +6,7 @@
 //! stages or ratios.
 
 use crate::error::{Error, Quantity, Result};
+pub use crate::geometry::AsMade;
 use crate::numbers::range::IntRange;
 
 /// Fewest teeth a gear or pinion may have (clock pinions go down to 6 leaves; 3 is a hard floor).
@@ -43,7 +44,8 @@ impl MeshGroup {
     }
 }
 
-/// One kind of gear: all gears of this tooth count in this mesh group are interchangeable.
+/// One kind of gear: all gears of this tooth count in this mesh group, made alike, are
+/// interchangeable.
 #[derive(Debug, Clone, PartialEq)]
 pub struct GearKind {
     /// Tooth count (leaves, for a clock pinion).
@@ -54,6 +56,9 @@ pub struct GearKind {
     pub quantity: Option<u32>,
     /// Labels from the catalogue rows this kind came from, in file order.
     pub labels: Vec<String>,
+    /// How the gear was made, for a gear on hand; `None` for a gear still to be cut, whose
+    /// profile shift the search may choose.
+    pub made: Option<AsMade>,
 }
 
 /// A gear as read from a stock catalogue, before merging.
@@ -71,6 +76,9 @@ pub struct StockGear {
     pub quantity: u32,
     /// Free text from the catalogue, may be empty.
     pub label: String,
+    /// How the gear was made, for a gear on hand (a catalogue row); `None` for a gear a trade
+    /// lists to be cut, whose shift the search may choose.
+    pub made: Option<AsMade>,
 }
 
 /// The validated set of gears a search draws from.
@@ -78,7 +86,8 @@ pub struct StockGear {
 pub struct Pool {
     /// Mesh groups, in order of first appearance.
     pub groups: Vec<MeshGroup>,
-    /// Gear kinds, sorted by group then teeth; unique per (group, teeth).
+    /// Gear kinds, sorted by group, teeth, then how they were made; unique per (group, teeth,
+    /// made).
     pub gears: Vec<GearKind>,
     /// True when gears are drawn from stock (quantities apply).
     pub from_stock: bool,
@@ -137,7 +146,7 @@ impl Pool {
             return Err(teeth_err(format!("teeth must lie within {MIN_TEETH}..{MAX_TEETH}")));
         }
         let gears = (teeth.lo..=teeth.hi)
-            .map(|t| GearKind { teeth: t, group: 0, quantity: None, labels: Vec::new() })
+            .map(|t| GearKind { teeth: t, group: 0, quantity: None, labels: Vec::new(), made: None })
             .collect();
         let pool = Pool {
             groups: vec![MeshGroup { module_mm, pressure_angle_deg, diametral_pitch }],
@@ -171,7 +180,11 @@ impl Pool {
                     groups.len() - 1
                 }
             };
-            match gears.iter_mut().find(|k| k.group == group && k.teeth == g.teeth) {
+            let alike = |k: &&mut GearKind| match (&k.made, &g.made) {
+                (Some(a), Some(b)) => a.same_as(b),
+                (a, b) => a.is_none() && b.is_none(),
+            };
+            match gears.iter_mut().find(|k| k.group == group && k.teeth == g.teeth && alike(k)) {
                 Some(k) => {
                     // Nothing the user gave is silently capped: a total past u32 is refused.
                     let q = k.quantity.unwrap_or(0).checked_add(g.quantity).ok_or_else(|| {
@@ -191,13 +204,23 @@ impl Pool {
                     group,
                     quantity: Some(g.quantity),
                     labels: if g.label.is_empty() { Vec::new() } else { vec![g.label.clone()] },
+                    made: g.made,
                 }),
             }
         }
         if gears.is_empty() {
             return Err(place("no gears in stock".into()));
         }
-        gears.sort_by_key(|k| (k.group, k.teeth));
+        // Gears of one tooth count made differently sort by shift, then tip, so the order never
+        // depends on the order of the rows.
+        gears.sort_by(|a, b| {
+            let key =
+                |k: &GearKind| k.made.map(|m| (m.shift, m.tip_diameter_mm.unwrap_or(f64::NEG_INFINITY)));
+            (a.group, a.teeth).cmp(&(b.group, b.teeth)).then_with(|| match (key(a), key(b)) {
+                (Some(x), Some(y)) => x.partial_cmp(&y).unwrap_or(std::cmp::Ordering::Equal),
+                (x, y) => x.is_some().cmp(&y.is_some()),
+            })
+        });
         let pool = Pool { groups, gears, from_stock: true };
         pool.check_can_mesh(place)?;
         Ok(pool)
@@ -274,6 +297,7 @@ mod tests {
             pressure_angle_deg: 20.0,
             quantity: q,
             label: String::new(),
+            made: Some(AsMade::default()),
         }
     }
 

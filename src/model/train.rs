@@ -65,6 +65,9 @@ pub struct Stage {
     /// The worked-out mesh (profile shifts, working centre distance, contact ratio…) when the
     /// search checked geometry; gear 0 is the driver.
     pub mesh: Option<crate::geometry::MeshGeometry>,
+    /// What is wrong with this stage's gears on hand as they are made (undercut, pointed tips,
+    /// low contact ratio): shown on every listing, whether or not meshes were checked.
+    pub on_hand_defects: Vec<crate::geometry::MeshDefect>,
 }
 
 impl Stage {
@@ -78,6 +81,7 @@ impl Stage {
             pressure_angle_deg,
             diametral_pitch: None,
             mesh: None,
+            on_hand_defects: Vec::new(),
         }
     }
 

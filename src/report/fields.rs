@@ -153,7 +153,23 @@ fn mesh(s: &StageJson) -> [String; 7] {
 
 /// The cells every train row starts with: `ratio`, `value`, `error`, `meshes`, `direction`,
 /// `size`, `span_mm`.
-pub const TRAIN_HEADER: [&str; 7] = ["ratio", "value", "error", "meshes", "direction", "size", "span_mm"];
+pub const TRAIN_HEADER: [&str; 8] =
+    ["ratio", "value", "error", "meshes", "direction", "size", "span_mm", "on_hand_defects"];
+
+/// What is wrong with a train's gears on hand as they are made, stage by stage, in one line
+/// (`stage 1 (14→42): the 14-tooth pinion is undercut …`); empty when nothing is.
+pub fn on_hand_summary(train: &TrainJson) -> String {
+    let parts: Vec<String> = train
+        .stages
+        .iter()
+        .enumerate()
+        .filter(|(_, s)| !s.on_hand_defects.is_empty())
+        .map(|(n, s)| {
+            format!("stage {} ({}→{}): {}", n + 1, s.driver, s.driven, s.on_hand_defects.join("; "))
+        })
+        .collect();
+    parts.join("; ")
+}
 
 /// The [`TRAIN_HEADER`] cells of `train`.
 pub fn train_cells(train: &TrainJson) -> Vec<String> {
@@ -165,6 +181,7 @@ pub fn train_cells(train: &TrainJson) -> Vec<String> {
         train.direction.as_str().to_string(),
         train.size.to_string(),
         mm(train.span_mm),
+        on_hand_summary(train),
     ]
 }
 
@@ -226,6 +243,10 @@ pub struct StageJson {
     /// Tip diameters `[driver, driven]`, mm.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub tip_diameter_mm: Option<[f64; 2]>,
+    /// What is wrong with this stage's gears on hand as they are made, in shop words (absent
+    /// when nothing is).
+    #[serde(default, skip_serializing_if = "Vec::is_empty")]
+    pub on_hand_defects: Vec<String>,
 }
 
 impl StageJson {
@@ -245,6 +266,7 @@ impl StageJson {
             working_pressure_angle_deg: None,
             contact_ratio: None,
             tip_diameter_mm: None,
+            on_hand_defects: Vec::new(),
         }
     }
 }
@@ -277,6 +299,7 @@ impl TrainJson {
                     working_pressure_angle_deg: s.mesh.map(|m| m.working_pressure_angle_deg),
                     contact_ratio: s.mesh.map(|m| m.contact_ratio),
                     tip_diameter_mm: s.mesh.map(|m| m.tip_diameter_mm),
+                    on_hand_defects: s.on_hand_defects.iter().map(ToString::to_string).collect(),
                 })
                 .collect(),
         }

@@ -67,6 +67,7 @@ mod tests {
                 pressure_angle_deg: 20.0,
                 diametral_pitch: None,
                 mesh: None,
+                on_hand_defects: Vec::new(),
             })
             .collect();
         let r = Ratio::integer(1);

@@ -185,6 +185,7 @@ impl ReducerSpec {
                     pressure_angle_deg: 20.0,
                     quantity: 2 * MAX_STAGES as u32,
                     label: String::new(),
+                    made: None,
                 })
             })
             .collect();

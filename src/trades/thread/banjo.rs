@@ -478,6 +478,7 @@ mod tests {
                 pressure_angle_deg: 20.0,
                 quantity: 1,
                 label: String::new(),
+                made: Some(Default::default()),
             })
             .collect();
         Pool::from_stock(&g, "t").unwrap()
