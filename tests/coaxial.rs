@@ -149,3 +149,43 @@ fn shelf_gears_are_not_reshifted() {
     assert_eq!(v["trains"][0]["stages"][0]["shift"], serde_json::json!([0.2, 0.0]));
     let _ = std::fs::remove_dir_all(&dir);
 }
+
+#[test]
+fn the_reducer_shelf_case_shifts_no_gear_on_hand() {
+    // The case that showed shelf gears given shifts (15 teeth x +0.123, 14 teeth x +0.181):
+    // now every listed gear keeps x = 0, and no undercut 14- or 15-tooth pinion runs.
+    let args = [
+        "search",
+        "--ratio",
+        "37.5",
+        "--tol",
+        "0.5%",
+        "--stock",
+        "catalogs/reducer-stock.csv",
+        "--stages",
+        "3",
+    ];
+    let (code, v) = json(&[&args[..], &["--check-meshes", "--limit", "50"]].concat());
+    assert_eq!(code, 0);
+    assert!(v["count"].as_u64().unwrap() > 0);
+    for t in v["trains"].as_array().unwrap() {
+        for s in t["stages"].as_array().unwrap() {
+            assert_eq!(s["shift"], serde_json::json!([0.0, 0.0]), "{s}");
+            assert!(s["driver"].as_u64().unwrap() >= 17, "{s}");
+        }
+    }
+    // Without mesh checks the trains with those pinions are listed, and say what is wrong.
+    let (_, v) = json(&[&args[..], &["--limit", "200"]].concat());
+    let flagged = v["trains"]
+        .as_array()
+        .unwrap()
+        .iter()
+        .flat_map(|t| t["stages"].as_array().unwrap().iter())
+        .filter(|s| s["driver"].as_u64().unwrap() <= 15)
+        .inspect(|s| {
+            let d = s["on_hand_defects"].as_array().expect("defects of an undercut shelf pinion");
+            assert!(d.iter().any(|x| x.as_str().unwrap().contains("undercut")));
+        })
+        .count();
+    assert!(flagged > 0);
+}

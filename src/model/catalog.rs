@@ -294,6 +294,28 @@ mod tests {
     }
 
     #[test]
+    fn gears_on_hand_carry_their_shift_and_measured_tip() {
+        let g = p("teeth,module,shift,tip_diameter_mm\n14,2,0.2,32.6\n40,2,,\n").unwrap();
+        assert_eq!(g[0].made, Some(AsMade { shift: 0.2, tip_diameter_mm: Some(32.6) }));
+        assert_eq!(g[1].made, Some(AsMade::default()));
+        // A shift in mm, or a tip in inches, is refused with the row, column and what is wanted.
+        let e = p("teeth,module,shift\n14,2,2.5\n").unwrap_err().to_string();
+        assert!(
+            e.contains("row 2, column shift: shift must be the profile shift coefficient in modules"),
+            "{e}"
+        );
+        let e = p("teeth,module,tip_diameter_mm\n14,2,1.28\n").unwrap_err().to_string();
+        assert!(e.contains("column tip_diameter_mm") && e.contains("32 mm"), "{e}");
+        // Rows alike in every way merge; a differently cut gear of the same teeth stays apart.
+        let g = p("teeth,module,shift\n14,2,0.2\n14,2,0.2\n14,2,0\n40,2,0\n").unwrap();
+        let pool = crate::model::pool::Pool::from_stock(&g, "t.csv").unwrap();
+        let fourteen: Vec<_> = pool.gears.iter().filter(|k| k.teeth == 14).collect();
+        assert_eq!(fourteen.len(), 2);
+        assert_eq!((fourteen[0].quantity, fourteen[0].made.unwrap().shift), (Some(1), 0.0));
+        assert_eq!((fourteen[1].quantity, fourteen[1].made.unwrap().shift), (Some(2), 0.2));
+    }
+
+    #[test]
     fn bom_crlf_and_case_are_accepted() {
         let g = p("\u{feff}Teeth,Module\r\n30,1\r\n45,1\r\n").unwrap();
         assert_eq!(g.len(), 2);
