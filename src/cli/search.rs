@@ -101,7 +101,9 @@ pub struct SearchArgs {
     /// the mesh checks).
     #[arg(long, value_name = "A|LO..HI", allow_hyphen_values = true)]
     pub centre_distance: Option<String>,
-    /// How close a standard centre distance must be to a fixed one to need no shift, mm.
+    /// How close a standard centre distance must be to a fixed one to need no shift, mm; for
+    /// gears on hand (which are never re-cut), how far beyond their tight distance they may stand
+    /// at a fixed or coaxial distance (backlash opens, the working pressure angle rises).
     #[arg(long, value_name = "MM", default_value_t = gearsieve::model::problem::DEFAULT_CENTRE_TOLERANCE_MM, allow_negative_numbers = true, value_parser = number)]
     pub centre_tol: f64,
     /// Allowed profile shift sum x1+x2 per stage, in modules [default: -0.5..1].
