@@ -292,6 +292,8 @@ pub enum Quantity {
     CarrierOffset,
     /// The least gap between the tip circles of neighbouring planets, mm.
     PlanetClearance,
+    /// The gears on hand (stock catalogues) taken as a whole.
+    Stock,
 }
 
 impl Quantity {
@@ -356,6 +358,7 @@ impl Quantity {
             Quantity::DrivingMember => "the driving member",
             Quantity::CarrierOffset => "the carrier's offset from midway",
             Quantity::PlanetClearance => "the clearance between neighbouring planets",
+            Quantity::Stock => "the gears on hand",
         }
     }
 }

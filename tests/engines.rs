@@ -76,6 +76,7 @@ fn problem_strategy() -> impl Strategy<Value = Problem> {
                         quantity,
                         label: String::new(),
                         made: Some(Default::default()),
+                        internal: false,
                     })
                     .collect();
                 Pool::from_stock(&stock, "random").ok()

@@ -446,7 +446,7 @@ fn help_states_the_defaults() {
     for default in [
         "[default: 1%]",
         "[default: 18..60",
-        "[default: 40..200]",
+        "[default: 40..200; with --stock, the rings on hand]",
         "[default: 3]",
         "[default: ring]",
         "[default: sun, or the ring when the sun is held]",
@@ -460,4 +460,92 @@ fn help_states_the_defaults() {
     ] {
         assert!(help.contains(default), "{default}: {}", r.stdout);
     }
+}
+
+#[test]
+fn designs_from_stock_use_only_gears_on_hand_in_the_numbers_they_need() {
+    // The demo shelf: 5:1 with the ring held is 1 + Zr/Zs, so Zr = 4·Zs; coaxial unshifted
+    // needs Zr = Zs + 2·Zp; three planets fit equally when (Zs + Zr)/3 is whole (the assembly
+    // condition of the simple train). On the shelf only 18/27/72 qualifies, and only three
+    // 27-tooth gears are on hand.
+    let (code, v) = common::json(&[
+        "planetary",
+        "--ratio",
+        "5",
+        "--tol",
+        "0",
+        "--stock",
+        "catalogs/planetary-stock.csv",
+        "--planets",
+        "3..4",
+    ]);
+    assert_eq!(code, 0, "{v}");
+    assert_eq!(v["count"], 1);
+    let d = &v["designs"][0];
+    assert_eq!(
+        (d["sun"].as_u64(), d["planet"].as_u64(), d["ring"].as_u64(), d["planets"].as_u64()),
+        (Some(18), Some(27), Some(72), Some(3))
+    );
+    assert_eq!(v["stock"]["rings"][0], serde_json::json!([60, 1]));
+    assert_eq!(v["stock"]["left_out"], 2);
+    // Four 27-tooth planets are not on hand: asked for by name, the design says so.
+    let r = common::gearsieve(&[
+        "planetary",
+        "--ratio",
+        "5",
+        "--tol",
+        "0",
+        "--stock",
+        "catalogs/planetary-stock.csv",
+        "--sun",
+        "18",
+        "--planet",
+        "27",
+        "--ring",
+        "72",
+        "--planets",
+        "4",
+        "--explain",
+    ]);
+    assert_eq!(r.code, 1, "{}", r.stdout);
+    assert!(r.stdout.contains("it needs 4 × 27-tooth gear and 3 are on hand"), "{}", r.stdout);
+    // Gears on hand are not re-cut: a shift range is refused with stock.
+    let r = common::gearsieve(&[
+        "planetary",
+        "--ratio",
+        "5",
+        "--stock",
+        "catalogs/planetary-stock.csv",
+        "--shift-sum",
+        "-0.5..0.5",
+    ]);
+    assert_eq!(r.code, 2);
+    assert!(r.stderr.contains("--shift-sum") && r.stderr.contains("cannot be shifted"), "{}", r.stderr);
+}
+
+#[test]
+fn a_chain_search_says_it_left_the_rings_out() {
+    let r = common::gearsieve(&[
+        "search",
+        "--ratio",
+        "2",
+        "--stock",
+        "catalogs/planetary-stock.csv",
+        "--stages",
+        "1",
+    ]);
+    assert_eq!(r.code, 0, "{}", r.stderr);
+    assert!(r.stdout.contains("6 ring gears (internal teeth) not used"), "{}", r.stdout);
+    // A ring's own shift or tip is not read yet, so it is refused rather than ignored.
+    let dir = std::env::temp_dir().join(format!("gearsieve-rings-{}", std::process::id()));
+    std::fs::create_dir_all(&dir).unwrap();
+    let f = dir.join("rings.csv");
+    std::fs::write(&f, "teeth,module,internal,shift\n72,1,yes,0.2\n18,1,no,\n").unwrap();
+    let r = common::gearsieve(&["planetary", "--ratio", "5", "--stock", f.to_str().unwrap()]);
+    assert_eq!(r.code, 2);
+    assert!(r.stderr.contains("row 2, column shift"), "{}", r.stderr);
+    std::fs::write(&f, "teeth,module,internal\n72,1,maybe\n").unwrap();
+    let r = common::gearsieve(&["planetary", "--ratio", "5", "--stock", f.to_str().unwrap()]);
+    assert!(r.stderr.contains("internal must be yes (a ring gear) or no, found \"maybe\""), "{}", r.stderr);
+    let _ = std::fs::remove_dir_all(&dir);
 }

@@ -565,6 +565,7 @@ fn stock(teeth: &[u32]) -> Pool {
             quantity: 1,
             label: String::new(),
             made: Some(Default::default()),
+            internal: false,
         })
         .collect();
     Pool::from_stock(&g, "random").unwrap()
@@ -662,7 +663,7 @@ proptest! {
         };
         let Ok(pool) = Pool::from_stock(
             &teeth.iter().map(|&t| StockGear { teeth: t, module_mm: 1.5, diametral_pitch: None,
-                pressure_angle_deg: 20.0, quantity: 1, label: String::new(), made: Some(Default::default()) }).collect::<Vec<_>>(),
+                pressure_angle_deg: 20.0, quantity: 1, label: String::new(), made: Some(Default::default()), internal: false }).collect::<Vec<_>>(),
             "random") else { return Ok(()); };
         let tol = Ratio::new(tol_ppm as u128, 1_000_000).unwrap();
         let lathe = Lathe::new(machine.clone(), pool, Some(banjo.clone()),

@@ -69,6 +69,7 @@ pub fn flag_for(quantity: Quantity) -> &'static str {
         Quantity::DrivingMember => "--input",
         Quantity::CarrierOffset => "--carrier-offset",
         Quantity::PlanetClearance => "--tip-clearance",
+        Quantity::Stock => "--stock",
     }
 }
 
@@ -282,6 +283,7 @@ mod tests {
             Quantity::DrivingMember,
             Quantity::CarrierOffset,
             Quantity::PlanetClearance,
+            Quantity::Stock,
         ];
         for q in all {
             assert!(options.iter().any(|o| o == flag_for(q)), "{q}: {} is no option", flag_for(q));

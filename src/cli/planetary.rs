@@ -6,15 +6,18 @@
 
 use clap::{Args, ValueEnum};
 use gearsieve::geometry::MeshLimits;
+use gearsieve::model::catalog::{self, CatalogueDefaults};
 use gearsieve::model::pool::fmt_num;
+use gearsieve::model::pool::MeshGroup;
 use gearsieve::model::train::Direction;
 use gearsieve::numbers::range::{parse_int_range, parse_signed_range, IntRange};
 use gearsieve::numbers::rational::Ratio;
 use gearsieve::numbers::target::{parse_ratio, parse_tolerance};
 use gearsieve::report::planetary::{Asked, PlanetaryReport};
 use gearsieve::report::Report;
+use gearsieve::trades::planetary::PlanetaryStock;
 use gearsieve::trades::planetary::{
-    check_design, search, search_explained, Arrangement, Member, PlanetaryOutcome, PlanetaryProblem,
+    check_design, search, search_with, Arrangement, Member, PlanetaryOutcome, PlanetaryProblem,
     PlanetarySpec, Spacing, MAX_PLANETS, MAX_TEETH, MIN_TEETH,
 };
 use gearsieve::{Quantity, RunOptions};
@@ -26,6 +29,42 @@ use super::run::{self, Job, Print, Words};
 /// Sun teeth when `--sun` is not given: from 18, the fewest teeth an unshifted gear of the
 /// 20° ISO 53 rack has without undercut (2/sin²20° = 17.1), to 60, a large sun at module 1.
 pub const DEFAULT_SUN: &str = "18..60";
+
+/// Ring teeth when `--ring` is not given.
+pub const DEFAULT_RING: &str = "40..200";
+
+/// The gears on hand of every `--stock` catalogue that mesh at the module and pressure angle
+/// asked: external gears and rings (rows with `internal` = yes) by teeth, and how many gears of
+/// other modules or pressure angles are left out (the listing says so).
+fn load_planetary_stock(a: &PlanetaryArgs) -> anyhow::Result<PlanetaryStock> {
+    let defaults = CatalogueDefaults { module_mm: Some(a.module), pressure_angle_deg: a.pressure_angle };
+    let group =
+        MeshGroup { module_mm: a.module, pressure_angle_deg: a.pressure_angle, diametral_pitch: None };
+    let mut stock = PlanetaryStock::default();
+    for file in &a.stock {
+        for g in catalog::load(file, defaults)? {
+            if !group.meshes_with(g.module_mm, g.pressure_angle_deg) {
+                stock.left_out += u64::from(g.quantity);
+                continue;
+            }
+            if g.made.is_some_and(|m| m.shift != 0.0 || m.tip_diameter_mm.is_some()) {
+                return Err(refuse(
+                    "--stock",
+                    &format!(
+                        "{}: the {}-tooth gear is given a shift or a measured tip; planetary trains take \
+                         gears on hand as cut standard, so leave those cells empty or the row out",
+                        file.display(),
+                        g.teeth
+                    ),
+                ));
+            }
+            let shelf = if g.internal { &mut stock.rings } else { &mut stock.gears };
+            let n = shelf.entry(g.teeth).or_default();
+            *n = n.saturating_add(g.quantity);
+        }
+    }
+    Ok(stock)
+}
 
 /// A member of the train, as the flags name it.
 #[derive(Clone, Copy, Debug, PartialEq, Eq, ValueEnum)]
@@ -76,13 +115,14 @@ pub struct PlanetaryArgs {
     /// Relative tolerance on the ratio: 1%, 0.1%, 50ppm, 0 (exact).
     #[arg(long, value_name = "T", default_value = "1%", allow_hyphen_values = true)]
     pub tol: String,
-    /// Sun teeth [default: 18..60, the least without undercut at 20°; the two-ring train has no
-    /// sun].
+    /// Sun teeth [default: 18..60, the least without undercut at 20°; with --stock, the external
+    /// gears on hand; the two-ring train has no sun].
     #[arg(long, value_name = "LO..HI", allow_hyphen_values = true)]
     pub sun: Option<String>,
-    /// Planet teeth: every planet gear without a range of its own.
-    #[arg(long, value_name = "LO..HI", default_value = DEFAULT_SUN, allow_hyphen_values = true)]
-    pub planet: String,
+    /// Planet teeth: every planet gear without a range of its own [default: 18..60; with
+    /// --stock, the external gears on hand].
+    #[arg(long, value_name = "LO..HI", allow_hyphen_values = true)]
+    pub planet: Option<String>,
     /// Teeth of the planet gear meshing the ring, with --stepped (or the held ring, with
     /// --two-ring) [default: as --planet].
     #[arg(long, value_name = "LO..HI", allow_hyphen_values = true)]
@@ -90,9 +130,10 @@ pub struct PlanetaryArgs {
     /// Teeth of the planet gear meshing the output ring, with --two-ring [default: as --planet].
     #[arg(long, value_name = "LO..HI", allow_hyphen_values = true)]
     pub planet_ring2: Option<String>,
-    /// Ring teeth (the held ring, with --two-ring).
-    #[arg(long, value_name = "LO..HI", default_value = "40..200", allow_hyphen_values = true)]
-    pub ring: String,
+    /// Ring teeth (the held ring, with --two-ring) [default: 40..200; with --stock, the rings on
+    /// hand].
+    #[arg(long, value_name = "LO..HI", allow_hyphen_values = true)]
+    pub ring: Option<String>,
     /// Teeth of the output ring, with --two-ring [default: as --ring].
     #[arg(long, value_name = "LO..HI", allow_hyphen_values = true)]
     pub ring2: Option<String>,
@@ -150,6 +191,11 @@ pub struct PlanetaryArgs {
     /// Designs to list; all are counted.
     #[arg(long, value_name = "K", default_value_t = 10)]
     pub limit: usize,
+    /// Stock catalogue (CSV; repeatable): only gears on hand of the module and pressure angle
+    /// asked, taken as cut standard, in the numbers a design needs (a planet gear once per
+    /// planet); ring gears are the rows with internal = yes.
+    #[arg(long, value_name = "FILE")]
+    pub stock: Vec<std::path::PathBuf>,
     #[command(flatten)]
     pub print: PrintArgs,
 }
@@ -233,6 +279,15 @@ impl TryFrom<&PlanetaryArgs> for PlanetaryJob {
         } else {
             Arrangement::Simple { fixed, input }
         };
+        let stock = if a.stock.is_empty() { None } else { Some(load_planetary_stock(a)?) };
+        let hull = |shelf: Option<&std::collections::BTreeMap<u32, u32>>, default: &str| match shelf
+            .and_then(|s| Some(format!("{}..{}", s.keys().next()?, s.keys().next_back()?)))
+        {
+            Some(h) => h,
+            None => default.to_string(),
+        };
+        let gears_hull = hull(stock.as_ref().map(|s| &s.gears), DEFAULT_SUN);
+        let rings_hull = hull(stock.as_ref().map(|s| &s.rings), DEFAULT_RING);
         let shift_sum = match &a.shift_sum {
             Some(s) => parse_signed_range(s, Quantity::ShiftSum, "modules")?,
             None => (0.0, 0.0),
@@ -245,11 +300,11 @@ impl TryFrom<&PlanetaryArgs> for PlanetaryJob {
                 TurnArg::Same => Direction::Same,
                 TurnArg::Opposite => Direction::Opposite,
             }),
-            sun_teeth: teeth(a.sun.as_deref().unwrap_or(DEFAULT_SUN), Quantity::SunTeeth)?,
-            planet_teeth: teeth(&a.planet, Quantity::PlanetTeeth)?,
+            sun_teeth: teeth(a.sun.as_deref().unwrap_or(&gears_hull), Quantity::SunTeeth)?,
+            planet_teeth: teeth(a.planet.as_deref().unwrap_or(&gears_hull), Quantity::PlanetTeeth)?,
             planet_ring_teeth: optional(&a.planet_ring, Quantity::PlanetRingTeeth)?,
             planet_ring2_teeth: optional(&a.planet_ring2, Quantity::PlanetRing2Teeth)?,
-            ring_teeth: teeth(&a.ring, Quantity::RingTeeth)?,
+            ring_teeth: teeth(a.ring.as_deref().unwrap_or(&rings_hull), Quantity::RingTeeth)?,
             output_ring_teeth: optional(&a.ring2, Quantity::OutputRingTeeth)?,
             planets: parse_int_range(&a.planets, Quantity::PlanetCount, "planets", 2, MAX_PLANETS)?,
             spacing: match a.spacing {
@@ -265,7 +320,10 @@ impl TryFrom<&PlanetaryArgs> for PlanetaryJob {
             limit: a.limit,
             ..PlanetarySpec::reduction(Ratio::integer(1))
         };
-        let problem = PlanetaryProblem::new(spec)?;
+        let mut problem = PlanetaryProblem::new(spec)?;
+        if let Some(stock) = stock {
+            problem = problem.with_stock(stock)?;
+        }
         let changes = changes(problem.spec());
         Ok(PlanetaryJob { problem, ratio_text: a.ratio.trim().to_string(), explain: a.explain, changes })
     }
@@ -382,7 +440,14 @@ impl PlanetaryJob {
                 continue;
             }
             // Counting is enough: nothing need be listed.
-            let Ok(problem) = PlanetaryProblem::new(PlanetarySpec { limit: 0, ..change.spec.clone() }) else {
+            // A change is tried on the same gears: from stock when the search draws from stock
+            // (a change the stock cannot take, such as a profile shift, is not offered).
+            let Ok(problem) = PlanetaryProblem::new(PlanetarySpec { limit: 0, ..change.spec.clone() })
+                .and_then(|p| match self.problem.stock() {
+                    Some(stock) => p.with_stock(stock.clone()),
+                    None => Ok(p),
+                })
+            else {
                 continue;
             };
             let count = search(&problem).count;
@@ -398,8 +463,8 @@ impl PlanetaryJob {
 impl Job for PlanetaryJob {
     type Found = Found;
 
-    fn search(&self, _options: &RunOptions) -> anyhow::Result<Found> {
-        let outcome = if self.explain { search_explained(&self.problem) } else { search(&self.problem) };
+    fn search(&self, options: &RunOptions) -> anyhow::Result<Found> {
+        let outcome = search_with(&self.problem, self.explain, options);
         let spec = self.problem.spec();
         let asked = match spec.single_teeth().filter(|_| self.explain) {
             Some(teeth) => (spec.planets.lo..=spec.planets.hi)
@@ -413,7 +478,7 @@ impl Job for PlanetaryJob {
                 .collect(),
             None => Vec::new(),
         };
-        let helps = if outcome.count == 0 { self.helps() } else { Vec::new() };
+        let helps = if outcome.count == 0 && outcome.complete { self.helps() } else { Vec::new() };
         Ok(Found { outcome, asked, helps })
     }
 
@@ -446,11 +511,14 @@ impl Job for PlanetaryJob {
                 helps.join("; ")
             )
         };
-        Words { interrupted: None, nothing: Some(nothing) }
-    }
-
-    fn shows_progress(&self) -> bool {
-        false
+        let interrupted = (!found.outcome.complete).then(|| {
+            format!(
+                "{} design{} found so far (a lower bound); the best of them are listed.",
+                found.outcome.count,
+                if found.outcome.count == 1 { "" } else { "s" }
+            )
+        });
+        Words { interrupted, nothing: Some(nothing) }
     }
 }
 

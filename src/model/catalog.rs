@@ -12,6 +12,8 @@
 //! - `shift` (the profile shift coefficient the gear was cut with, in modules, from -1 to 2;
 //!   default 0) and `tip_diameter_mm` (its tip diameter as measured, mm; default the tip as cut
 //!   for its shift): a gear on hand is used as it is made, never re-cut;
+//! - `internal` (`yes` or `no`, default no): a ring gear with internal teeth, for planetary
+//!   trains; a chain of external meshes leaves it out and says so;
 //! - `label` (free text shown in results) and `note`/`notes` (free text, ignored).
 //!
 //! Lines starting with `#` are comments; a UTF-8 byte-order mark, CRLF line ends, quoted fields
@@ -48,6 +50,7 @@ const KNOWN: &[&str] = &[
     "quantity",
     "shift",
     "tip_diameter_mm",
+    "internal",
     "label",
     "note",
     "notes",
@@ -100,7 +103,7 @@ pub fn parse(bytes: &[u8], path: &Path, defaults: CatalogueDefaults) -> Result<V
         col("teeth").ok_or_else(|| file_err("has no teeth column; the header must name one".into()))?;
     let (module_col, dp_col, pa_col, qty_col, label_col) =
         (col("module"), col("diametral_pitch"), col("pressure_angle"), col("quantity"), col("label"));
-    let (shift_col, tip_col) = (col("shift"), col("tip_diameter_mm"));
+    let (shift_col, tip_col, internal_col) = (col("shift"), col("tip_diameter_mm"), col("internal"));
 
     let mut out = Vec::new();
     for record in reader.records() {
@@ -227,7 +230,32 @@ pub fn parse(bytes: &[u8], path: &Path, defaults: CatalogueDefaults) -> Result<V
             }
             None => None,
         };
+        let internal = match cell(internal_col).map(str::to_ascii_lowercase).as_deref() {
+            None | Some("no" | "n" | "false" | "0") => false,
+            Some("yes" | "y" | "true" | "1") => true,
+            Some(_) => {
+                return Err(field_err(
+                    "internal",
+                    format!(
+                        "internal must be yes (a ring gear) or no, found \"{}\"",
+                        &record[internal_col.unwrap_or(0)]
+                    ),
+                ))
+            }
+        };
+        if internal {
+            if let Some(column) = [("shift", shift_col), ("tip_diameter_mm", tip_col)]
+                .into_iter()
+                .find_map(|(name, c)| cell(c).map(|_| name))
+            {
+                return Err(field_err(
+                    column,
+                    format!("a ring gear's {column} is not used yet (rings on hand are taken as cut standard); leave it empty"),
+                ));
+            }
+        }
         out.push(StockGear {
+            internal,
             teeth,
             module_mm,
             diametral_pitch: dp,

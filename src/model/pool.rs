@@ -79,6 +79,9 @@ pub struct StockGear {
     /// How the gear was made, for a gear on hand (a catalogue row); `None` for a gear a trade
     /// lists to be cut, whose shift the search may choose.
     pub made: Option<AsMade>,
+    /// A ring gear (internal teeth), for a planetary train; a chain of external meshes cannot
+    /// use it.
+    pub internal: bool,
 }
 
 /// The validated set of gears a search draws from.
@@ -91,6 +94,9 @@ pub struct Pool {
     pub gears: Vec<GearKind>,
     /// True when gears are drawn from stock (quantities apply).
     pub from_stock: bool,
+    /// Ring gears (internal teeth) the catalogues hold, which a chain of external meshes
+    /// cannot use: counted so that the listing says they were left out.
+    pub rings_left_out: u64,
 }
 
 /// Check a module value; `place` names where it came from.
@@ -152,6 +158,7 @@ impl Pool {
             groups: vec![MeshGroup { module_mm, pressure_angle_deg, diametral_pitch }],
             gears,
             from_stock: false,
+            rings_left_out: 0,
         };
         pool.check_can_mesh(&teeth_err)?;
         Ok(pool)
@@ -168,7 +175,12 @@ impl Pool {
     pub fn from_stock_at(stock: &[StockGear], place: &dyn Fn(String) -> Error) -> Result<Pool> {
         let mut groups: Vec<MeshGroup> = Vec::new();
         let mut gears: Vec<GearKind> = Vec::new();
+        let mut rings_left_out = 0u64;
         for g in stock {
+            if g.internal {
+                rings_left_out += u64::from(g.quantity);
+                continue;
+            }
             let group = match groups.iter().position(|m| m.meshes_with(g.module_mm, g.pressure_angle_deg)) {
                 Some(i) => i,
                 None => {
@@ -209,7 +221,13 @@ impl Pool {
             }
         }
         if gears.is_empty() {
-            return Err(place("no gears in stock".into()));
+            return Err(place(if rings_left_out > 0 {
+                "no external gears in stock, only ring gears (internal), which a chain of external meshes \
+                 cannot use"
+                    .into()
+            } else {
+                "no gears in stock".into()
+            }));
         }
         // Gears of one tooth count made differently sort by shift, then tip, so the order never
         // depends on the order of the rows.
@@ -221,7 +239,7 @@ impl Pool {
                 (x, y) => x.is_some().cmp(&y.is_some()),
             })
         });
-        let pool = Pool { groups, gears, from_stock: true };
+        let pool = Pool { groups, gears, from_stock: true, rings_left_out };
         pool.check_can_mesh(place)?;
         Ok(pool)
     }
@@ -252,7 +270,16 @@ impl Pool {
         let groups: Vec<String> = self.groups.iter().map(describe_group).collect();
         if self.from_stock {
             let total: u64 = self.gears.iter().map(|g| g.quantity.unwrap_or(0) as u64).sum();
-            format!("{} gears on hand ({} kinds) in {}", total, self.gears.len(), groups.join("; "))
+            let rings = match self.rings_left_out {
+                0 => String::new(),
+                1 => {
+                    "; 1 ring gear (internal teeth) not used: a chain of external meshes cannot use it".into()
+                }
+                n => format!(
+                    "; {n} ring gears (internal teeth) not used: a chain of external meshes cannot use them"
+                ),
+            };
+            format!("{} gears on hand ({} kinds) in {}{rings}", total, self.gears.len(), groups.join("; "))
         } else {
             let lo = self.gears.first().map_or(0, |g| g.teeth);
             let hi = self.gears.last().map_or(0, |g| g.teeth);
@@ -298,6 +325,7 @@ mod tests {
             quantity: q,
             label: String::new(),
             made: Some(AsMade::default()),
+            internal: false,
         }
     }
 

@@ -87,9 +87,30 @@ pub fn document(r: &PlanetaryReport) -> Document {
         fmt_num(s.tip_clearance_mm),
         if s.mesh_limits.is_some() { "checked" } else { "not checked" }
     ));
+    if let Some(st) = r.problem.stock() {
+        let list = |shelf: &std::collections::BTreeMap<u32, u32>| {
+            shelf
+                .iter()
+                .map(|(t, n)| if *n == 1 { t.to_string() } else { format!("{t}×{n}") })
+                .collect::<Vec<_>>()
+                .join(", ")
+        };
+        d.line(format!(
+            "Gears on hand (taken as cut standard): {}; rings {}",
+            list(&st.gears),
+            list(&st.rings)
+        ));
+        if st.left_out > 0 {
+            d.line(format!(
+                "{} gear{} of the catalogues in other modules or pressure angles not used",
+                st.left_out,
+                if st.left_out == 1 { "" } else { "s" }
+            ));
+        }
+    }
     d.blank();
     let o = r.outcome;
-    d.line(count_line(o.count, o.designs.len(), true, "design", ORDER));
+    d.line(count_line(o.count, o.designs.len(), o.complete, "design", ORDER));
     if !o.designs.is_empty() {
         d.blank();
         designs(r, &mut d);

@@ -125,6 +125,8 @@ struct Doc {
     carrier_offset_modules: f64,
     tip_clearance_mm: f64,
     mesh_checks: bool,
+    #[serde(skip_serializing_if = "Option::is_none")]
+    stock: Option<StockJson>,
     limit: usize,
     count: u64,
     complete: bool,
@@ -135,6 +137,17 @@ struct Doc {
     left_out: Option<LeftOutJson>,
     #[serde(skip_serializing_if = "Vec::is_empty")]
     asked: Vec<AskedJson>,
+}
+
+/// The gears on hand a search drew from.
+#[derive(Serialize)]
+struct StockJson {
+    /// External gears: `[teeth, how many]`, by teeth.
+    gears: Vec<[u32; 2]>,
+    /// Ring gears (internal teeth): `[teeth, how many]`, by teeth.
+    rings: Vec<[u32; 2]>,
+    /// Gears of the catalogues in other modules or pressure angles, not usable here.
+    left_out: u64,
 }
 
 fn pair(r: IntRange) -> [u32; 2] {
@@ -234,9 +247,14 @@ pub fn write(r: &PlanetaryReport, w: &mut dyn Write) -> Result<(), RenderError> 
         carrier_offset_modules: s.carrier_offset_modules,
         tip_clearance_mm: s.tip_clearance_mm,
         mesh_checks: s.mesh_limits.is_some(),
+        stock: r.problem.stock().map(|st| StockJson {
+            gears: st.gears.iter().map(|(&t, &n)| [t, n]).collect(),
+            rings: st.rings.iter().map(|(&t, &n)| [t, n]).collect(),
+            left_out: st.left_out,
+        }),
         limit: s.limit,
         count: r.outcome.count,
-        complete: true,
+        complete: r.outcome.complete,
         convention: PLANETARY_CONVENTION,
         caution: CAUTION,
         designs: r.outcome.designs.iter().enumerate().map(|(n, d)| design_json(r, n + 1, d)).collect(),

@@ -49,7 +49,7 @@ impl Report for PlanetaryReport<'_> {
     }
 
     fn completion(&self) -> Completion {
-        Completion { complete: true, found: self.outcome.count > 0 }
+        Completion { complete: self.outcome.complete, found: self.outcome.count > 0 }
     }
 
     fn document(&self) -> Option<Document> {

@@ -149,6 +149,8 @@ pub enum Condition {
     Arrangement,
     /// Every tooth count and the planet count lie in their ranges.
     Ranges,
+    /// Every gear is on hand in the numbers the design needs, when the gears come from stock.
+    Stock,
     /// The ratio is within the tolerance (and the output can turn at all).
     Ratio,
     /// The output turns the way asked for.
@@ -171,6 +173,7 @@ impl Condition {
         match self {
             Condition::Arrangement => "arrangement",
             Condition::Ranges => "ranges",
+            Condition::Stock => "gears on hand",
             Condition::Ratio => "ratio",
             Condition::Direction => "direction",
             Condition::RingSize => "ring size",
@@ -208,6 +211,17 @@ pub enum Unmet {
         planets: u32,
         /// The range allowed.
         range: IntRange,
+    },
+    /// Fewer gears of this kind are on hand than the design needs.
+    NotOnHand {
+        /// An external gear, or a ring gear (internal teeth).
+        ring: bool,
+        /// Its teeth.
+        teeth: u32,
+        /// How many the design needs (a planet gear once per planet).
+        wanted: u32,
+        /// How many are on hand.
+        on_hand: u32,
     },
     /// The output cannot turn when driven this way (or the input cannot).
     NoRatio,
@@ -274,6 +288,7 @@ impl Unmet {
         match self {
             Unmet::OtherArrangement => Condition::Arrangement,
             Unmet::TeethOutOfRange { .. } | Unmet::PlanetsOutOfRange { .. } => Condition::Ranges,
+            Unmet::NotOnHand { .. } => Condition::Stock,
             Unmet::NoRatio | Unmet::Ratio { .. } => Condition::Ratio,
             Unmet::Direction { .. } => Condition::Direction,
             Unmet::RingNotLarger { .. } => Condition::RingSize,
@@ -294,6 +309,13 @@ impl fmt::Display for Unmet {
             Unmet::TeethOutOfRange { member, teeth, range } => {
                 write!(f, "{teeth} teeth on the {member} lie outside the range {range}")
             }
+            Unmet::NotOnHand { ring, teeth, wanted, on_hand } => write!(
+                f,
+                "it needs {wanted} {}{teeth}-tooth {} and {on_hand} {} on hand",
+                if *wanted == 1 { "" } else { "× " },
+                if *ring { "ring gear" } else { "gear" },
+                if *on_hand == 1 { "is" } else { "are" }
+            ),
             Unmet::PlanetsOutOfRange { planets, range } => {
                 write!(f, "{planets} planets lie outside the range {range}")
             }
@@ -565,6 +587,9 @@ pub fn check_design(problem: &PlanetaryProblem, teeth: &Teeth, planets: u32) -> 
     }
     if !spec.planets.contains(planets) {
         unmet.push(Unmet::PlanetsOutOfRange { planets, range: spec.planets });
+    }
+    if let Some(stock) = problem.stock() {
+        unmet.extend(stock.shortfalls(teeth, planets));
     }
     let ratio = ratio_within(problem, teeth).map_err(|u| unmet.push(u)).ok();
     let carrier = carrier(problem.system(), teeth, spec.shift_sum, spec.carrier_offset_modules)

@@ -34,6 +34,8 @@ pub mod layout;
 pub mod search;
 pub mod willis;
 
+use std::collections::BTreeMap;
+
 use crate::error::{Error, Message, Quantity, Result};
 use crate::geometry::{MeshLimits, RackProfile, ToothSystem};
 use crate::model::train::Direction;
@@ -43,7 +45,7 @@ use crate::numbers::rational::Ratio;
 use layout::Gear;
 
 pub use conditions::{check_design, Carrier, Condition, Design, PlanetMesh, Positions, Unmet};
-pub use search::{search, search_explained, ConditionCount, LeftOut, PlanetaryOutcome};
+pub use search::{search, search_explained, search_with, ConditionCount, LeftOut, PlanetaryOutcome};
 pub use willis::{willis_ratio, SpeedRatio};
 
 /// The caution that belongs with every planetary result.
@@ -330,11 +332,48 @@ impl PlanetarySpec {
     }
 }
 
+/// Gears on hand for a planetary train, all of the train's module and pressure angle: a
+/// design is only made of these, in the numbers it needs (a planet gear once per planet).
+#[derive(Debug, Clone, PartialEq, Default)]
+pub struct PlanetaryStock {
+    /// External gears (for sun and planets): teeth → how many.
+    pub gears: BTreeMap<u32, u32>,
+    /// Ring gears (internal teeth): teeth → how many.
+    pub rings: BTreeMap<u32, u32>,
+    /// Gears of the catalogues in other modules or pressure angles, which cannot mesh here.
+    pub left_out: u64,
+}
+
+impl PlanetaryStock {
+    /// What the design of `teeth` with `planets` planets needs and the stock lacks, gear by
+    /// gear (external gears first, by teeth; then rings). Empty when everything is on hand.
+    pub fn shortfalls(&self, teeth: &Teeth, planets: u32) -> Vec<Unmet> {
+        let mut need: BTreeMap<(bool, u32), u32> = BTreeMap::new();
+        for g in teeth.gears() {
+            let n = if g.gear.on_planet() { planets } else { 1 };
+            *need.entry((g.gear.internal(), g.teeth)).or_default() += n;
+        }
+        need.into_iter()
+            .filter_map(|((ring, teeth), wanted)| {
+                let shelf = if ring { &self.rings } else { &self.gears };
+                let on_hand = shelf.get(&teeth).copied().unwrap_or(0);
+                (on_hand < wanted).then_some(Unmet::NotOnHand { ring, teeth, wanted, on_hand })
+            })
+            .collect()
+    }
+
+    /// Whether every gear of the design is on hand.
+    pub fn holds(&self, teeth: &Teeth, planets: u32) -> bool {
+        self.shortfalls(teeth, planets).is_empty()
+    }
+}
+
 /// A validated [`PlanetarySpec`] with its tooth system worked out.
 #[derive(Debug, Clone, PartialEq)]
 pub struct PlanetaryProblem {
     spec: PlanetarySpec,
     system: ToothSystem,
+    stock: Option<PlanetaryStock>,
 }
 
 impl PlanetaryProblem {
@@ -440,7 +479,42 @@ impl PlanetaryProblem {
         }
         // The checks above leave only the basic rack, which callers do not choose here.
         let system = ToothSystem::new(spec.module_mm, spec.pressure_angle_deg, spec.rack)?;
-        Ok(PlanetaryProblem { spec, system })
+        Ok(PlanetaryProblem { spec, system, stock: None })
+    }
+
+    /// The same problem drawn from gears on hand only. Gears on hand are taken as cut
+    /// standard and are never re-cut, so the spec must allow no profile shift (`shift_sum`
+    /// `(0, 0)`; refused with [`Quantity::ShiftSum`] otherwise), and a stock without a ring or
+    /// without external gears is refused with [`Quantity::Stock`].
+    pub fn with_stock(mut self, stock: PlanetaryStock) -> Result<PlanetaryProblem> {
+        if self.spec.shift_sum != (0.0, 0.0) {
+            return Err(Error::value(
+                Quantity::ShiftSum,
+                "gears on hand are used as cut (standard) and cannot be shifted; wanted 0..0 with gears \
+                 from stock"
+                    .to_string(),
+            ));
+        }
+        if stock.rings.is_empty() || stock.gears.is_empty() {
+            return Err(Error::value(
+                Quantity::Stock,
+                format!(
+                    "a planetary train needs ring gears (rows with internal = yes) and external gears of \
+                     module {} mm, {}°; the catalogues hold {} ring kinds and {} external kinds of it",
+                    crate::model::pool::fmt_num(self.spec.module_mm),
+                    crate::model::pool::fmt_num(self.spec.pressure_angle_deg),
+                    stock.rings.len(),
+                    stock.gears.len()
+                ),
+            ));
+        }
+        self.stock = Some(stock);
+        Ok(self)
+    }
+
+    /// The gears on hand, when the problem is drawn from stock.
+    pub fn stock(&self) -> Option<&PlanetaryStock> {
+        self.stock.as_ref()
     }
 
     /// The spec as validated.

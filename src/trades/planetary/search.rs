@@ -21,9 +21,11 @@
 //! left out under the first condition it fails ([`LeftOut`]), for a designer asking why.
 
 use std::cmp::Ordering;
+use std::sync::atomic::{AtomicBool, AtomicU64, Ordering as AtomicOrdering};
 
 use rayon::prelude::*;
 
+use crate::engine::{Progress, RunOptions};
 use crate::model::train::Direction;
 use crate::numbers::rational::RelError;
 
@@ -43,6 +45,9 @@ pub struct PlanetaryOutcome {
     pub designs: Vec<Design>,
     /// What was left out and why, when the search was asked to say ([`search_explained`]).
     pub left_out: Option<LeftOut>,
+    /// False when the search was stopped before the end ([`search_with`]'s cancel flag): the
+    /// count is then a lower bound and the designs the best of those seen.
+    pub complete: bool,
 }
 
 /// The candidates a search left out, each counted once under the first condition it fails in
@@ -159,17 +164,25 @@ impl Tally {
 /// worked out in full by [`check_design`], the same judge that names what a rejected design
 /// fails.
 pub fn search(problem: &PlanetaryProblem) -> PlanetaryOutcome {
-    run(problem, false)
+    run(problem, false, &RunOptions::default())
 }
 
 /// [`search`], and every candidate in the ranges that it leaves out counted under the first
 /// condition it fails ([`PlanetaryOutcome::left_out`]). Slower: every set of tooth counts in
 /// the ranges is judged, not only those the coaxiality window lets through.
 pub fn search_explained(problem: &PlanetaryProblem) -> PlanetaryOutcome {
-    run(problem, true)
+    run(problem, true, &RunOptions::default())
 }
 
-fn run(problem: &PlanetaryProblem, explain: bool) -> PlanetaryOutcome {
+/// [`search`] (or, with `explain`, [`search_explained`]) reporting progress and heeding a
+/// cancel flag through `options`: a unit of work is one tooth count of the outermost gear (the
+/// sun, or a two-ring train's first planet gear). When the flag is set the units not yet begun
+/// are skipped and the outcome is marked incomplete. `options.shard` is not used.
+pub fn search_with(problem: &PlanetaryProblem, explain: bool, options: &RunOptions) -> PlanetaryOutcome {
+    run(problem, explain, options)
+}
+
+fn run(problem: &PlanetaryProblem, explain: bool, options: &RunOptions) -> PlanetaryOutcome {
     let spec = problem.spec();
     let limit = spec.limit;
     // Explaining, no window: every set is judged, and those the window would have skipped
@@ -181,11 +194,22 @@ fn run(problem: &PlanetaryProblem, explain: bool) -> PlanetaryOutcome {
         _ => spec.sun_teeth,
     };
     let outer: Vec<u32> = (outer.lo..=outer.hi).collect();
+    let total = outer.len() as u64;
+    let done = AtomicU64::new(0);
+    let stopped = AtomicBool::new(false);
     let tally = outer
         .into_par_iter()
         .map(|first| {
             let mut tally = Tally::new(explain);
+            if options.cancel.is_some_and(|c| c.load(AtomicOrdering::Relaxed)) {
+                stopped.store(true, AtomicOrdering::Relaxed);
+                return tally;
+            }
             visit(problem, first, window, &mut |teeth| judge(problem, teeth, &mut tally));
+            let done = done.fetch_add(1, AtomicOrdering::Relaxed) + 1;
+            if let Some(progress) = options.progress {
+                progress(Progress { done, total });
+            }
             tally
         })
         .reduce(|| Tally::new(explain), |a, b| a.merge(b, limit));
@@ -198,6 +222,7 @@ fn run(problem: &PlanetaryProblem, explain: bool) -> PlanetaryOutcome {
         count: tally.count,
         designs: best.iter().filter_map(|e| check_design(problem, &e.teeth, e.planets).ok()).collect(),
         left_out: explain.then_some(LeftOut { candidates: tally.candidates, conditions }),
+        complete: !stopped.load(AtomicOrdering::Relaxed),
     }
 }
 
@@ -275,11 +300,27 @@ fn visit(problem: &PlanetaryProblem, first: u32, window: i64, found: &mut dyn Fn
 /// condition they fail.
 fn judge(problem: &PlanetaryProblem, teeth: Teeth, tally: &mut Tally) {
     let spec = problem.spec();
-    let (lo, hi) = (spec.planets.lo, spec.planets.hi);
-    let every = u64::from(hi - lo + 1);
+    let (lo, mut hi) = (spec.planets.lo, spec.planets.hi);
     if tally.explain {
-        tally.candidates += every;
+        tally.candidates += u64::from(hi - lo + 1);
     }
+    if let Some(stock) = problem.stock() {
+        // More planets need more of each planet gear, so the counts the stock can furnish are
+        // the lowest ones.
+        let furnished = (lo..=hi).rev().find(|&n| stock.holds(&teeth, n));
+        let first_short = furnished.map_or(lo, |n| n + 1);
+        if first_short <= hi {
+            let short = u64::from(hi - first_short + 1);
+            tally.leave_out(teeth, first_short, short, || {
+                stock.shortfalls(&teeth, first_short).into_iter().next().unwrap_or(Unmet::NoRatio)
+            });
+        }
+        match furnished {
+            Some(n) => hi = n,
+            None => return,
+        }
+    }
+    let every = u64::from(hi - lo + 1);
     let Some((num, den, direction)) = spec.arrangement.unreduced_ratio(&teeth) else {
         tally.leave_out(teeth, lo, every, || Unmet::NoRatio);
         return;
@@ -340,5 +381,41 @@ fn judge(problem: &PlanetaryProblem, teeth: Teeth, tally: &mut Tally) {
                 tally.leave_out(teeth, planets, 1, || unmet);
             }
         }
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::numbers::rational::Ratio;
+    use crate::trades::planetary::PlanetarySpec;
+    use std::sync::Mutex;
+
+    fn problem() -> PlanetaryProblem {
+        PlanetaryProblem::new(PlanetarySpec::reduction(Ratio::integer(5))).unwrap()
+    }
+
+    #[test]
+    fn progress_counts_every_sun_once_and_the_result_is_unchanged() {
+        let p = problem();
+        let seen = Mutex::new(Vec::new());
+        let report = |pr: Progress| seen.lock().unwrap().push(pr);
+        let with = search_with(&p, false, &RunOptions { progress: Some(&report), ..RunOptions::default() });
+        let plain = search(&p);
+        assert_eq!((with.count, &with.designs, with.complete), (plain.count, &plain.designs, true));
+        let seen = seen.into_inner().unwrap();
+        // The default suns are 12..60: 49 units, each reported once, the last at 49 of 49.
+        assert_eq!(seen.len(), 49);
+        assert!(seen.iter().all(|pr| pr.total == 49));
+        assert_eq!(seen.iter().map(|pr| pr.done).max(), Some(49));
+    }
+
+    #[test]
+    fn a_cancelled_search_says_it_is_incomplete() {
+        let stop = AtomicBool::new(true);
+        let o = search_with(&problem(), false, &RunOptions { cancel: Some(&stop), ..RunOptions::default() });
+        assert!(!o.complete);
+        assert_eq!(o.count, 0);
+        assert!(search(&problem()).count > 0);
     }
 }

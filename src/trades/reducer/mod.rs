@@ -186,6 +186,7 @@ impl ReducerSpec {
                     quantity: 2 * MAX_STAGES as u32,
                     label: String::new(),
                     made: None,
+                    internal: false,
                 })
             })
             .collect();

@@ -479,6 +479,7 @@ mod tests {
                 quantity: 1,
                 label: String::new(),
                 made: Some(Default::default()),
+                internal: false,
             })
             .collect();
         Pool::from_stock(&g, "t").unwrap()
