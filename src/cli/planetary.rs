@@ -50,7 +50,7 @@ fn load_planetary_stock(a: &PlanetaryArgs) -> anyhow::Result<PlanetaryStock> {
             if g.made.is_some_and(|m| m.shift != 0.0 || m.tip_diameter_mm.is_some()) {
                 return Err(refuse(
                     "--stock",
-                    &format!(
+                    format!(
                         "{}: the {}-tooth gear is given a shift or a measured tip; planetary trains take \
                          gears on hand as cut standard, so leave those cells empty or the row out",
                         file.display(),
