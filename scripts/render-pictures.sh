@@ -19,6 +19,7 @@ picture() {
 
 picture reducer-75mm search --ratio 12 --tol 1% --teeth 14..90 --module 1.5 --stages 2 --centre-distance 75 --limit 1 --format svg
 picture motion-work clock motion --limit 1 --format svg
+picture planetary-5 planetary --ratio 5 --limit 1 --format svg
 picture pair-17-53 mesh --teeth 17,53 --module 2 --centre-distance 71 --format svg
 "$g" draw --gear 12 --module 2 --profile "$out/gear-12-undercut.svg" >/dev/null
 rsvg-convert -w 800 -b white "$out/gear-12-undercut.svg" -o "$out/gear-12-undercut.png"

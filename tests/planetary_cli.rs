@@ -198,8 +198,10 @@ fn every_format_works() {
         "{}",
         svg.stdout
     );
-    // Four planets, each with tip, pitch, base and root circle: tip circles of 32 mm.
-    assert_eq!(svg.stdout.matches(r#" r="16" "#).count(), 4, "{}", svg.stdout);
+    // Four planets, each with pitch, base and root circle (pitch circles of 30 mm) and its
+    // teeth drawn as one closed outline, as are the sun's and the ring's: six outlines.
+    assert_eq!(svg.stdout.matches(r#" r="15" "#).count(), 4, "{}", svg.stdout);
+    assert_eq!(svg.stdout.matches("<path").count(), 6, "{}", svg.stdout);
 }
 
 #[test]

@@ -63,7 +63,7 @@
 use std::f64::consts::{FRAC_PI_2, PI, TAU};
 use std::fmt;
 
-use super::system::ToothSystem;
+use super::system::{RackProfile, ToothSystem};
 use super::working::MeshGeometry;
 
 /// The default chordal tolerance: one micrometre, in mm.
@@ -293,6 +293,52 @@ pub fn mesh_rotation(mesh: &MeshGeometry, driver_rotation_rad: f64, backlash: Ba
         BacklashSide::DriverClockwise => -half_backlash_rad,
     };
     PI - PI / z2 + closing - driver_rotation_rad * z1 / z2
+}
+
+/// The outline of a ring gear (internal teeth) of `teeth` teeth with profile shift `shift`
+/// (x, in modules, positive outwards as in [`super::internal`]), as a drawing shows it: the
+/// boundary between metal (outside) and tooth spaces, centred at the origin, with tooth space 0
+/// centred on the positive x axis.
+///
+/// The flanks are exact: a ring's tooth space is the tooth of an external gear of the same teeth
+/// turned inside out (its width at the reference circle, `m(π/2 + 2x·tan α)`, is that gear's
+/// tooth thickness with the same shift), so the involutes are those of [`gear_outline`] for a
+/// gear whose tip is the ring's root circle `d + 2m(hf* + x)`. Towards the centre the spaces end
+/// at the ring's tip circle `d − 2m(ha* − x)`, where the polygon follows that circle. The
+/// corners at the root circle are drawn sharp: the fillet a shaper cutter leaves there depends
+/// on the cutter and is not modelled. In the returned [`Outline`], `tip_radius_mm` is the ring's
+/// tip (inner) circle, `root_radius_mm` its root (outer) circle and `flank` the complementary
+/// gear's. Errors as [`gear_outline`].
+pub fn ring_outline(
+    system: &ToothSystem,
+    teeth: u32,
+    shift: f64,
+    tolerance_mm: f64,
+) -> Result<Outline, OutlineError> {
+    let rack = system.rack();
+    let complement = RackProfile {
+        addendum: rack.dedendum,
+        // The rack's own dedendum: it reaches below the ring's tip circle by the bottom
+        // clearance, and the tip circle then cuts the spaces off.
+        dedendum: rack.dedendum,
+        root_radius: rack.root_radius,
+    };
+    let cut =
+        ToothSystem::new(system.module_mm(), system.pressure_angle_deg(), complement).map_err(|_| {
+            OutlineError::InvalidInput { what: "the ring's rack must be a usable rack", value: rack.dedendum }
+        })?;
+    let mut outline = gear_outline(&cut, teeth, shift, 0.0, tolerance_mm)?;
+    let tip_radius = system.ring_tip_diameter_mm(teeth, shift) / 2.0;
+    for p in &mut outline.points {
+        let r = p[0].hypot(p[1]);
+        if r < tip_radius && r > 0.0 {
+            *p = [p[0] * tip_radius / r, p[1] * tip_radius / r];
+        }
+    }
+    outline.root_radius_mm = system.ring_root_diameter_mm(teeth, shift) / 2.0;
+    outline.tip_radius_mm = tip_radius;
+    outline.form_radius_mm = outline.form_radius_mm.max(tip_radius);
+    Ok(outline)
 }
 
 /// The outline of an external spur gear of `teeth` teeth cut to `system` by its basic rack with
@@ -1352,4 +1398,27 @@ mod tests {
                 prop_assert!((thickness - want).abs() < 1e-6, "{thickness} vs {want}");
             }
         }
+
+    #[test]
+    fn a_ring_outline_has_the_ring_tooth_thickness_of_iso_21771_and_stays_between_its_circles() {
+        for (z, x) in [(72u32, 0.0), (80, 0.3), (139, -0.2)] {
+            let s = system(1.0, 20.0);
+            let o = ring_outline(&s, z, x, 1e-4).unwrap();
+            let (tip, root) = (s.ring_tip_diameter_mm(z, x) / 2.0, s.ring_root_diameter_mm(z, x) / 2.0);
+            assert!(o.points.iter().all(|p| norm(*p) >= tip - 1e-9 && norm(*p) <= root + 1e-9));
+            // Space 0 is centred on +x: its edges cross the reference circle at ±θ, and the
+            // ring tooth beside it is π·m − 2θ·r wide there (ISO 21771's ring tooth thickness,
+            // as `ring_tooth_thickness_mm` states it).
+            let r = s.pitch_diameter_mm(z) / 2.0;
+            let upper: Vec<[f64; 2]> =
+                o.points.iter().copied().filter(|p| p[1] >= 0.0 && p[0] > 0.0).collect();
+            let edge = crossing(&upper, r).unwrap();
+            let space = 2.0 * edge[1].atan2(edge[0]).abs() * r;
+            let tooth = s.ring_tooth_thickness_mm(z, x, 2.0 * r).unwrap();
+            assert!(
+                (space + tooth - PI * s.module_mm()).abs() < 1e-3,
+                "z {z} x {x}: space {space}, tooth {tooth}"
+            );
+        }
+    }
 }

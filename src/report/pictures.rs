@@ -14,7 +14,7 @@ use crate::geometry::{mesh_geometry, Mounting, RackProfile, ToothSystem};
 use crate::model::pool::fmt_num;
 
 /// Chordal tolerance of tooth outlines in pictures, mm: finer than a printed line is wide.
-const PICTURE_TOLERANCE_MM: f64 = 0.01;
+pub const PICTURE_TOLERANCE_MM: f64 = 0.01;
 
 /// Letter height of labels, mm, for a picture whose largest gear has radius `r_mm`.
 pub fn label_mm(r_mm: f64) -> f64 {

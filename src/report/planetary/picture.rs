@@ -5,23 +5,124 @@
 //! of stepped planets or a two-ring train lie in the back plane, dashed grey. Gear sizes and
 //! planet centres come from [`crate::trades::planetary::layout`].
 
+use std::f64::consts::TAU;
+
+use crate::geometry::outline::{gear_outline, mesh_rotation, ring_outline, BacklashSide, Outline};
 use crate::model::pool::fmt_num;
 use crate::model::train::Direction;
 use crate::report::drawing::{Drawing, Pen, Shape};
 use crate::report::fields::decimals;
+use crate::report::pictures::PICTURE_TOLERANCE_MM;
 use crate::report::words::describe_error;
-use crate::trades::planetary::layout::{gear_circles, planet_centres_mm, GearCircles};
-use crate::trades::planetary::{Arrangement, CAUTION};
+use crate::trades::planetary::layout::{gear_circles, planet_centres_mm, Gear, GearCircles};
+use crate::trades::planetary::{Arrangement, PlanetMesh, CAUTION};
 
 use super::{drive, short_words, PlanetaryReport};
 
-/// The four circles of a gear centred at `at`, the tip drawn with `outline`.
-fn gear_shapes(g: &GearCircles, at: [f64; 2], outline: Pen, out: &mut Vec<Shape>) {
+/// The four circles of a gear centred at `at`, the tip drawn with `outline`; with `teeth` (its
+/// true outline and rotation) the teeth are drawn in place of the tip circle.
+fn gear_shapes(
+    g: &GearCircles,
+    at: [f64; 2],
+    outline: Pen,
+    teeth: Option<(&Outline, f64)>,
+    out: &mut Vec<Shape>,
+) {
     let circle = |d: f64, pen| Shape::Circle { centre: at, radius_mm: d / 2.0, pen };
     out.push(circle(g.root_diameter_mm, Pen::Root));
     out.push(circle(g.base_diameter_mm, Pen::Base));
     out.push(circle(g.pitch_diameter_mm, Pen::Pitch));
-    out.push(circle(g.tip_diameter_mm, outline));
+    match teeth {
+        Some((o, rotation)) => {
+            out.push(Shape::Path { points: o.placed(at, rotation), closed: true, pen: outline })
+        }
+        None => out.push(circle(g.tip_diameter_mm, outline)),
+    }
+}
+
+/// The angle nearest zero, turned by whole multiples of `step`, radians.
+fn nearest_zero(angle: f64, step: f64) -> f64 {
+    angle - step * (angle / step).round()
+}
+
+/// The front plane's gears with their teeth: each gear's outline, and its rotation at each
+/// place it sits (the sun's and a ring's once, a planet gear's at every planet). The sun is
+/// turned to zero (tooth 0 on the x axis) and each planet so that it meshes the sun at its
+/// place ([`mesh_rotation`], backlash split); without a sun, the ring is turned to zero and
+/// each planet sits in the ring's space nearest its place. A ring meshing planets that mesh a
+/// sun is turned to meet the first planet: a planet tooth `δ` from the line of centres faces a
+/// ring space `δ·zp/zr` from it (the pitch circles roll together). The assembly condition makes
+/// every other planet fit as well. `None` for a gear whose outline cannot be traced.
+fn front_teeth(
+    r: &PlanetaryReport,
+    circles: &[GearCircles],
+    front: &[bool],
+) -> Vec<Option<(Outline, Vec<f64>)>> {
+    let best = &r.outcome.designs[0];
+    let system = r.problem.system();
+    let angles: Vec<f64> = best.positions.angles_deg().iter().map(|a| a.to_radians()).collect();
+    let gears = best.teeth.gears();
+    let outline = |k: usize| {
+        let (g, at) = (&circles[k], gears[k]);
+        if g.gear.internal() {
+            ring_outline(system, g.teeth, g.shift, PICTURE_TOLERANCE_MM).ok()
+        } else {
+            gear_outline(
+                system,
+                g.teeth,
+                g.shift,
+                best.carrier.tip_shortening[at.mesh.0],
+                PICTURE_TOLERANCE_MM,
+            )
+            .ok()
+        }
+    };
+    let sun_mesh = match &best.meshes[0] {
+        Ok(PlanetMesh::External(m)) if front.first() == Some(&true) && gears[0].gear == Gear::Sun => Some(m),
+        _ => None,
+    };
+    // The front planet gear's rotation at each place.
+    let planet = gears.iter().position(|g| g.gear.on_planet()).filter(|&k| front[k]);
+    let ring = gears.iter().position(|g| g.gear.internal()).filter(|&k| front[k]);
+    let planet_turns: Option<Vec<f64>> = planet.map(|k| {
+        let zp = f64::from(gears[k].teeth);
+        angles
+            .iter()
+            .map(|&phi| match (sun_mesh, ring) {
+                // Turn the pair's frame to the planet's place: the sun is then at -phi in it.
+                (Some(m), _) => phi + mesh_rotation(m, -phi, BacklashSide::Split),
+                (None, Some(j)) => {
+                    let zr = f64::from(gears[j].teeth);
+                    // The ring's space nearest the place, and the planet tooth facing it.
+                    phi + nearest_zero(phi, TAU / zr) * zr / zp
+                }
+                (None, None) => phi,
+            })
+            .collect()
+    });
+    let ring_turn = match (sun_mesh, ring, planet, &planet_turns) {
+        (Some(_), Some(j), Some(k), Some(turns)) => {
+            let (zp, zr) = (f64::from(gears[k].teeth), f64::from(gears[j].teeth));
+            // The planet tooth nearest the first planet's outward line of centres.
+            nearest_zero(turns[0] - angles[0], TAU / zp) * zp / zr + angles[0]
+        }
+        _ => 0.0,
+    };
+    (0..circles.len())
+        .map(|k| {
+            if !front[k] {
+                return None;
+            }
+            let turns = if Some(k) == planet {
+                planet_turns.clone()?
+            } else if Some(k) == ring {
+                vec![ring_turn]
+            } else {
+                vec![0.0]
+            };
+            Some((outline(k)?, turns))
+        })
+        .collect()
 }
 
 /// The best design of `r` to scale; a drawing that says so when nothing was found.
@@ -60,16 +161,20 @@ pub fn drawing(r: &PlanetaryReport) -> Drawing {
     }
     let [outer, top, bottom] = reach;
     let text = (outer / 12.0).clamp(1.5, 5.0);
+    let front: Vec<bool> = circles.iter().map(|g| !back(g)).collect();
+    let teeth = front_teeth(r, &circles, &front);
     let mut shapes = Vec::new();
     for in_back in [true, false] {
-        for g in circles.iter().filter(|g| back(g) == in_back) {
+        for (k, g) in circles.iter().enumerate().filter(|(_, g)| back(g) == in_back) {
             let pen = if in_back { Pen::BackPlane } else { Pen::Outline };
+            let drawn = teeth[k].as_ref();
             if g.gear.on_planet() {
-                for &c in &centres {
-                    gear_shapes(g, c, pen, &mut shapes);
+                for (n, &c) in centres.iter().enumerate() {
+                    let t = drawn.and_then(|(o, turns)| Some((o, *turns.get(n)?)));
+                    gear_shapes(g, c, pen, t, &mut shapes);
                 }
             } else {
-                gear_shapes(g, [0.0, 0.0], pen, &mut shapes);
+                gear_shapes(g, [0.0, 0.0], pen, drawn.map(|(o, turns)| (o, turns[0])), &mut shapes);
             }
         }
     }
@@ -142,8 +247,9 @@ pub fn drawing(r: &PlanetaryReport) -> Drawing {
         notes.push(format!("Solid: front plane, {front}; dashed grey: back plane, {behind}."));
     }
     notes.push(
-        "Circles: tip (a ring's inner circle), pitch (dash-dot), base (thin), root (dotted; a ring's \
-         outer circle). Drawn to scale in mm."
+        "Teeth of the front plane drawn as cut (involute flanks; a ring's root corners drawn sharp), \
+         in mesh; circles: tip (a ring's inner circle; the back plane's gears by it alone), pitch \
+         (dash-dot), base (thin), root (dotted; a ring's outer circle). Drawn to scale in mm."
             .to_string(),
     );
     notes.push(format!("CAUTION: {CAUTION}"));
