@@ -288,3 +288,61 @@ fn exact_four_stage_trains_are_counted_and_the_smallest_listed() {
     assert_eq!(merged.code, 0, "{}", merged.stderr);
     assert_eq!(merged.stdout, whole.stdout);
 }
+
+/// GNU parallel runs the parts as separate processes, as a batch scheduler would; `.ci/run`
+/// installs it (Debian package `parallel`) and sets `GEARSIEVE_REQUIRE_PARALLEL`, so there the
+/// test cannot be skipped.
+#[test]
+fn parts_run_under_gnu_parallel_merge_into_the_single_run() {
+    let available =
+        Command::new("parallel").arg("--version").stdout(Stdio::null()).status().is_ok_and(|s| s.success());
+    if !available {
+        assert!(
+            std::env::var_os("GEARSIEVE_REQUIRE_PARALLEL").is_none(),
+            "GNU parallel is required here but not installed"
+        );
+        eprintln!("skipped: GNU parallel is not installed (.ci/run installs it)");
+        return;
+    }
+    let args = ["search", "--ratio", "29.530588", "--tol", "20ppm", "--teeth", "12..100", "--format", "json"];
+    let whole = gearsieve(&args);
+    assert_eq!(whole.code, 0);
+    let dir = tempfile::tempdir().unwrap();
+    let part = dir.path().join("part-{}.json");
+    let status = Command::new("parallel")
+        .args(["--will-cite", "--halt", "now,fail=1", "--jobs", "2", env!("CARGO_BIN_EXE_gearsieve")])
+        .args(args)
+        .args(["--quiet", "--shard", "{}/5", "--output"])
+        .arg(&part)
+        .args([":::", "1", "2", "3", "4", "5"])
+        .current_dir(env!("CARGO_MANIFEST_DIR"))
+        .status()
+        .unwrap();
+    assert!(status.success(), "a part failed under GNU parallel: {status}");
+    let files: Vec<String> =
+        (1..=5).map(|i| dir.path().join(format!("part-{i}.json")).to_string_lossy().into_owned()).collect();
+    let mut merge = vec!["merge"];
+    merge.extend(files.iter().map(String::as_str));
+    let merged = gearsieve(&merge);
+    assert_eq!(merged.code, 0, "{}", merged.stderr);
+    assert_eq!(merged.stdout, whole.stdout);
+}
+
+#[test]
+fn a_part_that_holds_no_train_is_not_a_failure() {
+    // An exact count is one unit of the factor engine: part 1 holds every train, part 2 none,
+    // and part 2 still exits 0 so that a scheduler does not retry it.
+    let args = ["search", "--ratio", "127/120", "--teeth", "20..127", "--stages", "4", "--format", "json"];
+    let two = gearsieve(&[&args[..], &["--shard", "2/2"]].concat());
+    assert_eq!(two.code, 0, "{}", two.stderr);
+    assert!(two.stderr.contains("part 2/2 holds no train"), "{}", two.stderr);
+    let one = gearsieve(&[&args[..], &["--shard", "1/2"]].concat());
+    let whole = gearsieve(&args);
+    let merged = {
+        let dir = tempfile::tempdir().unwrap();
+        let a = write(&dir, "1.json", &one.stdout);
+        let b = write(&dir, "2.json", &two.stdout);
+        gearsieve(&["merge", &a, &b])
+    };
+    assert_eq!(merged.stdout, whole.stdout);
+}

@@ -39,12 +39,35 @@ impl From<FormatArg> for Format {
     }
 }
 
+/// The format asked for, or else the one `output`'s extension names (`.csv`, `.json`, `.md`,
+/// `.svg`, `.html`, `.txt` for a table), or else `default`: `--output part-3.json` writes JSON.
+pub fn chosen_format(
+    given: Option<FormatArg>,
+    output: Option<&std::path::Path>,
+    default: FormatArg,
+) -> FormatArg {
+    let by_extension = || {
+        let ext = output?.extension()?.to_str()?.to_ascii_lowercase();
+        Some(match ext.as_str() {
+            "csv" => FormatArg::Csv,
+            "json" => FormatArg::Json,
+            "md" | "markdown" => FormatArg::Markdown,
+            "svg" => FormatArg::Svg,
+            "html" | "htm" => FormatArg::Html,
+            "txt" => FormatArg::Table,
+            _ => return None,
+        })
+    };
+    given.or_else(by_extension).unwrap_or(default)
+}
+
 /// Flags shared by every command that prints results.
 #[derive(Args, Debug, Clone)]
 pub struct PrintArgs {
-    /// Output format.
-    #[arg(long, value_enum, default_value = "table")]
-    pub format: FormatArg,
+    /// Output format [default: table; with --output, the one its extension names: .csv, .json,
+    /// .md, .svg, .html].
+    #[arg(long, value_enum)]
+    pub format: Option<FormatArg>,
     /// Write results to FILE (atomically: complete or not at all) instead of standard output.
     #[arg(long, value_name = "FILE")]
     pub output: Option<PathBuf>,
@@ -54,6 +77,13 @@ pub struct PrintArgs {
     /// No progress bar.
     #[arg(long, short)]
     pub quiet: bool,
+}
+
+impl PrintArgs {
+    /// The format to print in (see [`chosen_format`]).
+    pub fn format(&self) -> FormatArg {
+        chosen_format(self.format, self.output.as_deref(), FormatArg::Table)
+    }
 }
 
 /// A number for a flag read as a float (a module, an angle, a contact ratio), in the syntax
@@ -88,4 +118,25 @@ pub fn load_stock(
     }
     let names: Vec<String> = files.iter().map(|f| f.display().to_string()).collect();
     Pool::from_stock(&gears, &format!("catalogue {}", names.join(", ")))
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use std::path::Path;
+
+    #[test]
+    fn the_output_file_names_the_format_unless_one_is_given() {
+        let f = |given, out: Option<&str>| chosen_format(given, out.map(Path::new), FormatArg::Table);
+        assert!(matches!(f(None, Some("part-3.json")), FormatArg::Json));
+        assert!(matches!(f(None, Some("trains.CSV")), FormatArg::Csv));
+        assert!(matches!(f(None, Some("sheet.md")), FormatArg::Markdown));
+        assert!(matches!(f(None, Some("train.svg")), FormatArg::Svg));
+        assert!(matches!(f(None, Some("page.html")), FormatArg::Html));
+        // Given wins; an unknown extension or none keeps the default.
+        assert!(matches!(f(Some(FormatArg::Csv), Some("part.json")), FormatArg::Csv));
+        assert!(matches!(f(None, Some("notes.dat")), FormatArg::Table));
+        assert!(matches!(f(None, None), FormatArg::Table));
+        assert!(matches!(chosen_format(None, None, FormatArg::Json), FormatArg::Json));
+    }
 }

@@ -18,7 +18,7 @@ use gearsieve::report::search::json::Doc;
 use gearsieve::report::Report;
 use gearsieve::{Error, Quantity};
 
-use super::args::FormatArg;
+use super::args::{chosen_format, FormatArg};
 use super::flags::refuse;
 use super::run::{self, Job, Print, Words};
 
@@ -221,7 +221,8 @@ impl Job for DrawJob {
 
 /// Run `gearsieve draw`.
 pub fn run(args: DrawArgs) -> anyhow::Result<i32> {
-    let format = args.format.unwrap_or(if args.gear.is_some() { FormatArg::Table } else { FormatArg::Svg });
+    let default = if args.gear.is_some() { FormatArg::Table } else { FormatArg::Svg };
+    let format = chosen_format(args.format, args.output.as_deref(), default);
     let print = Print { format: format.into(), output: args.output.clone(), threads: None, quiet: true };
     run::run(&DrawJob::try_from(args)?, &print)
 }

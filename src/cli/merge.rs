@@ -7,7 +7,7 @@ use clap::Args;
 use gearsieve::report::search::json::Doc;
 use gearsieve::Error;
 
-use super::args::FormatArg;
+use super::args::{chosen_format, FormatArg};
 use super::run::{self, Print, Words};
 
 /// Combine the JSON results of every part of a split search.
@@ -17,9 +17,9 @@ pub struct MergeArgs {
     #[arg(value_name = "FILES", required = true)]
     pub files: Vec<PathBuf>,
     /// Output format: the JSON a whole search prints (for scripts and further merges), or any
-    /// other format the search offers.
-    #[arg(long, value_enum, default_value = "json")]
-    pub format: FormatArg,
+    /// other format the search offers [default: json, or the one --output's extension names].
+    #[arg(long, value_enum)]
+    pub format: Option<FormatArg>,
     /// Write the merged result to FILE (atomically) instead of standard output.
     #[arg(long, value_name = "FILE")]
     pub output: Option<PathBuf>,
@@ -37,7 +37,8 @@ pub fn run(args: MergeArgs) -> anyhow::Result<i32> {
         docs.push((name, doc));
     }
     let merged = gearsieve::report::search::merge::merge(docs)?;
-    let print = Print { format: args.format.into(), output: args.output, threads: None, quiet: true };
+    let format = chosen_format(args.format, args.output.as_deref(), FormatArg::Json);
+    let print = Print { format: format.into(), output: args.output, threads: None, quiet: true };
     // The parts said what they found; a merge adds no words of its own.
     let words = Words { interrupted: None, nothing: None };
     run::present(&merged, &print, &words)

@@ -21,7 +21,7 @@ use gearsieve::report::mesh::{MeshInputs, MeshReport, MountingInput};
 use gearsieve::report::Report;
 use gearsieve::{Error, Quantity};
 
-use super::args::{number, FormatArg};
+use super::args::{chosen_format, number, FormatArg};
 use super::flags::refuse;
 use super::run::{self, Job, Print, Words};
 
@@ -78,9 +78,10 @@ pub struct MeshArgs {
     /// Accept undercut gears (small clock pinions are often cut so); still reported.
     #[arg(long)]
     pub allow_undercut: bool,
-    /// Output format (a mesh check has no CSV rows).
-    #[arg(long, value_enum, default_value = "table")]
-    pub format: FormatArg,
+    /// Output format (a mesh check has no CSV rows) [default: table, or the one --output's
+    /// extension names].
+    #[arg(long, value_enum)]
+    pub format: Option<FormatArg>,
     /// Write the report to FILE (atomically: complete or not at all) instead of standard output.
     #[arg(long, value_name = "FILE")]
     pub output: Option<PathBuf>,
@@ -206,7 +207,7 @@ impl TryFrom<MeshArgs> for MeshJob {
             system,
             inputs: MeshInputs { teeth, module_mm, diametral_pitch, pressure_angle_deg: pa, rack, mounting },
             limits,
-            format: a.format,
+            format: chosen_format(a.format, a.output.as_deref(), FormatArg::Table),
             output: a.output,
         })
     }

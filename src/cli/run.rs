@@ -30,7 +30,7 @@ pub struct Print {
 impl From<&PrintArgs> for Print {
     fn from(a: &PrintArgs) -> Print {
         Print {
-            format: a.format.into(),
+            format: a.format().into(),
             output: a.output.clone(),
             threads: a.threads.map(usize::from),
             quiet: a.quiet,
@@ -163,6 +163,23 @@ pub fn forecast(outlook: Option<Outlook<'_>>, print: &Print) -> anyhow::Result<(
     }
     if wall > NOTE_ABOVE_S && !print.quiet {
         eprintln!("gearsieve: this search will take {what}; Ctrl-C stops it and prints the best so far");
+    } else if let Some(s) = o.shard.filter(|_| !print.quiet) {
+        // A scheduler's log shows what each part will take, so the parts can be sized.
+        let whole = (one_thread + split) / threads as f64;
+        eprintln!(
+            "gearsieve: part {s}: {}{} on {threads} thread{}; the whole search {} on one machine{}",
+            if wall < 1.0 {
+                ""
+            } else if at_least {
+                "at least "
+            } else {
+                "about "
+            },
+            human_duration(wall),
+            if threads == 1 { "" } else { "s" },
+            human_duration(whole),
+            if one_thread > 0.0 { " (some of the work cannot be split, and every part does it)" } else { "" }
+        );
     }
     Ok(())
 }
@@ -176,9 +193,11 @@ pub fn either(items: &[String]) -> String {
     }
 }
 
-/// `45 s`, `12 min`, `3.2 hours`.
+/// `under 1 s`, `45 s`, `12 min`, `3.2 hours`.
 fn human_duration(s: f64) -> String {
-    if s < 90.0 {
+    if s < 1.0 {
+        "under 1 s".to_string()
+    } else if s < 90.0 {
         format!("{s:.0} s")
     } else if s < 5400.0 {
         format!("{:.0} min", s / 60.0)
@@ -196,7 +215,21 @@ pub fn run<J: Job>(job: &J, print: &Print) -> anyhow::Result<i32> {
     let found = with_threads(print.threads, || job.search(&options))??;
     bar.finish();
     let report = job.report(&found);
-    present(report.as_ref(), print, &job.words(&found))
+    match job.shard() {
+        // A part that holds no train is a result like any other: a scheduler must not take it
+        // for a failure, and the hint to relax the search would mislead.
+        Some(s) => {
+            let words = Words {
+                nothing: Some(format!(
+                    "part {s} holds no train; the other parts may (combine the parts' JSON with gearsieve merge)"
+                )),
+                ..job.words(&found)
+            };
+            let code = present(report.as_ref(), print, &words)?;
+            Ok(if code == EXIT_NOTHING_FOUND { EXIT_OK } else { code })
+        }
+        None => present(report.as_ref(), print, &job.words(&found)),
+    }
 }
 
 /// Render `report`, write it, and choose the exit status.

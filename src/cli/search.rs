@@ -224,7 +224,7 @@ impl TryFrom<SearchArgs> for SearchJob {
             if a.pareto {
                 return Err(refuse("--limit", "0 streams every train; it does not go with --pareto"));
             }
-            if matches!(a.print.format, FormatArg::Table | FormatArg::Markdown | FormatArg::Svg) {
+            if matches!(a.print.format(), FormatArg::Table | FormatArg::Markdown | FormatArg::Svg) {
                 return Err(refuse(
                     "--limit",
                     "0 streams every train; give --format csv, or json for JSON lines",
