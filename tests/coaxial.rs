@@ -189,3 +189,38 @@ fn the_reducer_shelf_case_shifts_no_gear_on_hand() {
         .count();
     assert!(flagged > 0);
 }
+
+#[test]
+fn gears_on_hand_at_a_fixed_distance_stand_apart_within_the_tolerance_and_say_the_backlash() {
+    // Standard 20 and 60 teeth at module 1 mesh tight at 40 mm (a = m(z1 + z2)/2). At 40.2 mm
+    // with 0.3 mm allowed they run, unshifted, with backlash; at 40.4 mm they are refused.
+    let args = [
+        "search",
+        "--ratio",
+        "3",
+        "--stock",
+        "catalogs/reducer-stock.csv",
+        "--stages",
+        "1",
+        "--tol",
+        "3%",
+        "--check-meshes",
+        "--centre-tol",
+        "0.3",
+    ];
+    let (code, v) = json(&[&args[..], &["--centre-distance", "40.2"]].concat());
+    assert_eq!(code, 0);
+    let s = &v["trains"][0]["stages"][0];
+    assert_eq!((s["driver"].as_u64(), s["driven"].as_u64()), (Some(20), Some(60)));
+    assert_eq!(s["shift"], serde_json::json!([0.0, 0.0]));
+    let j = s["backlash_mm"].as_f64().unwrap();
+    let alpha_w = s["working_pressure_angle_deg"].as_f64().unwrap().to_radians();
+    let inv = |a: f64| a.tan() - a;
+    // Circumferential backlash on the working pitch circles of unshifted gears pulled apart:
+    // the working pitch p_w less both tooth thicknesses s_w = d_w·(π/(2z) + inv α − inv α_w)
+    // (ISO 21771's tooth thickness on a circle) leaves j = 2·a_w·(inv α_w − inv α).
+    let expected = 2.0 * 40.2 * (inv(alpha_w) - inv(20f64.to_radians()));
+    assert!((j - expected).abs() < 1e-6, "{j} vs {expected}");
+    let (code, _) = json(&[&args[..], &["--centre-distance", "40.4"]].concat());
+    assert_eq!(code, 1);
+}

@@ -243,6 +243,11 @@ pub struct StageJson {
     /// Tip diameters `[driver, driven]`, mm.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub tip_diameter_mm: Option<[f64; 2]>,
+    /// Nominal circumferential backlash, mm, of gears already made mounted beyond their tight
+    /// distance (a fixed or coaxial centre distance within the centre-distance tolerance);
+    /// absent for a tight mesh.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub backlash_mm: Option<f64>,
     /// What is wrong with this stage's gears on hand as they are made, in shop words (absent
     /// when nothing is).
     #[serde(default, skip_serializing_if = "Vec::is_empty")]
@@ -266,6 +271,7 @@ impl StageJson {
             working_pressure_angle_deg: None,
             contact_ratio: None,
             tip_diameter_mm: None,
+            backlash_mm: None,
             on_hand_defects: Vec::new(),
         }
     }
@@ -299,6 +305,7 @@ impl TrainJson {
                     working_pressure_angle_deg: s.mesh.map(|m| m.working_pressure_angle_deg),
                     contact_ratio: s.mesh.map(|m| m.contact_ratio),
                     tip_diameter_mm: s.mesh.map(|m| m.tip_diameter_mm),
+                    backlash_mm: s.mesh.map(|m| m.backlash_mm).filter(|&j| j > 1e-9),
                     on_hand_defects: s.on_hand_defects.iter().map(ToString::to_string).collect(),
                 })
                 .collect(),

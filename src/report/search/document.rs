@@ -195,6 +195,20 @@ fn meshes(doc: &Doc, d: &mut Document) {
         .prefix(5, "εα ")
         .prefix(6, "da ");
     d.table(table.with_rows(rows));
+    for (i, t) in doc.trains.iter().enumerate() {
+        for s in &t.stages {
+            if let (Some(j), Some(aw)) = (s.backlash_mm, s.working_centre_distance_mm) {
+                d.line(format!(
+                    "  #{} {}→{}: gears as made, pulled apart to {aw:.3} mm: backlash {j:.3} mm (nominal), \
+                     working pressure angle {:.2}°",
+                    i + 1,
+                    s.driver,
+                    s.driven,
+                    s.working_pressure_angle_deg.unwrap_or(f64::NAN)
+                ));
+            }
+        }
+    }
 }
 
 /// Why stage pairings were left out by the mesh checks.
