@@ -241,7 +241,7 @@ pub enum Quantity {
     StudToLeadscrew,
     /// The distances from the leadscrew the banjo's intermediate stud can take, mm.
     IntermediateRange,
-    /// The diameter of the banjo's shafts and spacers, mm.
+    /// The diameter of shafts, mm: a banjo's shafts and spacers, a reducer's shafts.
     ShaftDiameter,
     /// A built-in series of threads, by name.
     Series,
@@ -292,6 +292,16 @@ pub enum Quantity {
     CarrierOffset,
     /// The least gap between the tip circles of neighbouring planets, mm.
     PlanetClearance,
+    /// The normal backlash a pair is to have, mm, `LO..HI`.
+    Backlash,
+    /// How far a housing's centre distance may stray either way, mm.
+    HousingTolerance,
+    /// The diameter of the balls or pins a gear is measured over, mm.
+    BallDiameter,
+    /// The least gap between a gear's tip circle and a shaft it does not sit on, mm.
+    ShaftMargin,
+    /// A reducer's smallest ratio of one stage.
+    MinStageRatio,
 }
 
 impl Quantity {
@@ -356,6 +366,11 @@ impl Quantity {
             Quantity::DrivingMember => "the driving member",
             Quantity::CarrierOffset => "the carrier's offset from midway",
             Quantity::PlanetClearance => "the clearance between neighbouring planets",
+            Quantity::Backlash => "the backlash",
+            Quantity::HousingTolerance => "the housing's centre-distance tolerance",
+            Quantity::BallDiameter => "the ball diameter",
+            Quantity::ShaftMargin => "the margin between a gear and another shaft",
+            Quantity::MinStageRatio => "the smallest stage ratio",
         }
     }
 }

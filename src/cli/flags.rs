@@ -69,6 +69,11 @@ pub fn flag_for(quantity: Quantity) -> &'static str {
         Quantity::DrivingMember => "--input",
         Quantity::CarrierOffset => "--carrier-offset",
         Quantity::PlanetClearance => "--tip-clearance",
+        Quantity::Backlash => "--backlash",
+        Quantity::HousingTolerance => "--housing-tol",
+        Quantity::BallDiameter => "--balls",
+        Quantity::ShaftMargin => "--shaft-margin",
+        Quantity::MinStageRatio => "--min-stage-ratio",
     }
 }
 
@@ -282,6 +287,11 @@ mod tests {
             Quantity::DrivingMember,
             Quantity::CarrierOffset,
             Quantity::PlanetClearance,
+            Quantity::Backlash,
+            Quantity::HousingTolerance,
+            Quantity::BallDiameter,
+            Quantity::ShaftMargin,
+            Quantity::MinStageRatio,
         ];
         for q in all {
             assert!(options.iter().any(|o| o == flag_for(q)), "{q}: {} is no option", flag_for(q));

@@ -17,7 +17,9 @@ use gearsieve::model::pool::{
 use gearsieve::model::problem::{check_min_contact_ratio, DEFAULT_SHIFT_SUM};
 use gearsieve::numbers::length::{parse_length, LengthUnit};
 use gearsieve::numbers::range::parse_signed_range;
-use gearsieve::report::mesh::{MeshInputs, MeshReport, MountingInput};
+use gearsieve::geometry::allowance::BacklashChoice;
+use gearsieve::geometry::measure::{pair_data, PairData};
+use gearsieve::report::mesh::{MeshInputs, MeshReport, MountingInput, ShopInputs};
 use gearsieve::report::Report;
 use gearsieve::{Error, Quantity};
 
@@ -78,6 +80,20 @@ pub struct MeshArgs {
     /// Accept undercut gears (small clock pinions are often cut so); still reported.
     #[arg(long)]
     pub allow_undercut: bool,
+    /// Normal backlash the pair is to have, mm: LO..HI, over the whole housing tolerance; the
+    /// tooth-thickness allowances are worked out from it [default: the recommended least
+    /// backlash (2/3)(0.06 + 0.0005·a + 0.03·m), ISO/TR 10064-2, up to twice that plus what
+    /// the housing tolerance opens].
+    #[arg(long, value_name = "LO..HI")]
+    pub backlash: Option<String>,
+    /// How far the housing may put the centres from the working centre distance, either way,
+    /// mm (± f_a) [default: 0].
+    #[arg(long, value_name = "MM")]
+    pub housing_tol: Option<String>,
+    /// Ball or pin diameters to measure over, mm, driver and driven (or one for both)
+    /// [default: a size touching near the reference circle, rounded to 0.05 mm].
+    #[arg(long, value_name = "D1,D2")]
+    pub balls: Option<String>,
     /// Output format (a mesh check has no CSV rows).
     #[arg(long, value_enum, default_value = "table")]
     pub format: FormatArg,
@@ -91,6 +107,7 @@ pub struct MeshArgs {
 pub struct MeshJob {
     system: ToothSystem,
     inputs: MeshInputs,
+    shop: ShopInputs,
     limits: MeshLimits,
     format: FormatArg,
     output: Option<PathBuf>,
@@ -133,6 +150,46 @@ fn parse_shift(text: &str) -> anyhow::Result<[f64; 2]> {
     };
     let shift = |s: &str| s.parse::<f64>().ok().filter(|x| x.is_finite()).ok_or_else(bad);
     Ok([shift(a)?, shift(b)?])
+}
+
+/// `--backlash LO..HI` as a backlash choice: the recommended one when not given.
+pub fn parse_backlash(text: Option<&str>) -> anyhow::Result<BacklashChoice> {
+    let Some(text) = text else {
+        return Ok(BacklashChoice::Recommended);
+    };
+    let (lo, hi) = parse_signed_range(text, Quantity::Backlash, "mm")?;
+    if lo < 0.0 || hi <= lo {
+        return Err(refuse(
+            "--backlash",
+            format!("wanted LO..HI in mm with 0 ≤ LO < HI, such as 0.08..0.2, found \"{}\"", text.trim()),
+        ));
+    }
+    Ok(BacklashChoice::Range([lo, hi]))
+}
+
+/// `--housing-tol MM`: a length, or 0; 0 when not given.
+pub fn parse_housing_tolerance(text: Option<&str>) -> anyhow::Result<f64> {
+    match text.map(str::trim) {
+        None => Ok(0.0),
+        Some(t) if t.parse::<f64>() == Ok(0.0) => Ok(0.0),
+        Some(t) => Ok(parse_length(t, Quantity::HousingTolerance, Some(LengthUnit::Millimetre))?.mm_f64()),
+    }
+}
+
+/// `--balls D1,D2` (or one for both) as ball diameters in mm; the suggested ones when not given.
+fn parse_balls(text: Option<&str>) -> anyhow::Result<[Option<f64>; 2]> {
+    let Some(text) = text else {
+        return Ok([None, None]);
+    };
+    let parts: Vec<&str> = text.split(',').map(str::trim).collect();
+    let ball = |s: &str| -> anyhow::Result<Option<f64>> {
+        Ok(Some(parse_length(s, Quantity::BallDiameter, Some(LengthUnit::Millimetre))?.mm_f64()))
+    };
+    match parts[..] {
+        [one] => Ok([ball(one)?, ball(one)?]),
+        [a, b] => Ok([ball(a)?, ball(b)?]),
+        _ => Err(refuse("--balls", format!("wanted one or two diameters in mm such as 3.5,3.5, found \"{text}\""))),
+    }
 }
 
 /// A number that must be finite and satisfy `ok`, else `--flag: wanted …, found …`.
@@ -202,9 +259,15 @@ impl TryFrom<MeshArgs> for MeshJob {
         // Every value ToothSystem::new checks was checked above with its flag; this is a
         // fallback that keeps a future rule of the geometry from becoming a panic.
         let system = ToothSystem::new(module_mm, pa, rack).map_err(Error::from)?;
+        let shop = ShopInputs {
+            backlash: parse_backlash(a.backlash.as_deref())?,
+            housing_tolerance_mm: parse_housing_tolerance(a.housing_tol.as_deref())?,
+            balls_mm: parse_balls(a.balls.as_deref())?,
+        };
         Ok(MeshJob {
             system,
             inputs: MeshInputs { teeth, module_mm, diametral_pitch, pressure_angle_deg: pa, rack, mounting },
+            shop,
             limits,
             format: a.format,
             output: a.output,
@@ -277,12 +340,14 @@ fn geometry(job: &MeshJob) -> Result<MeshGeometry, MeshDefect> {
 }
 
 impl Job for MeshJob {
-    type Found = (MeshGeometry, Vec<MeshDefect>);
+    type Found = (MeshGeometry, Vec<MeshDefect>, PairData);
 
     fn search(&self, _options: &RunOptions) -> anyhow::Result<Self::Found> {
         let mesh = geometry(self).map_err(|d| explain(self, d))?;
         let defects = check_mesh(&mesh, &self.limits);
-        Ok((mesh, defects))
+        let shop = &self.shop;
+        let pair = pair_data(&self.system, &mesh, shop.backlash, shop.housing_tolerance_mm, shop.balls_mm);
+        Ok((mesh, defects, pair))
     }
 
     fn report<'a>(&'a self, found: &'a Self::Found) -> Box<dyn Report + 'a> {
@@ -291,6 +356,8 @@ impl Job for MeshJob {
             limits: &self.limits,
             geometry: &found.0,
             defects: &found.1,
+            shop: &self.shop,
+            pair: &found.2,
         })
     }
 

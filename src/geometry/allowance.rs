@@ -139,6 +139,40 @@ pub fn recommended_min_backlash_mm(centre_distance_mm: f64, module_mm: f64) -> f
     2.0 / 3.0 * (0.06 + 0.0005 * centre_distance_mm.abs() + 0.03 * module_mm)
 }
 
+/// What backlash a pair is to have.
+#[derive(Debug, Clone, Copy, PartialEq, serde::Serialize)]
+#[serde(rename_all = "snake_case")]
+pub enum BacklashChoice {
+    /// The recommended least normal backlash ([`recommended_min_backlash_mm`]) for the pair's
+    /// centre distance and module, and at most twice that plus what the centre-distance
+    /// tolerance opens (`4·f_a·sin α_w`, linearised): gearsieve's own default, not a standard.
+    Recommended,
+    /// Least and most normal backlash, mm.
+    Range([f64; 2]),
+}
+
+impl BacklashChoice {
+    /// The backlash range, mm, this choice gives a pair at `centre_distance_mm` of module
+    /// `module_mm` and working pressure angle `working_pressure_angle_deg` whose centres may
+    /// stray by `centre_tolerance_mm` either way.
+    pub fn range_mm(
+        &self,
+        centre_distance_mm: f64,
+        module_mm: f64,
+        working_pressure_angle_deg: f64,
+        centre_tolerance_mm: f64,
+    ) -> [f64; 2] {
+        match *self {
+            BacklashChoice::Range(r) => r,
+            BacklashChoice::Recommended => {
+                let least = recommended_min_backlash_mm(centre_distance_mm, module_mm);
+                let opening = 4.0 * centre_tolerance_mm * working_pressure_angle_deg.to_radians().sin();
+                [least, 2.0 * least + opening]
+            }
+        }
+    }
+}
+
 /// Sum of the tooth counts as a float.
 fn tooth_sum(teeth: [u32; 2]) -> f64 {
     f64::from(teeth[0]) + f64::from(teeth[1])

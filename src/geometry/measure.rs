@@ -34,8 +34,9 @@
 
 use std::f64::consts::PI;
 
-use super::involute::inv;
+use super::allowance::{AllowanceDefect, BacklashChoice, BacklashPlan, BacklashSpec};
 use super::system::ToothSystem;
+use super::working::MeshGeometry;
 
 /// Step a suggested ball diameter is rounded to, mm (a choice of ours, not a standard).
 pub const BALL_STEP_MM: f64 = 0.05;
@@ -348,9 +349,65 @@ impl ToothSystem {
     }
 }
 
+/// Both gears of an external mesh, measured, with the backlash plan whose allowances they
+/// carry.
+#[derive(Debug, Clone, PartialEq, serde::Serialize)]
+pub struct PairData {
+    /// The tooth-thickness allowances and the backlash they give; `None` when none could be
+    /// found (the reason is in `backlash_problem`).
+    pub backlash: Option<BacklashPlan>,
+    /// Why no allowances fit, in words, when none do.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub backlash_problem: Option<String>,
+    /// The data block of each gear, in the order of the mesh.
+    pub gears: [GearData; 2],
+}
+
+/// The data of both gears of `mesh` (cut to `system`), with tooth-thickness allowances for
+/// the backlash `choice` over the centre-distance tolerance `centre_tolerance_mm` (± mm), and
+/// balls `ball_mm` (`None` for the suggested size). Tip and root diameters are the mesh's (tips
+/// as shortened), the shifts the mesh's, so gears on hand with their own shift are measured as
+/// they are. When no allowances fit, the gears get nominal figures only and the reason is
+/// kept in [`PairData::backlash_problem`].
+pub fn pair_data(
+    system: &ToothSystem,
+    mesh: &MeshGeometry,
+    choice: BacklashChoice,
+    centre_tolerance_mm: f64,
+    ball_mm: [Option<f64>; 2],
+) -> PairData {
+    let spec = BacklashSpec {
+        normal_backlash_mm: choice.range_mm(
+            mesh.centre_distance_mm,
+            mesh.module_mm,
+            mesh.working_pressure_angle_deg,
+            centre_tolerance_mm,
+        ),
+        centre_tolerance_mm,
+    };
+    let planned = system.allowances_for_backlash(mesh.teeth, mesh.shift_sum(), mesh.centre_distance_mm, spec);
+    let (backlash, problem) = match planned {
+        Ok(p) => (Some(p), None),
+        Err(e) => (None, Some(e)),
+    };
+    let gear = |i: usize| {
+        system.gear_data(
+            GearKind::External,
+            mesh.teeth[i],
+            mesh.shift[i],
+            mesh.tip_diameter_mm[i],
+            mesh.root_diameter_mm[i],
+            backlash.map(|p| [p.allowances.upper_mm[i], p.allowances.lower_mm[i]]),
+            ball_mm[i],
+        )
+    };
+    PairData { backlash, backlash_problem: problem.map(|e: AllowanceDefect| e.to_string()), gears: [gear(0), gear(1)] }
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;
+    use crate::geometry::involute::inv;
     use crate::geometry::outline::gear_outline;
     use crate::geometry::RackProfile;
 
