@@ -7,6 +7,8 @@ use std::path::PathBuf;
 
 use clap::{ArgGroup, Args};
 use gearsieve::engine::RunOptions;
+use gearsieve::geometry::allowance::BacklashChoice;
+use gearsieve::geometry::measure::{pair_data, PairData};
 use gearsieve::geometry::{
     check_mesh, mesh_geometry, shift_for_centre_distance, MeshDefect, MeshGeometry, MeshLimits, Mounting,
     RackProfile, ToothSystem, MM_PER_INCH,
@@ -17,8 +19,6 @@ use gearsieve::model::pool::{
 use gearsieve::model::problem::{check_min_contact_ratio, DEFAULT_SHIFT_SUM};
 use gearsieve::numbers::length::{parse_length, LengthUnit};
 use gearsieve::numbers::range::parse_signed_range;
-use gearsieve::geometry::allowance::BacklashChoice;
-use gearsieve::geometry::measure::{pair_data, PairData};
 use gearsieve::report::mesh::{MeshInputs, MeshReport, MountingInput, ShopInputs};
 use gearsieve::report::Report;
 use gearsieve::{Error, Quantity};
@@ -188,7 +188,10 @@ fn parse_balls(text: Option<&str>) -> anyhow::Result<[Option<f64>; 2]> {
     match parts[..] {
         [one] => Ok([ball(one)?, ball(one)?]),
         [a, b] => Ok([ball(a)?, ball(b)?]),
-        _ => Err(refuse("--balls", format!("wanted one or two diameters in mm such as 3.5,3.5, found \"{text}\""))),
+        _ => Err(refuse(
+            "--balls",
+            format!("wanted one or two diameters in mm such as 3.5,3.5, found \"{text}\""),
+        )),
     }
 }
 

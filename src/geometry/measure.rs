@@ -401,7 +401,11 @@ pub fn pair_data(
             ball_mm[i],
         )
     };
-    PairData { backlash, backlash_problem: problem.map(|e: AllowanceDefect| e.to_string()), gears: [gear(0), gear(1)] }
+    PairData {
+        backlash,
+        backlash_problem: problem.map(|e: AllowanceDefect| e.to_string()),
+        gears: [gear(0), gear(1)],
+    }
 }
 
 #[cfg(test)]

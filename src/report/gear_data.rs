@@ -59,7 +59,9 @@ fn rows(gears: &[&GearData]) -> Vec<Vec<String>> {
             GearKind::Internal => format!("{} between", len(b.dimension.nominal_mm)),
         })
     });
-    row("over / between balls, accepted", "mm", &|g| g.over_balls.map_or("-".into(), |b| accepted(&b.dimension)));
+    row("over / between balls, accepted", "mm", &|g| {
+        g.over_balls.map_or("-".into(), |b| accepted(&b.dimension))
+    });
     row("chordal thickness, nominal", "mm", &|g| len(g.chordal.thickness.nominal_mm));
     row("chordal thickness, accepted", "mm", &|g| accepted(&g.chordal.thickness));
     row("chordal height", "mm", &|g| len(g.chordal.height_mm));
@@ -97,7 +99,7 @@ pub fn add_table(d: &mut Document, heading: &str, labels: &[String], gears: &[&G
 pub fn backlash_lines(pair: &PairData) -> Vec<String> {
     match (&pair.backlash, &pair.backlash_problem) {
         (Some(p), _) => describe(p),
-        (None, Some(why)) => vec![format!("No tooth-thickness allowances fit: {why}.")],
+        (None, Some(why)) => vec![format!("no tooth-thickness allowances fit: {why}.")],
         (None, None) => Vec::new(),
     }
 }
@@ -106,7 +108,7 @@ fn describe(p: &BacklashPlan) -> Vec<String> {
     let b = &p.backlash;
     vec![
         format!(
-            "Normal backlash wanted {} to {} mm with the centres {} to {} mm apart (housing tolerance ±{} mm)",
+            "normal backlash wanted {} to {} mm with the centres {} to {} mm apart (housing tolerance ±{} mm)",
             len(p.spec.normal_backlash_mm[0]),
             len(p.spec.normal_backlash_mm[1]),
             len(b.centre_distance_mm[0]),
@@ -114,7 +116,7 @@ fn describe(p: &BacklashPlan) -> Vec<String> {
             fmt_num(p.spec.centre_tolerance_mm)
         ),
         format!(
-            "Backlash with the allowances: normal {} to {} mm, circumferential {} to {} mm",
+            "backlash with the allowances: normal {} to {} mm, circumferential {} to {} mm",
             len(b.normal_mm[0]),
             len(b.normal_mm[1]),
             len(b.circumferential_mm[0]),

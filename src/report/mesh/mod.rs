@@ -25,11 +25,11 @@ use std::io::Write;
 use serde::Serialize;
 
 use super::fields::StageJson;
+use super::gear_data;
 use super::words::MESH_CAUTION;
 use super::{
     pictures, write_json, Completion, Document, Drawing, RenderError, Report, Table, SCHEMA_VERSION,
 };
-use super::gear_data;
 use crate::geometry::allowance::{BacklashChoice, BacklashPlan};
 use crate::geometry::measure::{GearData, PairData};
 use crate::geometry::{MeshDefect, MeshGeometry, MeshLimits, RackProfile, MM_PER_INCH};

@@ -3,11 +3,71 @@
 //! whether the pair is hunting — and its envelope and output speed; the caution at the foot.
 //! It computes nothing about gears.
 
+use crate::geometry::layout::ShaftLayout;
 use crate::model::pool::fmt_num;
+use crate::report::gear_data;
 use crate::report::words::{count_line, describe_error, describe_tolerance, CONVENTION, REDUCER_CAUTION};
 use crate::report::{Document, Table};
 use crate::trades::reducer::hunting::{is_hunting, non_hunting, spread};
+use crate::trades::reducer::shop::TrainShop;
 use crate::trades::reducer::{centre_distance_sum_mm, largest_tip_mm, Hunting, Priority, ReducerPlan};
+
+/// Where the shafts sit, how close a gear comes to another shaft, each stage's backlash, and
+/// the gear data table of the train.
+fn shop_section(p: &ReducerPlan, shop: &TrainShop, d: &mut Document) {
+    let last = shop.shafts_mm.len().saturating_sub(1);
+    let shafts: Vec<String> = shop
+        .shafts_mm
+        .iter()
+        .enumerate()
+        .map(|(k, c)| {
+            let name = match k {
+                0 => "input".to_string(),
+                k if k == last => "output".to_string(),
+                k => format!("shaft {k}"),
+            };
+            format!("{name} ({}, {})", fmt_num(c[0]), fmt_num(c[1]))
+        })
+        .collect();
+    let layout = match p.spec.shop.layout {
+        ShaftLayout::Inline => "in line".to_string(),
+        ShaftLayout::Folded { turn_deg } => format!("folded {}° at each stage", fmt_num(turn_deg)),
+    };
+    d.item(1, false, format!("shafts, {layout}, centres in mm: {}", shafts.join(", ")));
+    if let (Some(c), Some(dia)) = (shop.tightest, p.spec.shop.shaft_diameter_mm) {
+        d.item(
+            1,
+            false,
+            format!(
+                "tightest: the stage {} {} clears {} ({} mm) by {} mm (margin wanted {} mm)",
+                c.stage,
+                if c.driven { "gear" } else { "pinion" },
+                match c.shaft {
+                    0 => "the input shaft".to_string(),
+                    k if k == last => "the output shaft".to_string(),
+                    k => format!("shaft {k}"),
+                },
+                fmt_num(dia),
+                fmt_num(c.gap_mm),
+                fmt_num(p.spec.shop.shaft_margin_mm)
+            ),
+        );
+    }
+    let mut labels = Vec::new();
+    let mut gears = Vec::new();
+    for (k, stage) in shop.stages.iter().enumerate() {
+        let Some(pair) = stage else { continue };
+        for line in gear_data::backlash_lines(pair) {
+            d.item(1, false, format!("stage {}: {line}", k + 1));
+        }
+        labels.push(format!("{} pinion", k + 1));
+        labels.push(format!("{} gear", k + 1));
+        gears.extend(pair.gears.iter());
+    }
+    if !gears.is_empty() {
+        gear_data::add_table(d, "", &labels, &gears);
+    }
+}
 
 /// A reducer search as a document.
 pub fn document(p: &ReducerPlan) -> Document {
@@ -116,6 +176,9 @@ pub fn document(p: &ReducerPlan) -> Document {
                 fmt_num(centre_distance_sum_mm(t))
             ),
         );
+        if let Some(shop) = p.shop.get(n) {
+            shop_section(p, shop, &mut d);
+        }
     }
     d.blank();
     d.note("Stages run from the input (motor) shaft to the output shaft; shifts in modules.");
