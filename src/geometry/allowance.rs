@@ -38,7 +38,7 @@ use super::system::ToothSystem;
 
 /// The normal backlash a pair should have, mm, and how far its working centre distance may
 /// stray as the housing is bored.
-#[derive(Debug, Clone, Copy, PartialEq, serde::Serialize)]
+#[derive(Debug, Clone, Copy, PartialEq, serde::Serialize, serde::Deserialize)]
 pub struct BacklashSpec {
     /// Least and most normal backlash, mm, over the whole centre-distance tolerance.
     pub normal_backlash_mm: [f64; 2],
@@ -49,7 +49,7 @@ pub struct BacklashSpec {
 
 /// Tooth-thickness allowances of the two gears of a pair, on the reference circle, mm
 /// (negative: thinner than nominal). Index 0 and 1 are the gears in the order of the pair.
-#[derive(Debug, Clone, Copy, PartialEq, serde::Serialize)]
+#[derive(Debug, Clone, Copy, PartialEq, serde::Serialize, serde::Deserialize)]
 pub struct ThicknessAllowances {
     /// Upper allowance of each gear (the thickest tooth accepted), mm.
     pub upper_mm: [f64; 2],
@@ -65,7 +65,7 @@ impl ThicknessAllowances {
 }
 
 /// The backlash a pair with allowances has at the ends of its centre-distance tolerance.
-#[derive(Debug, Clone, Copy, PartialEq, serde::Serialize)]
+#[derive(Debug, Clone, Copy, PartialEq, serde::Serialize, serde::Deserialize)]
 pub struct BacklashRange {
     /// Least and most centre distance, mm.
     pub centre_distance_mm: [f64; 2],
@@ -77,7 +77,7 @@ pub struct BacklashRange {
 }
 
 /// The allowances chosen for a pair and the backlash they give.
-#[derive(Debug, Clone, Copy, PartialEq, serde::Serialize)]
+#[derive(Debug, Clone, Copy, PartialEq, serde::Serialize, serde::Deserialize)]
 pub struct BacklashPlan {
     /// What was asked.
     pub spec: BacklashSpec,
@@ -140,7 +140,7 @@ pub fn recommended_min_backlash_mm(centre_distance_mm: f64, module_mm: f64) -> f
 }
 
 /// What backlash a pair is to have.
-#[derive(Debug, Clone, Copy, PartialEq, serde::Serialize)]
+#[derive(Debug, Clone, Copy, PartialEq, serde::Serialize, serde::Deserialize)]
 #[serde(rename_all = "snake_case")]
 pub enum BacklashChoice {
     /// The recommended least normal backlash ([`recommended_min_backlash_mm`]) for the pair's

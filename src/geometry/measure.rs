@@ -42,7 +42,7 @@ use super::working::MeshGeometry;
 pub const BALL_STEP_MM: f64 = 0.05;
 
 /// Whether a gear has its teeth outside (an ordinary gear) or inside (a ring gear).
-#[derive(Debug, Clone, Copy, PartialEq, Eq, serde::Serialize)]
+#[derive(Debug, Clone, Copy, PartialEq, Eq, serde::Serialize, serde::Deserialize)]
 #[serde(rename_all = "snake_case")]
 pub enum GearKind {
     /// Teeth on the outside.
@@ -52,7 +52,7 @@ pub enum GearKind {
 }
 
 /// A measured size nominal and at the two allowances.
-#[derive(Debug, Clone, Copy, PartialEq, serde::Serialize)]
+#[derive(Debug, Clone, Copy, PartialEq, serde::Serialize, serde::Deserialize)]
 pub struct Measure {
     /// With nominal tooth thickness, mm.
     pub nominal_mm: f64,
@@ -63,7 +63,7 @@ pub struct Measure {
 }
 
 /// The span over `k` teeth.
-#[derive(Debug, Clone, Copy, PartialEq, serde::Serialize)]
+#[derive(Debug, Clone, Copy, PartialEq, serde::Serialize, serde::Deserialize)]
 pub struct Span {
     /// Teeth spanned.
     pub teeth: u32,
@@ -76,7 +76,7 @@ pub struct Span {
 }
 
 /// The dimension over (external) or between (internal) two balls or pins.
-#[derive(Debug, Clone, Copy, PartialEq, serde::Serialize)]
+#[derive(Debug, Clone, Copy, PartialEq, serde::Serialize, serde::Deserialize)]
 pub struct OverBalls {
     /// Ball or pin diameter, mm.
     pub ball_diameter_mm: f64,
@@ -89,7 +89,7 @@ pub struct OverBalls {
 }
 
 /// Chordal tooth thickness and height on the reference circle.
-#[derive(Debug, Clone, Copy, PartialEq, serde::Serialize)]
+#[derive(Debug, Clone, Copy, PartialEq, serde::Serialize, serde::Deserialize)]
 pub struct Chordal {
     /// Chordal thickness, mm.
     pub thickness: Measure,
@@ -99,7 +99,7 @@ pub struct Chordal {
 }
 
 /// The data block a gear is cut and inspected from.
-#[derive(Debug, Clone, Copy, PartialEq, serde::Serialize)]
+#[derive(Debug, Clone, Copy, PartialEq, serde::Serialize, serde::Deserialize)]
 pub struct GearData {
     /// External or internal.
     pub kind: GearKind,
@@ -351,13 +351,13 @@ impl ToothSystem {
 
 /// Both gears of an external mesh, measured, with the backlash plan whose allowances they
 /// carry.
-#[derive(Debug, Clone, PartialEq, serde::Serialize)]
+#[derive(Debug, Clone, PartialEq, serde::Serialize, serde::Deserialize)]
 pub struct PairData {
     /// The tooth-thickness allowances and the backlash they give; `None` when none could be
     /// found (the reason is in `backlash_problem`).
     pub backlash: Option<BacklashPlan>,
     /// Why no allowances fit, in words, when none do.
-    #[serde(skip_serializing_if = "Option::is_none")]
+    #[serde(default, skip_serializing_if = "Option::is_none")]
     pub backlash_problem: Option<String>,
     /// The data block of each gear, in the order of the mesh.
     pub gears: [GearData; 2],

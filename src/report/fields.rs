@@ -226,6 +226,10 @@ pub struct StageJson {
     /// Tip diameters `[driver, driven]`, mm.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub tip_diameter_mm: Option<[f64; 2]>,
+    /// Allowances, backlash and the data block of both gears (`search --explain` over
+    /// worked-out meshes).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub gear_data: Option<crate::geometry::measure::PairData>,
 }
 
 impl StageJson {
@@ -245,6 +249,7 @@ impl StageJson {
             working_pressure_angle_deg: None,
             contact_ratio: None,
             tip_diameter_mm: None,
+            gear_data: None,
         }
     }
 }
@@ -277,6 +282,7 @@ impl TrainJson {
                     working_pressure_angle_deg: s.mesh.map(|m| m.working_pressure_angle_deg),
                     contact_ratio: s.mesh.map(|m| m.contact_ratio),
                     tip_diameter_mm: s.mesh.map(|m| m.tip_diameter_mm),
+                    gear_data: None,
                 })
                 .collect(),
         }
