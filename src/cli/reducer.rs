@@ -46,6 +46,10 @@ pub enum PriorityArg {
     Balance,
     /// Ratio error first.
     Error,
+    /// Hunting pairs, then closeness to a rule of thumb for splitting the ratio (two stages:
+    /// the output stage 0.88·√i, the input stage the rest; Dunaev and Lelikov, from memory;
+    /// other counts: equal stages), in steps of 10 %, then ratio error.
+    Split,
 }
 
 /// A spur reducer: trains for a ratio with a module per stage, balanced stages and hunting-tooth
@@ -260,6 +264,7 @@ impl TryFrom<&ReducerArgs> for ReducerSpec {
             priority: match a.prefer {
                 PriorityArg::Balance => Priority::Balance,
                 PriorityArg::Error => Priority::Error,
+                PriorityArg::Split => Priority::Split,
             },
             input_rpm: input_rpm.map(|r| r.to_f64()),
             stock,

@@ -10,6 +10,7 @@ use crate::report::words::{count_line, describe_error, describe_tolerance, CONVE
 use crate::report::{Document, Table};
 use crate::trades::reducer::hunting::{is_hunting, non_hunting, spread};
 use crate::trades::reducer::shop::TrainShop;
+use crate::trades::reducer::split::{rule_split, split_deviation};
 use crate::trades::reducer::{centre_distance_sum_mm, largest_tip_mm, Hunting, Priority, ReducerPlan};
 
 /// Where the shafts sit, how close a gear comes to another shaft, each stage's backlash, and
@@ -108,16 +109,36 @@ pub fn document(p: &ReducerPlan) -> Document {
         match s.priority {
             Priority::Balance => "hunting pairs, stage balance in steps of 10%, error, size",
             Priority::Error => "error, hunting pairs, stage balance in steps of 10%, size",
+            Priority::Split => "hunting pairs, closeness to the split rule in steps of 10%, error, size",
         }
     ));
+    if s.priority == Priority::Split {
+        let n = p.problem.stages.hi as usize;
+        let rule: Vec<String> = rule_split(s.ratio.to_f64(), n).iter().map(|r| format!("{r:.3}")).collect();
+        d.line(format!(
+            "Split rule: {} for {n} stage{} (input to output; {})",
+            rule.join(" × "),
+            if n == 1 { "" } else { "s" },
+            if n == 2 {
+                "output stage 0.88·√i, Dunaev and Lelikov's design handbook, from memory; stages of one module may be mounted in either order"
+            } else {
+                "equal stages, common practice"
+            }
+        ));
+    }
     d.blank();
     d.line(count_line(p.count, p.trains.len(), p.complete, "train", "best first"));
     for (n, t) in p.trains.iter().enumerate() {
         d.blank();
+        let from_rule = if s.priority == Priority::Split {
+            format!("; {:.1}% from the split rule", (split_deviation(t).exp() - 1.0) * 100.0)
+        } else {
+            String::new()
+        };
         let speed = s.input_rpm.map_or(String::new(), |rpm| {
             format!("; output {} rpm at {} rpm in", fmt_num(rpm / t.ratio.to_f64()), fmt_num(rpm))
         });
-        d.heading(format!("{}. i = {} = {:.5} ({}); balance {:.3} (largest stage ratio / smallest); {} non-hunting pair{}{speed}",
+        d.heading(format!("{}. i = {} = {:.5} ({}); balance {:.3} (largest stage ratio / smallest); {} non-hunting pair{}{from_rule}{speed}",
             n + 1,
             t.ratio,
             t.ratio.to_f64(),

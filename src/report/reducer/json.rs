@@ -5,7 +5,7 @@
 //! ```text
 //! {"hunting": [bool per stage], "non_hunting_pairs": n, "balance": largest/smallest stage ratio,
 //!  "largest_tip_diameter_mm": f64, "centre_distance_sum_mm": f64, "output_rpm": f64|null,
-//!  "shafts_mm": [[x, y], …], "tightest_shaft_clearance": {"stage", "driven", "shaft",
+//!  "split_deviation": |ln(stage ratio / the split rule's)| at most, "shafts_mm": [[x, y], …], "tightest_shaft_clearance": {"stage", "driven", "shaft",
 //!  "gap_mm"}|null, "stage_data": [{"backlash": {…}|null, "gears": [gear data, gear data]}|null]}
 //! ```
 //! A document is `{"schema_version", "target", "stage_counts", "modules_mm", "max_stage_ratio",
@@ -26,6 +26,7 @@ use crate::report::words::REDUCER_CAUTION;
 use crate::report::{write_json, RenderError, SCHEMA_VERSION};
 use crate::trades::reducer::hunting::{is_hunting, non_hunting, spread};
 use crate::trades::reducer::shop::ShaftClearance;
+use crate::trades::reducer::split::split_deviation;
 use crate::trades::reducer::{centre_distance_sum_mm, largest_tip_mm, Hunting, ReducerPlan};
 
 #[derive(Serialize)]
@@ -38,6 +39,7 @@ struct ReducerTrainJson {
     largest_tip_diameter_mm: f64,
     centre_distance_sum_mm: f64,
     output_rpm: Option<f64>,
+    split_deviation: f64,
     shafts_mm: Vec<[f64; 2]>,
     tightest_shaft_clearance: Option<ShaftClearance>,
     stage_data: Vec<Option<PairData>>,
@@ -112,6 +114,7 @@ pub fn write(p: &ReducerPlan, w: &mut dyn Write) -> Result<(), RenderError> {
                 largest_tip_diameter_mm: largest_tip_mm(t),
                 centre_distance_sum_mm: centre_distance_sum_mm(t),
                 output_rpm: s.input_rpm.map(|rpm| rpm / t.ratio.to_f64()),
+                split_deviation: split_deviation(t),
                 shafts_mm: shop.shafts_mm.clone(),
                 tightest_shaft_clearance: shop.tightest,
                 stage_data: shop.stages.clone(),

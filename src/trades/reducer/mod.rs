@@ -8,6 +8,7 @@
 //!
 //! - [`hunting`]: hunting-tooth pairs and the balance key;
 //! - [`housing`]: which stage goes in which place, at which centre distance;
+//! - [`split`]: a rule of thumb for splitting the ratio across stages, as a ranking key;
 //! - [`shop`]: shaft positions, the housing fit (gears clear of other shafts), and each stage's
 //!   allowances, backlash and gear data;
 //! - the output formats are in [`crate::report::reducer`].
@@ -19,6 +20,7 @@
 pub mod housing;
 pub mod hunting;
 pub mod shop;
+pub mod split;
 
 use std::sync::Arc;
 
@@ -57,6 +59,9 @@ pub enum Priority {
     Balance,
     /// Ratio error, then hunting and balance, then teeth.
     Error,
+    /// Hunting pairs (when preferred), then closeness to the rule of thumb of [`split`] in
+    /// steps of [`hunting::BALANCE_STEP`], then ratio error, then size.
+    Split,
 }
 
 /// What the reducer designer asks for.
@@ -281,7 +286,7 @@ impl ReducerSpec {
             limits.centre_distance_mm = Some(FloatRange { lo: (lo - slack).max(0.0), hi: hi + slack });
         }
         let rank = match self.priority {
-            Priority::Balance => vec![RankKey::Extra, RankKey::Error, RankKey::Size],
+            Priority::Balance | Priority::Split => vec![RankKey::Extra, RankKey::Error, RankKey::Size],
             Priority::Error => vec![RankKey::Error, RankKey::Extra, RankKey::Size],
         };
         if self.limit == 0 {
@@ -305,7 +310,10 @@ impl ReducerSpec {
                 })
         }));
         let prefer = self.hunting == Hunting::Prefer;
-        p.extra_key = Some(ExtraKey::new("balance", move |t: &Train| hunting::balance_key(t, prefer)));
+        p.extra_key = Some(match self.priority {
+            Priority::Split => ExtraKey::new("split", move |t: &Train| split::split_key(t, prefer)),
+            _ => ExtraKey::new("balance", move |t: &Train| hunting::balance_key(t, prefer)),
+        });
         Ok(p)
     }
 
