@@ -101,7 +101,8 @@ pub struct Chordal {
 /// The data block a gear is cut and inspected from.
 #[derive(Debug, Clone, Copy, PartialEq, serde::Serialize, serde::Deserialize)]
 pub struct GearData {
-    /// External or internal.
+    /// External or internal (`toothing` in JSON).
+    #[serde(rename = "toothing")]
     pub kind: GearKind,
     /// Tooth count.
     pub teeth: u32,

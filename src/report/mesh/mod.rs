@@ -76,7 +76,8 @@ pub struct MeshInputs {
 /// What the shop figures were asked for: backlash, housing tolerance, balls.
 #[derive(Debug, Clone, Copy, PartialEq, Serialize)]
 pub struct ShopInputs {
-    /// The backlash the pair is to have.
+    /// The backlash the pair is to have (`backlash_wanted` in JSON).
+    #[serde(rename = "backlash_wanted")]
     pub backlash: BacklashChoice,
     /// How far the housing may put the centres from the working centre distance, either way,
     /// mm.

@@ -9,7 +9,7 @@
 //!  "gap_mm"}|null, "stage_data": [{"backlash": {…}|null, "gears": [gear data, gear data]}|null]}
 //! ```
 //! A document is `{"schema_version", "target", "stage_counts", "modules_mm", "max_stage_ratio",
-//! "centre_distances_mm", "hunting_rule", "input_rpm", "min_stage_ratio", "backlash",
+//! "centre_distances_mm", "hunting_rule", "input_rpm", "min_stage_ratio", "backlash_wanted",
 //! "housing_tolerance_mm", "shaft_fold_deg", "shaft_diameter_mm", "shaft_margin_mm", "count", "complete", "convention",
 //! "caution", "trains": […]}`; every key is described in `docs/output-fields.md`.
 
@@ -56,7 +56,7 @@ struct Doc {
     hunting_rule: &'static str,
     input_rpm: Option<f64>,
     min_stage_ratio: Option<String>,
-    backlash: BacklashChoice,
+    backlash_wanted: BacklashChoice,
     housing_tolerance_mm: f64,
     shaft_fold_deg: f64,
     shaft_diameter_mm: Option<f64>,
@@ -90,7 +90,7 @@ pub fn write(p: &ReducerPlan, w: &mut dyn Write) -> Result<(), RenderError> {
         },
         input_rpm: s.input_rpm,
         min_stage_ratio: s.min_stage_ratio.map(|r| r.to_string()),
-        backlash: s.shop.backlash,
+        backlash_wanted: s.shop.backlash,
         housing_tolerance_mm: s.shop.housing_tolerance_mm,
         shaft_fold_deg: match s.shop.layout {
             ShaftLayout::Inline => 0.0,

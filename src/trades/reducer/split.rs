@@ -6,9 +6,10 @@
 //! two wheels come out near one size, dipping alike in the oil (Dunaev and Lelikov's design
 //! handbook of machine elements, for the unfolded two-stage layout — from memory, check a copy
 //! before leaning on the figure). For any other stage count the ratio is split equally,
-//! `u^(1/n)` per stage (common practice). A train's stage ratios are compared with the rule's as
-//! sets, largest with largest: where every stage has one module the stages may be mounted in
-//! either order, so the listing's order is not held against it.
+//! `u^(1/n)` per stage (common practice). A train's stages are compared with the rule's in their
+//! order input to output (a reducer puts the finer module at the input), except that stages of
+//! one module may be mounted in either order: within a run of equal modules the ratios are
+//! matched largest with largest.
 
 use crate::model::train::Train;
 
@@ -32,12 +33,20 @@ pub fn rule_split(ratio: f64, stages: usize) -> Vec<f64> {
 
 /// How far the train's stage ratios lie from the rule's for its own ratio: the largest factor
 /// by which one stage differs from its counterpart, as `|ln(actual / rule)|` (0 on the rule).
+/// Stages are taken input to output; within a run of stages of one module, largest with
+/// largest.
 pub fn split_deviation(t: &Train) -> f64 {
     let mut actual: Vec<f64> =
         t.stages.iter().map(|s| f64::from(s.driven.teeth) / f64::from(s.driver.teeth)).collect();
     let mut rule = rule_split(t.ratio.to_f64(), actual.len());
-    actual.sort_by(|a, b| b.total_cmp(a));
-    rule.sort_by(|a, b| b.total_cmp(a));
+    let mut start = 0;
+    while start < actual.len() {
+        let module = t.stages[start].module_mm;
+        let end = (start..actual.len()).find(|&k| t.stages[k].module_mm != module).unwrap_or(actual.len());
+        actual[start..end].sort_by(|a, b| b.total_cmp(a));
+        rule[start..end].sort_by(|a, b| b.total_cmp(a));
+        start = end;
+    }
     actual.iter().zip(&rule).map(|(a, r)| (a / r).ln().abs()).fold(0.0, f64::max)
 }
 
@@ -83,8 +92,13 @@ mod tests {
         let balanced = train(&[(18, 80), (20, 90)]);
         assert!(split_deviation(&near) < split_deviation(&balanced));
         assert!(split_key(&near, false) < split_key(&balanced, false));
-        // Order does not matter.
+        // With one module the order does not matter.
         let swapped = train(&[(19, 76), (17, 85)]);
         assert_eq!(split_deviation(&near), split_deviation(&swapped));
+        // With a finer module at the input the order is fixed: 4 then 5 is far from 5.08 then
+        // 3.94 (ln(5.0819/4) = 0.239).
+        let mut fixed = swapped.clone();
+        fixed.stages[1].module_mm = 2.0;
+        assert!((split_deviation(&fixed) - (5.0819f64 / 4.0).ln()).abs() < 1e-4);
     }
 }
