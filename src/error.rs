@@ -292,8 +292,6 @@ pub enum Quantity {
     CarrierOffset,
     /// The least gap between the tip circles of neighbouring planets, mm.
     PlanetClearance,
-    /// The normal backlash a pair is to have, mm, `LO..HI`.
-    Backlash,
     /// How far a housing's centre distance may stray either way, mm.
     HousingTolerance,
     /// The diameter of the balls or pins a gear is measured over, mm.
@@ -366,7 +364,6 @@ impl Quantity {
             Quantity::DrivingMember => "the driving member",
             Quantity::CarrierOffset => "the carrier's offset from midway",
             Quantity::PlanetClearance => "the clearance between neighbouring planets",
-            Quantity::Backlash => "the backlash",
             Quantity::HousingTolerance => "the housing's centre-distance tolerance",
             Quantity::BallDiameter => "the ball diameter",
             Quantity::ShaftMargin => "the margin between a gear and another shaft",

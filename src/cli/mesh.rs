@@ -84,11 +84,11 @@ pub struct MeshArgs {
     /// tooth-thickness allowances are worked out from it [default: the recommended least
     /// backlash (2/3)(0.06 + 0.0005·a + 0.03·m), ISO/TR 10064-2, up to twice that plus what
     /// the housing tolerance opens].
-    #[arg(long, value_name = "LO..HI")]
+    #[arg(long, value_name = "LO..HI", allow_hyphen_values = true)]
     pub backlash: Option<String>,
     /// How far the housing may put the centres from the working centre distance, either way,
     /// mm (± f_a) [default: 0].
-    #[arg(long, value_name = "MM")]
+    #[arg(long, value_name = "MM", allow_hyphen_values = true)]
     pub housing_tol: Option<String>,
     /// Ball or pin diameters to measure over, mm, driver and driven (or one for both)
     /// [default: a size touching near the reference circle, rounded to 0.05 mm].
@@ -157,21 +157,33 @@ pub fn parse_backlash(text: Option<&str>) -> anyhow::Result<BacklashChoice> {
     let Some(text) = text else {
         return Ok(BacklashChoice::Recommended);
     };
-    let (lo, hi) = parse_signed_range(text, Quantity::Backlash, "mm")?;
-    if lo < 0.0 || hi <= lo {
-        return Err(refuse(
+    let range = text.split_once("..").and_then(|(lo, hi)| {
+        let lo = lo.trim().parse::<f64>().ok().filter(|v| v.is_finite())?;
+        let hi = hi.trim().parse::<f64>().ok().filter(|v| v.is_finite())?;
+        (lo >= 0.0 && hi > lo).then_some([lo, hi])
+    });
+    match range {
+        Some(r) => Ok(BacklashChoice::Range(r)),
+        None => Err(refuse(
             "--backlash",
-            format!("wanted LO..HI in mm with 0 ≤ LO < HI, such as 0.08..0.2, found \"{}\"", text.trim()),
-        ));
+            format!(
+                "wanted the least and most normal backlash in mm as LO..HI, 0 ≤ LO < HI, such as \
+                 0.08..0.2, found \"{}\"",
+                text.trim()
+            ),
+        )),
     }
-    Ok(BacklashChoice::Range([lo, hi]))
 }
 
-/// `--housing-tol MM`: a length, or 0; 0 when not given.
+/// `--housing-tol MM`: a length in mm, or 0; 0 when not given.
 pub fn parse_housing_tolerance(text: Option<&str>) -> anyhow::Result<f64> {
     match text.map(str::trim) {
         None => Ok(0.0),
         Some(t) if t.parse::<f64>() == Ok(0.0) => Ok(0.0),
+        Some(t) if t.starts_with('-') => Err(refuse(
+            "--housing-tol",
+            format!("wanted how far the centres may stray either way, in mm, 0 or more, such as 0.02, found \"{t}\""),
+        )),
         Some(t) => Ok(parse_length(t, Quantity::HousingTolerance, Some(LengthUnit::Millimetre))?.mm_f64()),
     }
 }

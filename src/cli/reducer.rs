@@ -112,11 +112,11 @@ pub struct ReducerArgs {
     /// gear's tooth-thickness allowances follow [default: the recommended least backlash
     /// (2/3)(0.06 + 0.0005·a + 0.03·m) of ISO/TR 10064-2 for each stage, up to twice that plus
     /// what the housing tolerance opens].
-    #[arg(long, value_name = "LO..HI")]
+    #[arg(long, value_name = "LO..HI", allow_hyphen_values = true)]
     pub backlash: Option<String>,
     /// How far the housing may put each pair of centres from its working distance, either
     /// way, mm [default: 0].
-    #[arg(long, value_name = "MM")]
+    #[arg(long, value_name = "MM", allow_hyphen_values = true)]
     pub housing_tol: Option<String>,
     /// Shaft diameter, mm: keep only trains whose every gear's tip circle clears every shaft
     /// it does not sit on by --shaft-margin.

@@ -106,14 +106,21 @@ pub fn backlash_lines(pair: &PairData) -> Vec<String> {
 
 fn describe(p: &BacklashPlan) -> Vec<String> {
     let b = &p.backlash;
-    vec![
+    let centres = if p.spec.centre_tolerance_mm == 0.0 {
+        format!("at {} mm, the centres taken as exact", len(b.centre_distance_mm[0]))
+    } else {
         format!(
-            "normal backlash wanted {} to {} mm with the centres {} to {} mm apart (housing tolerance ±{} mm)",
-            len(p.spec.normal_backlash_mm[0]),
-            len(p.spec.normal_backlash_mm[1]),
+            "with the centres {} to {} mm apart (housing tolerance ±{} mm)",
             len(b.centre_distance_mm[0]),
             len(b.centre_distance_mm[1]),
             fmt_num(p.spec.centre_tolerance_mm)
+        )
+    };
+    vec![
+        format!(
+            "normal backlash wanted {} to {} mm {centres}",
+            len(p.spec.normal_backlash_mm[0]),
+            len(p.spec.normal_backlash_mm[1]),
         ),
         format!(
             "backlash with the allowances: normal {} to {} mm, circumferential {} to {} mm",

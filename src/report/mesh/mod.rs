@@ -338,11 +338,11 @@ pub fn document(report: &MeshReport) -> Document {
         1,
         true,
         match report.shop.backlash {
-            BacklashChoice::Recommended => "Least backlash as recommended for industrial drives, \
+            BacklashChoice::Recommended => "least backlash as recommended for industrial drives, \
                 (2/3)(0.06 + 0.0005·a + 0.03·m) mm (ISO/TR 10064-2); allowances split equally \
                 between the gears"
                 .to_string(),
-            BacklashChoice::Range(_) => "Allowances split equally between the gears".to_string(),
+            BacklashChoice::Range(_) => "allowances split equally between the gears".to_string(),
         },
     );
     d.blank();
