@@ -130,6 +130,22 @@ pub struct GearData {
     pub chordal: Chordal,
 }
 
+/// One gear as cut: what its measurements are worked from. The tip and root diameters may come
+/// from a mesh with shortened tips, or from a gear on hand.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct CutGear {
+    /// External or internal.
+    pub kind: GearKind,
+    /// Tooth count.
+    pub teeth: u32,
+    /// Profile shift, modules (for an internal gear positive outwards).
+    pub shift: f64,
+    /// Tip diameter as cut, mm.
+    pub tip_diameter_mm: f64,
+    /// Root diameter as cut, mm.
+    pub root_diameter_mm: f64,
+}
+
 /// The sign an allowance enters a gear's shift with: +1 external, −1 internal.
 fn sign(kind: GearKind) -> f64 {
     match kind {
@@ -277,20 +293,10 @@ impl ToothSystem {
         }
     }
 
-    /// The whole data block of one gear: `teeth`, `shift` (modules), the tip and root diameters
-    /// as cut (mm; they may come from a mesh with shortened tips, or from a gear on hand),
-    /// `allowance_mm` `[upper, lower]` when chosen, and the ball to measure with (`None`: the
-    /// suggested one).
-    pub fn gear_data(
-        &self,
-        kind: GearKind,
-        teeth: u32,
-        shift: f64,
-        tip_diameter_mm: f64,
-        root_diameter_mm: f64,
-        allowance_mm: Option<[f64; 2]>,
-        ball_mm: Option<f64>,
-    ) -> GearData {
+    /// The whole data block of the gear `cut`, with `allowance_mm` `[upper, lower]` when
+    /// chosen, and the ball to measure with (`None`: the suggested one).
+    pub fn gear_data(&self, cut: &CutGear, allowance_mm: Option<[f64; 2]>, ball_mm: Option<f64>) -> GearData {
+        let CutGear { kind, teeth, shift, tip_diameter_mm, root_diameter_mm } = *cut;
         let measure = |f: &dyn Fn(f64) -> Option<f64>| -> Option<Measure> {
             Some(Measure {
                 nominal_mm: f(0.0)?,
@@ -392,12 +398,15 @@ pub fn pair_data(
         Err(e) => (None, Some(e)),
     };
     let gear = |i: usize| {
+        let cut = CutGear {
+            kind: GearKind::External,
+            teeth: mesh.teeth[i],
+            shift: mesh.shift[i],
+            tip_diameter_mm: mesh.tip_diameter_mm[i],
+            root_diameter_mm: mesh.root_diameter_mm[i],
+        };
         system.gear_data(
-            GearKind::External,
-            mesh.teeth[i],
-            mesh.shift[i],
-            mesh.tip_diameter_mm[i],
-            mesh.root_diameter_mm[i],
+            &cut,
             backlash.map(|p| [p.allowances.upper_mm[i], p.allowances.lower_mm[i]]),
             ball_mm[i],
         )
@@ -675,15 +684,15 @@ mod tests {
     fn a_data_block_with_allowances() {
         let s = system(2.0, 20.0);
         let (z, x) = (27, 0.2);
-        let g = s.gear_data(
-            GearKind::External,
-            z,
-            x,
-            s.tip_diameter_mm(z, x, 0.0),
-            s.root_diameter_mm(z, x),
-            Some([-0.05, -0.12]),
-            None,
-        );
+        let cut = |kind, z, x, tip, root| CutGear {
+            kind,
+            teeth: z,
+            shift: x,
+            tip_diameter_mm: tip,
+            root_diameter_mm: root,
+        };
+        let external = cut(GearKind::External, z, x, s.tip_diameter_mm(z, x, 0.0), s.root_diameter_mm(z, x));
+        let g = s.gear_data(&external, Some([-0.05, -0.12]), None);
         let span = g.span.unwrap();
         assert_eq!(span.teeth, s.span_teeth(z, x));
         assert!(span.on_involute);
@@ -693,19 +702,18 @@ mod tests {
         assert!(balls.on_involute);
         assert!(balls.dimension.lower_mm.unwrap() < balls.dimension.upper_mm.unwrap());
         // Without allowances only nominal figures.
-        let bare = s.gear_data(GearKind::External, z, x, 58.8, 50.8, None, Some(3.5));
+        let bare = s.gear_data(&cut(GearKind::External, z, x, 58.8, 50.8), None, Some(3.5));
         assert_eq!(bare.span.unwrap().span.upper_mm, None);
         assert_eq!(bare.over_balls.unwrap().ball_diameter_mm, 3.5);
         // A ring has no span but balls between.
-        let ring = s.gear_data(
+        let ring_cut = cut(
             GearKind::Internal,
             72,
             0.0,
             s.ring_tip_diameter_mm(72, 0.0),
             s.ring_root_diameter_mm(72, 0.0),
-            None,
-            None,
         );
+        let ring = s.gear_data(&ring_cut, None, None);
         assert!(ring.span.is_none());
         let between = ring.over_balls.unwrap();
         assert!(between.on_involute);

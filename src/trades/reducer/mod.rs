@@ -236,7 +236,7 @@ impl ReducerSpec {
             if lo < Ratio::integer(1) || lo > self.max_stage_ratio {
                 return Err(Error::value(
                     Quantity::MinStageRatio,
-                    Message::from(format!("wanted a ratio of at least 1 and at most "))
+                    Message::from("wanted a ratio of at least 1 and at most ")
                         .quantity(Quantity::MaxStageRatio)
                         .text(format!(" ({}), found {lo}", self.max_stage_ratio)),
                 ));
