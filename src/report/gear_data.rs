@@ -83,9 +83,12 @@ fn warnings(labels: &[String], gears: &[&GearData]) -> Vec<String> {
     w
 }
 
-/// Add the gear data table of `gears` under `heading`, one column headed by each of `labels`.
+/// Add the gear data table of `gears` under `heading` (none when empty), one column headed by
+/// each of `labels`.
 pub fn add_table(d: &mut Document, heading: &str, labels: &[String], gears: &[&GearData]) {
-    d.heading(heading);
+    if !heading.is_empty() {
+        d.heading(heading);
+    }
     let mut head = vec!["Gear data".to_string(), String::new()];
     head.extend(labels.iter().cloned());
     let right: Vec<usize> = (2..head.len()).collect();
