@@ -79,6 +79,14 @@ fn warnings(labels: &[String], gears: &[&GearData]) -> Vec<String> {
         if g.over_balls.is_some_and(|b| !b.on_involute) {
             w.push(format!("{label}: the balls would touch off the involute; choose another size"));
         }
+        // A micrometer reaches the balls only where they stand out past the tips.
+        let hidden = g.over_balls.is_some_and(|b| match g.kind {
+            GearKind::External => b.dimension.nominal_mm <= g.tip_diameter_mm,
+            GearKind::Internal => b.dimension.nominal_mm >= g.tip_diameter_mm,
+        });
+        if hidden {
+            w.push(format!("{label}: the balls would not stand out past the tips; choose a larger size"));
+        }
     }
     w
 }
@@ -185,4 +193,47 @@ pub fn csv_cells(g: Option<&GearData>) -> Vec<String> {
         opt(g.chordal.thickness.lower_mm),
         mm(g.chordal.height_mm),
     ]
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::geometry::measure::CutGear;
+    use crate::geometry::{RackProfile, ToothSystem};
+
+    fn gear(ball: f64) -> GearData {
+        let s = ToothSystem::new(2.0, 20.0, RackProfile::default()).unwrap();
+        let cut = CutGear {
+            kind: GearKind::External,
+            teeth: 40,
+            shift: 0.0,
+            tip_diameter_mm: s.tip_diameter_mm(40, 0.0, 0.0),
+            root_diameter_mm: s.root_diameter_mm(40, 0.0),
+        };
+        s.gear_data(&cut, Some([-0.05, -0.1]), Some(ball))
+    }
+
+    #[test]
+    fn a_ball_too_small_to_reach_is_warned_of() {
+        let labels = ["wheel".to_string()];
+        // A 2 mm ball sinks below the 84 mm tip circle of 40 teeth at module 2; the usual
+        // 1.68·m = 3.36 mm ball stands out (common practice, from memory).
+        let small = gear(2.0);
+        assert!(small.over_balls.unwrap().dimension.nominal_mm < 84.0);
+        assert_eq!(warnings(&labels, &[&small]).len(), 1);
+        assert!(warnings(&labels, &[&gear(3.35)]).is_empty());
+    }
+
+    #[test]
+    fn accepted_ranges_read_small_to_large_and_csv_rows_are_whole() {
+        let g = gear(3.35);
+        let span = g.span.unwrap().span;
+        let text = accepted(&span);
+        let (lo, hi) = text.split_once(" to ").unwrap();
+        assert!(lo.parse::<f64>().unwrap() < hi.parse::<f64>().unwrap(), "{text}");
+        assert_eq!(csv_cells(Some(&g)).len(), CSV_FIELDS.len());
+        assert!(csv_cells(None).iter().all(String::is_empty));
+        // Every row has a label, a unit and one cell per gear.
+        assert!(rows(&[&g, &g]).iter().all(|r| r.len() == 4));
+    }
 }
