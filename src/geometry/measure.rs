@@ -13,7 +13,7 @@
 //!   `W_k = m·cos α·[(k − 0.5)·π + z·inv α] + 2·x·m·sin α`; an allowance `E` adds `E·cos α`.
 //!   The calipers touch the flanks on the circle `d_W = √(d_b² + W_k²)`. The `k` chosen is the
 //!   one whose contact circle lies nearest the circle `d + 2·x·m` (for `x = 0` that is the
-//!   familiar `k = z·α/180° + 0.5`, rounded).
+//!   familiar `k = z·α/180° + 0.5`, rounded, a tie going down).
 //! - Balls (pins) of diameter `D` in opposite tooth spaces. External gear:
 //!   `inv α_M = inv α + D/(m·z·cos α) − π/(2z) + 2·x·tan α/z`, ball centres on the circle
 //!   `d_M = d_b / cos α_M`, dimension over balls `M = d_M + D` for even `z` and
@@ -23,8 +23,9 @@
 //!   `M = d_M − D` (even `z`) or `d_M·cos(90°/z) − D` (odd). An allowance `E` enters as the
 //!   shift `E/(2·m·tan α)` for an external gear and `−E/(2·m·tan α)` for an internal one.
 //! - The suggested ball touches the flanks on the circle `d + 2·x·m`: with `α_c` the pressure
-//!   angle there, the ball centre lies at `α_M = tan α_c − inv α ∓ (π/(2z) − …)` (see
-//!   [`ToothSystem::ideal_ball_mm`]) and `D = d_b·|tan α_M − tan α_c|`. For a large unshifted
+//!   angle there, the ball centre lies at `α_M = tan α_c − inv α − 2·x·tan α/z ± π/(2z)`
+//!   (+ external, − internal; see [`ToothSystem::ideal_ball_mm`]) and
+//!   `D = d_b·|tan α_M − tan α_c|`. For a large unshifted
 //!   gear at 20° this tends to `π·m/(2·cos α) = 1.672·m`, the familiar "about 1.68 m" ball
 //!   (common practice, from memory). The suggestion is rounded to 0.05 mm.
 //! - Chordal tooth thickness on the reference circle `s̄ = d·sin(s/d)`, with
