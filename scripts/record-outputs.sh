@@ -54,12 +54,14 @@ cases=(
     "search --ratio 12 --tol 1% --teeth 14..90 --module 1.5 --stages 2 --centre-distance 75 --limit 3 --explain"
     "search --ratio pi --tol 1e-3 --teeth 12..100 --stages 1..3 --pareto --limit 4"
     "mesh --teeth 17,53 --module 2 --centre-distance 71"
+    "mesh --teeth 19,47 --module 2 --shift 0.2,-0.1 --backlash 0.08..0.2 --housing-tol 0.02"
     "thread --leadscrew 8tpi --pitch 1.25mm --stock catalogs/lathe-change-gears.csv --banjo catalogs/lathe/brackenfold.banjo --limit 3 --explain"
     "chart --series iso-coarse --leadscrew 8tpi --stock catalogs/lathe-change-gears.csv"
     "clock going --period 2 --escape-teeth 30 --pinions 8 --stages 2 --limit 3"
     "clock motion --limit 3"
     "clock astro --period synodic-month --tol 10ppm --limit 3"
     "reducer --ratio 20 --modules 1,1.5 --centre-distances 60,80 --input-rpm 1450 --limit 2"
+    "reducer --ratio 20 --modules 1.5,2 --prefer split --shaft-diameter 20 --fold 60 --housing-tol 0.025 --limit 2"
 )
 for c in "${cases[@]}"; do
     for f in "${formats[@]}"; do

@@ -241,7 +241,7 @@ pub enum Quantity {
     StudToLeadscrew,
     /// The distances from the leadscrew the banjo's intermediate stud can take, mm.
     IntermediateRange,
-    /// The diameter of the banjo's shafts and spacers, mm.
+    /// The diameter of shafts, mm: a banjo's shafts and spacers, a reducer's shafts.
     ShaftDiameter,
     /// A built-in series of threads, by name.
     Series,
@@ -294,6 +294,14 @@ pub enum Quantity {
     PlanetClearance,
     /// The gears on hand (stock catalogues) taken as a whole.
     Stock,
+    /// How far a housing's centre distance may stray either way, mm.
+    HousingTolerance,
+    /// The diameter of the balls or pins a gear is measured over, mm.
+    BallDiameter,
+    /// The least gap between a gear's tip circle and a shaft it does not sit on, mm.
+    ShaftMargin,
+    /// A reducer's smallest ratio of one stage.
+    MinStageRatio,
 }
 
 impl Quantity {
@@ -359,6 +367,10 @@ impl Quantity {
             Quantity::CarrierOffset => "the carrier's offset from midway",
             Quantity::PlanetClearance => "the clearance between neighbouring planets",
             Quantity::Stock => "the gears on hand",
+            Quantity::HousingTolerance => "the housing's centre-distance tolerance",
+            Quantity::BallDiameter => "the ball diameter",
+            Quantity::ShaftMargin => "the margin between a gear and another shaft",
+            Quantity::MinStageRatio => "the smallest stage ratio",
         }
     }
 }

@@ -70,6 +70,10 @@ pub fn flag_for(quantity: Quantity) -> &'static str {
         Quantity::CarrierOffset => "--carrier-offset",
         Quantity::PlanetClearance => "--tip-clearance",
         Quantity::Stock => "--stock",
+        Quantity::HousingTolerance => "--housing-tol",
+        Quantity::BallDiameter => "--balls",
+        Quantity::ShaftMargin => "--shaft-margin",
+        Quantity::MinStageRatio => "--min-stage-ratio",
     }
 }
 
@@ -284,6 +288,10 @@ mod tests {
             Quantity::CarrierOffset,
             Quantity::PlanetClearance,
             Quantity::Stock,
+            Quantity::HousingTolerance,
+            Quantity::BallDiameter,
+            Quantity::ShaftMargin,
+            Quantity::MinStageRatio,
         ];
         for q in all {
             assert!(options.iter().any(|o| o == flag_for(q)), "{q}: {} is no option", flag_for(q));

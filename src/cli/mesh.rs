@@ -7,6 +7,8 @@ use std::path::PathBuf;
 
 use clap::{ArgGroup, Args};
 use gearsieve::engine::RunOptions;
+use gearsieve::geometry::allowance::BacklashChoice;
+use gearsieve::geometry::measure::{pair_data, PairData};
 use gearsieve::geometry::{
     check_mesh, mesh_geometry, shift_for_centre_distance, MeshDefect, MeshGeometry, MeshLimits, Mounting,
     RackProfile, ToothSystem, MM_PER_INCH,
@@ -17,7 +19,7 @@ use gearsieve::model::pool::{
 use gearsieve::model::problem::{check_min_contact_ratio, DEFAULT_SHIFT_SUM};
 use gearsieve::numbers::length::{parse_length, LengthUnit};
 use gearsieve::numbers::range::parse_signed_range;
-use gearsieve::report::mesh::{MeshInputs, MeshReport, MountingInput};
+use gearsieve::report::mesh::{MeshInputs, MeshReport, MountingInput, ShopInputs};
 use gearsieve::report::Report;
 use gearsieve::{Error, Quantity};
 
@@ -82,6 +84,20 @@ pub struct MeshArgs {
     /// extension names].
     #[arg(long, value_enum)]
     pub format: Option<FormatArg>,
+    /// Normal backlash the pair is to have, mm: LO..HI, over the whole housing tolerance; the
+    /// tooth-thickness allowances are worked out from it [default: the recommended least
+    /// backlash (2/3)(0.06 + 0.0005·a + 0.03·m), ISO/TR 10064-2, up to twice that plus what
+    /// the housing tolerance opens].
+    #[arg(long, value_name = "LO..HI", allow_hyphen_values = true)]
+    pub backlash: Option<String>,
+    /// How far the housing may put the centres from the working centre distance, either way,
+    /// mm (± f_a) [default: 0].
+    #[arg(long, value_name = "MM", allow_hyphen_values = true)]
+    pub housing_tol: Option<String>,
+    /// Ball or pin diameters to measure over, mm, driver and driven (or one for both)
+    /// [default: a size touching near the reference circle, rounded to 0.05 mm].
+    #[arg(long, value_name = "D1,D2")]
+    pub balls: Option<String>,
     /// Write the report to FILE (atomically: complete or not at all) instead of standard output.
     #[arg(long, value_name = "FILE")]
     pub output: Option<PathBuf>,
@@ -92,6 +108,7 @@ pub struct MeshArgs {
 pub struct MeshJob {
     system: ToothSystem,
     inputs: MeshInputs,
+    shop: ShopInputs,
     limits: MeshLimits,
     format: FormatArg,
     output: Option<PathBuf>,
@@ -134,6 +151,61 @@ fn parse_shift(text: &str) -> anyhow::Result<[f64; 2]> {
     };
     let shift = |s: &str| s.parse::<f64>().ok().filter(|x| x.is_finite()).ok_or_else(bad);
     Ok([shift(a)?, shift(b)?])
+}
+
+/// `--backlash LO..HI` as a backlash choice: the recommended one when not given.
+pub fn parse_backlash(text: Option<&str>) -> anyhow::Result<BacklashChoice> {
+    let Some(text) = text else {
+        return Ok(BacklashChoice::Recommended);
+    };
+    let range = text.split_once("..").and_then(|(lo, hi)| {
+        let lo = lo.trim().parse::<f64>().ok().filter(|v| v.is_finite())?;
+        let hi = hi.trim().parse::<f64>().ok().filter(|v| v.is_finite())?;
+        (lo >= 0.0 && hi > lo).then_some([lo, hi])
+    });
+    match range {
+        Some(r) => Ok(BacklashChoice::Range(r)),
+        None => Err(refuse(
+            "--backlash",
+            format!(
+                "wanted the least and most normal backlash in mm as LO..HI, 0 ≤ LO < HI, such as \
+                 0.08..0.2, found \"{}\"",
+                text.trim()
+            ),
+        )),
+    }
+}
+
+/// `--housing-tol MM`: a length in mm, or 0; 0 when not given.
+pub fn parse_housing_tolerance(text: Option<&str>) -> anyhow::Result<f64> {
+    match text.map(str::trim) {
+        None => Ok(0.0),
+        Some(t) if t.parse::<f64>() == Ok(0.0) => Ok(0.0),
+        Some(t) if t.starts_with('-') => Err(refuse(
+            "--housing-tol",
+            format!("wanted how far the centres may stray either way, in mm, 0 or more, such as 0.02, found \"{t}\""),
+        )),
+        Some(t) => Ok(parse_length(t, Quantity::HousingTolerance, Some(LengthUnit::Millimetre))?.mm_f64()),
+    }
+}
+
+/// `--balls D1,D2` (or one for both) as ball diameters in mm; the suggested ones when not given.
+fn parse_balls(text: Option<&str>) -> anyhow::Result<[Option<f64>; 2]> {
+    let Some(text) = text else {
+        return Ok([None, None]);
+    };
+    let parts: Vec<&str> = text.split(',').map(str::trim).collect();
+    let ball = |s: &str| -> anyhow::Result<Option<f64>> {
+        Ok(Some(parse_length(s, Quantity::BallDiameter, Some(LengthUnit::Millimetre))?.mm_f64()))
+    };
+    match parts[..] {
+        [one] => Ok([ball(one)?, ball(one)?]),
+        [a, b] => Ok([ball(a)?, ball(b)?]),
+        _ => Err(refuse(
+            "--balls",
+            format!("wanted one or two diameters in mm such as 3.5,3.5, found \"{text}\""),
+        )),
+    }
 }
 
 /// A number that must be finite and satisfy `ok`, else `--flag: wanted …, found …`.
@@ -203,9 +275,15 @@ impl TryFrom<MeshArgs> for MeshJob {
         // Every value ToothSystem::new checks was checked above with its flag; this is a
         // fallback that keeps a future rule of the geometry from becoming a panic.
         let system = ToothSystem::new(module_mm, pa, rack).map_err(Error::from)?;
+        let shop = ShopInputs {
+            backlash: parse_backlash(a.backlash.as_deref())?,
+            housing_tolerance_mm: parse_housing_tolerance(a.housing_tol.as_deref())?,
+            balls_mm: parse_balls(a.balls.as_deref())?,
+        };
         Ok(MeshJob {
             system,
             inputs: MeshInputs { teeth, module_mm, diametral_pitch, pressure_angle_deg: pa, rack, mounting },
+            shop,
             limits,
             format: chosen_format(a.format, a.output.as_deref(), FormatArg::Table),
             output: a.output,
@@ -278,12 +356,14 @@ fn geometry(job: &MeshJob) -> Result<MeshGeometry, MeshDefect> {
 }
 
 impl Job for MeshJob {
-    type Found = (MeshGeometry, Vec<MeshDefect>);
+    type Found = (MeshGeometry, Vec<MeshDefect>, PairData);
 
     fn search(&self, _options: &RunOptions) -> anyhow::Result<Self::Found> {
         let mesh = geometry(self).map_err(|d| explain(self, d))?;
         let defects = check_mesh(&mesh, &self.limits);
-        Ok((mesh, defects))
+        let shop = &self.shop;
+        let pair = pair_data(&self.system, &mesh, shop.backlash, shop.housing_tolerance_mm, shop.balls_mm);
+        Ok((mesh, defects, pair))
     }
 
     fn report<'a>(&'a self, found: &'a Self::Found) -> Box<dyn Report + 'a> {
@@ -292,6 +372,8 @@ impl Job for MeshJob {
             limits: &self.limits,
             geometry: &found.0,
             defects: &found.1,
+            shop: &self.shop,
+            pair: &found.2,
         })
     }
 

@@ -21,7 +21,11 @@ use gearsieve::{Error, Quantity, RunOptions};
 use super::args::{load_stock, number, PrintArgs};
 use super::flags::refuse;
 use super::hints::{self, ExactBlocked, OutOfReach};
+use super::mesh::{parse_backlash, parse_housing_tolerance};
 use super::run::{self, Job, Outlook, Print, Words};
+use gearsieve::geometry::layout::ShaftLayout;
+use gearsieve::geometry::RackProfile;
+use gearsieve::trades::reducer::shop::ShopRules;
 
 /// The hunting-tooth flag.
 #[derive(Clone, Copy, Debug, ValueEnum)]
@@ -42,6 +46,10 @@ pub enum PriorityArg {
     Balance,
     /// Ratio error first.
     Error,
+    /// Hunting pairs, then closeness to a rule of thumb for splitting the ratio (two stages:
+    /// the output stage 0.88·√i, the input stage the rest; Dunaev and Lelikov, from memory;
+    /// other counts: equal stages), in steps of 10 %, then ratio error.
+    Split,
 }
 
 /// A spur reducer: trains for a ratio with a module per stage, balanced stages and hunting-tooth
@@ -81,6 +89,9 @@ pub struct ReducerArgs {
     /// Largest ratio of one stage (about 6 for spur gears, common practice).
     #[arg(long, value_name = "R", default_value_t = DEFAULT_MAX_STAGE_RATIO.to_string())]
     pub max_stage_ratio: String,
+    /// Smallest ratio of one stage: leaves out stages that hardly reduce (e.g. 2).
+    #[arg(long, value_name = "R")]
+    pub min_stage_ratio: Option<String>,
     /// The housing's fixed centre distance of each stage, mm, input to output (or one for all):
     /// reached by profile shift. Other units: 2.5in.
     #[arg(long, value_name = "MM,…", value_delimiter = ',', allow_hyphen_values = true)]
@@ -97,6 +108,27 @@ pub struct ReducerArgs {
     /// Gears on the shelf, from a CSV catalogue (repeatable), instead of cutting.
     #[arg(long, value_name = "FILE")]
     pub stock: Vec<PathBuf>,
+    /// Normal backlash each stage is to have, mm: LO..HI over the whole housing tolerance; each
+    /// gear's tooth-thickness allowances follow [default: the recommended least backlash
+    /// (2/3)(0.06 + 0.0005·a + 0.03·m) of ISO/TR 10064-2 for each stage, up to twice that plus
+    /// what the housing tolerance opens].
+    #[arg(long, value_name = "LO..HI", allow_hyphen_values = true)]
+    pub backlash: Option<String>,
+    /// How far the housing may put each pair of centres from its working distance, either
+    /// way, mm [default: 0].
+    #[arg(long, value_name = "MM", allow_hyphen_values = true)]
+    pub housing_tol: Option<String>,
+    /// Shaft diameter, mm: keep only trains whose every gear's tip circle clears every shaft
+    /// it does not sit on by --shaft-margin.
+    #[arg(long, value_name = "MM")]
+    pub shaft_diameter: Option<String>,
+    /// Least gap between a gear's tip circle and another shaft, mm (with --shaft-diameter).
+    #[arg(long, value_name = "MM", default_value = "2", requires = "shaft_diameter")]
+    pub shaft_margin: String,
+    /// Fold the train: turn each stage's line of centres this many degrees from the one before
+    /// (0: all shafts in line; 180 brings a two-stage train's output back onto the input axis).
+    #[arg(long, value_name = "DEG", default_value_t = 0.0, allow_negative_numbers = true, value_parser = number)]
+    pub fold: f64,
     /// Trains to list; all are counted.
     #[arg(long, value_name = "K", default_value_t = 5)]
     pub limit: usize,
@@ -176,6 +208,35 @@ impl TryFrom<&ReducerArgs> for ReducerSpec {
                 Quantity::StageModules,
             )?)
         };
+        let length = |text: &str, q| -> anyhow::Result<f64> {
+            Ok(parse_length(text, q, Some(LengthUnit::Millimetre))?.mm_f64())
+        };
+        let shaft_margin_mm = match a.shaft_margin.trim() {
+            t if t.parse::<f64>() == Ok(0.0) => 0.0,
+            t => length(t, Quantity::ShaftMargin)?,
+        };
+        if !(a.fold.is_finite() && a.fold.abs() <= 180.0) {
+            return Err(refuse(
+                "--fold",
+                format!("wanted an angle from -180 to 180 degrees, found {}", a.fold),
+            ));
+        }
+        let shop = ShopRules {
+            backlash: parse_backlash(a.backlash.as_deref())?,
+            housing_tolerance_mm: parse_housing_tolerance(a.housing_tol.as_deref())?,
+            layout: if a.fold == 0.0 {
+                ShaftLayout::Inline
+            } else {
+                ShaftLayout::Folded { turn_deg: a.fold }
+            },
+            shaft_diameter_mm: a
+                .shaft_diameter
+                .as_deref()
+                .map(|t| length(t, Quantity::ShaftDiameter))
+                .transpose()?,
+            shaft_margin_mm,
+            rack: RackProfile::default(),
+        };
         let shift_sum = match &a.shift_sum {
             Some(s) => parse_signed_range(s, Quantity::ShiftSum, "modules")?,
             None => gearsieve::model::problem::DEFAULT_SHIFT_SUM,
@@ -188,6 +249,11 @@ impl TryFrom<&ReducerArgs> for ReducerSpec {
             modules: a.modules.clone(),
             teeth: IntRange { lo: teeth.lo, hi: teeth.hi },
             max_stage_ratio: parse_ratio(&a.max_stage_ratio, Quantity::MaxStageRatio)?,
+            min_stage_ratio: a
+                .min_stage_ratio
+                .as_deref()
+                .map(|r| parse_ratio(r, Quantity::MinStageRatio))
+                .transpose()?,
             centre_distances_mm,
             shift_sum,
             hunting: match a.hunting {
@@ -198,10 +264,12 @@ impl TryFrom<&ReducerArgs> for ReducerSpec {
             priority: match a.prefer {
                 PriorityArg::Balance => Priority::Balance,
                 PriorityArg::Error => Priority::Error,
+                PriorityArg::Split => Priority::Split,
             },
             input_rpm: input_rpm.map(|r| r.to_f64()),
             stock,
             limit: a.limit,
+            shop,
         })
     }
 }
@@ -270,6 +338,12 @@ impl Job for ReducerJob {
             h.extend(more_stages);
             if s.hunting == Hunting::Require {
                 h.push("--hunting prefer".into());
+            }
+            if s.min_stage_ratio.is_some() {
+                h.push("a lower --min-stage-ratio".into());
+            }
+            if s.shop.shaft_diameter_mm.is_some() {
+                h.push("a smaller --shaft-diameter or --shaft-margin".into());
             }
             if !s.centre_distances_mm.is_empty() {
                 h.push("a wider --shift-sum for the housing".into());

@@ -20,6 +20,10 @@
 //! - [`internal`]: internal meshes (a pinion inside a ring gear): the ring's circles, working
 //!   pressure angle and centre distance from the shift difference, contact ratio, and the
 //!   interference checks of [`internal::check_internal_mesh`].
+//! - [`allowance`]: tooth-thickness allowances for a backlash range over the centre-distance
+//!   tolerance, and the backlash given allowances leave.
+//! - [`measure`]: span over k teeth, dimension over balls (external and internal), chordal
+//!   thickness and height, and the whole data block of one gear ([`measure::GearData`]).
 //! - [`modules`]: DIN 780 module series and diametral pitch.
 //! - [`layout`]: where the shafts of a compound train sit.
 //! - [`outline`]: the true outline of a gear as its basic rack cuts it (involute, root fillet,
@@ -29,12 +33,14 @@
 //! `_rad`), profile shift, tip shortening and rack dimensions in modules. Gears are external
 //! spur gears; the basic rack defaults to ISO 53 type A.
 
+pub mod allowance;
 pub mod check;
 pub mod defect;
 pub mod internal;
 pub mod involute;
 pub mod layout;
 pub mod made;
+pub mod measure;
 pub mod modules;
 pub mod outline;
 pub mod pair;

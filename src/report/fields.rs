@@ -252,6 +252,10 @@ pub struct StageJson {
     /// when nothing is).
     #[serde(default, skip_serializing_if = "Vec::is_empty")]
     pub on_hand_defects: Vec<String>,
+    /// Allowances, backlash and the data block of both gears (`search --explain` over
+    /// worked-out meshes).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub gear_data: Option<crate::geometry::measure::PairData>,
 }
 
 impl StageJson {
@@ -273,6 +277,7 @@ impl StageJson {
             tip_diameter_mm: None,
             backlash_mm: None,
             on_hand_defects: Vec::new(),
+            gear_data: None,
         }
     }
 }
@@ -307,6 +312,7 @@ impl TrainJson {
                     tip_diameter_mm: s.mesh.map(|m| m.tip_diameter_mm),
                     backlash_mm: s.mesh.map(|m| m.backlash_mm).filter(|&j| j > 1e-9),
                     on_hand_defects: s.on_hand_defects.iter().map(ToString::to_string).collect(),
+                    gear_data: None,
                 })
                 .collect(),
         }

@@ -22,6 +22,7 @@ pub mod clock;
 pub mod document;
 pub mod drawing;
 pub mod fields;
+pub mod gear_data;
 pub mod html;
 pub mod markdown;
 pub mod mesh;

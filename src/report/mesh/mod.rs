@@ -25,10 +25,13 @@ use std::io::Write;
 use serde::Serialize;
 
 use super::fields::StageJson;
+use super::gear_data;
 use super::words::MESH_CAUTION;
 use super::{
     pictures, write_json, Completion, Document, Drawing, RenderError, Report, Table, SCHEMA_VERSION,
 };
+use crate::geometry::allowance::{BacklashChoice, BacklashPlan};
+use crate::geometry::measure::{GearData, PairData};
 use crate::geometry::{MeshDefect, MeshGeometry, MeshLimits, RackProfile, MM_PER_INCH};
 use crate::model::pool::fmt_num;
 
@@ -70,6 +73,19 @@ pub struct MeshInputs {
     pub mounting: MountingInput,
 }
 
+/// What the shop figures were asked for: backlash, housing tolerance, balls.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize)]
+pub struct ShopInputs {
+    /// The backlash the pair is to have (`backlash_wanted` in JSON).
+    #[serde(rename = "backlash_wanted")]
+    pub backlash: BacklashChoice,
+    /// How far the housing may put the centres from the working centre distance, either way,
+    /// mm.
+    pub housing_tolerance_mm: f64,
+    /// Ball diameters to measure over, mm, `None` for the suggested size.
+    pub balls_mm: [Option<f64>; 2],
+}
+
 /// One worked-out and judged mesh, ready to print.
 #[derive(Debug, Clone, Copy)]
 pub struct MeshReport<'a> {
@@ -81,6 +97,10 @@ pub struct MeshReport<'a> {
     pub geometry: &'a MeshGeometry,
     /// Every reason it would not run, empty when it runs.
     pub defects: &'a [MeshDefect],
+    /// What the shop figures were asked for.
+    pub shop: &'a ShopInputs,
+    /// The allowances, backlash and measurement data of both gears.
+    pub pair: &'a PairData,
 }
 
 impl Report for MeshReport<'_> {
@@ -119,6 +139,7 @@ impl Report for MeshReport<'_> {
             tip_diameter_mm: Some(g.tip_diameter_mm),
             backlash_mm: None,
             on_hand_defects: Vec::new(),
+            gear_data: None,
         };
         let verdict = if self.defects.is_empty() { "runs" } else { "does not run" };
         let title = format!(
@@ -144,6 +165,11 @@ struct Doc<'a> {
     shift_sum: f64,
     ok: bool,
     defects: Vec<String>,
+    shop_inputs: &'a ShopInputs,
+    backlash: Option<BacklashPlan>,
+    #[serde(skip_serializing_if = "Option::is_none")]
+    backlash_problem: Option<&'a str>,
+    gear_data: &'a [GearData; 2],
     caution: &'static str,
 }
 
@@ -157,6 +183,10 @@ pub fn json(report: &MeshReport, w: &mut dyn Write) -> Result<(), RenderError> {
         shift_sum: report.geometry.shift_sum(),
         ok: report.defects.is_empty(),
         defects: report.defects.iter().map(ToString::to_string).collect(),
+        shop_inputs: report.shop,
+        backlash: report.pair.backlash,
+        backlash_problem: report.pair.backlash_problem.as_deref(),
+        gear_data: &report.pair.gears,
         caution: MESH_CAUTION,
     };
     write_json(&doc, w)
@@ -291,9 +321,36 @@ pub fn document(report: &MeshReport) -> Document {
     rows.row("working pressure angle", "deg", &fixed(&[g.working_pressure_angle_deg], 4));
     rows.row("profile shift sum", "modules", &fixed(&[g.shift_sum()], 4));
     rows.row("tip shortening", "modules", &fixed(&[g.tip_shortening], 4));
-    rows.lengths("backlash (nominal)", &[g.backlash_mm]);
+    rows.lengths("backlash, nominal teeth", &[g.backlash_mm]);
+    if let Some(b) = &report.pair.backlash {
+        rows.lengths("normal backlash, least", &[b.backlash.normal_mm[0]]);
+        rows.lengths("normal backlash, most", &[b.backlash.normal_mm[1]]);
+        rows.lengths("circumf. backlash, least", &[b.backlash.circumferential_mm[0]]);
+        rows.lengths("circumf. backlash, most", &[b.backlash.circumferential_mm[1]]);
+    }
     rows.row("transverse contact ratio", "", &fixed(&[g.contact_ratio], 4));
     d.table(rows.table(&["quantity", "unit", "value"]).headless_in_text());
+    d.blank();
+
+    d.heading("Backlash and tooth thickness");
+    for line in gear_data::backlash_lines(report.pair) {
+        d.item(1, true, line);
+    }
+    d.item(
+        1,
+        true,
+        match report.shop.backlash {
+            BacklashChoice::Recommended => "least backlash as recommended for industrial drives, \
+                (2/3)(0.06 + 0.0005·a + 0.03·m) mm (ISO/TR 10064-2); allowances split equally \
+                between the gears"
+                .to_string(),
+            BacklashChoice::Range(_) => "allowances split equally between the gears".to_string(),
+        },
+    );
+    d.blank();
+    let labels = ["driver".to_string(), "driven".to_string()];
+    let gears = [&report.pair.gears[0], &report.pair.gears[1]];
+    gear_data::add_table(&mut d, "For the gear cutter", &labels, &gears);
     d.blank();
 
     if report.defects.is_empty() {

@@ -1,13 +1,24 @@
 //! The CSV format for reducers: a header row, then one row per train, best first, one value per
 //! cell: the train's own columns, the reducer's figures (balance, hunting pairs, envelope,
 //! output speed), then the numbered stage columns with the worked-out meshes and whether each
-//! pair is hunting. It computes nothing about gears.
+//! pair is hunting, then the tightest gap between a gear and another shaft and, per stage, the
+//! backlash and each gear's data (allowances, span, balls, chordal). It computes nothing about
+//! gears.
 
 use std::io::{self, Write};
 
 use crate::report::fields::{decimals, figure, mm, train_cells, StageColumns, TrainJson, TRAIN_HEADER};
+use crate::report::gear_data;
 use crate::trades::reducer::hunting::{is_hunting, non_hunting, spread};
 use crate::trades::reducer::{centre_distance_sum_mm, largest_tip_mm, ReducerPlan};
+
+/// The backlash columns of each stage.
+const BACKLASH: [&str; 4] = [
+    "normal_backlash_least_mm",
+    "normal_backlash_most_mm",
+    "circumferential_backlash_least_mm",
+    "circumferential_backlash_most_mm",
+];
 
 /// Write a reducer search as CSV.
 pub fn write(p: &ReducerPlan, w: &mut dyn Write) -> io::Result<()> {
@@ -22,6 +33,12 @@ pub fn write(p: &ReducerPlan, w: &mut dyn Write) -> io::Result<()> {
     );
     head.extend(stages.header());
     head.extend((1..=n_stages).map(|k| format!("stage{k}_hunting")));
+    head.push("tightest_shaft_clearance_mm".to_string());
+    for k in 1..=n_stages {
+        head.extend(BACKLASH.iter().map(|f| format!("stage{k}_{f}")));
+        head.extend(gear_data::csv_header(&format!("stage{k}_driver_")));
+        head.extend(gear_data::csv_header(&format!("stage{k}_driven_")));
+    }
     c.write_record(&head)?;
     for (n, t) in p.trains.iter().enumerate() {
         let view = TrainJson::from_train(t);
@@ -38,6 +55,23 @@ pub fn write(p: &ReducerPlan, w: &mut dyn Write) -> io::Result<()> {
         row.extend(
             (0..n_stages).map(|k| t.stages.get(k).map_or(String::new(), |s| is_hunting(s).to_string())),
         );
+        let shop = p.shop.get(n);
+        row.push(shop.and_then(|s| s.tightest).map_or(String::new(), |c| mm(c.gap_mm)));
+        for k in 0..n_stages {
+            let pair = shop.and_then(|s| s.stages.get(k)).and_then(Option::as_ref);
+            let plan = pair.and_then(|p| p.backlash);
+            row.extend(match plan {
+                Some(b) => [
+                    mm(b.backlash.normal_mm[0]),
+                    mm(b.backlash.normal_mm[1]),
+                    mm(b.backlash.circumferential_mm[0]),
+                    mm(b.backlash.circumferential_mm[1]),
+                ],
+                None => Default::default(),
+            });
+            row.extend(gear_data::csv_cells(pair.map(|p| &p.gears[0])));
+            row.extend(gear_data::csv_cells(pair.map(|p| &p.gears[1])));
+        }
         c.write_record(&row)?;
     }
     c.flush()

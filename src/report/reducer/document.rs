@@ -3,11 +3,72 @@
 //! whether the pair is hunting — and its envelope and output speed; the caution at the foot.
 //! It computes nothing about gears.
 
+use crate::geometry::layout::ShaftLayout;
 use crate::model::pool::fmt_num;
+use crate::report::gear_data;
 use crate::report::words::{count_line, describe_error, describe_tolerance, CONVENTION, REDUCER_CAUTION};
 use crate::report::{Document, Table};
 use crate::trades::reducer::hunting::{is_hunting, non_hunting, spread};
+use crate::trades::reducer::shop::TrainShop;
+use crate::trades::reducer::split::{rule_split, split_deviation};
 use crate::trades::reducer::{centre_distance_sum_mm, largest_tip_mm, Hunting, Priority, ReducerPlan};
+
+/// Where the shafts sit, how close a gear comes to another shaft, each stage's backlash, and
+/// the gear data table of the train.
+fn shop_section(p: &ReducerPlan, shop: &TrainShop, d: &mut Document) {
+    let last = shop.shafts_mm.len().saturating_sub(1);
+    let shafts: Vec<String> = shop
+        .shafts_mm
+        .iter()
+        .enumerate()
+        .map(|(k, c)| {
+            let name = match k {
+                0 => "input".to_string(),
+                k if k == last => "output".to_string(),
+                k => format!("shaft {k}"),
+            };
+            format!("{name} ({}, {})", fmt_num(c[0]), fmt_num(c[1]))
+        })
+        .collect();
+    let layout = match p.spec.shop.layout {
+        ShaftLayout::Inline => "in line".to_string(),
+        ShaftLayout::Folded { turn_deg } => format!("folded {}° at each stage", fmt_num(turn_deg)),
+    };
+    d.item(1, false, format!("shafts, {layout}, centres in mm: {}", shafts.join(", ")));
+    if let (Some(c), Some(dia)) = (shop.tightest, p.spec.shop.shaft_diameter_mm) {
+        d.item(
+            1,
+            false,
+            format!(
+                "tightest: the stage {} {} clears {} ({} mm) by {} mm (margin wanted {} mm)",
+                c.stage,
+                if c.driven { "gear" } else { "pinion" },
+                match c.shaft {
+                    0 => "the input shaft".to_string(),
+                    k if k == last => "the output shaft".to_string(),
+                    k => format!("shaft {k}"),
+                },
+                fmt_num(dia),
+                fmt_num(c.gap_mm),
+                fmt_num(p.spec.shop.shaft_margin_mm)
+            ),
+        );
+    }
+    let mut labels = Vec::new();
+    let mut gears = Vec::new();
+    for (k, stage) in shop.stages.iter().enumerate() {
+        let Some(pair) = stage else { continue };
+        for line in gear_data::backlash_lines(pair) {
+            d.item(1, false, format!("stage {}: {line}", k + 1));
+        }
+        labels.push(format!("{} pinion", k + 1));
+        labels.push(format!("{} gear", k + 1));
+        gears.extend(pair.gears.iter());
+    }
+    if !gears.is_empty() {
+        gear_data::add_table(d, "", &labels, &gears);
+    }
+}
 
 /// A reducer search as a document.
 pub fn document(p: &ReducerPlan) -> Document {
@@ -48,16 +109,36 @@ pub fn document(p: &ReducerPlan) -> Document {
         match s.priority {
             Priority::Balance => "hunting pairs, stage balance in steps of 10%, error, size",
             Priority::Error => "error, hunting pairs, stage balance in steps of 10%, size",
+            Priority::Split => "hunting pairs, closeness to the split rule in steps of 10%, error, size",
         }
     ));
+    if s.priority == Priority::Split {
+        let n = p.problem.stages.hi as usize;
+        let rule: Vec<String> = rule_split(s.ratio.to_f64(), n).iter().map(|r| format!("{r:.3}")).collect();
+        d.line(format!(
+            "Split rule: {} for {n} stage{} (input to output; {})",
+            rule.join(" × "),
+            if n == 1 { "" } else { "s" },
+            if n == 2 {
+                "output stage 0.88·√i, Dunaev and Lelikov's design handbook, from memory; stages of one module may be mounted in either order"
+            } else {
+                "equal stages, common practice"
+            }
+        ));
+    }
     d.blank();
     d.line(count_line(p.count, p.trains.len(), p.complete, "train", "best first"));
     for (n, t) in p.trains.iter().enumerate() {
         d.blank();
+        let from_rule = if s.priority == Priority::Split {
+            format!("; {:.1}% from the split rule", (split_deviation(t).exp() - 1.0) * 100.0)
+        } else {
+            String::new()
+        };
         let speed = s.input_rpm.map_or(String::new(), |rpm| {
             format!("; output {} rpm at {} rpm in", fmt_num(rpm / t.ratio.to_f64()), fmt_num(rpm))
         });
-        d.heading(format!("{}. i = {} = {:.5} ({}); balance {:.3} (largest stage ratio / smallest); {} non-hunting pair{}{speed}",
+        d.heading(format!("{}. i = {} = {:.5} ({}); balance {:.3} (largest stage ratio / smallest); {} non-hunting pair{}{from_rule}{speed}",
             n + 1,
             t.ratio,
             t.ratio.to_f64(),
@@ -116,6 +197,9 @@ pub fn document(p: &ReducerPlan) -> Document {
                 fmt_num(centre_distance_sum_mm(t))
             ),
         );
+        if let Some(shop) = p.shop.get(n) {
+            shop_section(p, shop, &mut d);
+        }
     }
     d.blank();
     d.note("Stages run from the input (motor) shaft to the output shaft; shifts in modules.");

@@ -9,7 +9,7 @@ use crate::report::fields::{on_hand_summary, TrainJson};
 use crate::report::words::{
     describe_error_f64, describe_tolerance, group_thousands, plain_words, CAUTION, CONVENTION,
 };
-use crate::report::{Document, Table};
+use crate::report::{gear_data, Document, Table};
 
 /// The search as a document.
 pub fn document(doc: &Doc) -> Document {
@@ -98,6 +98,7 @@ pub fn document(doc: &Doc) -> Document {
     meshes(doc, &mut d);
     if doc.explain {
         explain(doc, &mut d);
+        gear_tables(doc, &mut d);
     }
     d.blank();
     d.note(format!("{CONVENTION}."));
@@ -208,6 +209,34 @@ fn meshes(doc: &Doc, d: &mut Document) {
                 ));
             }
         }
+    }
+}
+
+/// The gear data of each listed train whose meshes were worked out.
+fn gear_tables(doc: &Doc, d: &mut Document) {
+    for (i, t) in doc.trains.iter().enumerate() {
+        let mut labels = Vec::new();
+        let mut gears = Vec::new();
+        for (k, s) in t.stages.iter().enumerate() {
+            if let Some(pair) = &s.gear_data {
+                labels.push(format!("{} driver", k + 1));
+                labels.push(format!("{} driven", k + 1));
+                gears.extend(pair.gears.iter());
+            }
+        }
+        if gears.is_empty() {
+            continue;
+        }
+        d.blank();
+        gear_data::add_table(
+            d,
+            &format!(
+                "Train {}: gear data, allowances for the recommended least backlash (ISO/TR 10064-2) at exact centres",
+                i + 1
+            ),
+            &labels,
+            &gears,
+        );
     }
 }
 

@@ -24,6 +24,9 @@ use std::io::{self, Write};
 use serde::{Deserialize, Serialize};
 
 use super::SearchReport;
+use crate::geometry::allowance::BacklashChoice;
+use crate::geometry::measure::pair_data;
+use crate::geometry::ToothSystem;
 use crate::report::fields::{TargetJson, TrainJson};
 use crate::report::words::CONVENTION;
 use crate::report::SCHEMA_VERSION;
@@ -138,7 +141,32 @@ pub fn doc(report: &SearchReport) -> Doc {
             .iter()
             .map(|r| RejectionJson { kind: r.kind.clone(), count: r.count, example: r.example.clone() })
             .collect(),
-        trains: report.outcome.trains.iter().map(TrainJson::from_train).collect(),
+        trains: report
+            .outcome
+            .trains
+            .iter()
+            .map(|t| {
+                let mut view = TrainJson::from_train(t);
+                if report.explain {
+                    add_gear_data(p, t, &mut view);
+                }
+                view
+            })
+            .collect(),
+    }
+}
+
+/// Each stage's allowances (for the recommended backlash, exact centres) and gear data, where
+/// the search worked the mesh out.
+fn add_gear_data(p: &crate::model::problem::Problem, t: &crate::model::train::Train, view: &mut TrainJson) {
+    let Some(rules) = &p.mesh else { return };
+    for (s, v) in t.stages.iter().zip(view.stages.iter_mut()) {
+        let (Some(mesh), Ok(system)) =
+            (s.mesh, ToothSystem::new(s.module_mm, s.pressure_angle_deg, rules.rack))
+        else {
+            continue;
+        };
+        v.gear_data = Some(pair_data(&system, &mesh, BacklashChoice::Recommended, 0.0, [None, None]));
     }
 }
 

@@ -8,6 +8,9 @@
 //!
 //! - [`hunting`]: hunting-tooth pairs and the balance key;
 //! - [`housing`]: which stage goes in which place, at which centre distance;
+//! - [`split`]: a rule of thumb for splitting the ratio across stages, as a ranking key;
+//! - [`shop`]: shaft positions, the housing fit (gears clear of other shafts), and each stage's
+//!   allowances, backlash and gear data;
 //! - the output formats are in [`crate::report::reducer`].
 //!
 //! One module per stage is held by drawing the gears from a pool with the tooth range in every
@@ -16,6 +19,8 @@
 
 pub mod housing;
 pub mod hunting;
+pub mod shop;
+pub mod split;
 
 use std::sync::Arc;
 
@@ -30,6 +35,7 @@ use crate::numbers::rational::Ratio;
 use crate::numbers::target::Target;
 
 use housing::{arranged, Places};
+use shop::{ShopRules, TrainShop};
 
 /// Default largest ratio of one spur stage (about 6 is common practice).
 pub const DEFAULT_MAX_STAGE_RATIO: u64 = 6;
@@ -53,6 +59,9 @@ pub enum Priority {
     Balance,
     /// Ratio error, then hunting and balance, then teeth.
     Error,
+    /// Hunting pairs (when preferred), then closeness to the rule of thumb of [`split`] in
+    /// steps of [`hunting::BALANCE_STEP`], then ratio error, then size.
+    Split,
 }
 
 /// What the reducer designer asks for.
@@ -73,6 +82,8 @@ pub struct ReducerSpec {
     pub teeth: IntRange,
     /// Largest ratio of one stage.
     pub max_stage_ratio: Ratio,
+    /// Smallest ratio of one stage (`None`: above 1, as any reducing stage).
+    pub min_stage_ratio: Option<Ratio>,
     /// Fixed centre distance of each stage, mm, input to output; empty when free.
     pub centre_distances_mm: Vec<f64>,
     /// Allowed profile shift sum per stage, modules.
@@ -87,6 +98,8 @@ pub struct ReducerSpec {
     pub stock: Option<Pool>,
     /// Trains to list.
     pub limit: usize,
+    /// Backlash, housing tolerance, shaft layout and the housing fit.
+    pub shop: ShopRules,
 }
 
 /// The result of a reducer search.
@@ -102,6 +115,8 @@ pub struct ReducerPlan {
     pub complete: bool,
     /// The best trains, stages input to output, each with its mesh.
     pub trains: Vec<Train>,
+    /// Each listed train made ready for the shop, in the order of `trains`.
+    pub shop: Vec<TrainShop>,
 }
 
 /// Largest tip diameter of a train, mm (from the meshes; `m·(z + 2)` for a stage without one).
@@ -219,6 +234,16 @@ impl ReducerSpec {
         if self.max_stage_ratio <= Ratio::integer(1) {
             return Err(Error::value(Quantity::MaxStageRatio, "wanted a ratio above 1, e.g. 6"));
         }
+        if let Some(lo) = self.min_stage_ratio {
+            if lo < Ratio::integer(1) || lo > self.max_stage_ratio {
+                return Err(Error::value(
+                    Quantity::MinStageRatio,
+                    Message::from("wanted a ratio of at least 1 and at most ")
+                        .quantity(Quantity::MaxStageRatio)
+                        .text(format!(" ({}), found {lo}", self.max_stage_ratio)),
+                ));
+            }
+        }
         if self.modules.windows(2).any(|w| w[1] < w[0]) {
             return Err(Error::value(
                 Quantity::StageModules,
@@ -247,7 +272,10 @@ impl ReducerSpec {
         let stages = self.stage_range()?;
         let pool = self.pool()?;
         let mut limits = StageLimits {
-            stage_ratio: Some(RatioRange { lo: Some(Ratio::integer(1)), hi: Some(self.max_stage_ratio) }),
+            stage_ratio: Some(RatioRange {
+                lo: Some(self.min_stage_ratio.unwrap_or(Ratio::integer(1))),
+                hi: Some(self.max_stage_ratio),
+            }),
             ..StageLimits::default()
         };
         if !self.centre_distances_mm.is_empty() {
@@ -260,7 +288,7 @@ impl ReducerSpec {
             limits.centre_distance_mm = Some(FloatRange { lo: (lo - slack).max(0.0), hi: hi + slack });
         }
         let rank = match self.priority {
-            Priority::Balance => vec![RankKey::Extra, RankKey::Error, RankKey::Size],
+            Priority::Balance | Priority::Split => vec![RankKey::Extra, RankKey::Error, RankKey::Size],
             Priority::Error => vec![RankKey::Error, RankKey::Extra, RankKey::Size],
         };
         if self.limit == 0 {
@@ -275,11 +303,19 @@ impl ReducerSpec {
         }
         let places = Arc::new(places);
         let require = self.hunting == Hunting::Require;
+        let shop = self.shop;
         p.train_check = Some(TrainCheck::new(move |t: &Train| {
-            (!require || hunting::non_hunting(t) == 0) && places.arrange(t).is_some()
+            (!require || hunting::non_hunting(t) == 0)
+                && places.arrange(t).is_some_and(|(order, meshes)| {
+                    // Housed as arranged: the fit depends on which stage sits where.
+                    shop.shaft_diameter_mm.is_none() || shop.fits(&arranged(t, &order, &meshes))
+                })
         }));
         let prefer = self.hunting == Hunting::Prefer;
-        p.extra_key = Some(ExtraKey::new("balance", move |t: &Train| hunting::balance_key(t, prefer)));
+        p.extra_key = Some(match self.priority {
+            Priority::Split => ExtraKey::new("split", move |t: &Train| split::split_key(t, prefer)),
+            _ => ExtraKey::new("balance", move |t: &Train| hunting::balance_key(t, prefer)),
+        });
         Ok(p)
     }
 
@@ -288,7 +324,7 @@ impl ReducerSpec {
         let problem = self.problem()?;
         let found = search(&problem, crate::trades::ENGINE, options);
         let places = self.places();
-        let trains = found
+        let trains: Vec<Train> = found
             .trains
             .iter()
             .map(|t| match places.arrange(t) {
@@ -296,7 +332,15 @@ impl ReducerSpec {
                 None => t.clone(),
             })
             .collect();
-        Ok(ReducerPlan { spec: self.clone(), problem, count: found.count, complete: found.complete, trains })
+        let shop = trains.iter().map(|t| self.shop.shop(t)).collect();
+        Ok(ReducerPlan {
+            spec: self.clone(),
+            problem,
+            count: found.count,
+            complete: found.complete,
+            trains,
+            shop,
+        })
     }
 }
 
@@ -313,6 +357,7 @@ mod tests {
             modules: modules.to_vec(),
             teeth,
             max_stage_ratio: Ratio::integer(DEFAULT_MAX_STAGE_RATIO),
+            min_stage_ratio: None,
             centre_distances_mm: Vec::new(),
             shift_sum: crate::model::problem::DEFAULT_SHIFT_SUM,
             hunting: Hunting::Prefer,
@@ -320,6 +365,14 @@ mod tests {
             input_rpm: None,
             stock: None,
             limit: 5,
+            shop: ShopRules {
+                backlash: crate::geometry::allowance::BacklashChoice::Recommended,
+                housing_tolerance_mm: 0.0,
+                layout: crate::geometry::layout::ShaftLayout::Inline,
+                shaft_diameter_mm: None,
+                shaft_margin_mm: 0.0,
+                rack: crate::geometry::RackProfile::default(),
+            },
         }
     }
 
