@@ -9,6 +9,7 @@ use gearsieve::model::pool::{Pool, StockGear};
 use gearsieve::numbers::range::{FloatRange, IntRange};
 use gearsieve::numbers::rational::Ratio;
 use gearsieve::trades::thread::banjo::{load_banjo, Banjo};
+use gearsieve::trades::thread::lathe_file::load_lathe;
 use gearsieve::trades::thread::machine::{load_gearbox, GearboxPosition, Machine};
 use gearsieve::trades::thread::pitch::{parse_leadscrew, parse_pitch};
 use gearsieve::trades::thread::{Lathe, ThreadSpec};
@@ -416,7 +417,37 @@ fn each_mistake_gets_its_whole_message() {
     );
     refused(
         &["thread", "--leadscrew", "8tpi", "--pitch", "1mm"],
-        "--stock: give the change gears on hand as a catalogue FILE, or a range to cut with --teeth LO..HI",
+        "--stock: give the change gears on hand as a catalogue FILE, a range to cut with --teeth LO..HI, or \
+         a --lathe file that lists them",
+    );
+    refused(
+        &["thread", "--pitch", "1mm", "--teeth", "20..80"],
+        "--leadscrew: give the leadscrew's pitch (8tpi, 3mm), or a --lathe file with a leadscrew = line",
+    );
+    // A lathe file's errors name --lathe once, then the file, the line and the key.
+    let (_d, lathe_file) = temp_catalogue("shop.lathe", b"# mine\nleadscrew = 8tpi\nslot_mm = 90..60\n");
+    refused(
+        &["thread", "--pitch", "1mm", "--lathe", &lathe_file],
+        &format!(
+            "--lathe: lathe file {lathe_file}, line 3: slot_mm: \"90..60\" is inverted (LO > HI); wanted LO..HI \
+             or one length, in mm such as 40..80 or 75 (or with units: 1.5in..3in), above 0, LO ≤ HI"
+        ),
+    );
+    let (_d2, lathe_file) = temp_catalogue("shop.lathe", b"leadscrew = 8tpi\ngears = 20 40 60\n");
+    refused(
+        &["thread", "--pitch", "1mm", "--lathe", &lathe_file],
+        &format!(
+            "--lathe: lathe file {lathe_file}: gears are listed without module_mm; add a line such as \
+             module_mm = 1.5"
+        ),
+    );
+    let (_d3, lathe_file) = temp_catalogue(
+        "shop.lathe",
+        b"leadscrew = 8tpi\ngears = 20 40 127\nmodule_mm = 1\nlargest_teeth = 30\n",
+    );
+    refused(
+        &["thread", "--pitch", "1mm", "--lathe", &lathe_file],
+        "--lathe: the guard closes over gears of at most 30 teeth, and no two of the gears left can mesh",
     );
     // --limit did nothing on a chart: refused, saying what to use.
     refused(
@@ -550,6 +581,62 @@ fn shipped_lathe_files_load() {
     assert!(with.iter().any(|g| g.teeth == 127));
     assert!(!without.iter().any(|g| g.teeth == 127));
     assert_eq!(with.len(), without.len() + 1);
+    // Every shipped lathe file loads whole, describes a leadscrew, gears that load and a banjo,
+    // and runs: the binary prints a table for it.
+    let mut lathes = 0;
+    for entry in std::fs::read_dir(root.join("lathe")).unwrap() {
+        let path = entry.unwrap().path();
+        if path.extension().and_then(|e| e.to_str()) != Some("lathe") {
+            continue;
+        }
+        lathes += 1;
+        let l = load_lathe(&path).unwrap_or_else(|e| panic!("{}: {e}", path.display()));
+        assert!(l.name.is_some() && l.leadscrew.is_some() && l.banjo.is_some(), "{}", path.display());
+        let gears = l.stock(None, None).unwrap().unwrap();
+        assert!(gears.len() >= 10, "{}", path.display());
+        let file = path.to_string_lossy();
+        let r = gearsieve(&["thread", "--lathe", &file, "--pitch", "1mm", "--limit", "1"]);
+        assert_eq!(r.code, 0, "{file}: {}", r.stderr);
+        assert!(r.stdout.contains(l.name.as_deref().unwrap()), "{}", r.stdout);
+    }
+    assert!(lathes >= 2, "two demo lathes, found {lathes}");
+}
+
+#[test]
+fn options_given_override_the_lathe_file() {
+    let file = "catalogs/lathe/brackenfold.lathe";
+    let json = |more: &[&str]| -> Value {
+        let mut a = vec!["thread", "--lathe", file, "--pitch", "1.5mm", "--limit", "1", "--format", "json"];
+        a.extend(more);
+        let r = gearsieve(&a);
+        assert_eq!(r.code, 0, "{}", r.stderr);
+        serde_json::from_str(&r.stdout).unwrap()
+    };
+    let v = json(&[]);
+    assert_eq!(v["machine"]["leadscrew"], "8tpi");
+    assert_eq!(v["machine"]["gearbox"].as_array().unwrap().len(), 3);
+    assert_eq!(v["banjo"]["stud_to_leadscrew_mm"], 120.0);
+    assert_eq!(v["machine"]["dial"]["dial_teeth"], 32);
+    let v = json(&[
+        "--leadscrew",
+        "6tpi",
+        "--gearbox",
+        "X=1",
+        "--stud-to-leadscrew",
+        "100",
+        "--intermediate-range",
+        "40..120",
+        "--shaft-diameter",
+        "16",
+        "--teeth",
+        "20..60",
+    ]);
+    assert_eq!(v["machine"]["leadscrew"], "6tpi");
+    assert_eq!(v["machine"]["gearbox"][0]["name"], "X");
+    assert_eq!(v["banjo"]["stud_to_leadscrew_mm"], 100.0);
+    assert!(v["machine"]["gears"].as_str().unwrap().starts_with("any number of gears of 20..60"));
+    // What the flags do not say still comes from the file.
+    assert_eq!(v["machine"]["tumbler_reverse"], true);
 }
 
 // Properties on random lathes, pitches and gear boxes.
@@ -583,10 +670,7 @@ fn violates(b: &Banjo, s: &gearsieve::trades::thread::Setup) -> Option<String> {
             }
         }
     }
-    let in_slot = |r: f64| {
-        let s = b.intermediate_from_leadscrew_mm;
-        r >= s.lo - eps && r <= s.hi + eps
-    };
+    let in_slot = |r: f64| b.slots.iter().any(|s| r >= s.lo - eps && r <= s.hi + eps);
     let closes = |a1: f64, a2: f64| a1 + a2 + eps >= d && (a1 - a2).abs() <= d + eps;
     match st.len() {
         1 => {
@@ -656,7 +740,7 @@ proptest! {
         };
         let banjo = Banjo {
             stud_to_leadscrew_mm: distance,
-            intermediate_from_leadscrew_mm: FloatRange { lo: slot_lo, hi: 160.0 },
+            slots: vec![FloatRange { lo: slot_lo, hi: 160.0 }],
             shaft_diameter_mm: shaft,
         };
         let Ok(pool) = Pool::from_stock(

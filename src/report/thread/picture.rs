@@ -58,7 +58,7 @@ fn on_banjo(setup: &Setup, ordered: &[StageJson], banjo: &Banjo, p: &Placement, 
     let shaft_r = banjo.shaft_diameter_mm / 2.0;
     let mut machine = Vec::new();
     if let Some(i) = p.intermediate {
-        let slot = &banjo.intermediate_from_leadscrew_mm;
+        let slot = &banjo.slots[banjo.slot_holding(i[0].hypot(i[1])).unwrap_or(0)];
         let at = i[1].atan2(i[0]);
         let half = SLOT_HALF_ANGLE_DEG.to_radians();
         let arc = |r: f64, from: f64, to: f64| -> Vec<[f64; 2]> {
