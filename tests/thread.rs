@@ -871,3 +871,86 @@ fn equal_gears_through_an_idler_cut_the_leadscrew_pitch() {
     assert_eq!(t["meshes"], 2);
     assert_eq!(t["direction"], "same");
 }
+
+/// The banjo model for three stages, restated: the studs at the centre distances, each in a
+/// slot of its own, neighbouring meshes in neighbouring planes, every gear clear of every shaft
+/// that reaches its plane and of every gear of its plane it does not mesh with.
+fn chain_violates(b: &Banjo, s: &gearsieve::trades::thread::Setup) -> Option<String> {
+    let st = &s.train.stages;
+    let Some(chain) = &s.fit.chain else { return Some("no chain placed".into()) };
+    let eps = 1e-6;
+    let mut axes = vec![[-b.stud_to_leadscrew_mm, 0.0]];
+    axes.extend(chain.studs.iter().copied());
+    axes.push([0.0, 0.0]);
+    let dist = |a: usize, c: usize| (axes[a][0] - axes[c][0]).hypot(axes[a][1] - axes[c][1]);
+    for (j, g) in st.iter().enumerate() {
+        if (dist(j, j + 1) - g.centre_distance_mm()).abs() > eps {
+            return Some(format!("mesh {j} is not at its centre distance"));
+        }
+    }
+    for (k, &slot) in chain.slots.iter().enumerate() {
+        let r = dist(k + 1, st.len());
+        if !b.slots[slot].contains(r, eps) || chain.slots[..k].contains(&slot) {
+            return Some(format!("stud {k} not in a slot of its own"));
+        }
+    }
+    if chain.planes.windows(2).any(|w| w[0].abs_diff(w[1]) != 1) {
+        return Some("an intermediate stud's gears are not in neighbouring planes".into());
+    }
+    let tip = |m: f64, z: u32| m * (z as f64 + 2.0) / 2.0;
+    // (axis, plane, tip, stage)
+    let mut gears = Vec::new();
+    for (j, g) in st.iter().enumerate() {
+        gears.push((j, chain.planes[j], tip(g.module_mm, g.driver.teeth), j));
+        gears.push((j + 1, chain.planes[j], tip(g.module_mm, g.driven.teeth), j));
+    }
+    let reach = |a: usize| gears.iter().filter(|g| g.0 == a).map(|g| g.1).max().unwrap();
+    let c = b.shaft_diameter_mm / 2.0;
+    for g in &gears {
+        for a in 0..axes.len() {
+            let partner = gears.iter().any(|h| h.0 == a && h.3 == g.3);
+            if a != g.0 && !partner && reach(a) >= g.1 && g.2 + c > dist(g.0, a) + eps {
+                return Some(format!("a gear on axis {} fouls the shaft of axis {a}", g.0));
+            }
+        }
+        for h in &gears {
+            if h.0 != g.0 && h.1 == g.1 && h.3 != g.3 && g.2 + h.2 > dist(g.0, h.0) + eps {
+                return Some(format!("gears on axes {} and {} touch", g.0, h.0));
+            }
+        }
+    }
+    None
+}
+
+proptest! {
+    #![proptest_config(ProptestConfig::with_cases(16))]
+
+    #[test]
+    fn three_stage_setups_sit_on_a_two_slot_banjo(
+        thread in prop::sample::select(vec!["0.35mm", "0.4mm", "0.45mm", "27tpi", "32tpi", "40tpi"]),
+        teeth in prop::collection::btree_set(18u32..100, 6..10),
+        distance in 80.0f64..140.0,
+        slot_a in 30.0f64..60.0,
+        slot_b in 50.0f64..90.0,
+        shaft in 10.0f64..20.0,
+    ) {
+        let teeth: Vec<u32> = teeth.into_iter().collect();
+        let machine = Machine { leadscrew: parse_leadscrew("3mm").unwrap(), stud_ratio: Ratio::integer(1), gearbox: Vec::new() };
+        let banjo = Banjo {
+            stud_to_leadscrew_mm: distance,
+            slots: vec![FloatRange { lo: slot_a, hi: slot_a + 70.0 }, FloatRange { lo: slot_b, hi: slot_b + 90.0 }],
+            shaft_diameter_mm: shaft,
+        };
+        let Ok(pool) = Pool::from_stock(
+            &teeth.iter().map(|&t| StockGear { teeth: t, module_mm: 1.0, diametral_pitch: None,
+                pressure_angle_deg: 20.0, quantity: 2, label: String::new() }).collect::<Vec<_>>(),
+            "random") else { return Ok(()); };
+        let lathe = Lathe::new(machine, pool, Some(banjo.clone()), IntRange { lo: 3, hi: 3 },
+            Ratio::new(2, 100).unwrap(), 6).unwrap();
+        let spec = ThreadSpec { pitch: parse_pitch(thread).unwrap(), starts: 1 };
+        let plan = lathe.plan(&spec, &RunOptions::default()).unwrap();
+        for s in &plan.setups {
+            prop_assert_eq!(chain_violates(&banjo, s), None);
+        }
+    }
+}

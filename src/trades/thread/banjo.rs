@@ -961,4 +961,61 @@ mod tests {
         let why = banjo().fit(&t, &pool(&[14, 80, 60])).unwrap_err();
         assert!(why[0].contains("does not fit over a 20 mm shaft"), "{why:?}");
     }
+
+    #[test]
+    fn three_stages_take_two_slots_and_the_planes_that_clear() {
+        // 20→40 three times at module 1.5: every mesh 45 mm, 135 mm of chain over 120 mm.
+        // In planes 1-2-1 the first stud's 40 (tip 31.5 mm) and the second stud's 20 (tip
+        // 16.5 mm) share plane 1 only 45 mm apart: 48 > 45, they touch. Planes 1-2-3 clear:
+        // the 40s on the intermediate studs (tip 31.5 + shaft 10 = 41.5 mm) pass the next shaft
+        // out at 45 mm.
+        let t = train(vec![stage(20, 40), stage(20, 40), stage(20, 40)]);
+        let two = Banjo { slots: vec![FloatRange { lo: 40.0, hi: 150.0 }; 2], ..banjo() };
+        let f = two.fit(&t, &pool(&[20, 20, 20, 40, 40, 40])).unwrap();
+        let chain = f.chain.unwrap();
+        assert_eq!(chain.planes, vec![1, 2, 3]);
+        let mut axes = vec![[-120.0, 0.0]];
+        axes.extend(chain.studs.iter().copied());
+        axes.push([0.0, 0.0]);
+        for w in axes.windows(2) {
+            assert!((distance(w[0], w[1]) - 45.0).abs() < 1e-9, "{axes:?}");
+        }
+        let r = chain.from_leadscrew_mm();
+        assert!((r[1] - 45.0).abs() < 1e-9 && r[0] >= 40.0, "{r:?}");
+        assert_ne!(chain.slots[0], chain.slots[1]);
+        // One slot holds one stud: a three-stage setup needs two.
+        let why = banjo().fit(&t, &pool(&[20, 20, 20, 40, 40, 40])).unwrap_err();
+        assert!(
+            why[0].contains(
+                "3 stages need 2 intermediate studs, each in a slot of its own; the banjo has 1 slot"
+            ),
+            "{why:?}"
+        );
+        // Slots that start beyond 45 mm: the last stud (45 mm from the leadscrew) has no place.
+        let far = Banjo { slots: vec![FloatRange { lo: 50.0, hi: 150.0 }; 2], ..banjo() };
+        let why = far.fit(&t, &pool(&[20, 20, 20, 40, 40, 40])).unwrap_err();
+        assert!(why[0].contains("no position of its 2 studs"), "{why:?}");
+    }
+
+    #[test]
+    fn plane_orders_step_one_plane_at_a_time() {
+        assert_eq!(plane_orders(2), vec![vec![1, 2], vec![2, 1]]);
+        assert_eq!(plane_orders(3), vec![vec![1, 2, 1], vec![2, 1, 2], vec![1, 2, 3], vec![3, 2, 1]]);
+        assert_eq!(plane_orders(4).len(), 8);
+        for p in plane_orders(4) {
+            assert!(p.windows(2).all(|w| w[0].abs_diff(w[1]) == 1), "{p:?}");
+            assert_eq!(p.iter().min(), Some(&1));
+        }
+    }
+
+    #[test]
+    fn more_stages_than_the_model_places_are_not_checked_and_say_so() {
+        let t = train(vec![stage(20, 40); 5]);
+        let wide = Banjo { slots: vec![FloatRange { lo: 20.0, hi: 200.0 }; 4], ..banjo() };
+        let f = wide.fit(&t, &pool(&[20, 40])).unwrap();
+        assert_eq!(
+            f.not_checked.as_deref(),
+            Some("not checked: the banjo model places at most 4 stages, this has 5")
+        );
+    }
 }
