@@ -750,7 +750,7 @@ proptest! {
         let tol = Ratio::new(tol_ppm as u128, 1_000_000).unwrap();
         let lathe = Lathe::new(machine.clone(), pool, Some(banjo.clone()),
             IntRange { lo: 1, hi: 2 }, tol, 8).unwrap();
-        let spec = ThreadSpec { pitch: parse_pitch(thread).unwrap(), starts };
+        let spec = ThreadSpec::thread(parse_pitch(thread).unwrap(), starts);
         let plan = lathe.plan(&spec, &RunOptions::default()).unwrap();
         prop_assert!(plan.setups.len() as u64 <= plan.count);
         let want_mm = spec.pitch.mm.value.to_f64();
@@ -947,10 +947,95 @@ proptest! {
             "random") else { return Ok(()); };
         let lathe = Lathe::new(machine, pool, Some(banjo.clone()), IntRange { lo: 3, hi: 3 },
             Ratio::new(2, 100).unwrap(), 6).unwrap();
-        let spec = ThreadSpec { pitch: parse_pitch(thread).unwrap(), starts: 1 };
+        let spec = ThreadSpec::thread(parse_pitch(thread).unwrap(), 1);
         let plan = lathe.plan(&spec, &RunOptions::default()).unwrap();
         for s in &plan.setups {
             prop_assert_eq!(chain_violates(&banjo, s), None);
         }
     }
+}
+
+#[test]
+fn a_feed_is_found_like_a_thread() {
+    // 0.1 mm per spindle turn on a 3 mm leadscrew needs the train to turn the stud 30 times per
+    // leadscrew turn (lead = leadscrew pitch / ratio, computed); every setup listed must be
+    // exactly that, with its error said to be the feed's.
+    let r = gearsieve(&[
+        "thread",
+        "--lathe",
+        "catalogs/lathe/quillsby.lathe",
+        "--feed",
+        "0.1mm",
+        "--stages",
+        "1..3",
+        "--limit",
+        "4",
+        "--format",
+        "json",
+    ]);
+    assert_eq!(r.code, 0, "{}", r.stderr);
+    let v: Value = serde_json::from_str(&r.stdout).unwrap();
+    assert_eq!(v["thread"]["feed"], true);
+    let trains = v["trains"].as_array().unwrap();
+    assert_eq!(trains.len(), 4);
+    for t in trains {
+        let (mut drivers, mut driven) = (1u64, 1u64);
+        for s in t["stages"].as_array().unwrap() {
+            drivers *= s["driver"].as_u64().unwrap();
+            driven *= s["driven"].as_u64().unwrap();
+        }
+        assert_eq!(driven, 30 * drivers, "{t}");
+        assert_eq!(t["error_of"], "feed");
+        assert_eq!(t["lead_cut_mm_exact"], "1/10");
+    }
+    let text =
+        gearsieve(&["thread", "--lathe", "catalogs/lathe/quillsby.lathe", "--feed", "0.1mm", "--limit", "1"]);
+    assert!(text.stdout.starts_with("Feed 0.1mm per spindle turn"), "{}", text.stdout);
+    assert!(text.stdout.contains("feed cut"), "{}", text.stdout);
+    refused(
+        &["thread", "--lathe", "catalogs/lathe/quillsby.lathe", "--feed", "11tpi"],
+        "--feed: \"11tpi\" is a thread, not a feed; wanted a length per spindle turn such as 0.1mm or 0.004in",
+    );
+}
+
+#[test]
+fn the_error_of_a_tpi_thread_is_the_error_of_its_tpi() {
+    // Without the gears for 23 tpi, 11.5 tpi on the Brackenfold lathe is approached. The count
+    // error is TPI cut / TPI wanted − 1 and the pitch error its inverse sense: (1 + e)(1 + p) = 1.
+    let r = gearsieve(&[
+        "thread",
+        "--lathe",
+        "catalogs/lathe/brackenfold.lathe",
+        "--pitch",
+        "11.5tpi",
+        "--limit",
+        "3",
+        "--format",
+        "json",
+    ]);
+    assert_eq!(r.code, 0, "{}", r.stderr);
+    let v: Value = serde_json::from_str(&r.stdout).unwrap();
+    for t in v["trains"].as_array().unwrap() {
+        let (e, p) = (t["error_shown"].as_f64().unwrap(), t["pitch_error"].as_f64().unwrap());
+        assert_eq!(t["error_of"], "TPI");
+        assert!(e != 0.0 && e.signum() == -p.signum(), "{e} {p}");
+        assert!(((1.0 + e) * (1.0 + p) - 1.0).abs() < 1e-12);
+        let tpi_cut = t["pitch_cut"].as_f64().unwrap();
+        assert!((tpi_cut / 11.5 - 1.0 - e).abs() < 1e-9, "{tpi_cut} {e}");
+    }
+    let text = gearsieve(&[
+        "thread",
+        "--lathe",
+        "catalogs/lathe/brackenfold.lathe",
+        "--pitch",
+        "11.5tpi",
+        "--limit",
+        "1",
+    ]);
+    assert!(text.stdout.contains("ppm TPI"), "{}", text.stdout);
+    assert!(
+        text.stdout.contains("error: for a thread given in TPI, TPI cut / TPI wanted − 1"),
+        "{}",
+        text.stdout
+    );
 }

@@ -16,6 +16,7 @@ use gearsieve::report::thread::{ChartReport, ThreadReport};
 use gearsieve::report::Report;
 use gearsieve::trades::thread::banjo::{load_banjo, Banjo};
 use gearsieve::trades::thread::chart::{chart, Chart};
+use gearsieve::trades::thread::feed::parse_feed;
 use gearsieve::trades::thread::lathe_file::{load_lathe, LatheFile};
 use gearsieve::trades::thread::machine::{parse_gearbox, Machine};
 use gearsieve::trades::thread::pitch::{parse_leadscrew, parse_pitch};
@@ -90,13 +91,18 @@ pub struct LatheArgs {
 /// intermediate driven and driver, leadscrew), the pitch it cuts, the pitch error and the lead
 /// error over 100 mm (inch per inch for inch threads).
 #[derive(Args, Debug)]
+#[command(group(ArgGroup::new("what").required(true).args(["pitch", "feed"])))]
 pub struct ThreadArgs {
     /// The thread: 1.25mm, 11tpi, module:2 (worm, axial pitch π·m) or dp:16 (worm, π/P inch).
     #[arg(long, value_name = "PITCH")]
-    pub pitch: String,
-    /// Starts of a multi-start thread.
-    #[arg(long, value_name = "N", default_value_t = 1)]
-    pub starts: u32,
+    pub pitch: Option<String>,
+    /// A turning feed instead, per spindle turn: 0.1mm or 0.004in (same ranking and banjo
+    /// checks as a thread).
+    #[arg(long, value_name = "LENGTH", conflicts_with_all = ["pitch", "starts"])]
+    pub feed: Option<String>,
+    /// Starts of a multi-start thread (default 1).
+    #[arg(long, value_name = "N")]
+    pub starts: Option<u32>,
     /// Also list trains that cut the thread but cannot be set up on the banjo, and why.
     #[arg(long)]
     pub explain: bool,
@@ -291,7 +297,8 @@ impl Job for ThreadJob {
         let hints = more_setups(&self.lathe);
         // --explain is named only when a banjo may have refused setups and it was not given.
         let point_to_explain = self.lathe.banjo.is_some() && !self.explain;
-        let first = format!("no setup cuts {} within the tolerance from these gears.", self.spec.pitch);
+        let what = if self.spec.feed { "gives the feed" } else { "cuts" };
+        let first = format!("no setup {what} {} within the tolerance from these gears.", self.spec.pitch);
         Words {
             interrupted: Some("the setups above are the best found so far".into()),
             nothing: Some(lathe_nothing(first, &hints, point_to_explain)),
@@ -307,10 +314,15 @@ impl Job for ThreadJob {
 /// Run `gearsieve thread`.
 pub fn run_thread(args: ThreadArgs) -> anyhow::Result<i32> {
     let lathe = lathe(&args.lathe, args.limit)?;
-    if args.starts == 0 {
+    let starts = args.starts.unwrap_or(1);
+    if starts == 0 {
         return Err(refuse("--starts", "a thread has at least one start"));
     }
-    let spec = ThreadSpec { pitch: parse_pitch(&args.pitch)?, starts: args.starts };
+    let spec = match (&args.pitch, &args.feed) {
+        (Some(p), _) => ThreadSpec::thread(parse_pitch(p)?, starts),
+        (None, Some(f)) => ThreadSpec::feed(parse_feed(f)?),
+        (None, None) => return Err(anyhow::anyhow!("give --pitch PITCH or --feed LENGTH")),
+    };
     let job = ThreadJob { lathe, spec, explain: args.explain, long: args.lathe.long };
     run::run(&job, &Print::from(&args.lathe.print))
 }
@@ -348,7 +360,7 @@ impl Job for ChartJob {
         // for only then, so it is not weighed here).
         let mut problems = Vec::new();
         for e in &self.series {
-            let thread = ThreadSpec { pitch: e.pitch.clone(), starts: 1 };
+            let thread = ThreadSpec::thread(e.pitch.clone(), 1);
             problems.extend(self.lathe.problems(&thread, false)?);
         }
         Ok(Some(lathe_outlook(problems, &self.lathe, self.long)))

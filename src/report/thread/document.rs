@@ -74,6 +74,9 @@ fn footer(d: &mut Document, lathe: &Lathe, bases: Bases) {
                 .into(),
         );
     }
+    if bases.feed {
+        lines.push("error: feed cut / feed wanted − 1 (tagged feed)".into());
+    }
     if bases.pitch {
         lines.push("error: pitch cut / pitch wanted − 1 (tagged pitch; a pitch too long is positive)".into());
     }
@@ -131,6 +134,7 @@ fn footer(d: &mut Document, lathe: &Lathe, bases: Bases) {
 /// Which senses of error and lengths of lead error a document shows, for its legend.
 #[derive(Clone, Copy, Default)]
 struct Bases {
+    feed: bool,
     tpi: bool,
     pitch: bool,
     inch_lead: bool,
@@ -227,6 +231,7 @@ fn setup_cells(s: &Setup, lathe: &Lathe, pitch: &Pitch) -> Vec<String> {
     ];
     if let Some(dial) = &lathe.equipment.dial {
         cells.push(match &s.engagement {
+            _ if s.feed => "not needed: a feed cuts no groove".to_string(),
             Some(e) => e.describe(dial),
             None => "not worked out: the ratio is not exact".to_string(),
         });
@@ -261,22 +266,27 @@ pub fn thread(r: &ThreadReport) -> Document {
     let t = &r.plan.thread;
     let lead = t.lead_mm();
     let exact = if lead.exact { format!(" = {} mm exactly", lead.value) } else { String::new() };
-    d.title(format!(
-        "Thread {}, {} start{} (lead {} mm{exact})",
-        t.pitch,
-        t.starts,
-        if t.starts == 1 { "" } else { "s" },
-        fmt_num(lead.value.to_f64())
-    ));
+    if t.feed {
+        d.title(format!("Feed {} per spindle turn ({} mm{exact})", t.pitch, fmt_num(lead.value.to_f64())));
+    } else {
+        d.title(format!(
+            "Thread {}, {} start{} (lead {} mm{exact})",
+            t.pitch,
+            t.starts,
+            if t.starts == 1 { "" } else { "s" },
+            fmt_num(lead.value.to_f64())
+        ));
+    }
     header(&mut d, r.lathe);
     d.blank();
     let p = r.plan;
     let status = if p.complete { "" } else { "INCOMPLETE (interrupted): at least " };
+    let (verb, verbs) = if t.feed { ("gives", "give") } else { ("cuts", "cut") };
     match p.count {
-        0 => d.line(format!("{status}No setup cuts {} within the tolerance from these gears.", t.pitch)),
-        1 => d.line(format!("{status}1 setup cuts it:")),
+        0 => d.line(format!("{status}No setup {verb} {} within the tolerance from these gears.", t.pitch)),
+        1 => d.line(format!("{status}1 setup {verb} it:")),
         n => d.line(format!(
-            "{status}{} setups cut it; {} by pitch error, then meshes, then size:",
+            "{status}{} setups {verbs} it; {} by pitch error, then meshes, then size:",
             group_thousands(n),
             if p.setups.len() as u64 == n {
                 "all listed".to_string()
@@ -289,6 +299,9 @@ pub fn thread(r: &ThreadReport) -> Document {
         d.blank();
         let mut head = vec!["#".to_string()];
         head.extend(setup_head(r.lathe));
+        if t.feed {
+            head[7] = "feed cut".to_string();
+        }
         let rows: Vec<Vec<String>> = p
             .setups
             .iter()
@@ -325,7 +338,13 @@ pub fn thread(r: &ThreadReport) -> Document {
         }
     }
     let mut bases = Bases::default();
-    bases.add(&t.pitch);
+    if t.feed {
+        bases.feed = true;
+        bases.metric_lead = !t.pitch.kind.is_inch();
+        bases.inch_lead = t.pitch.kind.is_inch();
+    } else {
+        bases.add(&t.pitch);
+    }
     footer(&mut d, r.lathe, bases);
     d
 }

@@ -233,6 +233,7 @@ fn banjo(l: &Lathe) -> Option<BanjoJson> {
 #[derive(Serialize)]
 struct ThreadJson {
     pitch: String,
+    feed: bool,
     starts: u32,
     lead_mm: f64,
     lead_mm_exact: Option<String>,
@@ -269,6 +270,7 @@ pub fn write_thread(r: &ThreadReport, w: &mut dyn Write) -> Result<(), RenderErr
         schema_version: SCHEMA_VERSION,
         thread: ThreadJson {
             pitch: t.pitch.text.clone(),
+            feed: t.feed,
             starts: t.starts,
             lead_mm: lead.value.to_f64(),
             lead_mm_exact: lead.exact.then(|| lead.value.to_string()),

@@ -15,6 +15,7 @@
 pub mod banjo;
 pub mod chart;
 pub mod dial;
+pub mod feed;
 pub mod lathe_file;
 pub mod machine;
 pub mod pitch;
@@ -57,6 +58,8 @@ pub struct ThreadSpec {
     pub pitch: Pitch,
     /// Number of starts, at least 1; lead = starts × pitch.
     pub starts: u32,
+    /// True for a turning feed (`pitch` is then the feed per spindle turn, one start).
+    pub feed: bool,
 }
 
 impl ThreadSpec {
@@ -177,6 +180,8 @@ pub struct Setup {
     pub pitch_cut_mm: Exact,
     /// Relative pitch error `pitch cut / pitch − 1`, exact.
     pub pitch_error: RelError,
+    /// True when the setup is for a feed, not a thread.
+    pub feed: bool,
     /// Where the half-nuts may be closed again (on the lathe's dial when it has one); `None`
     /// when the spindle turns per leadscrew turn are not exact (a worm's π).
     pub engagement: Option<Engagement>,
@@ -245,7 +250,9 @@ impl Setup {
     /// threads per inch the error of that count, `TPI cut / TPI wanted − 1` (the inverse sense of
     /// the pitch error: a pitch too long is a count too low), else the pitch error.
     pub fn shown_error(&self, pitch: &Pitch) -> (RelError, ErrorSense) {
-        if pitch.kind == PitchKind::Inch {
+        if self.feed {
+            (self.pitch_error, ErrorSense::Feed)
+        } else if pitch.kind == PitchKind::Inch {
             (inverse_error(&self.pitch_error), ErrorSense::Tpi)
         } else {
             (self.pitch_error, ErrorSense::Pitch)
@@ -263,8 +270,10 @@ impl Setup {
 pub enum ErrorSense {
     /// `TPI cut / TPI wanted − 1`, for threads given in threads per inch.
     Tpi,
-    /// `pitch cut / pitch wanted − 1` (for a feed, feed cut / feed wanted − 1).
+    /// `pitch cut / pitch wanted − 1`.
     Pitch,
+    /// `feed cut / feed wanted − 1`.
+    Feed,
 }
 
 impl ErrorSense {
@@ -273,6 +282,7 @@ impl ErrorSense {
         match self {
             ErrorSense::Tpi => "TPI",
             ErrorSense::Pitch => "pitch",
+            ErrorSense::Feed => "feed",
         }
     }
 }
@@ -360,6 +370,7 @@ impl Lathe {
         let turns = self.spindle_per_leadscrew(train.ratio_from_teeth(), position);
         let engagement = turns.exact.then(|| engagement(turns.value, self.equipment.dial.as_ref()));
         Setup {
+            feed: thread.feed,
             engagement,
             pitch_error: pitch_error(train.ratio, need),
             fit,
