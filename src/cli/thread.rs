@@ -117,7 +117,9 @@ pub struct ThreadArgs {
 #[derive(Args, Debug)]
 #[command(group(ArgGroup::new("thread_list").required(true).args(["series", "list"])))]
 pub struct ChartArgs {
-    /// Built-in series: iso-coarse (ISO 261), iso-fine (ISO 262), unc, unf (ASME B1.1).
+    /// Built-in series: iso-coarse, iso-fine, iso-fine-sizes (ISO 261/262), unc, unf (ASME B1.1),
+    /// bsw, bsf (BS 84), ba (BS 93), pipe-g (ISO 228-1), me (32 and 40 TPI), trapezoidal
+    /// (ISO 2904), module-worms, dp-worms.
     #[arg(long, value_name = "NAME")]
     pub series: Option<String>,
     /// A list file instead: one thread a line, LABEL, PITCH or just PITCH.

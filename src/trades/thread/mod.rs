@@ -5,7 +5,10 @@
 //! - [`pitch`]: pitch and leadscrew syntax, exact lengths in mm;
 //! - [`machine`]: spindle → stud ratio → change gears → gearbox position → leadscrew;
 //! - [`banjo`]: setup geometry and the reasons a setup is rejected;
-//! - [`series`]: built-in thread series and list files;
+//! - [`series`]: built-in thread series and list files, their tables in [`series_tables`];
+//! - [`lathe_file`]: the lathe described once, in a file;
+//! - [`feed`]: turning feeds, searched like a thread;
+//! - [`dial`]: which thread-dial lines are safe to engage at;
 //! - [`chart`]: the best setup for every thread of a series;
 //! - the output formats for setups and charts are in [`crate::report::thread`].
 //!
@@ -20,6 +23,7 @@ pub mod lathe_file;
 pub mod machine;
 pub mod pitch;
 pub mod series;
+pub mod series_tables;
 
 use std::cmp::Ordering;
 
