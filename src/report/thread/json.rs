@@ -8,7 +8,12 @@
 //!  "lead_cut_mm": f64, "lead_cut_mm_exact": "p/q"|null, "exact_pitch": bool,
 //!  "lead_error": f64, "lead_error_unit": "mm per 100 mm"|"in per in",
 //!  "intermediate_stud_from_leadscrew_mm": f64|null,
-//!  "idler_stud_from_leadscrew_mm": f64|null, "stud_mesh_inner": bool|null}
+//!  "idler_stud_from_leadscrew_mm": f64|null, "stud_mesh_inner": bool|null,
+//!  "error_shown": f64, "error_of": "TPI"|"pitch"|"feed", "on_the_banjo": "…",
+//!  "banjo_checked": bool,
+//!  "chain": {"studs_from_leadscrew_mm": [f64…], "slots": [1…], "planes": [1…]}|null,
+//!  "engagement": {"engage_every_leadscrew_turns": u64, "dial_every_nth_line": u32|null,
+//!                 "dial": "any line"|…|null}|null}
 //! ```
 //! A thread document is `{"schema_version", "thread", "machine", "banjo", "tolerance", "count", "complete",
 //! "convention", "caution", "trains": [setup…], "rejected"?}`; a chart document is `{"schema_version", "series",
