@@ -348,7 +348,7 @@ fn bad_input_is_one_line_and_exit_2() {
             "unknown key \"shaft\"",
         ),
         (vec!["chart", "--leadscrew", "8tpi", "--teeth", "20..60", "--list", &bad_list], "line 2"),
-        (vec!["chart", "--leadscrew", "8tpi", "--teeth", "20..60", "--series", "bsw"], "--series: "),
+        (vec!["chart", "--leadscrew", "8tpi", "--teeth", "20..60", "--series", "bsx"], "--series: "),
     ];
     for (args, want) in cases {
         let r = gearsieve(&args);

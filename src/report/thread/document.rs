@@ -23,7 +23,8 @@ pub fn describe_machine(lathe: &Lathe) -> String {
     format!("{} leadscrew, spindle-to-stud ratio {}, {gearbox}", m.leadscrew, m.stud_ratio)
 }
 
-fn header(d: &mut Document, lathe: &Lathe) {
+/// The lathe, its gears and banjo, and the tolerance (of the feed, for a feed).
+fn header(d: &mut Document, lathe: &Lathe, feed: bool) {
     let e = &lathe.equipment;
     match &e.name {
         Some(name) => d.line(format!("Lathe: {name}: {}", describe_machine(lathe))),
@@ -57,7 +58,8 @@ fn header(d: &mut Document, lathe: &Lathe) {
         d.line(format!("Thread dial: {}", dial.describe()));
     }
     d.line(format!(
-        "Pitch tolerance {}; stages {}",
+        "{} tolerance {}; stages {}",
+        if feed { "Feed" } else { "Pitch" },
         describe_tolerance(lathe.tolerance.to_f64()),
         lathe.stages
     ));
@@ -277,7 +279,7 @@ pub fn thread(r: &ThreadReport) -> Document {
             fmt_num(lead.value.to_f64())
         ));
     }
-    header(&mut d, r.lathe);
+    header(&mut d, r.lathe, t.feed);
     d.blank();
     let p = r.plan;
     let status = if p.complete { "" } else { "INCOMPLETE (interrupted): at least " };
@@ -354,7 +356,7 @@ pub fn chart(r: &ChartReport) -> Document {
     let mut d = Document::new();
     let c = r.chart;
     d.title(format!("Thread chart: {} ({} threads)", r.series, c.rows.len()));
-    header(&mut d, r.lathe);
+    header(&mut d, r.lathe, false);
     d.blank();
     let status = if c.complete { "" } else { "INCOMPLETE (interrupted): " };
     if c.reachable() == c.rows.len() {
