@@ -247,6 +247,10 @@ pub enum Quantity {
     Series,
     /// A file listing the threads of a chart.
     ThreadList,
+    /// A lathe described in a file: leadscrew, gearbox, banjo, gears on hand.
+    Lathe,
+    /// A turning feed, length per spindle turn.
+    Feed,
     /// The length of a clock's simple pendulum, m.
     PendulumLength,
     /// The full period of a clock's pendulum, s.
@@ -344,6 +348,8 @@ impl Quantity {
             Quantity::ShaftDiameter => "the shaft diameter",
             Quantity::Series => "the thread series",
             Quantity::ThreadList => "the thread list",
+            Quantity::Lathe => "the lathe",
+            Quantity::Feed => "the feed",
             Quantity::PendulumLength => "the pendulum length",
             Quantity::PendulumPeriod => "the pendulum period",
             Quantity::BeatsPerHour => "the beats per hour",

@@ -108,3 +108,50 @@ fn every_result_kind_gives_a_page() {
         assert!(html.contains("@page") && !html.contains("http"), "{args:?}");
     }
 }
+
+#[test]
+fn a_three_stage_setup_is_drawn_where_the_banjo_model_placed_its_studs() {
+    // 0.6 mm on the two-slot demo lathe through three stages: six gears, two slot bands, four
+    // shafts of 16 mm; each stud drawn at the distance from the leadscrew the table gives.
+    let args = [
+        "thread",
+        "--lathe",
+        "catalogs/lathe/quillsby.lathe",
+        "--pitch",
+        "0.6mm",
+        "--stages",
+        "3",
+        "--limit",
+        "1",
+    ];
+    let r = gearsieve(&[&args[..], &["--format", "svg"]].concat());
+    assert_eq!(r.code, 0, "{}", r.stderr);
+    let svg = r.stdout;
+    assert_eq!(gear_outlines(&svg), 6, "{svg}");
+    let machine = svg.lines().filter(|l| l.contains("stroke=\"#555555\""));
+    assert_eq!(machine.clone().filter(|l| l.starts_with("<path") && l.contains("Z\"")).count(), 2);
+    let shafts: Vec<&str> = machine.filter(|l| l.starts_with("<circle") && l.contains("r=\"8\"")).collect();
+    assert_eq!(shafts.len(), 4, "{shafts:?}");
+    for name in ["stud", "stud 1", "stud 2", "leadscrew"] {
+        assert!(svg.contains(&format!(">{name}</text>")), "no label {name}");
+    }
+    let (code, v) = json(&args);
+    assert_eq!(code, 0);
+    let studs = v["trains"][0]["chain"]["studs_from_leadscrew_mm"].as_array().unwrap().clone();
+    // The shafts' centres in the SVG are in mm (the leadscrew last); each stud's distance from
+    // the leadscrew must be what the JSON says (to its 0.1 mm).
+    let centre = |l: &str| -> [f64; 2] {
+        let attr = |k: &str| -> f64 {
+            let at = l.find(&format!(" {k}=\"")).unwrap() + k.len() + 3;
+            l[at..].split('"').next().unwrap().parse().unwrap()
+        };
+        [attr("cx"), attr("cy")]
+    };
+    let c: Vec<[f64; 2]> = shafts.iter().map(|l| centre(l)).collect();
+    for (k, want) in studs.iter().enumerate() {
+        let d = (c[k + 1][0] - c[3][0]).hypot(c[k + 1][1] - c[3][1]);
+        assert!((d - want.as_f64().unwrap()).abs() < 0.06, "stud {k}: {d} vs {want}");
+    }
+    let pixmap = render(&svg, 4.0);
+    assert!(pixmap.pixels().iter().filter(|p| p.red() < 200).count() > 5000);
+}

@@ -93,6 +93,20 @@ const CASES: &[(&str, &[&str])] = &[
         ],
     ),
     (
+        "thread-lathe-feed",
+        &[
+            "thread",
+            "--lathe",
+            "catalogs/lathe/quillsby.lathe",
+            "--feed",
+            "0.1mm",
+            "--stages",
+            "1..3",
+            "--limit",
+            "3",
+        ],
+    ),
+    (
         "chart",
         &[
             "chart",

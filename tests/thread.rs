@@ -9,6 +9,7 @@ use gearsieve::model::pool::{Pool, StockGear};
 use gearsieve::numbers::range::{FloatRange, IntRange};
 use gearsieve::numbers::rational::Ratio;
 use gearsieve::trades::thread::banjo::{load_banjo, Banjo};
+use gearsieve::trades::thread::lathe_file::load_lathe;
 use gearsieve::trades::thread::machine::{load_gearbox, GearboxPosition, Machine};
 use gearsieve::trades::thread::pitch::{parse_leadscrew, parse_pitch};
 use gearsieve::trades::thread::{Lathe, ThreadSpec};
@@ -347,7 +348,7 @@ fn bad_input_is_one_line_and_exit_2() {
             "unknown key \"shaft\"",
         ),
         (vec!["chart", "--leadscrew", "8tpi", "--teeth", "20..60", "--list", &bad_list], "line 2"),
-        (vec!["chart", "--leadscrew", "8tpi", "--teeth", "20..60", "--series", "bsw"], "--series: "),
+        (vec!["chart", "--leadscrew", "8tpi", "--teeth", "20..60", "--series", "bsx"], "--series: "),
     ];
     for (args, want) in cases {
         let r = gearsieve(&args);
@@ -416,7 +417,37 @@ fn each_mistake_gets_its_whole_message() {
     );
     refused(
         &["thread", "--leadscrew", "8tpi", "--pitch", "1mm"],
-        "--stock: give the change gears on hand as a catalogue FILE, or a range to cut with --teeth LO..HI",
+        "--stock: give the change gears on hand as a catalogue FILE, a range to cut with --teeth LO..HI, or \
+         a --lathe file that lists them",
+    );
+    refused(
+        &["thread", "--pitch", "1mm", "--teeth", "20..80"],
+        "--leadscrew: give the leadscrew's pitch (8tpi, 3mm), or a --lathe file with a leadscrew = line",
+    );
+    // A lathe file's errors name --lathe once, then the file, the line and the key.
+    let (_d, lathe_file) = temp_catalogue("shop.lathe", b"# mine\nleadscrew = 8tpi\nslot_mm = 90..60\n");
+    refused(
+        &["thread", "--pitch", "1mm", "--lathe", &lathe_file],
+        &format!(
+            "--lathe: lathe file {lathe_file}, line 3: slot_mm: \"90..60\" is inverted (LO > HI); wanted LO..HI \
+             or one length, in mm such as 40..80 or 75 (or with units: 1.5in..3in), above 0, LO ≤ HI"
+        ),
+    );
+    let (_d2, lathe_file) = temp_catalogue("shop.lathe", b"leadscrew = 8tpi\ngears = 20 40 60\n");
+    refused(
+        &["thread", "--pitch", "1mm", "--lathe", &lathe_file],
+        &format!(
+            "--lathe: lathe file {lathe_file}: gears are listed without module_mm; add a line such as \
+             module_mm = 1.5"
+        ),
+    );
+    let (_d3, lathe_file) = temp_catalogue(
+        "shop.lathe",
+        b"leadscrew = 8tpi\ngears = 20 40 127\nmodule_mm = 1\nlargest_teeth = 30\n",
+    );
+    refused(
+        &["thread", "--pitch", "1mm", "--lathe", &lathe_file],
+        "--lathe: the guard closes over gears of at most 30 teeth, and no two of the gears left can mesh",
     );
     // --limit did nothing on a chart: refused, saying what to use.
     refused(
@@ -550,6 +581,62 @@ fn shipped_lathe_files_load() {
     assert!(with.iter().any(|g| g.teeth == 127));
     assert!(!without.iter().any(|g| g.teeth == 127));
     assert_eq!(with.len(), without.len() + 1);
+    // Every shipped lathe file loads whole, describes a leadscrew, gears that load and a banjo,
+    // and runs: the binary prints a table for it.
+    let mut lathes = 0;
+    for entry in std::fs::read_dir(root.join("lathe")).unwrap() {
+        let path = entry.unwrap().path();
+        if path.extension().and_then(|e| e.to_str()) != Some("lathe") {
+            continue;
+        }
+        lathes += 1;
+        let l = load_lathe(&path).unwrap_or_else(|e| panic!("{}: {e}", path.display()));
+        assert!(l.name.is_some() && l.leadscrew.is_some() && l.banjo.is_some(), "{}", path.display());
+        let gears = l.stock(None, None).unwrap().unwrap();
+        assert!(gears.len() >= 10, "{}", path.display());
+        let file = path.to_string_lossy();
+        let r = gearsieve(&["thread", "--lathe", &file, "--pitch", "1mm", "--limit", "1"]);
+        assert_eq!(r.code, 0, "{file}: {}", r.stderr);
+        assert!(r.stdout.contains(l.name.as_deref().unwrap()), "{}", r.stdout);
+    }
+    assert!(lathes >= 2, "two demo lathes, found {lathes}");
+}
+
+#[test]
+fn options_given_override_the_lathe_file() {
+    let file = "catalogs/lathe/brackenfold.lathe";
+    let json = |more: &[&str]| -> Value {
+        let mut a = vec!["thread", "--lathe", file, "--pitch", "1.5mm", "--limit", "1", "--format", "json"];
+        a.extend(more);
+        let r = gearsieve(&a);
+        assert_eq!(r.code, 0, "{}", r.stderr);
+        serde_json::from_str(&r.stdout).unwrap()
+    };
+    let v = json(&[]);
+    assert_eq!(v["machine"]["leadscrew"], "8tpi");
+    assert_eq!(v["machine"]["gearbox"].as_array().unwrap().len(), 3);
+    assert_eq!(v["banjo"]["stud_to_leadscrew_mm"], 120.0);
+    assert_eq!(v["machine"]["dial"]["dial_teeth"], 32);
+    let v = json(&[
+        "--leadscrew",
+        "6tpi",
+        "--gearbox",
+        "X=1",
+        "--stud-to-leadscrew",
+        "100",
+        "--intermediate-range",
+        "40..120",
+        "--shaft-diameter",
+        "16",
+        "--teeth",
+        "20..60",
+    ]);
+    assert_eq!(v["machine"]["leadscrew"], "6tpi");
+    assert_eq!(v["machine"]["gearbox"][0]["name"], "X");
+    assert_eq!(v["banjo"]["stud_to_leadscrew_mm"], 100.0);
+    assert!(v["machine"]["gears"].as_str().unwrap().starts_with("any number of gears of 20..60"));
+    // What the flags do not say still comes from the file.
+    assert_eq!(v["machine"]["tumbler_reverse"], true);
 }
 
 // Properties on random lathes, pitches and gear boxes.
@@ -585,10 +672,7 @@ fn violates(b: &Banjo, s: &gearsieve::trades::thread::Setup) -> Option<String> {
             }
         }
     }
-    let in_slot = |r: f64| {
-        let s = b.intermediate_from_leadscrew_mm;
-        r >= s.lo - eps && r <= s.hi + eps
-    };
+    let in_slot = |r: f64| b.slots.iter().any(|s| r >= s.lo - eps && r <= s.hi + eps);
     let closes = |a1: f64, a2: f64| a1 + a2 + eps >= d && (a1 - a2).abs() <= d + eps;
     match st.len() {
         1 => {
@@ -658,7 +742,7 @@ proptest! {
         };
         let banjo = Banjo {
             stud_to_leadscrew_mm: distance,
-            intermediate_from_leadscrew_mm: FloatRange { lo: slot_lo, hi: 160.0 },
+            slots: vec![FloatRange { lo: slot_lo, hi: 160.0 }],
             shaft_diameter_mm: shaft,
         };
         let Ok(pool) = Pool::from_stock(
@@ -668,7 +752,7 @@ proptest! {
         let tol = Ratio::new(tol_ppm as u128, 1_000_000).unwrap();
         let lathe = Lathe::new(machine.clone(), pool, Some(banjo.clone()),
             IntRange { lo: 1, hi: 2 }, tol, 8).unwrap();
-        let spec = ThreadSpec { pitch: parse_pitch(thread).unwrap(), starts };
+        let spec = ThreadSpec::thread(parse_pitch(thread).unwrap(), starts);
         let plan = lathe.plan(&spec, &RunOptions::default()).unwrap();
         prop_assert!(plan.setups.len() as u64 <= plan.count);
         let want_mm = spec.pitch.mm.value.to_f64();
@@ -788,4 +872,172 @@ fn equal_gears_through_an_idler_cut_the_leadscrew_pitch() {
     assert!(gear(t, "idler").is_some());
     assert_eq!(t["meshes"], 2);
     assert_eq!(t["direction"], "same");
+}
+
+/// The banjo model for three stages, restated: the studs at the centre distances, each in a
+/// slot of its own, neighbouring meshes in neighbouring planes, every gear clear of every shaft
+/// that reaches its plane and of every gear of its plane it does not mesh with.
+fn chain_violates(b: &Banjo, s: &gearsieve::trades::thread::Setup) -> Option<String> {
+    let st = &s.train.stages;
+    let Some(chain) = &s.fit.chain else { return Some("no chain placed".into()) };
+    let eps = 1e-6;
+    let mut axes = vec![[-b.stud_to_leadscrew_mm, 0.0]];
+    axes.extend(chain.studs.iter().copied());
+    axes.push([0.0, 0.0]);
+    let dist = |a: usize, c: usize| (axes[a][0] - axes[c][0]).hypot(axes[a][1] - axes[c][1]);
+    for (j, g) in st.iter().enumerate() {
+        if (dist(j, j + 1) - g.centre_distance_mm()).abs() > eps {
+            return Some(format!("mesh {j} is not at its centre distance"));
+        }
+    }
+    for (k, &slot) in chain.slots.iter().enumerate() {
+        let r = dist(k + 1, st.len());
+        if !b.slots[slot].contains(r, eps) || chain.slots[..k].contains(&slot) {
+            return Some(format!("stud {k} not in a slot of its own"));
+        }
+    }
+    if chain.planes.windows(2).any(|w| w[0].abs_diff(w[1]) != 1) {
+        return Some("an intermediate stud's gears are not in neighbouring planes".into());
+    }
+    let tip = |m: f64, z: u32| m * (z as f64 + 2.0) / 2.0;
+    // (axis, plane, tip, stage)
+    let mut gears = Vec::new();
+    for (j, g) in st.iter().enumerate() {
+        gears.push((j, chain.planes[j], tip(g.module_mm, g.driver.teeth), j));
+        gears.push((j + 1, chain.planes[j], tip(g.module_mm, g.driven.teeth), j));
+    }
+    let reach = |a: usize| gears.iter().filter(|g| g.0 == a).map(|g| g.1).max().unwrap();
+    let c = b.shaft_diameter_mm / 2.0;
+    for g in &gears {
+        for a in 0..axes.len() {
+            let partner = gears.iter().any(|h| h.0 == a && h.3 == g.3);
+            if a != g.0 && !partner && reach(a) >= g.1 && g.2 + c > dist(g.0, a) + eps {
+                return Some(format!("a gear on axis {} fouls the shaft of axis {a}", g.0));
+            }
+        }
+        for h in &gears {
+            if h.0 != g.0 && h.1 == g.1 && h.3 != g.3 && g.2 + h.2 > dist(g.0, h.0) + eps {
+                return Some(format!("gears on axes {} and {} touch", g.0, h.0));
+            }
+        }
+    }
+    None
+}
+
+proptest! {
+    #![proptest_config(ProptestConfig::with_cases(16))]
+
+    #[test]
+    fn three_stage_setups_sit_on_a_two_slot_banjo(
+        thread in prop::sample::select(vec!["0.35mm", "0.4mm", "0.45mm", "27tpi", "32tpi", "40tpi"]),
+        teeth in prop::collection::btree_set(18u32..100, 6..10),
+        distance in 80.0f64..140.0,
+        slot_a in 30.0f64..60.0,
+        slot_b in 50.0f64..90.0,
+        shaft in 10.0f64..20.0,
+    ) {
+        let teeth: Vec<u32> = teeth.into_iter().collect();
+        let machine = Machine { leadscrew: parse_leadscrew("3mm").unwrap(), stud_ratio: Ratio::integer(1), gearbox: Vec::new() };
+        let banjo = Banjo {
+            stud_to_leadscrew_mm: distance,
+            slots: vec![FloatRange { lo: slot_a, hi: slot_a + 70.0 }, FloatRange { lo: slot_b, hi: slot_b + 90.0 }],
+            shaft_diameter_mm: shaft,
+        };
+        let Ok(pool) = Pool::from_stock(
+            &teeth.iter().map(|&t| StockGear { teeth: t, module_mm: 1.0, diametral_pitch: None,
+                pressure_angle_deg: 20.0, quantity: 2, label: String::new() }).collect::<Vec<_>>(),
+            "random") else { return Ok(()); };
+        let lathe = Lathe::new(machine, pool, Some(banjo.clone()), IntRange { lo: 3, hi: 3 },
+            Ratio::new(2, 100).unwrap(), 6).unwrap();
+        let spec = ThreadSpec::thread(parse_pitch(thread).unwrap(), 1);
+        let plan = lathe.plan(&spec, &RunOptions::default()).unwrap();
+        for s in &plan.setups {
+            prop_assert_eq!(chain_violates(&banjo, s), None);
+        }
+    }
+}
+
+#[test]
+fn a_feed_is_found_like_a_thread() {
+    // 0.1 mm per spindle turn on a 3 mm leadscrew needs the train to turn the stud 30 times per
+    // leadscrew turn (lead = leadscrew pitch / ratio, computed); every setup listed must be
+    // exactly that, with its error said to be the feed's.
+    let r = gearsieve(&[
+        "thread",
+        "--lathe",
+        "catalogs/lathe/quillsby.lathe",
+        "--feed",
+        "0.1mm",
+        "--stages",
+        "1..3",
+        "--limit",
+        "4",
+        "--format",
+        "json",
+    ]);
+    assert_eq!(r.code, 0, "{}", r.stderr);
+    let v: Value = serde_json::from_str(&r.stdout).unwrap();
+    assert_eq!(v["thread"]["feed"], true);
+    let trains = v["trains"].as_array().unwrap();
+    assert_eq!(trains.len(), 4);
+    for t in trains {
+        let (mut drivers, mut driven) = (1u64, 1u64);
+        for s in t["stages"].as_array().unwrap() {
+            drivers *= s["driver"].as_u64().unwrap();
+            driven *= s["driven"].as_u64().unwrap();
+        }
+        assert_eq!(driven, 30 * drivers, "{t}");
+        assert_eq!(t["error_of"], "feed");
+        assert_eq!(t["lead_cut_mm_exact"], "1/10");
+    }
+    let text =
+        gearsieve(&["thread", "--lathe", "catalogs/lathe/quillsby.lathe", "--feed", "0.1mm", "--limit", "1"]);
+    assert!(text.stdout.starts_with("Feed 0.1mm per spindle turn"), "{}", text.stdout);
+    assert!(text.stdout.contains("feed cut"), "{}", text.stdout);
+    refused(
+        &["thread", "--lathe", "catalogs/lathe/quillsby.lathe", "--feed", "11tpi"],
+        "--feed: \"11tpi\" is a thread, not a feed; wanted a length per spindle turn such as 0.1mm or 0.004in",
+    );
+}
+
+#[test]
+fn the_error_of_a_tpi_thread_is_the_error_of_its_tpi() {
+    // Without the gears for 23 tpi, 11.5 tpi on the Brackenfold lathe is approached. The count
+    // error is TPI cut / TPI wanted − 1 and the pitch error its inverse sense: (1 + e)(1 + p) = 1.
+    let r = gearsieve(&[
+        "thread",
+        "--lathe",
+        "catalogs/lathe/brackenfold.lathe",
+        "--pitch",
+        "11.5tpi",
+        "--limit",
+        "3",
+        "--format",
+        "json",
+    ]);
+    assert_eq!(r.code, 0, "{}", r.stderr);
+    let v: Value = serde_json::from_str(&r.stdout).unwrap();
+    for t in v["trains"].as_array().unwrap() {
+        let (e, p) = (t["error_shown"].as_f64().unwrap(), t["pitch_error"].as_f64().unwrap());
+        assert_eq!(t["error_of"], "TPI");
+        assert!(e != 0.0 && e.signum() == -p.signum(), "{e} {p}");
+        assert!(((1.0 + e) * (1.0 + p) - 1.0).abs() < 1e-12);
+        let tpi_cut = t["pitch_cut"].as_f64().unwrap();
+        assert!((tpi_cut / 11.5 - 1.0 - e).abs() < 1e-9, "{tpi_cut} {e}");
+    }
+    let text = gearsieve(&[
+        "thread",
+        "--lathe",
+        "catalogs/lathe/brackenfold.lathe",
+        "--pitch",
+        "11.5tpi",
+        "--limit",
+        "1",
+    ]);
+    assert!(text.stdout.contains("ppm TPI"), "{}", text.stdout);
+    assert!(
+        text.stdout.contains("error: for a thread given in TPI, TPI cut / TPI wanted − 1"),
+        "{}",
+        text.stdout
+    );
 }

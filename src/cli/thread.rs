@@ -7,18 +7,21 @@ use std::path::PathBuf;
 
 use clap::{ArgGroup, Args};
 use gearsieve::model::catalog::CatalogueDefaults;
-use gearsieve::model::pool::{Pool, MAX_STAGES, MAX_TEETH, MIN_TEETH};
+use gearsieve::model::pool::{check_module, Pool, MAX_STAGES, MAX_TEETH, MIN_TEETH};
 use gearsieve::numbers::length::{parse_length, LengthUnit};
 use gearsieve::numbers::range::{parse_int_range, parse_length_range};
+use gearsieve::numbers::rational::Ratio;
 use gearsieve::numbers::target::{parse_ratio, parse_tolerance};
 use gearsieve::report::thread::{ChartReport, ThreadReport};
 use gearsieve::report::Report;
 use gearsieve::trades::thread::banjo::{load_banjo, Banjo};
 use gearsieve::trades::thread::chart::{chart, Chart};
+use gearsieve::trades::thread::feed::parse_feed;
+use gearsieve::trades::thread::lathe_file::{load_lathe, LatheFile};
 use gearsieve::trades::thread::machine::{parse_gearbox, Machine};
 use gearsieve::trades::thread::pitch::{parse_leadscrew, parse_pitch};
 use gearsieve::trades::thread::series::{built_in, load_list, SeriesEntry};
-use gearsieve::trades::thread::{Lathe, Rejected, ThreadPlan, ThreadSpec, MAX_TOLERANCE};
+use gearsieve::trades::thread::{Equipment, Lathe, Rejected, ThreadPlan, ThreadSpec, MAX_TOLERANCE};
 use gearsieve::{Error, Problem, Quantity, RunOptions};
 
 use super::args::{load_stock, number, PrintArgs};
@@ -29,12 +32,16 @@ use super::run::{self, either, Job, Outlook, Print, Words};
 /// The lathe and its change gears, shared by `thread` and `chart`.
 #[derive(Args, Debug)]
 pub struct LatheArgs {
+    /// The lathe described once, in a lathe file (leadscrew, gearbox, banjo, gears on hand,
+    /// guard, tumbler reverse, thread dial); the options below override what it says.
+    #[arg(long, value_name = "FILE")]
+    pub lathe: Option<PathBuf>,
     /// The leadscrew: threads per inch (8tpi) or a metric pitch (3mm).
     #[arg(long, value_name = "PITCH")]
-    pub leadscrew: String,
-    /// Fixed ratio from spindle to stud, spindle turns per stud turn (1, 2, 1/2).
-    #[arg(long, value_name = "R", default_value = "1")]
-    pub stud_ratio: String,
+    pub leadscrew: Option<String>,
+    /// Fixed ratio from spindle to stud, spindle turns per stud turn (1, 2, 1/2); default 1.
+    #[arg(long, value_name = "R")]
+    pub stud_ratio: Option<String>,
     /// Gearbox between the change gears and the leadscrew: a list NAME=RATIO,… (A=2,B=1,C=1/2)
     /// or a file of NAME = RATIO lines; ratios are input turns per leadscrew turn. Each setup
     /// names the position it uses.
@@ -49,9 +56,9 @@ pub struct LatheArgs {
     /// Module in mm for --teeth (default 1), or for catalogue rows that give none.
     #[arg(long, value_name = "MM", allow_negative_numbers = true, value_parser = number)]
     pub module: Option<f64>,
-    /// Pressure angle in degrees for --teeth, and for catalogue rows that give none.
-    #[arg(long, value_name = "DEG", default_value_t = 20.0, allow_negative_numbers = true, value_parser = number)]
-    pub pressure_angle: f64,
+    /// Pressure angle in degrees for --teeth, and for catalogue rows that give none (default 20).
+    #[arg(long, value_name = "DEG", allow_negative_numbers = true, value_parser = number)]
+    pub pressure_angle: Option<f64>,
     /// Banjo geometry from a file (stud_to_leadscrew_mm, intermediate_from_leadscrew_mm,
     /// shaft_diameter_mm); setups that cannot be set up on it are rejected.
     #[arg(long, value_name = "FILE", conflicts_with_all = ["stud_to_leadscrew", "intermediate_range", "shaft_diameter"])]
@@ -84,13 +91,18 @@ pub struct LatheArgs {
 /// intermediate driven and driver, leadscrew), the pitch it cuts, the pitch error and the lead
 /// error over 100 mm (inch per inch for inch threads).
 #[derive(Args, Debug)]
+#[command(group(ArgGroup::new("what").required(true).args(["pitch", "feed"])))]
 pub struct ThreadArgs {
     /// The thread: 1.25mm, 11tpi, module:2 (worm, axial pitch π·m) or dp:16 (worm, π/P inch).
     #[arg(long, value_name = "PITCH")]
-    pub pitch: String,
-    /// Starts of a multi-start thread.
-    #[arg(long, value_name = "N", default_value_t = 1)]
-    pub starts: u32,
+    pub pitch: Option<String>,
+    /// A turning feed instead, per spindle turn: 0.1mm or 0.004in (same ranking and banjo
+    /// checks as a thread).
+    #[arg(long, value_name = "LENGTH", conflicts_with_all = ["pitch", "starts"])]
+    pub feed: Option<String>,
+    /// Starts of a multi-start thread (default 1).
+    #[arg(long, value_name = "N")]
+    pub starts: Option<u32>,
     /// Also list trains that cut the thread but cannot be set up on the banjo, and why.
     #[arg(long)]
     pub explain: bool,
@@ -105,7 +117,9 @@ pub struct ThreadArgs {
 #[derive(Args, Debug)]
 #[command(group(ArgGroup::new("thread_list").required(true).args(["series", "list"])))]
 pub struct ChartArgs {
-    /// Built-in series: iso-coarse (ISO 261), iso-fine (ISO 262), unc, unf (ASME B1.1).
+    /// Built-in series: iso-coarse, iso-fine, iso-fine-sizes (ISO 261/262), unc, unf (ASME B1.1),
+    /// bsw, bsf (BS 84), ba (BS 93), pipe-g (ISO 228-1), me (32 and 40 TPI), trapezoidal
+    /// (ISO 2904), module-worms, dp-worms.
     #[arg(long, value_name = "NAME")]
     pub series: Option<String>,
     /// A list file instead: one thread a line, LABEL, PITCH or just PITCH.
@@ -118,6 +132,7 @@ pub struct ChartArgs {
     pub lathe: LatheArgs,
 }
 
+/// The banjo the flags describe, if they describe one (they override the lathe file's).
 fn banjo_from(a: &LatheArgs) -> Result<Option<Banjo>, Error> {
     if let Some(path) = &a.banjo {
         return load_banjo(path).map(Some);
@@ -135,31 +150,77 @@ fn banjo_from(a: &LatheArgs) -> Result<Option<Banjo>, Error> {
     }
 }
 
-/// The lathe the flags describe, listing `limit` setups per thread.
+/// The gears on hand: `--teeth` or `--stock` when given, else the lathe file's.
+fn pool_from(a: &LatheArgs, file: Option<&LatheFile>) -> anyhow::Result<Pool> {
+    let pressure_angle = a.pressure_angle.unwrap_or(20.0);
+    if let Some(t) = &a.teeth {
+        let teeth = parse_int_range(t, Quantity::ToothRange, "teeth", MIN_TEETH, MAX_TEETH)?;
+        return Ok(Pool::to_cut(teeth, a.module.unwrap_or(1.0), pressure_angle, None)?);
+    }
+    if !a.stock.is_empty() {
+        let defaults = CatalogueDefaults { module_mm: a.module, pressure_angle_deg: pressure_angle };
+        return Ok(load_stock(&a.stock, defaults, Quantity::Module)?);
+    }
+    if let Some(f) = file {
+        if let Some(m) = a.module {
+            check_module(m, &|e| Error::value(Quantity::Module, e))?;
+        }
+        if let Some(gears) = f.stock(a.module, a.pressure_angle)? {
+            let source = f.gears_source();
+            return Ok(Pool::from_stock_at(&gears, &|m| {
+                Error::value(Quantity::Lathe, format!("{source}: {m}"))
+            })?);
+        }
+    }
+    Err(refuse(
+        "--stock",
+        "give the change gears on hand as a catalogue FILE, a range to cut with --teeth LO..HI, or a \
+         --lathe file that lists them",
+    ))
+}
+
+/// The lathe the flags (and the lathe file they name) describe, listing `limit` setups per
+/// thread. Each flag given overrides the file.
 fn lathe(a: &LatheArgs, limit: usize) -> anyhow::Result<Lathe> {
-    let leadscrew = parse_leadscrew(&a.leadscrew)?;
-    let stud_ratio = parse_ratio(&a.stud_ratio, Quantity::StudRatio)?;
-    let gearbox = a.gearbox.as_deref().map(parse_gearbox).transpose()?.unwrap_or_default();
-    let pool =
-        match (&a.teeth, a.stock.is_empty()) {
-            (Some(t), _) => {
-                let teeth = parse_int_range(t, Quantity::ToothRange, "teeth", MIN_TEETH, MAX_TEETH)?;
-                Pool::to_cut(teeth, a.module.unwrap_or(1.0), a.pressure_angle, None)?
-            }
-            (None, false) => load_stock(
-                &a.stock,
-                CatalogueDefaults { module_mm: a.module, pressure_angle_deg: a.pressure_angle },
-                Quantity::Module,
-            )?,
-            (None, true) => return Err(refuse(
-                "--stock",
-                "give the change gears on hand as a catalogue FILE, or a range to cut with --teeth LO..HI",
-            )),
-        };
+    let file = a.lathe.as_deref().map(load_lathe).transpose()?;
+    let leadscrew = match (&a.leadscrew, file.as_ref().and_then(|f| f.leadscrew.clone())) {
+        (Some(text), _) => parse_leadscrew(text)?,
+        (None, Some(p)) => p,
+        (None, None) => {
+            return Err(refuse(
+                "--leadscrew",
+                "give the leadscrew's pitch (8tpi, 3mm), or a --lathe file with a leadscrew = line",
+            ))
+        }
+    };
+    let stud_ratio = match (&a.stud_ratio, file.as_ref().and_then(|f| f.stud_ratio)) {
+        (Some(text), _) => parse_ratio(text, Quantity::StudRatio)?,
+        (None, Some(r)) => r,
+        (None, None) => Ratio::integer(1),
+    };
+    let gearbox = match &a.gearbox {
+        Some(text) => parse_gearbox(text)?,
+        None => file.as_ref().map(|f| f.gearbox.clone()).unwrap_or_default(),
+    };
+    let pool = pool_from(a, file.as_ref())?;
+    let banjo = match banjo_from(a)? {
+        Some(b) => Some(b),
+        None => file.as_ref().and_then(|f| f.banjo.clone()),
+    };
     let stages = parse_int_range(&a.stages, Quantity::StageCount, "stages", 1, MAX_STAGES as u32)?;
     let tolerance = parse_tolerance(&a.tol)?;
     let machine = Machine { leadscrew, stud_ratio, gearbox };
-    Ok(Lathe::new(machine, pool, banjo_from(a)?, stages, tolerance, limit)?)
+    let equipment = match file {
+        Some(f) => Equipment {
+            name: f.name,
+            largest_teeth: f.largest_teeth,
+            left_out: Vec::new(),
+            tumbler_reverse: f.tumbler_reverse,
+            dial: f.dial,
+        },
+        None => Equipment::default(),
+    };
+    Ok(Lathe::new(machine, pool, banjo, stages, tolerance, limit)?.equipped(equipment)?)
 }
 
 /// Ways to get more setups from this lathe, in its flags: a looser tolerance while one is
@@ -238,7 +299,8 @@ impl Job for ThreadJob {
         let hints = more_setups(&self.lathe);
         // --explain is named only when a banjo may have refused setups and it was not given.
         let point_to_explain = self.lathe.banjo.is_some() && !self.explain;
-        let first = format!("no setup cuts {} within the tolerance from these gears.", self.spec.pitch);
+        let what = if self.spec.feed { "gives the feed" } else { "cuts" };
+        let first = format!("no setup {what} {} within the tolerance from these gears.", self.spec.pitch);
         Words {
             interrupted: Some("the setups above are the best found so far".into()),
             nothing: Some(lathe_nothing(first, &hints, point_to_explain)),
@@ -254,10 +316,15 @@ impl Job for ThreadJob {
 /// Run `gearsieve thread`.
 pub fn run_thread(args: ThreadArgs) -> anyhow::Result<i32> {
     let lathe = lathe(&args.lathe, args.limit)?;
-    if args.starts == 0 {
+    let starts = args.starts.unwrap_or(1);
+    if starts == 0 {
         return Err(refuse("--starts", "a thread has at least one start"));
     }
-    let spec = ThreadSpec { pitch: parse_pitch(&args.pitch)?, starts: args.starts };
+    let spec = match (&args.pitch, &args.feed) {
+        (Some(p), _) => ThreadSpec::thread(parse_pitch(p)?, starts),
+        (None, Some(f)) => ThreadSpec::feed(parse_feed(f)?),
+        (None, None) => return Err(anyhow::anyhow!("give --pitch PITCH or --feed LENGTH")),
+    };
     let job = ThreadJob { lathe, spec, explain: args.explain, long: args.lathe.long };
     run::run(&job, &Print::from(&args.lathe.print))
 }
@@ -295,7 +362,7 @@ impl Job for ChartJob {
         // for only then, so it is not weighed here).
         let mut problems = Vec::new();
         for e in &self.series {
-            let thread = ThreadSpec { pitch: e.pitch.clone(), starts: 1 };
+            let thread = ThreadSpec::thread(e.pitch.clone(), 1);
             problems.extend(self.lathe.problems(&thread, false)?);
         }
         Ok(Some(lathe_outlook(problems, &self.lathe, self.long)))

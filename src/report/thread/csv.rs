@@ -4,12 +4,13 @@
 
 use std::io::{self, Write};
 
+use super::document::banjo_cell;
 use super::{ChartReport, ThreadReport};
 use crate::report::fields::{decimals, mm, small, StageColumns, TrainJson};
 use crate::trades::thread::pitch::Pitch;
 use crate::trades::thread::{Lathe, Setup};
 
-const SETUP_COLUMNS: [&str; 16] = [
+const SETUP_COLUMNS: [&str; 24] = [
     "gearbox_position",
     "stud",
     "idler",
@@ -26,6 +27,14 @@ const SETUP_COLUMNS: [&str; 16] = [
     "exact_pitch",
     "intermediate_stud_from_leadscrew_mm",
     "idler_stud_from_leadscrew_mm",
+    "error_shown",
+    "error_of",
+    "on_the_banjo",
+    "banjo_checked",
+    "studs_from_leadscrew_mm",
+    "planes",
+    "engage_every_leadscrew_turns",
+    "dial_every_nth_line",
 ];
 
 /// The stage columns of a lathe's setups: as many as it allows, stud first, and two for a
@@ -64,8 +73,22 @@ fn setup_fields(s: &Setup, pitch: &Pitch, lathe: &Lathe) -> Vec<String> {
         s.is_exact().to_string(),
         intermediate,
         idler,
-        s.fit.stud_mesh_inner.map_or(String::new(), |b| b.to_string()),
     ];
+    let (shown, sense) = s.shown_error(pitch);
+    let chain = s.fit.chain.as_ref();
+    row.extend([
+        small(shown.to_f64()),
+        sense.as_str().to_string(),
+        banjo_cell(s),
+        s.fit.not_checked.is_none().to_string(),
+        chain.map_or(String::new(), |c| {
+            c.from_leadscrew_mm().iter().map(|r| decimals(*r, 1)).collect::<Vec<_>>().join(";")
+        }),
+        chain.map_or(String::new(), |c| c.planes.iter().map(|p| p.to_string()).collect::<Vec<_>>().join("-")),
+        s.engagement.map_or(String::new(), |e| e.leadscrew_turns.to_string()),
+        s.engagement.and_then(|e| e.every_nth_line).map_or(String::new(), |n| n.to_string()),
+        s.fit.stud_mesh_inner.map_or(String::new(), |b| b.to_string()),
+    ]);
     // The stages as they sit on the machine, stud first (the setup's train is in that order
     // already), an idler as two.
     row.extend(stage_columns(lathe).cells(&TrainJson::from_train(&s.mounted_train())));

@@ -7,7 +7,8 @@ use crate::model::pool::fmt_num;
 use crate::model::train::standard_centre_distance_mm;
 use crate::report::words::{describe_error, describe_tolerance, group_thousands, THREAD_CAUTION};
 use crate::report::{Document, Table};
-use crate::trades::thread::pitch::Pitch;
+use crate::trades::thread::banjo::{MAX_PLACED_STAGES, NO_BANJO};
+use crate::trades::thread::pitch::{Pitch, PitchKind};
 use crate::trades::thread::{Lathe, Setup};
 
 /// `6tpi leadscrew, stud ratio 1, gearbox A=2 B=1`.
@@ -22,42 +23,191 @@ pub fn describe_machine(lathe: &Lathe) -> String {
     format!("{} leadscrew, spindle-to-stud ratio {}, {gearbox}", m.leadscrew, m.stud_ratio)
 }
 
-fn header(d: &mut Document, lathe: &Lathe) {
-    d.line(format!("Lathe: {}", describe_machine(lathe)));
+/// The lathe, its gears and banjo, and the tolerance (of the feed, for a feed).
+fn header(d: &mut Document, lathe: &Lathe, feed: bool) {
+    let e = &lathe.equipment;
+    match &e.name {
+        Some(name) => d.line(format!("Lathe: {name}: {}", describe_machine(lathe))),
+        None => d.line(format!("Lathe: {}", describe_machine(lathe))),
+    }
     d.line(format!("Gears: {}", lathe.pool.describe()));
+    if let Some(largest) = e.largest_teeth {
+        let left: Vec<String> = e.left_out.iter().map(|z| z.to_string()).collect();
+        let left = if left.is_empty() {
+            "none left out".to_string()
+        } else {
+            format!("left out: {}", left.join(", "))
+        };
+        d.line(format!("Guard: closes over gears of at most {largest} teeth; {left}"));
+    }
     match &lathe.banjo {
         Some(b) => d.line(format!("Banjo: {}", b.describe())),
         None => {
             d.line("Banjo: not checked (no banjo was described, so setups are not placed on the machine)")
         }
     }
+    match e.tumbler_reverse {
+        Some(true) => d.line("Hand: set with the tumbler reverse"),
+        Some(false) => d.line(
+            "Hand: no tumbler reverse, so the hand follows the way the leadscrew turns (column meshes); \
+             add an idler to turn it the other way",
+        ),
+        None => {}
+    }
+    if let Some(dial) = &e.dial {
+        d.line(format!("Thread dial: {}", dial.describe()));
+    }
     d.line(format!(
-        "Pitch tolerance {}; stages {}",
+        "{} tolerance {}; stages {}",
+        if feed { "Feed" } else { "Pitch" },
         describe_tolerance(lathe.tolerance.to_f64()),
         lathe.stages
     ));
 }
 
-fn footer(d: &mut Document, lead_basis: &str) {
+fn footer(d: &mut Document, lathe: &Lathe, bases: Bases) {
     d.blank();
-    d.line(format!("Pitch error = pitch cut / pitch wanted − 1; lead error is that over {lead_basis}."));
-    d.line("Intermediate gears: driven, driver (the pair keyed together on one stud); int. stud and");
-    d.line("idler stud distances are mm from the leadscrew axis. Ratios follow ISO 1122-1 (input");
-    d.line("turns per output turn); gearbox ratios are input turns per leadscrew turn. Set the hand");
-    d.line("of the thread with the tumbler reverse.");
+    d.heading("Legend");
+    let mut lines: Vec<String> = Vec::new();
+    if bases.tpi {
+        lines.push(
+            "error: for a thread given in TPI, TPI cut / TPI wanted − 1 (tagged TPI; a count too low is \
+             negative)"
+                .into(),
+        );
+    }
+    if bases.feed {
+        lines.push("error: feed cut / feed wanted − 1 (tagged feed)".into());
+    }
+    if bases.pitch {
+        lines.push("error: pitch cut / pitch wanted − 1 (tagged pitch; a pitch too long is positive)".into());
+    }
+    lines.push(format!(
+        "lead error: lead cut − lead wanted over {}, in the lead's length (positive: too long)",
+        match (bases.inch_lead, bases.metric_lead) {
+            (true, true) => "100 mm (1 inch for inch threads)",
+            (true, false) => "1 inch",
+            _ => "100 mm",
+        }
+    ));
+    lines.push("intermediate: driven, driver (the pair keyed together on one stud), stud side first; none: a simple train".into());
+    lines.push("idler: the gear between the stud and leadscrew gears of a simple train; any: no banjo chose one; none: no idler".into());
+    lines.push("meshes: meshes on the machine and the way the leadscrew turns against the stud".into());
+    if lathe.banjo.is_some() {
+        lines.push("on the banjo, where the setup sits (distances are mm from the leadscrew axis):".into());
+        lines.push("  direct mesh: the stud gear meshes the leadscrew gear, no idler".into());
+        lines.push("  idler stud R mm; centres A and B mm: the idler's stud, and the centre distances of its two meshes".into());
+        lines.push(
+            "  stud mesh inner: the stud's mesh in the plane nearest the machine, the leadscrew's outside it"
+                .into(),
+        );
+        lines.push("  leadscrew mesh inner: the leadscrew's mesh in the plane nearest the machine".into());
+        lines.push("  int. stud R mm: the intermediate stud of a compound train".into());
+        lines.push(
+            "  studs R1 (slot 1), R2 (slot 2) mm; planes 1-2-1: three or more stages, each stud in its slot, the \
+             plane of each mesh from the stud (1 nearest the machine)"
+                .into(),
+        );
+        lines.push(format!("  not checked: the banjo model places at most {MAX_PLACED_STAGES} stages"));
+    } else {
+        lines.push(format!("on the banjo: {NO_BANJO}, so no setup was placed"));
+    }
+    if lathe.equipment.dial.is_some() {
+        lines.push(
+            "dial: lines safe to close the half-nuts at, counted from the line of the first engagement: \
+             safe when the spindle has made a whole number of turns since (so the tool meets its own groove); \
+             none: keep the half-nuts closed and reverse the spindle to return"
+                .into(),
+        );
+    }
+    lines.push("Ratios follow ISO 1122-1 (input turns per output turn); gearbox ratios are input turns per leadscrew turn.".into());
+    if lathe.equipment.tumbler_reverse != Some(false) {
+        lines.push("Set the hand of the thread with the tumbler reverse.".into());
+    }
+    for l in lines {
+        d.line(l);
+    }
     for (i, sentence) in THREAD_CAUTION.split_inclusive(". ").enumerate() {
         let lead = if i == 0 { "CAUTION:" } else { "        " };
         d.note(format!("{lead} {}", sentence.trim_end()));
     }
 }
 
+/// Which senses of error and lengths of lead error a document shows, for its legend.
+#[derive(Clone, Copy, Default)]
+struct Bases {
+    feed: bool,
+    tpi: bool,
+    pitch: bool,
+    inch_lead: bool,
+    metric_lead: bool,
+}
+
+impl Bases {
+    fn add(&mut self, pitch: &Pitch) {
+        if pitch.kind == PitchKind::Inch {
+            self.tpi = true;
+        } else {
+            self.pitch = true;
+        }
+        if pitch.kind.is_inch() {
+            self.inch_lead = true;
+        } else {
+            self.metric_lead = true;
+        }
+    }
+}
+
+/// Where a setup sits on the banjo, in the legend's words.
+pub fn banjo_cell(s: &Setup) -> String {
+    let f = &s.fit;
+    if let Some(why) = &f.not_checked {
+        return why.clone();
+    }
+    if let Some(chain) = &f.chain {
+        let studs: Vec<String> = chain
+            .from_leadscrew_mm()
+            .iter()
+            .zip(&chain.slots)
+            // The studs were found by stepping angles: a tenth of a mm is what the search supports.
+            .map(|(r, k)| format!("{:.1} (slot {})", r, k + 1))
+            .collect();
+        let planes: Vec<String> = chain.planes.iter().map(|p| p.to_string()).collect();
+        return format!("studs {} mm; planes {}", studs.join(", "), planes.join("-"));
+    }
+    match (f.stud_mesh_inner, f.intermediate_from_leadscrew_mm) {
+        (Some(true), Some(r)) => format!("stud mesh inner; int. stud {} mm", fmt_num(r)),
+        (Some(false), Some(r)) => format!("leadscrew mesh inner; int. stud {} mm", fmt_num(r)),
+        (None, Some(r)) => {
+            let centres: Vec<String> = s
+                .mounted_train()
+                .stages
+                .iter()
+                .map(|x| fmt_num(standard_centre_distance_mm(x.module_mm, x.driver.teeth, x.driven.teeth)))
+                .collect();
+            format!("idler stud {} mm; centres {} mm", fmt_num(r), centres.join(" and "))
+        }
+        _ => "direct mesh".to_string(),
+    }
+}
+
+/// The error cell: `exact`, or the error and which number it is the error of.
+pub fn error_cell(s: &Setup, pitch: &Pitch) -> String {
+    let (e, sense) = s.shown_error(pitch);
+    if s.is_exact() {
+        "exact".to_string()
+    } else {
+        format!("{} {}", describe_error(&e), sense.as_str())
+    }
+}
+
 /// Cells shared by thread and chart rows: box, stud, idler, intermediates, leadscrew, pitch cut,
-/// pitch error, lead error, banjo.
+/// error, lead error, banjo, and the dial when the lathe has one.
 fn setup_cells(s: &Setup, lathe: &Lathe, pitch: &Pitch) -> Vec<String> {
     let idler = match (s.fit.idler, s.train.stages.len(), &lathe.banjo) {
         (Some(z), _, _) => z.to_string(),
         (None, 1, None) => "any".to_string(),
-        _ => "-".to_string(),
+        _ => "none".to_string(),
     };
     let mids: Vec<String> = s.intermediates().iter().map(|(a, b)| format!("{a}, {b}")).collect();
     let (basis, unit) = pitch.lead_error_basis();
@@ -68,34 +218,35 @@ fn setup_cells(s: &Setup, lathe: &Lathe, pitch: &Pitch) -> Vec<String> {
     } else {
         format!("{:+.4} {unit}", s.lead_error(pitch))
     };
-    let error = if s.is_exact() { "exact".to_string() } else { describe_error(&s.pitch_error) };
     let mounted = s.mounted_train();
-    let banjo = match (s.fit.stud_mesh_inner, s.fit.intermediate_from_leadscrew_mm) {
-        (Some(true), Some(r)) => format!("stud mesh inner; int. stud {} mm", fmt_num(r)),
-        (Some(false), Some(r)) => format!("leadscrew mesh inner; int. stud {} mm", fmt_num(r)),
-        (None, Some(r)) => {
-            let centres: Vec<String> = mounted
-                .stages
-                .iter()
-                .map(|x| fmt_num(standard_centre_distance_mm(x.module_mm, x.driver.teeth, x.driven.teeth)))
-                .collect();
-            format!("idler stud {} mm; centres {} mm", fmt_num(r), centres.join(" and "))
-        }
-        _ if lathe.banjo.is_some() && s.train.stages.len() == 1 => "direct mesh".to_string(),
-        _ => "-".to_string(),
-    };
-    vec![
+    let mut cells = vec![
         s.position.as_ref().map_or("-".to_string(), |p| p.name.clone()),
         s.stud().to_string(),
         idler,
-        if mids.is_empty() { "-".to_string() } else { mids.join("; ") },
+        if mids.is_empty() { "none".to_string() } else { mids.join("; ") },
         s.leadscrew().to_string(),
         format!("{}, {} way", mounted.meshes(), mounted.direction().as_str()),
         pitch.show(s.pitch_cut_mm.value.to_f64()),
-        error,
+        error_cell(s, pitch),
         lead,
-        banjo,
-    ]
+        banjo_cell(s),
+    ];
+    if let Some(dial) = &lathe.equipment.dial {
+        cells.push(match &s.engagement {
+            _ if s.feed => "not needed: a feed cuts no groove".to_string(),
+            Some(e) => e.describe(dial),
+            None => "not worked out: the ratio is not exact".to_string(),
+        });
+    }
+    cells
+}
+
+fn setup_head(lathe: &Lathe) -> Vec<String> {
+    let mut head: Vec<String> = SETUP_HEAD.iter().map(|s| s.to_string()).collect();
+    if lathe.equipment.dial.is_some() {
+        head.push("dial".into());
+    }
+    head
 }
 
 const SETUP_HEAD: [&str; 10] = [
@@ -106,7 +257,7 @@ const SETUP_HEAD: [&str; 10] = [
     "leadscrew",
     "meshes",
     "pitch cut",
-    "pitch error",
+    "error",
     "lead error",
     "on the banjo",
 ];
@@ -117,22 +268,27 @@ pub fn thread(r: &ThreadReport) -> Document {
     let t = &r.plan.thread;
     let lead = t.lead_mm();
     let exact = if lead.exact { format!(" = {} mm exactly", lead.value) } else { String::new() };
-    d.title(format!(
-        "Thread {}, {} start{} (lead {} mm{exact})",
-        t.pitch,
-        t.starts,
-        if t.starts == 1 { "" } else { "s" },
-        fmt_num(lead.value.to_f64())
-    ));
-    header(&mut d, r.lathe);
+    if t.feed {
+        d.title(format!("Feed {} per spindle turn ({} mm{exact})", t.pitch, fmt_num(lead.value.to_f64())));
+    } else {
+        d.title(format!(
+            "Thread {}, {} start{} (lead {} mm{exact})",
+            t.pitch,
+            t.starts,
+            if t.starts == 1 { "" } else { "s" },
+            fmt_num(lead.value.to_f64())
+        ));
+    }
+    header(&mut d, r.lathe, t.feed);
     d.blank();
     let p = r.plan;
     let status = if p.complete { "" } else { "INCOMPLETE (interrupted): at least " };
+    let (verb, verbs) = if t.feed { ("gives", "give") } else { ("cuts", "cut") };
     match p.count {
-        0 => d.line(format!("{status}No setup cuts {} within the tolerance from these gears.", t.pitch)),
-        1 => d.line(format!("{status}1 setup cuts it:")),
+        0 => d.line(format!("{status}No setup {verb} {} within the tolerance from these gears.", t.pitch)),
+        1 => d.line(format!("{status}1 setup {verb} it:")),
         n => d.line(format!(
-            "{status}{} setups cut it; {} by pitch error, then meshes, then size:",
+            "{status}{} setups {verbs} it; {} by pitch error, then meshes, then size:",
             group_thousands(n),
             if p.setups.len() as u64 == n {
                 "all listed".to_string()
@@ -144,7 +300,10 @@ pub fn thread(r: &ThreadReport) -> Document {
     if !p.setups.is_empty() {
         d.blank();
         let mut head = vec!["#".to_string()];
-        head.extend(SETUP_HEAD.iter().map(|s| s.to_string()));
+        head.extend(setup_head(r.lathe));
+        if t.feed {
+            head[7] = "feed cut".to_string();
+        }
         let rows: Vec<Vec<String>> = p
             .setups
             .iter()
@@ -180,7 +339,15 @@ pub fn thread(r: &ThreadReport) -> Document {
             }
         }
     }
-    footer(&mut d, if t.pitch.kind.is_inch() { "1 inch" } else { "100 mm" });
+    let mut bases = Bases::default();
+    if t.feed {
+        bases.feed = true;
+        bases.metric_lead = !t.pitch.kind.is_inch();
+        bases.inch_lead = t.pitch.kind.is_inch();
+    } else {
+        bases.add(&t.pitch);
+    }
+    footer(&mut d, r.lathe, bases);
     d
 }
 
@@ -189,7 +356,7 @@ pub fn chart(r: &ChartReport) -> Document {
     let mut d = Document::new();
     let c = r.chart;
     d.title(format!("Thread chart: {} ({} threads)", r.series, c.rows.len()));
-    header(&mut d, r.lathe);
+    header(&mut d, r.lathe, false);
     d.blank();
     let status = if c.complete { "" } else { "INCOMPLETE (interrupted): " };
     if c.reachable() == c.rows.len() {
@@ -204,7 +371,8 @@ pub fn chart(r: &ChartReport) -> Document {
     }
     d.blank();
     let mut head = vec!["thread".to_string(), "pitch".to_string()];
-    head.extend(SETUP_HEAD.iter().map(|s| s.to_string()));
+    let width = setup_head(r.lathe).len();
+    head.extend(setup_head(r.lathe));
     head.push("note".to_string());
     let rows: Vec<Vec<String>> = c
         .rows
@@ -221,7 +389,7 @@ pub fn chart(r: &ChartReport) -> Document {
                     cells.push("OUT OF REACH: nearest shown".to_string());
                 }
                 (None, None) => {
-                    cells.extend(std::iter::repeat_n("-".to_string(), SETUP_HEAD.len()));
+                    cells.extend(std::iter::repeat_n("-".to_string(), width));
                     cells.push("OUT OF REACH: nothing near can be set up".to_string());
                 }
             }
@@ -229,13 +397,10 @@ pub fn chart(r: &ChartReport) -> Document {
         })
         .collect();
     d.table(Table::new(&head, &[3, 4, 6]).with_rows(rows));
-    let inch = c.rows.iter().any(|r| r.thread.pitch.kind.is_inch());
-    let metric = c.rows.iter().any(|r| !r.thread.pitch.kind.is_inch());
-    let basis = match (metric, inch) {
-        (true, true) => "100 mm (1 inch for inch threads)",
-        (false, true) => "1 inch",
-        _ => "100 mm",
-    };
-    footer(&mut d, basis);
+    let mut bases = Bases::default();
+    for row in &c.rows {
+        bases.add(&row.thread.pitch);
+    }
+    footer(&mut d, r.lathe, bases);
     d
 }

@@ -8,7 +8,12 @@
 //!  "lead_cut_mm": f64, "lead_cut_mm_exact": "p/q"|null, "exact_pitch": bool,
 //!  "lead_error": f64, "lead_error_unit": "mm per 100 mm"|"in per in",
 //!  "intermediate_stud_from_leadscrew_mm": f64|null,
-//!  "idler_stud_from_leadscrew_mm": f64|null, "stud_mesh_inner": bool|null}
+//!  "idler_stud_from_leadscrew_mm": f64|null, "stud_mesh_inner": bool|null,
+//!  "error_shown": f64, "error_of": "TPI"|"pitch"|"feed", "on_the_banjo": "…",
+//!  "banjo_checked": bool,
+//!  "chain": {"studs_from_leadscrew_mm": [f64…], "slots": [1…], "planes": [1…]}|null,
+//!  "engagement": {"engage_every_leadscrew_turns": u64, "dial_every_nth_line": u32|null,
+//!                 "dial": "any line"|…|null}|null}
 //! ```
 //! A thread document is `{"schema_version", "thread", "machine", "banjo", "tolerance", "count", "complete",
 //! "convention", "caution", "trains": [setup…], "rejected"?}`; a chart document is `{"schema_version", "series",
@@ -19,11 +24,13 @@ use std::io::Write;
 
 use serde::Serialize;
 
+use super::document::banjo_cell;
 use super::{ChartReport, ThreadReport};
 use crate::report::fields::TrainJson;
 use crate::report::words::CONVENTION;
 use crate::report::words::THREAD_CAUTION;
 use crate::report::{write_json, RenderError, SCHEMA_VERSION};
+use crate::trades::thread::dial::Dial;
 use crate::trades::thread::pitch::Pitch;
 use crate::trades::thread::{Lathe, Setup};
 
@@ -61,6 +68,42 @@ pub struct SetupJson {
     pub idler_stud_from_leadscrew_mm: Option<f64>,
     /// For two stages on a banjo: true when the stud mesh is the inner plane.
     pub stud_mesh_inner: Option<bool>,
+    /// The error in the sense of the number the thread was given by (see `error_of`).
+    pub error_shown: f64,
+    /// `TPI` (TPI cut / TPI wanted − 1) or `pitch` (pitch cut / pitch wanted − 1).
+    pub error_of: &'static str,
+    /// Where the setup sits on the banjo in words, or why it was not checked.
+    pub on_the_banjo: String,
+    /// Whether the setup was placed on a banjo.
+    pub banjo_checked: bool,
+    /// For three stages or more on a banjo: each intermediate stud's distance from the
+    /// leadscrew axis (mm), its slot (1 first) and the plane of each mesh (1 nearest the machine).
+    pub chain: Option<ChainJson>,
+    /// Where the half-nuts may be closed again.
+    pub engagement: Option<EngagementJson>,
+}
+
+/// A setup of three stages or more on the banjo.
+#[derive(Serialize, Debug, Clone, PartialEq)]
+pub struct ChainJson {
+    /// Each intermediate stud's distance from the leadscrew axis, mm, stud side first.
+    pub studs_from_leadscrew_mm: Vec<f64>,
+    /// The slot each sits in, 1 first.
+    pub slots: Vec<usize>,
+    /// The plane of each mesh from the stud, 1 nearest the machine.
+    pub planes: Vec<u32>,
+}
+
+/// Where the half-nuts may be closed again for a setup.
+#[derive(Serialize, Debug, Clone, PartialEq)]
+pub struct EngagementJson {
+    /// Leadscrew turns from one safe engagement to the next.
+    pub engage_every_leadscrew_turns: u64,
+    /// On the lathe's dial: every how many lines, from the line of the first engagement; null
+    /// when no line is safe or no dial is described.
+    pub dial_every_nth_line: Option<u32>,
+    /// The same in words, when a dial is described.
+    pub dial: Option<String>,
 }
 
 /// A gear in a named position.
@@ -74,7 +117,8 @@ pub struct PositionJson {
 
 impl SetupJson {
     /// The JSON view of a setup for a thread of `pitch`.
-    pub fn from_setup(s: &Setup, pitch: &Pitch) -> SetupJson {
+    pub fn from_setup(s: &Setup, pitch: &Pitch, dial: Option<&Dial>) -> SetupJson {
+        let (shown, sense) = s.shown_error(pitch);
         // Every mesh the machine has: an idler is two stages, stud → idler → leadscrew.
         let mut train = TrainJson::from_train(&s.mounted_train());
         train.error = s.pitch_error.to_f64();
@@ -103,18 +147,47 @@ impl SetupJson {
                 .intermediate_from_leadscrew_mm
                 .filter(|_| s.fit.idler.is_some()),
             stud_mesh_inner: s.fit.stud_mesh_inner,
+            error_shown: shown.to_f64(),
+            error_of: sense.as_str(),
+            on_the_banjo: banjo_cell(s),
+            banjo_checked: s.fit.not_checked.is_none(),
+            chain: s.fit.chain.as_ref().map(|c| ChainJson {
+                studs_from_leadscrew_mm: c
+                    .from_leadscrew_mm()
+                    .iter()
+                    .map(|r| (r * 10.0).round() / 10.0)
+                    .collect(),
+                slots: c.slots.iter().map(|k| k + 1).collect(),
+                planes: c.planes.clone(),
+            }),
+            engagement: s.engagement.map(|e| EngagementJson {
+                engage_every_leadscrew_turns: e.leadscrew_turns,
+                dial_every_nth_line: e.every_nth_line,
+                dial: dial.map(|d| e.describe(d)),
+            }),
         }
     }
 }
 
 #[derive(Serialize)]
 struct MachineJson {
+    name: Option<String>,
     leadscrew: String,
     leadscrew_mm: f64,
     stud_ratio: String,
     gearbox: Vec<GearboxJson>,
     gears: String,
     stage_counts: Vec<usize>,
+    largest_teeth: Option<u32>,
+    left_out_by_the_guard: Vec<u32>,
+    tumbler_reverse: Option<bool>,
+    dial: Option<DialJson>,
+}
+
+#[derive(Serialize)]
+struct DialJson {
+    dial_teeth: u32,
+    dial_marks: u32,
 }
 
 #[derive(Serialize)]
@@ -127,11 +200,14 @@ struct GearboxJson {
 struct BanjoJson {
     stud_to_leadscrew_mm: f64,
     intermediate_stud_from_leadscrew_mm: [f64; 2],
+    slots_mm: Vec<[f64; 2]>,
     shaft_diameter_mm: f64,
 }
 
 fn machine(l: &Lathe) -> MachineJson {
+    let e = &l.equipment;
     MachineJson {
+        name: e.name.clone(),
         leadscrew: l.machine.leadscrew.text.clone(),
         leadscrew_mm: l.machine.leadscrew.mm.value.to_f64(),
         stud_ratio: l.machine.stud_ratio.to_string(),
@@ -143,16 +219,18 @@ fn machine(l: &Lathe) -> MachineJson {
             .collect(),
         gears: l.pool.describe(),
         stage_counts: (l.stages.lo as usize..=l.stages.hi as usize).collect(),
+        largest_teeth: e.largest_teeth,
+        left_out_by_the_guard: e.left_out.clone(),
+        tumbler_reverse: e.tumbler_reverse,
+        dial: e.dial.map(|d| DialJson { dial_teeth: d.teeth, dial_marks: d.marks }),
     }
 }
 
 fn banjo(l: &Lathe) -> Option<BanjoJson> {
     l.banjo.as_ref().map(|b| BanjoJson {
         stud_to_leadscrew_mm: b.stud_to_leadscrew_mm,
-        intermediate_stud_from_leadscrew_mm: [
-            b.intermediate_from_leadscrew_mm.lo,
-            b.intermediate_from_leadscrew_mm.hi,
-        ],
+        intermediate_stud_from_leadscrew_mm: [b.slots[0].lo, b.slots[0].hi],
+        slots_mm: b.slots.iter().map(|s| [s.lo, s.hi]).collect(),
         shaft_diameter_mm: b.shaft_diameter_mm,
     })
 }
@@ -160,6 +238,7 @@ fn banjo(l: &Lathe) -> Option<BanjoJson> {
 #[derive(Serialize)]
 struct ThreadJson {
     pitch: String,
+    feed: bool,
     starts: u32,
     lead_mm: f64,
     lead_mm_exact: Option<String>,
@@ -196,6 +275,7 @@ pub fn write_thread(r: &ThreadReport, w: &mut dyn Write) -> Result<(), RenderErr
         schema_version: SCHEMA_VERSION,
         thread: ThreadJson {
             pitch: t.pitch.text.clone(),
+            feed: t.feed,
             starts: t.starts,
             lead_mm: lead.value.to_f64(),
             lead_mm_exact: lead.exact.then(|| lead.value.to_string()),
@@ -207,7 +287,12 @@ pub fn write_thread(r: &ThreadReport, w: &mut dyn Write) -> Result<(), RenderErr
         complete: r.plan.complete,
         convention: CONVENTION,
         caution: THREAD_CAUTION,
-        trains: r.plan.setups.iter().map(|s| SetupJson::from_setup(s, &t.pitch)).collect(),
+        trains: r
+            .plan
+            .setups
+            .iter()
+            .map(|s| SetupJson::from_setup(s, &t.pitch, r.lathe.equipment.dial.as_ref()))
+            .collect(),
         rejected: r.rejected.map(|rej| {
             rej.iter()
                 .map(|x| {
@@ -250,28 +335,33 @@ struct ChartDoc {
 
 /// Write a chart as one JSON document and a newline.
 pub fn write_chart(r: &ChartReport, w: &mut dyn Write) -> Result<(), RenderError> {
-    let doc = ChartDoc {
-        schema_version: SCHEMA_VERSION,
-        series: r.series.to_string(),
-        machine: machine(r.lathe),
-        banjo: banjo(r.lathe),
-        tolerance: r.lathe.tolerance.to_f64(),
-        complete: r.chart.complete,
-        convention: CONVENTION,
-        caution: THREAD_CAUTION,
-        rows: r
-            .chart
-            .rows
-            .iter()
-            .map(|row| RowJson {
-                thread: row.label.clone(),
-                pitch: row.thread.pitch.text.clone(),
-                reachable: row.best.is_some(),
-                count: row.count,
-                setup: row.best.as_ref().map(|s| SetupJson::from_setup(s, &row.thread.pitch)),
-                nearest: row.nearest.as_ref().map(|s| SetupJson::from_setup(s, &row.thread.pitch)),
-            })
-            .collect(),
-    };
+    let doc =
+        ChartDoc {
+            schema_version: SCHEMA_VERSION,
+            series: r.series.to_string(),
+            machine: machine(r.lathe),
+            banjo: banjo(r.lathe),
+            tolerance: r.lathe.tolerance.to_f64(),
+            complete: r.chart.complete,
+            convention: CONVENTION,
+            caution: THREAD_CAUTION,
+            rows: r
+                .chart
+                .rows
+                .iter()
+                .map(|row| RowJson {
+                    thread: row.label.clone(),
+                    pitch: row.thread.pitch.text.clone(),
+                    reachable: row.best.is_some(),
+                    count: row.count,
+                    setup: row.best.as_ref().map(|s| {
+                        SetupJson::from_setup(s, &row.thread.pitch, r.lathe.equipment.dial.as_ref())
+                    }),
+                    nearest: row.nearest.as_ref().map(|s| {
+                        SetupJson::from_setup(s, &row.thread.pitch, r.lathe.equipment.dial.as_ref())
+                    }),
+                })
+                .collect(),
+        };
     write_json(&doc, w)
 }

@@ -16,8 +16,16 @@
 //! - a simple train sits in one plane: the stud gear and the leadscrew gear must not touch, and
 //!   an idler from the spare stock bridges them.
 //!
-//! Trains of three or more stages need more than one intermediate stud, which this model does not
-//! place: for them only the closure of the chain and the shaft fit are checked.
+//! - a banjo has one slot or more; each intermediate (or idler) stud sits in a slot of its own,
+//!   at a distance from the leadscrew within the slot's range, so a setup of `n` stages needs
+//!   `n − 1` slots;
+//! - setups of three and four stages are placed by searching the angles of their studs (in steps
+//!   of [`CHAIN_STEP_DEG`], [`CHAIN_STEP_4_DEG`] for four stages) for a position where every
+//!   stud is in its slot, and the planes of their meshes for an order in which every gear clears
+//!   every shaft that passes through its plane and every gear it does not mesh with (a shaft
+//!   passes through every plane from the machine out to its outermost gear; the two gears on an
+//!   intermediate stud sit in neighbouring planes). Setups of five stages or more are not
+//!   checked, and say so.
 
 use std::path::Path;
 
@@ -30,13 +38,23 @@ use crate::numbers::range::{parse_length_range, FloatRange};
 /// Slack for distances computed in floating point, mm.
 const SLACK_MM: f64 = 1e-9;
 
+/// Angle step, degrees, of the search for where the two studs of a three-stage setup sit.
+pub const CHAIN_STEP_DEG: f64 = 0.5;
+
+/// Angle step, degrees, of the search for where the three studs of a four-stage setup sit.
+pub const CHAIN_STEP_4_DEG: f64 = 2.0;
+
+/// The most stages a setup the banjo model places may have.
+pub const MAX_PLACED_STAGES: usize = 4;
+
 /// The fixed geometry of a lathe's banjo.
 #[derive(Debug, Clone, PartialEq)]
 pub struct Banjo {
     /// Distance between the stud and leadscrew axes, mm.
     pub stud_to_leadscrew_mm: f64,
-    /// Distances from the leadscrew axis the intermediate stud can take, mm.
-    pub intermediate_from_leadscrew_mm: FloatRange,
+    /// The slots, each the distances from the leadscrew axis a stud in it can take, mm; at
+    /// least one. Each intermediate or idler stud takes a slot of its own.
+    pub slots: Vec<FloatRange>,
     /// Diameter of the shafts and the spacers on them, mm; gears must clear it.
     pub shaft_diameter_mm: f64,
 }
@@ -52,19 +70,53 @@ pub struct Fit {
     pub stud_mesh_inner: Option<bool>,
     /// Where the intermediate (or idler) stud sits, mm from the leadscrew axis.
     pub intermediate_from_leadscrew_mm: Option<f64>,
+    /// For three stages or more: where the studs sit and the plane of each mesh.
+    pub chain: Option<ChainFit>,
+    /// Why the setup was not checked on a banjo, when it was not (no banjo described, or more
+    /// stages than the model places).
+    pub not_checked: Option<String>,
+}
+
+/// How a setup of three or more stages sits on the banjo.
+#[derive(Debug, Clone, PartialEq)]
+pub struct ChainFit {
+    /// The intermediate studs from the stud side, mm in the plane of the gears (the leadscrew
+    /// axis at the origin, the stud at `(−stud_to_leadscrew, 0)`).
+    pub studs: Vec<[f64; 2]>,
+    /// The slot (index into [`Banjo::slots`]) each stud sits in.
+    pub slots: Vec<usize>,
+    /// The plane of each mesh from the stud to the leadscrew, 1 nearest the machine.
+    pub planes: Vec<u32>,
+}
+
+impl ChainFit {
+    /// Each stud's distance from the leadscrew axis, mm.
+    pub fn from_leadscrew_mm(&self) -> Vec<f64> {
+        self.studs.iter().map(|p| p[0].hypot(p[1])).collect()
+    }
 }
 
 impl Fit {
-    /// The plain order, nothing placed (no banjo to check against).
-    pub fn unchecked(train: &Train) -> Fit {
+    /// The plain order, nothing placed; `why` says why it was not checked.
+    pub fn unchecked(train: &Train, why: impl Into<String>) -> Fit {
+        Fit { not_checked: Some(why.into()), ..Fit::placed((0..train.stages.len()).collect()) }
+    }
+
+    /// A fit in `order` with nothing else said yet.
+    fn placed(order: Vec<usize>) -> Fit {
         Fit {
-            order: (0..train.stages.len()).collect(),
+            order,
             idler: None,
             stud_mesh_inner: None,
             intermediate_from_leadscrew_mm: None,
+            chain: None,
+            not_checked: None,
         }
     }
 }
+
+/// Why a setup is not checked when no banjo was described.
+pub const NO_BANJO: &str = "not checked: no banjo described";
 
 fn tip_mm(m: f64, z: u32) -> f64 {
     m * (z as f64 + 2.0) / 2.0
@@ -83,6 +135,21 @@ impl Banjo {
         shaft_diameter_mm: f64,
         place: &dyn Fn(Quantity, String) -> Error,
     ) -> Result<Banjo> {
+        Banjo::with_slots(
+            stud_to_leadscrew_mm,
+            vec![intermediate_from_leadscrew_mm],
+            shaft_diameter_mm,
+            place,
+        )
+    }
+
+    /// [`Banjo::new`] for a banjo of one slot or more.
+    pub fn with_slots(
+        stud_to_leadscrew_mm: f64,
+        slots: Vec<FloatRange>,
+        shaft_diameter_mm: f64,
+        place: &dyn Fn(Quantity, String) -> Error,
+    ) -> Result<Banjo> {
         for (v, quantity) in
             [(stud_to_leadscrew_mm, Quantity::StudToLeadscrew), (shaft_diameter_mm, Quantity::ShaftDiameter)]
         {
@@ -90,23 +157,30 @@ impl Banjo {
                 return Err(place(quantity, format!("wanted a positive distance in mm, found {v}")));
             }
         }
-        if !intermediate_from_leadscrew_mm.hi.is_finite() {
+        if slots.is_empty() || slots.iter().any(|s| !s.hi.is_finite()) {
             return Err(place(Quantity::IntermediateRange, "wanted LO..HI mm with an upper end".into()));
         }
-        Ok(Banjo { stud_to_leadscrew_mm, intermediate_from_leadscrew_mm, shaft_diameter_mm })
+        Ok(Banjo { stud_to_leadscrew_mm, slots, shaft_diameter_mm })
     }
 
     /// One-line description for reports.
     pub fn describe(&self) -> String {
-        let r = &self.intermediate_from_leadscrew_mm;
+        let ranges: Vec<String> =
+            self.slots.iter().map(|r| format!("{}..{}", fmt_num(r.lo), fmt_num(r.hi))).collect();
+        let slots = match ranges.as_slice() {
+            [one] => format!("intermediate stud {one} mm from the leadscrew"),
+            more => format!("{} slots, studs {} mm from the leadscrew", more.len(), more.join(" and ")),
+        };
         format!(
-            "stud {} mm from the leadscrew, intermediate stud {}..{} mm from the leadscrew, \
-             shafts and spacers {} mm",
+            "stud {} mm from the leadscrew, {slots}, shafts and spacers {} mm",
             fmt_num(self.stud_to_leadscrew_mm),
-            fmt_num(r.lo),
-            fmt_num(r.hi),
             fmt_num(self.shaft_diameter_mm)
         )
+    }
+
+    /// The slot whose range holds `r` mm, the first if several do.
+    pub fn slot_holding(&self, r: f64) -> Option<usize> {
+        self.slots.iter().position(|s| s.contains(r, SLACK_MM))
     }
 
     /// Place `train` on the banjo, trying each stage nearer the stud and each plane inner, and
@@ -133,19 +207,25 @@ impl Banjo {
         match train.stages.len() {
             1 => self.fit_simple(train, pool),
             2 => self.fit_compound(train),
-            _ => self.fit_chain(train),
+            n if n <= MAX_PLACED_STAGES => self.fit_chain(train),
+            n => self.fit_chain_closure(train).map(|()| {
+                Fit::unchecked(
+                    train,
+                    format!("not checked: the banjo model places at most {MAX_PLACED_STAGES} stages, this has {n}"),
+                )
+            }),
         }
     }
 
     fn slot_reason(&self, r: f64) -> Option<String> {
-        let s = &self.intermediate_from_leadscrew_mm;
-        (!s.contains(r, SLACK_MM)).then(|| {
+        self.slot_holding(r).is_none().then(|| {
+            let ranges: Vec<String> =
+                self.slots.iter().map(|s| format!("{}..{}", fmt_num(s.lo), fmt_num(s.hi))).collect();
             format!(
-                "the intermediate stud would sit {} mm from the leadscrew, outside the slot \
-                 {}..{} mm",
+                "the intermediate stud would sit {} mm from the leadscrew, outside the slot{} {} mm",
                 fmt_num(r),
-                fmt_num(s.lo),
-                fmt_num(s.hi)
+                if ranges.len() == 1 { "" } else { "s" },
+                ranges.join(" and ")
             )
         })
     }
@@ -177,12 +257,7 @@ impl Banjo {
         let d = self.stud_to_leadscrew_mm;
         let direct = standard_centre_distance_mm(m, za, zd);
         if (direct - d).abs() <= 1e-6 {
-            return Ok(Fit {
-                order: vec![0],
-                idler: None,
-                stud_mesh_inner: None,
-                intermediate_from_leadscrew_mm: None,
-            });
+            return Ok(Fit::placed(vec![0]));
         }
         let (ta, td) = (tip_mm(m, za), tip_mm(m, zd));
         if ta + td > d + SLACK_MM {
@@ -212,10 +287,9 @@ impl Banjo {
             match reason {
                 None => {
                     return Ok(Fit {
-                        order: vec![0],
                         idler: Some(zi),
-                        stud_mesh_inner: None,
                         intermediate_from_leadscrew_mm: Some(a2),
+                        ..Fit::placed(vec![0])
                     })
                 }
                 Some(r) => why.push(format!("{za}→{zd} through a {zi} idler: {r}")),
@@ -271,10 +345,9 @@ impl Banjo {
                 match reason {
                     None => {
                         return Ok(Fit {
-                            order: order.to_vec(),
-                            idler: None,
                             stud_mesh_inner: Some(stud_inner),
                             intermediate_from_leadscrew_mm: Some(a2),
+                            ..Fit::placed(order.to_vec())
                         })
                     }
                     Some(r) => why.push(format!("{name}, {plane}: {r}")),
@@ -284,7 +357,187 @@ impl Banjo {
         Err(why)
     }
 
+    /// Place a setup of three or four stages: its `n − 1` studs each in a slot of its own, at
+    /// the centre distances of its meshes, found by stepping the studs' angles; then the planes
+    /// of its meshes, fewest planes first. `Err` says why no position and plane order serves.
     fn fit_chain(&self, train: &Train) -> std::result::Result<Fit, Vec<String>> {
+        self.fit_chain_closure(train)?;
+        let mut first_reasons = None;
+        let mut tried: Vec<Vec<(u32, u32)>> = Vec::new();
+        for order in orders(train.stages.len()) {
+            let stages: Vec<_> = order.iter().map(|&k| train.stages[k].clone()).collect();
+            // Equal stages in another order are the same setup.
+            let teeth: Vec<(u32, u32)> = stages.iter().map(|s| (s.driver.teeth, s.driven.teeth)).collect();
+            if tried.contains(&teeth) {
+                continue;
+            }
+            tried.push(teeth);
+            let ordered = Train { stages, ..train.clone() };
+            match self.fit_chain_in_order(&ordered) {
+                Ok(fit) => return Ok(Fit { order, ..fit }),
+                Err(why) => {
+                    first_reasons.get_or_insert(why);
+                }
+            }
+        }
+        let why = first_reasons.unwrap_or_default();
+        Err(why
+            .into_iter()
+            .map(|w| format!("in every order of its stages; in the order given, {w}"))
+            .collect())
+    }
+
+    /// [`Banjo::fit_chain`] for the stages in the order given.
+    fn fit_chain_in_order(&self, train: &Train) -> std::result::Result<Fit, Vec<String>> {
+        let n = train.stages.len();
+        let studs = n - 1;
+        if self.slots.len() < studs {
+            return Err(vec![format!(
+                "{n} stages need {studs} intermediate studs, each in a slot of its own; the banjo has {} \
+                 slot{}",
+                self.slots.len(),
+                if self.slots.len() == 1 { "" } else { "s" }
+            )]);
+        }
+        let links: Vec<f64> = train.stages.iter().map(|s| s.centre_distance_mm()).collect();
+        let slot_orders = arrangements(self.slots.len(), studs);
+        let plane_orders = plane_orders(n);
+        let mut in_slots = false;
+        let mut last_clash = None;
+        for inner in self.chain_positions(&links) {
+            for slots in &slot_orders {
+                let fits =
+                    inner.iter().zip(slots).all(|(p, &k)| self.slots[k].contains(p[0].hypot(p[1]), SLACK_MM));
+                if !fits {
+                    continue;
+                }
+                in_slots = true;
+                let mut axes = vec![[-self.stud_to_leadscrew_mm, 0.0]];
+                axes.extend(inner.iter().copied());
+                axes.push([0.0, 0.0]);
+                for planes in &plane_orders {
+                    match self.clash(train, &axes, planes) {
+                        None => {
+                            return Ok(Fit {
+                                chain: Some(ChainFit {
+                                    studs: inner,
+                                    slots: slots.clone(),
+                                    planes: planes.clone(),
+                                }),
+                                ..Fit::placed((0..n).collect())
+                            })
+                        }
+                        Some(why) => last_clash = Some(why),
+                    }
+                }
+            }
+        }
+        let ranges: Vec<String> =
+            self.slots.iter().map(|s| format!("{}..{}", fmt_num(s.lo), fmt_num(s.hi))).collect();
+        Err(vec![match (in_slots, last_clash) {
+            (true, Some(why)) => {
+                format!("wherever its studs sit in the slots, a gear fouls; for example {why}")
+            }
+            _ => format!(
+                "no position of its {studs} studs at centre distances {} mm puts each in a slot of its own \
+                 (slots {} mm from the leadscrew)",
+                links.iter().map(|a| fmt_num(*a)).collect::<Vec<_>>().join(", "),
+                ranges.join(" and ")
+            ),
+        }])
+    }
+
+    /// Every position of the intermediate studs (stud side first) the search tries for a chain of
+    /// centre distances `links` (stud mesh first): the last stud on a circle about the leadscrew
+    /// (upper half: the lower is its mirror image), for four stages the middle one on a circle
+    /// about it, and the first where the circles about the stud and its neighbour meet.
+    fn chain_positions(&self, links: &[f64]) -> Vec<Vec<[f64; 2]>> {
+        let n = links.len();
+        let stud = [-self.stud_to_leadscrew_mm, 0.0];
+        let step = if n == 3 { CHAIN_STEP_DEG } else { CHAIN_STEP_4_DEG };
+        let half_turn = (180.0 / step).round() as usize;
+        let angles = |count: usize| (0..=count).map(move |k| (k as f64 * step).to_radians());
+        let on = |centre: [f64; 2], r: f64, a: f64| [centre[0] + r * a.cos(), centre[1] + r * a.sin()];
+        let mut out = Vec::new();
+        for a in angles(half_turn) {
+            let last = on([0.0, 0.0], links[n - 1], a);
+            let middles: Vec<Vec<[f64; 2]>> = if n == 3 {
+                vec![vec![last]]
+            } else {
+                angles(2 * half_turn - 1).map(|b| vec![on(last, links[n - 2], b), last]).collect()
+            };
+            for tail in middles {
+                for first in circles_meet(stud, links[0], tail[0], links[1]) {
+                    let mut studs = vec![first];
+                    studs.extend(tail.iter().copied());
+                    out.push(studs);
+                }
+            }
+        }
+        out
+    }
+
+    /// Why the gears of `train`, on the axes `axes` (stud, intermediate studs, leadscrew) with
+    /// mesh `j` in plane `planes[j]`, cannot run: a gear fouling a shaft that passes through its
+    /// plane, or two gears of one plane that do not mesh touching. `None` when all is clear.
+    fn clash(&self, train: &Train, axes: &[[f64; 2]], planes: &[u32]) -> Option<String> {
+        let c = self.shaft_diameter_mm / 2.0;
+        let n = train.stages.len();
+        // (axis, plane, tip radius, teeth, stage)
+        let mut gears = Vec::new();
+        for (j, s) in train.stages.iter().enumerate() {
+            gears.push((j, planes[j], tip_mm(s.module_mm, s.driver.teeth), s.driver.teeth, j));
+            gears.push((j + 1, planes[j], tip_mm(s.module_mm, s.driven.teeth), s.driven.teeth, j));
+        }
+        let outermost: Vec<u32> =
+            (0..=n).map(|a| gears.iter().filter(|g| g.0 == a).map(|g| g.1).max().unwrap_or(0)).collect();
+        let name = |a: usize| match a {
+            0 => "stud".to_string(),
+            a if a == n => "leadscrew".to_string(),
+            a => format!("intermediate stud {a}"),
+        };
+        let dist = |a: usize, b: usize| (axes[a][0] - axes[b][0]).hypot(axes[a][1] - axes[b][1]);
+        for g in &gears {
+            for (b, &out_to) in outermost.iter().enumerate() {
+                // The gear it meshes sits on the other axis of its own stage.
+                let meshes_there = (g.0 == g.4 && b == g.4 + 1) || (g.0 == g.4 + 1 && b == g.4);
+                if b == g.0 || meshes_there || out_to < g.1 {
+                    continue;
+                }
+                if g.2 + c > dist(g.0, b) + SLACK_MM {
+                    return Some(format!(
+                        "the {}-tooth gear on the {} (tip {} mm, plane {}) fouls the {} shaft {} mm away",
+                        g.3,
+                        name(g.0),
+                        fmt_num(g.2),
+                        g.1,
+                        name(b),
+                        fmt_num(dist(g.0, b))
+                    ));
+                }
+            }
+        }
+        for (i, g) in gears.iter().enumerate() {
+            for h in &gears[i + 1..] {
+                if g.0 == h.0 || g.1 != h.1 || g.4 == h.4 {
+                    continue;
+                }
+                if g.2 + h.2 > dist(g.0, h.0) + SLACK_MM {
+                    return Some(format!(
+                        "the {}-tooth gear on the {} and the {}-tooth gear on the {} (plane {}) would touch",
+                        g.3,
+                        name(g.0),
+                        h.3,
+                        name(h.0),
+                        g.1
+                    ));
+                }
+            }
+        }
+        None
+    }
+
+    fn fit_chain_closure(&self, train: &Train) -> std::result::Result<(), Vec<String>> {
         let links: Vec<f64> = train.stages.iter().map(|s| s.centre_distance_mm()).collect();
         let d = self.stud_to_leadscrew_mm;
         let sum: f64 = links.iter().sum::<f64>() + d;
@@ -297,7 +550,7 @@ impl Banjo {
                 fmt_num(d)
             )]);
         }
-        Ok(Fit::unchecked(train))
+        Ok(())
     }
 }
 
@@ -364,6 +617,62 @@ impl Banjo {
         let intermediate = Some(self.intermediate_at(stud_mesh_mm, r)?);
         Some(Placement { stud, intermediate, leadscrew })
     }
+}
+
+/// The points where the circle of radius `ra` about `a` meets that of radius `rb` about `b` (none,
+/// or two that may coincide).
+fn circles_meet(a: [f64; 2], ra: f64, b: [f64; 2], rb: f64) -> Vec<[f64; 2]> {
+    let (dx, dy) = (b[0] - a[0], b[1] - a[1]);
+    let d = dx.hypot(dy);
+    if d <= 0.0 || d > ra + rb + SLACK_MM || d < (ra - rb).abs() - SLACK_MM {
+        return Vec::new();
+    }
+    let x = (ra * ra - rb * rb + d * d) / (2.0 * d);
+    let h = (ra * ra - x * x).max(0.0).sqrt();
+    let (ux, uy) = (dx / d, dy / d);
+    let foot = [a[0] + x * ux, a[1] + x * uy];
+    vec![[foot[0] - h * uy, foot[1] + h * ux], [foot[0] + h * uy, foot[1] - h * ux]]
+}
+
+/// Every order of `n` stages, the given order first.
+fn orders(n: usize) -> Vec<Vec<usize>> {
+    arrangements(n, n)
+}
+
+/// The ways of giving `k` studs slots of their own out of `slots`: ordered choices.
+fn arrangements(slots: usize, k: usize) -> Vec<Vec<usize>> {
+    if k == 0 {
+        return vec![Vec::new()];
+    }
+    let mut out = Vec::new();
+    for rest in arrangements(slots, k - 1) {
+        for s in (0..slots).filter(|s| !rest.contains(s)) {
+            let mut v = rest.clone();
+            v.push(s);
+            out.push(v);
+        }
+    }
+    out
+}
+
+/// The plane orders of `n` meshes, 1 nearest the machine: neighbouring meshes share an
+/// intermediate stud, whose two gears sit in neighbouring planes. Fewest planes first.
+pub fn plane_orders(n: usize) -> Vec<Vec<u32>> {
+    let mut out: Vec<Vec<u32>> = Vec::new();
+    for steps in 0..1u32 << (n - 1) {
+        let mut p = vec![0i64];
+        for j in 0..n - 1 {
+            let last = p[j];
+            p.push(if steps >> j & 1 == 1 { last + 1 } else { last - 1 });
+        }
+        let low = p.iter().copied().min().unwrap_or(0);
+        let planes: Vec<u32> = p.iter().map(|x| (x - low + 1) as u32).collect();
+        if !out.contains(&planes) {
+            out.push(planes);
+        }
+    }
+    out.sort_by_key(|p| (p.iter().copied().max().unwrap_or(0), p.clone()));
+    out
 }
 
 /// Tooth counts of the gears left over once `train` has taken its own, in the mesh group of a
@@ -488,7 +797,7 @@ mod tests {
     fn banjo() -> Banjo {
         Banjo {
             stud_to_leadscrew_mm: 120.0,
-            intermediate_from_leadscrew_mm: FloatRange { lo: 45.0, hi: 150.0 },
+            slots: vec![FloatRange { lo: 45.0, hi: 150.0 }],
             shaft_diameter_mm: 20.0,
         }
     }
@@ -542,8 +851,7 @@ mod tests {
         let why = banjo().fit(&t, &pool(&[20, 25, 30])).unwrap_err();
         assert_eq!(why.len(), 2);
         assert!(why.iter().all(|w| w.contains("outside the slot 45..150 mm")), "{why:?}");
-        let long_slot =
-            Banjo { intermediate_from_leadscrew_mm: FloatRange { lo: 20.0, hi: 150.0 }, ..banjo() };
+        let long_slot = Banjo { slots: vec![FloatRange { lo: 20.0, hi: 150.0 }], ..banjo() };
         let why = long_slot.fit(&t, &pool(&[20, 25, 30])).unwrap_err();
         assert!(why.iter().all(|w| w.contains("short of the 120 mm")), "{why:?}");
     }
@@ -563,7 +871,7 @@ mod tests {
         // the stud shaft 90 mm away, and the 20 clears it at 80 mm.
         let tight = Banjo {
             stud_to_leadscrew_mm: 80.0,
-            intermediate_from_leadscrew_mm: FloatRange { lo: 30.0, hi: 200.0 },
+            slots: vec![FloatRange { lo: 30.0, hi: 200.0 }],
             shaft_diameter_mm: 20.0,
         };
         let t = train(vec![stage(20, 100), stage(40, 20)]);
@@ -612,7 +920,7 @@ mod tests {
             assert!((distance(p.stud, p.leadscrew) - 120.0).abs() < 1e-9);
             assert!((distance(p.stud, i) - s1.centre_distance_mm()).abs() < 1e-9);
             assert!((distance(i, p.leadscrew) - s2.centre_distance_mm()).abs() < 1e-9);
-            assert!(b.intermediate_from_leadscrew_mm.contains(distance(i, p.leadscrew), 0.0));
+            assert!(b.slots[0].contains(distance(i, p.leadscrew), 0.0));
             assert!(i[1] >= 0.0, "above the line stud–leadscrew: {i:?}");
             assert_eq!(p.shafts(), vec![p.stud, i, p.leadscrew]);
         }
@@ -629,7 +937,7 @@ mod tests {
         let i = p.intermediate.unwrap();
         assert!((distance(p.stud, i) - 75.0).abs() < 1e-9);
         assert!((distance(i, p.leadscrew) - 90.0).abs() < 1e-9);
-        assert!(b.intermediate_from_leadscrew_mm.contains(distance(i, p.leadscrew), 0.0));
+        assert!(b.slots[0].contains(distance(i, p.leadscrew), 0.0));
         assert!(i[1] > 0.0);
     }
 
@@ -654,5 +962,62 @@ mod tests {
         let t = train(vec![stage(14, 80)]);
         let why = banjo().fit(&t, &pool(&[14, 80, 60])).unwrap_err();
         assert!(why[0].contains("does not fit over a 20 mm shaft"), "{why:?}");
+    }
+
+    #[test]
+    fn three_stages_take_two_slots_and_the_planes_that_clear() {
+        // 20→40 three times at module 1.5: every mesh 45 mm, 135 mm of chain over 120 mm.
+        // In planes 1-2-1 the first stud's 40 (tip 31.5 mm) and the second stud's 20 (tip
+        // 16.5 mm) share plane 1 only 45 mm apart: 48 > 45, they touch. Planes 1-2-3 clear:
+        // the 40s on the intermediate studs (tip 31.5 + shaft 10 = 41.5 mm) pass the next shaft
+        // out at 45 mm.
+        let t = train(vec![stage(20, 40), stage(20, 40), stage(20, 40)]);
+        let two = Banjo { slots: vec![FloatRange { lo: 40.0, hi: 150.0 }; 2], ..banjo() };
+        let f = two.fit(&t, &pool(&[20, 20, 20, 40, 40, 40])).unwrap();
+        let chain = f.chain.unwrap();
+        assert_eq!(chain.planes, vec![1, 2, 3]);
+        let mut axes = vec![[-120.0, 0.0]];
+        axes.extend(chain.studs.iter().copied());
+        axes.push([0.0, 0.0]);
+        for w in axes.windows(2) {
+            assert!((distance(w[0], w[1]) - 45.0).abs() < 1e-9, "{axes:?}");
+        }
+        let r = chain.from_leadscrew_mm();
+        assert!((r[1] - 45.0).abs() < 1e-9 && r[0] >= 40.0, "{r:?}");
+        assert_ne!(chain.slots[0], chain.slots[1]);
+        // One slot holds one stud: a three-stage setup needs two.
+        let why = banjo().fit(&t, &pool(&[20, 20, 20, 40, 40, 40])).unwrap_err();
+        assert!(
+            why[0].contains(
+                "3 stages need 2 intermediate studs, each in a slot of its own; the banjo has 1 slot"
+            ),
+            "{why:?}"
+        );
+        // Slots that start beyond 45 mm: the last stud (45 mm from the leadscrew) has no place.
+        let far = Banjo { slots: vec![FloatRange { lo: 50.0, hi: 150.0 }; 2], ..banjo() };
+        let why = far.fit(&t, &pool(&[20, 20, 20, 40, 40, 40])).unwrap_err();
+        assert!(why[0].contains("no position of its 2 studs"), "{why:?}");
+    }
+
+    #[test]
+    fn plane_orders_step_one_plane_at_a_time() {
+        assert_eq!(plane_orders(2), vec![vec![1, 2], vec![2, 1]]);
+        assert_eq!(plane_orders(3), vec![vec![1, 2, 1], vec![2, 1, 2], vec![1, 2, 3], vec![3, 2, 1]]);
+        assert_eq!(plane_orders(4).len(), 8);
+        for p in plane_orders(4) {
+            assert!(p.windows(2).all(|w| w[0].abs_diff(w[1]) == 1), "{p:?}");
+            assert_eq!(p.iter().min(), Some(&1));
+        }
+    }
+
+    #[test]
+    fn more_stages_than_the_model_places_are_not_checked_and_say_so() {
+        let t = train(vec![stage(20, 40); 5]);
+        let wide = Banjo { slots: vec![FloatRange { lo: 20.0, hi: 200.0 }; 4], ..banjo() };
+        let f = wide.fit(&t, &pool(&[20, 40])).unwrap();
+        assert_eq!(
+            f.not_checked.as_deref(),
+            Some("not checked: the banjo model places at most 4 stages, this has 5")
+        );
     }
 }

@@ -48,7 +48,7 @@ pub fn chart(lathe: &Lathe, series: &[SeriesEntry], options: &RunOptions) -> Res
             complete = false;
             break;
         }
-        let thread = ThreadSpec { pitch: e.pitch.clone(), starts: 1 };
+        let thread = ThreadSpec::thread(e.pitch.clone(), 1);
         let plan = one.plan(&thread, options)?;
         complete &= plan.complete;
         let best = plan.setups.into_iter().next();

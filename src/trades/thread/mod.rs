@@ -5,7 +5,10 @@
 //! - [`pitch`]: pitch and leadscrew syntax, exact lengths in mm;
 //! - [`machine`]: spindle → stud ratio → change gears → gearbox position → leadscrew;
 //! - [`banjo`]: setup geometry and the reasons a setup is rejected;
-//! - [`series`]: built-in thread series and list files;
+//! - [`series`]: built-in thread series and list files, their tables in [`series_tables`];
+//! - [`lathe_file`]: the lathe described once, in a file;
+//! - [`feed`]: turning feeds, searched like a thread;
+//! - [`dial`]: which thread-dial lines are safe to engage at;
 //! - [`chart`]: the best setup for every thread of a series;
 //! - the output formats for setups and charts are in [`crate::report::thread`].
 //!
@@ -14,9 +17,13 @@
 
 pub mod banjo;
 pub mod chart;
+pub mod dial;
+pub mod feed;
+pub mod lathe_file;
 pub mod machine;
 pub mod pitch;
 pub mod series;
+pub mod series_tables;
 
 use std::cmp::Ordering;
 
@@ -32,8 +39,9 @@ use crate::numbers::target::Target;
 
 use crate::numbers::exact::Exact;
 use banjo::{Banjo, Fit};
+use dial::{engagement, Dial, Engagement};
 use machine::{GearboxPosition, Machine};
-use pitch::Pitch;
+use pitch::{Pitch, PitchKind};
 
 /// Largest pitch tolerance accepted: a pitch further off than this is not the thread asked for.
 pub const MAX_TOLERANCE: Ratio = match Ratio::from_parts(1, 10) {
@@ -54,6 +62,8 @@ pub struct ThreadSpec {
     pub pitch: Pitch,
     /// Number of starts, at least 1; lead = starts × pitch.
     pub starts: u32,
+    /// True for a turning feed (`pitch` is then the feed per spindle turn, one start).
+    pub feed: bool,
 }
 
 impl ThreadSpec {
@@ -78,6 +88,23 @@ pub struct Lathe {
     pub tolerance: Ratio,
     /// How many setups to list (all are counted).
     pub limit: usize,
+    /// What else is known of the machine: its name, guard, tumbler reverse, thread dial.
+    pub equipment: Equipment,
+}
+
+/// What a lathe file may say of a machine beyond its drive and gears.
+#[derive(Debug, Clone, PartialEq, Default)]
+pub struct Equipment {
+    /// What the machine is called.
+    pub name: Option<String>,
+    /// The largest gear the guard closes over, teeth; larger gears are left out of the search.
+    pub largest_teeth: Option<u32>,
+    /// Tooth counts left out because the guard does not close over them, ascending.
+    pub left_out: Vec<u32>,
+    /// Whether the hand of the thread is set by a tumbler reverse (`None`: not said).
+    pub tumbler_reverse: Option<bool>,
+    /// The thread dial, when one is described.
+    pub dial: Option<Dial>,
 }
 
 impl Lathe {
@@ -102,7 +129,42 @@ impl Lathe {
         // Problem::new checks the stage range; check it here too so the error comes early.
         let probe = Target::exact("1", Ratio::integer(1), Ratio::integer(0));
         Problem::new(probe, pool.clone(), stages, StageLimits::default(), None, DEFAULT_RANK.to_vec(), 1)?;
-        Ok(Lathe { machine, pool, banjo, stages, tolerance, limit })
+        Ok(Lathe { machine, pool, banjo, stages, tolerance, limit, equipment: Equipment::default() })
+    }
+
+    /// The lathe with `equipment`: gears larger than the guard allows are left out (and listed
+    /// in [`Equipment::left_out`]). Errors name [`Quantity::Lathe`] when no two gears that mesh
+    /// are left.
+    pub fn equipped(mut self, mut equipment: Equipment) -> Result<Lathe> {
+        if let Some(largest) = equipment.largest_teeth {
+            let mut left_out: Vec<u32> =
+                self.pool.gears.iter().filter(|g| g.teeth > largest).map(|g| g.teeth).collect();
+            left_out.sort_unstable();
+            left_out.dedup();
+            self.pool.gears.retain(|g| g.teeth <= largest);
+            let gears = &self.pool.gears;
+            let can_mesh =
+                gears.iter().any(|a| gears.iter().any(|b| a.group == b.group && a.teeth != b.teeth));
+            if !can_mesh {
+                return Err(Error::value(
+                    Quantity::Lathe,
+                    format!(
+                        "the guard closes over gears of at most {largest} teeth, and no two of the gears \
+                         left can mesh"
+                    ),
+                ));
+            }
+            equipment.left_out = left_out;
+        }
+        self.equipment = equipment;
+        Ok(self)
+    }
+
+    /// Spindle turns per leadscrew turn of a train of ratio `train` through `position`, exact
+    /// unless it outgrows 64-bit parts.
+    pub fn spindle_per_leadscrew(&self, train: Ratio, position: Option<&GearboxPosition>) -> Exact {
+        let g = position.map_or(Ratio::integer(1), |p| p.ratio);
+        Exact::of(self.machine.stud_ratio).times(Exact::of(train)).times(Exact::of(g))
     }
 }
 
@@ -122,6 +184,11 @@ pub struct Setup {
     pub pitch_cut_mm: Exact,
     /// Relative pitch error `pitch cut / pitch − 1`, exact.
     pub pitch_error: RelError,
+    /// True when the setup is for a feed, not a thread.
+    pub feed: bool,
+    /// Where the half-nuts may be closed again (on the lathe's dial when it has one); `None`
+    /// when the spindle turns per leadscrew turn are not exact (a worm's π).
+    pub engagement: Option<Engagement>,
 }
 
 impl Setup {
@@ -183,10 +250,52 @@ impl Setup {
         self.pitch_error.is_exact() && self.pitch_cut_mm.exact
     }
 
+    /// The error in the sense of the number the thread was given by: for a thread given in
+    /// threads per inch the error of that count, `TPI cut / TPI wanted − 1` (the inverse sense of
+    /// the pitch error: a pitch too long is a count too low), else the pitch error.
+    pub fn shown_error(&self, pitch: &Pitch) -> (RelError, ErrorSense) {
+        if self.feed {
+            (self.pitch_error, ErrorSense::Feed)
+        } else if pitch.kind == PitchKind::Inch {
+            (inverse_error(&self.pitch_error), ErrorSense::Tpi)
+        } else {
+            (self.pitch_error, ErrorSense::Pitch)
+        }
+    }
+
     /// Lead error over the pitch's stated length ([`Pitch::lead_error_basis`]), in its unit.
     pub fn lead_error(&self, pitch: &Pitch) -> f64 {
         self.pitch_error.to_f64() * pitch.lead_error_basis().0
     }
+}
+
+/// Which number an error shown is the error of.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum ErrorSense {
+    /// `TPI cut / TPI wanted − 1`, for threads given in threads per inch.
+    Tpi,
+    /// `pitch cut / pitch wanted − 1`.
+    Pitch,
+    /// `feed cut / feed wanted − 1`.
+    Feed,
+}
+
+impl ErrorSense {
+    /// `TPI` or `pitch`, as a table cell's tag and a JSON value.
+    pub fn as_str(self) -> &'static str {
+        match self {
+            ErrorSense::Tpi => "TPI",
+            ErrorSense::Pitch => "pitch",
+            ErrorSense::Feed => "feed",
+        }
+    }
+}
+
+/// The error of `1/x` given the error `e` of `x`, exact: `1/(1 + e) − 1 = −e/(1 + e)`.
+pub fn inverse_error(e: &RelError) -> RelError {
+    // e = ±a/d, so 1 + e = (d ± a)/d and −e/(1 + e) = ∓a/(d ± a).
+    let den = if e.sign > 0 { e.den + e.abs_num } else { e.den - e.abs_num };
+    RelError { abs_num: e.abs_num, sign: -e.sign, den }
 }
 
 /// The best setups for one thread.
@@ -254,14 +363,19 @@ impl Lathe {
         need: Ratio,
     ) -> Setup {
         let fit = match &self.banjo {
-            Some(b) => b.fit(&train, &self.pool).unwrap_or_else(|_| Fit::unchecked(&train)),
-            None => Fit::unchecked(&train),
+            // The search kept only trains the banjo takes, so a refusal here cannot happen.
+            Some(b) => b.fit(&train, &self.pool).unwrap_or_else(|why| Fit::unchecked(&train, why.join("; "))),
+            None => Fit::unchecked(&train, banjo::NO_BANJO),
         };
         let stages = fit.order.iter().map(|&k| train.stages[k].clone()).collect();
         let train = Train { stages, ..train };
         let lead_cut_mm = self.machine.lead_cut_mm(train.ratio_from_teeth(), position);
         let starts = Exact::of(Ratio::integer(thread.starts as u64));
+        let turns = self.spindle_per_leadscrew(train.ratio_from_teeth(), position);
+        let engagement = turns.exact.then(|| engagement(turns.value, self.equipment.dial.as_ref()));
         Setup {
+            feed: thread.feed,
+            engagement,
             pitch_error: pitch_error(train.ratio, need),
             fit,
             position: position.cloned(),
@@ -389,6 +503,23 @@ mod tests {
         assert_eq!(e.sign, -1);
         assert!((e.to_f64() + 1.0 / 201.0).abs() < 1e-15);
         assert!(pitch_error(Ratio::integer(2), Ratio::integer(2)).is_exact());
+    }
+
+    #[test]
+    fn the_tpi_error_is_the_inverse_sense_of_the_pitch_error() {
+        // 11 tpi on an 8 tpi leadscrew needs 11/8; a train of 11/8 · (1 − 1/11000) cuts
+        // 10.999 tpi: the count is 1/11000 = 90.9 ppm low, the pitch 1/10999 = 90.9 ppm long.
+        let need = Ratio::new(11, 8).unwrap();
+        let i = Ratio::new(10999, 8000).unwrap();
+        let pitch = pitch_error(i, need);
+        assert_eq!(pitch.sign, 1);
+        assert!((pitch.to_f64() - 1.0 / 10999.0).abs() < 1e-15);
+        let tpi = inverse_error(&pitch);
+        assert_eq!(tpi.sign, -1);
+        assert!((tpi.to_f64() + 1.0 / 11000.0).abs() < 1e-15);
+        // Exactly the ratio error of the train against the need, which is the count's error.
+        assert_eq!(tpi.cmp_abs(&RelError::of(i.num(), i.den(), need)), Ordering::Equal);
+        assert!(inverse_error(&pitch_error(need, need)).is_exact());
     }
 
     #[test]
