@@ -514,3 +514,123 @@ fn the_demo_bench_stock_gives_a_going_train() {
         assert_eq!(wheels.len(), pairs(t).len(), "one blank of each wheel size is enough here");
     }
 }
+
+#[test]
+fn the_eight_day_going_train_runs_with_cycloidal_teeth() {
+    // An eight-day longcase going train (common practice, from memory; see the reference
+    // values): centre wheel 64 into an 8-leaf pinion, third wheel 60 into 8, a 30-tooth escape
+    // wheel and a seconds pendulum. Cut cycloidal, as clock wheels are (BS 978 part 2, from
+    // memory), its 8-leaf pinions pass the mesh checks; as 20° involute gears they undercut.
+    let args = ["clock", "going", "--period", "2", "--pinions", "8", "--stages", "2", "--limit", "50", "-q"];
+    let with = |extra: &[&str]| {
+        let mut a = args.to_vec();
+        a.extend_from_slice(extra);
+        json(&a)
+    };
+    let (code, v) = with(&["--check-meshes"]);
+    assert_eq!(code, 0);
+    assert_eq!(v["tooth_form"], "cycloidal");
+    let found = trains(&v).iter().find(|t| {
+        let mut p = pairs(t);
+        p.sort();
+        p == [(60, 8), (64, 8)]
+    });
+    let t = found.expect("64/8 · 60/8 is listed");
+    for c in t["cycloidal"].as_array().unwrap() {
+        let eps = c["contact_ratio"].as_f64().unwrap();
+        assert!(eps > 1.0, "{c}");
+        // The wheel drives: the pinion's addendum is the standard's 0.67 m for 8 leaves.
+        assert!((c["addendum_mm"][1].as_f64().unwrap() - 0.67 * 0.5).abs() < 1e-12, "{c}");
+    }
+    let (code, _) = with(&["--tooth-form", "involute"]);
+    assert_eq!(code, 1, "8-tooth 20° involute pinions undercut");
+}
+
+#[test]
+fn going_trains_with_seven_leaf_pinions_are_offered() {
+    // Seven- and eight-leaf pinions in a going train (common practice, from memory): with
+    // cycloidal teeth a train such as 56/7 · 60/8 is found exact and every mesh runs.
+    let (code, v) = json(&[
+        "clock",
+        "going",
+        "--period",
+        "2",
+        "--pinions",
+        "7..8",
+        "--stages",
+        "2",
+        "--check-meshes",
+        "--limit",
+        "50",
+        "-q",
+    ]);
+    assert_eq!(code, 0);
+    assert!(trains(&v).iter().any(|t| pairs(t).iter().any(|&(_, z)| z == 7)));
+    assert!(trains(&v).iter().any(|t| {
+        let mut p = pairs(t);
+        p.sort();
+        p == [(56, 7), (60, 8)]
+    }));
+}
+
+#[test]
+fn the_classic_motion_work_takes_a_module_per_pair() {
+    // A motion work with an 8-leaf minute pinion (common practice, from memory): cannon pinion
+    // 12 into a minute wheel of 36, minute pinion 8 into an hour wheel of 32, 3 × 4 = 12.
+    // Cycloidal teeth take no shift, so the pairs are made coaxial by their modules:
+    // m·(12 + 36) = m'·(8 + 32), m' = 1.2·m.
+    let (code, v) =
+        json(&["clock", "motion", "--pinions", "8..12", "--wheels", "20..48", "--limit", "100", "-q"]);
+    assert_eq!(code, 0);
+    assert_eq!(v["tooth_form"], "cycloidal");
+    let t = trains(&v).iter().find(|t| pairs(t) == [(12, 36), (8, 32)]).expect("12/36 · 8/32 is listed");
+    let s = t["stages"].as_array().unwrap();
+    assert_eq!(s[0]["module_mm"], 0.5);
+    assert!((s[1]["module_mm"].as_f64().unwrap() - 0.6).abs() < 1e-12);
+    let a: Vec<f64> = s.iter().map(|x| x["reference_centre_distance_mm"].as_f64().unwrap()).collect();
+    assert!((a[0] - 12.0).abs() < 1e-12 && (a[1] - 12.0).abs() < 1e-12, "{a:?}");
+    // As involute gears no pinion of 6 to 9 leaves passes the coaxial mesh checks.
+    let (code, _) = json(&["clock", "motion", "--tooth-form", "involute", "--pinions", "6..9", "-q"]);
+    assert_eq!(code, 1);
+}
+
+#[test]
+fn search_checks_cycloidal_meshes_and_refuses_a_shifted_coaxial_fit() {
+    let (code, v) = json(&[
+        "search",
+        "--ratio",
+        "8",
+        "--teeth",
+        "6..64",
+        "--stages",
+        "1",
+        "--tooth-form",
+        "cycloidal",
+        "-q",
+    ]);
+    assert_eq!(code, 0);
+    assert!(trains(&v).iter().any(|t| pairs(t) == [(8, 64)]));
+    // With a strict least contact ratio the small pinions drop out: 8 → 64 keeps about 1.5
+    // leaves in action (computed above in geometry::cycloidal's tests), so it goes.
+    let (code, v) = json(&[
+        "search",
+        "--ratio",
+        "8",
+        "--teeth",
+        "6..96",
+        "--stages",
+        "1",
+        "--tooth-form",
+        "cycloidal",
+        "--min-contact-ratio",
+        "1.55",
+        "-q",
+    ]);
+    assert_eq!(code, 0);
+    assert!(!trains(&v).is_empty());
+    assert!(trains(&v).iter().all(|t| pairs(t)[0].0 >= 9), "{v}");
+    let out =
+        gearsieve(&["search", "--ratio", "12", "--stages", "2", "--coaxial", "--tooth-form", "cycloidal"]);
+    assert_eq!(out.code, 2);
+    assert!(out.stderr.contains("--coaxial: cycloidal teeth take no shift"), "{}", out.stderr);
+}

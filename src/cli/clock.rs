@@ -19,12 +19,12 @@ use gearsieve::trades::clock::astro::{AstroPlan, AstroSpec, InputArbor, Period};
 use gearsieve::trades::clock::beat::{
     parse_beats_per_hour, parse_gravity, Beat, Escapement, STANDARD_GRAVITY,
 };
-use gearsieve::trades::clock::going::{parse_rate_tolerance, GoingPlan, GoingSpec};
+use gearsieve::trades::clock::going::{parse_rate_tolerance, GoingMeshes, GoingPlan, GoingSpec};
 use gearsieve::trades::clock::motion::{Dial, MotionPlan, MotionSpec};
 use gearsieve::trades::clock::{going, motion};
 use gearsieve::{Error, Problem, Quantity, RunOptions};
 
-use super::args::{load_stock, number, PrintArgs};
+use super::args::{load_stock, number, PrintArgs, ToothFormArg};
 use super::flags::refuse;
 use super::hints::{self, ExactBlocked, OutOfReach};
 use super::run::{self, Job, Outlook, Print, Words};
@@ -109,6 +109,16 @@ pub struct GoingArgs {
     /// Largest rate error accepted, seconds per day; 0 for exact.
     #[arg(long, value_name = "S", default_value = "0")]
     pub rate_tol: String,
+    /// Work out every wheel and pinion as a mesh in --tooth-form and keep only stages that run.
+    #[arg(long)]
+    pub check_meshes: bool,
+    /// Tooth form of the meshes checked: cycloidal, as clock wheels and pinions are cut, or
+    /// involute. Turns on the mesh checks.
+    #[arg(long, value_enum, value_name = "FORM")]
+    pub tooth_form: Option<ToothFormArg>,
+    /// Least contact ratio of a mesh checked (leaves in action for cycloidal teeth).
+    #[arg(long, value_name = "X", default_value_t = 1.0, allow_negative_numbers = true, value_parser = number)]
+    pub min_contact_ratio: f64,
     #[command(flatten)]
     pub gears: ClockGears,
 }
@@ -135,10 +145,17 @@ pub struct MotionArgs {
     /// The hand is not on the input arbor's axis (e.g. a subsidiary dial): no coaxial fit.
     #[arg(long)]
     pub not_coaxial: bool,
-    /// Refuse undercut pinions (accepted by default: clock pinions are often cut so).
+    /// Tooth form: cycloidal, as clock wheels and pinions are cut (each pair at m·(z1 + z2)/2, a
+    /// coaxial train met by a module per pair), or involute (the stages shifted to one centre
+    /// distance).
+    #[arg(long, value_enum, value_name = "FORM", default_value = "cycloidal")]
+    pub tooth_form: ToothFormArg,
+    /// Refuse undercut pinions of involute teeth (accepted by default: clock pinions are often
+    /// cut so).
     #[arg(long)]
     pub no_undercut: bool,
-    /// Least transverse contact ratio of an involute mesh.
+    /// Least contact ratio of a mesh (transverse for involute teeth, leaves in action for
+    /// cycloidal teeth).
     #[arg(long, value_name = "X", default_value_t = 1.0, allow_negative_numbers = true, value_parser = number)]
     pub min_contact_ratio: f64,
     #[command(flatten)]
@@ -231,6 +248,10 @@ impl TryFrom<&GoingArgs> for GoingSpec {
             pinions,
             stages: stages(&a.gears, "1..3")?,
             rate_tolerance_s_per_day: parse_rate_tolerance(&a.rate_tol)?,
+            meshes: (a.check_meshes || a.tooth_form.is_some()).then(|| GoingMeshes {
+                tooth_form: a.tooth_form.unwrap_or(ToothFormArg::Cycloidal).into(),
+                min_contact_ratio: a.min_contact_ratio,
+            }),
             limit: a.gears.limit,
         })
     }
@@ -255,6 +276,7 @@ impl TryFrom<&MotionArgs> for MotionSpec {
             wheels,
             stages: stages(&a.gears, if a.not_coaxial { "1..2" } else { "2" })?,
             coaxial: !a.not_coaxial,
+            tooth_form: a.tooth_form.into(),
             allow_undercut: !a.no_undercut,
             min_contact_ratio: a.min_contact_ratio,
             limit: a.gears.limit,
@@ -375,6 +397,13 @@ impl Job for ClockJob<GoingSpec> {
         }
         otherwise.extend(hints::more_stages(s.stages));
         otherwise.extend(gears.clone());
+        match s.meshes {
+            Some(m) if m.tooth_form == gearsieve::ToothForm::Involute => {
+                otherwise.push("--tooth-form cycloidal".into())
+            }
+            Some(m) if m.min_contact_ratio > 0.0 => otherwise.push("a lower --min-contact-ratio".into()),
+            _ => {}
+        }
         // A ratio worked out from a pendulum's length is no short fraction: show it as a number.
         let target = if exact {
             found.problem.target.text.clone()
@@ -417,8 +446,11 @@ impl Job for ClockJob<MotionSpec> {
         if s.min_contact_ratio > 0.0 {
             otherwise.push("a lower --min-contact-ratio".into());
         }
-        if !s.allow_undercut {
-            otherwise.push("leaving out --no-undercut".into());
+        if s.tooth_form == gearsieve::ToothForm::Involute {
+            otherwise.push("--tooth-form cycloidal".into());
+            if !s.allow_undercut {
+                otherwise.push("leaving out --no-undercut".into());
+            }
         }
         if s.coaxial {
             otherwise.push("--not-coaxial".into());

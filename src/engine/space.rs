@@ -9,10 +9,11 @@
 use std::sync::atomic::{AtomicBool, AtomicU64, Ordering as AtomicOrdering};
 
 use crate::geometry::{
-    check_mesh, mesh_geometry, shift_for_centre_distance, MeshDefect, MeshGeometry, Mounting, ToothSystem,
+    check_cycloidal, check_mesh, cycloidal_mesh, mesh_geometry, shift_for_centre_distance, MeshDefect,
+    MeshGeometry, Mounting, ToothSystem,
 };
 use crate::model::pool::{MeshGroup, MAX_STAGES};
-use crate::model::problem::{MeshRules, Problem};
+use crate::model::problem::{MeshRules, Problem, ToothForm};
 use crate::model::rank::Candidate;
 use crate::model::train::{Gear, Stage, Train};
 use crate::numbers::rational::{Ratio, RelError};
@@ -55,8 +56,20 @@ fn defect_kind(d: &MeshDefect) -> String {
 }
 
 /// Work out one stage's mesh under `rules` at its known centre distance (the fixed one, or the
-/// standard one with the undercut split of a zero shift sum), and check it runs.
-fn stage_mesh(rules: &MeshRules, group: &MeshGroup, teeth: [u32; 2]) -> Result<MeshGeometry, MeshDefect> {
+/// standard one with the undercut split of a zero shift sum), and check it runs. A cycloidal
+/// stage is checked at the fixed distance or its standard one and keeps no involute geometry.
+fn stage_mesh(
+    rules: &MeshRules,
+    group: &MeshGroup,
+    teeth: [u32; 2],
+) -> Result<Option<MeshGeometry>, MeshDefect> {
+    if rules.tooth_form == ToothForm::Cycloidal {
+        let mesh = cycloidal_mesh(group.module_mm, teeth, rules.centre_distance_mm)?;
+        return match check_cycloidal(&mesh, &rules.cycloidal, rules.limits.min_contact_ratio).first() {
+            Some(d) => Err(*d),
+            None => Ok(None),
+        };
+    }
     let sys = ToothSystem::new(group.module_mm, group.pressure_angle_deg, rules.rack)?;
     let standard = sys.standard_centre_distance_mm(teeth);
     let mesh = match rules.centre_distance_mm {
@@ -67,8 +80,14 @@ fn stage_mesh(rules: &MeshRules, group: &MeshGroup, teeth: [u32; 2]) -> Result<M
     };
     match check_mesh(&mesh, &rules.limits).first() {
         Some(d) => Err(*d),
-        None => Ok(mesh),
+        None => Ok(Some(mesh)),
     }
+}
+
+/// Does a train under `rules` need one working centre distance found for it by profile shift?
+/// (Coaxial involute trains without a fixed distance; cycloidal teeth take no shift.)
+fn needs_fit(rules: &MeshRules) -> bool {
+    rules.coaxial && rules.centre_distance_mm.is_none() && rules.tooth_form == ToothForm::Involute
 }
 
 /// Everything an engine needs, prepared once per search.
@@ -100,8 +119,8 @@ impl<'p> SearchSpace<'p> {
         let lim = &problem.limits;
         let mut stages = Vec::new();
         let mut rejected: Vec<Rejection> = Vec::new();
-        // Coaxial trains without a fixed distance find their common distance per train.
-        let per_stage_mesh = problem.mesh.as_ref().filter(|r| !r.coaxial || r.centre_distance_mm.is_some());
+        // Coaxial involute trains without a fixed distance find their common distance per train.
+        let per_stage_mesh = problem.mesh.as_ref().filter(|r| !needs_fit(r));
         for (i, a) in pool.gears.iter().enumerate() {
             if lim.driver_teeth.is_some_and(|r| !r.contains(a.teeth)) {
                 continue;
@@ -126,7 +145,7 @@ impl<'p> SearchSpace<'p> {
                 let mesh = match per_stage_mesh {
                     None => None,
                     Some(rules) => match stage_mesh(rules, &pool.groups[a.group], [a.teeth, b.teeth]) {
-                        Ok(m) => Some(m),
+                        Ok(m) => m,
                         Err(d) => {
                             let kind = defect_kind(&d);
                             match rejected.iter_mut().find(|r| r.kind == kind) {
@@ -246,7 +265,7 @@ impl<'p> SearchSpace<'p> {
     }
 
     pub(crate) fn needs_coaxial_fit(&self) -> bool {
-        self.problem.mesh.as_ref().is_some_and(|r| r.coaxial && r.centre_distance_mm.is_none())
+        self.problem.mesh.as_ref().is_some_and(needs_fit)
     }
 
     /// For a coaxial train without a fixed distance: one working centre distance every stage

@@ -5,6 +5,7 @@
 use std::io::{self, Write};
 
 use super::document::arbor_names;
+use super::train_json;
 use crate::model::problem::Problem;
 use crate::model::train::Train;
 use crate::report::fields::{decimals, small, train_cells, StageColumns, TrainJson, TRAIN_HEADER};
@@ -19,7 +20,7 @@ fn write_rows<T>(
     mesh: bool,
     extra: &[String],
     items: &[T],
-    train: impl Fn(&T) -> &Train,
+    train: impl Fn(&T) -> TrainJson,
     cells: impl Fn(&T) -> Vec<String>,
 ) -> io::Result<()> {
     let stages = StageColumns { stages: problem.stages.hi as usize, mesh };
@@ -30,7 +31,7 @@ fn write_rows<T>(
     head.extend(stages.header());
     c.write_record(&head)?;
     for (n, item) in items.iter().enumerate() {
-        let t = TrainJson::from_train(train(item));
+        let t = train(item);
         let mut row = vec![(n + 1).to_string()];
         row.extend(train_cells(&t));
         row.extend(cells(item));
@@ -43,7 +44,7 @@ fn write_rows<T>(
 /// Write a going-train search: the rate error and the speed of every arbor, named by its place.
 pub fn write_going(p: &GoingPlan, w: &mut dyn Write) -> io::Result<()> {
     let arbors = p.problem.stages.hi as usize + 1;
-    let mut extra = vec!["rate_s_per_day".to_string()];
+    let mut extra = vec!["rate_s_per_day".to_string(), "tooth_form".to_string()];
     for k in 1..=arbors {
         extra.push(format!("arbor{k}_name"));
         extra.push(format!("arbor{k}_turns_per_hour"));
@@ -53,15 +54,16 @@ pub fn write_going(p: &GoingPlan, w: &mut dyn Write) -> io::Result<()> {
     } else {
         "driving"
     };
+    let form = p.spec.meshes.map_or("", |m| m.tooth_form.as_str());
     write_rows(
         w,
         &p.problem,
-        false,
+        p.spec.meshes.is_some(),
         &extra,
         &p.trains,
-        |g| &g.train,
+        |g| train_json(&g.train, &g.cycloidal),
         |g| {
-            let mut cells = vec![decimals(g.rate_s_per_day, 3)];
+            let mut cells = vec![decimals(g.rate_s_per_day, 3), form.to_string()];
             let names = arbor_names(g.train.stages.len(), driving);
             for k in 0..arbors {
                 match (names.get(k), g.arbor_turns_per_hour.get(k)) {
@@ -76,7 +78,18 @@ pub fn write_going(p: &GoingPlan, w: &mut dyn Write) -> io::Result<()> {
 
 /// Write a motion-work search, with the worked-out meshes.
 pub fn write_motion(p: &MotionPlan, w: &mut dyn Write) -> io::Result<()> {
-    write_rows(w, &p.problem, true, &[], &p.trains, |t| t, |_| Vec::new())
+    let pairs = |k: usize| p.cycloidal.get(k).map_or(&[][..], |v| &v[..]);
+    let numbered: Vec<(usize, &Train)> = p.trains.iter().enumerate().collect();
+    let form = p.spec.tooth_form.as_str();
+    write_rows(
+        w,
+        &p.problem,
+        true,
+        &["tooth_form".to_string()],
+        &numbered,
+        |&(k, t)| train_json(t, pairs(k)),
+        |_| vec![form.to_string()],
+    )
 }
 
 /// Write an astronomical-train search: the dial period, the drift and the days to a day out.
@@ -88,7 +101,7 @@ pub fn write_astro(p: &AstroPlan, w: &mut dyn Write) -> io::Result<()> {
         false,
         &extra,
         &p.trains,
-        |a| &a.train,
+        |a| TrainJson::from_train(&a.train),
         |a| {
             vec![
                 decimals(a.period_days, 9),

@@ -1,7 +1,9 @@
 //! Clock trains laid out for people: a header saying what was asked in the clockmaker's terms,
 //! the trains in columns, and a footer with the conventions. It computes nothing about gears.
 
+use crate::geometry::CycloidalMesh;
 use crate::model::pool::fmt_num;
+use crate::model::problem::ToothForm;
 use crate::model::train::Train;
 use crate::report::words::{count_line, describe_error, describe_tolerance, CONVENTION};
 use crate::report::{Document, Table};
@@ -107,6 +109,13 @@ pub fn going(p: &GoingPlan) -> Document {
         s.stages,
         s.rate_tolerance_s_per_day
     ));
+    if let Some(m) = s.meshes {
+        d.line(format!(
+            "Meshes checked: {} teeth, each pair at its standard centre distance; least contact ratio {}",
+            m.tooth_form.as_str(),
+            fmt_num(m.min_contact_ratio)
+        ));
+    }
     d.blank();
     d.line(count_line(p.count, p.trains.len(), p.complete, "train", "by rate error, then meshes, then size"));
     if !p.trains.is_empty() {
@@ -128,20 +137,23 @@ pub fn going(p: &GoingPlan) -> Document {
                 .zip(&g.arbor_turns_per_hour)
                 .map(|(a, v)| format!("{a} {}", speed(*v)))
                 .collect();
-            vec![
+            let mut row = vec![
                 stages.join(", "),
                 g.train.ratio.to_string(),
                 describe_rate(g.rate_s_per_day, g.train.error.is_exact() && exact),
                 arbors.join("; "),
-            ]
+            ];
+            if !g.cycloidal.is_empty() {
+                row.push(g.cycloidal.iter().map(describe_cycloidal).collect::<Vec<_>>().join("; "));
+            }
+            row
         });
-        d.table(
-            Table::new(
-                &["#", "wheel → pinion", "ratio i", "rate", "arbors (turns per hour, time per turn)"],
-                &[0],
-            )
-            .with_rows(rows),
-        );
+        let mut head =
+            vec!["#", "wheel → pinion", "ratio i", "rate", "arbors (turns per hour, time per turn)"];
+        if p.trains.iter().any(|g| !g.cycloidal.is_empty()) {
+            head.push("meshes (module, centre distance, contact ratio, action before the line of centres)");
+        }
+        d.table(Table::new(&head, &[0]).with_rows(rows));
     }
     footer(
         &mut d,
@@ -153,14 +165,26 @@ pub fn going(p: &GoingPlan) -> Document {
     d
 }
 
-fn mesh_cells(t: &Train, hour_work: bool) -> Vec<String> {
+/// A cycloidal pair for people: `m 0.5, a 12 mm, ε 1.49, 19% before the line`.
+pub fn describe_cycloidal(c: &CycloidalMesh) -> String {
+    format!(
+        "m {}, a {} mm, ε {:.2}, {:.0}% before the line",
+        fmt_num(c.module_mm),
+        fmt_num(c.centre_distance_mm),
+        c.contact_ratio,
+        100.0 * c.before_line_fraction
+    )
+}
+
+fn mesh_cells(t: &Train, hour_work: bool, pairs: &[CycloidalMesh]) -> Vec<String> {
     let mut gears = Vec::new();
     let mut geometry = Vec::new();
     for (k, s) in t.stages.iter().enumerate() {
         let (a, b) = stage_names(k, hour_work);
         gears.push(format!("{a} {} → {b} {}", s.driver.teeth, s.driven.teeth));
-        geometry.push(match &s.mesh {
-            Some(m) => format!(
+        geometry.push(match (&s.mesh, pairs.get(k)) {
+            (_, Some(c)) => describe_cycloidal(c),
+            (Some(m), None) => format!(
                 "a {} mm, x {:+.3}/{:+.3}{}, ε {:.2}",
                 fmt_num(m.centre_distance_mm),
                 m.shift[0],
@@ -168,7 +192,7 @@ fn mesh_cells(t: &Train, hour_work: bool) -> Vec<String> {
                 if m.undercut[0] || m.undercut[1] { ", undercut" } else { "" },
                 m.contact_ratio
             ),
-            None => format!("a {} mm", fmt_num(s.centre_distance_mm())),
+            (None, None) => format!("a {} mm", fmt_num(s.centre_distance_mm())),
         });
     }
     vec![gears.join("; "), geometry.join("; ")]
@@ -192,21 +216,33 @@ pub fn motion(p: &MotionPlan) -> Document {
         s.stages,
         describe_tolerance(s.tolerance.to_f64())
     ));
-    d.line(format!(
-        "{}; undercut pinions {}; least contact ratio {}",
-        if s.coaxial {
-            "Hand arbor coaxial with the input (reverted train: one centre distance)"
-        } else {
-            "Not coaxial"
-        },
-        if s.allow_undercut { "accepted" } else { "refused" },
-        fmt_num(s.min_contact_ratio)
-    ));
+    let cycloidal = s.tooth_form == ToothForm::Cycloidal;
+    let coaxial = match (s.coaxial, cycloidal, s.pool.from_stock) {
+        (false, _, _) => "Not coaxial",
+        (true, false, _) => "Hand arbor coaxial with the input (reverted train: one centre distance)",
+        (true, true, false) => {
+            "Hand arbor coaxial with the input (reverted train: one centre distance, a module per pair)"
+        }
+        (true, true, true) => {
+            "Hand arbor coaxial with the input (reverted train: pairs of one centre distance)"
+        }
+    };
+    if cycloidal {
+        d.line(format!("{coaxial}; cycloidal teeth; least contact ratio {}", fmt_num(s.min_contact_ratio)));
+    } else {
+        d.line(format!(
+            "{coaxial}; involute teeth; undercut pinions {}; least contact ratio {}",
+            if s.allow_undercut { "accepted" } else { "refused" },
+            fmt_num(s.min_contact_ratio)
+        ));
+    }
     d.blank();
     d.line(count_line(p.count, p.trains.len(), p.complete, "train", "by error, then meshes, then size"));
     if !p.trains.is_empty() {
-        let rows = Table::numbered(&p.trains, |t| {
-            let mut r = mesh_cells(t, p.is_hour_motion_work(t));
+        let numbered: Vec<(usize, &Train)> = p.trains.iter().enumerate().collect();
+        let rows = Table::numbered(&numbered, |&(k, t)| {
+            let pairs = p.cycloidal.get(k).map_or(&[][..], |v| &v[..]);
+            let mut r = mesh_cells(t, p.is_hour_motion_work(t), pairs);
             r.push(t.ratio.to_string());
             r.push(describe_error(&t.error));
             r
@@ -216,7 +252,11 @@ pub fn motion(p: &MotionPlan) -> Document {
                 &[
                     "#",
                     "pinion → wheel",
-                    "mesh (working centre distance, shifts, contact ratio)",
+                    if cycloidal {
+                        "mesh (module, centre distance, contact ratio, action before the line of centres)"
+                    } else {
+                        "mesh (working centre distance, shifts, contact ratio)"
+                    },
                     "ratio i",
                     "error",
                 ],
@@ -225,10 +265,18 @@ pub fn motion(p: &MotionPlan) -> Document {
             .with_rows(rows),
         );
     }
-    footer(&mut d, &[
-            "Pinions drive wheels (a reduction). Meshes are worked out as involute gears, shifts x in modules;",
-            "clock teeth are traditionally cycloidal, so take the geometry as a guide to the centre distances.",
+    if cycloidal {
+        footer(&mut d, &[
+            "Pinions drive wheels (a reduction). Teeth are cycloidal wheel-and-pinion teeth, unshifted, each pair at",
+            "m·(z1 + z2)/2; ε is the leaves in action on average; the share of each leaf's action before the line",
+            "of centres engages with friction (a driving pinion has most of it there).",
         ]);
+    } else {
+        footer(&mut d, &[
+            "Pinions drive wheels (a reduction). Meshes are worked out as involute gears, shifts x in modules;",
+            "clock wheels and pinions are usually cut with cycloidal teeth.",
+        ]);
+    }
     d
 }
 

@@ -3,7 +3,8 @@
 //!
 //! ```text
 //! going:  {"arbors": [{"arbor": "centre", "turns_per_hour": f64}, …], "rate_s_per_day": f64}
-//! motion: {"stage_names": [{"driver": "cannon pinion", "driven": "minute wheel"}, …]}
+//! motion: {"stage_names": [{"driver": "cannon pinion", "driven": "minute wheel"}, …],
+//!          "cycloidal": [{…one pair's proportions…}, …] (cycloidal teeth only)}
 //! astro:  {"period_days": f64, "drift_days_per_year": f64, "days_to_one_day": f64|null}
 //! ```
 //! A document is `{"schema_version", "clock_train": "going"|"motion"|"astro", …what was asked…, "count", "complete",
@@ -14,6 +15,8 @@ use std::io::Write;
 use serde::Serialize;
 
 use super::document::arbor_names;
+use super::train_json;
+use crate::geometry::CycloidalMesh;
 use crate::report::fields::{TargetJson, TrainJson};
 use crate::report::words::CONVENTION;
 use crate::report::{write_json, RenderError, SCHEMA_VERSION};
@@ -27,12 +30,54 @@ struct ArborJson {
     turns_per_hour: f64,
 }
 
+/// One cycloidal pair: each figure driver first.
+#[derive(Serialize)]
+struct CycloidalJson {
+    centre_distance_mm: f64,
+    pitch_diameter_mm: [f64; 2],
+    addendum_mm: [f64; 2],
+    dedendum_mm: [f64; 2],
+    tip_diameter_mm: [f64; 2],
+    root_diameter_mm: [f64; 2],
+    thickness_mm: [f64; 2],
+    tip_radius_mm: [f64; 2],
+    contact_ratio: f64,
+    before_line_fraction: f64,
+}
+
+fn cycloidal_json(pairs: &[CycloidalMesh]) -> Option<Vec<CycloidalJson>> {
+    (!pairs.is_empty()).then(|| {
+        pairs
+            .iter()
+            .map(|c| {
+                let both = |f: fn(&crate::geometry::cycloidal::CycloidalGear) -> f64| {
+                    [f(&c.gears[0]), f(&c.gears[1])]
+                };
+                CycloidalJson {
+                    centre_distance_mm: c.centre_distance_mm,
+                    pitch_diameter_mm: both(|g| g.pitch_diameter_mm),
+                    addendum_mm: both(|g| g.addendum_mm),
+                    dedendum_mm: both(|g| g.dedendum_mm),
+                    tip_diameter_mm: both(|g| g.tip_diameter_mm),
+                    root_diameter_mm: both(|g| g.root_diameter_mm),
+                    thickness_mm: both(|g| g.thickness_mm),
+                    tip_radius_mm: both(|g| g.tip_radius_mm),
+                    contact_ratio: c.contact_ratio,
+                    before_line_fraction: c.before_line_fraction,
+                }
+            })
+            .collect()
+    })
+}
+
 #[derive(Serialize)]
 struct GoingTrainJson {
     #[serde(flatten)]
     train: TrainJson,
     arbors: Vec<ArborJson>,
     rate_s_per_day: f64,
+    #[serde(skip_serializing_if = "Option::is_none")]
+    cycloidal: Option<Vec<CycloidalJson>>,
 }
 
 #[derive(Serialize)]
@@ -48,6 +93,7 @@ struct GoingDoc {
     ratio_needed: String,
     ratio_needed_exact: bool,
     rate_tolerance_s_per_day: f64,
+    tooth_form: Option<&'static str>,
     count: u64,
     complete: bool,
     convention: &'static str,
@@ -76,6 +122,7 @@ pub fn write_going(p: &GoingPlan, w: &mut dyn Write) -> Result<(), RenderError> 
         ratio_needed: ratio.to_string(),
         ratio_needed_exact: exact,
         rate_tolerance_s_per_day: s.rate_tolerance_s_per_day.to_f64(),
+        tooth_form: s.meshes.map(|m| m.tooth_form.as_str()),
         count: p.count,
         complete: p.complete,
         convention: CONVENTION,
@@ -84,7 +131,8 @@ pub fn write_going(p: &GoingPlan, w: &mut dyn Write) -> Result<(), RenderError> 
             .trains
             .iter()
             .map(|g| GoingTrainJson {
-                train: TrainJson::from_train(&g.train),
+                train: train_json(&g.train, &g.cycloidal),
+                cycloidal: cycloidal_json(&g.cycloidal),
                 arbors: arbor_names(g.train.stages.len(), driving)
                     .into_iter()
                     .zip(&g.arbor_turns_per_hour)
@@ -108,6 +156,8 @@ struct MotionTrainJson {
     #[serde(flatten)]
     train: TrainJson,
     stage_names: Vec<NamesJson>,
+    #[serde(skip_serializing_if = "Option::is_none")]
+    cycloidal: Option<Vec<CycloidalJson>>,
 }
 
 #[derive(Serialize)]
@@ -116,6 +166,7 @@ struct MotionDoc {
     clock_train: &'static str,
     target: TargetJson,
     coaxial: bool,
+    tooth_form: &'static str,
     allow_undercut: bool,
     min_contact_ratio: f64,
     count: u64,
@@ -138,6 +189,7 @@ pub fn write_motion(p: &MotionPlan, w: &mut dyn Write) -> Result<(), RenderError
             exact: s.ratio.to_string(),
         },
         coaxial: s.coaxial,
+        tooth_form: s.tooth_form.as_str(),
         allow_undercut: s.allow_undercut,
         min_contact_ratio: s.min_contact_ratio,
         count: p.count,
@@ -148,8 +200,10 @@ pub fn write_motion(p: &MotionPlan, w: &mut dyn Write) -> Result<(), RenderError
         trains: p
             .trains
             .iter()
-            .map(|t| MotionTrainJson {
-                train: TrainJson::from_train(t),
+            .enumerate()
+            .map(|(k, t)| MotionTrainJson {
+                train: train_json(t, p.cycloidal.get(k).map_or(&[][..], |v| &v[..])),
+                cycloidal: cycloidal_json(p.cycloidal.get(k).map_or(&[][..], |v| &v[..])),
                 stage_names: (0..t.stages.len())
                     .map(|k| {
                         let (driver, driven) = stage_names(k, p.is_hour_motion_work(t));

@@ -10,9 +10,26 @@ use super::fields::TrainJson;
 use super::words::describe_error;
 use super::{pictures, Completion, Document, Drawing, RenderError, Report};
 use crate::geometry::layout::ShaftLayout;
+use crate::geometry::CycloidalMesh;
+use crate::model::train::Train;
 use crate::trades::clock::astro::AstroPlan;
 use crate::trades::clock::going::GoingPlan;
 use crate::trades::clock::motion::MotionPlan;
+
+/// The JSON view of `train`, with the figures of its cycloidal pairs (when `pairs` has one per
+/// stage) in the mesh fields: the centre distance, the contact ratio (leaves in action) and the
+/// tip diameters. No shift and no working pressure angle: cycloidal teeth have neither.
+pub fn train_json(train: &Train, pairs: &[CycloidalMesh]) -> TrainJson {
+    let mut t = TrainJson::from_train(train);
+    if pairs.len() == t.stages.len() {
+        for (s, c) in t.stages.iter_mut().zip(pairs) {
+            s.working_centre_distance_mm = Some(c.centre_distance_mm);
+            s.contact_ratio = Some(c.contact_ratio);
+            s.tip_diameter_mm = Some([c.gears[0].tip_diameter_mm, c.gears[1].tip_diameter_mm]);
+        }
+    }
+    t
+}
 
 impl Report for GoingPlan {
     fn kind(&self) -> &'static str {

@@ -6,8 +6,9 @@ use super::beat::{Beat, Escapement};
 use super::{approx_ratio, arbor_speeds, clock_problem, SECONDS_PER_DAY};
 use crate::engine::{search, Outcome, RunOptions};
 use crate::error::{Error, Quantity, Result};
+use crate::geometry::{CycloidalMesh, MeshLimits};
 use crate::model::pool::Pool;
-use crate::model::problem::{Problem, StageLimits};
+use crate::model::problem::{MeshRules, Problem, StageLimits, ToothForm};
 use crate::model::train::Train;
 use crate::numbers::exact::Exact;
 use crate::numbers::range::IntRange;
@@ -56,8 +57,20 @@ pub struct GoingSpec {
     pub stages: IntRange,
     /// Largest rate error accepted, seconds per day (0 for exact), exactly as given.
     pub rate_tolerance_s_per_day: Ratio,
+    /// The meshes to check, if any.
+    pub meshes: Option<GoingMeshes>,
     /// Trains to list.
     pub limit: usize,
+}
+
+/// How the meshes of a going train are checked: each wheel and pinion at its own standard
+/// centre distance.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct GoingMeshes {
+    /// The tooth form.
+    pub tooth_form: ToothForm,
+    /// Least contact ratio of a mesh.
+    pub min_contact_ratio: f64,
 }
 
 /// One going train with its clock figures.
@@ -69,6 +82,8 @@ pub struct GoingTrain {
     pub arbor_turns_per_hour: Vec<f64>,
     /// Rate error, seconds per day; positive gains.
     pub rate_s_per_day: f64,
+    /// The cycloidal pair of every stage, when the meshes were checked in that form.
+    pub cycloidal: Vec<CycloidalMesh>,
 }
 
 /// The result of a going-train search.
@@ -123,7 +138,15 @@ impl GoingSpec {
             driven_teeth: Some(self.pinions),
             ..StageLimits::default()
         };
-        clock_problem(target, self.pool.clone(), self.stages, limits, self.limit)
+        let p = clock_problem(target, self.pool.clone(), self.stages, limits, self.limit)?;
+        match self.meshes {
+            None => Ok(p),
+            Some(m) => p.with_mesh_rules(MeshRules {
+                tooth_form: m.tooth_form,
+                limits: MeshLimits { min_contact_ratio: m.min_contact_ratio, ..MeshLimits::default() },
+                ..MeshRules::default()
+            }),
+        }
     }
 
     /// Search.
@@ -132,6 +155,7 @@ impl GoingSpec {
         let found: Outcome = search(&problem, crate::trades::ENGINE, options);
         let escape = self.escapement.turns_per_hour(&self.beat);
         let from = self.from_turns_per_hour.to_f64();
+        let cycloidal = self.meshes.is_some_and(|m| m.tooth_form == ToothForm::Cycloidal);
         let trains = found
             .trains
             .into_iter()
@@ -140,13 +164,14 @@ impl GoingSpec {
                 // The escape arbor's speed is the pendulum's; the driving arbor's follows.
                 let scale = escape / speeds[speeds.len() - 1];
                 speeds.iter_mut().for_each(|s| *s *= scale);
-                GoingTrain {
+                Ok(GoingTrain {
                     rate_s_per_day: train.error.to_f64() * SECONDS_PER_DAY,
                     arbor_turns_per_hour: speeds,
+                    cycloidal: if cycloidal { super::cycloidal_pairs(&train)? } else { Vec::new() },
                     train,
-                }
+                })
             })
-            .collect();
+            .collect::<Result<Vec<_>>>()?;
         Ok(GoingPlan {
             spec: self.clone(),
             problem,
