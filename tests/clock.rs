@@ -319,7 +319,11 @@ fn hourly_arbor_multiplies_the_ratio_by_24() {
 fn table_and_csv_show_the_trade_words() {
     let r = gearsieve(&["clock", "going", "--period", "2", "--limit", "2", "-q"]);
     assert_eq!(r.code, 0);
-    assert!(r.stdout.contains("wheel → pinion") && r.stdout.contains("escape 60/h (1 min)"), "{}", r.stdout);
+    assert!(
+        r.stdout.contains("wheel → pinion") && r.stdout.contains("escape 60/h (1 min, seconds hand)"),
+        "{}",
+        r.stdout
+    );
     assert!(r.stdout.contains("a speed-up, i < 1"));
     let r = gearsieve(&["clock", "motion", "--format", "csv", "--limit", "2", "-q"]);
     assert_eq!(r.code, 0);
@@ -633,4 +637,118 @@ fn search_checks_cycloidal_meshes_and_refuses_a_shifted_coaxial_fit() {
         gearsieve(&["search", "--ratio", "12", "--stages", "2", "--coaxial", "--tooth-form", "cycloidal"]);
     assert_eq!(out.code, 2);
     assert!(out.stderr.contains("--coaxial: cycloidal teeth take no shift"), "{}", out.stderr);
+}
+
+#[test]
+fn an_eight_day_going_train_from_the_great_wheel() {
+    // An eight-day longcase (common practice, from memory): the great wheel turns once in 12
+    // hours into a centre pinion of 8 (96/8), so 8 days take 16 turns of the barrel; the centre
+    // arbor turns once an hour and carries the minute hand; 64/8 · 60/8 to a 30-tooth escape
+    // wheel with a seconds pendulum puts the seconds hand on the escape arbor.
+    let (code, v) = json(&[
+        "clock",
+        "going",
+        "--period",
+        "2",
+        "--run",
+        "8d",
+        "--barrel-turns",
+        "16",
+        "--pinions",
+        "8",
+        "--stages",
+        "2",
+        "--line-barrel",
+        "40",
+        "--falls",
+        "2",
+        "--check-meshes",
+        "-q",
+    ]);
+    assert_eq!(code, 0);
+    let run = &v["run"];
+    assert_eq!(run["run_hours"], 192.0);
+    assert_eq!(run["barrel_turns"], 16.0);
+    // Computed here: 16 turns of a 40 mm barrel pay out 16·π·40 mm of line; over one pulley the
+    // weight drops half of it.
+    let drop = 16.0 * std::f64::consts::PI * 0.040 / 2.0;
+    assert!((run["drop_m"].as_f64().unwrap() - drop).abs() < 1e-12);
+    let great = &v["great_wheel"];
+    assert_eq!(great["ratio_needed"], "1/12");
+    let gt = &great["trains"][0];
+    assert_eq!(pairs(gt), [(96, 8)]);
+    let arbors = gt["arbors"].as_array().unwrap();
+    assert_eq!(
+        (arbors[0]["arbor"].as_str(), arbors[1]["arbor"].as_str()),
+        (Some("great wheel"), Some("centre"))
+    );
+    assert_eq!(arbors[1]["turns_per_hour"], 1.0);
+    let t =
+        trains(&v).iter().find(|t| pairs(t) == [(64, 8), (60, 8)] || pairs(t) == [(60, 8), (64, 8)]).unwrap();
+    assert_eq!(t["seconds_arbor"], "escape");
+    assert_eq!(t["arbors"][0]["arbor"], "centre");
+}
+
+#[test]
+fn every_going_train_keeps_the_centre_arbor_at_one_turn_an_hour() {
+    // Starting from a great wheel turning once in 12 hours, the train passes through the centre
+    // arbor, which must turn exactly once an hour to carry the minute hand.
+    let (code, v) = json(&[
+        "clock",
+        "going",
+        "--period",
+        "2",
+        "--from-turns-per-hour",
+        "1/12",
+        "--pinions",
+        "8..12",
+        "--stages",
+        "3",
+        "--limit",
+        "20",
+        "-q",
+    ]);
+    assert_eq!(code, 0);
+    for t in trains(&v) {
+        assert_eq!(t["arbors"][0]["arbor"], "centre");
+        assert!((t["arbors"][0]["turns_per_hour"].as_f64().unwrap() - 1.0).abs() < 1e-12, "{t}");
+        let names: Vec<&str> =
+            t["arbors"].as_array().unwrap().iter().map(|a| a["arbor"].as_str().unwrap()).collect();
+        assert_eq!(names, ["centre", "third", "fourth", "escape"]);
+    }
+    for t in v["great_wheel"]["trains"].as_array().unwrap() {
+        let p = pairs(t);
+        let (num, den) = p.iter().fold((1u64, 1u64), |(n, d), &(w, z)| (n * w, d * z));
+        assert_eq!(num, 12 * den, "{p:?}");
+    }
+    // --from 12h names the same arbor by its time per turn.
+    let (_, w) = json(&[
+        "clock",
+        "going",
+        "--period",
+        "2",
+        "--from",
+        "12h",
+        "--pinions",
+        "8..12",
+        "--stages",
+        "3",
+        "--limit",
+        "20",
+        "-q",
+    ]);
+    assert_eq!(v["great_wheel"], w["great_wheel"]);
+    assert_eq!(v["trains"], w["trains"]);
+}
+
+#[test]
+fn beats_per_minute_are_beats_per_hour_over_60() {
+    let (_, a) = json(&["clock", "going", "--beats-per-minute", "60", "--limit", "2", "-q"]);
+    let (_, b) = json(&["clock", "going", "--period", "2", "--limit", "2", "-q"]);
+    assert_eq!(a["beats_per_hour"], 3600.0);
+    assert_eq!(a["beats_per_minute"], 60.0);
+    assert_eq!(a["trains"], b["trains"]);
+    let out = gearsieve(&["clock", "going", "--beats-per-minute", "0"]);
+    assert_eq!(out.code, 2);
+    assert!(out.stderr.contains("--beats-per-minute: \"0\" is zero"), "{}", out.stderr);
 }

@@ -9,6 +9,7 @@ use std::path::PathBuf;
 use clap::{ArgGroup, Args, Subcommand};
 use gearsieve::model::catalog::CatalogueDefaults;
 use gearsieve::model::pool::{fmt_num, Pool, MAX_STAGES, MAX_TEETH, MIN_TEETH};
+use gearsieve::numbers::exact::Exact;
 use gearsieve::numbers::length::{parse_length, LengthUnit};
 use gearsieve::numbers::period::{parse_period, TimeUnit};
 use gearsieve::numbers::range::{parse_int_range, IntRange};
@@ -17,10 +18,11 @@ use gearsieve::numbers::target::{parse_ratio, parse_tolerance};
 use gearsieve::report::Report;
 use gearsieve::trades::clock::astro::{AstroPlan, AstroSpec, InputArbor, Period};
 use gearsieve::trades::clock::beat::{
-    parse_beats_per_hour, parse_gravity, Beat, Escapement, STANDARD_GRAVITY,
+    parse_beats_per_hour, parse_beats_per_minute, parse_gravity, Beat, Escapement, STANDARD_GRAVITY,
 };
-use gearsieve::trades::clock::going::{parse_rate_tolerance, GoingMeshes, GoingPlan, GoingSpec};
+use gearsieve::trades::clock::going::{parse_rate_tolerance, GoingPlan, GoingSpec, LineBarrel};
 use gearsieve::trades::clock::motion::{Dial, MotionPlan, MotionSpec};
+use gearsieve::trades::clock::part::MeshCheck;
 use gearsieve::trades::clock::{going, motion};
 use gearsieve::{Error, Problem, Quantity, RunOptions};
 
@@ -74,7 +76,7 @@ pub struct ClockGears {
 /// arbor that turns once an hour (or --from-turns-per-hour) to the escape arbor. Wheels drive
 /// pinions, so the ratio i (input turns per output turn) is below 1.
 #[derive(Args, Debug)]
-#[command(group(ArgGroup::new("beat").required(true).args(["pendulum", "period", "beats_per_hour"])))]
+#[command(group(ArgGroup::new("beat").required(true).args(["pendulum", "period", "beats_per_hour", "beats_per_minute"])))]
 pub struct GoingArgs {
     /// Pendulum length in m (simple pendulum, small swings): period 2π·√(L/g). Other units:
     /// 994mm, 39.13in.
@@ -87,6 +89,9 @@ pub struct GoingArgs {
     /// Beats per hour (a beat is one swing, half a period).
     #[arg(long, value_name = "N", allow_hyphen_values = true)]
     pub beats_per_hour: Option<String>,
+    /// Beats per minute (60 for a seconds pendulum).
+    #[arg(long, value_name = "N", allow_hyphen_values = true)]
+    pub beats_per_minute: Option<String>,
     /// Local gravity, m/s², from 1 to 30: sets the period of a --pendulum, and the simple
     /// pendulum a --period or --beats-per-hour stands for.
     #[arg(long, value_name = "G", default_value_t = STANDARD_GRAVITY.to_string(), allow_hyphen_values = true)]
@@ -97,9 +102,34 @@ pub struct GoingArgs {
     /// Beats per escape wheel tooth: 2 for an anchor or dead-beat escapement (one per pallet).
     #[arg(long, value_name = "N", default_value_t = 2)]
     pub beats_per_tooth: u32,
-    /// Turns per hour of the arbor the train starts from: 1 for the centre arbor.
+    /// Turns per hour of the arbor the train starts from: 1 for the centre arbor; below 1 for a
+    /// great wheel or barrel, which then drives the centre arbor (once an hour) through a part of
+    /// its own.
     #[arg(long, value_name = "R", default_value = "1")]
     pub from_turns_per_hour: String,
+    /// The arbor the train starts from, by its time per turn: 1h for the centre arbor, 12h for a
+    /// great wheel turning with the hour hand. In hours, or with a unit: 720min, 1d.
+    #[arg(long, value_name = "PERIOD", conflicts_with = "from_turns_per_hour")]
+    pub from: Option<String>,
+    /// How long the clock runs at a winding: in hours, or with a unit (30h, 8d, 32d). Gives the
+    /// barrel's turns (and with --line-barrel the weight's drop); with --barrel-turns it sets the
+    /// great wheel's speed.
+    #[arg(long, value_name = "PERIOD")]
+    pub run: Option<String>,
+    /// Turns of the barrel (or great wheel) at a winding, with --run: the train starts from an
+    /// arbor turning that many times in the run time (16 turns in 8 days: once in 12 hours).
+    #[arg(long, value_name = "N", requires = "run", conflicts_with_all = ["from", "from_turns_per_hour"])]
+    pub barrel_turns: Option<String>,
+    /// Diameter the weight's line winds on, mm (other units: 1.5in): gives the weight's drop
+    /// over the run time.
+    #[arg(long, value_name = "MM", requires = "run", allow_hyphen_values = true)]
+    pub line_barrel: Option<String>,
+    /// Falls of the weight's line: 1 hung straight from the barrel, 2 over one pulley.
+    #[arg(long, value_name = "N", default_value_t = 1)]
+    pub falls: u32,
+    /// Stages from the great wheel (or barrel) to the centre arbor: N or A..B, at most 3.
+    #[arg(long, value_name = "N|A..B", default_value_t = going::DEFAULT_GREAT_STAGES.to_string())]
+    pub great_stages: String,
     /// Wheel teeth allowed (the drivers).
     #[arg(long, value_name = "LO..HI", default_value_t = going::DEFAULT_WHEELS.to_string())]
     pub wheels: String,
@@ -209,6 +239,11 @@ fn teeth(text: &str, quantity: Quantity) -> Result<IntRange, Error> {
     parse_int_range(text, quantity, "teeth", MIN_TEETH, MAX_TEETH)
 }
 
+/// Turns per hour of an arbor taking `hours` per turn.
+fn per_turn(hours: Ratio) -> Ratio {
+    Exact::of(Ratio::integer(1)).over(Exact::of(hours)).value
+}
+
 fn span(a: IntRange, b: IntRange) -> IntRange {
     IntRange { lo: a.lo.min(b.lo), hi: a.hi.max(b.hi) }
 }
@@ -227,6 +262,10 @@ impl TryFrom<&GoingArgs> for GoingSpec {
                 Beat::from_period(parse_period(p, Quantity::PendulumPeriod, TimeUnit::Second)?, gravity)?
             }
             (None, None, Some(b)) => Beat::from_beats_per_hour(parse_beats_per_hour(b)?, gravity)?,
+            (None, None, None) if a.beats_per_minute.is_some() => {
+                let text = a.beats_per_minute.as_deref().unwrap_or_default();
+                Beat::from_beats_per_hour(parse_beats_per_minute(text)?, gravity)?
+            }
             _ => {
                 return Err(anyhow::anyhow!("give the beat: --pendulum M, --period S or --beats-per-hour N"))
             }
@@ -239,16 +278,44 @@ impl TryFrom<&GoingArgs> for GoingSpec {
                 format!("clock pinions have at least 6 leaves, found {pinions}"),
             ));
         }
+        let run_hours =
+            a.run.as_deref().map(|r| parse_period(r, Quantity::RunTime, TimeUnit::Hour)).transpose()?;
+        let from_turns_per_hour = match (&a.from, &a.barrel_turns, run_hours) {
+            (Some(p), _, _) => per_turn(parse_period(p, Quantity::InputArborPeriod, TimeUnit::Hour)?),
+            (None, Some(t), Some(run)) => {
+                let turns = parse_ratio(t, Quantity::BarrelTurns)?;
+                Exact::of(turns).over(Exact::of(run)).value
+            }
+            _ => parse_ratio(&a.from_turns_per_hour, Quantity::InputTurnsPerHour)?,
+        };
+        if run_hours.is_some() && from_turns_per_hour == Ratio::integer(1) {
+            return Err(refuse(
+                "--run",
+                "give the arbor the weight or spring drives: --barrel-turns N, or --from 12h for a great \
+                 wheel turning once in 12 hours",
+            ));
+        }
+        let line_barrel = match &a.line_barrel {
+            Some(d) => Some(LineBarrel {
+                diameter_mm: parse_length(d, Quantity::LineBarrelDiameter, Some(LengthUnit::Millimetre))?
+                    .mm_f64(),
+                falls: a.falls.max(1),
+            }),
+            None => None,
+        };
         Ok(GoingSpec {
             beat,
             escapement: Escapement::new(a.escape_teeth, a.beats_per_tooth)?,
-            from_turns_per_hour: parse_ratio(&a.from_turns_per_hour, Quantity::InputTurnsPerHour)?,
+            from_turns_per_hour,
+            great_stages: parse_int_range(&a.great_stages, Quantity::StageCount, "stages", 1, 3)?,
+            run_hours,
+            line_barrel,
             pool: pool(&a.gears, span(wheels, pinions))?,
             wheels,
             pinions,
             stages: stages(&a.gears, "1..3")?,
             rate_tolerance_s_per_day: parse_rate_tolerance(&a.rate_tol)?,
-            meshes: (a.check_meshes || a.tooth_form.is_some()).then(|| GoingMeshes {
+            meshes: (a.check_meshes || a.tooth_form.is_some()).then(|| MeshCheck {
                 tooth_form: a.tooth_form.unwrap_or(ToothFormArg::Cycloidal).into(),
                 min_contact_ratio: a.min_contact_ratio,
             }),
@@ -381,6 +448,20 @@ impl Job for ClockJob<GoingSpec> {
         } else {
             wider_wheels_and_pinions(s.wheels, s.pinions)
         };
+        if let Some(g) = found.great.as_ref().filter(|g| g.count == 0 && found.count > 0) {
+            let mut h: Vec<String> = gears.clone().into_iter().collect();
+            if g.part.stages.hi < 3 {
+                h.push("more --great-stages".into());
+            }
+            if s.run_hours.is_some() {
+                h.push("other --barrel-turns".into());
+            }
+            let why = format!(
+                "No wheels and pinions make the great wheel's ratio {} to the centre arbor. ",
+                g.part.ratio
+            );
+            return words(hints::nothing(&why, &h));
+        }
         let t = s.rate_tolerance_s_per_day;
         let looser = format!("a --rate-tol above {} s/day", fmt_num(t.to_f64()));
         let (_, exact) = s.needed_ratio();

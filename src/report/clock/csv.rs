@@ -44,16 +44,11 @@ fn write_rows<T>(
 /// Write a going-train search: the rate error and the speed of every arbor, named by its place.
 pub fn write_going(p: &GoingPlan, w: &mut dyn Write) -> io::Result<()> {
     let arbors = p.problem.stages.hi as usize + 1;
-    let mut extra = vec!["rate_s_per_day".to_string(), "tooth_form".to_string()];
+    let mut extra = ["rate_s_per_day", "tooth_form", "seconds_arbor"].map(String::from).to_vec();
     for k in 1..=arbors {
         extra.push(format!("arbor{k}_name"));
         extra.push(format!("arbor{k}_turns_per_hour"));
     }
-    let driving = if p.spec.from_turns_per_hour == crate::numbers::rational::Ratio::integer(1) {
-        "centre"
-    } else {
-        "driving"
-    };
     let form = p.spec.meshes.map_or("", |m| m.tooth_form.as_str());
     write_rows(
         w,
@@ -63,8 +58,9 @@ pub fn write_going(p: &GoingPlan, w: &mut dyn Write) -> io::Result<()> {
         &p.trains,
         |g| train_json(&g.train, &g.cycloidal),
         |g| {
-            let mut cells = vec![decimals(g.rate_s_per_day, 3), form.to_string()];
-            let names = arbor_names(g.train.stages.len(), driving);
+            let names = arbor_names(g.train.stages.len(), "centre");
+            let seconds = g.seconds_arbor.map_or(String::new(), |k| names[k].clone());
+            let mut cells = vec![decimals(g.rate_s_per_day, 3), form.to_string(), seconds];
             for k in 0..arbors {
                 match (names.get(k), g.arbor_turns_per_hour.get(k)) {
                     (Some(name), Some(v)) => cells.extend([name.clone(), decimals(*v, 6)]),

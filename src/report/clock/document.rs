@@ -11,6 +11,7 @@ use crate::trades::clock::astro::AstroPlan;
 use crate::trades::clock::beat::BeatSource;
 use crate::trades::clock::going::GoingPlan;
 use crate::trades::clock::motion::{stage_names, MotionPlan};
+use crate::trades::clock::part::PartPlan;
 
 /// Arbor names of a going train of `stages` stages from the centre arbor: centre, third,
 /// fourth…, escape; `driving` replaces `centre` when the train starts from another arbor.
@@ -20,6 +21,68 @@ pub fn arbor_names(stages: usize, driving: &str) -> Vec<String> {
     v.extend(ORDINALS.iter().take(stages.saturating_sub(1)).map(|s| s.to_string()));
     v.push("escape".into());
     v
+}
+
+/// A run time for people: `8 d`, `30 h`, `32 d 12 h`.
+pub fn describe_hours(hours: f64) -> String {
+    let days = (hours / 24.0).floor();
+    let rest = hours - 24.0 * days;
+    match (days > 0.0, rest > 1e-9) {
+        (true, false) => format!("{} d", fmt_num(days)),
+        (true, true) => format!("{} d {} h", fmt_num(days), fmt_num(rest)),
+        _ => format!("{} h", fmt_num(hours)),
+    }
+}
+
+/// The whole train from its driving arbor, a first part (named `names`) then the centre-to-escape
+/// train: `great wheel 96 → centre pinion 8; centre wheel 64 → third pinion 8; …`.
+pub fn whole_train(names: &[String], first: &Train, then: &Train) -> String {
+    let centre_on = arbor_names(then.stages.len(), "centre");
+    let mut all: Vec<String> = names.to_vec();
+    all.extend(centre_on.into_iter().skip(1));
+    first
+        .stages
+        .iter()
+        .chain(&then.stages)
+        .enumerate()
+        .map(|(k, s)| {
+            format!("{} wheel {} → {} pinion {}", all[k], s.driver.teeth, all[k + 1], s.driven.teeth)
+        })
+        .collect::<Vec<_>>()
+        .join("; ")
+        .replace("great wheel wheel", "great wheel")
+}
+
+/// A part of a train (its own search between two arbors of fixed speeds) as a table: the
+/// count, then each train with its arbors' speeds and, when checked, its meshes.
+pub fn part_table(d: &mut Document, g: &PartPlan, from_turns_per_hour: f64) {
+    d.line(count_line(g.count, g.trains.len(), g.complete, "train", "by meshes, then size"));
+    if g.trains.is_empty() {
+        return;
+    }
+    let numbered: Vec<(usize, &Train)> = g.trains.iter().enumerate().collect();
+    let rows = Table::numbered(&numbered, |&(k, t)| {
+        let stages: Vec<String> =
+            t.stages.iter().map(|st| format!("{} → {}", st.driver.teeth, st.driven.teeth)).collect();
+        let speeds = crate::trades::clock::arbor_speeds(t, from_turns_per_hour);
+        let arbors: Vec<String> = g
+            .part
+            .arbor_names(t.stages.len())
+            .iter()
+            .zip(&speeds)
+            .map(|(a, v)| format!("{a} {}", speed(*v)))
+            .collect();
+        let mut row = vec![stages.join(", "), t.ratio.to_string(), arbors.join("; ")];
+        if !g.pairs(k).is_empty() {
+            row.push(g.pairs(k).iter().map(describe_cycloidal).collect::<Vec<_>>().join("; "));
+        }
+        row
+    });
+    let mut head = vec!["#", "wheel → pinion", "ratio i", "arbors (turns per hour, time per turn)"];
+    if !g.cycloidal.is_empty() {
+        head.push("meshes (module, centre distance, contact ratio, action before the line of centres)");
+    }
+    d.table(Table::new(&head, &[0]).with_rows(rows));
 }
 
 /// Turns per hour, and the time per turn, for people: `60/h (1 min)`.
@@ -40,21 +103,24 @@ pub fn describe_beat(p: &GoingPlan) -> String {
     let b = &p.spec.beat;
     match b.source {
         BeatSource::Length { metres } => format!(
-            "pendulum {} m at g = {} m/s² → period {} s, {} beats/h",
+            "pendulum {} m at g = {} m/s² → period {} s, {} beats/h, {} beats/min",
             fmt_num(metres),
             b.gravity,
             fmt_num(b.period_s()),
-            fmt_num(b.beats_per_hour)
+            fmt_num(b.beats_per_hour),
+            fmt_num(b.beats_per_hour / 60.0)
         ),
         BeatSource::Period(s) => format!(
-            "period {s} s → {} beats/h (simple pendulum {} m at g = {} m/s²)",
+            "period {s} s → {} beats/h, {} beats/min (simple pendulum {} m at g = {} m/s²)",
             fmt_num(b.beats_per_hour),
+            fmt_num(b.beats_per_hour / 60.0),
             fmt_num(b.length_m()),
             b.gravity
         ),
         BeatSource::BeatsPerHour(r) => format!(
-            "{r} beats/h → period {} s (simple pendulum {} m at g = {} m/s²)",
+            "{r} beats/h → period {} s, {} beats/min (simple pendulum {} m at g = {} m/s²)",
             fmt_num(b.period_s()),
+            fmt_num(b.beats_per_hour / 60.0),
             fmt_num(b.length_m()),
             b.gravity
         ),
@@ -92,9 +158,36 @@ pub fn going(p: &GoingPlan) -> Document {
         e.beats_per_tooth,
         speed(p.escape_turns_per_hour)
     ));
+    if let Some(run) = &p.run {
+        let hours = run.run_hours.to_f64();
+        let drop = match (run.drop_m, s.line_barrel) {
+            (Some(m), Some(b)) => format!(
+                "; the weight on a {} mm line barrel with {} fall{} drops {} m",
+                fmt_num(b.diameter_mm),
+                b.falls,
+                if b.falls == 1 { "" } else { "s" },
+                fmt_num(m)
+            ),
+            _ => String::new(),
+        };
+        d.line(format!(
+            "Run: {} at a winding ({} h): the barrel (great wheel) turns {} times{drop}",
+            describe_hours(hours),
+            fmt_num(hours),
+            fmt_num(run.barrel_turns.to_f64())
+        ));
+    }
+    if let Some(g) = &p.great {
+        d.line(format!(
+            "From the great wheel turning {} to the centre arbor turning 1/h (60 min, the minute hand): i = {} \
+             exactly",
+            speed(s.from_turns_per_hour.to_f64()),
+            g.part.ratio
+        ));
+    }
     d.line(format!(
-        "From the arbor turning {} to the escape arbor, wheels driving pinions: i = {} (a speed-up, i < 1)",
-        speed(s.from_turns_per_hour.to_f64()),
+        "From the centre arbor turning 1/h (60 min, the minute hand) to the escape arbor, wheels driving \
+         pinions: i = {} (a speed-up, i < 1)",
         if exact {
             format!("{ratio} exactly")
         } else {
@@ -116,16 +209,29 @@ pub fn going(p: &GoingPlan) -> Document {
             fmt_num(m.min_contact_ratio)
         ));
     }
-    d.blank();
+    if let (Some(g), Some(first)) = (&p.great, p.trains.first()) {
+        if let Some(great) = g.trains.first() {
+            d.blank();
+            d.line(format!(
+                "Whole train 1: {}",
+                whole_train(&g.part.arbor_names(great.stages.len()), great, &first.train)
+            ));
+        }
+    }
+    if let Some(g) = &p.great {
+        d.blank();
+        d.heading("Great wheel to centre arbor:");
+        part_table(&mut d, g, s.from_turns_per_hour.to_f64());
+        d.blank();
+        d.heading("Centre arbor to escape arbor:");
+    } else {
+        d.blank();
+    }
     d.line(count_line(p.count, p.trains.len(), p.complete, "train", "by rate error, then meshes, then size"));
     if !p.trains.is_empty() {
-        let driving = if s.from_turns_per_hour == crate::numbers::rational::Ratio::integer(1) {
-            "centre"
-        } else {
-            "driving"
-        };
         let rows = Table::numbered(&p.trains, |g| {
-            let names = arbor_names(g.train.stages.len(), driving);
+            let names = arbor_names(g.train.stages.len(), "centre");
+
             let stages: Vec<String> = g
                 .train
                 .stages
@@ -135,7 +241,11 @@ pub fn going(p: &GoingPlan) -> Document {
             let arbors: Vec<String> = names
                 .iter()
                 .zip(&g.arbor_turns_per_hour)
-                .map(|(a, v)| format!("{a} {}", speed(*v)))
+                .enumerate()
+                .map(|(k, (a, v))| match g.seconds_arbor {
+                    Some(at) if at == k => format!("{a} {}", speed(*v).replace(')', ", seconds hand)")),
+                    _ => format!("{a} {}", speed(*v)),
+                })
                 .collect();
             let mut row = vec![
                 stages.join(", "),

@@ -23,6 +23,7 @@ use crate::report::{write_json, RenderError, SCHEMA_VERSION};
 use crate::trades::clock::astro::AstroPlan;
 use crate::trades::clock::going::GoingPlan;
 use crate::trades::clock::motion::{stage_names, MotionPlan};
+use crate::trades::clock::part::PartPlan;
 
 #[derive(Serialize)]
 struct ArborJson {
@@ -76,8 +77,64 @@ struct GoingTrainJson {
     train: TrainJson,
     arbors: Vec<ArborJson>,
     rate_s_per_day: f64,
+    seconds_arbor: Option<String>,
     #[serde(skip_serializing_if = "Option::is_none")]
     cycloidal: Option<Vec<CycloidalJson>>,
+}
+
+/// One train of a part (great wheel to centre arbor, or of a striking train).
+#[derive(Serialize)]
+struct PartTrainJson {
+    #[serde(flatten)]
+    train: TrainJson,
+    arbors: Vec<ArborJson>,
+    #[serde(skip_serializing_if = "Option::is_none")]
+    cycloidal: Option<Vec<CycloidalJson>>,
+}
+
+/// A part of a train searched on its own.
+#[derive(Serialize)]
+struct PartJson {
+    from_arbor: String,
+    to_arbor: String,
+    ratio_needed: String,
+    count: u64,
+    complete: bool,
+    trains: Vec<PartTrainJson>,
+}
+
+fn part_json(g: &PartPlan, from_turns_per_hour: f64) -> PartJson {
+    PartJson {
+        from_arbor: g.part.arbors[0].clone(),
+        to_arbor: g.part.arbors[g.part.arbors.len() - 1].clone(),
+        ratio_needed: g.part.ratio.to_string(),
+        count: g.count,
+        complete: g.complete,
+        trains: g
+            .trains
+            .iter()
+            .enumerate()
+            .map(|(k, t)| PartTrainJson {
+                train: train_json(t, g.pairs(k)),
+                arbors: g
+                    .part
+                    .arbor_names(t.stages.len())
+                    .into_iter()
+                    .zip(crate::trades::clock::arbor_speeds(t, from_turns_per_hour))
+                    .map(|(arbor, turns_per_hour)| ArborJson { arbor, turns_per_hour })
+                    .collect(),
+                cycloidal: cycloidal_json(g.pairs(k)),
+            })
+            .collect(),
+    }
+}
+
+/// What the run time asks of the barrel.
+#[derive(Serialize)]
+struct RunJson {
+    run_hours: f64,
+    barrel_turns: f64,
+    drop_m: Option<f64>,
 }
 
 #[derive(Serialize)]
@@ -86,6 +143,7 @@ struct GoingDoc {
     clock_train: &'static str,
     period_s: f64,
     beats_per_hour: f64,
+    beats_per_minute: f64,
     escape_teeth: u32,
     beats_per_tooth: u32,
     escape_turns_per_hour: f64,
@@ -94,6 +152,8 @@ struct GoingDoc {
     ratio_needed_exact: bool,
     rate_tolerance_s_per_day: f64,
     tooth_form: Option<&'static str>,
+    run: Option<RunJson>,
+    great_wheel: Option<PartJson>,
     count: u64,
     complete: bool,
     convention: &'static str,
@@ -105,16 +165,12 @@ struct GoingDoc {
 pub fn write_going(p: &GoingPlan, w: &mut dyn Write) -> Result<(), RenderError> {
     let s = &p.spec;
     let (ratio, exact) = s.needed_ratio();
-    let driving = if s.from_turns_per_hour == crate::numbers::rational::Ratio::integer(1) {
-        "centre"
-    } else {
-        "driving"
-    };
     let doc = GoingDoc {
         schema_version: SCHEMA_VERSION,
         clock_train: "going",
         period_s: s.beat.period_s(),
         beats_per_hour: s.beat.beats_per_hour,
+        beats_per_minute: s.beat.beats_per_hour / 60.0,
         escape_teeth: s.escapement.teeth,
         beats_per_tooth: s.escapement.beats_per_tooth,
         escape_turns_per_hour: p.escape_turns_per_hour,
@@ -123,21 +179,32 @@ pub fn write_going(p: &GoingPlan, w: &mut dyn Write) -> Result<(), RenderError> 
         ratio_needed_exact: exact,
         rate_tolerance_s_per_day: s.rate_tolerance_s_per_day.to_f64(),
         tooth_form: s.meshes.map(|m| m.tooth_form.as_str()),
+        run: p.run.map(|r| RunJson {
+            run_hours: r.run_hours.to_f64(),
+            barrel_turns: r.barrel_turns.to_f64(),
+            drop_m: r.drop_m,
+        }),
+        great_wheel: p.great.as_ref().map(|g| part_json(g, s.from_turns_per_hour.to_f64())),
         count: p.count,
         complete: p.complete,
         convention: CONVENTION,
-        train_runs: "input = driving arbor, output = escape arbor; wheels drive pinions, so i < 1",
+        train_runs:
+            "input = centre arbor (once an hour), output = escape arbor; wheels drive pinions, so i < 1; \
+                     great_wheel: input = great wheel, output = centre arbor",
         trains: p
             .trains
             .iter()
             .map(|g| GoingTrainJson {
                 train: train_json(&g.train, &g.cycloidal),
                 cycloidal: cycloidal_json(&g.cycloidal),
-                arbors: arbor_names(g.train.stages.len(), driving)
+                arbors: arbor_names(g.train.stages.len(), "centre")
                     .into_iter()
                     .zip(&g.arbor_turns_per_hour)
                     .map(|(arbor, v)| ArborJson { arbor, turns_per_hour: *v })
                     .collect(),
+                seconds_arbor: g
+                    .seconds_arbor
+                    .map(|k| arbor_names(g.train.stages.len(), "centre")[k].clone()),
                 rate_s_per_day: g.rate_s_per_day,
             })
             .collect(),

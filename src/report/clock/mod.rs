@@ -36,8 +36,10 @@ impl Report for GoingPlan {
         "a going train"
     }
 
+    /// Found when every part is: the centre-to-escape train and, if asked, the great wheel's.
     fn completion(&self) -> Completion {
-        Completion { complete: self.complete, found: self.count > 0 }
+        let great = self.great.as_ref().map_or((true, true), |g| (g.complete, g.count > 0));
+        Completion { complete: self.complete && great.0, found: self.count > 0 && great.1 }
     }
 
     fn document(&self) -> Option<Document> {

@@ -6,6 +6,8 @@
 //! - [`beat`]: pendulum length, period and beats per hour; the escape wheel;
 //! - [`going`]: the going train, its arbor speeds and rate error in seconds per day;
 //! - [`motion`]: the motion work (the reverted 12:1 train) and other hand ratios;
+//! - [`part`]: a part of a train between two arbors of fixed speeds (great wheel to centre),
+//!   searched on its own;
 //! - [`astro`]: named periods, convergents, drift per year;
 //! - the output formats are in [`crate::report::clock`].
 //!
@@ -21,6 +23,7 @@ pub mod astro;
 pub mod beat;
 pub mod going;
 pub mod motion;
+pub mod part;
 
 use crate::error::{Error, Quantity, Result};
 use crate::model::pool::Pool;
