@@ -752,3 +752,70 @@ fn beats_per_minute_are_beats_per_hour_over_60() {
     assert_eq!(out.code, 2);
     assert!(out.stderr.contains("--beats-per-minute: \"0\" is zero"), "{}", out.stderr);
 }
+
+#[test]
+fn an_eight_day_count_wheel_strike_is_found() {
+    // An eight-day count-wheel striking train (common practice, from memory): 78 blows in 12
+    // hours, 8 pins, 16 turns of the barrel: great wheel 78 into a pinion of 8 on the pin
+    // wheel's arbor, the count wheel of 78 driven by a pinion of 8 on that arbor.
+    let (code, v) = json(&["clock", "strike", "--check-meshes", "--limit", "20", "-q"]);
+    assert_eq!(code, 0);
+    assert_eq!(v["clock_train"], "strike");
+    assert_eq!(v["blows_per_12_hours"], 78);
+    // Computed here: 8 days = 16 rounds of 12 hours; 78 · 16 blows over 8 pins.
+    assert_eq!(v["blows_in_run"], (78 * 16) as f64);
+    assert_eq!(v["pin_wheel_turns"], (78 * 16 / 8) as f64);
+    let parts = v["parts"].as_array().unwrap();
+    let names: Vec<(&str, &str)> =
+        parts.iter().map(|p| (p["from_arbor"].as_str().unwrap(), p["to_arbor"].as_str().unwrap())).collect();
+    assert_eq!(
+        names,
+        [
+            ("great wheel", "pin wheel"),
+            ("pin wheel", "locking wheel"),
+            ("locking wheel", "warning wheel"),
+            ("warning wheel", "fly"),
+            ("pin wheel", "count wheel")
+        ]
+    );
+    assert!(parts[0]["trains"].as_array().unwrap().iter().any(|t| pairs(t) == [(78, 8)]));
+    assert!(parts[4]["trains"].as_array().unwrap().iter().any(|t| pairs(t) == [(8, 78)]));
+    // The locking wheel turns once a blow: pin wheel teeth over locking pinion = 8 pins.
+    for t in parts[1]["trains"].as_array().unwrap() {
+        let (w, p) = pairs(t)[0];
+        assert_eq!(w, 8 * p);
+    }
+}
+
+#[test]
+fn half_hour_blows_and_a_thirty_hour_run() {
+    // 90 blows in 12 hours with the half hours; over 30 hours 225 blows, 225/8 turns of an
+    // 8-pin wheel; 5 turns of the barrel: 45/8 turns of the pin wheel a turn of the great wheel.
+    let (code, v) = json(&[
+        "clock",
+        "strike",
+        "--half-hours",
+        "--run",
+        "30h",
+        "--barrel-turns",
+        "5",
+        "--limit",
+        "5",
+        "-q",
+    ]);
+    assert_eq!(code, 0);
+    assert_eq!(v["blows_per_12_hours"], 90);
+    assert_eq!(v["blows_in_run"], 225.0);
+    assert_eq!(v["parts"][0]["ratio_needed"], "8/45");
+    for t in v["parts"][0]["trains"].as_array().unwrap() {
+        let p = pairs(t);
+        let (num, den) = p.iter().fold((1u64, 1u64), |(n, d), &(w, z)| (n * w, d * z));
+        assert_eq!(8 * num, 45 * den, "{p:?}");
+    }
+    let out = gearsieve(&["clock", "strike", "--pins", "1"]);
+    assert_eq!(out.code, 2);
+    assert!(out.stderr.contains("--pins: wanted 2 to 30 pins, found 1"), "{}", out.stderr);
+    let out = gearsieve(&["clock", "strike", "--stages", "2"]);
+    assert_eq!(out.code, 2);
+    assert!(out.stderr.contains("--stages: a striking train's parts are one stage each"), "{}", out.stderr);
+}

@@ -128,6 +128,7 @@ const CASES: &[(&str, &[&str])] = &[
         ],
     ),
     ("clock-motion", &["clock", "motion", "--limit", "3"]),
+    ("clock-strike", &["clock", "strike", "--check-meshes", "--limit", "2"]),
     ("clock-astro", &["clock", "astro", "--period", "synodic-month", "--tol", "10ppm", "--limit", "3"]),
     (
         "reducer",

@@ -23,7 +23,8 @@ use gearsieve::trades::clock::beat::{
 use gearsieve::trades::clock::going::{parse_rate_tolerance, GoingPlan, GoingSpec, LineBarrel};
 use gearsieve::trades::clock::motion::{Dial, MotionPlan, MotionSpec};
 use gearsieve::trades::clock::part::MeshCheck;
-use gearsieve::trades::clock::{going, motion};
+use gearsieve::trades::clock::strike::{StrikePlan, StrikeSpec};
+use gearsieve::trades::clock::{going, motion, strike};
 use gearsieve::{Error, Problem, Quantity, RunOptions};
 
 use super::args::{load_stock, number, PrintArgs, ToothFormArg};
@@ -45,6 +46,9 @@ pub enum ClockCommand {
     Going(Box<GoingArgs>),
     /// The motion work (12:1 reverted train behind the hands) or another hand ratio.
     Motion(Box<MotionArgs>),
+    /// The count-wheel striking train: great wheel, pin wheel, locking, warning and fly, and the
+    /// count wheel.
+    Strike(Box<StrikeArgs>),
     /// A dial turning once per synodic month, sidereal day or tropical year.
     Astro(Box<AstroArgs>),
 }
@@ -186,6 +190,52 @@ pub struct MotionArgs {
     pub no_undercut: bool,
     /// Least contact ratio of a mesh (transverse for involute teeth, leaves in action for
     /// cycloidal teeth).
+    #[arg(long, value_name = "X", default_value_t = 1.0, allow_negative_numbers = true, value_parser = number)]
+    pub min_contact_ratio: f64,
+    #[command(flatten)]
+    pub gears: ClockGears,
+}
+
+/// The striking train of a count-wheel (or rack) striking clock: from the pins, the run time and
+/// the barrel's turns, the wheels and pinions from the great wheel to the pin wheel, the locking
+/// wheel (once a blow), the warning wheel and the fly, and the count wheel (once in 12 hours).
+#[derive(Args, Debug)]
+pub struct StrikeArgs {
+    /// Pins on the pin wheel, one blow each.
+    #[arg(long, value_name = "N", default_value_t = strike::DEFAULT_PINS)]
+    pub pins: u32,
+    /// Strike one blow at each half hour too (90 blows in 12 hours instead of 78).
+    #[arg(long)]
+    pub half_hours: bool,
+    /// How long the clock runs at a winding: in hours, or with a unit (30h, 8d).
+    #[arg(long, value_name = "PERIOD", default_value = "8d")]
+    pub run: String,
+    /// Turns of the barrel (great wheel) at a winding.
+    #[arg(long, value_name = "N", default_value = "16")]
+    pub barrel_turns: String,
+    /// Turns of the warning wheel per blow (whole, so it stops in the same place each hour).
+    #[arg(long, value_name = "N", default_value_t = strike::DEFAULT_WARNING_TURNS)]
+    pub warning_turns: u32,
+    /// Turns of the fly per turn of the warning wheel.
+    #[arg(long, value_name = "N", default_value_t = strike::DEFAULT_FLY_TURNS)]
+    pub fly_turns: u32,
+    /// Wheel teeth allowed.
+    #[arg(long, value_name = "LO..HI", default_value_t = going::DEFAULT_WHEELS.to_string())]
+    pub wheels: String,
+    /// Pinion leaves allowed, from 6.
+    #[arg(long, value_name = "LO..HI", default_value_t = going::DEFAULT_PINIONS.to_string())]
+    pub pinions: String,
+    /// Stages from the great wheel to the pin wheel: N or A..B, at most 3.
+    #[arg(long, value_name = "N|A..B", default_value = "1")]
+    pub great_stages: String,
+    /// Work out every wheel and pinion as a mesh in --tooth-form and keep only stages that run.
+    #[arg(long)]
+    pub check_meshes: bool,
+    /// Tooth form of the meshes checked: cycloidal, as clock wheels and pinions are cut, or
+    /// involute. Turns on the mesh checks.
+    #[arg(long, value_enum, value_name = "FORM")]
+    pub tooth_form: Option<ToothFormArg>,
+    /// Least contact ratio of a mesh checked (leaves in action for cycloidal teeth).
     #[arg(long, value_name = "X", default_value_t = 1.0, allow_negative_numbers = true, value_parser = number)]
     pub min_contact_ratio: f64,
     #[command(flatten)]
@@ -346,6 +396,44 @@ impl TryFrom<&MotionArgs> for MotionSpec {
             tooth_form: a.tooth_form.into(),
             allow_undercut: !a.no_undercut,
             min_contact_ratio: a.min_contact_ratio,
+            limit: a.gears.limit,
+        })
+    }
+}
+
+impl TryFrom<&StrikeArgs> for StrikeSpec {
+    type Error = anyhow::Error;
+
+    fn try_from(a: &StrikeArgs) -> anyhow::Result<StrikeSpec> {
+        if a.gears.stages.is_some() {
+            return Err(refuse(
+                "--stages",
+                "a striking train's parts are one stage each; give --great-stages for the great wheel's",
+            ));
+        }
+        let wheels = teeth(&a.wheels, Quantity::WheelTeeth)?;
+        let pinions = teeth(&a.pinions, Quantity::PinionLeaves)?;
+        if pinions.lo < 6 {
+            return Err(refuse(
+                "--pinions",
+                format!("clock pinions have at least 6 leaves, found {pinions}"),
+            ));
+        }
+        Ok(StrikeSpec {
+            pins: a.pins,
+            half_hours: a.half_hours,
+            run_hours: parse_period(&a.run, Quantity::RunTime, TimeUnit::Hour)?,
+            barrel_turns: parse_ratio(&a.barrel_turns, Quantity::BarrelTurns)?,
+            warning_turns: a.warning_turns,
+            fly_turns: a.fly_turns,
+            pool: pool(&a.gears, span(wheels, pinions))?,
+            wheels,
+            pinions,
+            great_stages: parse_int_range(&a.great_stages, Quantity::StageCount, "stages", 1, 3)?,
+            meshes: (a.check_meshes || a.tooth_form.is_some()).then(|| MeshCheck {
+                tooth_form: a.tooth_form.unwrap_or(ToothFormArg::Cycloidal).into(),
+                min_contact_ratio: a.min_contact_ratio,
+            }),
             limit: a.gears.limit,
         })
     }
@@ -558,6 +646,67 @@ impl Job for ClockJob<MotionSpec> {
     }
 }
 
+impl Job for ClockJob<StrikeSpec> {
+    type Found = StrikePlan;
+
+    fn search(&self, options: &RunOptions) -> anyhow::Result<StrikePlan> {
+        Ok(self.spec.plan(options)?)
+    }
+
+    fn report<'a>(&'a self, found: &'a StrikePlan) -> Box<dyn Report + 'a> {
+        Box::new(found)
+    }
+
+    fn words(&self, found: &StrikePlan) -> Words {
+        let s = &self.spec;
+        let missing: Vec<String> = found
+            .parts
+            .iter()
+            .filter(|g| g.count == 0)
+            .map(|g| {
+                format!(
+                    "{} to {} ({})",
+                    g.part.arbors[0],
+                    g.part.arbors[g.part.arbors.len() - 1],
+                    g.part.ratio
+                )
+            })
+            .collect();
+        let why = format!("No wheels and pinions make {}. ", missing.join(", "));
+        let mut h: Vec<String> = if s.pool.from_stock {
+            vec!["more stock".into()]
+        } else {
+            wider_wheels_and_pinions(s.wheels, s.pinions).into_iter().collect()
+        };
+        if found.parts.first().is_some_and(|g| g.count == 0) {
+            h.push("other --barrel-turns or --pins".into());
+            if s.great_stages.hi < 3 {
+                h.push("more --great-stages".into());
+            }
+        }
+        if s.meshes.is_some() {
+            h.push("a lower --min-contact-ratio".into());
+        }
+        words(hints::nothing(&why, &h))
+    }
+
+    fn forecast(&self) -> anyhow::Result<Option<Outlook<'_>>> {
+        let s = &self.spec;
+        let searches = s
+            .parts()?
+            .iter()
+            .map(|p| Ok((Cow::Owned(p.problem(&s.pool, s.meshes, s.limit)?), gearsieve::trades::ENGINE)))
+            .collect::<Result<Vec<_>, Error>>()?;
+        Ok(Some(Outlook {
+            searches,
+            long: self.long,
+            shard: None,
+            narrow: vec!["narrower --wheels or --pinions".into()],
+            can_shard: false,
+        }))
+    }
+}
+
 impl Job for ClockJob<AstroSpec> {
     type Found = AstroPlan;
 
@@ -615,6 +764,10 @@ pub fn run(args: ClockArgs) -> anyhow::Result<i32> {
         }
         ClockCommand::Motion(a) => {
             let job = ClockJob { spec: MotionSpec::try_from(a.as_ref())?, long: a.gears.long };
+            run::run(&job, &Print::from(&a.gears.print))
+        }
+        ClockCommand::Strike(a) => {
+            let job = ClockJob { spec: StrikeSpec::try_from(a.as_ref())?, long: a.gears.long };
             run::run(&job, &Print::from(&a.gears.print))
         }
         ClockCommand::Astro(a) => {

@@ -12,6 +12,7 @@ use crate::report::fields::{decimals, small, train_cells, StageColumns, TrainJso
 use crate::trades::clock::astro::AstroPlan;
 use crate::trades::clock::going::GoingPlan;
 use crate::trades::clock::motion::MotionPlan;
+use crate::trades::clock::strike::StrikePlan;
 
 /// Header and rows: `rank`, the train columns, `extra` columns, then the stage columns.
 fn write_rows<T>(
@@ -106,4 +107,27 @@ pub fn write_astro(p: &AstroPlan, w: &mut dyn Write) -> io::Result<()> {
             ]
         },
     )
+}
+
+/// Write a striking-train search: one row per train of each part, the part named by its first
+/// and last arbors.
+pub fn write_strike(p: &StrikePlan, w: &mut dyn Write) -> io::Result<()> {
+    let most = p.parts.iter().map(|g| g.part.stages.hi as usize).max().unwrap_or(1);
+    let stages = StageColumns { stages: most, mesh: p.spec.meshes.is_some() };
+    let mut c = ::csv::Writer::from_writer(w);
+    let mut head = ["part_from", "part_to", "rank"].map(String::from).to_vec();
+    head.extend(TRAIN_HEADER.iter().map(|s| s.to_string()));
+    head.extend(stages.header());
+    c.write_record(&head)?;
+    for g in &p.parts {
+        for (n, t) in g.trains.iter().enumerate() {
+            let t = train_json(t, g.pairs(n));
+            let mut row = vec![g.part.arbors[0].clone(), g.part.arbors[g.part.arbors.len() - 1].clone()];
+            row.push((n + 1).to_string());
+            row.extend(train_cells(&t));
+            row.extend(stages.cells(&t));
+            c.write_record(&row)?;
+        }
+    }
+    c.flush()
 }

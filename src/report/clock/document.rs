@@ -12,6 +12,7 @@ use crate::trades::clock::beat::BeatSource;
 use crate::trades::clock::going::GoingPlan;
 use crate::trades::clock::motion::{stage_names, MotionPlan};
 use crate::trades::clock::part::PartPlan;
+use crate::trades::clock::strike::StrikePlan;
 
 /// Arbor names of a going train of `stages` stages from the centre arbor: centre, third,
 /// fourth…, escape; `driving` replaces `centre` when the train starts from another arbor.
@@ -55,7 +56,9 @@ pub fn whole_train(names: &[String], first: &Train, then: &Train) -> String {
 
 /// A part of a train (its own search between two arbors of fixed speeds) as a table: the
 /// count, then each train with its arbors' speeds and, when checked, its meshes.
-pub fn part_table(d: &mut Document, g: &PartPlan, from_turns_per_hour: f64) {
+/// `from_turns_per_hour` gives the first arbor's speed for a going train; without it (a striking
+/// train, which runs only while it strikes) each arbor's turns per turn of the first are shown.
+pub fn part_table(d: &mut Document, g: &PartPlan, from_turns_per_hour: Option<f64>) {
     d.line(count_line(g.count, g.trains.len(), g.complete, "train", "by meshes, then size"));
     if g.trains.is_empty() {
         return;
@@ -64,13 +67,16 @@ pub fn part_table(d: &mut Document, g: &PartPlan, from_turns_per_hour: f64) {
     let rows = Table::numbered(&numbered, |&(k, t)| {
         let stages: Vec<String> =
             t.stages.iter().map(|st| format!("{} → {}", st.driver.teeth, st.driven.teeth)).collect();
-        let speeds = crate::trades::clock::arbor_speeds(t, from_turns_per_hour);
+        let speeds = crate::trades::clock::arbor_speeds(t, from_turns_per_hour.unwrap_or(1.0));
         let arbors: Vec<String> = g
             .part
             .arbor_names(t.stages.len())
             .iter()
             .zip(&speeds)
-            .map(|(a, v)| format!("{a} {}", speed(*v)))
+            .map(|(a, v)| match from_turns_per_hour {
+                Some(_) => format!("{a} {}", speed(*v)),
+                None => format!("{a} {}", fmt_num(*v)),
+            })
             .collect();
         let mut row = vec![stages.join(", "), t.ratio.to_string(), arbors.join("; ")];
         if !g.pairs(k).is_empty() {
@@ -78,7 +84,13 @@ pub fn part_table(d: &mut Document, g: &PartPlan, from_turns_per_hour: f64) {
         }
         row
     });
-    let mut head = vec!["#", "wheel → pinion", "ratio i", "arbors (turns per hour, time per turn)"];
+    let arbors = if from_turns_per_hour.is_some() {
+        "arbors (turns per hour, time per turn)"
+    } else {
+        "arbors (turns per turn of the first)"
+    };
+    let gears = if g.part.drivers.lo < g.part.driven.lo { "pinion → wheel" } else { "wheel → pinion" };
+    let mut head = vec!["#", gears, "ratio i", arbors];
     if !g.cycloidal.is_empty() {
         head.push("meshes (module, centre distance, contact ratio, action before the line of centres)");
     }
@@ -221,7 +233,7 @@ pub fn going(p: &GoingPlan) -> Document {
     if let Some(g) = &p.great {
         d.blank();
         d.heading("Great wheel to centre arbor:");
-        part_table(&mut d, g, s.from_turns_per_hour.to_f64());
+        part_table(&mut d, g, Some(s.from_turns_per_hour.to_f64()));
         d.blank();
         d.heading("Centre arbor to escape arbor:");
     } else {
@@ -494,4 +506,108 @@ pub fn astro(p: &AstroPlan) -> Document {
     d.table(Table::new(&["fraction", "drift", ""], &[]).with_rows(rows));
     footer(&mut d, &["Drift > 0: the dial runs ahead. A year is 365.2425 days (mean Gregorian year)."]);
     d
+}
+
+/// A striking-train search as a document: the blows and the run, the whole train, then each
+/// part with its own table.
+pub fn strike(p: &StrikePlan) -> Document {
+    let mut d = Document::new();
+    let s = &p.spec;
+    d.title("Striking train (count wheel)");
+    d.line(format!(
+        "Blows: {} in 12 hours ({}); {} pins on the pin wheel, one blow each",
+        p.blows_per_12_hours,
+        if s.half_hours { "1 + 2 + … + 12 = 78, and one at each half hour" } else { "1 + 2 + … + 12" },
+        s.pins
+    ));
+    let hours = s.run_hours.to_f64();
+    d.line(format!(
+        "Run: {} at a winding ({} h): {} blows, {} turns of the pin wheel, {} turns of the barrel (great wheel)",
+        describe_hours(hours),
+        fmt_num(hours),
+        fmt_num(p.blows_in_run.to_f64()),
+        fmt_num(p.pin_wheel_turns.to_f64()),
+        fmt_num(s.barrel_turns.to_f64())
+    ));
+    d.line(format!(
+        "Locking wheel: once a blow; warning wheel: {} turns a blow; fly: {} turns a turn of the warning wheel \
+         ({} a blow); count wheel: once in 12 hours",
+        s.warning_turns,
+        s.fly_turns,
+        s.warning_turns * s.fly_turns
+    ));
+    d.line(format!(
+        "Gears: {}; wheels {}, pinions {} leaves{}",
+        s.pool.describe(),
+        s.wheels,
+        s.pinions,
+        match s.meshes {
+            Some(m) => format!(
+                "; meshes checked: {} teeth, least contact ratio {}",
+                m.tooth_form.as_str(),
+                fmt_num(m.min_contact_ratio)
+            ),
+            None => String::new(),
+        }
+    ));
+    if p.found() {
+        let firsts: Vec<String> = p
+            .parts
+            .iter()
+            .map(|g| {
+                let t = &g.trains[0];
+                let names = g.part.arbor_names(t.stages.len());
+                t.stages
+                    .iter()
+                    .enumerate()
+                    .map(|(k, st)| {
+                        let wheel =
+                            |n: &str| if n.ends_with("wheel") { n.to_string() } else { format!("{n} wheel") };
+                        if g.part.drivers.lo < g.part.driven.lo {
+                            format!(
+                                "{} pinion {} → {} {}",
+                                names[k],
+                                st.driver.teeth,
+                                wheel(&names[k + 1]),
+                                st.driven.teeth
+                            )
+                        } else {
+                            format!(
+                                "{} {} → {} pinion {}",
+                                wheel(&names[k]),
+                                st.driver.teeth,
+                                names[k + 1],
+                                st.driven.teeth
+                            )
+                        }
+                    })
+                    .collect::<Vec<_>>()
+                    .join("; ")
+            })
+            .collect();
+        d.blank();
+        d.line(format!("Whole train 1: {}", firsts.join("; ")));
+    }
+    for g in &p.parts {
+        d.blank();
+        let (from, to) = (&g.part.arbors[0], &g.part.arbors[g.part.arbors.len() - 1]);
+        d.heading(format!("{} to {}: i = {} exactly", capitalise(from), to, g.part.ratio));
+        part_table(&mut d, g, None);
+    }
+    footer(
+        &mut d,
+        &[
+            "Wheels drive pinions from the great wheel to the fly; a pinion on the pin wheel's arbor drives the count wheel.",
+            "Each part's arbors turn so many times per turn of its first arbor; the train runs only while it strikes.",
+        ],
+    );
+    d
+}
+
+fn capitalise(s: &str) -> String {
+    let mut c = s.chars();
+    match c.next() {
+        Some(f) => f.to_uppercase().chain(c).collect(),
+        None => String::new(),
+    }
 }

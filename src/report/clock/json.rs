@@ -24,6 +24,7 @@ use crate::trades::clock::astro::AstroPlan;
 use crate::trades::clock::going::GoingPlan;
 use crate::trades::clock::motion::{stage_names, MotionPlan};
 use crate::trades::clock::part::PartPlan;
+use crate::trades::clock::strike::StrikePlan;
 
 #[derive(Serialize)]
 struct ArborJson {
@@ -361,6 +362,52 @@ pub fn write_astro(p: &AstroPlan, w: &mut dyn Write) -> Result<(), RenderError> 
                 blocking_prime: c.blocking_prime,
             })
             .collect(),
+    };
+    write_json(&doc, w)
+}
+
+#[derive(Serialize)]
+struct StrikeDoc {
+    schema_version: u32,
+    clock_train: &'static str,
+    pins: u32,
+    half_hours: bool,
+    blows_per_12_hours: u32,
+    run_hours: f64,
+    barrel_turns: f64,
+    blows_in_run: f64,
+    pin_wheel_turns: f64,
+    warning_turns: u32,
+    fly_turns: u32,
+    tooth_form: Option<&'static str>,
+    complete: bool,
+    convention: &'static str,
+    train_runs: &'static str,
+    parts: Vec<PartJson>,
+}
+
+/// Write a striking-train search as one JSON document; each part's arbors turn so many times
+/// per turn of its first arbor.
+pub fn write_strike(p: &StrikePlan, w: &mut dyn Write) -> Result<(), RenderError> {
+    let s = &p.spec;
+    let doc = StrikeDoc {
+        schema_version: SCHEMA_VERSION,
+        clock_train: "strike",
+        pins: s.pins,
+        half_hours: s.half_hours,
+        blows_per_12_hours: p.blows_per_12_hours,
+        run_hours: s.run_hours.to_f64(),
+        barrel_turns: s.barrel_turns.to_f64(),
+        blows_in_run: p.blows_in_run.to_f64(),
+        pin_wheel_turns: p.pin_wheel_turns.to_f64(),
+        warning_turns: s.warning_turns,
+        fly_turns: s.fly_turns,
+        tooth_form: s.meshes.map(|m| m.tooth_form.as_str()),
+        complete: p.complete(),
+        convention: CONVENTION,
+        train_runs: "each part: input = its first arbor, output = its last; wheels drive pinions, but a pinion \
+                     drives the count wheel; an arbor's turns_per_hour is its turns per turn of the part's first arbor",
+        parts: p.parts.iter().map(|g| part_json(g, 1.0)).collect(),
     };
     write_json(&doc, w)
 }

@@ -1,4 +1,4 @@
-//! Clock trains (`gearsieve clock going|motion|astro`) in every format.
+//! Clock trains (`gearsieve clock going|motion|strike|astro`) in every format.
 
 pub mod csv;
 pub mod document;
@@ -15,6 +15,7 @@ use crate::model::train::Train;
 use crate::trades::clock::astro::AstroPlan;
 use crate::trades::clock::going::GoingPlan;
 use crate::trades::clock::motion::MotionPlan;
+use crate::trades::clock::strike::StrikePlan;
 
 /// The JSON view of `train`, with the figures of its cycloidal pairs (when `pairs` has one per
 /// stage) in the mesh fields: the centre distance, the contact ratio (leaves in action) and the
@@ -98,6 +99,40 @@ impl Report for MotionPlan {
             ("minute arbor", "hand"),
             layout,
         ))
+    }
+}
+
+impl Report for StrikePlan {
+    fn kind(&self) -> &'static str {
+        "a striking train"
+    }
+
+    fn completion(&self) -> Completion {
+        Completion { complete: self.complete(), found: self.found() }
+    }
+
+    fn document(&self) -> Option<Document> {
+        Some(document::strike(self))
+    }
+
+    fn csv(&self, w: &mut dyn Write) -> Result<(), RenderError> {
+        Ok(csv::write_strike(self, w)?)
+    }
+
+    fn json(&self, w: &mut dyn Write) -> Result<(), RenderError> {
+        json::write_strike(self, w)
+    }
+
+    /// The best train from the great wheel to the fly, in a line.
+    fn drawing(&self) -> Option<Drawing> {
+        let stages: Vec<_> = self
+            .parts
+            .iter()
+            .take(4)
+            .map(|g| g.trains.first().map(|t| train_json(t, &[]).stages))
+            .collect::<Option<Vec<_>>>()?
+            .concat();
+        Some(pictures::train(&stages, "Striking train 1: great wheel to fly", ("great wheel", "fly")))
     }
 }
 

@@ -169,8 +169,8 @@ impl GoingSpec {
                 .map(|s| s.to_string())
                 .collect(),
             ratio: self.from_turns_per_hour,
-            wheels: self.wheels,
-            pinions: self.pinions,
+            drivers: self.wheels,
+            driven: self.pinions,
             stages: self.great_stages,
         })
     }

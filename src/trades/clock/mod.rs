@@ -8,6 +8,8 @@
 //! - [`motion`]: the motion work (the reverted 12:1 train) and other hand ratios;
 //! - [`part`]: a part of a train between two arbors of fixed speeds (great wheel to centre),
 //!   searched on its own;
+//! - [`strike`]: the count-wheel striking train: blows, pin wheel, locking, warning and fly
+//!   arbors, the count wheel;
 //! - [`astro`]: named periods, convergents, drift per year;
 //! - the output formats are in [`crate::report::clock`].
 //!
@@ -24,6 +26,7 @@ pub mod beat;
 pub mod going;
 pub mod motion;
 pub mod part;
+pub mod strike;
 
 use crate::error::{Error, Quantity, Result};
 use crate::model::pool::Pool;

@@ -37,7 +37,8 @@ impl MeshCheck {
     }
 }
 
-/// A part of a train to search: from one arbor to another, wheels driving pinions.
+/// A part of a train to search: from one arbor to another, wheels driving pinions (or, for a
+/// count wheel, a pinion driving a wheel).
 #[derive(Debug, Clone, PartialEq)]
 pub struct Part {
     /// The arbors from the driving one to the driven one, by their place (as many as the most
@@ -46,10 +47,10 @@ pub struct Part {
     pub arbors: Vec<String>,
     /// Turns of the driving arbor per turn of the driven one (below 1: a speed-up).
     pub ratio: Ratio,
-    /// Wheel teeth allowed (the drivers).
-    pub wheels: IntRange,
-    /// Pinion leaves allowed (the driven).
-    pub pinions: IntRange,
+    /// Teeth allowed for the drivers (the wheels, in a train that speeds up).
+    pub drivers: IntRange,
+    /// Teeth allowed for the driven gears (the pinions, in a train that speeds up).
+    pub driven: IntRange,
     /// Stage counts.
     pub stages: IntRange,
 }
@@ -69,8 +70,8 @@ impl Part {
     pub fn problem(&self, pool: &Pool, meshes: Option<MeshCheck>, limit: usize) -> Result<Problem> {
         let target = Target::exact(self.ratio.to_string(), self.ratio, Ratio::integer(0));
         let limits = StageLimits {
-            driver_teeth: Some(self.wheels),
-            driven_teeth: Some(self.pinions),
+            driver_teeth: Some(self.drivers),
+            driven_teeth: Some(self.driven),
             ..StageLimits::default()
         };
         let p = clock_problem(target, pool.clone(), self.stages, limits, limit)?;
@@ -118,7 +119,7 @@ pub struct PartPlan {
     pub count: u64,
     /// False when interrupted.
     pub complete: bool,
-    /// The best trains, stages from the driving arbor, wheels driving pinions.
+    /// The best trains, stages from the driving arbor.
     pub trains: Vec<Train>,
     /// Each train's cycloidal pairs, when checked in that form.
     pub cycloidal: Vec<Vec<crate::geometry::CycloidalMesh>>,
@@ -140,8 +141,8 @@ mod tests {
         let part = Part {
             arbors: ["great wheel", "intermediate", "centre"].map(String::from).to_vec(),
             ratio: Ratio::new(1, 12).unwrap(),
-            wheels: IntRange { lo: 30, hi: 130 },
-            pinions: IntRange { lo: 6, hi: 16 },
+            drivers: IntRange { lo: 30, hi: 130 },
+            driven: IntRange { lo: 6, hi: 16 },
             stages: IntRange { lo: 1, hi: 2 },
         };
         assert_eq!(part.arbor_names(1), ["great wheel", "centre"]);
@@ -155,8 +156,8 @@ mod tests {
         let part = Part {
             arbors: ["great wheel", "centre"].map(String::from).to_vec(),
             ratio: Ratio::new(1, 12).unwrap(),
-            wheels: IntRange { lo: 30, hi: 130 },
-            pinions: IntRange { lo: 8, hi: 8 },
+            drivers: IntRange { lo: 30, hi: 130 },
+            driven: IntRange { lo: 8, hi: 8 },
             stages: IntRange { lo: 1, hi: 1 },
         };
         let pool = Pool::to_cut(IntRange { lo: 8, hi: 130 }, 0.5, 20.0, None).unwrap();
