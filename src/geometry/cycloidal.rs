@@ -317,6 +317,103 @@ pub fn check_cycloidal(
     defects
 }
 
+/// The epicycloid of a rolling circle of radius `rho` on a base circle of radius `big_r`, at
+/// the rolling circle's turn `t`: the point's polar radius and its angle from where it started on
+/// the base circle.
+fn epicycloid_point(big_r: f64, rho: f64, t: f64) -> (f64, f64) {
+    let c = t * rho / big_r;
+    let (cx, cy) = ((big_r + rho) * c.cos(), (big_r + rho) * c.sin());
+    let a = c + PI + t;
+    let (x, y) = (cx + rho * a.cos(), cy + rho * a.sin());
+    (x.hypot(y), y.atan2(x))
+}
+
+/// One side of a tooth above its pitch circle, from the pitch point up to the tip, as (radius,
+/// angle from the tooth's centre line) pairs, the angle falling towards the centre line.
+fn addendum_side(mesh: &CycloidalMesh, gear: &CycloidalGear, steps: usize) -> Vec<(f64, f64)> {
+    let r = gear.pitch_diameter_mm / 2.0;
+    let tip = gear.tip_diameter_mm / 2.0;
+    let half = gear.thickness_mm / 2.0 / r;
+    if !gear.is_pinion {
+        // The wheel: the epicycloid of a circle of half the pinion's pitch radius.
+        let rho = mesh.gears[mesh.pinion].pitch_diameter_mm / 4.0;
+        let (mut lo, mut hi) = (0.0, PI);
+        for _ in 0..100 {
+            let mid = 0.5 * (lo + hi);
+            if epicycloid_point(r, rho, mid).0 < tip {
+                lo = mid;
+            } else {
+                hi = mid;
+            }
+        }
+        return (0..=steps)
+            .map(|k| {
+                let (rad, ang) = epicycloid_point(r, rho, lo * k as f64 / steps as f64);
+                (rad, (half - ang).max(0.0))
+            })
+            .collect();
+    }
+    // The pinion: an arc of the tip radius through the flank's pitch point and the top of the
+    // leaf on its centre line, bulging outwards (a half circle for a round top).
+    let p1 = [r * half.cos(), r * half.sin()];
+    let p2 = [tip, 0.0];
+    let (dx, dy) = (p2[0] - p1[0], p2[1] - p1[1]);
+    let chord = dx.hypot(dy);
+    let rho = gear.tip_radius_mm.max(chord / 2.0);
+    let mid = [(p1[0] + p2[0]) / 2.0, (p1[1] + p2[1]) / 2.0];
+    let off = (rho * rho - chord * chord / 4.0).max(0.0).sqrt();
+    // The centre lies inside the leaf, on the side of the chord towards the pinion's centre.
+    let n = [dy / chord, -dx / chord];
+    let centre = [mid[0] + n[0] * off, mid[1] + n[1] * off];
+    let a1 = (p1[1] - centre[1]).atan2(p1[0] - centre[0]);
+    let mut a2 = (p2[1] - centre[1]).atan2(p2[0] - centre[0]);
+    while a2 > a1 {
+        a2 -= 2.0 * PI;
+    }
+    (0..=steps)
+        .map(|k| {
+            let a = a1 + (a2 - a1) * k as f64 / steps as f64;
+            let (x, y) = (centre[0] + rho * a.cos(), centre[1] + rho * a.sin());
+            (x.hypot(y), y.atan2(x).max(0.0))
+        })
+        .collect()
+}
+
+/// The outline of gear `index` (0 or 1) of a cycloidal pair as a closed polygon in its own
+/// frame (mm, counter-clockwise), tooth 0 centred on the positive x axis, starting in the middle
+/// of the space before it: radial flanks below the pitch circle, the wheel's addendum on its
+/// epicycloid up to the practical tip circle, the pinion's rounded tip, root circle between.
+/// For pictures; `steps` points per curved part.
+pub fn cycloidal_outline(mesh: &CycloidalMesh, index: usize, steps: usize) -> Vec<[f64; 2]> {
+    let gear = &mesh.gears[index.min(1)];
+    let z = gear.teeth.max(1) as f64;
+    let steps = steps.max(2);
+    let r = gear.pitch_diameter_mm / 2.0;
+    let root = (gear.root_diameter_mm / 2.0).max(0.0);
+    let half = gear.thickness_mm / 2.0 / r;
+    let side = addendum_side(mesh, gear, steps);
+    // One tooth from the space before it to the space after it, as (radius, angle).
+    let mut tooth: Vec<(f64, f64)> = Vec::new();
+    let space = PI / z;
+    for k in 0..=steps / 2 {
+        tooth.push((root, -space + (space - half) * k as f64 / (steps / 2) as f64));
+    }
+    tooth.extend(side.iter().map(|&(rad, a)| (rad, -a)));
+    tooth.extend(side.iter().rev().map(|&(rad, a)| (rad, a)));
+    for k in 0..=steps / 2 {
+        tooth.push((root, half + (space - half) * k as f64 / (steps / 2) as f64));
+    }
+    let mut points = Vec::with_capacity(tooth.len() * gear.teeth as usize);
+    for n in 0..gear.teeth {
+        let turn = 2.0 * PI * n as f64 / z;
+        // The last point of a tooth is the first of the next.
+        for &(rad, a) in &tooth[..tooth.len() - 1] {
+            points.push([rad * (a + turn).cos(), rad * (a + turn).sin()]);
+        }
+    }
+    points
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;
@@ -501,6 +598,37 @@ mod tests {
         assert!(check_cycloidal(&shallow, &CycloidalLimits::default(), 1.0)
             .iter()
             .any(|d| matches!(d, MeshDefect::ContactRatioTooLow { .. })));
+    }
+
+    #[test]
+    fn the_outline_keeps_within_its_circles_and_interleaves() {
+        let mesh = cycloidal_mesh(1.0, [64, 8], None).unwrap();
+        for i in 0..2 {
+            let g = &mesh.gears[i];
+            let pts = cycloidal_outline(&mesh, i, 12);
+            let radii: Vec<f64> = pts.iter().map(|p| p[0].hypot(p[1])).collect();
+            let max = radii.iter().cloned().fold(0.0, f64::max);
+            let min = radii.iter().cloned().fold(f64::INFINITY, f64::min);
+            assert!(close(max, g.tip_diameter_mm / 2.0, 1e-9), "{i}: {max}");
+            assert!(close(min, g.root_diameter_mm / 2.0, 1e-9), "{i}: {min}");
+        }
+        // Mounted at the centre distance with a wheel tooth on the line of centres and a pinion
+        // space facing it, no point of the pinion lies inside the wheel's tip circle where the
+        // wheel has a tooth: check the wheel tooth on the line against the two leaves beside it.
+        let a = mesh.centre_distance_mm;
+        let pinion: Vec<[f64; 2]> = cycloidal_outline(&mesh, 1, 24)
+            .iter()
+            .map(|p| {
+                let t = PI + PI / 8.0;
+                [a + p[0] * t.cos() - p[1] * t.sin(), p[0] * t.sin() + p[1] * t.cos()]
+            })
+            .collect();
+        let wheel_tooth_half = mesh.gears[0].thickness_mm / 2.0 / 32.0;
+        for p in &pinion {
+            let (rad, ang) = (p[0].hypot(p[1]), p[1].atan2(p[0]));
+            let inside_wheel_tooth = rad < 32.0 && ang.abs() < wheel_tooth_half * 0.999;
+            assert!(!inside_wheel_tooth, "pinion point {p:?} inside the wheel tooth");
+        }
     }
 
     #[test]

@@ -44,7 +44,7 @@ pub mod system;
 pub mod working;
 
 pub use check::{check_mesh, MeshLimits};
-pub use cycloidal::{check_cycloidal, cycloidal_mesh, CycloidalLimits, CycloidalMesh};
+pub use cycloidal::{check_cycloidal, cycloidal_mesh, cycloidal_outline, CycloidalLimits, CycloidalMesh};
 pub use defect::{GearRef, MeshDefect, Role};
 pub use involute::{inv, inv_inverse};
 pub use modules::{

@@ -226,6 +226,9 @@ pub struct StageJson {
     /// Tip diameters `[driver, driven]`, mm.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub tip_diameter_mm: Option<[f64; 2]>,
+    /// The tooth form when it is not involute (`cycloidal`); absent for involute teeth.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub tooth_form: Option<String>,
 }
 
 impl StageJson {
@@ -245,6 +248,7 @@ impl StageJson {
             working_pressure_angle_deg: None,
             contact_ratio: None,
             tip_diameter_mm: None,
+            tooth_form: None,
         }
     }
 }
@@ -277,6 +281,7 @@ impl TrainJson {
                     working_pressure_angle_deg: s.mesh.map(|m| m.working_pressure_angle_deg),
                     contact_ratio: s.mesh.map(|m| m.contact_ratio),
                     tip_diameter_mm: s.mesh.map(|m| m.tip_diameter_mm),
+                    tooth_form: None,
                 })
                 .collect(),
         }

@@ -19,7 +19,8 @@ use crate::trades::clock::strike::StrikePlan;
 
 /// The JSON view of `train`, with the figures of its cycloidal pairs (when `pairs` has one per
 /// stage) in the mesh fields: the centre distance, the contact ratio (leaves in action) and the
-/// tip diameters. No shift and no working pressure angle: cycloidal teeth have neither.
+/// tip diameters, and the tooth form. No shift and no working pressure angle: cycloidal teeth
+/// have neither.
 pub fn train_json(train: &Train, pairs: &[CycloidalMesh]) -> TrainJson {
     let mut t = TrainJson::from_train(train);
     if pairs.len() == t.stages.len() {
@@ -27,6 +28,7 @@ pub fn train_json(train: &Train, pairs: &[CycloidalMesh]) -> TrainJson {
             s.working_centre_distance_mm = Some(c.centre_distance_mm);
             s.contact_ratio = Some(c.contact_ratio);
             s.tip_diameter_mm = Some([c.gears[0].tip_diameter_mm, c.gears[1].tip_diameter_mm]);
+            s.tooth_form = Some("cycloidal".into());
         }
     }
     t
@@ -59,9 +61,9 @@ impl Report for GoingPlan {
         let best = self.trains.first()?;
         let title = format!("Going train 1: i = {}, wheels driving pinions", best.train.ratio);
         Some(pictures::train(
-            &TrainJson::from_train(&best.train).stages,
+            &train_json(&best.train, &best.cycloidal).stages,
             &title,
-            ("driving arbor", "escape arbor"),
+            ("centre arbor", "escape arbor"),
         ))
     }
 }
@@ -94,7 +96,7 @@ impl Report for MotionPlan {
         let layout =
             if self.spec.coaxial { ShaftLayout::Folded { turn_deg: 180.0 } } else { ShaftLayout::Inline };
         Some(pictures::train_laid_out(
-            &TrainJson::from_train(best).stages,
+            &train_json(best, self.cycloidal.first().map_or(&[][..], |v| &v[..])).stages,
             &title,
             ("minute arbor", "hand"),
             layout,
@@ -129,7 +131,7 @@ impl Report for StrikePlan {
             .parts
             .iter()
             .take(4)
-            .map(|g| g.trains.first().map(|t| train_json(t, &[]).stages))
+            .map(|g| g.trains.first().map(|t| train_json(t, g.pairs(0)).stages))
             .collect::<Option<Vec<_>>>()?
             .concat();
         Some(pictures::train(&stages, "Striking train 1: great wheel to fly", ("great wheel", "fly")))

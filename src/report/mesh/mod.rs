@@ -117,6 +117,7 @@ impl Report for MeshReport<'_> {
             working_pressure_angle_deg: Some(g.working_pressure_angle_deg),
             contact_ratio: Some(g.contact_ratio),
             tip_diameter_mm: Some(g.tip_diameter_mm),
+            tooth_form: None,
         };
         let verdict = if self.defects.is_empty() { "runs" } else { "does not run" };
         let title = format!(
