@@ -122,8 +122,8 @@ pub struct SearchArgs {
     #[arg(long)]
     pub coaxial: bool,
     /// Tooth form of every mesh checked: involute, or cycloidal as clock wheels and pinions are
-    /// cut (no shift: not with --coaxial or --shift-sum) [default: involute]. Turns on the mesh
-    /// checks.
+    /// cut (no shift: not with --coaxial or --shift-sum; a fixed --centre-distance mounts each
+    /// pair there as it is) [default: involute]. Turns on the mesh checks.
     #[arg(long, value_enum, value_name = "FORM")]
     pub tooth_form: Option<ToothFormArg>,
     /// Say why stage pairings were left out by the mesh checks.
