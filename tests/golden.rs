@@ -56,6 +56,7 @@ const CASES: &[(&str, &[&str])] = &[
     ("search-nothing", &["search", "--ratio", "1000", "--teeth", "12..20", "--stages", "1"]),
     ("mesh", &["mesh", "--teeth", "17,53", "--module", "2", "--centre-distance", "71"]),
     ("mesh-defects", &["mesh", "--teeth", "12,40", "--diametral-pitch", "8"]),
+    ("mesh-cycloidal", &["mesh", "--teeth", "64,8", "--module", "0.5", "--tooth-form", "cycloidal"]),
     ("draw-stages", &["draw", "--stages", "20:40,15:45", "--module", "2"]),
     (
         "thread",

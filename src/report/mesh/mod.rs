@@ -20,6 +20,8 @@
 //! An open end of `shift_sum_range` is written as `null`. Field names and meanings are stable;
 //! fields may be added.
 
+pub mod cycloidal;
+
 use std::io::Write;
 
 use serde::Serialize;
