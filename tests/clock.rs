@@ -637,6 +637,9 @@ fn search_checks_cycloidal_meshes_and_refuses_a_shifted_coaxial_fit() {
         gearsieve(&["search", "--ratio", "12", "--stages", "2", "--coaxial", "--tooth-form", "cycloidal"]);
     assert_eq!(out.code, 2);
     assert!(out.stderr.contains("--coaxial: cycloidal teeth take no shift"), "{}", out.stderr);
+    let out = gearsieve(&["clock", "motion", "--no-undercut"]);
+    assert_eq!(out.code, 2);
+    assert!(out.stderr.contains("--no-undercut: belongs to involute teeth"), "{}", out.stderr);
 }
 
 #[test]

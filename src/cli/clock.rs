@@ -384,6 +384,9 @@ impl TryFrom<&MotionArgs> for MotionSpec {
         };
         let pinions = teeth(&a.pinions, Quantity::PinionLeaves)?;
         let wheels = teeth(&a.wheels, Quantity::WheelTeeth)?;
+        if a.no_undercut && a.tooth_form == ToothFormArg::Cycloidal {
+            return Err(refuse("--no-undercut", "belongs to involute teeth; give --tooth-form involute too"));
+        }
         Ok(MotionSpec {
             ratio,
             ratio_text,

@@ -256,6 +256,12 @@ impl TryFrom<SearchArgs> for SearchJob {
                     "cycloidal teeth take no shift; give --tooth-form involute",
                 ));
             }
+            if a.allow_undercut {
+                return Err(refuse(
+                    "--allow-undercut",
+                    "belongs to involute teeth; give --tooth-form involute",
+                ));
+            }
         }
         if geometry {
             let mut rules = MeshRules {
