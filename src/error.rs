@@ -265,6 +265,22 @@ pub enum Quantity {
     BeatsPerTooth,
     /// The turns per hour of the arbor a going train starts from.
     InputTurnsPerHour,
+    /// The time one turn of the arbor a clock train starts from takes.
+    InputArborPeriod,
+    /// How long a clock must run at a winding.
+    RunTime,
+    /// The turns of a clock's barrel (or great wheel) at a winding.
+    BarrelTurns,
+    /// The diameter a weight's line winds on, mm.
+    LineBarrelDiameter,
+    /// A clock's beats per minute.
+    BeatsPerMinute,
+    /// The pins of a striking train's pin wheel.
+    StrikePins,
+    /// The turns of a striking train's warning wheel per blow.
+    WarningTurns,
+    /// The turns of a striking train's fly per turn of the warning wheel.
+    FlyTurns,
     /// How far a clock may gain or lose, seconds per day.
     RateTolerance,
     /// The dial a motion work drives.
@@ -357,6 +373,14 @@ impl Quantity {
             Quantity::EscapeTeeth => "the escape wheel teeth",
             Quantity::BeatsPerTooth => "the beats per tooth",
             Quantity::InputTurnsPerHour => "the input arbor's turns per hour",
+            Quantity::InputArborPeriod => "the time per turn of the input arbor",
+            Quantity::RunTime => "the run time",
+            Quantity::BarrelTurns => "the barrel's turns",
+            Quantity::LineBarrelDiameter => "the line barrel's diameter",
+            Quantity::BeatsPerMinute => "the beats per minute",
+            Quantity::StrikePins => "the pin wheel's pins",
+            Quantity::WarningTurns => "the warning wheel's turns per blow",
+            Quantity::FlyTurns => "the fly's turns per warning-wheel turn",
             Quantity::RateTolerance => "the rate tolerance",
             Quantity::Dial => "the dial",
             Quantity::AstronomicalPeriod => "the astronomical period",

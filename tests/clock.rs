@@ -319,7 +319,11 @@ fn hourly_arbor_multiplies_the_ratio_by_24() {
 fn table_and_csv_show_the_trade_words() {
     let r = gearsieve(&["clock", "going", "--period", "2", "--limit", "2", "-q"]);
     assert_eq!(r.code, 0);
-    assert!(r.stdout.contains("wheel → pinion") && r.stdout.contains("escape 60/h (1 min)"), "{}", r.stdout);
+    assert!(
+        r.stdout.contains("wheel → pinion") && r.stdout.contains("escape 60/h (1 min, seconds hand)"),
+        "{}",
+        r.stdout
+    );
     assert!(r.stdout.contains("a speed-up, i < 1"));
     let r = gearsieve(&["clock", "motion", "--format", "csv", "--limit", "2", "-q"]);
     assert_eq!(r.code, 0);
@@ -513,4 +517,308 @@ fn the_demo_bench_stock_gives_a_going_train() {
         wheels.dedup();
         assert_eq!(wheels.len(), pairs(t).len(), "one blank of each wheel size is enough here");
     }
+}
+
+#[test]
+fn the_eight_day_going_train_runs_with_cycloidal_teeth() {
+    // An eight-day longcase going train (common practice, from memory; see the reference
+    // values): centre wheel 64 into an 8-leaf pinion, third wheel 60 into 8, a 30-tooth escape
+    // wheel and a seconds pendulum. Cut cycloidal, as clock wheels are (BS 978 part 2, from
+    // memory), its 8-leaf pinions pass the mesh checks; as 20° involute gears they undercut.
+    let args = ["clock", "going", "--period", "2", "--pinions", "8", "--stages", "2", "--limit", "50", "-q"];
+    let with = |extra: &[&str]| {
+        let mut a = args.to_vec();
+        a.extend_from_slice(extra);
+        json(&a)
+    };
+    let (code, v) = with(&["--check-meshes"]);
+    assert_eq!(code, 0);
+    assert_eq!(v["tooth_form"], "cycloidal");
+    let found = trains(&v).iter().find(|t| {
+        let mut p = pairs(t);
+        p.sort();
+        p == [(60, 8), (64, 8)]
+    });
+    let t = found.expect("64/8 · 60/8 is listed");
+    for c in t["cycloidal"].as_array().unwrap() {
+        let eps = c["contact_ratio"].as_f64().unwrap();
+        assert!(eps > 1.0, "{c}");
+        // The wheel drives: the pinion's addendum is the standard's 0.67 m for 8 leaves.
+        assert!((c["addendum_mm"][1].as_f64().unwrap() - 0.67 * 0.5).abs() < 1e-12, "{c}");
+    }
+    let (code, _) = with(&["--tooth-form", "involute"]);
+    assert_eq!(code, 1, "8-tooth 20° involute pinions undercut");
+}
+
+#[test]
+fn going_trains_with_seven_leaf_pinions_are_offered() {
+    // Seven- and eight-leaf pinions in a going train (common practice, from memory): with
+    // cycloidal teeth a train such as 56/7 · 60/8 is found exact and every mesh runs.
+    let (code, v) = json(&[
+        "clock",
+        "going",
+        "--period",
+        "2",
+        "--pinions",
+        "7..8",
+        "--stages",
+        "2",
+        "--check-meshes",
+        "--limit",
+        "50",
+        "-q",
+    ]);
+    assert_eq!(code, 0);
+    assert!(trains(&v).iter().any(|t| pairs(t).iter().any(|&(_, z)| z == 7)));
+    assert!(trains(&v).iter().any(|t| {
+        let mut p = pairs(t);
+        p.sort();
+        p == [(56, 7), (60, 8)]
+    }));
+}
+
+#[test]
+fn the_classic_motion_work_takes_a_module_per_pair() {
+    // A motion work with an 8-leaf minute pinion (common practice, from memory): cannon pinion
+    // 12 into a minute wheel of 36, minute pinion 8 into an hour wheel of 32, 3 × 4 = 12.
+    // Cycloidal teeth take no shift, so the pairs are made coaxial by their modules:
+    // m·(12 + 36) = m'·(8 + 32), m' = 1.2·m.
+    let (code, v) =
+        json(&["clock", "motion", "--pinions", "8..12", "--wheels", "20..48", "--limit", "100", "-q"]);
+    assert_eq!(code, 0);
+    assert_eq!(v["tooth_form"], "cycloidal");
+    let t = trains(&v).iter().find(|t| pairs(t) == [(12, 36), (8, 32)]).expect("12/36 · 8/32 is listed");
+    let s = t["stages"].as_array().unwrap();
+    assert_eq!(s[0]["module_mm"], 0.5);
+    assert!((s[1]["module_mm"].as_f64().unwrap() - 0.6).abs() < 1e-12);
+    let a: Vec<f64> = s.iter().map(|x| x["reference_centre_distance_mm"].as_f64().unwrap()).collect();
+    assert!((a[0] - 12.0).abs() < 1e-12 && (a[1] - 12.0).abs() < 1e-12, "{a:?}");
+    // As involute gears no pinion of 6 to 9 leaves passes the coaxial mesh checks.
+    let (code, _) = json(&["clock", "motion", "--tooth-form", "involute", "--pinions", "6..9", "-q"]);
+    assert_eq!(code, 1);
+}
+
+#[test]
+fn search_checks_cycloidal_meshes_and_refuses_a_shifted_coaxial_fit() {
+    let (code, v) = json(&[
+        "search",
+        "--ratio",
+        "8",
+        "--teeth",
+        "6..64",
+        "--stages",
+        "1",
+        "--tooth-form",
+        "cycloidal",
+        "-q",
+    ]);
+    assert_eq!(code, 0);
+    assert!(trains(&v).iter().any(|t| pairs(t) == [(8, 64)]));
+    // With a strict least contact ratio the small pinions drop out: 8 → 64 keeps about 1.5
+    // leaves in action (computed above in geometry::cycloidal's tests), so it goes.
+    let (code, v) = json(&[
+        "search",
+        "--ratio",
+        "8",
+        "--teeth",
+        "6..96",
+        "--stages",
+        "1",
+        "--tooth-form",
+        "cycloidal",
+        "--min-contact-ratio",
+        "1.55",
+        "-q",
+    ]);
+    assert_eq!(code, 0);
+    assert!(!trains(&v).is_empty());
+    assert!(trains(&v).iter().all(|t| pairs(t)[0].0 >= 9), "{v}");
+    let out =
+        gearsieve(&["search", "--ratio", "12", "--stages", "2", "--coaxial", "--tooth-form", "cycloidal"]);
+    assert_eq!(out.code, 2);
+    assert!(out.stderr.contains("--coaxial: cycloidal teeth take no shift"), "{}", out.stderr);
+    let out = gearsieve(&["clock", "motion", "--no-undercut"]);
+    assert_eq!(out.code, 2);
+    assert!(out.stderr.contains("--no-undercut: belongs to involute teeth"), "{}", out.stderr);
+}
+
+#[test]
+fn an_eight_day_going_train_from_the_great_wheel() {
+    // An eight-day longcase (common practice, from memory): the great wheel turns once in 12
+    // hours into a centre pinion of 8 (96/8), so 8 days take 16 turns of the barrel; the centre
+    // arbor turns once an hour and carries the minute hand; 64/8 · 60/8 to a 30-tooth escape
+    // wheel with a seconds pendulum puts the seconds hand on the escape arbor.
+    let (code, v) = json(&[
+        "clock",
+        "going",
+        "--period",
+        "2",
+        "--run",
+        "8d",
+        "--barrel-turns",
+        "16",
+        "--pinions",
+        "8",
+        "--stages",
+        "2",
+        "--line-barrel",
+        "40",
+        "--falls",
+        "2",
+        "--check-meshes",
+        "-q",
+    ]);
+    assert_eq!(code, 0);
+    let run = &v["run"];
+    assert_eq!(run["run_hours"], 192.0);
+    assert_eq!(run["barrel_turns"], 16.0);
+    // Computed here: 16 turns of a 40 mm barrel pay out 16·π·40 mm of line; over one pulley the
+    // weight drops half of it.
+    let drop = 16.0 * std::f64::consts::PI * 0.040 / 2.0;
+    assert!((run["drop_m"].as_f64().unwrap() - drop).abs() < 1e-12);
+    let great = &v["great_wheel"];
+    assert_eq!(great["ratio_needed"], "1/12");
+    let gt = &great["trains"][0];
+    assert_eq!(pairs(gt), [(96, 8)]);
+    let arbors = gt["arbors"].as_array().unwrap();
+    assert_eq!(
+        (arbors[0]["arbor"].as_str(), arbors[1]["arbor"].as_str()),
+        (Some("great wheel"), Some("centre"))
+    );
+    assert_eq!(arbors[1]["turns_per_hour"], 1.0);
+    let t =
+        trains(&v).iter().find(|t| pairs(t) == [(64, 8), (60, 8)] || pairs(t) == [(60, 8), (64, 8)]).unwrap();
+    assert_eq!(t["seconds_arbor"], "escape");
+    assert_eq!(t["arbors"][0]["arbor"], "centre");
+}
+
+#[test]
+fn every_going_train_keeps_the_centre_arbor_at_one_turn_an_hour() {
+    // Starting from a great wheel turning once in 12 hours, the train passes through the centre
+    // arbor, which must turn exactly once an hour to carry the minute hand.
+    let (code, v) = json(&[
+        "clock",
+        "going",
+        "--period",
+        "2",
+        "--from-turns-per-hour",
+        "1/12",
+        "--pinions",
+        "8..12",
+        "--stages",
+        "3",
+        "--limit",
+        "20",
+        "-q",
+    ]);
+    assert_eq!(code, 0);
+    for t in trains(&v) {
+        assert_eq!(t["arbors"][0]["arbor"], "centre");
+        assert!((t["arbors"][0]["turns_per_hour"].as_f64().unwrap() - 1.0).abs() < 1e-12, "{t}");
+        let names: Vec<&str> =
+            t["arbors"].as_array().unwrap().iter().map(|a| a["arbor"].as_str().unwrap()).collect();
+        assert_eq!(names, ["centre", "third", "fourth", "escape"]);
+    }
+    for t in v["great_wheel"]["trains"].as_array().unwrap() {
+        let p = pairs(t);
+        let (num, den) = p.iter().fold((1u64, 1u64), |(n, d), &(w, z)| (n * w, d * z));
+        assert_eq!(num, 12 * den, "{p:?}");
+    }
+    // --from 12h names the same arbor by its time per turn.
+    let (_, w) = json(&[
+        "clock",
+        "going",
+        "--period",
+        "2",
+        "--from",
+        "12h",
+        "--pinions",
+        "8..12",
+        "--stages",
+        "3",
+        "--limit",
+        "20",
+        "-q",
+    ]);
+    assert_eq!(v["great_wheel"], w["great_wheel"]);
+    assert_eq!(v["trains"], w["trains"]);
+}
+
+#[test]
+fn beats_per_minute_are_beats_per_hour_over_60() {
+    let (_, a) = json(&["clock", "going", "--beats-per-minute", "60", "--limit", "2", "-q"]);
+    let (_, b) = json(&["clock", "going", "--period", "2", "--limit", "2", "-q"]);
+    assert_eq!(a["beats_per_hour"], 3600.0);
+    assert_eq!(a["beats_per_minute"], 60.0);
+    assert_eq!(a["trains"], b["trains"]);
+    let out = gearsieve(&["clock", "going", "--beats-per-minute", "0"]);
+    assert_eq!(out.code, 2);
+    assert!(out.stderr.contains("--beats-per-minute: \"0\" is zero"), "{}", out.stderr);
+}
+
+#[test]
+fn an_eight_day_count_wheel_strike_is_found() {
+    // An eight-day count-wheel striking train (common practice, from memory): 78 blows in 12
+    // hours, 8 pins, 16 turns of the barrel: great wheel 78 into a pinion of 8 on the pin
+    // wheel's arbor, the count wheel of 78 driven by a pinion of 8 on that arbor.
+    let (code, v) = json(&["clock", "strike", "--check-meshes", "--limit", "20", "-q"]);
+    assert_eq!(code, 0);
+    assert_eq!(v["clock_train"], "strike");
+    assert_eq!(v["blows_per_12_hours"], 78);
+    // Computed here: 8 days = 16 rounds of 12 hours; 78 · 16 blows over 8 pins.
+    assert_eq!(v["blows_in_run"], (78 * 16) as f64);
+    assert_eq!(v["pin_wheel_turns"], (78 * 16 / 8) as f64);
+    let parts = v["parts"].as_array().unwrap();
+    let names: Vec<(&str, &str)> =
+        parts.iter().map(|p| (p["from_arbor"].as_str().unwrap(), p["to_arbor"].as_str().unwrap())).collect();
+    assert_eq!(
+        names,
+        [
+            ("great wheel", "pin wheel"),
+            ("pin wheel", "locking wheel"),
+            ("locking wheel", "warning wheel"),
+            ("warning wheel", "fly"),
+            ("pin wheel", "count wheel")
+        ]
+    );
+    assert!(parts[0]["trains"].as_array().unwrap().iter().any(|t| pairs(t) == [(78, 8)]));
+    assert!(parts[4]["trains"].as_array().unwrap().iter().any(|t| pairs(t) == [(8, 78)]));
+    // The locking wheel turns once a blow: pin wheel teeth over locking pinion = 8 pins.
+    for t in parts[1]["trains"].as_array().unwrap() {
+        let (w, p) = pairs(t)[0];
+        assert_eq!(w, 8 * p);
+    }
+}
+
+#[test]
+fn half_hour_blows_and_a_thirty_hour_run() {
+    // 90 blows in 12 hours with the half hours; over 30 hours 225 blows, 225/8 turns of an
+    // 8-pin wheel; 5 turns of the barrel: 45/8 turns of the pin wheel a turn of the great wheel.
+    let (code, v) = json(&[
+        "clock",
+        "strike",
+        "--half-hours",
+        "--run",
+        "30h",
+        "--barrel-turns",
+        "5",
+        "--limit",
+        "5",
+        "-q",
+    ]);
+    assert_eq!(code, 0);
+    assert_eq!(v["blows_per_12_hours"], 90);
+    assert_eq!(v["blows_in_run"], 225.0);
+    assert_eq!(v["parts"][0]["ratio_needed"], "8/45");
+    for t in v["parts"][0]["trains"].as_array().unwrap() {
+        let p = pairs(t);
+        let (num, den) = p.iter().fold((1u64, 1u64), |(n, d), &(w, z)| (n * w, d * z));
+        assert_eq!(8 * num, 45 * den, "{p:?}");
+    }
+    let out = gearsieve(&["clock", "strike", "--pins", "1"]);
+    assert_eq!(out.code, 2);
+    assert!(out.stderr.contains("--pins: wanted 2 to 30 pins, found 1"), "{}", out.stderr);
+    let out = gearsieve(&["clock", "strike", "--stages", "2"]);
+    assert_eq!(out.code, 2);
+    assert!(out.stderr.contains("--stages: a striking train's parts are one stage each"), "{}", out.stderr);
 }

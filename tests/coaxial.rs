@@ -54,11 +54,11 @@ fn brute_force_motion_work(
 
 #[test]
 fn motion_work_uses_the_whole_common_interval() {
-    // The clock's usual motion work at module 0.5, pinions of 10 leaves or more, no undercut,
-    // least contact ratio 1 (the clock default).
+    // The motion work as involute gears at module 0.5, pinions of 10 leaves or more, no
+    // undercut, least contact ratio 1 (the clock default).
     let limits = MeshLimits { min_contact_ratio: 1.0, allow_undercut: false, ..MeshLimits::default() };
     let expected = brute_force_motion_work(0.5, 10..=20, 20..=96, &limits);
-    let (code, v) = json(&["clock", "motion", "--pinions", "10..20", "--no-undercut", "--limit", "100"]);
+    let (code, v) = json(&["clock", "motion", "--tooth-form", "involute", "--pinions", "10..20", "--no-undercut", "--limit", "100"]);
     assert_eq!(code, 0);
     assert_eq!(v["count"].as_u64().unwrap() as usize, expected.len(), "brute force: {expected:?}");
     let mut listed: Vec<[u32; 4]> = v["trains"]

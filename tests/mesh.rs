@@ -455,3 +455,55 @@ fn conflicting_or_missing_flags_are_refused() {
         assert!(!r.stderr.contains("panicked"), "{args:?}: {}", r.stderr);
     }
 }
+
+#[test]
+fn a_cycloidal_pair_has_the_standard_proportions() {
+    // BS 978 part 2 (from memory): an 8-leaf pinion has an addendum of 0.67 m and a leaf 1.05 m
+    // thick; the wheel's tooth is half the pitch (1.57 m) thick; the pinion's root lies 0.4 m
+    // below the wheel's tips. Checked here by arithmetic on the printed figures.
+    let m = 0.5;
+    let (code, v) = json(&["mesh", "--teeth", "64,8", "--module", "0.5", "--tooth-form", "cycloidal"]);
+    assert_eq!(code, 0);
+    assert_eq!(v["tooth_form"], "cycloidal");
+    let gear = |i: usize, key: &str| v["gears"][i][key].as_f64().unwrap();
+    assert_eq!(v["gears"][1]["role"], "pinion");
+    assert!((gear(1, "addendum_mm") - 0.67 * m).abs() < 1e-12);
+    assert!((gear(1, "thickness_mm") - 1.05 * m).abs() < 1e-12);
+    assert!((gear(0, "thickness_mm") - std::f64::consts::PI / 2.0 * m).abs() < 1e-12);
+    for i in 0..2 {
+        let tip = gear(i, "pitch_diameter_mm") + 2.0 * gear(i, "addendum_mm");
+        assert!((gear(i, "tip_diameter_mm") - tip).abs() < 1e-9);
+    }
+    let a = v["working_centre_distance_mm"].as_f64().unwrap();
+    assert_eq!(a, m * (64.0 + 8.0) / 2.0);
+    let clearance = a - gear(1, "root_diameter_mm") / 2.0 - gear(0, "tip_diameter_mm") / 2.0;
+    assert!((clearance - 0.4 * m).abs() < 1e-9, "{clearance}");
+    // Mounted 0.35 m too close, the pinion's root clearance falls below 0.1 m: exit 1.
+    let (code, v) = json(&[
+        "mesh",
+        "--teeth",
+        "64,8",
+        "--module",
+        "1",
+        "--tooth-form",
+        "cycloidal",
+        "--centre-distance",
+        "35.65",
+    ]);
+    assert_eq!(code, 1);
+    assert_eq!(v["ok"], false);
+    // Flags of involute teeth are refused, not dropped.
+    let r = gearsieve(&[
+        "mesh",
+        "--teeth",
+        "64,8",
+        "--module",
+        "1",
+        "--tooth-form",
+        "cycloidal",
+        "--pressure-angle",
+        "14.5",
+    ]);
+    assert_eq!(r.code, 2);
+    assert!(r.stderr.contains("--pressure-angle: belongs to involute teeth"), "{}", r.stderr);
+}

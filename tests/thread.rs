@@ -945,7 +945,7 @@ proptest! {
         };
         let Ok(pool) = Pool::from_stock(
             &teeth.iter().map(|&t| StockGear { teeth: t, module_mm: 1.0, diametral_pitch: None,
-                pressure_angle_deg: 20.0, quantity: 2, label: String::new() }).collect::<Vec<_>>(),
+                pressure_angle_deg: 20.0, quantity: 2, label: String::new(), made: Some(Default::default()), internal: false }).collect::<Vec<_>>(),
             "random") else { return Ok(()); };
         let lathe = Lathe::new(machine, pool, Some(banjo.clone()), IntRange { lo: 3, hi: 3 },
             Ratio::new(2, 100).unwrap(), 6).unwrap();

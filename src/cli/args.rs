@@ -26,6 +26,25 @@ pub enum FormatArg {
     Html,
 }
 
+/// The tooth form flag.
+#[derive(Clone, Copy, Debug, PartialEq, Eq, ValueEnum)]
+pub enum ToothFormArg {
+    /// Involute teeth by a basic rack, shifted where a centre distance needs it.
+    Involute,
+    /// Cycloidal wheel-and-pinion teeth as clocks are cut: no shift, centre distance
+    /// m·(z1 + z2)/2, pinions from 6 leaves.
+    Cycloidal,
+}
+
+impl From<ToothFormArg> for gearsieve::ToothForm {
+    fn from(f: ToothFormArg) -> gearsieve::ToothForm {
+        match f {
+            ToothFormArg::Involute => gearsieve::ToothForm::Involute,
+            ToothFormArg::Cycloidal => gearsieve::ToothForm::Cycloidal,
+        }
+    }
+}
+
 impl From<FormatArg> for Format {
     fn from(f: FormatArg) -> Format {
         match f {

@@ -8,10 +8,11 @@ use std::path::PathBuf;
 use clap::{ArgGroup, Args};
 use gearsieve::engine::RunOptions;
 use gearsieve::geometry::allowance::BacklashChoice;
+use gearsieve::geometry::cycloidal::MIN_PINION_LEAVES;
 use gearsieve::geometry::measure::{pair_data, PairData};
 use gearsieve::geometry::{
-    check_mesh, mesh_geometry, shift_for_centre_distance, MeshDefect, MeshGeometry, MeshLimits, Mounting,
-    RackProfile, ToothSystem, MM_PER_INCH,
+    check_cycloidal, check_mesh, cycloidal_mesh, mesh_geometry, shift_for_centre_distance, CycloidalLimits,
+    CycloidalMesh, MeshDefect, MeshGeometry, MeshLimits, Mounting, RackProfile, ToothSystem, MM_PER_INCH,
 };
 use gearsieve::model::pool::{
     check_diametral_pitch, check_module, check_pressure_angle, fmt_num, MAX_TEETH, MIN_TEETH,
@@ -19,11 +20,12 @@ use gearsieve::model::pool::{
 use gearsieve::model::problem::{check_min_contact_ratio, DEFAULT_SHIFT_SUM};
 use gearsieve::numbers::length::{parse_length, LengthUnit};
 use gearsieve::numbers::range::parse_signed_range;
+use gearsieve::report::mesh::cycloidal::CycloidalPairReport;
 use gearsieve::report::mesh::{MeshInputs, MeshReport, MountingInput, ShopInputs};
 use gearsieve::report::Report;
 use gearsieve::{Error, Quantity};
 
-use super::args::{chosen_format, number, FormatArg};
+use super::args::{chosen_format, number, FormatArg, ToothFormArg};
 use super::flags::refuse;
 use super::run::{self, Job, Print, Words};
 
@@ -98,6 +100,11 @@ pub struct MeshArgs {
     /// [default: a size touching near the reference circle, rounded to 0.05 mm].
     #[arg(long, value_name = "D1,D2")]
     pub balls: Option<String>,
+    /// Tooth form: involute, or cycloidal as clock wheels and pinions are cut (proportions by
+    /// leaf count, no shift: the rack, pressure angle and shift flags do not apply; a
+    /// --centre-distance mounts the pair there as it is).
+    #[arg(long, value_enum, value_name = "FORM", default_value = "involute")]
+    pub tooth_form: ToothFormArg,
     /// Write the report to FILE (atomically: complete or not at all) instead of standard output.
     #[arg(long, value_name = "FILE")]
     pub output: Option<PathBuf>,
@@ -387,8 +394,109 @@ impl Job for MeshJob {
     }
 }
 
+/// A cycloidal pair to work out and judge.
+#[derive(Debug)]
+pub struct CycloidalJob {
+    module_mm: f64,
+    teeth: [u32; 2],
+    centre_distance_mm: Option<f64>,
+    limits: CycloidalLimits,
+    min_contact_ratio: f64,
+}
+
+impl CycloidalJob {
+    /// The pair asked for, refusing the flags that belong to involute teeth only.
+    fn new(a: &MeshArgs) -> anyhow::Result<CycloidalJob> {
+        let defaults = MeshLimits::default();
+        let rack = RackProfile::default();
+        let involute_only = [
+            ("--shift", a.shift.is_some()),
+            ("--shift-sum", a.shift_sum.is_some()),
+            ("--pressure-angle", a.pressure_angle != 20.0),
+            ("--addendum", a.addendum != rack.addendum),
+            ("--dedendum", a.dedendum != rack.dedendum),
+            ("--root-radius", a.root_radius != rack.root_radius),
+            ("--min-tip-thickness", a.min_tip_thickness != defaults.min_tip_thickness_modules),
+            ("--allow-undercut", a.allow_undercut),
+        ];
+        if let Some((flag, _)) = involute_only.iter().find(|(_, given)| *given) {
+            return Err(refuse(
+                flag,
+                "belongs to involute teeth; give --tooth-form involute, or leave it out",
+            ));
+        }
+        let module_mm = match (a.module, a.diametral_pitch) {
+            (Some(m), _) => check_module(m, &|e| Error::value(Quantity::Module, e))?,
+            (None, Some(p)) => check_diametral_pitch(p, &|e| Error::value(Quantity::DiametralPitch, e))?,
+            (None, None) => return Err(refuse("--module", "wanted a module in mm, or --diametral-pitch")),
+        };
+        let teeth = parse_teeth(&a.teeth)?;
+        if teeth[0].min(teeth[1]) < MIN_PINION_LEAVES {
+            return Err(refuse(
+                "--teeth",
+                format!(
+                    "cycloidal pinion proportions start at {MIN_PINION_LEAVES} leaves, found {},{}",
+                    teeth[0], teeth[1]
+                ),
+            ));
+        }
+        Ok(CycloidalJob {
+            module_mm,
+            teeth,
+            centre_distance_mm: a
+                .centre_distance
+                .as_deref()
+                .map(|cd| {
+                    parse_length(cd, Quantity::CentreDistance, Some(LengthUnit::Millimetre))
+                        .map(|l| l.mm_f64())
+                })
+                .transpose()?,
+            limits: CycloidalLimits::default(),
+            min_contact_ratio: check_min_contact_ratio(a.min_contact_ratio)?,
+        })
+    }
+}
+
+impl Job for CycloidalJob {
+    type Found = (CycloidalMesh, Vec<MeshDefect>);
+
+    fn search(&self, _options: &RunOptions) -> anyhow::Result<Self::Found> {
+        let mesh = cycloidal_mesh(self.module_mm, self.teeth, self.centre_distance_mm)
+            .map_err(|d| refuse("--centre-distance", d.to_string()))?;
+        let defects = check_cycloidal(&mesh, &self.limits, self.min_contact_ratio);
+        Ok((mesh, defects))
+    }
+
+    fn report<'a>(&'a self, found: &'a Self::Found) -> Box<dyn Report + 'a> {
+        Box::new(CycloidalPairReport {
+            mesh: &found.0,
+            limits: &self.limits,
+            min_contact_ratio: self.min_contact_ratio,
+            defects: &found.1,
+        })
+    }
+
+    fn words(&self, _found: &Self::Found) -> Words {
+        Words { interrupted: None, nothing: None }
+    }
+
+    fn shows_progress(&self) -> bool {
+        false
+    }
+}
+
 /// Run `gearsieve mesh`: 0 when the mesh runs, 1 when it has defects.
 pub fn run(args: MeshArgs) -> anyhow::Result<i32> {
+    if args.tooth_form == ToothFormArg::Cycloidal {
+        let job = CycloidalJob::new(&args)?;
+        let print = Print {
+            format: chosen_format(args.format, args.output.as_deref(), FormatArg::Table).into(),
+            output: args.output.clone(),
+            threads: None,
+            quiet: true,
+        };
+        return run::run(&job, &print);
+    }
     let job = MeshJob::try_from(args)?;
     let print = Print { format: job.format.into(), output: job.output.clone(), threads: None, quiet: true };
     run::run(&job, &print)

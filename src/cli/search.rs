@@ -19,7 +19,7 @@ use gearsieve::report::search::SearchReport;
 use gearsieve::report::{RenderError, Report};
 use gearsieve::{EngineChoice, Error, Problem, Quantity, RunOptions, StageLimits};
 
-use super::args::{load_stock, number, FormatArg, PrintArgs};
+use super::args::{load_stock, number, FormatArg, PrintArgs, ToothFormArg};
 use super::flags::refuse;
 use super::hints;
 use super::progress::Bar;
@@ -123,6 +123,11 @@ pub struct SearchArgs {
     /// centre distance, reached by profile shift; modules may differ.
     #[arg(long)]
     pub coaxial: bool,
+    /// Tooth form of every mesh checked: involute, or cycloidal as clock wheels and pinions are
+    /// cut (no shift: not with --coaxial or --shift-sum; a fixed --centre-distance mounts each
+    /// pair there as it is) [default: involute]. Turns on the mesh checks.
+    #[arg(long, value_enum, value_name = "FORM")]
+    pub tooth_form: Option<ToothFormArg>,
     /// Say why stage pairings were left out by the mesh checks.
     #[arg(long)]
     pub explain: bool,
@@ -236,9 +241,33 @@ impl TryFrom<SearchArgs> for SearchJob {
             || a.allow_undercut
             || fixed_centre.is_some()
             || a.shift_sum.is_some()
-            || a.min_contact_ratio.is_some();
+            || a.min_contact_ratio.is_some()
+            || a.tooth_form.is_some();
+        let tooth_form = a.tooth_form.unwrap_or(ToothFormArg::Involute);
+        if tooth_form == ToothFormArg::Cycloidal {
+            if a.coaxial {
+                return Err(refuse(
+                    "--coaxial",
+                    "cycloidal teeth take no shift, so a coaxial train needs a module per pair; \
+                     give --tooth-form involute, or use gearsieve clock motion",
+                ));
+            }
+            if a.shift_sum.is_some() {
+                return Err(refuse(
+                    "--shift-sum",
+                    "cycloidal teeth take no shift; give --tooth-form involute",
+                ));
+            }
+            if a.allow_undercut {
+                return Err(refuse(
+                    "--allow-undercut",
+                    "belongs to involute teeth; give --tooth-form involute",
+                ));
+            }
+        }
         if geometry {
             let mut rules = MeshRules {
+                tooth_form: tooth_form.into(),
                 centre_distance_mm: fixed_centre,
                 centre_tolerance_mm: a.centre_tol,
                 coaxial: a.coaxial,

@@ -11,11 +11,11 @@ use std::sync::{Mutex, OnceLock};
 
 use crate::geometry::Making;
 use crate::geometry::{
-    check_mesh, common_windows, mesh_as_made, running_window, MeshDefect, MeshGeometry, MeshLimits,
-    ToothSystem,
+    check_cycloidal, check_mesh, common_windows, cycloidal_mesh, mesh_as_made, running_window, MeshDefect,
+    MeshGeometry, MeshLimits, ToothSystem,
 };
 use crate::model::pool::{MeshGroup, MAX_STAGES};
-use crate::model::problem::{MeshRules, Problem};
+use crate::model::problem::{MeshRules, Problem, ToothForm};
 use crate::model::rank::Candidate;
 use crate::model::train::{Gear, Stage, Train};
 use crate::numbers::rational::{Ratio, RelError};
@@ -62,13 +62,21 @@ fn defect_kind(d: &MeshDefect) -> String {
 
 /// Work out one stage's mesh under `rules` at its known centre distance (the fixed one, or as
 /// close as the gears go: gears to cut with the undercut split of a zero shift sum), and check
-/// it runs. Gears on hand keep their shift and tip (see [`mesh_as_made`]).
+/// it runs. Gears on hand keep their shift and tip (see [`mesh_as_made`]). A cycloidal stage is
+/// checked at the fixed distance or its standard one and keeps no involute geometry.
 fn stage_mesh(
     rules: &MeshRules,
     group: &MeshGroup,
     teeth: [u32; 2],
     made: Making,
-) -> Result<MeshGeometry, MeshDefect> {
+) -> Result<Option<MeshGeometry>, MeshDefect> {
+    if rules.tooth_form == ToothForm::Cycloidal {
+        let mesh = cycloidal_mesh(group.module_mm, teeth, rules.centre_distance_mm)?;
+        return match check_cycloidal(&mesh, &rules.cycloidal, rules.limits.min_contact_ratio).first() {
+            Some(d) => Err(*d),
+            None => Ok(None),
+        };
+    }
     let sys = ToothSystem::new(group.module_mm, group.pressure_angle_deg, rules.rack)?;
     let standard = sys.standard_centre_distance_mm(teeth);
     let at = match rules.centre_distance_mm {
@@ -86,7 +94,7 @@ fn stage_mesh(
     )?;
     match check_mesh(&mesh, &rules.limits).first() {
         Some(d) => Err(*d),
-        None => Ok(mesh),
+        None => Ok(Some(mesh)),
     }
 }
 
@@ -110,6 +118,12 @@ fn made_defects(group: &MeshGroup, teeth: [u32; 2], made: Making) -> Vec<MeshDef
             .collect(),
         Err(d) => vec![d],
     }
+}
+
+/// Does a train under `rules` need one working centre distance found for it by profile shift?
+/// (Coaxial involute trains without a fixed distance; cycloidal teeth take no shift.)
+fn needs_fit(rules: &MeshRules) -> bool {
+    rules.coaxial && rules.centre_distance_mm.is_none() && rules.tooth_form == ToothForm::Involute
 }
 
 /// Everything an engine needs, prepared once per search.
@@ -145,8 +159,8 @@ impl<'p> SearchSpace<'p> {
         let lim = &problem.limits;
         let mut stages = Vec::new();
         let mut rejected: Vec<Rejection> = Vec::new();
-        // Coaxial trains without a fixed distance find their common distance per train.
-        let per_stage_mesh = problem.mesh.as_ref().filter(|r| !r.coaxial || r.centre_distance_mm.is_some());
+        // Coaxial involute trains without a fixed distance find their common distance per train.
+        let per_stage_mesh = problem.mesh.as_ref().filter(|r| !needs_fit(r));
         for (i, a) in pool.gears.iter().enumerate() {
             if lim.driver_teeth.is_some_and(|r| !r.contains(a.teeth)) {
                 continue;
@@ -172,7 +186,7 @@ impl<'p> SearchSpace<'p> {
                     None => None,
                     Some(rules) => {
                         match stage_mesh(rules, &pool.groups[a.group], [a.teeth, b.teeth], [a.made, b.made]) {
-                            Ok(m) => Some(m),
+                            Ok(m) => m,
                             Err(d) => {
                                 let kind = defect_kind(&d);
                                 match rejected.iter_mut().find(|r| r.kind == kind) {
@@ -218,7 +232,7 @@ impl<'p> SearchSpace<'p> {
         let values = stages.iter().map(|s| s.value).collect();
         let r = problem.target.ratio.to_f64();
         let t = problem.target.tolerance.to_f64();
-        let coaxial = problem.mesh.as_ref().is_some_and(|r| r.coaxial && r.centre_distance_mm.is_none());
+        let coaxial = problem.mesh.as_ref().is_some_and(needs_fit);
         let windows = if coaxial { stages.iter().map(|_| OnceLock::new()).collect() } else { Vec::new() };
         SearchSpace {
             problem,
@@ -313,7 +327,7 @@ impl<'p> SearchSpace<'p> {
     }
 
     pub(crate) fn needs_coaxial_fit(&self) -> bool {
-        self.problem.mesh.as_ref().is_some_and(|r| r.coaxial && r.centre_distance_mm.is_none())
+        self.problem.mesh.as_ref().is_some_and(needs_fit)
     }
 
     /// A stage's running window: the centre distances at which it runs (see [`running_window`]).

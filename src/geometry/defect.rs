@@ -142,6 +142,27 @@ pub enum MeshDefect {
     },
     /// A defect only an internal mesh (a pinion inside a ring gear) can have.
     Internal(InternalDefect),
+    /// Too little radial room between one gear's root circle and the mate's tips.
+    RootClearanceTooSmall {
+        /// The gear whose tips come close.
+        tips_of: GearRef,
+        /// The gear whose root they come close to.
+        root_of: GearRef,
+        /// The clearance, mm (negative: the tips would strike the root).
+        clearance_mm: f64,
+        /// The least clearance wanted, mm.
+        min_mm: f64,
+    },
+    /// A cycloidal pair drives too much of each leaf before the line of centres, where the
+    /// teeth engage with friction.
+    ActionBeforeLineOfCentres {
+        /// The driving gear.
+        driver: GearRef,
+        /// The part of each leaf's pitch driven before the line of centres.
+        fraction: f64,
+        /// The largest part allowed.
+        max: f64,
+    },
 }
 
 impl fmt::Display for MeshDefect {
@@ -211,6 +232,18 @@ impl fmt::Display for MeshDefect {
                  running"
             ),
             MeshDefect::Internal(defect) => defect.fmt(f),
+            MeshDefect::RootClearanceTooSmall { tips_of, root_of, clearance_mm, min_mm } => write!(
+                f,
+                "the tips of {tips_of} would come within {clearance_mm:.3} mm of the root of \
+                 {root_of}: at least {min_mm:.3} mm of clearance is wanted"
+            ),
+            MeshDefect::ActionBeforeLineOfCentres { driver, fraction, max } => write!(
+                f,
+                "driven by {driver}, {:.0}% of each leaf's action would come before the line of \
+                 centres (engaging friction), more than the {:.0}% allowed",
+                100.0 * fraction,
+                100.0 * max
+            ),
         }
     }
 }

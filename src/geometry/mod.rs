@@ -1,6 +1,7 @@
 //! Mesh geometry of external involute spur gears: the ISO 21771 relations between module,
 //! pressure angle, tooth counts, profile shift and centre distance, with the checks that tell
-//! whether a pair would run (undercut, pointed tips, interference, contact ratio).
+//! whether a pair would run (undercut, pointed tips, interference, contact ratio); and the
+//! cycloidal wheel-and-pinion teeth of clocks with their own checks.
 //!
 //! Pure arithmetic: nothing here prints, parses or does I/O, and nothing depends on the rest of
 //! the crate except that a [`MeshDefect`] converts into the crate's error. It does not choose
@@ -17,6 +18,9 @@
 //!   gear to cut is shifted), and the window of centre distances at which a pair runs.
 //! - [`defect`]: the words for what can be wrong: [`MeshDefect`], [`GearRef`], [`Role`].
 //! - [`check`]: [`MeshLimits`] and [`check_mesh`].
+//! - [`cycloidal`]: cycloidal (horological) wheel-and-pinion teeth as clocks are cut: the
+//!   proportions by leaf count, the arcs of action either side of the line of centres, and
+//!   [`cycloidal::check_cycloidal`].
 //! - [`internal`]: internal meshes (a pinion inside a ring gear): the ring's circles, working
 //!   pressure angle and centre distance from the shift difference, contact ratio, and the
 //!   interference checks of [`internal::check_internal_mesh`].
@@ -35,6 +39,7 @@
 
 pub mod allowance;
 pub mod check;
+pub mod cycloidal;
 pub mod defect;
 pub mod internal;
 pub mod involute;
@@ -48,6 +53,7 @@ pub mod system;
 pub mod working;
 
 pub use check::{check_mesh, MeshLimits};
+pub use cycloidal::{check_cycloidal, cycloidal_mesh, cycloidal_outline, CycloidalLimits, CycloidalMesh};
 pub use defect::{GearRef, MeshDefect, Role};
 pub use involute::{inv, inv_inverse};
 pub use made::{common_windows, mesh_as_made, running_window, AsMade, Making};

@@ -6,7 +6,7 @@ use std::fmt;
 use std::sync::Arc;
 
 use crate::error::{Error, Quantity, Result};
-use crate::geometry::{MeshLimits, RackProfile};
+use crate::geometry::{CycloidalLimits, MeshLimits, RackProfile};
 use crate::model::pool::{Pool, MAX_STAGES};
 use crate::model::rank::RankKey;
 use crate::model::train::{Direction, Train};
@@ -90,10 +90,39 @@ pub const DEFAULT_SHIFT_SUM: (f64, f64) = (-0.5, 1.0);
 /// this close needs no profile shift.
 pub const DEFAULT_CENTRE_TOLERANCE_MM: f64 = 0.01;
 
-/// Mesh geometry rules. When a problem has them, every stage is worked out as an involute mesh
-/// (profile shifts split by the geometry module's rule) and kept only if it runs.
+/// The form the teeth of every stage are cut to.
+#[derive(Debug, Clone, Copy, Default, PartialEq, Eq, serde::Serialize)]
+#[serde(rename_all = "lowercase")]
+pub enum ToothForm {
+    /// Involute teeth by a basic rack, shifted where a centre distance needs it.
+    #[default]
+    Involute,
+    /// Cycloidal (horological) wheel-and-pinion teeth as clocks are cut, with no shift, at the
+    /// centre distance m·(z1 + z2)/2 ([`crate::geometry::cycloidal`]).
+    Cycloidal,
+}
+
+impl ToothForm {
+    /// `involute` or `cycloidal`.
+    pub fn as_str(self) -> &'static str {
+        match self {
+            ToothForm::Involute => "involute",
+            ToothForm::Cycloidal => "cycloidal",
+        }
+    }
+}
+
+/// Mesh geometry rules. When a problem has them, every stage is worked out in its tooth form
+/// (an involute mesh with profile shifts split by the geometry module's rule, or a cycloidal
+/// pair) and kept only if it runs.
 #[derive(Debug, Clone, PartialEq)]
 pub struct MeshRules {
+    /// The tooth form of every stage. A cycloidal stage takes no shift: the rack, shift-sum
+    /// range and the tip-thickness and undercut limits do not apply to it, and a coaxial train
+    /// is left to the trade (a module per pair, as clockmakers do).
+    pub tooth_form: ToothForm,
+    /// What a cycloidal mesh must meet besides the least contact ratio in `limits`.
+    pub cycloidal: CycloidalLimits,
     /// Basic rack both gears of every stage are cut with.
     pub rack: RackProfile,
     /// What a mesh must meet (contact ratio, tip thickness, undercut).
@@ -113,6 +142,8 @@ pub struct MeshRules {
 impl Default for MeshRules {
     fn default() -> Self {
         MeshRules {
+            tooth_form: ToothForm::Involute,
+            cycloidal: CycloidalLimits::default(),
             rack: RackProfile::default(),
             limits: MeshLimits::default(),
             shift_sum: DEFAULT_SHIFT_SUM,

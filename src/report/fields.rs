@@ -256,6 +256,9 @@ pub struct StageJson {
     /// worked-out meshes).
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub gear_data: Option<crate::geometry::measure::PairData>,
+    /// The tooth form when it is not involute (`cycloidal`); absent for involute teeth.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub tooth_form: Option<String>,
 }
 
 impl StageJson {
@@ -278,6 +281,7 @@ impl StageJson {
             backlash_mm: None,
             on_hand_defects: Vec::new(),
             gear_data: None,
+            tooth_form: None,
         }
     }
 }
@@ -313,6 +317,7 @@ impl TrainJson {
                     backlash_mm: s.mesh.map(|m| m.backlash_mm).filter(|&j| j > 1e-9),
                     on_hand_defects: s.on_hand_defects.iter().map(ToString::to_string).collect(),
                     gear_data: None,
+                    tooth_form: None,
                 })
                 .collect(),
         }

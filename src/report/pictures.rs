@@ -9,7 +9,8 @@ use super::drawing::{Drawing, Pen, Shape};
 use super::fields::StageJson;
 use super::{Completion, Document, Report, Table};
 use crate::geometry::layout::{shaft_centres, ShaftLayout};
-use crate::geometry::outline::{gear_outline, mesh_rotation, BacklashSide, Outline};
+use crate::geometry::outline::{gear_outline, mesh_rotation, BacklashSide};
+use crate::geometry::{cycloidal_mesh, cycloidal_outline};
 use crate::geometry::{mesh_geometry, Mounting, RackProfile, ToothSystem};
 use crate::model::pool::fmt_num;
 
@@ -25,8 +26,11 @@ pub fn label_mm(r_mm: f64) -> f64 {
 struct GearAt {
     shaft: usize,
     centre: [f64; 2],
-    /// The true tooth outline and its rotation, when the geometry could work it out.
-    outline: Option<(Outline, f64)>,
+    /// The true tooth outline (points in the gear's own frame, mm) and its rotation, when the
+    /// geometry could work it out.
+    outline: Option<(Vec<[f64; 2]>, f64)>,
+    /// Cycloidal teeth: no base circle to draw.
+    cycloidal: bool,
     teeth: u32,
     module_mm: f64,
     pressure_angle_deg: f64,
@@ -44,11 +48,16 @@ impl GearAt {
         let c = self.centre;
         let circle = |r: f64, pen| Shape::Circle { centre: c, radius_mm: r, pen };
         let pen = if self.back { Pen::BackPlane } else { Pen::Outline };
-        out.push(circle(base / 2.0, Pen::Base));
+        if !self.cycloidal {
+            out.push(circle(base / 2.0, Pen::Base));
+        }
         out.push(circle(d / 2.0, Pen::Pitch));
         match &self.outline {
-            Some((outline, rotation)) => {
-                out.push(Shape::Path { points: outline.placed(c, *rotation), closed: true, pen })
+            Some((points, rotation)) => {
+                let (sin, cos) = rotation.sin_cos();
+                let placed =
+                    points.iter().map(|p| [c[0] + cos * p[0] - sin * p[1], c[1] + sin * p[0] + cos * p[1]]);
+                out.push(Shape::Path { points: placed.collect(), closed: true, pen })
             }
             None => {
                 out.push(circle(root / 2.0, Pen::Root));
@@ -73,11 +82,17 @@ fn stage_gears(
     let tip = |i: usize, z: u32| {
         s.tip_diameter_mm.map_or(s.module_mm * (z as f64 + 2.0 * (rack.addendum + shift[i])), |t| t[i])
     };
-    let outlines = stage_outlines(s, rack, shift, from, to, driver_rotation);
+    let cycloidal = s.tooth_form.as_deref() == Some("cycloidal");
+    let outlines = if cycloidal {
+        cycloidal_outlines(s, from, to, driver_rotation)
+    } else {
+        stage_outlines(s, rack, shift, from, to, driver_rotation)
+    };
     let gear = |i: usize, centre: [f64; 2], teeth: u32| GearAt {
         shaft: k + i,
         centre,
         outline: outlines.as_ref().map(|o| o[i].clone()),
+        cycloidal,
         teeth,
         module_mm: s.module_mm,
         pressure_angle_deg: s.pressure_angle_deg,
@@ -99,7 +114,7 @@ fn stage_outlines(
     from: [f64; 2],
     to: [f64; 2],
     driver_rotation: Option<f64>,
-) -> Option<[(Outline, f64); 2]> {
+) -> Option<[(Vec<[f64; 2]>, f64); 2]> {
     let system = ToothSystem::new(s.module_mm, s.pressure_angle_deg, rack).ok()?;
     let teeth = [s.driver, s.driven];
     let mesh = mesh_geometry(&system, teeth, Mounting::Shifted { shift }).ok()?;
@@ -109,7 +124,25 @@ fn stage_outlines(
     // The mesh's own frame runs along the line of centres.
     let driver = driver_rotation.unwrap_or(heading);
     let driven = heading + mesh_rotation(&mesh, driver - heading, BacklashSide::Split);
-    Some([(outline(0)?, driver), (outline(1)?, driven)])
+    Some([(outline(0)?.points, driver), (outline(1)?.points, driven)])
+}
+
+/// Both gears' cycloidal outlines and rotations along the line from `from` to `to`, the driver
+/// turned by `driver_rotation` (by default a tooth along the line), the driven gear with a space
+/// facing it.
+fn cycloidal_outlines(
+    s: &StageJson,
+    from: [f64; 2],
+    to: [f64; 2],
+    driver_rotation: Option<f64>,
+) -> Option<[(Vec<[f64; 2]>, f64); 2]> {
+    let mesh = cycloidal_mesh(s.module_mm, [s.driver, s.driven], s.working_centre_distance_mm).ok()?;
+    let heading = (to[1] - from[1]).atan2(to[0] - from[0]);
+    let driver = driver_rotation.unwrap_or(heading);
+    let (z1, z2) = (f64::from(s.driver), f64::from(s.driven));
+    let driven = heading + std::f64::consts::PI - std::f64::consts::PI / z2 - (driver - heading) * z1 / z2;
+    let steps = 8;
+    Some([(cycloidal_outline(&mesh, 0, steps), driver), (cycloidal_outline(&mesh, 1, steps), driven)])
 }
 
 /// What the first and the last shaft of a train are called in the trade's words: `input` and
@@ -240,9 +273,16 @@ pub fn train_on_centres(stages: &[StageJson], at: &Arrangement, title: &str, nam
         shapes,
         notes: vec![
             format!("{}.", carries.join("; ")),
-            "Centre distances a in mm. Solid: front plane; dashed grey: back plane of a shared shaft. \
-             Teeth as the basic rack cuts them; circles: pitch (dash-dot), base (thin). Drawn to scale."
-                .to_string(),
+            if stages.iter().any(|s| s.tooth_form.as_deref() == Some("cycloidal")) {
+                "Centre distances a in mm. Solid: front plane; dashed grey: back plane of a shared shaft. \
+                 Teeth cycloidal: radial flanks below the pitch circle, wheel tips on their epicycloid, \
+                 pinion tips rounded; circles: pitch (dash-dot). Drawn to scale."
+                    .to_string()
+            } else {
+                "Centre distances a in mm. Solid: front plane; dashed grey: back plane of a shared shaft. \
+                 Teeth as the basic rack cuts them; circles: pitch (dash-dot), base (thin). Drawn to scale."
+                    .to_string()
+            },
         ],
     }
 }

@@ -5,12 +5,14 @@
 use std::io::{self, Write};
 
 use super::document::arbor_names;
+use super::train_json;
 use crate::model::problem::Problem;
 use crate::model::train::Train;
 use crate::report::fields::{decimals, small, train_cells, StageColumns, TrainJson, TRAIN_HEADER};
 use crate::trades::clock::astro::AstroPlan;
 use crate::trades::clock::going::GoingPlan;
 use crate::trades::clock::motion::MotionPlan;
+use crate::trades::clock::strike::StrikePlan;
 
 /// Header and rows: `rank`, the train columns, `extra` columns, then the stage columns.
 fn write_rows<T>(
@@ -19,7 +21,7 @@ fn write_rows<T>(
     mesh: bool,
     extra: &[String],
     items: &[T],
-    train: impl Fn(&T) -> &Train,
+    train: impl Fn(&T) -> TrainJson,
     cells: impl Fn(&T) -> Vec<String>,
 ) -> io::Result<()> {
     let stages = StageColumns { stages: problem.stages.hi as usize, mesh };
@@ -30,7 +32,7 @@ fn write_rows<T>(
     head.extend(stages.header());
     c.write_record(&head)?;
     for (n, item) in items.iter().enumerate() {
-        let t = TrainJson::from_train(train(item));
+        let t = train(item);
         let mut row = vec![(n + 1).to_string()];
         row.extend(train_cells(&t));
         row.extend(cells(item));
@@ -43,26 +45,23 @@ fn write_rows<T>(
 /// Write a going-train search: the rate error and the speed of every arbor, named by its place.
 pub fn write_going(p: &GoingPlan, w: &mut dyn Write) -> io::Result<()> {
     let arbors = p.problem.stages.hi as usize + 1;
-    let mut extra = vec!["rate_s_per_day".to_string()];
+    let mut extra = ["rate_s_per_day", "tooth_form", "seconds_arbor"].map(String::from).to_vec();
     for k in 1..=arbors {
         extra.push(format!("arbor{k}_name"));
         extra.push(format!("arbor{k}_turns_per_hour"));
     }
-    let driving = if p.spec.from_turns_per_hour == crate::numbers::rational::Ratio::integer(1) {
-        "centre"
-    } else {
-        "driving"
-    };
+    let form = p.spec.meshes.map_or("", |m| m.tooth_form.as_str());
     write_rows(
         w,
         &p.problem,
-        false,
+        p.spec.meshes.is_some(),
         &extra,
         &p.trains,
-        |g| &g.train,
+        |g| train_json(&g.train, &g.cycloidal),
         |g| {
-            let mut cells = vec![decimals(g.rate_s_per_day, 3)];
-            let names = arbor_names(g.train.stages.len(), driving);
+            let names = arbor_names(g.train.stages.len(), "centre");
+            let seconds = g.seconds_arbor.map_or(String::new(), |k| names[k].clone());
+            let mut cells = vec![decimals(g.rate_s_per_day, 3), form.to_string(), seconds];
             for k in 0..arbors {
                 match (names.get(k), g.arbor_turns_per_hour.get(k)) {
                     (Some(name), Some(v)) => cells.extend([name.clone(), decimals(*v, 6)]),
@@ -76,7 +75,18 @@ pub fn write_going(p: &GoingPlan, w: &mut dyn Write) -> io::Result<()> {
 
 /// Write a motion-work search, with the worked-out meshes.
 pub fn write_motion(p: &MotionPlan, w: &mut dyn Write) -> io::Result<()> {
-    write_rows(w, &p.problem, true, &[], &p.trains, |t| t, |_| Vec::new())
+    let pairs = |k: usize| p.cycloidal.get(k).map_or(&[][..], |v| &v[..]);
+    let numbered: Vec<(usize, &Train)> = p.trains.iter().enumerate().collect();
+    let form = p.spec.tooth_form.as_str();
+    write_rows(
+        w,
+        &p.problem,
+        true,
+        &["tooth_form".to_string()],
+        &numbered,
+        |&(k, t)| train_json(t, pairs(k)),
+        |_| vec![form.to_string()],
+    )
 }
 
 /// Write an astronomical-train search: the dial period, the drift and the days to a day out.
@@ -88,7 +98,7 @@ pub fn write_astro(p: &AstroPlan, w: &mut dyn Write) -> io::Result<()> {
         false,
         &extra,
         &p.trains,
-        |a| &a.train,
+        |a| TrainJson::from_train(&a.train),
         |a| {
             vec![
                 decimals(a.period_days, 9),
@@ -97,4 +107,27 @@ pub fn write_astro(p: &AstroPlan, w: &mut dyn Write) -> io::Result<()> {
             ]
         },
     )
+}
+
+/// Write a striking-train search: one row per train of each part, the part named by its first
+/// and last arbors.
+pub fn write_strike(p: &StrikePlan, w: &mut dyn Write) -> io::Result<()> {
+    let most = p.parts.iter().map(|g| g.part.stages.hi as usize).max().unwrap_or(1);
+    let stages = StageColumns { stages: most, mesh: p.spec.meshes.is_some() };
+    let mut c = ::csv::Writer::from_writer(w);
+    let mut head = ["part_from", "part_to", "rank"].map(String::from).to_vec();
+    head.extend(TRAIN_HEADER.iter().map(|s| s.to_string()));
+    head.extend(stages.header());
+    c.write_record(&head)?;
+    for g in &p.parts {
+        for (n, t) in g.trains.iter().enumerate() {
+            let t = train_json(t, g.pairs(n));
+            let mut row = vec![g.part.arbors[0].clone(), g.part.arbors[g.part.arbors.len() - 1].clone()];
+            row.push((n + 1).to_string());
+            row.extend(train_cells(&t));
+            row.extend(stages.cells(&t));
+            c.write_record(&row)?;
+        }
+    }
+    c.flush()
 }

@@ -1,7 +1,9 @@
 //! Clock trains laid out for people: a header saying what was asked in the clockmaker's terms,
 //! the trains in columns, and a footer with the conventions. It computes nothing about gears.
 
+use crate::geometry::CycloidalMesh;
 use crate::model::pool::fmt_num;
+use crate::model::problem::ToothForm;
 use crate::model::train::Train;
 use crate::report::words::{count_line, describe_error, describe_tolerance, CONVENTION};
 use crate::report::{Document, Table};
@@ -9,6 +11,8 @@ use crate::trades::clock::astro::AstroPlan;
 use crate::trades::clock::beat::BeatSource;
 use crate::trades::clock::going::GoingPlan;
 use crate::trades::clock::motion::{stage_names, MotionPlan};
+use crate::trades::clock::part::PartPlan;
+use crate::trades::clock::strike::StrikePlan;
 
 /// Arbor names of a going train of `stages` stages from the centre arbor: centre, third,
 /// fourth…, escape; `driving` replaces `centre` when the train starts from another arbor.
@@ -18,6 +22,79 @@ pub fn arbor_names(stages: usize, driving: &str) -> Vec<String> {
     v.extend(ORDINALS.iter().take(stages.saturating_sub(1)).map(|s| s.to_string()));
     v.push("escape".into());
     v
+}
+
+/// A run time for people: `8 d`, `30 h`, `32 d 12 h`.
+pub fn describe_hours(hours: f64) -> String {
+    let days = (hours / 24.0).floor();
+    let rest = hours - 24.0 * days;
+    match (days > 0.0, rest > 1e-9) {
+        (true, false) => format!("{} d", fmt_num(days)),
+        (true, true) => format!("{} d {} h", fmt_num(days), fmt_num(rest)),
+        _ => format!("{} h", fmt_num(hours)),
+    }
+}
+
+/// The whole train from its driving arbor, a first part (named `names`) then the centre-to-escape
+/// train: `great wheel 96 → centre pinion 8; centre wheel 64 → third pinion 8; …`.
+pub fn whole_train(names: &[String], first: &Train, then: &Train) -> String {
+    let centre_on = arbor_names(then.stages.len(), "centre");
+    let mut all: Vec<String> = names.to_vec();
+    all.extend(centre_on.into_iter().skip(1));
+    first
+        .stages
+        .iter()
+        .chain(&then.stages)
+        .enumerate()
+        .map(|(k, s)| {
+            format!("{} wheel {} → {} pinion {}", all[k], s.driver.teeth, all[k + 1], s.driven.teeth)
+        })
+        .collect::<Vec<_>>()
+        .join("; ")
+        .replace("great wheel wheel", "great wheel")
+}
+
+/// A part of a train (its own search between two arbors of fixed speeds) as a table: the
+/// count, then each train with its arbors' speeds and, when checked, its meshes.
+/// `from_turns_per_hour` gives the first arbor's speed for a going train; without it (a striking
+/// train, which runs only while it strikes) each arbor's turns per turn of the first are shown.
+pub fn part_table(d: &mut Document, g: &PartPlan, from_turns_per_hour: Option<f64>) {
+    d.line(count_line(g.count, g.trains.len(), g.complete, "train", "by meshes, then size"));
+    if g.trains.is_empty() {
+        return;
+    }
+    let numbered: Vec<(usize, &Train)> = g.trains.iter().enumerate().collect();
+    let rows = Table::numbered(&numbered, |&(k, t)| {
+        let stages: Vec<String> =
+            t.stages.iter().map(|st| format!("{} → {}", st.driver.teeth, st.driven.teeth)).collect();
+        let speeds = crate::trades::clock::arbor_speeds(t, from_turns_per_hour.unwrap_or(1.0));
+        let arbors: Vec<String> = g
+            .part
+            .arbor_names(t.stages.len())
+            .iter()
+            .zip(&speeds)
+            .map(|(a, v)| match from_turns_per_hour {
+                Some(_) => format!("{a} {}", speed(*v)),
+                None => format!("{a} {}", fmt_num(*v)),
+            })
+            .collect();
+        let mut row = vec![stages.join(", "), t.ratio.to_string(), arbors.join("; ")];
+        if !g.pairs(k).is_empty() {
+            row.push(g.pairs(k).iter().map(describe_cycloidal).collect::<Vec<_>>().join("; "));
+        }
+        row
+    });
+    let arbors = if from_turns_per_hour.is_some() {
+        "arbors (turns per hour, time per turn)"
+    } else {
+        "arbors (turns per turn of the first)"
+    };
+    let gears = if g.part.drivers.lo < g.part.driven.lo { "pinion → wheel" } else { "wheel → pinion" };
+    let mut head = vec!["#", gears, "ratio i", arbors];
+    if !g.cycloidal.is_empty() {
+        head.push("meshes (module, centre distance, contact ratio, action before the line of centres)");
+    }
+    d.table(Table::new(&head, &[0]).with_rows(rows));
 }
 
 /// Turns per hour, and the time per turn, for people: `60/h (1 min)`.
@@ -38,21 +115,24 @@ pub fn describe_beat(p: &GoingPlan) -> String {
     let b = &p.spec.beat;
     match b.source {
         BeatSource::Length { metres } => format!(
-            "pendulum {} m at g = {} m/s² → period {} s, {} beats/h",
+            "pendulum {} m at g = {} m/s² → period {} s, {} beats/h, {} beats/min",
             fmt_num(metres),
             b.gravity,
             fmt_num(b.period_s()),
-            fmt_num(b.beats_per_hour)
+            fmt_num(b.beats_per_hour),
+            fmt_num(b.beats_per_hour / 60.0)
         ),
         BeatSource::Period(s) => format!(
-            "period {s} s → {} beats/h (simple pendulum {} m at g = {} m/s²)",
+            "period {s} s → {} beats/h, {} beats/min (simple pendulum {} m at g = {} m/s²)",
             fmt_num(b.beats_per_hour),
+            fmt_num(b.beats_per_hour / 60.0),
             fmt_num(b.length_m()),
             b.gravity
         ),
         BeatSource::BeatsPerHour(r) => format!(
-            "{r} beats/h → period {} s (simple pendulum {} m at g = {} m/s²)",
+            "{r} beats/h → period {} s, {} beats/min (simple pendulum {} m at g = {} m/s²)",
             fmt_num(b.period_s()),
+            fmt_num(b.beats_per_hour / 60.0),
             fmt_num(b.length_m()),
             b.gravity
         ),
@@ -90,9 +170,36 @@ pub fn going(p: &GoingPlan) -> Document {
         e.beats_per_tooth,
         speed(p.escape_turns_per_hour)
     ));
+    if let Some(run) = &p.run {
+        let hours = run.run_hours.to_f64();
+        let drop = match (run.drop_m, s.line_barrel) {
+            (Some(m), Some(b)) => format!(
+                "; the weight on a {} mm line barrel with {} fall{} drops {} m",
+                fmt_num(b.diameter_mm),
+                b.falls,
+                if b.falls == 1 { "" } else { "s" },
+                fmt_num(m)
+            ),
+            _ => String::new(),
+        };
+        d.line(format!(
+            "Run: {} at a winding ({} h): the barrel (great wheel) turns {} times{drop}",
+            describe_hours(hours),
+            fmt_num(hours),
+            fmt_num(run.barrel_turns.to_f64())
+        ));
+    }
+    if let Some(g) = &p.great {
+        d.line(format!(
+            "From the great wheel turning {} to the centre arbor turning 1/h (60 min, the minute hand): i = {} \
+             exactly",
+            speed(s.from_turns_per_hour.to_f64()),
+            g.part.ratio
+        ));
+    }
     d.line(format!(
-        "From the arbor turning {} to the escape arbor, wheels driving pinions: i = {} (a speed-up, i < 1)",
-        speed(s.from_turns_per_hour.to_f64()),
+        "From the centre arbor turning 1/h (60 min, the minute hand) to the escape arbor, wheels driving \
+         pinions: i = {} (a speed-up, i < 1)",
         if exact {
             format!("{ratio} exactly")
         } else {
@@ -107,16 +214,36 @@ pub fn going(p: &GoingPlan) -> Document {
         s.stages,
         s.rate_tolerance_s_per_day
     ));
-    d.blank();
+    if let Some(m) = s.meshes {
+        d.line(format!(
+            "Meshes checked: {} teeth, each pair at its standard centre distance; least contact ratio {}",
+            m.tooth_form.as_str(),
+            fmt_num(m.min_contact_ratio)
+        ));
+    }
+    if let (Some(g), Some(first)) = (&p.great, p.trains.first()) {
+        if let Some(great) = g.trains.first() {
+            d.blank();
+            d.line(format!(
+                "Whole train 1: {}",
+                whole_train(&g.part.arbor_names(great.stages.len()), great, &first.train)
+            ));
+        }
+    }
+    if let Some(g) = &p.great {
+        d.blank();
+        d.heading("Great wheel to centre arbor:");
+        part_table(&mut d, g, Some(s.from_turns_per_hour.to_f64()));
+        d.blank();
+        d.heading("Centre arbor to escape arbor:");
+    } else {
+        d.blank();
+    }
     d.line(count_line(p.count, p.trains.len(), p.complete, "train", "by rate error, then meshes, then size"));
     if !p.trains.is_empty() {
-        let driving = if s.from_turns_per_hour == crate::numbers::rational::Ratio::integer(1) {
-            "centre"
-        } else {
-            "driving"
-        };
         let rows = Table::numbered(&p.trains, |g| {
-            let names = arbor_names(g.train.stages.len(), driving);
+            let names = arbor_names(g.train.stages.len(), "centre");
+
             let stages: Vec<String> = g
                 .train
                 .stages
@@ -126,22 +253,29 @@ pub fn going(p: &GoingPlan) -> Document {
             let arbors: Vec<String> = names
                 .iter()
                 .zip(&g.arbor_turns_per_hour)
-                .map(|(a, v)| format!("{a} {}", speed(*v)))
+                .enumerate()
+                .map(|(k, (a, v))| match g.seconds_arbor {
+                    Some(at) if at == k => format!("{a} {}", speed(*v).replace(')', ", seconds hand)")),
+                    _ => format!("{a} {}", speed(*v)),
+                })
                 .collect();
-            vec![
+            let mut row = vec![
                 stages.join(", "),
                 g.train.ratio.to_string(),
                 describe_rate(g.rate_s_per_day, g.train.error.is_exact() && exact),
                 arbors.join("; "),
-            ]
+            ];
+            if !g.cycloidal.is_empty() {
+                row.push(g.cycloidal.iter().map(describe_cycloidal).collect::<Vec<_>>().join("; "));
+            }
+            row
         });
-        d.table(
-            Table::new(
-                &["#", "wheel → pinion", "ratio i", "rate", "arbors (turns per hour, time per turn)"],
-                &[0],
-            )
-            .with_rows(rows),
-        );
+        let mut head =
+            vec!["#", "wheel → pinion", "ratio i", "rate", "arbors (turns per hour, time per turn)"];
+        if p.trains.iter().any(|g| !g.cycloidal.is_empty()) {
+            head.push("meshes (module, centre distance, contact ratio, action before the line of centres)");
+        }
+        d.table(Table::new(&head, &[0]).with_rows(rows));
     }
     footer(
         &mut d,
@@ -153,14 +287,26 @@ pub fn going(p: &GoingPlan) -> Document {
     d
 }
 
-fn mesh_cells(t: &Train, hour_work: bool) -> Vec<String> {
+/// A cycloidal pair for people: `m 0.5, a 12 mm, ε 1.49, 19% before the line`.
+pub fn describe_cycloidal(c: &CycloidalMesh) -> String {
+    format!(
+        "m {}, a {} mm, ε {:.2}, {:.0}% before the line",
+        fmt_num(c.module_mm),
+        fmt_num(c.centre_distance_mm),
+        c.contact_ratio,
+        100.0 * c.before_line_fraction
+    )
+}
+
+fn mesh_cells(t: &Train, hour_work: bool, pairs: &[CycloidalMesh]) -> Vec<String> {
     let mut gears = Vec::new();
     let mut geometry = Vec::new();
     for (k, s) in t.stages.iter().enumerate() {
         let (a, b) = stage_names(k, hour_work);
         gears.push(format!("{a} {} → {b} {}", s.driver.teeth, s.driven.teeth));
-        geometry.push(match &s.mesh {
-            Some(m) => format!(
+        geometry.push(match (&s.mesh, pairs.get(k)) {
+            (_, Some(c)) => describe_cycloidal(c),
+            (Some(m), None) => format!(
                 "a {} mm, x {:+.3}/{:+.3}{}, ε {:.2}",
                 fmt_num(m.centre_distance_mm),
                 m.shift[0],
@@ -168,7 +314,7 @@ fn mesh_cells(t: &Train, hour_work: bool) -> Vec<String> {
                 if m.undercut[0] || m.undercut[1] { ", undercut" } else { "" },
                 m.contact_ratio
             ),
-            None => format!("a {} mm", fmt_num(s.centre_distance_mm())),
+            (None, None) => format!("a {} mm", fmt_num(s.centre_distance_mm())),
         });
     }
     vec![gears.join("; "), geometry.join("; ")]
@@ -192,21 +338,33 @@ pub fn motion(p: &MotionPlan) -> Document {
         s.stages,
         describe_tolerance(s.tolerance.to_f64())
     ));
-    d.line(format!(
-        "{}; undercut pinions {}; least contact ratio {}",
-        if s.coaxial {
-            "Hand arbor coaxial with the input (reverted train: one centre distance)"
-        } else {
-            "Not coaxial"
-        },
-        if s.allow_undercut { "accepted" } else { "refused" },
-        fmt_num(s.min_contact_ratio)
-    ));
+    let cycloidal = s.tooth_form == ToothForm::Cycloidal;
+    let coaxial = match (s.coaxial, cycloidal, s.pool.from_stock) {
+        (false, _, _) => "Not coaxial",
+        (true, false, _) => "Hand arbor coaxial with the input (reverted train: one centre distance)",
+        (true, true, false) => {
+            "Hand arbor coaxial with the input (reverted train: one centre distance, a module per pair)"
+        }
+        (true, true, true) => {
+            "Hand arbor coaxial with the input (reverted train: pairs of one centre distance)"
+        }
+    };
+    if cycloidal {
+        d.line(format!("{coaxial}; cycloidal teeth; least contact ratio {}", fmt_num(s.min_contact_ratio)));
+    } else {
+        d.line(format!(
+            "{coaxial}; involute teeth; undercut pinions {}; least contact ratio {}",
+            if s.allow_undercut { "accepted" } else { "refused" },
+            fmt_num(s.min_contact_ratio)
+        ));
+    }
     d.blank();
     d.line(count_line(p.count, p.trains.len(), p.complete, "train", "by error, then meshes, then size"));
     if !p.trains.is_empty() {
-        let rows = Table::numbered(&p.trains, |t| {
-            let mut r = mesh_cells(t, p.is_hour_motion_work(t));
+        let numbered: Vec<(usize, &Train)> = p.trains.iter().enumerate().collect();
+        let rows = Table::numbered(&numbered, |&(k, t)| {
+            let pairs = p.cycloidal.get(k).map_or(&[][..], |v| &v[..]);
+            let mut r = mesh_cells(t, p.is_hour_motion_work(t), pairs);
             r.push(t.ratio.to_string());
             r.push(describe_error(&t.error));
             r
@@ -216,7 +374,11 @@ pub fn motion(p: &MotionPlan) -> Document {
                 &[
                     "#",
                     "pinion → wheel",
-                    "mesh (working centre distance, shifts, contact ratio)",
+                    if cycloidal {
+                        "mesh (module, centre distance, contact ratio, action before the line of centres)"
+                    } else {
+                        "mesh (working centre distance, shifts, contact ratio)"
+                    },
                     "ratio i",
                     "error",
                 ],
@@ -225,10 +387,18 @@ pub fn motion(p: &MotionPlan) -> Document {
             .with_rows(rows),
         );
     }
-    footer(&mut d, &[
-            "Pinions drive wheels (a reduction). Meshes are worked out as involute gears, shifts x in modules;",
-            "clock teeth are traditionally cycloidal, so take the geometry as a guide to the centre distances.",
+    if cycloidal {
+        footer(&mut d, &[
+            "Pinions drive wheels (a reduction). Teeth are cycloidal wheel-and-pinion teeth, unshifted, each pair at",
+            "m·(z1 + z2)/2; ε is the leaves in action on average; the share of each leaf's action before the line",
+            "of centres engages with friction (a driving pinion has most of it there).",
         ]);
+    } else {
+        footer(&mut d, &[
+            "Pinions drive wheels (a reduction). Meshes are worked out as involute gears, shifts x in modules;",
+            "clock wheels and pinions are usually cut with cycloidal teeth.",
+        ]);
+    }
     d
 }
 
@@ -336,4 +506,108 @@ pub fn astro(p: &AstroPlan) -> Document {
     d.table(Table::new(&["fraction", "drift", ""], &[]).with_rows(rows));
     footer(&mut d, &["Drift > 0: the dial runs ahead. A year is 365.2425 days (mean Gregorian year)."]);
     d
+}
+
+/// A striking-train search as a document: the blows and the run, the whole train, then each
+/// part with its own table.
+pub fn strike(p: &StrikePlan) -> Document {
+    let mut d = Document::new();
+    let s = &p.spec;
+    d.title("Striking train (count wheel)");
+    d.line(format!(
+        "Blows: {} in 12 hours ({}); {} pins on the pin wheel, one blow each",
+        p.blows_per_12_hours,
+        if s.half_hours { "1 + 2 + … + 12 = 78, and one at each half hour" } else { "1 + 2 + … + 12" },
+        s.pins
+    ));
+    let hours = s.run_hours.to_f64();
+    d.line(format!(
+        "Run: {} at a winding ({} h): {} blows, {} turns of the pin wheel, {} turns of the barrel (great wheel)",
+        describe_hours(hours),
+        fmt_num(hours),
+        fmt_num(p.blows_in_run.to_f64()),
+        fmt_num(p.pin_wheel_turns.to_f64()),
+        fmt_num(s.barrel_turns.to_f64())
+    ));
+    d.line(format!(
+        "Locking wheel: once a blow; warning wheel: {} turns a blow; fly: {} turns a turn of the warning wheel \
+         ({} a blow); count wheel: once in 12 hours",
+        s.warning_turns,
+        s.fly_turns,
+        s.warning_turns * s.fly_turns
+    ));
+    d.line(format!(
+        "Gears: {}; wheels {}, pinions {} leaves{}",
+        s.pool.describe(),
+        s.wheels,
+        s.pinions,
+        match s.meshes {
+            Some(m) => format!(
+                "; meshes checked: {} teeth, least contact ratio {}",
+                m.tooth_form.as_str(),
+                fmt_num(m.min_contact_ratio)
+            ),
+            None => String::new(),
+        }
+    ));
+    if p.found() {
+        let firsts: Vec<String> = p
+            .parts
+            .iter()
+            .map(|g| {
+                let t = &g.trains[0];
+                let names = g.part.arbor_names(t.stages.len());
+                t.stages
+                    .iter()
+                    .enumerate()
+                    .map(|(k, st)| {
+                        let wheel =
+                            |n: &str| if n.ends_with("wheel") { n.to_string() } else { format!("{n} wheel") };
+                        if g.part.drivers.lo < g.part.driven.lo {
+                            format!(
+                                "{} pinion {} → {} {}",
+                                names[k],
+                                st.driver.teeth,
+                                wheel(&names[k + 1]),
+                                st.driven.teeth
+                            )
+                        } else {
+                            format!(
+                                "{} {} → {} pinion {}",
+                                wheel(&names[k]),
+                                st.driver.teeth,
+                                names[k + 1],
+                                st.driven.teeth
+                            )
+                        }
+                    })
+                    .collect::<Vec<_>>()
+                    .join("; ")
+            })
+            .collect();
+        d.blank();
+        d.line(format!("Whole train 1: {}", firsts.join("; ")));
+    }
+    for g in &p.parts {
+        d.blank();
+        let (from, to) = (&g.part.arbors[0], &g.part.arbors[g.part.arbors.len() - 1]);
+        d.heading(format!("{} to {}: i = {} exactly", capitalise(from), to, g.part.ratio));
+        part_table(&mut d, g, None);
+    }
+    footer(
+        &mut d,
+        &[
+            "Wheels drive pinions from the great wheel to the fly; a pinion on the pin wheel's arbor drives the count wheel.",
+            "Each part's arbors turn so many times per turn of its first arbor; the train runs only while it strikes.",
+        ],
+    );
+    d
+}
+
+fn capitalise(s: &str) -> String {
+    let mut c = s.chars();
+    match c.next() {
+        Some(f) => f.to_uppercase().chain(c).collect(),
+        None => String::new(),
+    }
 }

@@ -3,7 +3,8 @@
 //!
 //! ```text
 //! going:  {"arbors": [{"arbor": "centre", "turns_per_hour": f64}, …], "rate_s_per_day": f64}
-//! motion: {"stage_names": [{"driver": "cannon pinion", "driven": "minute wheel"}, …]}
+//! motion: {"stage_names": [{"driver": "cannon pinion", "driven": "minute wheel"}, …],
+//!          "cycloidal": [{…one pair's proportions…}, …] (cycloidal teeth only)}
 //! astro:  {"period_days": f64, "drift_days_per_year": f64, "days_to_one_day": f64|null}
 //! ```
 //! A document is `{"schema_version", "clock_train": "going"|"motion"|"astro", …what was asked…, "count", "complete",
@@ -14,17 +15,61 @@ use std::io::Write;
 use serde::Serialize;
 
 use super::document::arbor_names;
+use super::train_json;
+use crate::geometry::CycloidalMesh;
 use crate::report::fields::{TargetJson, TrainJson};
 use crate::report::words::CONVENTION;
 use crate::report::{write_json, RenderError, SCHEMA_VERSION};
 use crate::trades::clock::astro::AstroPlan;
 use crate::trades::clock::going::GoingPlan;
 use crate::trades::clock::motion::{stage_names, MotionPlan};
+use crate::trades::clock::part::PartPlan;
+use crate::trades::clock::strike::StrikePlan;
 
 #[derive(Serialize)]
 struct ArborJson {
     arbor: String,
     turns_per_hour: f64,
+}
+
+/// One cycloidal pair: each figure driver first.
+#[derive(Serialize)]
+struct CycloidalJson {
+    centre_distance_mm: f64,
+    pitch_diameter_mm: [f64; 2],
+    addendum_mm: [f64; 2],
+    dedendum_mm: [f64; 2],
+    tip_diameter_mm: [f64; 2],
+    root_diameter_mm: [f64; 2],
+    thickness_mm: [f64; 2],
+    tip_radius_mm: [f64; 2],
+    contact_ratio: f64,
+    before_line_fraction: f64,
+}
+
+fn cycloidal_json(pairs: &[CycloidalMesh]) -> Option<Vec<CycloidalJson>> {
+    (!pairs.is_empty()).then(|| {
+        pairs
+            .iter()
+            .map(|c| {
+                let both = |f: fn(&crate::geometry::cycloidal::CycloidalGear) -> f64| {
+                    [f(&c.gears[0]), f(&c.gears[1])]
+                };
+                CycloidalJson {
+                    centre_distance_mm: c.centre_distance_mm,
+                    pitch_diameter_mm: both(|g| g.pitch_diameter_mm),
+                    addendum_mm: both(|g| g.addendum_mm),
+                    dedendum_mm: both(|g| g.dedendum_mm),
+                    tip_diameter_mm: both(|g| g.tip_diameter_mm),
+                    root_diameter_mm: both(|g| g.root_diameter_mm),
+                    thickness_mm: both(|g| g.thickness_mm),
+                    tip_radius_mm: both(|g| g.tip_radius_mm),
+                    contact_ratio: c.contact_ratio,
+                    before_line_fraction: c.before_line_fraction,
+                }
+            })
+            .collect()
+    })
 }
 
 #[derive(Serialize)]
@@ -33,6 +78,64 @@ struct GoingTrainJson {
     train: TrainJson,
     arbors: Vec<ArborJson>,
     rate_s_per_day: f64,
+    seconds_arbor: Option<String>,
+    #[serde(skip_serializing_if = "Option::is_none")]
+    cycloidal: Option<Vec<CycloidalJson>>,
+}
+
+/// One train of a part (great wheel to centre arbor, or of a striking train).
+#[derive(Serialize)]
+struct PartTrainJson {
+    #[serde(flatten)]
+    train: TrainJson,
+    arbors: Vec<ArborJson>,
+    #[serde(skip_serializing_if = "Option::is_none")]
+    cycloidal: Option<Vec<CycloidalJson>>,
+}
+
+/// A part of a train searched on its own.
+#[derive(Serialize)]
+struct PartJson {
+    from_arbor: String,
+    to_arbor: String,
+    ratio_needed: String,
+    count: u64,
+    complete: bool,
+    trains: Vec<PartTrainJson>,
+}
+
+fn part_json(g: &PartPlan, from_turns_per_hour: f64) -> PartJson {
+    PartJson {
+        from_arbor: g.part.arbors[0].clone(),
+        to_arbor: g.part.arbors[g.part.arbors.len() - 1].clone(),
+        ratio_needed: g.part.ratio.to_string(),
+        count: g.count,
+        complete: g.complete,
+        trains: g
+            .trains
+            .iter()
+            .enumerate()
+            .map(|(k, t)| PartTrainJson {
+                train: train_json(t, g.pairs(k)),
+                arbors: g
+                    .part
+                    .arbor_names(t.stages.len())
+                    .into_iter()
+                    .zip(crate::trades::clock::arbor_speeds(t, from_turns_per_hour))
+                    .map(|(arbor, turns_per_hour)| ArborJson { arbor, turns_per_hour })
+                    .collect(),
+                cycloidal: cycloidal_json(g.pairs(k)),
+            })
+            .collect(),
+    }
+}
+
+/// What the run time asks of the barrel.
+#[derive(Serialize)]
+struct RunJson {
+    run_hours: f64,
+    barrel_turns: f64,
+    drop_m: Option<f64>,
 }
 
 #[derive(Serialize)]
@@ -41,6 +144,7 @@ struct GoingDoc {
     clock_train: &'static str,
     period_s: f64,
     beats_per_hour: f64,
+    beats_per_minute: f64,
     escape_teeth: u32,
     beats_per_tooth: u32,
     escape_turns_per_hour: f64,
@@ -48,6 +152,9 @@ struct GoingDoc {
     ratio_needed: String,
     ratio_needed_exact: bool,
     rate_tolerance_s_per_day: f64,
+    tooth_form: Option<&'static str>,
+    run: Option<RunJson>,
+    great_wheel: Option<PartJson>,
     count: u64,
     complete: bool,
     convention: &'static str,
@@ -59,16 +166,12 @@ struct GoingDoc {
 pub fn write_going(p: &GoingPlan, w: &mut dyn Write) -> Result<(), RenderError> {
     let s = &p.spec;
     let (ratio, exact) = s.needed_ratio();
-    let driving = if s.from_turns_per_hour == crate::numbers::rational::Ratio::integer(1) {
-        "centre"
-    } else {
-        "driving"
-    };
     let doc = GoingDoc {
         schema_version: SCHEMA_VERSION,
         clock_train: "going",
         period_s: s.beat.period_s(),
         beats_per_hour: s.beat.beats_per_hour,
+        beats_per_minute: s.beat.beats_per_hour / 60.0,
         escape_teeth: s.escapement.teeth,
         beats_per_tooth: s.escapement.beats_per_tooth,
         escape_turns_per_hour: p.escape_turns_per_hour,
@@ -76,20 +179,33 @@ pub fn write_going(p: &GoingPlan, w: &mut dyn Write) -> Result<(), RenderError> 
         ratio_needed: ratio.to_string(),
         ratio_needed_exact: exact,
         rate_tolerance_s_per_day: s.rate_tolerance_s_per_day.to_f64(),
+        tooth_form: s.meshes.map(|m| m.tooth_form.as_str()),
+        run: p.run.map(|r| RunJson {
+            run_hours: r.run_hours.to_f64(),
+            barrel_turns: r.barrel_turns.to_f64(),
+            drop_m: r.drop_m,
+        }),
+        great_wheel: p.great.as_ref().map(|g| part_json(g, s.from_turns_per_hour.to_f64())),
         count: p.count,
         complete: p.complete,
         convention: CONVENTION,
-        train_runs: "input = driving arbor, output = escape arbor; wheels drive pinions, so i < 1",
+        train_runs:
+            "input = centre arbor (once an hour), output = escape arbor; wheels drive pinions, so i < 1; \
+                     great_wheel: input = great wheel, output = centre arbor",
         trains: p
             .trains
             .iter()
             .map(|g| GoingTrainJson {
-                train: TrainJson::from_train(&g.train),
-                arbors: arbor_names(g.train.stages.len(), driving)
+                train: train_json(&g.train, &g.cycloidal),
+                cycloidal: cycloidal_json(&g.cycloidal),
+                arbors: arbor_names(g.train.stages.len(), "centre")
                     .into_iter()
                     .zip(&g.arbor_turns_per_hour)
                     .map(|(arbor, v)| ArborJson { arbor, turns_per_hour: *v })
                     .collect(),
+                seconds_arbor: g
+                    .seconds_arbor
+                    .map(|k| arbor_names(g.train.stages.len(), "centre")[k].clone()),
                 rate_s_per_day: g.rate_s_per_day,
             })
             .collect(),
@@ -108,6 +224,8 @@ struct MotionTrainJson {
     #[serde(flatten)]
     train: TrainJson,
     stage_names: Vec<NamesJson>,
+    #[serde(skip_serializing_if = "Option::is_none")]
+    cycloidal: Option<Vec<CycloidalJson>>,
 }
 
 #[derive(Serialize)]
@@ -116,6 +234,7 @@ struct MotionDoc {
     clock_train: &'static str,
     target: TargetJson,
     coaxial: bool,
+    tooth_form: &'static str,
     allow_undercut: bool,
     min_contact_ratio: f64,
     count: u64,
@@ -138,6 +257,7 @@ pub fn write_motion(p: &MotionPlan, w: &mut dyn Write) -> Result<(), RenderError
             exact: s.ratio.to_string(),
         },
         coaxial: s.coaxial,
+        tooth_form: s.tooth_form.as_str(),
         allow_undercut: s.allow_undercut,
         min_contact_ratio: s.min_contact_ratio,
         count: p.count,
@@ -148,8 +268,10 @@ pub fn write_motion(p: &MotionPlan, w: &mut dyn Write) -> Result<(), RenderError
         trains: p
             .trains
             .iter()
-            .map(|t| MotionTrainJson {
-                train: TrainJson::from_train(t),
+            .enumerate()
+            .map(|(k, t)| MotionTrainJson {
+                train: train_json(t, p.cycloidal.get(k).map_or(&[][..], |v| &v[..])),
+                cycloidal: cycloidal_json(p.cycloidal.get(k).map_or(&[][..], |v| &v[..])),
                 stage_names: (0..t.stages.len())
                     .map(|k| {
                         let (driver, driven) = stage_names(k, p.is_hour_motion_work(t));
@@ -240,6 +362,52 @@ pub fn write_astro(p: &AstroPlan, w: &mut dyn Write) -> Result<(), RenderError> 
                 blocking_prime: c.blocking_prime,
             })
             .collect(),
+    };
+    write_json(&doc, w)
+}
+
+#[derive(Serialize)]
+struct StrikeDoc {
+    schema_version: u32,
+    clock_train: &'static str,
+    pins: u32,
+    half_hours: bool,
+    blows_per_12_hours: u32,
+    run_hours: f64,
+    barrel_turns: f64,
+    blows_in_run: f64,
+    pin_wheel_turns: f64,
+    warning_turns: u32,
+    fly_turns: u32,
+    tooth_form: Option<&'static str>,
+    complete: bool,
+    convention: &'static str,
+    train_runs: &'static str,
+    parts: Vec<PartJson>,
+}
+
+/// Write a striking-train search as one JSON document; each part's arbors turn so many times
+/// per turn of its first arbor.
+pub fn write_strike(p: &StrikePlan, w: &mut dyn Write) -> Result<(), RenderError> {
+    let s = &p.spec;
+    let doc = StrikeDoc {
+        schema_version: SCHEMA_VERSION,
+        clock_train: "strike",
+        pins: s.pins,
+        half_hours: s.half_hours,
+        blows_per_12_hours: p.blows_per_12_hours,
+        run_hours: s.run_hours.to_f64(),
+        barrel_turns: s.barrel_turns.to_f64(),
+        blows_in_run: p.blows_in_run.to_f64(),
+        pin_wheel_turns: p.pin_wheel_turns.to_f64(),
+        warning_turns: s.warning_turns,
+        fly_turns: s.fly_turns,
+        tooth_form: s.meshes.map(|m| m.tooth_form.as_str()),
+        complete: p.complete(),
+        convention: CONVENTION,
+        train_runs: "each part: input = its first arbor, output = its last; wheels drive pinions, but a pinion \
+                     drives the count wheel; an arbor's turns_per_hour is its turns per turn of the part's first arbor",
+        parts: p.parts.iter().map(|g| part_json(g, 1.0)).collect(),
     };
     write_json(&doc, w)
 }

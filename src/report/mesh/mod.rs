@@ -20,6 +20,8 @@
 //! An open end of `shift_sum_range` is written as `null`. Field names and meanings are stable;
 //! fields may be added.
 
+pub mod cycloidal;
+
 use std::io::Write;
 
 use serde::Serialize;
@@ -140,6 +142,7 @@ impl Report for MeshReport<'_> {
             backlash_mm: None,
             on_hand_defects: Vec::new(),
             gear_data: None,
+            tooth_form: None,
         };
         let verdict = if self.defects.is_empty() { "runs" } else { "does not run" };
         let title = format!(

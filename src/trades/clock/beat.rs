@@ -61,6 +61,23 @@ pub fn parse_beats_per_hour(text: &str) -> Result<Ratio> {
     Ok(bph)
 }
 
+/// Parse beats per minute, a positive number such as `60`, as beats per hour (60 times as
+/// many); errors name [`Quantity::BeatsPerMinute`].
+pub fn parse_beats_per_minute(text: &str) -> Result<Ratio> {
+    let t = text.trim();
+    let bad = |why: &str| {
+        Error::value(
+            Quantity::BeatsPerMinute,
+            format!("\"{t}\" {why}; wanted beats per minute above 0 such as 60"),
+        )
+    };
+    let bpm = parse_number(t).map_err(|why| bad(&why))?;
+    if bpm.is_zero() {
+        return Err(bad("is zero"));
+    }
+    Ok(Exact::of(bpm).times(Exact::of(Ratio::integer(60))).value)
+}
+
 /// Where the beat came from, as given.
 #[derive(Debug, Clone, Copy, PartialEq)]
 pub enum BeatSource {

@@ -6,6 +6,10 @@
 //! - [`beat`]: pendulum length, period and beats per hour; the escape wheel;
 //! - [`going`]: the going train, its arbor speeds and rate error in seconds per day;
 //! - [`motion`]: the motion work (the reverted 12:1 train) and other hand ratios;
+//! - [`part`]: a part of a train between two arbors of fixed speeds (great wheel to centre),
+//!   searched on its own;
+//! - [`strike`]: the count-wheel striking train: blows, pin wheel, locking, warning and fly
+//!   arbors, the count wheel;
 //! - [`astro`]: named periods, convergents, drift per year;
 //! - the output formats are in [`crate::report::clock`].
 //!
@@ -14,14 +18,15 @@
 //! (output) with the wheels driving the pinions, so it speeds up and `i < 1`; motion work and
 //! astronomical trains reduce from their input arbor, so `i > 1`.
 //!
-//! Teeth are worked out as involute gears when the motion work is checked for a coaxial fit;
-//! clock wheels are traditionally cut with cycloidal-form teeth, so treat that geometry as a
-//! guide to the centre distances, not as the tooth form to cut.
+//! Teeth are cycloidal by default, as clock wheels and pinions are cut
+//! ([`crate::geometry::cycloidal`]); involute teeth may be asked for instead.
 
 pub mod astro;
 pub mod beat;
 pub mod going;
 pub mod motion;
+pub mod part;
+pub mod strike;
 
 use crate::error::{Error, Quantity, Result};
 use crate::model::pool::Pool;
@@ -54,6 +59,16 @@ pub fn clock_problem(
         return Err(Error::value(Quantity::Limit, "list at least one train"));
     }
     Problem::new(target, pool, stages, limits, None, DEFAULT_RANK.to_vec(), limit)
+}
+
+/// The cycloidal pair of every stage of `train`, at each stage's module and standard centre
+/// distance.
+pub fn cycloidal_pairs(train: &crate::model::train::Train) -> Result<Vec<crate::geometry::CycloidalMesh>> {
+    train
+        .stages
+        .iter()
+        .map(|s| Ok(crate::geometry::cycloidal_mesh(s.module_mm, [s.driver.teeth, s.driven.teeth], None)?))
+        .collect()
 }
 
 /// Rotation speeds of the arbors of a train, turns per hour, from the input arbor turning at

@@ -3,15 +3,21 @@
 //! distance, reached by profile shift where needed), and any other hand ratio — a 24-hour hand,
 //! a day-of-week hand — coaxial or not.
 //!
-//! Pinions drive wheels here (a reduction, `i > 1`). Clock pinions of few leaves are often
-//! undercut; that is accepted unless asked otherwise (common practice).
+//! Pinions drive wheels here (a reduction, `i > 1`). Teeth are cycloidal by default, as clock
+//! wheels are cut: each pair at its own standard centre distance, a coaxial train met by a
+//! module per pair (the first pair keeps the module asked, the others take the module that
+//! puts them at its centre distance), and with gears on hand by pairs whose standard centre
+//! distances agree. With involute teeth the stages are shifted to one centre distance instead,
+//! and small pinions, often undercut, are accepted unless asked otherwise (common practice).
 
 use super::clock_problem;
 use crate::engine::{search, RunOptions};
 use crate::error::{Error, Quantity, Result};
-use crate::geometry::MeshLimits;
+use crate::geometry::{CycloidalMesh, MeshLimits};
 use crate::model::pool::Pool;
-use crate::model::problem::{MeshRules, Problem, StageLimits};
+use crate::model::problem::{
+    MeshRules, Problem, StageLimits, ToothForm, TrainCheck, DEFAULT_CENTRE_TOLERANCE_MM,
+};
 use crate::model::train::Train;
 use crate::numbers::range::IntRange;
 use crate::numbers::rational::Ratio;
@@ -81,9 +87,12 @@ pub struct MotionSpec {
     pub stages: IntRange,
     /// Hand arbor coaxial with the input arbor (a reverted train).
     pub coaxial: bool,
-    /// Accept undercut pinions.
+    /// The tooth form of every pair.
+    pub tooth_form: ToothForm,
+    /// Accept undercut pinions (involute teeth).
     pub allow_undercut: bool,
-    /// Least transverse contact ratio of an involute mesh.
+    /// Least contact ratio of a mesh (transverse, for involute teeth; leaves in action, for
+    /// cycloidal teeth).
     pub min_contact_ratio: f64,
     /// Trains to list.
     pub limit: usize,
@@ -100,8 +109,11 @@ pub struct MotionPlan {
     pub count: u64,
     /// False when interrupted.
     pub complete: bool,
-    /// The best trains, stages from the input arbor to the hand; with meshes worked out.
+    /// The best trains, stages from the input arbor to the hand; with meshes worked out (an
+    /// involute stage's in its `mesh`), each stage at the module it is cut to.
     pub trains: Vec<Train>,
+    /// Each train's cycloidal pairs, stage by stage (empty for involute teeth).
+    pub cycloidal: Vec<Vec<CycloidalMesh>>,
 }
 
 impl MotionSpec {
@@ -113,8 +125,16 @@ impl MotionSpec {
             driven_teeth: Some(self.wheels),
             ..StageLimits::default()
         };
-        let p = clock_problem(target, self.pool.clone(), self.stages, limits, self.limit)?;
+        let mut p = clock_problem(target, self.pool.clone(), self.stages, limits, self.limit)?;
+        if self.coaxial && self.tooth_form == ToothForm::Cycloidal && self.pool.from_stock {
+            // Gears on hand are cut to their module: the pairs must already agree.
+            p.train_check = Some(TrainCheck::new(|t: &Train| {
+                let first = t.stages.first().map_or(0.0, |s| s.centre_distance_mm());
+                t.stages.iter().all(|s| (s.centre_distance_mm() - first).abs() <= DEFAULT_CENTRE_TOLERANCE_MM)
+            }));
+        }
         let rules = MeshRules {
+            tooth_form: self.tooth_form,
             coaxial: self.coaxial,
             limits: MeshLimits {
                 allow_undercut: self.allow_undercut,
@@ -130,13 +150,35 @@ impl MotionSpec {
     pub fn plan(&self, options: &RunOptions) -> Result<MotionPlan> {
         let problem = self.problem()?;
         let found = search(&problem, crate::trades::ENGINE, options);
+        let mut trains = found.trains;
+        let mut cycloidal = Vec::new();
+        if self.tooth_form == ToothForm::Cycloidal {
+            for t in &mut trains {
+                if self.coaxial && !self.pool.from_stock {
+                    module_per_pair(t);
+                }
+                cycloidal.push(super::cycloidal_pairs(t)?);
+            }
+        }
         Ok(MotionPlan {
             spec: self.clone(),
             problem,
             count: found.count,
             complete: found.complete,
-            trains: found.trains,
+            trains,
+            cycloidal,
         })
+    }
+}
+
+/// Give every stage after the first the module that puts it at the first stage's standard
+/// centre distance: m_k = m_1·(z_1 + z_2)/(z_k + z_k').
+pub fn module_per_pair(train: &mut Train) {
+    let Some(first) = train.stages.first() else { return };
+    let (m, teeth) = (first.module_mm, first.driver.teeth + first.driven.teeth);
+    for s in train.stages.iter_mut().skip(1) {
+        s.module_mm = m * teeth as f64 / (s.driver.teeth + s.driven.teeth) as f64;
+        s.diametral_pitch = None;
     }
 }
 
