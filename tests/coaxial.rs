@@ -58,7 +58,17 @@ fn motion_work_uses_the_whole_common_interval() {
     // undercut, least contact ratio 1 (the clock default).
     let limits = MeshLimits { min_contact_ratio: 1.0, allow_undercut: false, ..MeshLimits::default() };
     let expected = brute_force_motion_work(0.5, 10..=20, 20..=96, &limits);
-    let (code, v) = json(&["clock", "motion", "--tooth-form", "involute", "--pinions", "10..20", "--no-undercut", "--limit", "100"]);
+    let (code, v) = json(&[
+        "clock",
+        "motion",
+        "--tooth-form",
+        "involute",
+        "--pinions",
+        "10..20",
+        "--no-undercut",
+        "--limit",
+        "100",
+    ]);
     assert_eq!(code, 0);
     assert_eq!(v["count"].as_u64().unwrap() as usize, expected.len(), "brute force: {expected:?}");
     let mut listed: Vec<[u32; 4]> = v["trains"]
@@ -223,4 +233,53 @@ fn gears_on_hand_at_a_fixed_distance_stand_apart_within_the_tolerance_and_say_th
     assert!((j - expected).abs() < 1e-6, "{j} vs {expected}");
     let (code, _) = json(&[&args[..], &["--centre-distance", "40.4"]].concat());
     assert_eq!(code, 1);
+}
+
+#[test]
+fn a_reducer_housing_takes_gears_on_hand_as_they_are() {
+    // A 15-tooth pinion on the shelf cut with x = +0.3 and a standard 45-tooth wheel, module 2,
+    // mesh tight at 60.580 mm (ISO 21771: inv α_w = inv α + 2·tan α·Σx/Σz). A housing bored at
+    // 60.585 mm takes them as they are; shifting them to fit, as gears to cut would be, is
+    // not allowed.
+    let dir = std::env::temp_dir().join(format!("gearsieve-housing-{}", std::process::id()));
+    std::fs::create_dir_all(&dir).unwrap();
+    let csv = dir.join("shelf.csv");
+    std::fs::write(&csv, "teeth,module,quantity,shift\n15,2,1,0.3\n45,2,1,0\n").unwrap();
+    let (code, v) = json(&[
+        "reducer",
+        "--ratio",
+        "3",
+        "--stages",
+        "1",
+        "--modules",
+        "2",
+        "--stock",
+        csv.to_str().unwrap(),
+        "--centre-distances",
+        "60.585",
+        "--tol",
+        "1%",
+    ]);
+    assert_eq!(code, 0, "{v}");
+    let s = &v["trains"][0]["stages"][0];
+    assert_eq!(s["shift"], serde_json::json!([0.3, 0.0]));
+    assert_eq!(s["working_centre_distance_mm"], 60.585);
+    // 0.3 mm further out is beyond the centre-distance tolerance for gears on hand.
+    let (code, _) = json(&[
+        "reducer",
+        "--ratio",
+        "3",
+        "--stages",
+        "1",
+        "--modules",
+        "2",
+        "--stock",
+        csv.to_str().unwrap(),
+        "--centre-distances",
+        "60.9",
+        "--tol",
+        "1%",
+    ]);
+    assert_eq!(code, 1);
+    let _ = std::fs::remove_dir_all(&dir);
 }

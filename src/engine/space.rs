@@ -449,7 +449,7 @@ impl<'p> SearchSpace<'p> {
         let coaxial = if self.needs_coaxial_fit() { self.coaxial_meshes(c.stage_indices()) } else { None };
         let gear = |k: u32| {
             let g = &pool.gears[k as usize];
-            Gear { teeth: g.teeth, labels: g.labels.clone() }
+            Gear { teeth: g.teeth, labels: g.labels.clone(), made: g.made }
         };
         let mut stages: Vec<Stage> = c
             .stage_indices()

@@ -47,6 +47,10 @@ pub struct Gear {
     /// Catalogue labels of the stock this gear is drawn from (empty for gears to be cut).
     #[serde(skip_serializing_if = "Vec::is_empty")]
     pub labels: Vec<String>,
+    /// How a gear on hand was made (its shift and tip, which are never changed); `None` for a
+    /// gear to be cut.
+    #[serde(skip)]
+    pub made: Option<crate::geometry::AsMade>,
 }
 
 /// One stage: a driver meshing with a driven gear of the same module and pressure angle.
@@ -73,7 +77,7 @@ pub struct Stage {
 impl Stage {
     /// A stage of unlabelled gears, given in metric terms, with no worked-out mesh.
     pub fn plain(driver_teeth: u32, driven_teeth: u32, module_mm: f64, pressure_angle_deg: f64) -> Stage {
-        let g = |teeth| Gear { teeth, labels: Vec::new() };
+        let g = |teeth| Gear { teeth, labels: Vec::new(), made: None };
         Stage {
             driver: g(driver_teeth),
             driven: g(driven_teeth),

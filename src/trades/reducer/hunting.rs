@@ -57,7 +57,7 @@ mod tests {
     use crate::numbers::rational::{Ratio, RelError};
 
     fn train(pairs: &[(u32, u32)]) -> Train {
-        let g = |t| Gear { teeth: t, labels: vec![] };
+        let g = |t| Gear { teeth: t, labels: vec![], made: None };
         let stages: Vec<Stage> = pairs
             .iter()
             .map(|&(a, b)| Stage {

@@ -218,7 +218,8 @@ impl Setup {
         let (Some(zi), [s]) = (self.fit.idler, self.train.stages.as_slice()) else {
             return self.train.clone();
         };
-        let idler = Gear { teeth: zi, labels: Vec::new() };
+        // An idler chosen from the gears on hand, cut standard.
+        let idler = Gear { teeth: zi, labels: Vec::new(), made: Some(Default::default()) };
         // A worked-out mesh was of the direct pair, which the machine does not have.
         let to_idler = Stage { driven: idler.clone(), mesh: None, ..s.clone() };
         let from_idler = Stage { driver: idler, mesh: None, ..s.clone() };
