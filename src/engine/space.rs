@@ -100,7 +100,18 @@ fn stage_mesh(
 
 /// What is wrong with a stage of gears on hand as they are, mounted tight, judged by the default
 /// limits: reported on every listing, whether or not the search checks meshes.
-fn made_defects(group: &MeshGroup, teeth: [u32; 2], made: Making) -> Vec<MeshDefect> {
+fn made_defects(group: &MeshGroup, teeth: [u32; 2], made: Making, form: ToothForm) -> Vec<MeshDefect> {
+    if form == ToothForm::Cycloidal {
+        // Cycloidal teeth take no shift and have no undercut: judged at their standard distance
+        // by the default cycloidal limits and a least contact ratio of 1, when both are on hand.
+        if made.iter().any(Option::is_none) {
+            return Vec::new();
+        }
+        return match cycloidal_mesh(group.module_mm, teeth, None) {
+            Ok(m) => check_cycloidal(&m, &Default::default(), 1.0),
+            Err(d) => vec![d],
+        };
+    }
     let Ok(sys) = ToothSystem::new(group.module_mm, group.pressure_angle_deg, Default::default()) else {
         return Vec::new();
     };
@@ -161,6 +172,8 @@ impl<'p> SearchSpace<'p> {
         let mut rejected: Vec<Rejection> = Vec::new();
         // Coaxial involute trains without a fixed distance find their common distance per train.
         let per_stage_mesh = problem.mesh.as_ref().filter(|r| !needs_fit(r));
+        // Gears on hand are judged in the form the meshes are checked in, or else the trade's.
+        let form = problem.mesh.as_ref().map_or(problem.tooth_form, |r| r.tooth_form);
         for (i, a) in pool.gears.iter().enumerate() {
             if lim.driver_teeth.is_some_and(|r| !r.contains(a.teeth)) {
                 continue;
@@ -208,7 +221,7 @@ impl<'p> SearchSpace<'p> {
                     value: b.teeth as f64 / a.teeth as f64,
                     mesh,
                     made_defects: if a.made.is_some() || b.made.is_some() {
-                        made_defects(&pool.groups[a.group], [a.teeth, b.teeth], [a.made, b.made])
+                        made_defects(&pool.groups[a.group], [a.teeth, b.teeth], [a.made, b.made], form)
                     } else {
                         Vec::new()
                     },

@@ -184,6 +184,10 @@ pub struct Problem {
     /// its own such a stage changes nothing; a trade turns it on where an idler or a compound
     /// stud makes it meaningful (set after [`Problem::new`]).
     pub equal_teeth_stages: bool,
+    /// The form the trade cuts its teeth to, by which gears on hand are judged on every listing
+    /// when meshes are not checked (mesh rules carry their own form). Involute unless a trade
+    /// says otherwise (clocks: cycloidal).
+    pub tooth_form: ToothForm,
 }
 
 impl Problem {
@@ -222,6 +226,7 @@ impl Problem {
             pareto: false,
             extra_key: None,
             equal_teeth_stages: false,
+            tooth_form: ToothForm::Involute,
         };
         if p.stage_counts().is_empty() {
             return Err(Error::value(

@@ -185,6 +185,26 @@ pub fn train_cells(train: &TrainJson) -> Vec<String> {
     ]
 }
 
+/// The trains whose gears on hand, as they are made, would not run well: gears on hand cannot
+/// be re-cut, so this is said on every listing, whether or not meshes were checked.
+pub fn on_hand(trains: &[TrainJson], d: &mut crate::report::Document) {
+    let notes: Vec<String> = trains
+        .iter()
+        .enumerate()
+        .map(|(i, t)| (i, on_hand_summary(t)))
+        .filter(|(_, s)| !s.is_empty())
+        .map(|(i, s)| format!("#{}: {s}", i + 1))
+        .collect();
+    if notes.is_empty() {
+        return;
+    }
+    d.blank();
+    d.line("Gears on hand as they are made (they cannot be re-cut; judged mounted tight):");
+    for n in notes {
+        d.line(format!("  {n}"));
+    }
+}
+
 /// One train as JSON; shared by every command that lists trains.
 #[derive(Serialize, Deserialize, Debug, Clone, PartialEq)]
 pub struct TrainJson {

@@ -148,6 +148,14 @@ pub fn describe_rate(s_per_day: f64, exact: bool) -> String {
     }
 }
 
+/// What is wrong with the listed trains' gears on hand, as they are made (see
+/// [`crate::report::fields::on_hand`]).
+fn on_hand<'a>(d: &mut Document, trains: impl Iterator<Item = &'a Train>) {
+    let listed: Vec<crate::report::fields::TrainJson> =
+        trains.map(crate::report::fields::TrainJson::from_train).collect();
+    crate::report::fields::on_hand(&listed, d);
+}
+
 fn footer(d: &mut Document, extra: &[&str]) {
     d.blank();
     for line in extra {
@@ -277,6 +285,7 @@ pub fn going(p: &GoingPlan) -> Document {
         }
         d.table(Table::new(&head, &[0]).with_rows(rows));
     }
+    on_hand(&mut d, p.trains.iter().map(|g| &g.train));
     footer(
         &mut d,
         &[
@@ -387,6 +396,7 @@ pub fn motion(p: &MotionPlan) -> Document {
             .with_rows(rows),
         );
     }
+    on_hand(&mut d, p.trains.iter());
     if cycloidal {
         footer(&mut d, &[
             "Pinions drive wheels (a reduction). Teeth are cycloidal wheel-and-pinion teeth, unshifted, each pair at",
@@ -504,6 +514,7 @@ pub fn astro(p: &AstroPlan) -> Document {
         })
         .collect();
     d.table(Table::new(&["fraction", "drift", ""], &[]).with_rows(rows));
+    on_hand(&mut d, p.trains.iter().map(|a| &a.train));
     footer(&mut d, &["Drift > 0: the dial runs ahead. A year is 365.2425 days (mean Gregorian year)."]);
     d
 }

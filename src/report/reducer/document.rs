@@ -202,6 +202,9 @@ pub fn document(p: &ReducerPlan) -> Document {
         }
     }
     d.blank();
+    let listed: Vec<crate::report::fields::TrainJson> =
+        p.trains.iter().map(crate::report::fields::TrainJson::from_train).collect();
+    crate::report::fields::on_hand(&listed, &mut d);
     d.note("Stages run from the input (motor) shaft to the output shaft; shifts in modules.");
     d.note(format!("Ratios: {CONVENTION}."));
     d.note(format!("CAUTION: {REDUCER_CAUTION}"));

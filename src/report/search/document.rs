@@ -5,7 +5,7 @@
 
 use super::json::Doc;
 use crate::model::pool::fmt_num;
-use crate::report::fields::{on_hand_summary, TrainJson};
+use crate::report::fields::{on_hand, TrainJson};
 use crate::report::words::{
     describe_error_f64, describe_tolerance, group_thousands, plain_words, CAUTION, CONVENTION,
 };
@@ -104,26 +104,6 @@ pub fn document(doc: &Doc) -> Document {
     d.note(format!("{CONVENTION}."));
     d.note(CAUTION);
     d
-}
-
-/// The trains whose gears on hand, as they are made, would not run well: gears on hand cannot
-/// be re-cut, so this is said on every listing, whether or not meshes were checked.
-pub fn on_hand(trains: &[TrainJson], d: &mut Document) {
-    let notes: Vec<String> = trains
-        .iter()
-        .enumerate()
-        .map(|(i, t)| (i, on_hand_summary(t)))
-        .filter(|(_, s)| !s.is_empty())
-        .map(|(i, s)| format!("#{}: {s}", i + 1))
-        .collect();
-    if notes.is_empty() {
-        return;
-    }
-    d.blank();
-    d.line("Gears on hand as they are made (they cannot be re-cut; judged mounted tight):");
-    for n in notes {
-        d.line(format!("  {n}"));
-    }
 }
 
 /// `20→75 (47.5)  12→120 (66)`: the centre distance is the working one when the mesh was worked

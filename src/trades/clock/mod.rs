@@ -58,7 +58,10 @@ pub fn clock_problem(
     if limit == 0 {
         return Err(Error::value(Quantity::Limit, "list at least one train"));
     }
-    Problem::new(target, pool, stages, limits, None, DEFAULT_RANK.to_vec(), limit)
+    let mut p = Problem::new(target, pool, stages, limits, None, DEFAULT_RANK.to_vec(), limit)?;
+    // Clock wheels and pinions are cut cycloidal: gears on hand are judged in that form.
+    p.tooth_form = crate::model::problem::ToothForm::Cycloidal;
+    Ok(p)
 }
 
 /// The cycloidal pair of every stage of `train`, at each stage's module and standard centre
