@@ -135,6 +135,10 @@ pub struct SearchArgs {
     /// lines) without holding them.
     #[arg(long, value_name = "K", default_value_t = 20)]
     pub limit: usize,
+    /// List every arrangement of each gear set under it (the ways of pairing its drivers with
+    /// its driven gears into stages that meet every constraint), not only the best.
+    #[arg(long)]
+    pub arrangements: bool,
     /// List the Pareto front instead: the trains no other train beats on error, meshes and size
     /// at once (the first K of it by --rank).
     #[arg(long)]
@@ -161,6 +165,7 @@ pub struct SearchJob {
     explain: bool,
     shard: Option<Shard>,
     long: bool,
+    arrangements: bool,
 }
 
 /// The module the flags give (checked here, so that with `--stock` an error names the flag and
@@ -218,7 +223,12 @@ impl TryFrom<SearchArgs> for SearchJob {
         let rank = parse_rank(&a.rank)?;
         let mut problem = Problem::new(target, pool, stages, limits, direction, rank, a.limit)?;
         problem.pareto = a.pareto;
+        // A listing shows gear sets; a stream hands out every train.
+        problem.gear_sets = a.limit > 0;
         if a.limit == 0 {
+            if a.arrangements {
+                return Err(refuse("--limit", "0 streams every train; it does not go with --arrangements"));
+            }
             if a.pareto {
                 return Err(refuse("--limit", "0 streams every train; it does not go with --pareto"));
             }
@@ -268,6 +278,7 @@ impl TryFrom<SearchArgs> for SearchJob {
             print: a.print,
             explain: a.explain,
             long: a.long,
+            arrangements: a.arrangements,
         })
     }
 }
@@ -276,7 +287,13 @@ impl Job for SearchJob {
     type Found = gearsieve::Outcome;
 
     fn search(&self, options: &RunOptions) -> anyhow::Result<gearsieve::Outcome> {
-        Ok(gearsieve::search(&self.problem, self.engine, options))
+        let options = RunOptions {
+            progress: options.progress,
+            cancel: options.cancel,
+            shard: options.shard,
+            list_arrangements: self.arrangements,
+        };
+        Ok(gearsieve::search(&self.problem, self.engine, &options))
     }
 
     fn report<'a>(&'a self, found: &'a gearsieve::Outcome) -> Box<dyn Report + 'a> {
@@ -316,8 +333,12 @@ pub fn run(args: SearchArgs) -> anyhow::Result<i32> {
         run::forecast(job.forecast()?, &print)?;
         let bar = Bar::new(print.quiet);
         let progress = |p| bar.update(p);
-        let options =
-            RunOptions { progress: Some(&progress), cancel: Some(&super::CANCEL), shard: job.shard };
+        let options = RunOptions {
+            progress: Some(&progress),
+            cancel: Some(&super::CANCEL),
+            shard: job.shard,
+            list_arrangements: false,
+        };
         let code = stream(&job, &print, &options);
         bar.finish();
         return code;

@@ -192,6 +192,8 @@ impl FactorTables {
     ) {
         let Some(count) = self.count(space, burnside, tick) else { return };
         tally.add_count(count);
+        // Gear sets are not counted in bulk here (yet).
+        tally.sets_not_counted();
         if count > 0 {
             self.list(space, burnside.n, tally);
         }

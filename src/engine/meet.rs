@@ -334,6 +334,8 @@ impl MeetRun<'_, '_> {
         let count: u64 =
             runs.iter().map(|&(x, k)| choose(vals.len[x] as u64 + k as u64 - 1, k as u64)).product();
         tally.add_count(count);
+        // Gear sets are not counted in bulk here (yet).
+        tally.sets_not_counted();
         let best = Candidate {
             stages: [0; MAX_STAGES],
             len: seq.len() as u8,

@@ -15,6 +15,7 @@
 //! Files, from the ground up:
 //! - `space.rs`: the stage space and the exact judge;
 //! - `tally.rs`: the counts and best trains a search keeps;
+//! - `sets.rs`: gear sets in a space: a train's set, its arrangements, the one it is counted by;
 //! - `kinds.rs`: the two kinds of engine, [`StageEngine`] and [`BulkEngine`] (with
 //!   [`BulkPlan`]);
 //! - the engines, one file each: [`sieve`], [`exhaustive`], [`meet`], [`factor`];
@@ -32,6 +33,7 @@ mod lineup;
 pub mod meet;
 mod options;
 mod plan;
+mod sets;
 pub mod sieve;
 mod space;
 mod stream;
@@ -41,7 +43,7 @@ pub use driver::search;
 pub use forecast::{estimate, Estimate};
 pub use kinds::{BulkEngine, BulkPlan, StageEngine};
 pub use lineup::EngineChoice;
-pub use options::{Outcome, Progress, RunOptions};
+pub use options::{Outcome, Progress, RunOptions, SetArrangements};
 pub use plan::Shard;
 pub use space::{Rejection, SearchSpace, StageDef, COAXIAL_MISFIT_KIND};
 pub use stream::search_each;

@@ -153,6 +153,10 @@ pub struct Problem {
     /// its own such a stage changes nothing; a trade turns it on where an idler or a compound
     /// stud makes it meaningful (set after [`Problem::new`]).
     pub equal_teeth_stages: bool,
+    /// List gear sets rather than trains: one entry per gear set (its best arrangement by the
+    /// ranking), with the number of gear sets counted beside the number of trains. Off by
+    /// default (set after [`Problem::new`]).
+    pub gear_sets: bool,
 }
 
 impl Problem {
@@ -191,6 +195,7 @@ impl Problem {
             pareto: false,
             extra_key: None,
             equal_teeth_stages: false,
+            gear_sets: false,
         };
         if p.stage_counts().is_empty() {
             return Err(Error::value(
