@@ -178,6 +178,50 @@ proptest! {
     }
 }
 
+/// Exact targets over gears to be cut with every pairing a stage: the factor engine's field.
+fn exact_problem_strategy() -> impl Strategy<Value = Problem> {
+    let target = prop_oneof![
+        // Ratios of tooth products, so that hits are common; 1 and its 1:1 pairings too.
+        3 => ((6u64..24, 6u64..24), (6u64..24, 1u64..24)).prop_map(|((a, b), (c, e))| (a * b, c * e)),
+        1 => Just((1, 1)),
+    ];
+    (target, 4u32..16, 2u32..10, 1u32..=4, 0u32..=2, 1usize..10, 0u32..3).prop_filter_map(
+        "a valid problem",
+        |((n, d), lo, w, stages_lo, extra, limit, driver)| {
+            let target =
+                Target::exact(format!("{n}/{d}"), Ratio::new(n as u128, d as u128)?, Ratio::new(0, 1)?);
+            let pool = Pool::to_cut(IntRange { lo, hi: lo + w }, 1.0, 20.0, None).ok()?;
+            // Sometimes fewer drivers than driven gears, so the two sides differ.
+            let limits = StageLimits {
+                driver_teeth: (driver > 0).then_some(IntRange { lo, hi: lo + w / (driver + 1) }),
+                ..StageLimits::default()
+            };
+            let stages = IntRange { lo: stages_lo, hi: (stages_lo + extra).min(4) };
+            Problem::new(target, pool, stages, limits, None, DEFAULT_RANK.to_vec(), limit).ok()
+        },
+    )
+}
+
+proptest! {
+    #![proptest_config(ProptestConfig { cases: 120, ..ProptestConfig::default() })]
+
+    /// The factor engine counts gear sets in bulk, exactly: the brute-force grouping's count,
+    /// 1:1 pairings and repeated gears included.
+    #[test]
+    fn the_factor_engine_counts_gear_sets(p in exact_problem_strategy()) {
+        let all = every_train(&p);
+        let groups = grouped(&all);
+        if std::env::var_os("GEARSIEVE_PROP_STATS").is_some() {
+            eprintln!("exact trains {} sets {} target {}", all.len(), groups.len(), p.target.ratio);
+        }
+        let o = by_sets(&p, EngineChoice::Auto, false, None);
+        prop_assert_eq!(o.count, all.len() as u64);
+        prop_assert_eq!(o.gear_set_count, Some(groups.len() as u64));
+        let want: Vec<&Train> = groups.iter().take(p.limit).map(|g| &g[0]).collect();
+        prop_assert_eq!(o.trains.iter().collect::<Vec<_>>(), want);
+    }
+}
+
 /// Three different drivers and three different driven gears that every pairing turns into a
 /// stage: one gear set of 3! = 6 arrangements, all with the same ratio. Worked by hand:
 /// 30·40·50 / (20·24·25) = 60000/12000 = 5.
@@ -217,4 +261,27 @@ fn six_arrangements_of_three_pairs_are_one_set() {
     assert_eq!(sets.arrangements[0].count, 6);
     assert_eq!(sets.arrangements[0].others.len(), 5);
     assert_eq!(sets.trains[0], all[0]);
+}
+
+/// Five and six stages (the factor engine's table of triples), against the brute force.
+#[test]
+fn the_factor_engine_counts_gear_sets_of_five_and_six_stages() {
+    for (ratio, lo, hi) in [("2", 10, 16), ("1", 10, 14), ("5/4", 10, 16)] {
+        let target = Target::parse(ratio, "0").unwrap();
+        let pool = Pool::to_cut(IntRange { lo, hi }, 1.0, 20.0, None).unwrap();
+        let p = Problem::new(
+            target,
+            pool,
+            IntRange { lo: 5, hi: 6 },
+            StageLimits::default(),
+            None,
+            DEFAULT_RANK.to_vec(),
+            5,
+        )
+        .unwrap();
+        let groups = grouped(&every_train(&p));
+        let o = by_sets(&p, EngineChoice::Auto, false, None);
+        assert!(!groups.is_empty(), "{ratio} over {lo}..{hi}");
+        assert_eq!(o.gear_set_count, Some(groups.len() as u64), "{ratio} over {lo}..{hi}");
+    }
 }

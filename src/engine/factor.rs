@@ -15,6 +15,15 @@
 //! `k` the tooth range allows, cut into parts that run in parallel. Every count is a whole
 //! number held exactly.
 //!
+//! Gear sets are counted on the same `k`: a gear set is a multiset of `n` driven teeth with
+//! product `k·p` and one of `n` drivers with product `k·q` (Burnside's lemma on each side alone
+//! counts them), less the pairs of multisets no pairing of which avoids a 1:1 stage. By Hall's
+//! theorem a pairing without equal teeth exists exactly when no tooth count appears more than
+//! `n` times among the drivers and driven gears together; at most one count can, and it divides
+//! `k` (it divides both products, whose greatest common divisor is `k`), so the pairs left out
+//! are counted tooth count by tooth count over the divisors of `k`, by how many of each side
+//! carry it.
+//!
 //! Listing: any train of a given `k` has a size (sum of teeth) of at least
 //! `n·(k·p)^{1/n} + n·(k·q)^{1/n}` and a largest gear of at least the `n`-th root of the larger
 //! product; both grow with `k`. So `k` is walked upwards, each `k`'s trains are spelt out
@@ -86,8 +95,8 @@ impl BulkPlan for FactorPlan {
         1
     }
 
-    fn prepare(&mut self, _space: &SearchSpace, n: usize, _unit: usize) -> u64 {
-        let sum = self.tables.burnside_sum(n, true);
+    fn prepare(&mut self, space: &SearchSpace, n: usize, _unit: usize) -> u64 {
+        let sum = self.tables.burnside_sum(n, true, space.problem.gear_sets);
         let ticks = sum.ticks();
         self.sums.push(sum);
         ticks
@@ -105,8 +114,8 @@ impl BulkPlan for FactorPlan {
         &self.counts
     }
 
-    fn forecast_seconds(&self, _space: &SearchSpace, n: usize, budget: std::time::Duration) -> f64 {
-        self.tables.forecast_seconds(&self.tables.burnside_sum(n, false), budget)
+    fn forecast_seconds(&self, space: &SearchSpace, n: usize, budget: std::time::Duration) -> f64 {
+        self.tables.forecast_seconds(&self.tables.burnside_sum(n, false, space.problem.gear_sets), budget)
     }
 }
 
@@ -190,10 +199,12 @@ impl FactorTables {
         tally: &mut Tally,
         tick: &(dyn Fn() + Sync),
     ) {
-        let Some(count) = self.count(space, burnside, tick) else { return };
+        let Some((count, sets)) = self.count(space, burnside, tick) else { return };
         tally.add_count(count);
-        // Gear sets are not counted in bulk here (yet).
-        tally.sets_not_counted();
+        match sets {
+            Some(sets) => tally.add_sets(sets),
+            None => tally.sets_not_counted(),
+        }
         if count > 0 {
             self.list(space, burnside.n, tally);
         }
@@ -210,8 +221,9 @@ impl FactorTables {
     }
 
     /// Burnside's sum for the `n`-stage trains: its terms and, when `cut`, the parts
-    /// of the sum over `k` (cutting costs about a pass over the `k`; a forecast needs no parts).
-    pub fn burnside_sum(&self, n: usize, cut: bool) -> BurnsideSum {
+    /// of the sum over `k` (cutting costs about a pass over the `k`; a forecast needs no parts),
+    /// with the sums that count gear sets when `sets`.
+    pub fn burnside_sum(&self, n: usize, cut: bool, sets: bool) -> BurnsideSum {
         let mut constant = 0;
         let mut terms = Vec::new();
         for (powers, coef) in cycle_terms(n, self.both) {
@@ -231,15 +243,18 @@ impl FactorTables {
         let k_hi = terms.iter().map(|t| t.k_hi).max().unwrap_or(0);
         let parts =
             if terms.is_empty() || !cut { Vec::new() } else { smooth_parts(&self.primes, k_hi, PART_SIZE) };
-        BurnsideSum { n, constant, terms, k_lo, k_hi, parts }
+        // Multisets of m teeth, m ≤ n, on one side: Burnside's lemma over the permutations of m.
+        let multisets = sets.then(|| (0..=n).map(multiset_terms).collect());
+        BurnsideSum { n, constant, terms, k_lo, k_hi, parts, multisets }
     }
 
-    /// Burnside's sum over one part of the `k`, or `None` when the search was stopped.
-    pub fn part_sum(&self, space: &SearchSpace, burnside: &BurnsideSum, part: usize) -> Option<i128> {
+    /// Burnside's sum over one part of the `k`, and the gear sets of that part when the sum
+    /// counts them, or `None` when the search was stopped.
+    pub fn part_sum(&self, space: &SearchSpace, burnside: &BurnsideSum, part: usize) -> Option<(i128, i128)> {
         if space.cancelled() {
             return None;
         }
-        let mut sum = 0i128;
+        let (mut sum, mut sets) = (0i128, 0i128);
         let mut seen = 0u32;
         let done = burnside.parts[part].for_each(&self.primes, burnside.k_lo, burnside.k_hi, &mut |k| {
             seen += 1;
@@ -247,9 +262,50 @@ impl FactorTables {
                 return false;
             }
             sum += self.k_sum(burnside, k);
+            sets += self.k_sets(burnside, k);
             true
         });
-        done.then_some(sum)
+        done.then_some((sum, sets))
+    }
+
+    /// The gear sets of one `k` (0 when the sum does not count them): pairs of a multiset of
+    /// driven teeth with product `k·p` and one of drivers with product `k·q` that some pairing
+    /// without a 1:1 stage turns into a train.
+    fn k_sets(&self, burnside: &BurnsideSum, k: &Factored) -> i128 {
+        let (Some(terms), Some((p, q))) = (&burnside.multisets, &self.parts) else { return 0 };
+        let n = burnside.n;
+        let (k_lo, k_hi) = self.k_range(n as u32);
+        if !(k_lo..=k_hi).contains(&k.value()) {
+            return 0;
+        }
+        let (Some(driven), Some(driver)) = (k.mul(p), k.mul(q)) else { return 0 };
+        let driven_sets = multisets(&self.driven, &driven, n, terms);
+        if driven_sets == 0 {
+            return 0;
+        }
+        let mut sets = driven_sets * multisets(&self.driver, &driver, n, terms);
+        if sets == 0 || self.both == 0 {
+            return sets;
+        }
+        // A tooth count carried `a` times by the drivers and `b` times by the driven gears with
+        // a + b > n leaves no pairing without a 1:1 stage (Hall's theorem).
+        let lo = self.driven.lo().max(self.driver.lo());
+        let hi = self.driven.hi().min(self.driver.hi());
+        k.for_each_divisor(lo, hi, &mut |t| {
+            if !(self.driven.contains(t) && self.driver.contains(t)) {
+                return;
+            }
+            for a in 1..=n {
+                let with_a = exactly(&self.driver, &driver, t, a, n, terms);
+                if with_a == 0 {
+                    continue;
+                }
+                for b in (n + 1 - a)..=n {
+                    sets -= with_a * exactly(&self.driven, &driven, t, b, n, terms);
+                }
+            }
+        });
+        sets
     }
 
     /// Burnside's sum for one `k`: every term's ordered products on both sides.
@@ -287,21 +343,23 @@ impl FactorTables {
             }
             let t = std::time::Instant::now();
             std::hint::black_box(self.k_sum(burnside, k));
+            std::hint::black_box(self.k_sets(burnside, k));
             t.elapsed().as_secs_f64()
         })
     }
 
-    /// The number of trains of `burnside` that hit the target, or `None` when the search was
-    /// stopped before it was known; `tick` is called after each part.
+    /// The number of trains of `burnside` that hit the target, with the number of gear sets
+    /// when the sum counts them, or `None` when the search was stopped before it was known;
+    /// `tick` is called after each part.
     pub fn count(
         &self,
         space: &SearchSpace,
         burnside: &BurnsideSum,
         tick: &(dyn Fn() + Sync),
-    ) -> Option<u64> {
+    ) -> Option<(u64, Option<u64>)> {
         let n = burnside.n;
         // The parts differ in size, so each is its own task.
-        let sums: Vec<Option<i128>> = (0..burnside.parts.len())
+        let sums: Vec<Option<(i128, i128)>> = (0..burnside.parts.len())
             .into_par_iter()
             .with_max_len(1)
             .map(|i| {
@@ -311,13 +369,18 @@ impl FactorTables {
             })
             .collect();
         let mut total = burnside.constant;
+        let mut sets = 0i128;
         for s in sums {
-            total += s?;
+            let (t, g) = s?;
+            total += t;
+            sets += g;
         }
         let orderings: i128 = (1..=n as i128).product();
         debug_assert_eq!(total % orderings, 0, "Burnside's sum is a multiple of n!");
         // Trains of at most six stages of at most 1000 teeth number far fewer than 2⁶⁴.
-        Some(u64::try_from(total / orderings).unwrap_or(u64::MAX))
+        let trains = u64::try_from(total / orderings).unwrap_or(u64::MAX);
+        let sets = burnside.multisets.as_ref().map(|_| u64::try_from(sets).unwrap_or(u64::MAX));
+        Some((trains, sets))
     }
 
     /// Offer the `n`-stage trains that could be listed, walking `k` upwards.
@@ -468,6 +531,8 @@ pub struct BurnsideSum {
     k_lo: u64,
     k_hi: u64,
     parts: Vec<SmoothPart>,
+    /// For counting gear sets: Burnside's terms for multisets of `m` teeth, `m` = 0 to `n`.
+    multisets: Option<Vec<Vec<(Vec<u32>, i128)>>>,
 }
 
 impl BurnsideSum {
@@ -480,6 +545,56 @@ impl BurnsideSum {
     pub fn ticks(&self) -> u64 {
         self.parts.len() as u64 + 1
     }
+}
+
+/// Burnside's terms for multisets of `m` members: for each cycle shape of the permutations of
+/// `m` places (powers descending), how many permutations have it.
+fn multiset_terms(m: usize) -> Vec<(Vec<u32>, i128)> {
+    let factorial = |m: u32| (1..=m as i128).product::<i128>();
+    partitions(m as u32, m as u32)
+        .into_iter()
+        .map(|shape| {
+            let mut runs: Vec<(u32, u32)> = Vec::new();
+            for &l in &shape {
+                match runs.last_mut() {
+                    Some((len, c)) if *len == l => *c += 1,
+                    _ => runs.push((l, 1)),
+                }
+            }
+            let perms = factorial(m as u32)
+                / runs.iter().map(|&(l, c)| (l as i128).pow(c) * factorial(c)).product::<i128>();
+            (shape, perms)
+        })
+        .collect()
+}
+
+/// The multisets of `m` members of `set` with product `x`, by Burnside's lemma with `terms[m]`.
+fn multisets(set: &ToothSet, x: &Factored, m: usize, terms: &[Vec<(Vec<u32>, i128)>]) -> i128 {
+    if m == 0 {
+        return (x.value() == 1) as i128;
+    }
+    let sum: i128 =
+        terms[m].iter().map(|(powers, perms)| perms * set.ordered_products(x, powers) as i128).sum();
+    sum / (1..=m as i128).product::<i128>()
+}
+
+/// The multisets of `n` members of `set` with product `x` that hold the member `t` exactly `a`
+/// times: those of `n − a` with product `x / t^a`, less those of them that hold `t` again.
+fn exactly(
+    set: &ToothSet,
+    x: &Factored,
+    t: u64,
+    a: usize,
+    n: usize,
+    terms: &[Vec<(Vec<u32>, i128)>],
+) -> i128 {
+    let Some(rest) = x.divided_by(t, a as u32) else { return 0 };
+    let at_least = multisets(set, &rest, n - a, terms);
+    let more = match (n > a).then(|| rest.divided_by(t, 1)).flatten() {
+        Some(r) => multisets(set, &r, n - a - 1, terms),
+        None => 0,
+    };
+    at_least - more
 }
 
 /// The factorisations of `n` into `m` members of `set`, each ascending (a multiset of teeth).
