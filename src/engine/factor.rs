@@ -54,6 +54,10 @@ use crate::numbers::smooth::{
 /// ordered triples has (teeth)³ entries, 66 MB at this bound.
 pub const MAX_TEETH_FOR_SIX_STAGES: u32 = 255;
 
+/// Most terms of Burnside's sum: cycle shapes of at most six places with some cycles taken
+/// out number far fewer.
+const MAX_TERMS: usize = 64;
+
 /// Most values of `k` in one part of the sum: parts are tasks for the parallel pool and ticks
 /// of the progress bar.
 const PART_SIZE: u64 = 1 << 14;
@@ -236,7 +240,12 @@ impl FactorTables {
             }
             let (k_lo, k_hi) = self.k_range(powers.iter().sum());
             if k_lo <= k_hi && self.parts.is_some() {
-                terms.push(Term { powers, coef, k_lo, k_hi });
+                let perms = (powers.iter().sum::<u32>() == n as u32)
+                    .then(|| {
+                        multiset_terms(n).into_iter().find(|(shape, _)| *shape == powers).map(|(_, c)| c)
+                    })
+                    .flatten();
+                terms.push(Term { powers, coef, perms, k_lo, k_hi });
             }
         }
         let k_lo = terms.iter().map(|t| t.k_lo).min().unwrap_or(1);
@@ -261,68 +270,119 @@ impl FactorTables {
             if seen % CANCEL_EVERY == 0 && space.cancelled() {
                 return false;
             }
-            sum += self.k_sum(burnside, k);
-            sets += self.k_sets(burnside, k);
+            let (t, g) = self.k_sums(burnside, k);
+            sum += t;
+            sets += g;
             true
         });
         done.then_some((sum, sets))
     }
 
-    /// The gear sets of one `k` (0 when the sum does not count them): pairs of a multiset of
-    /// driven teeth with product `k·p` and one of drivers with product `k·q` that some pairing
-    /// without a 1:1 stage turns into a train.
-    fn k_sets(&self, burnside: &BurnsideSum, k: &Factored) -> i128 {
-        let (Some(terms), Some((p, q))) = (&burnside.multisets, &self.parts) else { return 0 };
+    /// Burnside's sum for one `k`: every term's ordered products on both sides; and the gear
+    /// sets of that `k` when the sum counts them (0 otherwise): pairs of a multiset of driven
+    /// teeth with product `k·p` and one of drivers with product `k·q` that some pairing without
+    /// a 1:1 stage turns into a train. The multisets are counted from the same ordered products
+    /// (the terms of the shapes of all `n` places), so counting gear sets adds little.
+    fn k_sums(&self, burnside: &BurnsideSum, k: &Factored) -> (i128, i128) {
+        let Some((p, q)) = &self.parts else { return (0, 0) };
+        // k is within the largest term's bound, so the products fit.
+        let (Some(driven), Some(driver)) = (k.mul(p), k.mul(q)) else { return (0, 0) };
+        // The driven side first: when no multiset of driven teeth has the product (the all-ones
+        // shape counts every tuple, so it is 0 exactly then), neither trains nor sets need the
+        // drivers.
+        let mut driven_counts = [0u64; MAX_TERMS];
+        let mut any_driven = false;
+        for (a, t) in driven_counts.iter_mut().zip(&burnside.terms) {
+            if (t.k_lo..=t.k_hi).contains(&k.value()) {
+                *a = self.driven.ordered_products(&driven, &t.powers);
+                any_driven |= *a > 0;
+            }
+        }
+        if !any_driven {
+            return (0, 0);
+        }
+        let sets = burnside.multisets.is_some();
+        let mut sum = 0;
+        // Σ permutations · ordered products over the shapes of n, on each side.
+        let (mut driven_sets, mut driver_sets) = (0i128, 0i128);
+        for (&a, t) in driven_counts.iter().zip(&burnside.terms) {
+            let whole = t.perms.filter(|_| sets && (t.k_lo..=t.k_hi).contains(&k.value()));
+            if a == 0 && whole.is_none() {
+                continue;
+            }
+            let b = self.driver.ordered_products(&driver, &t.powers) as i128;
+            sum += t.coef * a as i128 * b;
+            if let Some(perms) = whole {
+                driven_sets += perms * a as i128;
+                driver_sets += perms * b;
+            }
+        }
+        if driven_sets == 0 || driver_sets == 0 {
+            return (sum, 0);
+        }
+        let orderings: i128 = (1..=burnside.n as i128).product();
+        let sets = (driven_sets / orderings) * (driver_sets / orderings);
+        (sum, sets - self.without_pairing(burnside, k, &driven, &driver))
+    }
+
+    /// The pairs of multisets (drivers with product `driver`, driven gears with product
+    /// `driven`) that no pairing without a 1:1 stage turns into a train: by Hall's theorem,
+    /// those where one tooth count is carried `a` times by the drivers and `b` times by the
+    /// driven gears with `a + b > n`.
+    fn without_pairing(
+        &self,
+        burnside: &BurnsideSum,
+        k: &Factored,
+        driven: &Factored,
+        driver: &Factored,
+    ) -> i128 {
+        let Some(terms) = &burnside.multisets else { return 0 };
+        if self.both == 0 {
+            return 0;
+        }
         let n = burnside.n;
-        let (k_lo, k_hi) = self.k_range(n as u32);
-        if !(k_lo..=k_hi).contains(&k.value()) {
-            return 0;
+        let mut out = 0;
+        let Some((p, q)) = &self.parts else { return 0 };
+        // t divides k, and t^(n+1) divides the product of both sides, k²·p·q: prime by prime,
+        // t's exponent is at most the least of v(k) and (2·v(k) + v(p) + v(q)) / (n + 1). Most
+        // k leave no room for a tooth count there, and are done at once.
+        let exponent = |f: &Factored, r: u32| f.powers().find(|&(x, _)| x == r).map_or(0, |(_, e)| e as u32);
+        let mut room = 1u64;
+        for (r, e) in k.powers() {
+            let e = e as u32;
+            let most = e.min((2 * e + exponent(p, r) + exponent(q, r)) / (n as u32 + 1));
+            room *= (r as u64).pow(most);
         }
-        let (Some(driven), Some(driver)) = (k.mul(p), k.mul(q)) else { return 0 };
-        let driven_sets = multisets(&self.driven, &driven, n, terms);
-        if driven_sets == 0 {
-            return 0;
-        }
-        let mut sets = driven_sets * multisets(&self.driver, &driver, n, terms);
-        if sets == 0 || self.both == 0 {
-            return sets;
-        }
-        // A tooth count carried `a` times by the drivers and `b` times by the driven gears with
-        // a + b > n leaves no pairing without a 1:1 stage (Hall's theorem).
         let lo = self.driven.lo().max(self.driver.lo());
-        let hi = self.driven.hi().min(self.driver.hi());
-        k.for_each_divisor(lo, hi, &mut |t| {
+        let hi = self.driven.hi().min(self.driver.hi()).min(room);
+        if lo > hi {
+            return 0;
+        }
+        let Some(room) = Factored::of(room, &self.primes) else { return 0 };
+        room.for_each_divisor(lo, hi, &mut |t| {
             if !(self.driven.contains(t) && self.driver.contains(t)) {
                 return;
             }
-            for a in 1..=n {
-                let with_a = exactly(&self.driver, &driver, t, a, n, terms);
-                if with_a == 0 {
-                    continue;
-                }
-                for b in (n + 1 - a)..=n {
-                    sets -= with_a * exactly(&self.driven, &driven, t, b, n, terms);
+            // The most times t can be carried on each side: its power in the side's product.
+            let most = |x: &Factored| {
+                (1..=n).take_while(|&a| x.divided_by(t, a as u32).is_some()).last().unwrap_or(0)
+            };
+            let (most_driver, most_driven) = (most(driver), most(driven));
+            if most_driver + most_driven <= n {
+                return;
+            }
+            let mut with_b = [0i128; MAX_STAGES + 1];
+            for (b, w) in with_b.iter_mut().enumerate().take(most_driven + 1).skip(n + 1 - most_driver) {
+                *w = exactly(&self.driven, driven, t, b, n, terms);
+            }
+            for a in (n + 1 - most_driven)..=most_driver {
+                let with_a = exactly(&self.driver, driver, t, a, n, terms);
+                if with_a != 0 {
+                    out += with_a * with_b[(n + 1 - a)..=most_driven].iter().sum::<i128>();
                 }
             }
         });
-        sets
-    }
-
-    /// Burnside's sum for one `k`: every term's ordered products on both sides.
-    fn k_sum(&self, burnside: &BurnsideSum, k: &Factored) -> i128 {
-        let Some((p, q)) = &self.parts else { return 0 };
-        // k is within the largest term's bound, so the products fit.
-        let (Some(driven), Some(driver)) = (k.mul(p), k.mul(q)) else { return 0 };
-        let mut sum = 0;
-        for t in &burnside.terms {
-            if (t.k_lo..=t.k_hi).contains(&k.value()) {
-                let a = self.driven.ordered_products(&driven, &t.powers);
-                if a > 0 {
-                    sum += t.coef * a as i128 * self.driver.ordered_products(&driver, &t.powers) as i128;
-                }
-            }
-        }
-        sum
+        out
     }
 
     /// Forecast the seconds one thread needs for [`FactorTables::count`] on `burnside`: Knuth's probe
@@ -342,8 +402,7 @@ impl FactorTables {
                 return 0.0;
             }
             let t = std::time::Instant::now();
-            std::hint::black_box(self.k_sum(burnside, k));
-            std::hint::black_box(self.k_sets(burnside, k));
+            std::hint::black_box(self.k_sums(burnside, k));
             t.elapsed().as_secs_f64()
         })
     }
@@ -518,6 +577,9 @@ impl FactorTables {
 struct Term {
     powers: Vec<u32>,
     coef: i128,
+    /// For a shape of all `n` places (nothing taken out): how many permutations have it, the
+    /// term's weight when the multisets of one side are counted.
+    perms: Option<i128>,
     k_lo: u64,
     k_hi: u64,
 }
