@@ -1,4 +1,4 @@
-//! `gearsieve search`: the general search. The clap struct mirrors the flags; `TryFrom` turns it
+//! `gearsieve search`: the general search, listing gear sets (each by its best arrangement). The clap struct mirrors the flags; `TryFrom` turns it
 //! into a validated [`Problem`] plus how to run and print it.
 
 use std::borrow::Cow;
@@ -131,16 +131,16 @@ pub struct SearchArgs {
     /// pitch diameter). Ties go to fewer meshes, smaller error, smaller size, then the stages.
     #[arg(long, value_name = "KEYS", default_value = "error,meshes,size")]
     pub rank: String,
-    /// Trains to list; all are counted. 0 streams every train as it is found (CSV rows or JSON
-    /// lines) without holding them.
+    /// Gear sets to list, each by its best arrangement; every train and gear set is counted. 0
+    /// streams every train as it is found (CSV rows or JSON lines) without holding them.
     #[arg(long, value_name = "K", default_value_t = 20)]
     pub limit: usize,
     /// List every arrangement of each gear set under it (the ways of pairing its drivers with
     /// its driven gears into stages that meet every constraint), not only the best.
     #[arg(long)]
     pub arrangements: bool,
-    /// List the Pareto front instead: the trains no other train beats on error, meshes and size
-    /// at once (the first K of it by --rank).
+    /// List the Pareto front instead: the gear sets no other beats on error, meshes and size at
+    /// once (the first K of it by --rank).
     #[arg(long)]
     pub pareto: bool,
     /// Run even when the search is forecast to take more than an hour.
