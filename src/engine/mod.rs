@@ -18,7 +18,8 @@
 //! - `sets.rs`: gear sets in a space: a train's set, its arrangements, the one it is counted by;
 //! - `kinds.rs`: the two kinds of engine, [`StageEngine`] and [`BulkEngine`] (with
 //!   [`BulkPlan`]);
-//! - the engines, one file each: [`sieve`], [`exhaustive`], [`meet`], [`factor`];
+//! - the engines, one file each: [`sieve`], [`exhaustive`], [`meet`], [`factor`]; `setcount.rs`
+//!   counts the meet engine's gear sets by meeting in the middle over each side's multisets;
 //! - `lineup.rs`: which engines a choice asks, in which order (where an engine is registered);
 //! - `plan.rs`: who takes which stage count, units of work, shards;
 //! - `options.rs`: how to run a search and what it reports;
@@ -33,6 +34,7 @@ mod lineup;
 pub mod meet;
 mod options;
 mod plan;
+mod setcount;
 mod sets;
 pub mod sieve;
 mod space;
