@@ -230,16 +230,14 @@ proptest! {
 #[test]
 fn six_arrangements_of_three_pairs_are_one_set() {
     let pool = Pool::from_stock(
-        &[20, 24, 25, 30, 40, 50]
-            .map(|teeth| StockGear {
-                teeth,
-                module_mm: 1.0,
-                diametral_pitch: None,
-                pressure_angle_deg: 20.0,
-                quantity: 1,
-                label: String::new(),
-            })
-            .to_vec(),
+        &[20, 24, 25, 30, 40, 50].map(|teeth| StockGear {
+            teeth,
+            module_mm: 1.0,
+            diametral_pitch: None,
+            pressure_angle_deg: 20.0,
+            quantity: 1,
+            label: String::new(),
+        }),
         "hand",
     )
     .unwrap();

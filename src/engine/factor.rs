@@ -594,7 +594,7 @@ pub struct BurnsideSum {
     k_hi: u64,
     parts: Vec<SmoothPart>,
     /// For counting gear sets: Burnside's terms for multisets of `m` teeth, `m` = 0 to `n`.
-    multisets: Option<Vec<Vec<(Vec<u32>, i128)>>>,
+    multisets: Option<Vec<MultisetTerms>>,
 }
 
 impl BurnsideSum {
@@ -609,9 +609,12 @@ impl BurnsideSum {
     }
 }
 
+/// Burnside's terms for multisets of some number of members: (cycle shape, permutations).
+type MultisetTerms = Vec<(Vec<u32>, i128)>;
+
 /// Burnside's terms for multisets of `m` members: for each cycle shape of the permutations of
 /// `m` places (powers descending), how many permutations have it.
-fn multiset_terms(m: usize) -> Vec<(Vec<u32>, i128)> {
+fn multiset_terms(m: usize) -> MultisetTerms {
     let factorial = |m: u32| (1..=m as i128).product::<i128>();
     partitions(m as u32, m as u32)
         .into_iter()
@@ -631,7 +634,7 @@ fn multiset_terms(m: usize) -> Vec<(Vec<u32>, i128)> {
 }
 
 /// The multisets of `m` members of `set` with product `x`, by Burnside's lemma with `terms[m]`.
-fn multisets(set: &ToothSet, x: &Factored, m: usize, terms: &[Vec<(Vec<u32>, i128)>]) -> i128 {
+fn multisets(set: &ToothSet, x: &Factored, m: usize, terms: &[MultisetTerms]) -> i128 {
     if m == 0 {
         return (x.value() == 1) as i128;
     }
@@ -642,14 +645,7 @@ fn multisets(set: &ToothSet, x: &Factored, m: usize, terms: &[Vec<(Vec<u32>, i12
 
 /// The multisets of `n` members of `set` with product `x` that hold the member `t` exactly `a`
 /// times: those of `n − a` with product `x / t^a`, less those of them that hold `t` again.
-fn exactly(
-    set: &ToothSet,
-    x: &Factored,
-    t: u64,
-    a: usize,
-    n: usize,
-    terms: &[Vec<(Vec<u32>, i128)>],
-) -> i128 {
+fn exactly(set: &ToothSet, x: &Factored, t: u64, a: usize, n: usize, terms: &[MultisetTerms]) -> i128 {
     let Some(rest) = x.divided_by(t, a as u32) else { return 0 };
     let at_least = multisets(set, &rest, n - a, terms);
     let more = match (n > a).then(|| rest.divided_by(t, 1)).flatten() {

@@ -10,6 +10,10 @@ use std::sync::Arc;
 use crate::model::pool::MAX_STAGES;
 use crate::model::rank::Candidate;
 
+/// One stage of a pairing: (driver kind, driven kind), indices into
+/// [`crate::model::pool::Pool::gears`].
+pub type KindPair = (u32, u32);
+
 /// A gear set: the driver and driven gear kinds of a train, each list ascending by pool index.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, PartialOrd, Ord, Hash)]
 pub struct GearSet {
@@ -51,7 +55,7 @@ impl GearSet {
     /// Call `visit` once with every distinct pairing of the drivers with the driven gears, as
     /// (driver kind, driven kind) pairs (a multiset of stages is visited once, however many
     /// equal gears the set holds). Whether each pair is a stage is the caller's question.
-    pub fn for_each_pairing(&self, visit: &mut dyn FnMut(&[(u32, u32)])) {
+    pub fn for_each_pairing(&self, visit: &mut dyn FnMut(&[KindPair])) {
         let n = self.len as usize;
         // The driven kinds with how many of each are left to pair.
         let mut left: Vec<(u32, u32)> = Vec::with_capacity(n);
@@ -81,7 +85,7 @@ fn pair_from(
     left: &mut [(u32, u32)],
     chosen: &mut [usize; MAX_STAGES],
     pairs: &mut [(u32, u32); MAX_STAGES],
-    visit: &mut dyn FnMut(&[(u32, u32)]),
+    visit: &mut dyn FnMut(&[KindPair]),
 ) {
     if at == drivers.len() {
         visit(&pairs[..at]);
