@@ -60,9 +60,9 @@ pub struct Doc {
     pub convention: String,
     /// Ranking keys, most important first.
     pub ranked_by: Vec<String>,
-    /// How many trains were to be listed.
+    /// How many gear sets were to be listed.
     pub limit: usize,
-    /// Size of the Pareto front, for a Pareto search.
+    /// Size of the Pareto front (of gear sets), for a Pareto search.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub pareto_size: Option<usize>,
     /// `I/N` when this document covers one part of a split search.
@@ -74,7 +74,7 @@ pub struct Doc {
     /// What the mesh checks left out.
     #[serde(default, skip_serializing_if = "Vec::is_empty")]
     pub rejected: Vec<RejectionJson>,
-    /// The trains listed, best first.
+    /// The gear sets listed, best first, each as its best arrangement.
     pub trains: Vec<TrainJson>,
 }
 
