@@ -50,6 +50,12 @@ impl SetTools {
     /// arrangement of the same gears come before it?
     pub fn is_canonical(&self, space: &SearchSpace, c: &Candidate) -> bool {
         let idx = c.stage_indices();
+        if !space.needs_coaxial_fit() && space.problem.train_check.is_none() {
+            // Every pairing into stages satisfies the problem as `c` does: the first one can be
+            // built directly.
+            let first = self.first_staged_pairing(&self.set_of.of(c));
+            return first.as_ref().is_some_and(|f| &f[..idx.len()] == idx);
+        }
         let mut canonical = true;
         self.for_each_staged_pairing(&self.set_of.of(c), &mut |other| {
             if canonical && other < idx && rearranged(space, c, other).is_some() {
@@ -57,6 +63,53 @@ impl SetTools {
             }
         });
         canonical
+    }
+
+    /// The pairing of `set` into stages whose sorted stage sequence comes first, built stage by
+    /// stage: each time the pairing of least stage index that leaves the rest able to pair into
+    /// stages. (Its least stage comes first in any pairing; a pair of lesser index left for later
+    /// could have been taken first, so the sequence built is sorted and the least.)
+    fn first_staged_pairing(&self, set: &GearSet) -> Option<[u32; MAX_STAGES]> {
+        let n = set.len as usize;
+        let (mut drivers, mut driven) = (set.drivers, set.driven);
+        let mut out = [0u32; MAX_STAGES];
+        for (step, slot) in out.iter_mut().enumerate().take(n) {
+            let left = n - step;
+            let mut best: Option<(u32, usize, usize)> = None;
+            for i in 0..left {
+                if i > 0 && drivers[i] == drivers[i - 1] {
+                    continue;
+                }
+                for j in 0..left {
+                    if j > 0 && driven[j] == driven[j - 1] {
+                        continue;
+                    }
+                    let Some(&s) = self.stage_of.get(&(drivers[i], driven[j])) else { continue };
+                    if best.is_some_and(|(b, _, _)| b <= s) {
+                        continue;
+                    }
+                    let (d, r) = (without(&drivers[..left], i), without(&driven[..left], j));
+                    if self.can_pair(&d[..left - 1], &r[..left - 1]) {
+                        best = Some((s, i, j));
+                    }
+                }
+            }
+            let (s, i, j) = best?;
+            *slot = s;
+            drivers = without(&drivers[..left], i);
+            driven = without(&driven[..left], j);
+        }
+        Some(out)
+    }
+
+    /// Can the drivers `d` and driven gears `r` (each ascending, as many) pair into stages?
+    fn can_pair(&self, d: &[u32], r: &[u32]) -> bool {
+        let Some((&first, rest)) = d.split_first() else { return true };
+        (0..r.len()).any(|j| {
+            (j == 0 || r[j] != r[j - 1])
+                && self.stage_of.contains_key(&(first, r[j]))
+                && self.can_pair(rest, &without(r, j)[..r.len() - 1])
+        })
     }
 
     /// Every arrangement of `c`'s gear set that satisfies the problem, best first by the
@@ -68,6 +121,19 @@ impl SetTools {
         all.sort_by(|a, b| compare(keys, a, b));
         all
     }
+}
+
+/// `list` without its member at `at`, in order, in a fixed array.
+fn without(list: &[u32], at: usize) -> [u32; MAX_STAGES] {
+    let mut out = [0u32; MAX_STAGES];
+    let mut n = 0;
+    for (k, &x) in list.iter().enumerate() {
+        if k != at {
+            out[n] = x;
+            n += 1;
+        }
+    }
+    out
 }
 
 /// The verdict on `idx`, an arrangement of the gears of the satisfying train `c`, as
