@@ -255,15 +255,29 @@ fn a_closed_pipe_ends_quietly() {
 /// Four stages of 12..150 teeth hitting 127/120 exactly: the count the factor engine gives was
 /// found the same by the meet engine (which spells out value sequences) and by a convolution
 /// of value-pair products (tests/engines.rs); the smallest trains need the 127-tooth gear once.
+/// They are the three arrangements of one gear set (drivers 24, 24, 20, 18; driven 12, 12, 12,
+/// 127: the 127 meets the 24, the 20 or the 18, worked by hand).
 #[test]
 fn exact_four_stage_trains_are_counted_and_the_smallest_listed() {
-    let (code, v) =
-        json(&["search", "--ratio", "127/120", "--teeth", "12..150", "--stages", "4", "--limit", "3"]);
+    let (code, v) = json(&[
+        "search",
+        "--ratio",
+        "127/120",
+        "--teeth",
+        "12..150",
+        "--stages",
+        "4",
+        "--limit",
+        "1",
+        "--arrangements",
+    ]);
     assert_eq!(code, 0);
     assert_eq!(v["count"], 925_685_350u64);
-    let trains = v["trains"].as_array().unwrap();
-    assert_eq!(trains.len(), 3);
-    for t in trains {
+    let set = &v["trains"][0];
+    assert_eq!(set["arrangements"], 3);
+    let others = set["other_arrangements"].as_array().unwrap();
+    assert_eq!(others.len(), 2);
+    for t in std::iter::once(set).chain(others) {
         assert_eq!(t["ratio"], "127/120");
         assert_eq!(t["size"], 249);
         let driven: Vec<u64> =

@@ -211,7 +211,12 @@ pub fn run<J: Job>(job: &J, print: &Print) -> anyhow::Result<i32> {
     forecast(job.forecast()?, print)?;
     let bar = Bar::new(print.quiet || !job.shows_progress());
     let progress = |p| bar.update(p);
-    let options = RunOptions { progress: Some(&progress), cancel: Some(&CANCEL), shard: job.shard() };
+    let options = RunOptions {
+        progress: Some(&progress),
+        cancel: Some(&CANCEL),
+        shard: job.shard(),
+        list_arrangements: false,
+    };
     let found = with_threads(print.threads, || job.search(&options))??;
     bar.finish();
     let report = job.report(&found);

@@ -1,4 +1,4 @@
-//! `gearsieve search`: the general search. The clap struct mirrors the flags; `TryFrom` turns it
+//! `gearsieve search`: the general search, listing gear sets (each by its best arrangement). The clap struct mirrors the flags; `TryFrom` turns it
 //! into a validated [`Problem`] plus how to run and print it.
 
 use std::borrow::Cow;
@@ -138,12 +138,16 @@ pub struct SearchArgs {
     /// pitch diameter). Ties go to fewer meshes, smaller error, smaller size, then the stages.
     #[arg(long, value_name = "KEYS", default_value = "error,meshes,size")]
     pub rank: String,
-    /// Trains to list; all are counted. 0 streams every train as it is found (CSV rows or JSON
-    /// lines) without holding them.
+    /// Gear sets to list, each by its best arrangement; every train and gear set is counted. 0
+    /// streams every train as it is found (CSV rows or JSON lines) without holding them.
     #[arg(long, value_name = "K", default_value_t = 20)]
     pub limit: usize,
-    /// List the Pareto front instead: the trains no other train beats on error, meshes and size
-    /// at once (the first K of it by --rank).
+    /// List every arrangement of each gear set under it (the ways of pairing its drivers with
+    /// its driven gears into stages that meet every constraint), not only the best.
+    #[arg(long)]
+    pub arrangements: bool,
+    /// List the Pareto front instead: the gear sets no other beats on error, meshes and size at
+    /// once (the first K of it by --rank).
     #[arg(long)]
     pub pareto: bool,
     /// Run even when the search is forecast to take more than an hour.
@@ -168,6 +172,7 @@ pub struct SearchJob {
     explain: bool,
     shard: Option<Shard>,
     long: bool,
+    arrangements: bool,
 }
 
 /// The module the flags give (checked here, so that with `--stock` an error names the flag and
@@ -225,7 +230,12 @@ impl TryFrom<SearchArgs> for SearchJob {
         let rank = parse_rank(&a.rank)?;
         let mut problem = Problem::new(target, pool, stages, limits, direction, rank, a.limit)?;
         problem.pareto = a.pareto;
+        // A listing shows gear sets; a stream hands out every train.
+        problem.gear_sets = a.limit > 0;
         if a.limit == 0 {
+            if a.arrangements {
+                return Err(refuse("--limit", "0 streams every train; it does not go with --arrangements"));
+            }
             if a.pareto {
                 return Err(refuse("--limit", "0 streams every train; it does not go with --pareto"));
             }
@@ -299,6 +309,7 @@ impl TryFrom<SearchArgs> for SearchJob {
             print: a.print,
             explain: a.explain,
             long: a.long,
+            arrangements: a.arrangements,
         })
     }
 }
@@ -307,7 +318,13 @@ impl Job for SearchJob {
     type Found = gearsieve::Outcome;
 
     fn search(&self, options: &RunOptions) -> anyhow::Result<gearsieve::Outcome> {
-        Ok(gearsieve::search(&self.problem, self.engine, options))
+        let options = RunOptions {
+            progress: options.progress,
+            cancel: options.cancel,
+            shard: options.shard,
+            list_arrangements: self.arrangements,
+        };
+        Ok(gearsieve::search(&self.problem, self.engine, &options))
     }
 
     fn report<'a>(&'a self, found: &'a gearsieve::Outcome) -> Box<dyn Report + 'a> {
@@ -347,8 +364,12 @@ pub fn run(args: SearchArgs) -> anyhow::Result<i32> {
         run::forecast(job.forecast()?, &print)?;
         let bar = Bar::new(print.quiet);
         let progress = |p| bar.update(p);
-        let options =
-            RunOptions { progress: Some(&progress), cancel: Some(&super::CANCEL), shard: job.shard };
+        let options = RunOptions {
+            progress: Some(&progress),
+            cancel: Some(&super::CANCEL),
+            shard: job.shard,
+            list_arrangements: false,
+        };
         let code = stream(&job, &print, &options);
         bar.finish();
         return code;

@@ -8,8 +8,9 @@ use std::sync::atomic::{AtomicU64, Ordering as AtomicOrdering};
 use rayon::prelude::*;
 
 use super::lineup::EngineChoice;
-use super::options::{Outcome, Progress, RunOptions};
+use super::options::{Outcome, Progress, RunOptions, SetArrangements};
 use super::plan::{plan, WorkUnit};
+use super::sets::SetTools;
 use super::space::SearchSpace;
 use super::tally::Tally;
 use crate::model::problem::Problem;
@@ -27,12 +28,14 @@ pub fn search(problem: &Problem, choice: EngineChoice, options: &RunOptions) -> 
             p(Progress { done: d, total });
         }
     };
+    let sets = problem.gear_sets.then(|| SetTools::new(&space));
+    let set_of = sets.as_ref().map(|s| &s.set_of);
     let tally = plan
         .units
         .par_iter()
         .with_max_len(1)
         .fold(
-            || Tally::new(problem),
+            || Tally::new(problem, set_of),
             |mut tally, &unit| {
                 match unit {
                     _ if space.cancelled() => tick(),
@@ -40,6 +43,9 @@ pub fn search(problem: &Problem, choice: EngineChoice, options: &RunOptions) -> 
                         plan.stage.visit_unit(&space, stages, first, &mut |idx| {
                             if let Some(c) = space.judge(idx) {
                                 tally.push(c);
+                                if sets.as_ref().is_some_and(|s| s.is_canonical(&space, &c)) {
+                                    tally.add_sets(1);
+                                }
                             }
                         });
                         tick();
@@ -52,11 +58,28 @@ pub fn search(problem: &Problem, choice: EngineChoice, options: &RunOptions) -> 
                 tally
             },
         )
-        .reduce(|| Tally::new(problem), Tally::merge);
+        .reduce(|| Tally::new(problem, set_of), Tally::merge);
+    let gear_set_count = tally.set_count().known();
     let (count, best, pareto_size) = tally.into_ranked(problem, options.shard.is_some());
+    let arrangements = match &sets {
+        None => Vec::new(),
+        Some(sets) => best
+            .iter()
+            .map(|c| {
+                let all = sets.arrangements(&space, c);
+                let others = match options.list_arrangements {
+                    true => all.iter().filter(|a| a.stages != c.stages).map(|a| space.train(a)).collect(),
+                    false => Vec::new(),
+                };
+                SetArrangements { count: all.len() as u64, others }
+            })
+            .collect(),
+    };
     Outcome {
         count,
+        gear_set_count,
         trains: best.iter().map(|c| space.train(c)).collect(),
+        arrangements,
         pareto_size,
         complete: !space.cancelled(),
         stage_options: space.stages.len(),

@@ -15,6 +15,15 @@
 //! `k` the tooth range allows, cut into parts that run in parallel. Every count is a whole
 //! number held exactly.
 //!
+//! Gear sets are counted on the same `k`: a gear set is a multiset of `n` driven teeth with
+//! product `k·p` and one of `n` drivers with product `k·q` (Burnside's lemma on each side alone
+//! counts them), less the pairs of multisets no pairing of which avoids a 1:1 stage. By Hall's
+//! theorem a pairing without equal teeth exists exactly when no tooth count appears more than
+//! `n` times among the drivers and driven gears together; at most one count can, and it divides
+//! `k` (it divides both products, whose greatest common divisor is `k`), so the pairs left out
+//! are counted tooth count by tooth count over the divisors of `k`, by how many of each side
+//! carry it.
+//!
 //! Listing: any train of a given `k` has a size (sum of teeth) of at least
 //! `n·(k·p)^{1/n} + n·(k·q)^{1/n}` and a largest gear of at least the `n`-th root of the larger
 //! product; both grow with `k`. So `k` is walked upwards, each `k`'s trains are spelt out
@@ -44,6 +53,10 @@ use crate::numbers::smooth::{
 /// Largest tooth count for which five- and six-stage trains are counted here: the table of
 /// ordered triples has (teeth)³ entries, 66 MB at this bound.
 pub const MAX_TEETH_FOR_SIX_STAGES: u32 = 255;
+
+/// Most terms of Burnside's sum: cycle shapes of at most six places with some cycles taken
+/// out number far fewer.
+const MAX_TERMS: usize = 64;
 
 /// Most values of `k` in one part of the sum: parts are tasks for the parallel pool and ticks
 /// of the progress bar.
@@ -86,8 +99,8 @@ impl BulkPlan for FactorPlan {
         1
     }
 
-    fn prepare(&mut self, _space: &SearchSpace, n: usize, _unit: usize) -> u64 {
-        let sum = self.tables.burnside_sum(n, true);
+    fn prepare(&mut self, space: &SearchSpace, n: usize, _unit: usize) -> u64 {
+        let sum = self.tables.burnside_sum(n, true, space.problem.gear_sets);
         let ticks = sum.ticks();
         self.sums.push(sum);
         ticks
@@ -105,8 +118,8 @@ impl BulkPlan for FactorPlan {
         &self.counts
     }
 
-    fn forecast_seconds(&self, _space: &SearchSpace, n: usize, budget: std::time::Duration) -> f64 {
-        self.tables.forecast_seconds(&self.tables.burnside_sum(n, false), budget)
+    fn forecast_seconds(&self, space: &SearchSpace, n: usize, budget: std::time::Duration) -> f64 {
+        self.tables.forecast_seconds(&self.tables.burnside_sum(n, false, space.problem.gear_sets), budget)
     }
 }
 
@@ -190,8 +203,12 @@ impl FactorTables {
         tally: &mut Tally,
         tick: &(dyn Fn() + Sync),
     ) {
-        let Some(count) = self.count(space, burnside, tick) else { return };
+        let Some((count, sets)) = self.count(space, burnside, tick) else { return };
         tally.add_count(count);
+        match sets {
+            Some(sets) => tally.add_sets(sets),
+            None => tally.sets_not_counted(),
+        }
         if count > 0 {
             self.list(space, burnside.n, tally);
         }
@@ -208,8 +225,9 @@ impl FactorTables {
     }
 
     /// Burnside's sum for the `n`-stage trains: its terms and, when `cut`, the parts
-    /// of the sum over `k` (cutting costs about a pass over the `k`; a forecast needs no parts).
-    pub fn burnside_sum(&self, n: usize, cut: bool) -> BurnsideSum {
+    /// of the sum over `k` (cutting costs about a pass over the `k`; a forecast needs no parts),
+    /// with the sums that count gear sets when `sets`.
+    pub fn burnside_sum(&self, n: usize, cut: bool, sets: bool) -> BurnsideSum {
         let mut constant = 0;
         let mut terms = Vec::new();
         for (powers, coef) in cycle_terms(n, self.both) {
@@ -222,49 +240,149 @@ impl FactorTables {
             }
             let (k_lo, k_hi) = self.k_range(powers.iter().sum());
             if k_lo <= k_hi && self.parts.is_some() {
-                terms.push(Term { powers, coef, k_lo, k_hi });
+                let perms = (powers.iter().sum::<u32>() == n as u32)
+                    .then(|| {
+                        multiset_terms(n).into_iter().find(|(shape, _)| *shape == powers).map(|(_, c)| c)
+                    })
+                    .flatten();
+                terms.push(Term { powers, coef, perms, k_lo, k_hi });
             }
         }
         let k_lo = terms.iter().map(|t| t.k_lo).min().unwrap_or(1);
         let k_hi = terms.iter().map(|t| t.k_hi).max().unwrap_or(0);
         let parts =
             if terms.is_empty() || !cut { Vec::new() } else { smooth_parts(&self.primes, k_hi, PART_SIZE) };
-        BurnsideSum { n, constant, terms, k_lo, k_hi, parts }
+        // Multisets of m teeth, m ≤ n, on one side: Burnside's lemma over the permutations of m.
+        let multisets = sets.then(|| (0..=n).map(multiset_terms).collect());
+        BurnsideSum { n, constant, terms, k_lo, k_hi, parts, multisets }
     }
 
-    /// Burnside's sum over one part of the `k`, or `None` when the search was stopped.
-    pub fn part_sum(&self, space: &SearchSpace, burnside: &BurnsideSum, part: usize) -> Option<i128> {
+    /// Burnside's sum over one part of the `k`, and the gear sets of that part when the sum
+    /// counts them, or `None` when the search was stopped.
+    pub fn part_sum(&self, space: &SearchSpace, burnside: &BurnsideSum, part: usize) -> Option<(i128, i128)> {
         if space.cancelled() {
             return None;
         }
-        let mut sum = 0i128;
+        let (mut sum, mut sets) = (0i128, 0i128);
         let mut seen = 0u32;
         let done = burnside.parts[part].for_each(&self.primes, burnside.k_lo, burnside.k_hi, &mut |k| {
             seen += 1;
             if seen % CANCEL_EVERY == 0 && space.cancelled() {
                 return false;
             }
-            sum += self.k_sum(burnside, k);
+            let (t, g) = self.k_sums(burnside, k);
+            sum += t;
+            sets += g;
             true
         });
-        done.then_some(sum)
+        done.then_some((sum, sets))
     }
 
-    /// Burnside's sum for one `k`: every term's ordered products on both sides.
-    fn k_sum(&self, burnside: &BurnsideSum, k: &Factored) -> i128 {
-        let Some((p, q)) = &self.parts else { return 0 };
+    /// Burnside's sum for one `k`: every term's ordered products on both sides; and the gear
+    /// sets of that `k` when the sum counts them (0 otherwise): pairs of a multiset of driven
+    /// teeth with product `k·p` and one of drivers with product `k·q` that some pairing without
+    /// a 1:1 stage turns into a train. The multisets are counted from the same ordered products
+    /// (the terms of the shapes of all `n` places), so counting gear sets adds little.
+    fn k_sums(&self, burnside: &BurnsideSum, k: &Factored) -> (i128, i128) {
+        let Some((p, q)) = &self.parts else { return (0, 0) };
         // k is within the largest term's bound, so the products fit.
-        let (Some(driven), Some(driver)) = (k.mul(p), k.mul(q)) else { return 0 };
-        let mut sum = 0;
-        for t in &burnside.terms {
+        let (Some(driven), Some(driver)) = (k.mul(p), k.mul(q)) else { return (0, 0) };
+        // The driven side first: when no multiset of driven teeth has the product (the all-ones
+        // shape counts every tuple, so it is 0 exactly then), neither trains nor sets need the
+        // drivers.
+        let mut driven_counts = [0u64; MAX_TERMS];
+        let mut any_driven = false;
+        for (a, t) in driven_counts.iter_mut().zip(&burnside.terms) {
             if (t.k_lo..=t.k_hi).contains(&k.value()) {
-                let a = self.driven.ordered_products(&driven, &t.powers);
-                if a > 0 {
-                    sum += t.coef * a as i128 * self.driver.ordered_products(&driver, &t.powers) as i128;
-                }
+                *a = self.driven.ordered_products(&driven, &t.powers);
+                any_driven |= *a > 0;
             }
         }
-        sum
+        if !any_driven {
+            return (0, 0);
+        }
+        let sets = burnside.multisets.is_some();
+        let mut sum = 0;
+        // Σ permutations · ordered products over the shapes of n, on each side.
+        let (mut driven_sets, mut driver_sets) = (0i128, 0i128);
+        for (&a, t) in driven_counts.iter().zip(&burnside.terms) {
+            let whole = t.perms.filter(|_| sets && (t.k_lo..=t.k_hi).contains(&k.value()));
+            if a == 0 && whole.is_none() {
+                continue;
+            }
+            let b = self.driver.ordered_products(&driver, &t.powers) as i128;
+            sum += t.coef * a as i128 * b;
+            if let Some(perms) = whole {
+                driven_sets += perms * a as i128;
+                driver_sets += perms * b;
+            }
+        }
+        if driven_sets == 0 || driver_sets == 0 {
+            return (sum, 0);
+        }
+        let orderings: i128 = (1..=burnside.n as i128).product();
+        let sets = (driven_sets / orderings) * (driver_sets / orderings);
+        (sum, sets - self.without_pairing(burnside, k, &driven, &driver))
+    }
+
+    /// The pairs of multisets (drivers with product `driver`, driven gears with product
+    /// `driven`) that no pairing without a 1:1 stage turns into a train: by Hall's theorem,
+    /// those where one tooth count is carried `a` times by the drivers and `b` times by the
+    /// driven gears with `a + b > n`.
+    fn without_pairing(
+        &self,
+        burnside: &BurnsideSum,
+        k: &Factored,
+        driven: &Factored,
+        driver: &Factored,
+    ) -> i128 {
+        let Some(terms) = &burnside.multisets else { return 0 };
+        if self.both == 0 {
+            return 0;
+        }
+        let n = burnside.n;
+        let mut out = 0;
+        let Some((p, q)) = &self.parts else { return 0 };
+        // t divides k, and t^(n+1) divides the product of both sides, k²·p·q: prime by prime,
+        // t's exponent is at most the least of v(k) and (2·v(k) + v(p) + v(q)) / (n + 1). Most
+        // k leave no room for a tooth count there, and are done at once.
+        let exponent = |f: &Factored, r: u32| f.powers().find(|&(x, _)| x == r).map_or(0, |(_, e)| e as u32);
+        let mut room = 1u64;
+        for (r, e) in k.powers() {
+            let e = e as u32;
+            let most = e.min((2 * e + exponent(p, r) + exponent(q, r)) / (n as u32 + 1));
+            room *= (r as u64).pow(most);
+        }
+        let lo = self.driven.lo().max(self.driver.lo());
+        let hi = self.driven.hi().min(self.driver.hi()).min(room);
+        if lo > hi {
+            return 0;
+        }
+        let Some(room) = Factored::of(room, &self.primes) else { return 0 };
+        room.for_each_divisor(lo, hi, &mut |t| {
+            if !(self.driven.contains(t) && self.driver.contains(t)) {
+                return;
+            }
+            // The most times t can be carried on each side: its power in the side's product.
+            let most = |x: &Factored| {
+                (1..=n).take_while(|&a| x.divided_by(t, a as u32).is_some()).last().unwrap_or(0)
+            };
+            let (most_driver, most_driven) = (most(driver), most(driven));
+            if most_driver + most_driven <= n {
+                return;
+            }
+            let mut with_b = [0i128; MAX_STAGES + 1];
+            for (b, w) in with_b.iter_mut().enumerate().take(most_driven + 1).skip(n + 1 - most_driver) {
+                *w = exactly(&self.driven, driven, t, b, n, terms);
+            }
+            for a in (n + 1 - most_driven)..=most_driver {
+                let with_a = exactly(&self.driver, driver, t, a, n, terms);
+                if with_a != 0 {
+                    out += with_a * with_b[(n + 1 - a)..=most_driven].iter().sum::<i128>();
+                }
+            }
+        });
+        out
     }
 
     /// Forecast the seconds one thread needs for [`FactorTables::count`] on `burnside`: Knuth's probe
@@ -284,22 +402,23 @@ impl FactorTables {
                 return 0.0;
             }
             let t = std::time::Instant::now();
-            std::hint::black_box(self.k_sum(burnside, k));
+            std::hint::black_box(self.k_sums(burnside, k));
             t.elapsed().as_secs_f64()
         })
     }
 
-    /// The number of trains of `burnside` that hit the target, or `None` when the search was
-    /// stopped before it was known; `tick` is called after each part.
+    /// The number of trains of `burnside` that hit the target, with the number of gear sets
+    /// when the sum counts them, or `None` when the search was stopped before it was known;
+    /// `tick` is called after each part.
     pub fn count(
         &self,
         space: &SearchSpace,
         burnside: &BurnsideSum,
         tick: &(dyn Fn() + Sync),
-    ) -> Option<u64> {
+    ) -> Option<(u64, Option<u64>)> {
         let n = burnside.n;
         // The parts differ in size, so each is its own task.
-        let sums: Vec<Option<i128>> = (0..burnside.parts.len())
+        let sums: Vec<Option<(i128, i128)>> = (0..burnside.parts.len())
             .into_par_iter()
             .with_max_len(1)
             .map(|i| {
@@ -309,13 +428,18 @@ impl FactorTables {
             })
             .collect();
         let mut total = burnside.constant;
+        let mut sets = 0i128;
         for s in sums {
-            total += s?;
+            let (t, g) = s?;
+            total += t;
+            sets += g;
         }
         let orderings: i128 = (1..=n as i128).product();
         debug_assert_eq!(total % orderings, 0, "Burnside's sum is a multiple of n!");
         // Trains of at most six stages of at most 1000 teeth number far fewer than 2⁶⁴.
-        Some(u64::try_from(total / orderings).unwrap_or(u64::MAX))
+        let trains = u64::try_from(total / orderings).unwrap_or(u64::MAX);
+        let sets = burnside.multisets.as_ref().map(|_| u64::try_from(sets).unwrap_or(u64::MAX));
+        Some((trains, sets))
     }
 
     /// Offer the `n`-stage trains that could be listed, walking `k` upwards.
@@ -453,6 +577,9 @@ impl FactorTables {
 struct Term {
     powers: Vec<u32>,
     coef: i128,
+    /// For a shape of all `n` places (nothing taken out): how many permutations have it, the
+    /// term's weight when the multisets of one side are counted.
+    perms: Option<i128>,
     k_lo: u64,
     k_hi: u64,
 }
@@ -466,6 +593,8 @@ pub struct BurnsideSum {
     k_lo: u64,
     k_hi: u64,
     parts: Vec<SmoothPart>,
+    /// For counting gear sets: Burnside's terms for multisets of `m` teeth, `m` = 0 to `n`.
+    multisets: Option<Vec<MultisetTerms>>,
 }
 
 impl BurnsideSum {
@@ -478,6 +607,52 @@ impl BurnsideSum {
     pub fn ticks(&self) -> u64 {
         self.parts.len() as u64 + 1
     }
+}
+
+/// Burnside's terms for multisets of some number of members: (cycle shape, permutations).
+type MultisetTerms = Vec<(Vec<u32>, i128)>;
+
+/// Burnside's terms for multisets of `m` members: for each cycle shape of the permutations of
+/// `m` places (powers descending), how many permutations have it.
+fn multiset_terms(m: usize) -> MultisetTerms {
+    let factorial = |m: u32| (1..=m as i128).product::<i128>();
+    partitions(m as u32, m as u32)
+        .into_iter()
+        .map(|shape| {
+            let mut runs: Vec<(u32, u32)> = Vec::new();
+            for &l in &shape {
+                match runs.last_mut() {
+                    Some((len, c)) if *len == l => *c += 1,
+                    _ => runs.push((l, 1)),
+                }
+            }
+            let perms = factorial(m as u32)
+                / runs.iter().map(|&(l, c)| (l as i128).pow(c) * factorial(c)).product::<i128>();
+            (shape, perms)
+        })
+        .collect()
+}
+
+/// The multisets of `m` members of `set` with product `x`, by Burnside's lemma with `terms[m]`.
+fn multisets(set: &ToothSet, x: &Factored, m: usize, terms: &[MultisetTerms]) -> i128 {
+    if m == 0 {
+        return (x.value() == 1) as i128;
+    }
+    let sum: i128 =
+        terms[m].iter().map(|(powers, perms)| perms * set.ordered_products(x, powers) as i128).sum();
+    sum / (1..=m as i128).product::<i128>()
+}
+
+/// The multisets of `n` members of `set` with product `x` that hold the member `t` exactly `a`
+/// times: those of `n − a` with product `x / t^a`, less those of them that hold `t` again.
+fn exactly(set: &ToothSet, x: &Factored, t: u64, a: usize, n: usize, terms: &[MultisetTerms]) -> i128 {
+    let Some(rest) = x.divided_by(t, a as u32) else { return 0 };
+    let at_least = multisets(set, &rest, n - a, terms);
+    let more = match (n > a).then(|| rest.divided_by(t, 1)).flatten() {
+        Some(r) => multisets(set, &r, n - a - 1, terms),
+        None => 0,
+    };
+    at_least - more
 }
 
 /// The factorisations of `n` into `m` members of `set`, each ascending (a multiset of teeth).

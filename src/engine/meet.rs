@@ -12,11 +12,13 @@
 //! the ratio, so they are counted at once by multiset combinations. They are only spelt out
 //! (and judged one by one, like any engine's candidates) when the best of them could still enter
 //! the listing. It applies to gears to be cut with no train-level check or extra key, where
-//! every choice of stages is as valid as any other; anything else goes to the sieve.
+//! every choice of stages is as valid as any other; anything else goes to the sieve. The gear
+//! sets are counted apart, by the set counter, where every pairing of other teeth is a stage.
 
 use rayon::prelude::*;
 
 use super::kinds::{BulkEngine, BulkPlan};
+use super::setcount::SetCounter;
 use super::space::SearchSpace;
 use super::tally::Tally;
 use crate::model::pool::MAX_STAGES;
@@ -173,7 +175,9 @@ impl BulkEngine for Meet {
         }
         let ratios = DistinctRatios::new(space);
         counts.retain(|&n| n <= 3 || PairTable::fits(ratios.count()));
-        (!counts.is_empty()).then(|| Box::new(MeetPlan { counts, ratios, pairs: None }) as Box<dyn BulkPlan>)
+        let sets = if space.problem.gear_sets { SetCounter::new(space) } else { None };
+        (!counts.is_empty())
+            .then(|| Box::new(MeetPlan { counts, ratios, pairs: None, sets }) as Box<dyn BulkPlan>)
     }
 }
 
@@ -183,6 +187,9 @@ struct MeetPlan {
     ratios: DistinctRatios,
     /// Built when four stages are cut.
     pairs: Option<PairTable>,
+    /// Counts the gear sets, when the search lists them and every pairing of other teeth is a
+    /// stage.
+    sets: Option<SetCounter>,
 }
 
 impl MeetPlan {
@@ -214,6 +221,16 @@ impl BulkPlan for MeetPlan {
         let (len, step) = self.left_side(n);
         let run = MeetRun { space, ratios: &self.ratios, pairs: self.pairs.as_ref() };
         run.left_entries(n, unit * step, ((unit + 1) * step).min(len), tally);
+        // The gear sets of n stages are counted whole by the first unit (so once in a split
+        // search); without a counter they are not counted at all.
+        match &self.sets {
+            Some(counter) if unit == 0 => match counter.count(n) {
+                Some(sets) => tally.add_sets(sets),
+                None => tally.sets_not_counted(),
+            },
+            Some(_) => {}
+            None => tally.sets_not_counted(),
+        }
         tick();
     }
 }

@@ -15,9 +15,11 @@
 //! Files, from the ground up:
 //! - `space.rs`: the stage space and the exact judge;
 //! - `tally.rs`: the counts and best trains a search keeps;
+//! - `sets.rs`: gear sets in a space: a train's set, its arrangements, the one it is counted by;
 //! - `kinds.rs`: the two kinds of engine, [`StageEngine`] and [`BulkEngine`] (with
 //!   [`BulkPlan`]);
-//! - the engines, one file each: [`sieve`], [`exhaustive`], [`meet`], [`factor`];
+//! - the engines, one file each: [`sieve`], [`exhaustive`], [`meet`], [`factor`]; `setcount.rs`
+//!   counts the meet engine's gear sets by meeting in the middle over each side's multisets;
 //! - `lineup.rs`: which engines a choice asks, in which order (where an engine is registered);
 //! - `plan.rs`: who takes which stage count, units of work, shards;
 //! - `options.rs`: how to run a search and what it reports;
@@ -32,6 +34,8 @@ mod lineup;
 pub mod meet;
 mod options;
 mod plan;
+mod setcount;
+mod sets;
 pub mod sieve;
 mod space;
 mod stream;
@@ -41,7 +45,7 @@ pub use driver::search;
 pub use forecast::{estimate, Estimate};
 pub use kinds::{BulkEngine, BulkPlan, StageEngine};
 pub use lineup::EngineChoice;
-pub use options::{Outcome, Progress, RunOptions};
+pub use options::{Outcome, Progress, RunOptions, SetArrangements};
 pub use plan::Shard;
 pub use space::{Rejection, SearchSpace, StageDef, COAXIAL_MISFIT_KIND};
 pub use stream::search_each;

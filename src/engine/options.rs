@@ -26,6 +26,8 @@ pub struct RunOptions<'a> {
     pub cancel: Option<&'a AtomicBool>,
     /// Search only this part of the space.
     pub shard: Option<Shard>,
+    /// For a problem that lists gear sets: also give every other arrangement of each listed set.
+    pub list_arrangements: bool,
 }
 
 /// What a search found.
@@ -33,10 +35,17 @@ pub struct RunOptions<'a> {
 pub struct Outcome {
     /// Trains satisfying every constraint (a lower bound when `complete` is false).
     pub count: u64,
+    /// The gear sets those trains are made of, for a problem that lists gear sets; `None` when
+    /// the problem lists trains or an engine counted trains in bulk without their sets.
+    pub gear_set_count: Option<u64>,
     /// The best trains, best first, at most `problem.limit` (for a Pareto search, the front's
     /// first `limit` in rank order).
     pub trains: Vec<Train>,
-    /// Size of the Pareto front, for a Pareto search.
+    /// For a problem that lists gear sets, one entry per listed train (its set): the set's
+    /// arrangements; empty when the problem lists trains.
+    pub arrangements: Vec<SetArrangements>,
+    /// Size of the Pareto front (of gear sets, for a problem that lists them), for a Pareto
+    /// search.
     pub pareto_size: Option<usize>,
     /// False when the search was interrupted.
     pub complete: bool,
@@ -44,4 +53,13 @@ pub struct Outcome {
     pub stage_options: usize,
     /// What the mesh checks left out, for an explanation (empty without geometry rules).
     pub rejected: Vec<Rejection>,
+}
+
+/// The arrangements of one listed gear set.
+#[derive(Debug, Clone, PartialEq)]
+pub struct SetArrangements {
+    /// How many arrangements of the set satisfy the problem (the listed train among them).
+    pub count: u64,
+    /// The others, best first, when they were asked for ([`RunOptions::list_arrangements`]).
+    pub others: Vec<Train>,
 }

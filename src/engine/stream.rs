@@ -61,7 +61,9 @@ pub fn search_each<E>(
     }
     Ok(Outcome {
         count,
+        gear_set_count: None,
         trains: Vec::new(),
+        arrangements: Vec::new(),
         pareto_size: None,
         complete: !space.cancelled(),
         stage_options: space.stages.len(),

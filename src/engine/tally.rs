@@ -1,15 +1,39 @@
-//! The tally a search keeps while it runs: how many trains satisfied the problem, and the
-//! best of them (a bounded top-K, or the Pareto front). Each worker keeps its own and the
+//! The tally a search keeps while it runs: how many trains satisfied the problem (and, for a
+//! problem that lists gear sets, how many gear sets they make), and the best of them (a bounded
+//! top-K, or the Pareto front, of trains or of gear sets). Each worker keeps its own and the
 //! driver merges them; the total order of the ranking makes the merge independent of the
 //! thread count. It does not find or judge trains: engines and the driver offer it candidates
 //! the space has judged.
 
+use crate::model::gearset::SetOf;
 use crate::model::problem::Problem;
 use crate::model::rank::{Candidate, ParetoFront, TopK};
 
 /// The counts and the best trains of a search (or of one worker's share of it).
 pub struct Tally {
     kept: Kept,
+    sets: SetCount,
+}
+
+/// The count of gear sets a tally keeps.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub(crate) enum SetCount {
+    /// The problem lists trains; gear sets are not counted.
+    Off,
+    /// Gear sets counted so far.
+    Counted(u64),
+    /// An engine counted trains in bulk without counting their gear sets.
+    Unknown,
+}
+
+impl SetCount {
+    /// The count, when known.
+    pub(crate) fn known(self) -> Option<u64> {
+        match self {
+            SetCount::Counted(n) => Some(n),
+            _ => None,
+        }
+    }
 }
 
 /// What is kept besides the count: the best K by the ranking, or the Pareto front.
@@ -19,14 +43,38 @@ enum Kept {
 }
 
 impl Tally {
-    /// An empty tally of the kind `problem` asks for.
-    pub(crate) fn new(problem: &Problem) -> Tally {
-        let kept = if problem.pareto {
-            Kept::Front(ParetoFront::default())
-        } else {
-            Kept::Top(TopK::new(problem.limit, &problem.rank))
+    /// An empty tally of the kind `problem` asks for; `sets` names the gear set of a candidate
+    /// when the problem lists gear sets.
+    pub(crate) fn new(problem: &Problem, sets: Option<&SetOf>) -> Tally {
+        let kept = match (problem.pareto, sets) {
+            (true, None) => Kept::Front(ParetoFront::default()),
+            (true, Some(s)) => Kept::Front(ParetoFront::by_set(&problem.rank, s.clone())),
+            (false, None) => Kept::Top(TopK::new(problem.limit, &problem.rank)),
+            (false, Some(s)) => Kept::Top(TopK::by_set(problem.limit, &problem.rank, s.clone())),
         };
-        Tally { kept }
+        let sets = if sets.is_some() { SetCount::Counted(0) } else { SetCount::Off };
+        Tally { kept, sets }
+    }
+
+    /// Does this tally count gear sets?
+    pub fn counts_sets(&self) -> bool {
+        self.sets != SetCount::Off
+    }
+
+    /// Count `n` gear sets that satisfy the problem (each counted once in the whole search, by
+    /// whichever engine finds its canonical arrangement).
+    pub fn add_sets(&mut self, n: u64) {
+        if let SetCount::Counted(c) = &mut self.sets {
+            *c += n;
+        }
+    }
+
+    /// Say that trains were counted whose gear sets were not: the search's count of gear sets
+    /// is then unknown.
+    pub fn sets_not_counted(&mut self) {
+        if self.sets != SetCount::Off {
+            self.sets = SetCount::Unknown;
+        }
     }
 
     /// Count one train that satisfies the problem, and keep it if it ranks among the best.
@@ -69,7 +117,17 @@ impl Tally {
             (Kept::Front(a), Kept::Front(b)) => Kept::Front(a.merge(b)),
             _ => unreachable!("one search keeps one kind"),
         };
-        Tally { kept }
+        let sets = match (self.sets, other.sets) {
+            (SetCount::Counted(a), SetCount::Counted(b)) => SetCount::Counted(a + b),
+            (SetCount::Off, SetCount::Off) => SetCount::Off,
+            _ => SetCount::Unknown,
+        };
+        Tally { kept, sets }
+    }
+
+    /// The count of gear sets.
+    pub(crate) fn set_count(&self) -> SetCount {
+        self.sets
     }
 
     /// The count, the kept trains best first, and for a Pareto search the size of the whole

@@ -188,6 +188,10 @@ pub struct Problem {
     /// when meshes are not checked (mesh rules carry their own form). Involute unless a trade
     /// says otherwise (clocks: cycloidal).
     pub tooth_form: ToothForm,
+    /// List gear sets rather than trains: one entry per gear set (its best arrangement by the
+    /// ranking), with the number of gear sets counted beside the number of trains. Off by
+    /// default (set after [`Problem::new`]).
+    pub gear_sets: bool,
 }
 
 impl Problem {
@@ -227,6 +231,7 @@ impl Problem {
             extra_key: None,
             equal_teeth_stages: false,
             tooth_form: ToothForm::Involute,
+            gear_sets: false,
         };
         if p.stage_counts().is_empty() {
             return Err(Error::value(

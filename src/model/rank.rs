@@ -1,10 +1,13 @@
 //! Ranking: the keys trains are ordered by, the total order they make (ties broken by the
 //! canonical stage sequence, so results never depend on thread timing), and the bounded top-K
-//! store that keeps the best and only counts the rest.
+//! store that keeps the best and only counts the rest. Either store can keep one entry per gear
+//! set (the set's best arrangement by the same order), so that rearrangements of the same gears
+//! do not crowd a listing.
 
 use std::cmp::Ordering;
 
 use crate::error::{Error, Quantity, Result};
+use crate::model::gearset::{GearSet, SetOf};
 use crate::model::pool::MAX_STAGES;
 use crate::numbers::rational::RelError;
 
@@ -155,6 +158,8 @@ pub struct TopK {
     /// The worst candidate kept at the last shrink: anything ranking after it on the keys
     /// alone can never enter.
     worst: Option<Candidate>,
+    /// When set, one candidate per gear set is kept: the set's best.
+    sets: Option<SetOf>,
     /// Every candidate offered.
     pub count: u64,
 }
@@ -179,7 +184,12 @@ pub fn compare_keys<T: Ranked>(keys: &[RankKey], a: &T, b: &T) -> Ordering {
 impl TopK {
     /// An empty store keeping the best `k` by `keys`.
     pub fn new(k: usize, keys: &[RankKey]) -> TopK {
-        TopK { k, keys: keys.to_vec(), held: Vec::new(), worst: None, count: 0 }
+        TopK { k, keys: keys.to_vec(), held: Vec::new(), worst: None, sets: None, count: 0 }
+    }
+
+    /// An empty store keeping the best `k` gear sets by `keys`, each by its best arrangement.
+    pub fn by_set(k: usize, keys: &[RankKey], sets: SetOf) -> TopK {
+        TopK { sets: Some(sets), ..TopK::new(k, keys) }
     }
 
     /// Offer one candidate.
@@ -201,6 +211,11 @@ impl TopK {
 
     fn shrink(&mut self) {
         let keys = &self.keys;
+        if let Some(sets) = &self.sets {
+            keep_best_of_each_set(&mut self.held, keys, sets);
+        }
+        // With one entry per set the k-th kept is the k-th best set, and a set's best can only
+        // improve, so a bound taken here stays a bound.
         if self.held.len() > self.k {
             self.held.select_nth_unstable_by(self.k, |a, b| compare(keys, a, b));
             self.held.truncate(self.k);
@@ -237,6 +252,14 @@ impl TopK {
     }
 }
 
+/// Keep in `held` only the best candidate (by `keys`, then the tie-breaks) of each gear set.
+fn keep_best_of_each_set(held: &mut Vec<Candidate>, keys: &[RankKey], sets: &SetOf) {
+    let mut tagged: Vec<(GearSet, Candidate)> = held.drain(..).map(|c| (sets.of(&c), c)).collect();
+    tagged.sort_by(|a, b| a.0.cmp(&b.0).then_with(|| compare(keys, &a.1, &b.1)));
+    tagged.dedup_by(|later, first| later.0 == first.0);
+    held.extend(tagged.into_iter().map(|(_, c)| c));
+}
+
 /// `a` beats `b` on every Pareto key (|error|, meshes, size) at once: no worse on any, better on
 /// at least one.
 pub fn dominates<T: Ranked>(a: &T, b: &T) -> bool {
@@ -250,15 +273,23 @@ pub fn dominates<T: Ranked>(a: &T, b: &T) -> bool {
 }
 
 /// The Pareto front on (|error|, meshes, size): every candidate no other beats on all three at
-/// once (equals are all kept), plus a count of all candidates offered.
+/// once (equals are all kept), plus a count of all candidates offered. Every arrangement of a
+/// gear set has the same Pareto keys, so a front of gear sets keeps each set's best arrangement.
 #[derive(Debug, Clone, Default)]
 pub struct ParetoFront {
     held: Vec<Candidate>,
+    /// When set, one candidate per gear set is kept, the best by these keys.
+    sets: Option<(SetOf, Vec<RankKey>)>,
     /// Every candidate offered.
     pub count: u64,
 }
 
 impl ParetoFront {
+    /// An empty front of gear sets, each by its best arrangement by `keys`.
+    pub fn by_set(keys: &[RankKey], sets: SetOf) -> ParetoFront {
+        ParetoFront { sets: Some((sets, keys.to_vec())), ..ParetoFront::default() }
+    }
+
     /// Offer one candidate.
     pub fn push(&mut self, c: Candidate) {
         self.count += 1;
@@ -284,6 +315,16 @@ impl ParetoFront {
     fn insert(&mut self, c: Candidate) {
         if self.held.iter().any(|h| dominates(h, &c)) {
             return;
+        }
+        if let Some((sets, keys)) = &self.sets {
+            // Arrangements of one set have the same keys: the better one takes the place.
+            let set = sets.of(&c);
+            if let Some(h) = self.held.iter_mut().find(|h| sets.of(h) == set) {
+                if compare(keys, &c, h) == Ordering::Less {
+                    *h = c;
+                }
+                return;
+            }
         }
         self.held.retain(|h| !dominates(&c, h));
         self.held.push(c);

@@ -115,6 +115,12 @@ impl Factored {
         Some(out)
     }
 
+    /// `self / t^power` when `t^power` divides this number.
+    pub fn divided_by(&self, t: u64, power: u32) -> Option<Factored> {
+        let d = t.checked_pow(power)?;
+        (t > 0 && self.value % d == 0).then(|| self.div_pow(t, power))
+    }
+
     /// `self / t^power`, for `t^power` dividing this number.
     fn div_pow(&self, mut t: u64, power: u32) -> Factored {
         let mut out = Factored { value: self.value / t.pow(power), ..Factored::ONE };

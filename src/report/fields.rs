@@ -224,6 +224,14 @@ pub struct TrainJson {
     pub span_mm: f64,
     /// Stages input to output.
     pub stages: Vec<StageJson>,
+    /// In a listing of gear sets: how many arrangements of this train's gears (pairings of its
+    /// drivers with its driven gears into stages) meet every constraint, this one among them.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub arrangements: Option<u64>,
+    /// In a listing of gear sets with every arrangement asked for: the other arrangements, best
+    /// first.
+    #[serde(default, skip_serializing_if = "Vec::is_empty")]
+    pub other_arrangements: Vec<TrainJson>,
 }
 
 /// One stage as JSON.
@@ -340,6 +348,8 @@ impl TrainJson {
                     tooth_form: None,
                 })
                 .collect(),
+            arrangements: None,
+            other_arrangements: Vec::new(),
         }
     }
 }

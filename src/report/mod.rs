@@ -43,7 +43,7 @@ pub use drawing::Drawing;
 
 /// The version of the JSON contracts of every result kind (`schema_version` in each
 /// document); it changes when a key is renamed or changes meaning.
-pub const SCHEMA_VERSION: u32 = 3;
+pub const SCHEMA_VERSION: u32 = 4;
 
 /// The output formats.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]

@@ -1,5 +1,7 @@
-//! The CSV format of a search: a header, then one row per train, best first. A row is `rank`,
-//! the train's own columns ([`crate::report::fields::TRAIN_HEADER`]) and the stage columns of
+//! The CSV format of a search: a header, then one row per listed train, best first. A row is
+//! `rank`, the train's own columns ([`crate::report::fields::TRAIN_HEADER`]), for a listing of
+//! gear sets `arrangements` (how many the set has) and `arrangement` (1 for the set's best, 2…
+//! for the others under it, when asked for, with the set's rank), and the stage columns of
 //! [`crate::report::fields::StageColumns`], up to the most stages the search allowed, so every
 //! row has the same columns; with `--explain` over worked-out meshes each stage's gear data
 //! ([`crate::report::gear_data::csv_header`]) follows. [`Layout`] also serves the streaming mode, where the first column
@@ -68,13 +70,31 @@ impl Layout {
     }
 }
 
+/// The gear-set columns, after the train's own.
+const SET_HEADER: [&str; 2] = ["arrangements", "arrangement"];
+
 /// Write the search as CSV.
 pub fn write(doc: &Doc, w: &mut dyn Write) -> io::Result<()> {
     let layout = Layout::of_doc(doc);
+    let by_set = doc.trains.iter().any(|t| t.arrangements.is_some());
     let mut out = ::csv::Writer::from_writer(w);
-    out.write_record(layout.header("rank"))?;
+    let mut head = layout.header("rank");
+    if by_set {
+        let at = 1 + TRAIN_HEADER.len();
+        head.splice(at..at, SET_HEADER.iter().map(|s| s.to_string()));
+    }
+    out.write_record(head)?;
     for (i, t) in doc.trains.iter().enumerate() {
-        out.write_record(layout.row(i as u64 + 1, t))?;
+        let listed = std::iter::once(t).chain(&t.other_arrangements);
+        for (j, a) in listed.enumerate() {
+            let mut row = layout.row(i as u64 + 1, a);
+            if by_set {
+                let at = 1 + TRAIN_HEADER.len();
+                let set = [t.arrangements.map_or(String::new(), |n| n.to_string()), (j + 1).to_string()];
+                row.splice(at..at, set);
+            }
+            out.write_record(row)?;
+        }
     }
     out.flush()?;
     Ok(())

@@ -1,5 +1,6 @@
-//! A search laid out for people: a short header saying what was searched, the count, the best
-//! trains in columns, the mesh geometry and the reasons for leaving pairings out when asked,
+//! A search laid out for people: a short header saying what was searched, the counts of trains
+//! and gear sets, the best gear sets in columns (each by its best arrangement, with how many
+//! arrangements it has, and the others under it when asked), the mesh geometry and the reasons for leaving pairings out when asked,
 //! and the convention and caution as a footer. Made from the search's JSON document, so a
 //! merged split search reads exactly as one run.
 
@@ -37,12 +38,23 @@ pub fn document(doc: &Doc) -> Document {
     let keys = doc.ranked_by.join(", then ");
     let status = if doc.complete { "" } else { "INCOMPLETE (interrupted): at least " };
     let listed = doc.trains.len();
+    let by_set = doc.trains.iter().any(|t| t.arrangements.is_some());
+    // What the trains are made of, and what is listed: gear sets when the search listed them.
+    let made_of = match doc.gear_set_count {
+        Some(1) => ", made of 1 gear set".to_string(),
+        Some(n) => format!(", made of {} gear sets", group_thousands(n)),
+        None if by_set => " (their gear sets are not counted: this search counts trains in bulk)".to_string(),
+        None => String::new(),
+    };
+    let (one, many) = if by_set { ("gear set", "gear sets") } else { ("train", "trains") };
+    let each = if by_set { ", each by its best arrangement" } else { "" };
     if let Some(front) = doc.pareto_size.filter(|_| doc.count > 0) {
         d.line(format!(
-            "{status}{} trains meet every constraint; {} of them form the Pareto front on error, meshes \
-             and size (none beats them on all three){}:",
+            "{status}{} trains meet every constraint{made_of}; {} {} form the Pareto front on error, \
+             meshes and size (none beats them on all three){}{each}:",
             group_thousands(doc.count),
             group_thousands(front as u64),
+            if front == 1 { one } else { many },
             if listed == front {
                 format!(", listed by {keys}")
             } else {
@@ -50,16 +62,17 @@ pub fn document(doc: &Doc) -> Document {
             }
         ));
     } else {
+        let all = doc.gear_set_count.filter(|_| by_set).unwrap_or(doc.count);
         match doc.count {
             0 => d.line(format!("{status}No train meets every constraint.")),
-            1 => d.line(format!("{status}1 train meets every constraint.")),
+            1 => d.line(format!("{status}1 train meets every constraint{made_of}.")),
             n => d.line(format!(
-                "{status}{} trains meet every constraint; {} by {keys}:",
+                "{status}{} trains meet every constraint{made_of}; {} by {keys}{each}:",
                 group_thousands(n),
-                if listed as u64 == n {
+                if listed as u64 == all {
                     "all listed".to_string()
                 } else {
-                    format!("the best {listed} listed")
+                    format!("the best {listed} {} listed", if listed == 1 { one } else { many })
                 },
             )),
         }
@@ -71,28 +84,38 @@ pub fn document(doc: &Doc) -> Document {
         d.blank();
         let working =
             doc.trains.iter().any(|t| t.stages.iter().any(|s| s.working_centre_distance_mm.is_some()));
-        let rows: Vec<Vec<String>> = doc
-            .trains
-            .iter()
-            .enumerate()
-            .map(|(i, tr)| {
-                vec![
-                    (i + 1).to_string(),
-                    tr.ratio.clone(),
-                    describe_error_f64(tr.error),
-                    tr.direction.as_str().to_string(),
-                    tr.size.to_string(),
-                    stages_text(tr, doc.mixed_modules),
-                ]
-            })
-            .collect();
+        let mut rows: Vec<Vec<String>> = Vec::new();
+        let row = |n: String, tr: &TrainJson| {
+            let mut cells = vec![
+                n,
+                tr.ratio.clone(),
+                describe_error_f64(tr.error),
+                tr.direction.as_str().to_string(),
+                tr.size.to_string(),
+            ];
+            if by_set {
+                cells.push(tr.arrangements.map_or(String::new(), |a| a.to_string()));
+            }
+            cells.push(stages_text(tr, doc.mixed_modules));
+            cells
+        };
+        for (i, tr) in doc.trains.iter().enumerate() {
+            rows.push(row((i + 1).to_string(), tr));
+            for (j, other) in tr.other_arrangements.iter().enumerate() {
+                rows.push(row(format!("{}.{}", i + 1, j + 2), other));
+            }
+        }
         let stages = if working {
             "stages: driver→driven (working centre distance mm)"
         } else {
             "stages: driver→driven (reference centre distance mm)"
         };
-        let head = ["#", "ratio", "error", "direction", "size", stages];
-        d.table(Table::new(&head, &[0, 2, 4]).with_rows(rows));
+        let (head, right): (Vec<&str>, &[usize]) = if by_set {
+            (vec!["#", "ratio", "error", "direction", "size", "arrangements", stages], &[0, 2, 4, 5])
+        } else {
+            (vec!["#", "ratio", "error", "direction", "size", stages], &[0, 2, 4])
+        };
+        d.table(Table::new(&head, right).with_rows(rows));
     }
     on_hand(&doc.trains, &mut d);
     meshes(doc, &mut d);

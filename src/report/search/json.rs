@@ -6,14 +6,17 @@
 //!  "target": {"ratio": "<as given>", "value": f64, "tolerance": f64, "exact": "p/q"},
 //!  "gears": "<the gears searched>", "stage_counts": [n, …], "stage_options": n,
 //!  "mesh_checks": bool, "mixed_modules": bool,
-//!  "count": n, "complete": bool, "convention": "…", "ranked_by": ["error", …], "limit": k,
+//!  "count": n, "gear_set_count": n|null, "complete": bool, "convention": "…", "ranked_by": ["error", …], "limit": k,
 //!  "trains": [{"ratio": "p/q", "value": f64, "error": signed i/R − 1, "meshes": n,
-//!              "direction": "same"|"opposite", "size": n, "span_mm": mm,
+//!              "direction": "same"|"opposite", "size": n, "span_mm": mm, "arrangements": n,
 //!              "stages": [{"driver": z, "driven": z, "module_mm": mm,
 //!                          "pressure_angle_deg": deg, "reference_centre_distance_mm": mm,
-//!                          …}]}]}
+//!                          …}],
+//!              "other_arrangements": [<train>, …]}]}
 //! ```
 //! Field names and meanings are stable within a `schema_version`; fields may be added. The
+//! trains listed are gear sets, one each (its best arrangement), with the number of its
+//! arrangements; `other_arrangements` only when every arrangement was asked for. The
 //! document is the whole of a search's result: the table, Markdown and CSV formats are made
 //! from it, and it reads back into [`Doc`] so that `gearsieve merge` can combine the parts of a
 //! split search and print exactly what one run prints, in any format. With a limit of 0 the
@@ -50,15 +53,19 @@ pub struct Doc {
     pub mixed_modules: bool,
     /// Trains meeting every constraint (a lower bound when `complete` is false).
     pub count: u64,
+    /// The gear sets those trains are made of (a lower bound when `complete` is false); `null`
+    /// when an engine counted trains in bulk without their gear sets.
+    #[serde(default)]
+    pub gear_set_count: Option<u64>,
     /// False when interrupted.
     pub complete: bool,
     /// The ratio convention in words.
     pub convention: String,
     /// Ranking keys, most important first.
     pub ranked_by: Vec<String>,
-    /// How many trains were to be listed.
+    /// How many gear sets were to be listed.
     pub limit: usize,
-    /// Size of the Pareto front, for a Pareto search.
+    /// Size of the Pareto front (of gear sets), for a Pareto search.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub pareto_size: Option<usize>,
     /// `I/N` when this document covers one part of a split search.
@@ -70,7 +77,7 @@ pub struct Doc {
     /// What the mesh checks left out.
     #[serde(default, skip_serializing_if = "Vec::is_empty")]
     pub rejected: Vec<RejectionJson>,
-    /// The trains listed, best first.
+    /// The gear sets listed, best first, each as its best arrangement.
     pub trains: Vec<TrainJson>,
 }
 
@@ -121,6 +128,7 @@ pub fn doc(report: &SearchReport) -> Doc {
         mesh_checks: p.mesh.is_some(),
         mixed_modules: p.pool.groups.len() > 1,
         count: report.outcome.count,
+        gear_set_count: report.outcome.gear_set_count,
         complete: report.outcome.complete,
         convention: CONVENTION.to_string(),
         ranked_by: p
@@ -141,18 +149,15 @@ pub fn doc(report: &SearchReport) -> Doc {
             .iter()
             .map(|r| RejectionJson { kind: r.kind.clone(), count: r.count, example: r.example.clone() })
             .collect(),
-        trains: report
-            .outcome
-            .trains
-            .iter()
-            .map(|t| {
-                let mut view = TrainJson::from_train(t);
-                if report.explain {
-                    add_gear_data(p, t, &mut view);
+        trains: {
+            let mut trains = listed(report.outcome);
+            if report.explain {
+                for (t, view) in report.outcome.trains.iter().zip(trains.iter_mut()) {
+                    add_gear_data(p, t, view);
                 }
-                view
-            })
-            .collect(),
+            }
+            trains
+        },
     }
 }
 
@@ -168,6 +173,16 @@ fn add_gear_data(p: &crate::model::problem::Problem, t: &crate::model::train::Tr
         };
         v.gear_data = Some(pair_data(&system, &mesh, BacklashChoice::Recommended, 0.0, [None, None]));
     }
+}
+
+/// The listed trains, each with its gear set's arrangements when the search listed gear sets.
+fn listed(outcome: &crate::engine::Outcome) -> Vec<TrainJson> {
+    let mut trains: Vec<TrainJson> = outcome.trains.iter().map(TrainJson::from_train).collect();
+    for (t, a) in trains.iter_mut().zip(&outcome.arrangements) {
+        t.arrangements = Some(a.count);
+        t.other_arrangements = a.others.iter().map(TrainJson::from_train).collect();
+    }
+    trains
 }
 
 /// Write a document and a newline.

@@ -1,6 +1,8 @@
 //! Combining the JSON documents of the parts (`I/N`) of a split search into exactly the document
 //! one unsplit run prints: counts add up, the listed trains are re-ranked with the same total
-//! order the search uses, and every part must be present once and ask the same question.
+//! order the search uses (one entry per gear set when the search listed gear sets: a set's
+//! arrangements may be found by different parts), and every part must be present once and ask
+//! the same question.
 //! Owns only the combining; reading files is the command line's job.
 
 use std::cmp::Ordering;
@@ -29,6 +31,23 @@ fn stage_order(a: &(u32, u32, f64, f64), b: &(u32, u32, f64, f64)) -> Ordering {
         .then(a.0.cmp(&b.0))
         .then(a.2.total_cmp(&b.2))
         .then(a.3.total_cmp(&b.3))
+}
+
+/// One gear of a set as JSON names it: teeth, module and pressure angle (as bits, to compare).
+type GearKey = (u32, u64, u64);
+
+impl Listed {
+    /// The train's gear set: its drivers and its driven gears, each sorted.
+    fn gear_set(&self) -> (Vec<GearKey>, Vec<GearKey>) {
+        let key = |z: u32, s: &crate::report::fields::StageJson| {
+            (z, s.module_mm.to_bits(), s.pressure_angle_deg.to_bits())
+        };
+        let mut drivers: Vec<GearKey> = self.json.stages.iter().map(|s| key(s.driver, s)).collect();
+        let mut driven: Vec<GearKey> = self.json.stages.iter().map(|s| key(s.driven, s)).collect();
+        drivers.sort_unstable();
+        driven.sort_unstable();
+        (drivers, driven)
+    }
 }
 
 impl Ranked for Listed {
@@ -130,15 +149,23 @@ pub fn merge(docs: Vec<(String, Doc)>) -> Result<Doc> {
             .sum();
     }
     let (mut count, mut complete) = (0u64, true);
+    let mut gear_set_count = Some(0u64);
+    let by_set = docs.iter().any(|(_, d)| d.trains.iter().any(|t| t.arrangements.is_some()));
     let mut all = Vec::new();
     for (name, d) in docs {
         count += d.count;
+        gear_set_count = gear_set_count.zip(d.gear_set_count).map(|(a, b)| a + b);
         complete &= d.complete;
         for t in d.trains {
             all.push(listed(t, target, &name)?);
         }
     }
     all.sort_by(|a, b| compare(&keys, a, b));
+    if by_set {
+        // Each part lists a set by the best arrangement it found; the best of those stays.
+        let mut seen = std::collections::HashSet::new();
+        all.retain(|l| seen.insert(l.gear_set()));
+    }
     let mut pareto_size = None;
     if first.pareto_size.is_some() {
         let front: Vec<bool> = all.iter().map(|c| !all.iter().any(|o| dominates(o, c))).collect();
@@ -153,6 +180,7 @@ pub fn merge(docs: Vec<(String, Doc)>) -> Result<Doc> {
     }
     Ok(Doc {
         count,
+        gear_set_count,
         complete,
         pareto_size,
         shard: None,
