@@ -46,6 +46,8 @@ struct DesignJson {
     #[serde(skip_serializing_if = "Option::is_none")]
     ring2: Option<u32>,
     planets: u32,
+    /// Trains made of this design's gears: always 1 (see `gear_set_count`).
+    arrangements: u64,
     ratio: String,
     value: f64,
     error: f64,
@@ -129,6 +131,10 @@ struct Doc {
     stock: Option<StockJson>,
     limit: usize,
     count: u64,
+    /// Gear sets among the designs: a design's gears (sun, planets, rings) pair up one way
+    /// only — swapping a stepped planet's two gears, or the rings, changes the ratio — so every
+    /// design is a gear set of its own and this equals `count`.
+    gear_set_count: u64,
     complete: bool,
     convention: &'static str,
     caution: &'static str,
@@ -159,6 +165,7 @@ fn design_json(r: &PlanetaryReport, rank: usize, d: &Design) -> DesignJson {
     let mut json = DesignJson {
         rank,
         planets: d.planets,
+        arrangements: 1,
         ratio: d.ratio.magnitude.to_string(),
         value: d.ratio.magnitude.to_f64(),
         error: d.error.to_f64(),
@@ -254,6 +261,7 @@ pub fn write(r: &PlanetaryReport, w: &mut dyn Write) -> Result<(), RenderError> 
         }),
         limit: s.limit,
         count: r.outcome.count,
+        gear_set_count: r.outcome.count,
         complete: r.outcome.complete,
         convention: PLANETARY_CONVENTION,
         caution: CAUTION,
