@@ -382,3 +382,54 @@ fn nothing_found_names_only_what_would_help() {
          --stages, or --hunting prefer.",
     );
 }
+
+/// Trains and gear sets of a two-stage 12:1 reducer of hunting pairs, by brute force: every
+/// train is an unordered pair of stages a→b, c→d (17..100 teeth at module 1.5, the default
+/// least teeth and most for that module; a stage ratio b/a from above 1 up to 6, the default
+/// limit; a and b with no common factor) with b·d = 12·a·c; its gear set is the drivers {a, c}
+/// and the driven gears {b, d}. Standard gears of 17 teeth or more run unshifted or nearly so,
+/// so no mesh check leaves one out.
+#[test]
+fn reducer_counts_gear_sets_as_a_brute_force_grouping_does() {
+    fn gcd(a: u32, b: u32) -> u32 {
+        if b == 0 {
+            a
+        } else {
+            gcd(b, a % b)
+        }
+    }
+    let stage_ok = |a: u32, b: u32| b > a && b <= 6 * a && gcd(a, b) == 1;
+    let mut trains = 0u64;
+    let mut sets = std::collections::BTreeSet::new();
+    let range = 17u32..=100;
+    for a in range.clone() {
+        for b in range.clone().filter(|&b| stage_ok(a, b)) {
+            for c in range.clone() {
+                for d in range.clone().filter(|&d| stage_ok(c, d)) {
+                    // Each unordered pair of stages once.
+                    if (a, b) > (c, d) || u64::from(b) * u64::from(d) != 12 * u64::from(a) * u64::from(c) {
+                        continue;
+                    }
+                    trains += 1;
+                    sets.insert(([a.min(c), a.max(c)], [b.min(d), b.max(d)]));
+                }
+            }
+        }
+    }
+    let (code, v) = common::json(&[
+        "reducer",
+        "--ratio",
+        "12",
+        "--tol",
+        "0",
+        "--modules",
+        "1.5",
+        "--hunting",
+        "require",
+        "--limit",
+        "1",
+    ]);
+    assert_eq!(code, 0);
+    assert_eq!(v["count"].as_u64(), Some(trains));
+    assert_eq!(v["gear_set_count"].as_u64(), Some(sets.len() as u64));
+}

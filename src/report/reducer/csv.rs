@@ -28,8 +28,15 @@ pub fn write(p: &ReducerPlan, w: &mut dyn Write) -> io::Result<()> {
     let mut head = vec!["rank".to_string()];
     head.extend(TRAIN_HEADER.iter().map(|s| s.to_string()));
     head.extend(
-        ["balance", "non_hunting_pairs", "largest_tip_diameter_mm", "centre_distance_sum_mm", "output_rpm"]
-            .map(String::from),
+        [
+            "balance",
+            "non_hunting_pairs",
+            "largest_tip_diameter_mm",
+            "centre_distance_sum_mm",
+            "output_rpm",
+            "arrangements",
+        ]
+        .map(String::from),
     );
     head.extend(stages.header());
     head.extend((1..=n_stages).map(|k| format!("stage{k}_hunting")));
@@ -50,6 +57,7 @@ pub fn write(p: &ReducerPlan, w: &mut dyn Write) -> io::Result<()> {
             mm(largest_tip_mm(t)),
             mm(centre_distance_sum_mm(t)),
             p.spec.input_rpm.map_or(String::new(), |rpm| decimals(rpm / t.ratio.to_f64(), 3)),
+            p.arrangements.get(n).map_or(String::new(), u64::to_string),
         ]);
         row.extend(stages.cells(&view));
         row.extend(

@@ -127,7 +127,19 @@ pub fn document(p: &ReducerPlan) -> Document {
         ));
     }
     d.blank();
-    d.line(count_line(p.count, p.trains.len(), p.complete, "train", "best first"));
+    match p.gear_set_count.filter(|_| p.count > 0) {
+        Some(sets) => d.line(format!(
+            "{}{} train{}, made of {} gear set{}; {} listed best first, each by the arrangement of its gears \
+             into stages that ranks best:",
+            if p.complete { "" } else { "INCOMPLETE (interrupted): at least " },
+            crate::report::words::group_thousands(p.count),
+            if p.count == 1 { "" } else { "s" },
+            crate::report::words::group_thousands(sets),
+            if sets == 1 { "" } else { "s" },
+            if p.trains.len() as u64 == sets { "all".to_string() } else { format!("the best {}", p.trains.len()) },
+        )),
+        None => d.line(count_line(p.count, p.trains.len(), p.complete, "train", "best first")),
+    }
     for (n, t) in p.trains.iter().enumerate() {
         d.blank();
         let from_rule = if s.priority == Priority::Split {
@@ -138,7 +150,11 @@ pub fn document(p: &ReducerPlan) -> Document {
         let speed = s.input_rpm.map_or(String::new(), |rpm| {
             format!("; output {} rpm at {} rpm in", fmt_num(rpm / t.ratio.to_f64()), fmt_num(rpm))
         });
-        d.heading(format!("{}. i = {} = {:.5} ({}); balance {:.3} (largest stage ratio / smallest); {} non-hunting pair{}{from_rule}{speed}",
+        let arrangements = match p.arrangements.get(n) {
+            Some(&k) if k > 1 => format!("; {k} arrangements of these gears"),
+            _ => String::new(),
+        };
+        d.heading(format!("{}. i = {} = {:.5} ({}); balance {:.3} (largest stage ratio / smallest); {} non-hunting pair{}{from_rule}{speed}{arrangements}",
             n + 1,
             t.ratio,
             t.ratio.to_f64(),

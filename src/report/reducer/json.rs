@@ -62,6 +62,7 @@ struct Doc {
     shaft_diameter_mm: Option<f64>,
     shaft_margin_mm: f64,
     count: u64,
+    gear_set_count: Option<u64>,
     complete: bool,
     convention: &'static str,
     caution: &'static str,
@@ -99,6 +100,7 @@ pub fn write(p: &ReducerPlan, w: &mut dyn Write) -> Result<(), RenderError> {
         shaft_diameter_mm: s.shop.shaft_diameter_mm,
         shaft_margin_mm: s.shop.shaft_margin_mm,
         count: p.count,
+        gear_set_count: p.gear_set_count,
         complete: p.complete,
         convention: CONVENTION,
         caution: REDUCER_CAUTION,
@@ -106,8 +108,9 @@ pub fn write(p: &ReducerPlan, w: &mut dyn Write) -> Result<(), RenderError> {
             .trains
             .iter()
             .zip(&p.shop)
-            .map(|(t, shop)| ReducerTrainJson {
-                train: TrainJson::from_train(t),
+            .enumerate()
+            .map(|(n, (t, shop))| ReducerTrainJson {
+                train: TrainJson { arrangements: p.arrangements.get(n).copied(), ..TrainJson::from_train(t) },
                 hunting: t.stages.iter().map(is_hunting).collect(),
                 non_hunting_pairs: non_hunting(t),
                 balance: spread(t),

@@ -111,10 +111,16 @@ pub struct ReducerPlan {
     pub problem: Problem,
     /// Trains meeting every constraint.
     pub count: u64,
+    /// The gear sets those trains are made of; `None` when they were not counted.
+    pub gear_set_count: Option<u64>,
     /// False when interrupted.
     pub complete: bool,
-    /// The best trains, stages input to output, each with its mesh.
+    /// The best gear sets, each by its best arrangement (a train), stages input to output, each
+    /// with its mesh.
     pub trains: Vec<Train>,
+    /// How many arrangements of each listed train's gears meet every constraint, in the order
+    /// of `trains`.
+    pub arrangements: Vec<u64>,
     /// Each listed train made ready for the shop, in the order of `trains`.
     pub shop: Vec<TrainShop>,
 }
@@ -316,6 +322,9 @@ impl ReducerSpec {
             Priority::Split => ExtraKey::new("split", move |t: &Train| split::split_key(t, prefer)),
             _ => ExtraKey::new("balance", move |t: &Train| hunting::balance_key(t, prefer)),
         });
+        // One entry per gear set, by its best arrangement in the reducer's order (hunting pairs,
+        // balance or split rule, then error and size): the pairing is a choice made for fit.
+        p.gear_sets = true;
         Ok(p)
     }
 
@@ -337,7 +346,9 @@ impl ReducerSpec {
             spec: self.clone(),
             problem,
             count: found.count,
+            gear_set_count: found.gear_set_count,
             complete: found.complete,
+            arrangements: found.arrangements.iter().map(|a| a.count).collect(),
             trains,
             shop,
         })
