@@ -822,3 +822,25 @@ fn half_hour_blows_and_a_thirty_hour_run() {
     assert_eq!(out.code, 2);
     assert!(out.stderr.contains("--stages: a striking train's parts are one stage each"), "{}", out.stderr);
 }
+
+#[test]
+fn an_astronomical_dial_lists_each_gear_set_once() {
+    // The same wheels paired differently make the same dial: listed once, with their count.
+    let (code, v) = common::json(&["clock", "astro", "--period", "synodic-month", "--limit", "60"]);
+    assert_eq!(code, 0);
+    let trains = v["trains"].as_array().unwrap();
+    let mut seen = std::collections::BTreeSet::new();
+    let mut total = 0;
+    for t in trains {
+        let stages = t["stages"].as_array().unwrap();
+        let mut drivers: Vec<u64> = stages.iter().map(|s| s["driver"].as_u64().unwrap()).collect();
+        let mut driven: Vec<u64> = stages.iter().map(|s| s["driven"].as_u64().unwrap()).collect();
+        drivers.sort_unstable();
+        driven.sort_unstable();
+        assert!(seen.insert((drivers, driven)), "a gear set listed twice: {t}");
+        total += t["arrangements"].as_u64().unwrap();
+    }
+    // Every listed set accounts for at least one train, and no more trains than were counted.
+    assert!(total >= trains.len() as u64 && total <= v["count"].as_u64().unwrap());
+    assert!(v["gear_set_count"].as_u64().unwrap() <= v["count"].as_u64().unwrap());
+}

@@ -91,7 +91,7 @@ pub fn write_motion(p: &MotionPlan, w: &mut dyn Write) -> io::Result<()> {
 
 /// Write an astronomical-train search: the dial period, the drift and the days to a day out.
 pub fn write_astro(p: &AstroPlan, w: &mut dyn Write) -> io::Result<()> {
-    let extra = ["period_days", "drift_days_per_year", "days_to_one_day"].map(String::from);
+    let extra = ["period_days", "drift_days_per_year", "days_to_one_day", "arrangements"].map(String::from);
     write_rows(
         w,
         &p.problem,
@@ -104,6 +104,7 @@ pub fn write_astro(p: &AstroPlan, w: &mut dyn Write) -> io::Result<()> {
                 decimals(a.period_days, 9),
                 small(a.drift_days_per_year),
                 a.days_to_one_day.map_or(String::new(), |d| decimals(d, 0)),
+                a.arrangements.to_string(),
             ]
         },
     )

@@ -313,6 +313,7 @@ struct AstroDoc {
     input_turns_per_day: u64,
     target: TargetJson,
     count: u64,
+    gear_set_count: Option<u64>,
     complete: bool,
     convention: &'static str,
     train_runs: &'static str,
@@ -338,6 +339,7 @@ pub fn write_astro(p: &AstroPlan, w: &mut dyn Write) -> Result<(), RenderError> 
             exact: s.ratio().to_string(),
         },
         count: p.count,
+        gear_set_count: p.gear_set_count,
         complete: p.complete,
         convention: CONVENTION,
         train_runs: "input = daily or hourly arbor, output = dial turning once per period",
@@ -345,7 +347,7 @@ pub fn write_astro(p: &AstroPlan, w: &mut dyn Write) -> Result<(), RenderError> 
             .trains
             .iter()
             .map(|a| AstroTrainJson {
-                train: TrainJson::from_train(&a.train),
+                train: TrainJson { arrangements: Some(a.arrangements), ..TrainJson::from_train(&a.train) },
                 period_days: a.period_days,
                 drift_days_per_year: a.drift_days_per_year,
                 days_to_one_day: a.days_to_one_day,

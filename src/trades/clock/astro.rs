@@ -207,6 +207,9 @@ pub struct AstroSpec {
 pub struct AstroTrain {
     /// The train, input arbor to dial.
     pub train: Train,
+    /// How many arrangements of its wheels and pinions into stages give the dial (this one
+    /// among them).
+    pub arrangements: u64,
     /// The dial's period with this train, days.
     pub period_days: f64,
     /// Drift, days per year: positive when the dial runs ahead.
@@ -242,9 +245,11 @@ pub struct AstroPlan {
     pub problem: Problem,
     /// Trains within tolerance.
     pub count: u64,
+    /// The gear sets those trains are made of; `None` when they were not counted.
+    pub gear_set_count: Option<u64>,
     /// False when interrupted.
     pub complete: bool,
-    /// The best trains.
+    /// The best gear sets, each by its best arrangement.
     pub trains: Vec<AstroTrain>,
     /// The convergents of the ratio, up to the first whose parts pass 10⁶ or whose error lies
     /// within the period's own uncertainty (the later ones approximate the digits of the
@@ -308,7 +313,11 @@ impl AstroSpec {
     pub fn problem(&self) -> Result<Problem> {
         let r = self.ratio();
         let target = Target::exact(self.period.name.clone(), r, self.tolerance);
-        clock_problem(target, self.pool.clone(), self.stages, StageLimits::default(), self.limit)
+        let mut p =
+            clock_problem(target, self.pool.clone(), self.stages, StageLimits::default(), self.limit)?;
+        // One entry per gear set: the same wheels paired differently make the same dial.
+        p.gear_sets = true;
+        Ok(p)
     }
 
     /// Search, and list the convergents.
@@ -316,10 +325,13 @@ impl AstroSpec {
         let problem = self.problem()?;
         let found = search(&problem, crate::trades::ENGINE, options);
         let per_turn = 1.0 / self.from.turns_per_day() as f64;
+        let arrangements: Vec<u64> = found.arrangements.iter().map(|a| a.count).collect();
+        let (gear_set_count, count, complete) = (found.gear_set_count, found.count, found.complete);
         let trains = found
             .trains
             .into_iter()
-            .map(|train| {
+            .enumerate()
+            .map(|(n, train)| {
                 let e = train.error.to_f64();
                 let drift = drift_days_per_day(e);
                 let digits = self.period.supported_digits(e);
@@ -329,6 +341,7 @@ impl AstroSpec {
                     days_to_one_day: (drift != 0.0).then(|| round_significant(1.0 / drift.abs(), digits)),
                     significant_digits: digits,
                     train,
+                    arrangements: arrangements.get(n).copied().unwrap_or(1),
                 }
             })
             .collect();
@@ -350,14 +363,7 @@ impl AstroSpec {
             }
         }
         let convergents = listed;
-        Ok(AstroPlan {
-            spec: self.clone(),
-            problem,
-            count: found.count,
-            complete: found.complete,
-            trains,
-            convergents,
-        })
+        Ok(AstroPlan { spec: self.clone(), problem, count, gear_set_count, complete, trains, convergents })
     }
 }
 
