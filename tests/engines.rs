@@ -68,16 +68,7 @@ fn problem_strategy() -> impl Strategy<Value = Problem> {
             .prop_filter_map("pool must mesh", |gears| {
                 let stock: Vec<StockGear> = gears
                     .into_iter()
-                    .map(|(teeth, module_mm, quantity)| StockGear {
-                        teeth,
-                        module_mm,
-                        diametral_pitch: None,
-                        pressure_angle_deg: 20.0,
-                        quantity,
-                        label: String::new(),
-                        made: Some(Default::default()),
-                        internal: false,
-                    })
+                    .map(|(teeth, module_mm, quantity)| StockGear::on_hand(teeth, module_mm, 20.0, quantity))
                     .collect();
                 Pool::from_stock(&stock, "random").ok()
             }),

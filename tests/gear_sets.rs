@@ -72,16 +72,7 @@ fn problem_strategy() -> impl Strategy<Value = Problem> {
             .prop_filter_map("pool must mesh", |gears| {
                 let stock: Vec<StockGear> = gears
                     .into_iter()
-                    .map(|(teeth, module_mm, quantity)| StockGear {
-                        teeth,
-                        module_mm,
-                        diametral_pitch: None,
-                        pressure_angle_deg: 20.0,
-                        quantity,
-                        label: String::new(),
-                        made: Some(Default::default()),
-                        internal: false,
-                    })
+                    .map(|(teeth, module_mm, quantity)| StockGear::on_hand(teeth, module_mm, 20.0, quantity))
                     .collect();
                 Pool::from_stock(&stock, "random").ok()
             }),
@@ -232,16 +223,7 @@ proptest! {
 #[test]
 fn six_arrangements_of_three_pairs_are_one_set() {
     let pool = Pool::from_stock(
-        &[20, 24, 25, 30, 40, 50].map(|teeth| StockGear {
-            teeth,
-            module_mm: 1.0,
-            diametral_pitch: None,
-            pressure_angle_deg: 20.0,
-            quantity: 1,
-            label: String::new(),
-            made: Some(Default::default()),
-            internal: false,
-        }),
+        &[20, 24, 25, 30, 40, 50].map(|teeth| StockGear::on_hand(teeth, 1.0, 20.0, 1)),
         "hand",
     )
     .unwrap();

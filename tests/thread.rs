@@ -642,19 +642,7 @@ fn options_given_override_the_lathe_file() {
 // Properties on random lathes, pitches and gear boxes.
 
 fn stock(teeth: &[u32]) -> Pool {
-    let g: Vec<StockGear> = teeth
-        .iter()
-        .map(|&t| StockGear {
-            teeth: t,
-            module_mm: 1.5,
-            diametral_pitch: None,
-            pressure_angle_deg: 20.0,
-            quantity: 1,
-            label: String::new(),
-            made: Some(Default::default()),
-            internal: false,
-        })
-        .collect();
+    let g: Vec<StockGear> = teeth.iter().map(|&t| StockGear::on_hand(t, 1.5, 20.0, 1)).collect();
     Pool::from_stock(&g, "random").unwrap()
 }
 
@@ -746,8 +734,7 @@ proptest! {
             shaft_diameter_mm: shaft,
         };
         let Ok(pool) = Pool::from_stock(
-            &teeth.iter().map(|&t| StockGear { teeth: t, module_mm: 1.5, diametral_pitch: None,
-                pressure_angle_deg: 20.0, quantity: 1, label: String::new(), made: Some(Default::default()), internal: false }).collect::<Vec<_>>(),
+            &teeth.iter().map(|&t| StockGear::on_hand(t, 1.5, 20.0, 1)).collect::<Vec<_>>(),
             "random") else { return Ok(()); };
         let tol = Ratio::new(tol_ppm as u128, 1_000_000).unwrap();
         let lathe = Lathe::new(machine.clone(), pool, Some(banjo.clone()),
@@ -944,8 +931,7 @@ proptest! {
             shaft_diameter_mm: shaft,
         };
         let Ok(pool) = Pool::from_stock(
-            &teeth.iter().map(|&t| StockGear { teeth: t, module_mm: 1.0, diametral_pitch: None,
-                pressure_angle_deg: 20.0, quantity: 2, label: String::new(), made: Some(Default::default()), internal: false }).collect::<Vec<_>>(),
+            &teeth.iter().map(|&t| StockGear::on_hand(t, 1.0, 20.0, 2)).collect::<Vec<_>>(),
             "random") else { return Ok(()); };
         let lathe = Lathe::new(machine, pool, Some(banjo.clone()), IntRange { lo: 3, hi: 3 },
             Ratio::new(2, 100).unwrap(), 6).unwrap();

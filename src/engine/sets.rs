@@ -53,11 +53,11 @@ impl SetTools {
         if !space.needs_coaxial_fit() && space.problem.train_check.is_none() {
             // Every pairing into stages satisfies the problem as `c` does: the first one can be
             // built directly.
-            let first = self.first_staged_pairing(&self.set_of.of(c));
+            let first = self.first_staged_pairing(&self.set_of.of(c.stage_indices()));
             return first.as_ref().is_some_and(|f| &f[..idx.len()] == idx);
         }
         let mut canonical = true;
-        self.for_each_staged_pairing(&self.set_of.of(c), &mut |other| {
+        self.for_each_staged_pairing(&self.set_of.of(c.stage_indices()), &mut |other| {
             if canonical && other < idx && rearranged(space, c, other).is_some() {
                 canonical = false;
             }
@@ -116,7 +116,9 @@ impl SetTools {
     /// problem's ranking (the best is `c` itself when `c` is the set's best).
     pub fn arrangements(&self, space: &SearchSpace, c: &Candidate) -> Vec<Candidate> {
         let mut all = Vec::new();
-        self.for_each_staged_pairing(&self.set_of.of(c), &mut |idx| all.extend(rearranged(space, c, idx)));
+        self.for_each_staged_pairing(&self.set_of.of(c.stage_indices()), &mut |idx| {
+            all.extend(rearranged(space, c, idx))
+        });
         let keys = &space.problem.rank;
         all.sort_by(|a, b| compare(keys, a, b));
         all

@@ -11,8 +11,8 @@ use std::sync::{Mutex, OnceLock};
 
 use crate::geometry::Making;
 use crate::geometry::{
-    check_cycloidal, check_mesh, common_windows, cycloidal_mesh, mesh_as_made, running_window, MeshDefect,
-    MeshGeometry, MeshLimits, ToothSystem,
+    check_cycloidal, check_mesh, common_windows, cycloidal_mesh, mesh_as_made, mesh_at_place, running_window,
+    MeshDefect, MeshGeometry, MeshLimits, ToothSystem,
 };
 use crate::model::pool::{MeshGroup, MAX_STAGES};
 use crate::model::problem::{MeshRules, Problem, ToothForm};
@@ -78,17 +78,11 @@ fn stage_mesh(
         };
     }
     let sys = ToothSystem::new(group.module_mm, group.pressure_angle_deg, rules.rack)?;
-    let standard = sys.standard_centre_distance_mm(teeth);
-    let at = match rules.centre_distance_mm {
-        // Gears to cut this close to a fixed distance are cut standard.
-        Some(a_w) if made == [None, None] && (a_w - standard).abs() <= rules.centre_tolerance_mm => None,
-        at => at,
-    };
-    let mesh = mesh_as_made(
+    let mesh = mesh_at_place(
         &sys,
         teeth,
         made,
-        at,
+        rules.centre_distance_mm,
         &(rules.shift_sum.0..=rules.shift_sum.1),
         rules.centre_tolerance_mm,
     )?;

@@ -135,6 +135,27 @@ pub fn mesh_as_made(
     }
 }
 
+/// [`mesh_as_made`] for a pair placed at a housing's distance `fixed` (or none): gears all to be
+/// cut whose reference centre distance lies within `tolerance_mm` of it are cut standard (no
+/// shift for a distance they already meet); otherwise the distance is met as
+/// [`mesh_as_made`] says, gears on hand standing up to `tolerance_mm` beyond their tight
+/// distance.
+pub fn mesh_at_place(
+    system: &ToothSystem,
+    teeth: [u32; 2],
+    made: Making,
+    fixed: Option<f64>,
+    shift_sum: &RangeInclusive<f64>,
+    tolerance_mm: f64,
+) -> Result<MeshGeometry, MeshDefect> {
+    let standard = system.standard_centre_distance_mm(teeth);
+    let at = match fixed {
+        Some(a_w) if made == [None, None] && (a_w - standard).abs() <= tolerance_mm => None,
+        at => at,
+    };
+    mesh_as_made(system, teeth, made, at, shift_sum, tolerance_mm)
+}
+
 /// The centre distances at which a pair runs within `limits`, as disjoint intervals
 /// `(lo, hi)` in mm, ascending: over the distances its shift-sum range reaches when a gear is
 /// to be cut, or from the tight distance to `play_mm` beyond it when both are made.

@@ -56,7 +56,7 @@ pub use check::{check_mesh, MeshLimits};
 pub use cycloidal::{check_cycloidal, cycloidal_mesh, cycloidal_outline, CycloidalLimits, CycloidalMesh};
 pub use defect::{GearRef, MeshDefect, Role};
 pub use involute::{inv, inv_inverse};
-pub use made::{common_windows, mesh_as_made, running_window, AsMade, Making};
+pub use made::{common_windows, mesh_as_made, mesh_at_place, running_window, AsMade, Making};
 pub use modules::{
     is_standard_module, module_from_diametral_pitch, Series, MM_PER_INCH, MODULE_SERIES_I, MODULE_SERIES_II,
 };

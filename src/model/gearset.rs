@@ -8,7 +8,6 @@
 use std::sync::Arc;
 
 use crate::model::pool::MAX_STAGES;
-use crate::model::rank::Candidate;
 
 /// One stage of a pairing: (driver kind, driven kind), indices into
 /// [`crate::model::pool::Pool::gears`].
@@ -118,9 +117,10 @@ impl SetOf {
         SetOf { kinds: Arc::new(kinds) }
     }
 
-    /// The gear set of a candidate.
-    pub fn of(&self, c: &Candidate) -> GearSet {
-        GearSet::of_pairs(c.stage_indices().iter().map(|&i| self.kinds[i as usize]))
+    /// The gear set of a train given by its stage-table indices (a candidate's
+    /// `stage_indices()`).
+    pub fn of(&self, stages: &[u32]) -> GearSet {
+        GearSet::of_pairs(stages.iter().map(|&i| self.kinds[i as usize]))
     }
 
     /// The (driver kind, driven kind) of stage `i`.

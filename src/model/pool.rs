@@ -84,6 +84,23 @@ pub struct StockGear {
     pub internal: bool,
 }
 
+impl StockGear {
+    /// A gear on hand of `teeth` teeth, module `module_mm`, pressure angle
+    /// `pressure_angle_deg`, `quantity` of them, unlabelled, cut standard (no shift, full tip).
+    pub fn on_hand(teeth: u32, module_mm: f64, pressure_angle_deg: f64, quantity: u32) -> StockGear {
+        StockGear {
+            teeth,
+            module_mm,
+            diametral_pitch: None,
+            pressure_angle_deg,
+            quantity,
+            label: String::new(),
+            made: Some(AsMade::default()),
+            internal: false,
+        }
+    }
+}
+
 /// The validated set of gears a search draws from.
 #[derive(Debug, Clone, PartialEq)]
 pub struct Pool {
@@ -317,16 +334,7 @@ mod tests {
     use super::*;
 
     fn g(teeth: u32, module_mm: f64, q: u32) -> StockGear {
-        StockGear {
-            teeth,
-            module_mm,
-            diametral_pitch: None,
-            pressure_angle_deg: 20.0,
-            quantity: q,
-            label: String::new(),
-            made: Some(AsMade::default()),
-            internal: false,
-        }
+        StockGear::on_hand(teeth, module_mm, 20.0, q)
     }
 
     #[test]

@@ -254,7 +254,8 @@ impl TopK {
 
 /// Keep in `held` only the best candidate (by `keys`, then the tie-breaks) of each gear set.
 fn keep_best_of_each_set(held: &mut Vec<Candidate>, keys: &[RankKey], sets: &SetOf) {
-    let mut tagged: Vec<(GearSet, Candidate)> = held.drain(..).map(|c| (sets.of(&c), c)).collect();
+    let mut tagged: Vec<(GearSet, Candidate)> =
+        held.drain(..).map(|c| (sets.of(c.stage_indices()), c)).collect();
     tagged.sort_by(|a, b| a.0.cmp(&b.0).then_with(|| compare(keys, &a.1, &b.1)));
     tagged.dedup_by(|later, first| later.0 == first.0);
     held.extend(tagged.into_iter().map(|(_, c)| c));
@@ -318,8 +319,8 @@ impl ParetoFront {
         }
         if let Some((sets, keys)) = &self.sets {
             // Arrangements of one set have the same keys: the better one takes the place.
-            let set = sets.of(&c);
-            if let Some(h) = self.held.iter_mut().find(|h| sets.of(h) == set) {
+            let set = sets.of(c.stage_indices());
+            if let Some(h) = self.held.iter_mut().find(|h| sets.of(h.stage_indices()) == set) {
                 if compare(keys, &c, h) == Ordering::Less {
                     *h = c;
                 }

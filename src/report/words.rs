@@ -89,6 +89,28 @@ pub fn count_line(count: u64, listed: usize, complete: bool, what: &str, order: 
     }
 }
 
+/// `651 trains, made of 344 gear sets; the best 4 listed ORDER, each by …`: the count line of
+/// a listing of gear sets, each shown by `each` (its best or first arrangement). For a count
+/// of trains above zero; [`count_line`] says the rest.
+pub fn set_count_line(
+    count: u64,
+    sets: u64,
+    listed: usize,
+    complete: bool,
+    order: &str,
+    each: &str,
+) -> String {
+    format!(
+        "{}{} train{}, made of {} gear set{}; {} listed {order}, each by {each}:",
+        if complete { "" } else { "INCOMPLETE (interrupted): at least " },
+        group_thousands(count),
+        if count == 1 { "" } else { "s" },
+        group_thousands(sets),
+        if sets == 1 { "" } else { "s" },
+        if listed as u64 == sets { "all".to_string() } else { format!("the best {listed}") },
+    )
+}
+
 /// An identifier such as `ShiftSumOutOfRange` in plain words: `shift sum out of range`.
 pub fn plain_words(id: &str) -> String {
     let mut out = String::new();

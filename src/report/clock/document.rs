@@ -5,7 +5,7 @@ use crate::geometry::CycloidalMesh;
 use crate::model::pool::fmt_num;
 use crate::model::problem::ToothForm;
 use crate::model::train::Train;
-use crate::report::words::{count_line, describe_error, describe_tolerance, group_thousands, CONVENTION};
+use crate::report::words::{count_line, describe_error, describe_tolerance, CONVENTION};
 use crate::report::{Document, Table};
 use crate::trades::clock::astro::AstroPlan;
 use crate::trades::clock::beat::BeatSource;
@@ -475,28 +475,17 @@ pub fn astro(p: &AstroPlan) -> Document {
         describe_tolerance(s.tolerance.to_f64())
     ));
     d.blank();
+    let order = "by error, then meshes, then size";
     match p.gear_set_count.filter(|_| p.count > 0) {
-        Some(sets) => d.line(format!(
-            "{}{} train{}, made of {} gear set{}; {} listed by error, then meshes, then size, each by its \
-             first arrangement (the arrangements of one set give the same dial):",
-            if p.complete { "" } else { "INCOMPLETE (interrupted): at least " },
-            group_thousands(p.count),
-            if p.count == 1 { "" } else { "s" },
-            group_thousands(sets),
-            if sets == 1 { "" } else { "s" },
-            if p.trains.len() as u64 == sets {
-                "all".to_string()
-            } else {
-                format!("the best {}", p.trains.len())
-            },
-        )),
-        None => d.line(count_line(
+        Some(sets) => d.line(crate::report::words::set_count_line(
             p.count,
+            sets,
             p.trains.len(),
             p.complete,
-            "train",
-            "by error, then meshes, then size",
+            order,
+            "its first arrangement (the arrangements of one set give the same dial)",
         )),
+        None => d.line(count_line(p.count, p.trains.len(), p.complete, "train", order)),
     }
     if !p.trains.is_empty() {
         let rows = Table::numbered(&p.trains, |a| {

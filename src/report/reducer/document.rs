@@ -128,15 +128,13 @@ pub fn document(p: &ReducerPlan) -> Document {
     }
     d.blank();
     match p.gear_set_count.filter(|_| p.count > 0) {
-        Some(sets) => d.line(format!(
-            "{}{} train{}, made of {} gear set{}; {} listed best first, each by the arrangement of its gears \
-             into stages that ranks best:",
-            if p.complete { "" } else { "INCOMPLETE (interrupted): at least " },
-            crate::report::words::group_thousands(p.count),
-            if p.count == 1 { "" } else { "s" },
-            crate::report::words::group_thousands(sets),
-            if sets == 1 { "" } else { "s" },
-            if p.trains.len() as u64 == sets { "all".to_string() } else { format!("the best {}", p.trains.len()) },
+        Some(sets) => d.line(crate::report::words::set_count_line(
+            p.count,
+            sets,
+            p.trains.len(),
+            p.complete,
+            "best first",
+            "the arrangement of its gears into stages that ranks best",
         )),
         None => d.line(count_line(p.count, p.trains.len(), p.complete, "train", "best first")),
     }

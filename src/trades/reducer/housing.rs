@@ -2,7 +2,7 @@
 //! each place gets its module and each stage reaches the housing's fixed centre distance by
 //! profile shift. Owns the arrangement; the mesh arithmetic is [`crate::geometry`]'s.
 
-use crate::geometry::{check_mesh, mesh_as_made, MeshGeometry, ToothSystem};
+use crate::geometry::{check_mesh, mesh_at_place, MeshGeometry, ToothSystem};
 use crate::model::problem::MeshRules;
 use crate::model::train::{Stage, Train};
 
@@ -42,16 +42,11 @@ impl Places {
         }
         let sys = ToothSystem::new(stage.module_mm, stage.pressure_angle_deg, self.rules.rack).ok()?;
         let teeth = [stage.driver.teeth, stage.driven.teeth];
-        let standard = sys.standard_centre_distance_mm(teeth);
-        let made = [stage.driver.made, stage.driven.made];
         // Gears on hand keep their shift and tip: a fixed place is met by them as they are,
         // within the centre-distance tolerance, or not at all; only gears to cut are shifted.
-        let at = match fixed {
-            Some(a) if made == [None, None] && (a - standard).abs() <= self.rules.centre_tolerance_mm => None,
-            at => at,
-        };
+        let made = [stage.driver.made, stage.driven.made];
         let range = self.rules.shift_sum.0..=self.rules.shift_sum.1;
-        let mesh = mesh_as_made(&sys, teeth, made, at, &range, self.rules.centre_tolerance_mm).ok()?;
+        let mesh = mesh_at_place(&sys, teeth, made, fixed, &range, self.rules.centre_tolerance_mm).ok()?;
         check_mesh(&mesh, &self.rules.limits).is_empty().then_some(mesh)
     }
 

@@ -778,19 +778,7 @@ mod tests {
     }
 
     fn pool(teeth: &[u32]) -> Pool {
-        let g: Vec<StockGear> = teeth
-            .iter()
-            .map(|&t| StockGear {
-                teeth: t,
-                module_mm: 1.5,
-                diametral_pitch: None,
-                pressure_angle_deg: 20.0,
-                quantity: 1,
-                label: String::new(),
-                made: Some(Default::default()),
-                internal: false,
-            })
-            .collect();
+        let g: Vec<StockGear> = teeth.iter().map(|&t| StockGear::on_hand(t, 1.5, 20.0, 1)).collect();
         Pool::from_stock(&g, "t").unwrap()
     }
 

@@ -121,17 +121,8 @@ impl LatheFile {
                 };
                 Ok(Some(
                     list.iter()
-                        .map(|&(teeth, quantity)| StockGear {
-                            teeth,
-                            module_mm,
-                            diametral_pitch: None,
-                            pressure_angle_deg: angle,
-                            quantity,
-                            label: String::new(),
-                            // Change gears on hand, cut standard.
-                            made: Some(Default::default()),
-                            internal: false,
-                        })
+                        // Change gears on hand, cut standard.
+                        .map(|&(teeth, quantity)| StockGear::on_hand(teeth, module_mm, angle, quantity))
                         .collect(),
                 ))
             }
