@@ -433,3 +433,39 @@ fn reducer_counts_gear_sets_as_a_brute_force_grouping_does() {
     assert_eq!(v["count"].as_u64(), Some(trains));
     assert_eq!(v["gear_set_count"].as_u64(), Some(sets.len() as u64));
 }
+
+/// Gears on hand cannot be shifted: a 20/60 pair of module 1 stands tight at m(z1 + z2)/2 = 40 mm
+/// (the ISO 21771 reference centre distance). A housing bored at 40.05 mm takes them only when
+/// `--centre-tol` lets them stand 0.05 mm apart, and then unshifted; the default 0.01 mm refuses
+/// them and the hint names the flag.
+#[test]
+fn gears_on_hand_meet_a_housing_within_the_centre_tolerance_given() {
+    let (_dir, stock) = temp_catalogue("pair.csv", b"teeth,module,quantity\n20,1,1\n60,1,1\n");
+    let base = [
+        "reducer",
+        "--ratio",
+        "3",
+        "--stages",
+        "1",
+        "--modules",
+        "1",
+        "--centre-distances",
+        "40.05",
+        "--stock",
+        &stock,
+    ];
+    let tight = gearsieve(&base);
+    assert_ne!(tight.code, 0, "{}", tight.stdout);
+    assert!(tight.stderr.contains("--centre-tol"), "{}", tight.stderr);
+    let mut loose = base.to_vec();
+    loose.extend(["--centre-tol", "0.1"]);
+    let (code, v) = json(&loose);
+    assert_eq!(code, 0, "{v}");
+    let s = &stages(&trains(&v)[0])[0];
+    assert_eq!((s["driver"].as_u64(), s["driven"].as_u64()), (Some(20), Some(60)));
+    assert_eq!(s["shift"], serde_json::json!([0.0, 0.0]), "{s}");
+    assert!((s["working_centre_distance_mm"].as_f64().unwrap() - 40.05).abs() < 1e-9, "{s}");
+    // cos α_w = a·cos α / a_w (ISO 21771): the pair pulled apart runs at a larger angle.
+    let alpha_w = (40.0 * 20f64.to_radians().cos() / 40.05).acos().to_degrees();
+    assert!((s["working_pressure_angle_deg"].as_f64().unwrap() - alpha_w).abs() < 1e-9, "{s}");
+}

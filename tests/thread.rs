@@ -1027,3 +1027,59 @@ fn the_error_of_a_tpi_thread_is_the_error_of_its_tpi() {
         text.stdout
     );
 }
+
+/// A 12-tooth change gear on hand, cut standard at 20°, is undercut (it needs
+/// x ≥ 1 − z·sin²α/2 ≈ 0.298 to clear a full-depth rack: the rack relation, common practice): every format of `thread` says so,
+/// and through an idler the machine's two meshes are judged, not the direct pair it lacks.
+#[test]
+fn gears_on_hand_that_would_not_run_are_named_in_every_format() {
+    let (_dir, stock) =
+        temp_catalogue("small.csv", b"teeth,module,quantity\n12,1,1\n24,1,1\n30,1,1\n50,1,1\n");
+    let base = [
+        "thread",
+        "--pitch",
+        "16tpi",
+        "--leadscrew",
+        "8tpi",
+        "--stock",
+        &stock,
+        "--stud-to-leadscrew",
+        "40",
+        "--shaft-diameter",
+        "8",
+        "--intermediate-range",
+        "20..60",
+        "--stages",
+        "1",
+    ];
+    let table = gearsieve(&base);
+    assert_eq!(table.code, 0, "{}", table.stderr);
+    assert!(table.stdout.contains("Gears on hand as they are made"), "{}", table.stdout);
+    assert!(
+        table.stdout.contains("#1: stage 1 (12→30): the 12-tooth pinion would be undercut"),
+        "{}",
+        table.stdout
+    );
+
+    let mut csv_args = base.to_vec();
+    csv_args.extend(["--format", "csv"]);
+    let csv = gearsieve(&csv_args);
+    let mut rows = ::csv::Reader::from_reader(csv.stdout.as_bytes());
+    let head = rows.headers().unwrap().clone();
+    let col = head.iter().position(|h| h == "on_hand_defects").expect("an on_hand_defects column");
+    let first = rows.records().next().unwrap().unwrap();
+    assert!(
+        first[col].starts_with("stage 1 (12→30): the 12-tooth pinion would be undercut"),
+        "{}",
+        &first[col]
+    );
+
+    let (code, v) = json(&base);
+    assert_eq!(code, 0);
+    let stages = v["trains"][0]["stages"].as_array().unwrap();
+    assert_eq!(stages.len(), 2, "the idler's two meshes");
+    assert_eq!((stages[0]["driver"].as_u64(), stages[0]["driven"].as_u64()), (Some(12), Some(30)));
+    assert!(stages[0]["on_hand_defects"][0].as_str().unwrap().contains("12-tooth pinion would be undercut"));
+    // 30 → 24 runs: neither gear is undercut nor pointed, and their contact ratio is ample.
+    assert!(stages[1].get("on_hand_defects").is_none_or(|d| d.as_array().unwrap().is_empty()), "{stages:?}");
+}

@@ -99,6 +99,11 @@ pub struct ReducerArgs {
     /// Allowed profile shift sum x1+x2 per stage, in modules [default: -0.5..1].
     #[arg(long, value_name = "LO..HI", allow_hyphen_values = true)]
     pub shift_sum: Option<String>,
+    /// How far beyond their tight distance gears on hand (which are never re-cut) may stand to
+    /// meet a fixed centre distance, mm: backlash opens and the working pressure angle rises as
+    /// they move apart; also how close a standard centre distance must be to need no shift.
+    #[arg(long, value_name = "MM", default_value_t = gearsieve::model::problem::DEFAULT_CENTRE_TOLERANCE_MM, allow_negative_numbers = true, value_parser = number)]
+    pub centre_tol: f64,
     /// Hunting-tooth pairs (no common factor between mating teeth, for even wear).
     #[arg(long, value_enum, default_value = "prefer")]
     pub hunting: HuntingArg,
@@ -256,6 +261,7 @@ impl TryFrom<&ReducerArgs> for ReducerSpec {
                 .transpose()?,
             centre_distances_mm,
             shift_sum,
+            centre_tolerance_mm: a.centre_tol,
             hunting: match a.hunting {
                 HuntingArg::Prefer => Hunting::Prefer,
                 HuntingArg::Require => Hunting::Require,
@@ -347,6 +353,9 @@ impl Job for ReducerJob {
             }
             if !s.centre_distances_mm.is_empty() {
                 h.push("a wider --shift-sum for the housing".into());
+                if s.stock.is_some() {
+                    h.push("a larger --centre-tol (gears on hand stand apart to meet the housing)".into());
+                }
             }
             hints::nothing("", &h)
         };

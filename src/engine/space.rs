@@ -11,11 +11,11 @@ use std::sync::{Mutex, OnceLock};
 
 use crate::geometry::Making;
 use crate::geometry::{
-    check_cycloidal, check_mesh, common_windows, cycloidal_mesh, mesh_as_made, mesh_at_place, running_window,
-    MeshDefect, MeshGeometry, MeshLimits, ToothSystem,
+    check_cycloidal, check_mesh, common_windows, cycloidal_mesh, mesh_as_made, mesh_at_place,
+    on_hand_defects, running_window, MeshDefect, MeshGeometry, ToothSystem,
 };
 use crate::model::pool::{MeshGroup, MAX_STAGES};
-use crate::model::problem::{MeshRules, Problem, ToothForm};
+use crate::model::problem::{MeshRules, Problem, ToothForm, DEFAULT_SHIFT_SUM};
 use crate::model::rank::Candidate;
 use crate::model::train::{Gear, Stage, Train};
 use crate::numbers::rational::{Ratio, RelError};
@@ -89,39 +89,6 @@ fn stage_mesh(
     match check_mesh(&mesh, &rules.limits).first() {
         Some(d) => Err(*d),
         None => Ok(Some(mesh)),
-    }
-}
-
-/// What is wrong with a stage of gears on hand as they are, mounted tight, judged by the default
-/// limits: reported on every listing, whether or not the search checks meshes.
-fn made_defects(group: &MeshGroup, teeth: [u32; 2], made: Making, form: ToothForm) -> Vec<MeshDefect> {
-    if form == ToothForm::Cycloidal {
-        // Cycloidal teeth take no shift and have no undercut: judged at their standard distance
-        // by the default cycloidal limits and a least contact ratio of 1, when both are on hand.
-        if made.iter().any(Option::is_none) {
-            return Vec::new();
-        }
-        return match cycloidal_mesh(group.module_mm, teeth, None) {
-            Ok(m) => check_cycloidal(&m, &Default::default(), 1.0),
-            Err(d) => vec![d],
-        };
-    }
-    let Ok(sys) = ToothSystem::new(group.module_mm, group.pressure_angle_deg, Default::default()) else {
-        return Vec::new();
-    };
-    let range = crate::model::problem::DEFAULT_SHIFT_SUM.0..=crate::model::problem::DEFAULT_SHIFT_SUM.1;
-    match mesh_as_made(&sys, teeth, made, None, &range, 0.0) {
-        Ok(m) => check_mesh(&m, &MeshLimits::default())
-            .into_iter()
-            // Only what the gears on hand bring: a gear to cut could be shifted clear.
-            .filter(|d| match d {
-                MeshDefect::Undercut { gear, .. } | MeshDefect::PointedTip { gear, .. } => {
-                    made[gear.index].is_some()
-                }
-                _ => made.iter().all(Option::is_some),
-            })
-            .collect(),
-        Err(d) => vec![d],
     }
 }
 
@@ -214,10 +181,16 @@ impl<'p> SearchSpace<'p> {
                     driven_teeth: b.teeth,
                     value: b.teeth as f64 / a.teeth as f64,
                     mesh,
-                    made_defects: if a.made.is_some() || b.made.is_some() {
-                        made_defects(&pool.groups[a.group], [a.teeth, b.teeth], [a.made, b.made], form)
-                    } else {
-                        Vec::new()
+                    made_defects: {
+                        let g = &pool.groups[a.group];
+                        on_hand_defects(
+                            g.module_mm,
+                            g.pressure_angle_deg,
+                            [a.teeth, b.teeth],
+                            [a.made, b.made],
+                            form,
+                            &(DEFAULT_SHIFT_SUM.0..=DEFAULT_SHIFT_SUM.1),
+                        )
                     },
                 });
             }

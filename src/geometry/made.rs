@@ -10,7 +10,9 @@
 use std::ops::RangeInclusive;
 
 use super::check::{check_mesh, MeshLimits};
+use super::cycloidal::{check_cycloidal, cycloidal_mesh};
 use super::defect::MeshDefect;
+use super::form::ToothForm;
 use super::system::ToothSystem;
 use super::working::{assemble_with_tips, mesh_geometry, shift_for_centre_distance, working_angle};
 use super::working::{MeshGeometry, Mounting};
@@ -246,6 +248,50 @@ pub fn common_windows(windows: &[Vec<(f64, f64)>]) -> Vec<(f64, f64)> {
         }
         out
     })
+}
+
+/// What is wrong with a pair in which some gears are on hand, as they are, mounted tight at the
+/// nearest distance they run at, judged by the default limits (undercut and pointed tips of the
+/// gears on hand; contact ratio when both are on hand): reported on every listing, whether or
+/// not a search checks meshes. A gear still to be cut could be shifted clear, so nothing of its
+/// own is held against the pair. `shift_sum` is the shift sum a gear to cut may take, in modules.
+/// Cycloidal teeth take no shift and have no undercut: a pair of them on hand is judged at its
+/// standard distance by the default cycloidal limits and a least contact ratio of 1.
+pub fn on_hand_defects(
+    module_mm: f64,
+    pressure_angle_deg: f64,
+    teeth: [u32; 2],
+    made: Making,
+    form: ToothForm,
+    shift_sum: &RangeInclusive<f64>,
+) -> Vec<MeshDefect> {
+    if made.iter().all(Option::is_none) {
+        return Vec::new();
+    }
+    if form == ToothForm::Cycloidal {
+        if made.iter().any(Option::is_none) {
+            return Vec::new();
+        }
+        return match cycloidal_mesh(module_mm, teeth, None) {
+            Ok(m) => check_cycloidal(&m, &Default::default(), 1.0),
+            Err(d) => vec![d],
+        };
+    }
+    let Ok(sys) = ToothSystem::new(module_mm, pressure_angle_deg, Default::default()) else {
+        return Vec::new();
+    };
+    match mesh_as_made(&sys, teeth, made, None, shift_sum, 0.0) {
+        Ok(m) => check_mesh(&m, &MeshLimits::default())
+            .into_iter()
+            .filter(|d| match d {
+                MeshDefect::Undercut { gear, .. } | MeshDefect::PointedTip { gear, .. } => {
+                    made[gear.index].is_some()
+                }
+                _ => made.iter().all(Option::is_some),
+            })
+            .collect(),
+        Err(d) => vec![d],
+    }
 }
 
 #[cfg(test)]

@@ -41,6 +41,7 @@ pub mod allowance;
 pub mod check;
 pub mod cycloidal;
 pub mod defect;
+pub mod form;
 pub mod internal;
 pub mod involute;
 pub mod layout;
@@ -55,8 +56,11 @@ pub mod working;
 pub use check::{check_mesh, MeshLimits};
 pub use cycloidal::{check_cycloidal, cycloidal_mesh, cycloidal_outline, CycloidalLimits, CycloidalMesh};
 pub use defect::{GearRef, MeshDefect, Role};
+pub use form::ToothForm;
 pub use involute::{inv, inv_inverse};
-pub use made::{common_windows, mesh_as_made, mesh_at_place, running_window, AsMade, Making};
+pub use made::{
+    common_windows, mesh_as_made, mesh_at_place, on_hand_defects, running_window, AsMade, Making,
+};
 pub use modules::{
     is_standard_module, module_from_diametral_pitch, Series, MM_PER_INCH, MODULE_SERIES_I, MODULE_SERIES_II,
 };

@@ -90,27 +90,7 @@ pub const DEFAULT_SHIFT_SUM: (f64, f64) = (-0.5, 1.0);
 /// this close needs no profile shift.
 pub const DEFAULT_CENTRE_TOLERANCE_MM: f64 = 0.01;
 
-/// The form the teeth of every stage are cut to.
-#[derive(Debug, Clone, Copy, Default, PartialEq, Eq, serde::Serialize)]
-#[serde(rename_all = "lowercase")]
-pub enum ToothForm {
-    /// Involute teeth by a basic rack, shifted where a centre distance needs it.
-    #[default]
-    Involute,
-    /// Cycloidal (horological) wheel-and-pinion teeth as clocks are cut, with no shift, at the
-    /// centre distance m·(z1 + z2)/2 ([`crate::geometry::cycloidal`]).
-    Cycloidal,
-}
-
-impl ToothForm {
-    /// `involute` or `cycloidal`.
-    pub fn as_str(self) -> &'static str {
-        match self {
-            ToothForm::Involute => "involute",
-            ToothForm::Cycloidal => "cycloidal",
-        }
-    }
-}
+pub use crate::geometry::ToothForm;
 
 /// Mesh geometry rules. When a problem has them, every stage is worked out in its tooth form
 /// (an involute mesh with profile shifts split by the geometry module's rule, or a cycloidal

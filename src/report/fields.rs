@@ -185,6 +185,10 @@ pub fn train_cells(train: &TrainJson) -> Vec<String> {
     ]
 }
 
+/// The heading over the notes on gears on hand that would not run well as they are made.
+pub const ON_HAND_HEADING: &str =
+    "Gears on hand as they are made (they cannot be re-cut; judged mounted tight):";
+
 /// The trains whose gears on hand, as they are made, would not run well: gears on hand cannot
 /// be re-cut, so this is said on every listing, whether or not meshes were checked.
 pub fn on_hand(trains: &[TrainJson], d: &mut crate::report::Document) {
@@ -199,7 +203,7 @@ pub fn on_hand(trains: &[TrainJson], d: &mut crate::report::Document) {
         return;
     }
     d.blank();
-    d.line("Gears on hand as they are made (they cannot be re-cut; judged mounted tight):");
+    d.line(ON_HAND_HEADING);
     for n in notes {
         d.line(format!("  {n}"));
     }

@@ -6,11 +6,11 @@ use std::io::{self, Write};
 
 use super::document::banjo_cell;
 use super::{ChartReport, ThreadReport};
-use crate::report::fields::{decimals, mm, small, StageColumns, TrainJson};
+use crate::report::fields::{decimals, mm, on_hand_summary, small, StageColumns, TrainJson};
 use crate::trades::thread::pitch::Pitch;
 use crate::trades::thread::{Lathe, Setup};
 
-const SETUP_COLUMNS: [&str; 24] = [
+const SETUP_COLUMNS: [&str; 25] = [
     "gearbox_position",
     "stud",
     "idler",
@@ -35,6 +35,7 @@ const SETUP_COLUMNS: [&str; 24] = [
     "planes",
     "engage_every_leadscrew_turns",
     "dial_every_nth_line",
+    "on_hand_defects",
 ];
 
 /// The stage columns of a lathe's setups: as many as it allows, stud first, and two for a
@@ -76,6 +77,7 @@ fn setup_fields(s: &Setup, pitch: &Pitch, lathe: &Lathe) -> Vec<String> {
     ];
     let (shown, sense) = s.shown_error(pitch);
     let chain = s.fit.chain.as_ref();
+    let mounted = TrainJson::from_train(&s.mounted_train());
     row.extend([
         small(shown.to_f64()),
         sense.as_str().to_string(),
@@ -87,11 +89,12 @@ fn setup_fields(s: &Setup, pitch: &Pitch, lathe: &Lathe) -> Vec<String> {
         chain.map_or(String::new(), |c| c.planes.iter().map(|p| p.to_string()).collect::<Vec<_>>().join("-")),
         s.engagement.map_or(String::new(), |e| e.leadscrew_turns.to_string()),
         s.engagement.and_then(|e| e.every_nth_line).map_or(String::new(), |n| n.to_string()),
+        on_hand_summary(&mounted),
         s.fit.stud_mesh_inner.map_or(String::new(), |b| b.to_string()),
     ]);
     // The stages as they sit on the machine, stud first (the setup's train is in that order
     // already), an idler as two.
-    row.extend(stage_columns(lathe).cells(&TrainJson::from_train(&s.mounted_train())));
+    row.extend(stage_columns(lathe).cells(&mounted));
     row
 }
 

@@ -5,6 +5,7 @@
 use super::{ChartReport, ThreadReport};
 use crate::model::pool::fmt_num;
 use crate::model::train::standard_centre_distance_mm;
+use crate::report::fields::{on_hand, on_hand_summary, TrainJson, ON_HAND_HEADING};
 use crate::report::words::{describe_error, describe_tolerance, group_thousands, THREAD_CAUTION};
 use crate::report::{Document, Table};
 use crate::trades::thread::banjo::{MAX_PLACED_STAGES, NO_BANJO};
@@ -315,6 +316,9 @@ pub fn thread(r: &ThreadReport) -> Document {
             })
             .collect();
         d.table(Table::new(&head, &[0, 2, 3, 5]).with_rows(rows));
+        let mounted: Vec<TrainJson> =
+            p.setups.iter().map(|s| TrainJson::from_train(&s.mounted_train())).collect();
+        on_hand(&mounted, &mut d);
     }
     if let Some(rej) = r.rejected {
         d.blank();
@@ -397,6 +401,22 @@ pub fn chart(r: &ChartReport) -> Document {
         })
         .collect();
     d.table(Table::new(&head, &[3, 4, 6]).with_rows(rows));
+    let notes: Vec<String> = c
+        .rows
+        .iter()
+        .filter_map(|row| {
+            let s = row.best.as_ref().or(row.nearest.as_ref())?;
+            let summary = on_hand_summary(&TrainJson::from_train(&s.mounted_train()));
+            (!summary.is_empty()).then(|| format!("{}: {summary}", row.label))
+        })
+        .collect();
+    if !notes.is_empty() {
+        d.blank();
+        d.line(ON_HAND_HEADING);
+        for n in notes {
+            d.line(format!("  {n}"));
+        }
+    }
     let mut bases = Bases::default();
     for row in &c.rows {
         bases.add(&row.thread.pitch);

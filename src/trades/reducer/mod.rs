@@ -88,6 +88,9 @@ pub struct ReducerSpec {
     pub centre_distances_mm: Vec<f64>,
     /// Allowed profile shift sum per stage, modules.
     pub shift_sum: (f64, f64),
+    /// How far beyond their tight distance gears on hand (never re-cut) may stand to meet a
+    /// fixed centre distance, mm; also how close a standard distance must be to need no shift.
+    pub centre_tolerance_mm: f64,
     /// Hunting-tooth pairs.
     pub hunting: Hunting,
     /// What ranks first.
@@ -224,7 +227,11 @@ impl ReducerSpec {
             } else {
                 self.centre_distances_mm.clone()
             },
-            rules: MeshRules { shift_sum: self.shift_sum, ..MeshRules::default() },
+            rules: MeshRules {
+                shift_sum: self.shift_sum,
+                centre_tolerance_mm: self.centre_tolerance_mm,
+                ..MeshRules::default()
+            },
         }
     }
 
@@ -371,6 +378,7 @@ mod tests {
             min_stage_ratio: None,
             centre_distances_mm: Vec::new(),
             shift_sum: crate::model::problem::DEFAULT_SHIFT_SUM,
+            centre_tolerance_mm: crate::model::problem::DEFAULT_CENTRE_TOLERANCE_MM,
             hunting: Hunting::Prefer,
             priority: Priority::Balance,
             input_rpm: None,

@@ -29,8 +29,9 @@ use std::cmp::Ordering;
 
 use crate::engine::{search, RunOptions};
 use crate::error::{Error, Quantity, Result};
+use crate::geometry::on_hand_defects;
 use crate::model::pool::Pool;
-use crate::model::problem::{Problem, StageLimits, TrainCheck};
+use crate::model::problem::{Problem, StageLimits, ToothForm, TrainCheck, DEFAULT_SHIFT_SUM};
 use crate::model::rank::DEFAULT_RANK;
 use crate::model::train::{Gear, Stage, Train};
 use crate::numbers::range::IntRange;
@@ -220,9 +221,26 @@ impl Setup {
         };
         // An idler chosen from the gears on hand, cut standard.
         let idler = Gear { teeth: zi, labels: Vec::new(), made: Some(Default::default()) };
-        // A worked-out mesh was of the direct pair, which the machine does not have.
-        let to_idler = Stage { driven: idler.clone(), mesh: None, ..s.clone() };
-        let from_idler = Stage { driver: idler, mesh: None, ..s.clone() };
+        // A worked-out mesh was of the direct pair, which the machine does not have; the
+        // gears on hand are judged again in the two meshes the machine has.
+        let judged = |a: &Gear, b: &Gear| {
+            on_hand_defects(
+                s.module_mm,
+                s.pressure_angle_deg,
+                [a.teeth, b.teeth],
+                [a.made, b.made],
+                ToothForm::Involute,
+                &(DEFAULT_SHIFT_SUM.0..=DEFAULT_SHIFT_SUM.1),
+            )
+        };
+        let to_idler = Stage {
+            on_hand_defects: judged(&s.driver, &idler),
+            driven: idler.clone(),
+            mesh: None,
+            ..s.clone()
+        };
+        let from_idler =
+            Stage { on_hand_defects: judged(&idler, &s.driven), driver: idler, mesh: None, ..s.clone() };
         Train { stages: vec![to_idler, from_idler], ..self.train.clone() }
     }
 
