@@ -551,3 +551,39 @@ fn a_chain_search_says_it_left_the_rings_out() {
     assert!(r.stderr.contains("internal must be yes (a ring gear) or no, found \"maybe\""), "{}", r.stderr);
     let _ = std::fs::remove_dir_all(&dir);
 }
+
+/// Gears on hand are taken as cut standard and cannot be re-cut: a 12-tooth sun from the demo
+/// shelf is listed unshifted (no split of the mesh's zero shift sum onto it), and its undercut is
+/// named in every format (a 12-tooth pinion at 20° needs x ≥ 1 − z·sin²α/2 ≈ 0.298 to clear a
+/// full-depth rack: the rack relation, common practice); with `--check-meshes` it is refused.
+#[test]
+fn gears_on_hand_are_listed_as_cut_with_what_is_wrong_with_them() {
+    let args = ["planetary", "--ratio", "6", "--tol", "10%", "--stock", "catalogs/planetary-stock.csv"];
+    let (code, v) = json(&args);
+    assert_eq!(code, 0, "{v}");
+    let designs = v["designs"].as_array().unwrap();
+    let with_12 = designs.iter().find(|d| d["sun"] == 12).expect("a design with the 12-tooth sun");
+    for g in with_12["gear_sizes"].as_array().unwrap() {
+        assert_eq!(g["shift"].as_f64(), Some(0.0), "{g}");
+    }
+    let defects: Vec<&str> =
+        with_12["on_hand_defects"].as_array().unwrap().iter().map(|d| d.as_str().unwrap()).collect();
+    assert!(defects.iter().any(|d| d.contains("12-tooth pinion would be undercut")), "{defects:?}");
+
+    let table = gearsieve(&args);
+    assert!(table.stdout.contains("Gears on hand as they are made"), "{}", table.stdout);
+    let mut csv_args = args.to_vec();
+    csv_args.extend(["--format", "csv"]);
+    let csv = gearsieve(&csv_args);
+    let mut rows = ::csv::Reader::from_reader(csv.stdout.as_bytes());
+    let head = rows.headers().unwrap().clone();
+    let col = head.iter().position(|h| h == "on_hand_defects").expect("an on_hand_defects column");
+    let sun = head.iter().position(|h| h == "sun").unwrap();
+    let row = rows.records().map(Result::unwrap).find(|r| &r[sun] == "12").unwrap();
+    assert!(row[col].contains("12-tooth pinion would be undercut"), "{}", &row[col]);
+
+    let mut checked = args.to_vec();
+    checked.push("--check-meshes");
+    let (_, v) = json(&checked);
+    assert!(v["designs"].as_array().unwrap().iter().all(|d| d["sun"] != 12), "{v}");
+}

@@ -30,6 +30,7 @@ pub fn write(r: &PlanetaryReport, w: &mut dyn Write) -> io::Result<()> {
             .map(String::from),
     );
     head.extend((1..=most_planets).map(|k| format!("planet{k}_angle_deg")));
+    head.push("on_hand_defects".into());
     c.write_record(&head)?;
     for (n, d) in r.outcome.designs.iter().enumerate() {
         let circles = gear_circles(r.problem.system(), d);
@@ -52,6 +53,7 @@ pub fn write(r: &PlanetaryReport, w: &mut dyn Write) -> io::Result<()> {
         row.extend(mesh_figures(d).iter().map(|m| m.as_ref().map_or(String::new(), |(_, e)| figure(*e))));
         let angles = d.positions.angles_deg();
         row.extend((0..most_planets as usize).map(|k| angles.get(k).map_or(String::new(), |a| degrees(*a))));
+        row.push(super::document::on_hand_cell(d));
         c.write_record(&row)?;
     }
     c.flush()

@@ -60,6 +60,10 @@ struct DesignJson {
     equally_spaced: bool,
     planet_angles_deg: Vec<f64>,
     planet_meshes: Vec<MeshJson>,
+    /// What is wrong with the gears on hand as they are made (designs from stock whose meshes
+    /// are not checked); left out when nothing is.
+    #[serde(skip_serializing_if = "Vec::is_empty")]
+    on_hand_defects: Vec<String>,
 }
 
 #[derive(Serialize)]
@@ -197,6 +201,7 @@ fn design_json(r: &PlanetaryReport, rank: usize, d: &Design) -> DesignJson {
                 }
             })
             .collect(),
+        on_hand_defects: d.on_hand_defects.iter().map(ToString::to_string).collect(),
         ..DesignJson::default()
     };
     for g in &gear_sizes {

@@ -131,6 +131,10 @@ pub struct Design {
     /// The two meshes in the order of [`Teeth::meshes`], or why one could not be worked out
     /// (only possible when the meshes are not checked).
     pub meshes: [Result<PlanetMesh, MeshDefect>; 2],
+    /// What is wrong with the gears on hand as they were cut, judged by the default mesh
+    /// limits: a design from stock whose meshes are not checked is listed with these named
+    /// (gears on hand cannot be re-cut); empty otherwise (checked meshes refuse a defect).
+    pub on_hand_defects: Vec<Unmet>,
 }
 
 impl Design {
@@ -378,12 +382,15 @@ impl fmt::Display for Unmet {
 
 /// The carrier of a design: its centre distance `m·((s1 + s2)/4 + offset_modules)` and each
 /// gear's shift, or why the two meshes cannot share that centre distance within `allowed`
-/// (each mesh's shift, in modules).
+/// (each mesh's shift, in modules). With `on_hand` every gear is taken as it was cut,
+/// standard: no gear is shifted, not even to split a mesh's zero shift sum against undercut
+/// (a gear on the shelf cannot be re-cut), so `allowed` must be `(0, 0)`.
 pub fn carrier(
     system: &ToothSystem,
     teeth: &Teeth,
     allowed: (f64, f64),
     offset_modules: f64,
+    on_hand: bool,
 ) -> Result<Carrier, Unmet> {
     let meshes = teeth.meshes();
     for mesh in meshes {
@@ -418,7 +425,7 @@ pub fn carrier(
     let clear_of_undercut = |z: u32| system.min_shift(z).max(0.0);
     let mut shift = [[0.0; 2]; 2];
     let mut tip_shortening = [0.0; 2];
-    for (i, mesh) in meshes.iter().enumerate() {
+    for (i, mesh) in meshes.iter().enumerate().filter(|_| !on_hand) {
         match *mesh {
             MeshTeeth::External(t) => {
                 shift[i] = system.split_shift_sum(t, sums[i]);
@@ -592,9 +599,15 @@ pub fn check_design(problem: &PlanetaryProblem, teeth: &Teeth, planets: u32) -> 
         unmet.extend(stock.shortfalls(teeth, planets));
     }
     let ratio = ratio_within(problem, teeth).map_err(|u| unmet.push(u)).ok();
-    let carrier = carrier(problem.system(), teeth, spec.shift_sum, spec.carrier_offset_modules)
-        .map_err(|u| unmet.push(u))
-        .ok();
+    let carrier = carrier(
+        problem.system(),
+        teeth,
+        spec.shift_sum,
+        spec.carrier_offset_modules,
+        problem.stock().is_some(),
+    )
+    .map_err(|u| unmet.push(u))
+    .ok();
     let positions = positions(teeth, planets, spec.spacing).map_err(|u| unmet.push(u)).ok();
     let gap = match (&carrier, &positions) {
         (Some(c), Some(p)) => neighbour_gap(c, p, spec.tip_clearance_mm).map_err(|u| unmet.push(u)).ok(),
@@ -608,7 +621,21 @@ pub fn check_design(problem: &PlanetaryProblem, teeth: &Teeth, planets: u32) -> 
         (Some((ratio, error)), Some(carrier), Some(positions), Some(neighbour_gap_mm), Some(meshes))
             if unmet.is_empty() =>
         {
-            Ok(Design { teeth: *teeth, planets, ratio, error, carrier, positions, neighbour_gap_mm, meshes })
+            let on_hand_defects = match (problem.stock(), &spec.mesh_limits) {
+                (Some(_), None) => mesh_defects(teeth, &meshes, &MeshLimits::default()),
+                _ => Vec::new(),
+            };
+            Ok(Design {
+                teeth: *teeth,
+                planets,
+                ratio,
+                error,
+                carrier,
+                positions,
+                neighbour_gap_mm,
+                meshes,
+                on_hand_defects,
+            })
         }
         _ => Err(unmet),
     }
@@ -725,7 +752,7 @@ mod tests {
         let p = problem(spec);
         let s = p.system();
         let teeth = Teeth::Simple { sun: 20, planet: 30, ring: 81 };
-        let c = carrier(s, &teeth, (-1.0, 1.0), 0.0).unwrap();
+        let c = carrier(s, &teeth, (-1.0, 1.0), 0.0, false).unwrap();
         assert_eq!(c.centre_distance_mm, 25.25);
         assert!(c.mesh_shift[0] > 0.0 && c.mesh_shift[1] < 0.0);
         let a_ext = s.centre_distance_for_shift_sum([20, 30], c.shift[0][0] + c.shift[0][1]).unwrap();
@@ -738,7 +765,7 @@ mod tests {
         let tip = s.tip_diameter_mm(30, c.shift[0][1], c.tip_shortening[0]);
         assert_eq!(c.planet_tip_diameter_mm, [tip, tip]);
         // A narrower allowance refuses it and says what would be needed.
-        match carrier(s, &teeth, (-0.1, 0.1), 0.0) {
+        match carrier(s, &teeth, (-0.1, 0.1), 0.0, false) {
             Err(Unmet::Coaxiality { needed: [Some(a), Some(b)], allowed }) => {
                 assert_eq!((a, b), (c.mesh_shift[0], c.mesh_shift[1]));
                 assert_eq!(allowed, (-0.1, 0.1));
@@ -763,7 +790,7 @@ mod tests {
         let p = problem(simple(5));
         let teeth = Teeth::Stepped { sun: 10, planet: [12, 40], ring: 35 };
         assert_eq!(
-            carrier(p.system(), &teeth, (0.0, 0.0), 0.0).unwrap_err(),
+            carrier(p.system(), &teeth, (0.0, 0.0), 0.0, false).unwrap_err(),
             Unmet::RingNotLarger { planet: 40, ring: 35 }
         );
     }

@@ -341,7 +341,13 @@ fn judge(problem: &PlanetaryProblem, teeth: Teeth, tally: &mut Tally) {
         tally.leave_out(teeth, lo, every, || Unmet::Direction { wanted });
         return;
     }
-    let carrier = match carrier(problem.system(), &teeth, spec.shift_sum, spec.carrier_offset_modules) {
+    let carrier = match carrier(
+        problem.system(),
+        &teeth,
+        spec.shift_sum,
+        spec.carrier_offset_modules,
+        problem.stock().is_some(),
+    ) {
         Ok(carrier) => carrier,
         Err(unmet) => {
             tally.leave_out(teeth, lo, every, || unmet);
