@@ -369,7 +369,15 @@ impl Job for MeshJob {
         let mesh = geometry(self).map_err(|d| explain(self, d))?;
         let defects = check_mesh(&mesh, &self.limits);
         let shop = &self.shop;
-        let pair = pair_data(&self.system, &mesh, shop.backlash, shop.housing_tolerance_mm, shop.balls_mm);
+        // `mesh` works out a pair of gears to cut.
+        let pair = pair_data(
+            &self.system,
+            &mesh,
+            shop.backlash,
+            shop.housing_tolerance_mm,
+            shop.balls_mm,
+            [false, false],
+        );
         Ok((mesh, defects, pair))
     }
 

@@ -25,7 +25,9 @@
 //! The least backlash falls where the housing bores the centres closest and the teeth are cut
 //! thickest (upper allowances); the most where the centres are farthest apart and the teeth
 //! thinnest (lower allowances). The allowance sums are split equally between the two gears
-//! (common practice; a designer may load more of it onto the wheel, which is cheaper to cut).
+//! (common practice; a designer may load more of it onto the wheel, which is cheaper to cut),
+//! unless one gear is on hand: its teeth are as they were cut, so the gear to cut takes the
+//! whole of each sum.
 //!
 //! The recommended least normal backlash for industrial drives, when none is given, is
 //! `j_bn,min = (2/3)·(0.06 + 0.0005·a + 0.03·m)` mm, with `a` the centre distance and `m` the
@@ -35,6 +37,9 @@ use std::fmt;
 
 use super::involute::inv;
 use super::system::ToothSystem;
+
+/// Each gear takes half of the pair's allowance sums (both gears to cut).
+pub const EQUAL_SHARE: [f64; 2] = [0.5, 0.5];
 
 /// The normal backlash a pair should have, mm, and how far its working centre distance may
 /// stray as the housing is bored.
@@ -228,14 +233,16 @@ impl ToothSystem {
     /// Tooth-thickness allowances for the pair with `teeth` and shift sum `shift_sum`, working
     /// at `centre_distance_mm`, that keep its normal backlash within `spec` over the whole
     /// centre-distance tolerance. Upper allowances give the least backlash at the closest
-    /// centres, lower ones the most at the farthest; each sum is split equally between the
-    /// gears (see the module documentation).
+    /// centres, lower ones the most at the farthest; each sum is split between the gears by
+    /// `share` (the part of it each gear takes, adding up to 1: [`EQUAL_SHARE`], or all on the
+    /// gear to cut when the other is on hand; see the module documentation).
     pub fn allowances_for_backlash(
         &self,
         teeth: [u32; 2],
         shift_sum: f64,
         centre_distance_mm: f64,
         spec: BacklashSpec,
+        share: [f64; 2],
     ) -> Result<BacklashPlan, AllowanceDefect> {
         let [j_min, j_max] = spec.normal_backlash_mm;
         let f_a = spec.centre_tolerance_mm;
@@ -267,7 +274,8 @@ impl ToothSystem {
                 .map_or(f64::NAN, |(_, j_n)| j_n - j_min);
             return Err(AllowanceDefect::RangeTooNarrow { width_mm: j_max - j_min, needed_mm: spread });
         }
-        let allowances = ThicknessAllowances { upper_mm: [upper / 2.0; 2], lower_mm: [lower / 2.0; 2] };
+        let allowances =
+            ThicknessAllowances { upper_mm: share.map(|k| upper * k), lower_mm: share.map(|k| lower * k) };
         let backlash = self
             .backlash_of(teeth, shift_sum, centre_distance_mm, f_a, &allowances)
             .ok_or_else(unreachable)?;
@@ -373,7 +381,7 @@ mod tests {
         let teeth = [20, 50];
         let a = s.standard_centre_distance_mm(teeth);
         let spec = BacklashSpec { normal_backlash_mm: [0.08, 0.25], centre_tolerance_mm: 0.03 };
-        let plan = s.allowances_for_backlash(teeth, 0.0, a, spec).unwrap();
+        let plan = s.allowances_for_backlash(teeth, 0.0, a, spec, EQUAL_SHARE).unwrap();
         let al = plan.allowances;
         // Split equally, both negative (thinner teeth), upper above lower.
         assert_eq!(al.upper_mm[0], al.upper_mm[1]);
@@ -404,7 +412,7 @@ mod tests {
         let a = s.standard_centre_distance_mm(teeth);
         // ±0.1 mm opens the backlash by about 4·0.1·sin 20° = 0.137 mm.
         let spec = BacklashSpec { normal_backlash_mm: [0.05, 0.15], centre_tolerance_mm: 0.1 };
-        match s.allowances_for_backlash(teeth, 0.0, a, spec) {
+        match s.allowances_for_backlash(teeth, 0.0, a, spec, EQUAL_SHARE) {
             Err(AllowanceDefect::RangeTooNarrow { width_mm, needed_mm }) => {
                 assert!((width_mm - 0.1).abs() < 1e-12);
                 assert!((needed_mm - 0.4 * 20f64.to_radians().sin()).abs() < 2e-3, "{needed_mm}");
@@ -420,7 +428,7 @@ mod tests {
         for spec in bad {
             assert!(
                 matches!(
-                    s.allowances_for_backlash(teeth, 0.0, a, spec),
+                    s.allowances_for_backlash(teeth, 0.0, a, spec, EQUAL_SHARE),
                     Err(AllowanceDefect::InvalidInput { .. })
                 ),
                 "{spec:?}"

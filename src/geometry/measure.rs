@@ -35,7 +35,7 @@
 
 use std::f64::consts::PI;
 
-use super::allowance::{AllowanceDefect, BacklashChoice, BacklashPlan, BacklashSpec};
+use super::allowance::{BacklashChoice, BacklashPlan, BacklashSpec, EQUAL_SHARE};
 use super::system::ToothSystem;
 use super::working::MeshGeometry;
 
@@ -367,6 +367,9 @@ pub struct PairData {
     /// Why no allowances fit, in words, when none do.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub backlash_problem: Option<String>,
+    /// Which gears are on hand (not cut again: nominal figures, no allowances of their own).
+    #[serde(default)]
+    pub on_hand: [bool; 2],
     /// The data block of each gear, in the order of the mesh.
     pub gears: [GearData; 2],
 }
@@ -376,13 +379,16 @@ pub struct PairData {
 /// balls `ball_mm` (`None` for the suggested size). Tip and root diameters are the mesh's (tips
 /// as shortened), the shifts the mesh's, so gears on hand with their own shift are measured as
 /// they are. When no allowances fit, the gears get nominal figures only and the reason is
-/// kept in [`PairData::backlash_problem`].
+/// kept in [`PairData::backlash_problem`]. A gear `on_hand` is not cut again: it gets nominal
+/// figures (its teeth taken as cut to them, to be checked by its span or balls) and the gear to
+/// cut takes the whole allowance; when both are on hand no allowances are planned.
 pub fn pair_data(
     system: &ToothSystem,
     mesh: &MeshGeometry,
     choice: BacklashChoice,
     centre_tolerance_mm: f64,
     ball_mm: [Option<f64>; 2],
+    on_hand: [bool; 2],
 ) -> PairData {
     let spec = BacklashSpec {
         normal_backlash_mm: choice.range_mm(
@@ -393,10 +399,33 @@ pub fn pair_data(
         ),
         centre_tolerance_mm,
     };
-    let planned = system.allowances_for_backlash(mesh.teeth, mesh.shift_sum(), mesh.centre_distance_mm, spec);
-    let (backlash, problem) = match planned {
-        Ok(p) => (Some(p), None),
-        Err(e) => (None, Some(e)),
+    let share = match on_hand {
+        [false, false] => Some(EQUAL_SHARE),
+        [true, false] => Some([0.0, 1.0]),
+        [false, true] => Some([1.0, 0.0]),
+        [true, true] => None,
+    };
+    let (backlash, problem) = match share {
+        None => (
+            None,
+            Some(
+                "both gears are on hand, cut as they are: there are no allowances to choose; measure \
+                 the backlash they give"
+                    .to_string(),
+            ),
+        ),
+        Some(share) => {
+            match system.allowances_for_backlash(
+                mesh.teeth,
+                mesh.shift_sum(),
+                mesh.centre_distance_mm,
+                spec,
+                share,
+            ) {
+                Ok(p) => (Some(p), None),
+                Err(e) => (None, Some(e.to_string())),
+            }
+        }
     };
     let gear = |i: usize| {
         let cut = CutGear {
@@ -408,15 +437,11 @@ pub fn pair_data(
         };
         system.gear_data(
             &cut,
-            backlash.map(|p| [p.allowances.upper_mm[i], p.allowances.lower_mm[i]]),
+            backlash.filter(|_| !on_hand[i]).map(|p| [p.allowances.upper_mm[i], p.allowances.lower_mm[i]]),
             ball_mm[i],
         )
     };
-    PairData {
-        backlash,
-        backlash_problem: problem.map(|e: AllowanceDefect| e.to_string()),
-        gears: [gear(0), gear(1)],
-    }
+    PairData { backlash, backlash_problem: problem, on_hand, gears: [gear(0), gear(1)] }
 }
 
 #[cfg(test)]
@@ -719,5 +744,33 @@ mod tests {
         let between = ring.over_balls.unwrap();
         assert!(between.on_involute);
         assert!(between.dimension.nominal_mm < ring.tip_diameter_mm);
+    }
+
+    /// A gear on hand is not cut again: the gear to cut takes the whole allowance sum of an
+    /// equal split (so the pair's backlash is the same), the gear on hand gets nominal figures.
+    #[test]
+    fn the_gear_to_cut_takes_the_whole_allowance_when_the_other_is_on_hand() {
+        let s = system(2.0, 20.0);
+        let mesh = crate::geometry::mesh_geometry(
+            &s,
+            [20, 50],
+            crate::geometry::Mounting::CutGears {
+                shift: [0.0, 0.0],
+                tip_shortening: 0.0,
+                centre_distance_mm: 70.0,
+            },
+        )
+        .unwrap();
+        let both = pair_data(&s, &mesh, BacklashChoice::Recommended, 0.02, [None, None], [false, false]);
+        let kept = pair_data(&s, &mesh, BacklashChoice::Recommended, 0.02, [None, None], [true, false]);
+        let (pb, pk) = (both.backlash.unwrap(), kept.backlash.unwrap());
+        assert_eq!(pk.allowances.upper_mm[0], 0.0);
+        assert!((pk.allowances.upper_mm[1] - 2.0 * pb.allowances.upper_mm[1]).abs() < 1e-12);
+        assert!((pk.allowances.lower_mm[1] - 2.0 * pb.allowances.lower_mm[1]).abs() < 1e-12);
+        assert_eq!(pk.backlash.normal_mm, pb.backlash.normal_mm);
+        assert_eq!(kept.gears[0].thickness_allowance_mm, None);
+        assert!(kept.gears[1].thickness_allowance_mm.is_some());
+        let neither = pair_data(&s, &mesh, BacklashChoice::Recommended, 0.02, [None, None], [true, true]);
+        assert!(neither.backlash.is_none() && neither.backlash_problem.is_some());
     }
 }

@@ -108,11 +108,29 @@ pub fn add_table(d: &mut Document, heading: &str, labels: &[String], gears: &[&G
 
 /// One line on the backlash of a pair: what was asked, the allowances and what they give.
 pub fn backlash_lines(pair: &PairData) -> Vec<String> {
-    match (&pair.backlash, &pair.backlash_problem) {
+    let mut lines = match (&pair.backlash, &pair.backlash_problem) {
         (Some(p), _) => describe(p),
+        (None, Some(why)) if pair.on_hand == [true, true] => vec![format!("{why}.")],
         (None, Some(why)) => vec![format!("no tooth-thickness allowances fit: {why}.")],
         (None, None) => Vec::new(),
+    };
+    let [a, b] = pair.on_hand;
+    if a != b {
+        let kept = &pair.gears[usize::from(b)];
+        lines.push(format!(
+            "the {}-tooth gear is on hand: its teeth are taken as cut to the nominal figures (check its \
+             span or balls), and the gear to cut takes the whole allowance",
+            kept.teeth
+        ));
     }
+    lines
+}
+
+/// The column labels of a pair's two gears, `(on hand)` after a gear that is.
+pub fn pair_labels(pair: &PairData, names: [String; 2]) -> [String; 2] {
+    let [a, b] = names;
+    let mark = |name: String, on_hand: bool| if on_hand { format!("{name} (on hand)") } else { name };
+    [mark(a, pair.on_hand[0]), mark(b, pair.on_hand[1])]
 }
 
 fn describe(p: &BacklashPlan) -> Vec<String> {

@@ -61,8 +61,7 @@ fn shop_section(p: &ReducerPlan, shop: &TrainShop, d: &mut Document) {
         for line in gear_data::backlash_lines(pair) {
             d.item(1, false, format!("stage {}: {line}", k + 1));
         }
-        labels.push(format!("{} pinion", k + 1));
-        labels.push(format!("{} gear", k + 1));
+        labels.extend(gear_data::pair_labels(pair, [format!("{} pinion", k + 1), format!("{} gear", k + 1)]));
         gears.extend(pair.gears.iter());
     }
     if !gears.is_empty() {

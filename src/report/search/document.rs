@@ -222,8 +222,10 @@ fn gear_tables(doc: &Doc, d: &mut Document) {
         let mut gears = Vec::new();
         for (k, s) in t.stages.iter().enumerate() {
             if let Some(pair) = &s.gear_data {
-                labels.push(format!("{} driver", k + 1));
-                labels.push(format!("{} driven", k + 1));
+                labels.extend(gear_data::pair_labels(
+                    pair,
+                    [format!("{} driver", k + 1), format!("{} driven", k + 1)],
+                ));
                 gears.extend(pair.gears.iter());
             }
         }

@@ -171,7 +171,9 @@ fn add_gear_data(p: &crate::model::problem::Problem, t: &crate::model::train::Tr
         else {
             continue;
         };
-        v.gear_data = Some(pair_data(&system, &mesh, BacklashChoice::Recommended, 0.0, [None, None]));
+        let on_hand = [s.driver.made.is_some(), s.driven.made.is_some()];
+        v.gear_data =
+            Some(pair_data(&system, &mesh, BacklashChoice::Recommended, 0.0, [None, None], on_hand));
     }
 }
 

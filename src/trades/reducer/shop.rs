@@ -126,7 +126,15 @@ impl ShopRules {
             .map(|s| {
                 let mesh = s.mesh?;
                 let system = ToothSystem::new(s.module_mm, s.pressure_angle_deg, self.rack).ok()?;
-                Some(pair_data(&system, &mesh, self.backlash, self.housing_tolerance_mm, [None, None]))
+                let on_hand = [s.driver.made.is_some(), s.driven.made.is_some()];
+                Some(pair_data(
+                    &system,
+                    &mesh,
+                    self.backlash,
+                    self.housing_tolerance_mm,
+                    [None, None],
+                    on_hand,
+                ))
             })
             .collect();
         TrainShop {
