@@ -198,7 +198,7 @@ pub struct AstroSpec {
     pub pool: Pool,
     /// Stage counts.
     pub stages: IntRange,
-    /// Trains to list.
+    /// Gear sets to list, each by its first arrangement.
     pub limit: usize,
 }
 

@@ -71,7 +71,7 @@ pub struct GoingSpec {
     pub rate_tolerance_s_per_day: Ratio,
     /// The meshes to check, if any.
     pub meshes: Option<MeshCheck>,
-    /// Trains to list.
+    /// Gear sets to list, each by its first arrangement.
     pub limit: usize,
 }
 

@@ -94,7 +94,7 @@ pub struct MotionSpec {
     /// Least contact ratio of a mesh (transverse, for involute teeth; leaves in action, for
     /// cycloidal teeth).
     pub min_contact_ratio: f64,
-    /// Trains to list.
+    /// Gear sets to list, each by its first arrangement.
     pub limit: usize,
 }
 
