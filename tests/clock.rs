@@ -10,6 +10,15 @@ fn trains(v: &Value) -> &Vec<Value> {
     v["trains"].as_array().expect("a trains array")
 }
 
+/// Every listed train and, when asked for with `--arrangements`, every other arrangement of
+/// its gear set.
+fn every_arrangement(v: &Value) -> Vec<&Value> {
+    trains(v)
+        .iter()
+        .flat_map(|t| std::iter::once(t).chain(t["other_arrangements"].as_array().into_iter().flatten()))
+        .collect()
+}
+
 /// Stages of a JSON train as (driver, driven) pairs.
 fn pairs(t: &Value) -> Vec<(u64, u64)> {
     t["stages"]
@@ -553,7 +562,8 @@ fn the_eight_day_going_train_runs_with_cycloidal_teeth() {
 #[test]
 fn going_trains_with_seven_leaf_pinions_are_offered() {
     // Seven- and eight-leaf pinions in a going train (common practice, from memory): with
-    // cycloidal teeth a train such as 56/7 · 60/8 is found exact and every mesh runs.
+    // cycloidal teeth a train such as 56/7 · 60/8 is found exact and every mesh runs (an
+    // arrangement of the set listed as 60/7 · 56/8).
     let (code, v) = json(&[
         "clock",
         "going",
@@ -566,11 +576,12 @@ fn going_trains_with_seven_leaf_pinions_are_offered() {
         "--check-meshes",
         "--limit",
         "50",
+        "--arrangements",
         "-q",
     ]);
     assert_eq!(code, 0);
     assert!(trains(&v).iter().any(|t| pairs(t).iter().any(|&(_, z)| z == 7)));
-    assert!(trains(&v).iter().any(|t| {
+    assert!(every_arrangement(&v).iter().any(|t| {
         let mut p = pairs(t);
         p.sort();
         p == [(56, 7), (60, 8)]
@@ -582,12 +593,28 @@ fn the_classic_motion_work_takes_a_module_per_pair() {
     // A motion work with an 8-leaf minute pinion (common practice, from memory): cannon pinion
     // 12 into a minute wheel of 36, minute pinion 8 into an hour wheel of 32, 3 × 4 = 12.
     // Cycloidal teeth take no shift, so the pairs are made coaxial by their modules:
-    // m·(12 + 36) = m'·(8 + 32), m' = 1.2·m.
-    let (code, v) =
-        json(&["clock", "motion", "--pinions", "8..12", "--wheels", "20..48", "--limit", "100", "-q"]);
+    // m·(12 + 36) = m'·(8 + 32), m' = 1.2·m. Its set is listed as 12/32 · 8/36, this one among
+    // its arrangements.
+    let (code, v) = json(&[
+        "clock",
+        "motion",
+        "--pinions",
+        "8..12",
+        "--wheels",
+        "20..48",
+        "--limit",
+        "100",
+        "--arrangements",
+        "-q",
+    ]);
     assert_eq!(code, 0);
     assert_eq!(v["tooth_form"], "cycloidal");
-    let t = trains(&v).iter().find(|t| pairs(t) == [(12, 36), (8, 32)]).expect("12/36 · 8/32 is listed");
+    let listed = trains(&v).iter().find(|t| pairs(t) == [(12, 32), (8, 36)]).expect("the set 12, 8 / 36, 32");
+    assert_eq!(listed["arrangements"], 2);
+    let t = every_arrangement(&v)
+        .into_iter()
+        .find(|t| pairs(t) == [(12, 36), (8, 32)])
+        .expect("12/36 · 8/32 is listed");
     let s = t["stages"].as_array().unwrap();
     assert_eq!(s[0]["module_mm"], 0.5);
     assert!((s[1]["module_mm"].as_f64().unwrap() - 0.6).abs() < 1e-12);
@@ -843,4 +870,225 @@ fn an_astronomical_dial_lists_each_gear_set_once() {
     // Every listed set accounts for at least one train, and no more trains than were counted.
     assert!(total >= trains.len() as u64 && total <= v["count"].as_u64().unwrap());
     assert!(v["gear_set_count"].as_u64().unwrap() <= v["count"].as_u64().unwrap());
+}
+
+mod gear_sets {
+    //! The clock's listed gear sets and their arrangement counts against a brute-force grouping
+    //! of every train the exhaustive engine finds for the same problem listing trains: grouped
+    //! by the multiset of wheels and the multiset of pinions, each group is one set, its size the
+    //! set's arrangements; the listed train is the group's first in stage order (stages in order
+    //! of ratio, then teeth).
+
+    use std::collections::BTreeMap;
+
+    use gearsieve::model::pool::Pool;
+    use gearsieve::model::train::Train;
+    use gearsieve::numbers::range::IntRange;
+    use gearsieve::numbers::rational::Ratio;
+    use gearsieve::trades::clock::beat::{Beat, Escapement, STANDARD_GRAVITY};
+    use gearsieve::trades::clock::going::GoingSpec;
+    use gearsieve::trades::clock::motion::MotionSpec;
+    use gearsieve::trades::clock::part::{MeshCheck, PartPlan};
+    use gearsieve::trades::clock::strike::StrikeSpec;
+    use gearsieve::{search, EngineChoice, Problem, RunOptions, ToothForm};
+
+    type Teeth = Vec<(u32, u32)>;
+    type SetKey = (Vec<u32>, Vec<u32>);
+
+    const EVERY: usize = 100_000;
+
+    fn teeth(t: &Train) -> Teeth {
+        t.stages.iter().map(|s| (s.driver.teeth, s.driven.teeth)).collect()
+    }
+
+    fn key(t: &Teeth) -> SetKey {
+        let mut a: Vec<u32> = t.iter().map(|p| p.0).collect();
+        let mut b: Vec<u32> = t.iter().map(|p| p.1).collect();
+        a.sort_unstable();
+        b.sort_unstable();
+        (a, b)
+    }
+
+    /// A stage's place in stage order: its ratio (driven/driver, compared exactly), then its
+    /// teeth.
+    fn stage_order(a: &(u32, u32), b: &(u32, u32)) -> std::cmp::Ordering {
+        (a.1 as u64 * b.0 as u64).cmp(&(b.1 as u64 * a.0 as u64)).then(a.cmp(b))
+    }
+
+    fn sorted(mut t: Teeth) -> Teeth {
+        t.sort_by(stage_order);
+        t
+    }
+
+    /// Every train of `p` by the exhaustive engine listing trains, grouped by gear set.
+    fn brute(p: &Problem) -> BTreeMap<SetKey, Vec<Teeth>> {
+        let mut all = p.clone();
+        all.gear_sets = false;
+        all.limit = EVERY;
+        let o = search(&all, EngineChoice::Exhaustive, &RunOptions::default());
+        assert_eq!(o.count as usize, o.trains.len(), "the brute force lists every train");
+        let mut groups: BTreeMap<SetKey, Vec<Teeth>> = BTreeMap::new();
+        for t in &o.trains {
+            let tt = sorted(teeth(t));
+            groups.entry(key(&tt)).or_default().push(tt);
+        }
+        groups
+    }
+
+    /// Hold one listing (count, sets, each listed set's trains with the listed one first) to the
+    /// brute force of `p`; returns how many sets had more than one arrangement.
+    fn check(
+        what: &str,
+        p: &Problem,
+        count: u64,
+        sets: Option<u64>,
+        listed: Vec<(u64, Vec<Teeth>)>,
+    ) -> usize {
+        let groups = brute(p);
+        let trains: usize = groups.values().map(Vec::len).sum();
+        assert_eq!(count as usize, trains, "{what}: trains");
+        assert_eq!(sets, Some(groups.len() as u64), "{what}: gear sets");
+        assert_eq!(listed.len(), groups.len(), "{what}: every set listed once");
+        let mut seen = BTreeMap::new();
+        for (n, arranged) in &listed {
+            let first = arranged[0].clone();
+            assert_eq!(first, sorted(first.clone()), "{what}: stages of {first:?} in stage order");
+            let group = groups.get(&key(&first)).unwrap_or_else(|| panic!("{what}: {first:?} is no set"));
+            assert!(seen.insert(key(&first), ()).is_none(), "{what}: {first:?} listed twice");
+            assert_eq!(*n as usize, group.len(), "{what}: arrangements of {first:?}");
+            let mut mine: Vec<Teeth> = arranged.iter().cloned().map(sorted).collect();
+            let mut theirs = group.clone();
+            mine.sort();
+            theirs.sort();
+            assert_eq!(mine, theirs, "{what}: the arrangements of {first:?}");
+            let least = group.iter().min_by(|a, b| {
+                a.iter()
+                    .zip(b.iter())
+                    .map(|(x, y)| stage_order(x, y))
+                    .find(|o| o.is_ne())
+                    .unwrap_or(std::cmp::Ordering::Equal)
+            });
+            assert_eq!(Some(&first), least, "{what}: the listed arrangement is the first in stage order");
+        }
+        groups.values().filter(|g| g.len() > 1).count()
+    }
+
+    fn options() -> RunOptions<'static> {
+        RunOptions { list_arrangements: true, ..RunOptions::default() }
+    }
+
+    fn pool(lo: u32, hi: u32) -> Pool {
+        Pool::to_cut(IntRange { lo, hi }, 0.5, 20.0, None).unwrap()
+    }
+
+    fn part(what: &str, g: &PartPlan) -> usize {
+        let listed = (0..g.trains.len())
+            .map(|k| {
+                let mut all = vec![teeth(&g.trains[k])];
+                all.extend(g.others_of(k).iter().map(|a| teeth(&a.train)));
+                (g.arrangements_of(k), all)
+            })
+            .collect();
+        check(what, &g.problem, g.count, g.gear_set_count, listed)
+    }
+
+    #[test]
+    fn going_train_sets_equal_a_grouping_of_every_train() {
+        let mut several = 0;
+        for (stages, meshes, tol) in
+            [((2, 3), None, 0), ((2, 2), Some(ToothForm::Cycloidal), 2), ((2, 2), None, 5)]
+        {
+            let spec = GoingSpec {
+                beat: Beat::from_period(Ratio::integer(2), STANDARD_GRAVITY).unwrap(),
+                escapement: Escapement { teeth: 30, beats_per_tooth: 2 },
+                from_turns_per_hour: Ratio::new(1, 12).unwrap(),
+                great_stages: IntRange { lo: 1, hi: 2 },
+                run_hours: None,
+                line_barrel: None,
+                pool: pool(6, 64),
+                wheels: IntRange { lo: 30, hi: 64 },
+                pinions: IntRange { lo: 6, hi: 9 },
+                stages: IntRange { lo: stages.0, hi: stages.1 },
+                rate_tolerance_s_per_day: Ratio::integer(tol),
+                meshes: meshes.map(|tooth_form| MeshCheck { tooth_form, min_contact_ratio: 1.0 }),
+                limit: EVERY,
+            };
+            let plan = spec.plan(&options()).unwrap();
+            let listed = plan
+                .trains
+                .iter()
+                .map(|g| {
+                    let mut all = vec![teeth(&g.train)];
+                    all.extend(g.others.iter().map(|o| teeth(&o.train)));
+                    assert!(g.others.iter().all(|o| o.arrangements == g.arrangements && o.others.is_empty()));
+                    (g.arrangements, all)
+                })
+                .collect();
+            let what = format!("going {stages:?} {meshes:?} {tol} s/day");
+            several += check(&what, &plan.problem, plan.count, plan.gear_set_count, listed);
+            let great = plan.great.as_ref().expect("a great wheel part");
+            several += part(&format!("{what}, great wheel"), great);
+        }
+        assert!(several > 10, "the cases hold sets of several arrangements ({several})");
+    }
+
+    #[test]
+    fn motion_work_sets_count_only_arrangements_that_stay_coaxial() {
+        let mut several = 0;
+        for (coaxial, form) in
+            [(true, ToothForm::Cycloidal), (true, ToothForm::Involute), (false, ToothForm::Cycloidal)]
+        {
+            let spec = MotionSpec {
+                ratio: Ratio::integer(12),
+                ratio_text: "12".into(),
+                tolerance: Ratio::integer(0),
+                pool: pool(6, 48),
+                pinions: IntRange { lo: 6, hi: 14 },
+                wheels: IntRange { lo: 20, hi: 48 },
+                stages: IntRange { lo: if coaxial { 2 } else { 1 }, hi: 2 },
+                coaxial,
+                tooth_form: form,
+                allow_undercut: true,
+                min_contact_ratio: 1.0,
+                limit: EVERY,
+            };
+            let plan = spec.plan(&options()).unwrap();
+            let listed = (0..plan.trains.len())
+                .map(|k| {
+                    let mut all = vec![teeth(&plan.trains[k])];
+                    all.extend(plan.others_of(k).iter().map(|a| teeth(&a.train)));
+                    (plan.arrangements_of(k), all)
+                })
+                .collect();
+            several += check(
+                &format!("motion coaxial {coaxial} {form:?}"),
+                &plan.problem,
+                plan.count,
+                plan.gear_set_count,
+                listed,
+            );
+        }
+        assert!(several > 10, "the cases hold sets of several arrangements ({several})");
+    }
+
+    #[test]
+    fn every_part_of_a_striking_train_lists_its_own_sets() {
+        let spec = StrikeSpec {
+            pins: 8,
+            half_hours: false,
+            run_hours: Ratio::integer(192),
+            barrel_turns: Ratio::integer(16),
+            warning_turns: 8,
+            fly_turns: 8,
+            pool: pool(6, 80),
+            wheels: IntRange { lo: 30, hi: 80 },
+            pinions: IntRange { lo: 6, hi: 12 },
+            great_stages: IntRange { lo: 1, hi: 2 },
+            meshes: Some(MeshCheck { tooth_form: ToothForm::Cycloidal, min_contact_ratio: 1.0 }),
+            limit: EVERY,
+        };
+        let plan = spec.plan(&options()).unwrap();
+        let several: usize = plan.parts.iter().map(|g| part(&format!("strike {:?}", g.part.arbors), g)).sum();
+        assert!(several >= 2, "the great wheel's part holds sets of several arrangements ({several})");
+    }
 }

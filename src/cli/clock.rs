@@ -66,9 +66,14 @@ pub struct ClockGears {
     /// Stages (meshes): N or A..B.
     #[arg(long, value_name = "N|A..B", allow_hyphen_values = true)]
     pub stages: Option<String>,
-    /// Trains to list; all are counted.
+    /// Gear sets to list, each by its first arrangement in stage order; every train and gear
+    /// set is counted.
     #[arg(long, value_name = "K", default_value_t = 10)]
     pub limit: usize,
+    /// List every arrangement of each gear set under it (the ways of pairing its wheels with
+    /// its pinions into stages that pass every check).
+    #[arg(long)]
+    pub arrangements: bool,
     /// Run even when the search is forecast to take more than an hour.
     #[arg(long)]
     pub long: bool,
@@ -467,9 +472,21 @@ struct ClockJob<S> {
     spec: S,
     /// `--long`: run whatever the forecast.
     long: bool,
+    /// `--arrangements`: list every arrangement of each listed gear set.
+    arrangements: bool,
 }
 
 impl<S> ClockJob<S> {
+    /// `options` with every arrangement of each listed set asked for when `--arrangements` was.
+    fn options<'o>(&self, options: &RunOptions<'o>) -> RunOptions<'o> {
+        RunOptions {
+            progress: options.progress,
+            cancel: options.cancel,
+            shard: options.shard,
+            list_arrangements: self.arrangements,
+        }
+    }
+
     /// The forecast of one search of `problem` with the trades' engine.
     fn outlook(&self, problem: Problem, narrow: Vec<String>) -> Outlook<'_> {
         Outlook {
@@ -525,7 +542,7 @@ impl Job for ClockJob<GoingSpec> {
     type Found = GoingPlan;
 
     fn search(&self, options: &RunOptions) -> anyhow::Result<GoingPlan> {
-        Ok(self.spec.plan(options)?)
+        Ok(self.spec.plan(&self.options(options))?)
     }
 
     fn report<'a>(&'a self, found: &'a GoingPlan) -> Box<dyn Report + 'a> {
@@ -600,7 +617,7 @@ impl Job for ClockJob<MotionSpec> {
     type Found = MotionPlan;
 
     fn search(&self, options: &RunOptions) -> anyhow::Result<MotionPlan> {
-        Ok(self.spec.plan(options)?)
+        Ok(self.spec.plan(&self.options(options))?)
     }
 
     fn report<'a>(&'a self, found: &'a MotionPlan) -> Box<dyn Report + 'a> {
@@ -653,7 +670,7 @@ impl Job for ClockJob<StrikeSpec> {
     type Found = StrikePlan;
 
     fn search(&self, options: &RunOptions) -> anyhow::Result<StrikePlan> {
-        Ok(self.spec.plan(options)?)
+        Ok(self.spec.plan(&self.options(options))?)
     }
 
     fn report<'a>(&'a self, found: &'a StrikePlan) -> Box<dyn Report + 'a> {
@@ -714,7 +731,7 @@ impl Job for ClockJob<AstroSpec> {
     type Found = AstroPlan;
 
     fn search(&self, options: &RunOptions) -> anyhow::Result<AstroPlan> {
-        Ok(self.spec.plan(options)?)
+        Ok(self.spec.plan(&self.options(options))?)
     }
 
     fn report<'a>(&'a self, found: &'a AstroPlan) -> Box<dyn Report + 'a> {
@@ -762,19 +779,35 @@ fn narrow_clock(stages: IntRange) -> Vec<String> {
 pub fn run(args: ClockArgs) -> anyhow::Result<i32> {
     match &args.what {
         ClockCommand::Going(a) => {
-            let job = ClockJob { spec: GoingSpec::try_from(a.as_ref())?, long: a.gears.long };
+            let job = ClockJob {
+                spec: GoingSpec::try_from(a.as_ref())?,
+                long: a.gears.long,
+                arrangements: a.gears.arrangements,
+            };
             run::run(&job, &Print::from(&a.gears.print))
         }
         ClockCommand::Motion(a) => {
-            let job = ClockJob { spec: MotionSpec::try_from(a.as_ref())?, long: a.gears.long };
+            let job = ClockJob {
+                spec: MotionSpec::try_from(a.as_ref())?,
+                long: a.gears.long,
+                arrangements: a.gears.arrangements,
+            };
             run::run(&job, &Print::from(&a.gears.print))
         }
         ClockCommand::Strike(a) => {
-            let job = ClockJob { spec: StrikeSpec::try_from(a.as_ref())?, long: a.gears.long };
+            let job = ClockJob {
+                spec: StrikeSpec::try_from(a.as_ref())?,
+                long: a.gears.long,
+                arrangements: a.gears.arrangements,
+            };
             run::run(&job, &Print::from(&a.gears.print))
         }
         ClockCommand::Astro(a) => {
-            let job = ClockJob { spec: AstroSpec::try_from(a.as_ref())?, long: a.gears.long };
+            let job = ClockJob {
+                spec: AstroSpec::try_from(a.as_ref())?,
+                long: a.gears.long,
+                arrangements: a.gears.arrangements,
+            };
             run::run(&job, &Print::from(&a.gears.print))
         }
     }

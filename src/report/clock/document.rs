@@ -5,7 +5,7 @@ use crate::geometry::CycloidalMesh;
 use crate::model::pool::fmt_num;
 use crate::model::problem::ToothForm;
 use crate::model::train::Train;
-use crate::report::words::{count_line, describe_error, describe_tolerance, CONVENTION};
+use crate::report::words::{count_line, describe_error, describe_tolerance, set_count_line, CONVENTION};
 use crate::report::{Document, Table};
 use crate::trades::clock::astro::AstroPlan;
 use crate::trades::clock::beat::BeatSource;
@@ -22,6 +22,45 @@ pub fn arbor_names(stages: usize, driving: &str) -> Vec<String> {
     v.extend(ORDINALS.iter().take(stages.saturating_sub(1)).map(|s| s.to_string()));
     v.push("escape".into());
     v
+}
+
+/// How each listed gear set is shown, in the count line of every clock listing.
+pub const EACH_SET: &str = "its first arrangement in stage order";
+
+/// What a listed gear set is, under every clock listing.
+pub const SETS_NOTE: [&str; 2] = [
+    "A gear set is its wheels and pinions; its arrangements are the ways of pairing them into stages that pass every check.",
+    "Each set is listed by its first arrangement in stage order (stages in order of ratio); the others follow as 1.2, 1.3… when asked for.",
+];
+
+/// The count line of a clock listing: trains and the gear sets they are made of, when counted.
+pub fn listing_line(count: u64, sets: Option<u64>, listed: usize, complete: bool, order: &str) -> String {
+    match sets.filter(|_| count > 0) {
+        Some(sets) => set_count_line(count, sets, listed, complete, order, EACH_SET),
+        None => count_line(count, listed, complete, "train", order),
+    }
+}
+
+/// The rows of a listing of gear sets: each set's first arrangement numbered `n`, its others
+/// `n.2`, `n.3`…, each made by `cells` from the set's index and one arrangement.
+pub fn set_rows<T>(
+    sets: usize,
+    first: impl Fn(usize) -> T,
+    others: impl Fn(usize) -> Vec<T>,
+    cells: impl Fn(usize, T) -> Vec<String>,
+) -> Vec<Vec<String>> {
+    let mut rows = Vec::new();
+    for k in 0..sets {
+        let mut row = vec![(k + 1).to_string()];
+        row.extend(cells(k, first(k)));
+        rows.push(row);
+        for (j, other) in others(k).into_iter().enumerate() {
+            let mut row = vec![format!("{}.{}", k + 1, j + 2)];
+            row.extend(cells(k, other));
+            rows.push(row);
+        }
+    }
+    rows
 }
 
 /// A run time for people: `8 d`, `30 h`, `32 d 12 h`.
@@ -59,42 +98,51 @@ pub fn whole_train(names: &[String], first: &Train, then: &Train) -> String {
 /// `from_turns_per_hour` gives the first arbor's speed for a going train; without it (a striking
 /// train, which runs only while it strikes) each arbor's turns per turn of the first are shown.
 pub fn part_table(d: &mut Document, g: &PartPlan, from_turns_per_hour: Option<f64>) {
-    d.line(count_line(g.count, g.trains.len(), g.complete, "train", "by meshes, then size"));
+    d.line(listing_line(g.count, g.gear_set_count, g.trains.len(), g.complete, "by meshes, then size"));
     if g.trains.is_empty() {
         return;
     }
-    let numbered: Vec<(usize, &Train)> = g.trains.iter().enumerate().collect();
-    let rows = Table::numbered(&numbered, |&(k, t)| {
-        let stages: Vec<String> =
-            t.stages.iter().map(|st| format!("{} → {}", st.driver.teeth, st.driven.teeth)).collect();
-        let speeds = crate::trades::clock::arbor_speeds(t, from_turns_per_hour.unwrap_or(1.0));
-        let arbors: Vec<String> = g
-            .part
-            .arbor_names(t.stages.len())
-            .iter()
-            .zip(&speeds)
-            .map(|(a, v)| match from_turns_per_hour {
-                Some(_) => format!("{a} {}", speed(*v)),
-                None => format!("{a} {}", fmt_num(*v)),
-            })
-            .collect();
-        let mut row = vec![stages.join(", "), t.ratio.to_string(), arbors.join("; ")];
-        if !g.pairs(k).is_empty() {
-            row.push(g.pairs(k).iter().map(describe_cycloidal).collect::<Vec<_>>().join("; "));
-        }
-        row
-    });
+    let rows = set_rows(
+        g.trains.len(),
+        |k| (&g.trains[k], g.pairs(k)),
+        |k| g.others_of(k).iter().map(|a| (&a.train, &a.cycloidal[..])).collect(),
+        |k, (t, pairs)| {
+            let stages: Vec<String> =
+                t.stages.iter().map(|st| format!("{} → {}", st.driver.teeth, st.driven.teeth)).collect();
+            let speeds = crate::trades::clock::arbor_speeds(t, from_turns_per_hour.unwrap_or(1.0));
+            let arbors: Vec<String> = g
+                .part
+                .arbor_names(t.stages.len())
+                .iter()
+                .zip(&speeds)
+                .map(|(a, v)| match from_turns_per_hour {
+                    Some(_) => format!("{a} {}", speed(*v)),
+                    None => format!("{a} {}", fmt_num(*v)),
+                })
+                .collect();
+            let mut row = vec![
+                stages.join(", "),
+                t.ratio.to_string(),
+                g.arrangements_of(k).to_string(),
+                arbors.join("; "),
+            ];
+            if !pairs.is_empty() {
+                row.push(pairs.iter().map(describe_cycloidal).collect::<Vec<_>>().join("; "));
+            }
+            row
+        },
+    );
     let arbors = if from_turns_per_hour.is_some() {
         "arbors (turns per hour, time per turn)"
     } else {
         "arbors (turns per turn of the first)"
     };
     let gears = if g.part.drivers.lo < g.part.driven.lo { "pinion → wheel" } else { "wheel → pinion" };
-    let mut head = vec!["#", gears, "ratio i", arbors];
+    let mut head = vec!["#", gears, "ratio i", "arrangements", arbors];
     if !g.cycloidal.is_empty() {
         head.push("meshes (module, centre distance, contact ratio, action before the line of centres)");
     }
-    d.table(Table::new(&head, &[0]).with_rows(rows));
+    d.table(Table::new(&head, &[0, 3]).with_rows(rows));
 }
 
 /// Turns per hour, and the time per turn, for people: `60/h (1 min)`.
@@ -160,6 +208,9 @@ fn footer(d: &mut Document, extra: &[&str]) {
     d.blank();
     for line in extra {
         d.note(*line);
+    }
+    for line in SETS_NOTE {
+        d.note(line);
     }
     d.note(format!("Ratios: {CONVENTION}."));
 }
@@ -247,43 +298,60 @@ pub fn going(p: &GoingPlan) -> Document {
     } else {
         d.blank();
     }
-    d.line(count_line(p.count, p.trains.len(), p.complete, "train", "by rate error, then meshes, then size"));
+    d.line(listing_line(
+        p.count,
+        p.gear_set_count,
+        p.trains.len(),
+        p.complete,
+        "by rate error, then meshes, then size",
+    ));
     if !p.trains.is_empty() {
-        let rows = Table::numbered(&p.trains, |g| {
-            let names = arbor_names(g.train.stages.len(), "centre");
-
-            let stages: Vec<String> = g
-                .train
-                .stages
-                .iter()
-                .map(|st| format!("{} → {}", st.driver.teeth, st.driven.teeth))
-                .collect();
-            let arbors: Vec<String> = names
-                .iter()
-                .zip(&g.arbor_turns_per_hour)
-                .enumerate()
-                .map(|(k, (a, v))| match g.seconds_arbor {
-                    Some(at) if at == k => format!("{a} {}", speed(*v).replace(')', ", seconds hand)")),
-                    _ => format!("{a} {}", speed(*v)),
-                })
-                .collect();
-            let mut row = vec![
-                stages.join(", "),
-                g.train.ratio.to_string(),
-                describe_rate(g.rate_s_per_day, g.train.error.is_exact() && exact),
-                arbors.join("; "),
-            ];
-            if !g.cycloidal.is_empty() {
-                row.push(g.cycloidal.iter().map(describe_cycloidal).collect::<Vec<_>>().join("; "));
-            }
-            row
-        });
-        let mut head =
-            vec!["#", "wheel → pinion", "ratio i", "rate", "arbors (turns per hour, time per turn)"];
+        let rows = set_rows(
+            p.trains.len(),
+            |k| &p.trains[k],
+            |k| p.trains[k].others.iter().collect(),
+            |_, g| {
+                let names = arbor_names(g.train.stages.len(), "centre");
+                let stages: Vec<String> = g
+                    .train
+                    .stages
+                    .iter()
+                    .map(|st| format!("{} → {}", st.driver.teeth, st.driven.teeth))
+                    .collect();
+                let arbors: Vec<String> = names
+                    .iter()
+                    .zip(&g.arbor_turns_per_hour)
+                    .enumerate()
+                    .map(|(k, (a, v))| match g.seconds_arbor {
+                        Some(at) if at == k => format!("{a} {}", speed(*v).replace(')', ", seconds hand)")),
+                        _ => format!("{a} {}", speed(*v)),
+                    })
+                    .collect();
+                let mut row = vec![
+                    stages.join(", "),
+                    g.train.ratio.to_string(),
+                    describe_rate(g.rate_s_per_day, g.train.error.is_exact() && exact),
+                    g.arrangements.to_string(),
+                    arbors.join("; "),
+                ];
+                if !g.cycloidal.is_empty() {
+                    row.push(g.cycloidal.iter().map(describe_cycloidal).collect::<Vec<_>>().join("; "));
+                }
+                row
+            },
+        );
+        let mut head = vec![
+            "#",
+            "wheel → pinion",
+            "ratio i",
+            "rate",
+            "arrangements",
+            "arbors (turns per hour, time per turn)",
+        ];
         if p.trains.iter().any(|g| !g.cycloidal.is_empty()) {
             head.push("meshes (module, centre distance, contact ratio, action before the line of centres)");
         }
-        d.table(Table::new(&head, &[0]).with_rows(rows));
+        d.table(Table::new(&head, &[0, 4]).with_rows(rows));
     }
     on_hand(&mut d, p.trains.iter().map(|g| &g.train));
     footer(
@@ -368,16 +436,26 @@ pub fn motion(p: &MotionPlan) -> Document {
         ));
     }
     d.blank();
-    d.line(count_line(p.count, p.trains.len(), p.complete, "train", "by error, then meshes, then size"));
+    d.line(listing_line(
+        p.count,
+        p.gear_set_count,
+        p.trains.len(),
+        p.complete,
+        "by error, then meshes, then size",
+    ));
     if !p.trains.is_empty() {
-        let numbered: Vec<(usize, &Train)> = p.trains.iter().enumerate().collect();
-        let rows = Table::numbered(&numbered, |&(k, t)| {
-            let pairs = p.cycloidal.get(k).map_or(&[][..], |v| &v[..]);
-            let mut r = mesh_cells(t, p.is_hour_motion_work(t), pairs);
-            r.push(t.ratio.to_string());
-            r.push(describe_error(&t.error));
-            r
-        });
+        let rows = set_rows(
+            p.trains.len(),
+            |k| (&p.trains[k], p.cycloidal.get(k).map_or(&[][..], |v| &v[..])),
+            |k| p.others_of(k).iter().map(|a| (&a.train, &a.cycloidal[..])).collect(),
+            |k, (t, pairs)| {
+                let mut r = mesh_cells(t, p.is_hour_motion_work(t), pairs);
+                r.push(t.ratio.to_string());
+                r.push(describe_error(&t.error));
+                r.push(p.arrangements_of(k).to_string());
+                r
+            },
+        );
         d.table(
             Table::new(
                 &[
@@ -390,8 +468,9 @@ pub fn motion(p: &MotionPlan) -> Document {
                     },
                     "ratio i",
                     "error",
+                    "arrangements",
                 ],
-                &[0],
+                &[0, 5],
             )
             .with_rows(rows),
         );
@@ -475,32 +554,33 @@ pub fn astro(p: &AstroPlan) -> Document {
         describe_tolerance(s.tolerance.to_f64())
     ));
     d.blank();
-    let order = "by error, then meshes, then size";
-    match p.gear_set_count.filter(|_| p.count > 0) {
-        Some(sets) => d.line(crate::report::words::set_count_line(
-            p.count,
-            sets,
-            p.trains.len(),
-            p.complete,
-            order,
-            "its first arrangement (the arrangements of one set give the same dial)",
-        )),
-        None => d.line(count_line(p.count, p.trains.len(), p.complete, "train", order)),
-    }
+    d.line(listing_line(
+        p.count,
+        p.gear_set_count,
+        p.trains.len(),
+        p.complete,
+        "by error, then meshes, then size",
+    ));
     if !p.trains.is_empty() {
-        let rows = Table::numbered(&p.trains, |a| {
-            let st: Vec<String> =
-                a.train.stages.iter().map(|x| format!("{} → {}", x.driver.teeth, x.driven.teeth)).collect();
-            vec![
-                st.join(", "),
-                a.train.ratio.to_string(),
-                format!("{:.9} d", a.period_days),
-                describe_error(&a.train.error),
-                describe_drift(a.drift_days_per_year, a.significant_digits),
-                describe_days(a.days_to_one_day, a.significant_digits),
-                a.arrangements.to_string(),
-            ]
-        });
+        let rows = set_rows(
+            p.trains.len(),
+            |k| &p.trains[k].train,
+            |k| p.trains[k].others.iter().collect(),
+            |k, t| {
+                let a = &p.trains[k];
+                let st: Vec<String> =
+                    t.stages.iter().map(|x| format!("{} → {}", x.driver.teeth, x.driven.teeth)).collect();
+                vec![
+                    st.join(", "),
+                    t.ratio.to_string(),
+                    format!("{:.9} d", a.period_days),
+                    describe_error(&t.error),
+                    describe_drift(a.drift_days_per_year, a.significant_digits),
+                    describe_days(a.days_to_one_day, a.significant_digits),
+                    a.arrangements.to_string(),
+                ]
+            },
+        );
         d.table(
             Table::new(
                 &[

@@ -7,8 +7,12 @@
 //!          "cycloidal": [{…one pair's proportions…}, …] (cycloidal teeth only)}
 //! astro:  {"period_days": f64, "drift_days_per_year": f64, "days_to_one_day": f64|null}
 //! ```
-//! A document is `{"schema_version", "clock_train": "going"|"motion"|"astro", …what was asked…, "count", "complete",
-//! "convention", "train_runs", "trains": […]}`; an astro document adds `"convergents"`.
+//! A document is `{"schema_version", "clock_train": "going"|"motion"|"astro", …what was asked…, "count",
+//! "gear_set_count", "complete", "convention", "train_runs", "trains": […]}`; an astro document adds
+//! `"convergents"`. Each listed train is a gear set's first arrangement in stage order, with
+//! `"arrangements"` (how many its set has) and, when every arrangement was asked for,
+//! `"other_arrangements"` (the others, each in the same form). A striking train's parts, and a
+//! going train's `great_wheel`, carry their own `count`, `gear_set_count` and trains so.
 
 use std::io::Write;
 
@@ -17,11 +21,12 @@ use serde::Serialize;
 use super::document::arbor_names;
 use super::train_json;
 use crate::geometry::CycloidalMesh;
+use crate::model::train::Train;
 use crate::report::fields::{TargetJson, TrainJson};
 use crate::report::words::CONVENTION;
 use crate::report::{write_json, RenderError, SCHEMA_VERSION};
 use crate::trades::clock::astro::AstroPlan;
-use crate::trades::clock::going::GoingPlan;
+use crate::trades::clock::going::{GoingPlan, GoingTrain};
 use crate::trades::clock::motion::{stage_names, MotionPlan};
 use crate::trades::clock::part::PartPlan;
 use crate::trades::clock::strike::StrikePlan;
@@ -81,6 +86,8 @@ struct GoingTrainJson {
     seconds_arbor: Option<String>,
     #[serde(skip_serializing_if = "Option::is_none")]
     cycloidal: Option<Vec<CycloidalJson>>,
+    #[serde(skip_serializing_if = "Vec::is_empty")]
+    other_arrangements: Vec<GoingTrainJson>,
 }
 
 /// One train of a part (great wheel to centre arbor, or of a striking train).
@@ -91,6 +98,8 @@ struct PartTrainJson {
     arbors: Vec<ArborJson>,
     #[serde(skip_serializing_if = "Option::is_none")]
     cycloidal: Option<Vec<CycloidalJson>>,
+    #[serde(skip_serializing_if = "Vec::is_empty")]
+    other_arrangements: Vec<PartTrainJson>,
 }
 
 /// A part of a train searched on its own.
@@ -100,31 +109,41 @@ struct PartJson {
     to_arbor: String,
     ratio_needed: String,
     count: u64,
+    gear_set_count: Option<u64>,
     complete: bool,
     trains: Vec<PartTrainJson>,
 }
 
 fn part_json(g: &PartPlan, from_turns_per_hour: f64) -> PartJson {
+    let one =
+        |t: &Train, pairs: &[CycloidalMesh], arrangements: u64, others: Vec<PartTrainJson>| PartTrainJson {
+            train: TrainJson { arrangements: Some(arrangements), ..train_json(t, pairs) },
+            arbors: g
+                .part
+                .arbor_names(t.stages.len())
+                .into_iter()
+                .zip(crate::trades::clock::arbor_speeds(t, from_turns_per_hour))
+                .map(|(arbor, turns_per_hour)| ArborJson { arbor, turns_per_hour })
+                .collect(),
+            cycloidal: cycloidal_json(pairs),
+            other_arrangements: others,
+        };
     PartJson {
         from_arbor: g.part.arbors[0].clone(),
         to_arbor: g.part.arbors[g.part.arbors.len() - 1].clone(),
         ratio_needed: g.part.ratio.to_string(),
         count: g.count,
+        gear_set_count: g.gear_set_count,
         complete: g.complete,
         trains: g
             .trains
             .iter()
             .enumerate()
-            .map(|(k, t)| PartTrainJson {
-                train: train_json(t, g.pairs(k)),
-                arbors: g
-                    .part
-                    .arbor_names(t.stages.len())
-                    .into_iter()
-                    .zip(crate::trades::clock::arbor_speeds(t, from_turns_per_hour))
-                    .map(|(arbor, turns_per_hour)| ArborJson { arbor, turns_per_hour })
-                    .collect(),
-                cycloidal: cycloidal_json(g.pairs(k)),
+            .map(|(k, t)| {
+                let n = g.arrangements_of(k);
+                let others =
+                    g.others_of(k).iter().map(|a| one(&a.train, &a.cycloidal, n, Vec::new())).collect();
+                one(t, g.pairs(k), n, others)
             })
             .collect(),
     }
@@ -156,10 +175,28 @@ struct GoingDoc {
     run: Option<RunJson>,
     great_wheel: Option<PartJson>,
     count: u64,
+    gear_set_count: Option<u64>,
     complete: bool,
     convention: &'static str,
     train_runs: &'static str,
     trains: Vec<GoingTrainJson>,
+}
+
+/// One going train with its set's arrangements, its others under it.
+fn going_train_json(g: &GoingTrain) -> GoingTrainJson {
+    let names = arbor_names(g.train.stages.len(), "centre");
+    GoingTrainJson {
+        train: TrainJson { arrangements: Some(g.arrangements), ..train_json(&g.train, &g.cycloidal) },
+        cycloidal: cycloidal_json(&g.cycloidal),
+        arbors: names
+            .iter()
+            .zip(&g.arbor_turns_per_hour)
+            .map(|(arbor, v)| ArborJson { arbor: arbor.clone(), turns_per_hour: *v })
+            .collect(),
+        seconds_arbor: g.seconds_arbor.map(|k| names[k].clone()),
+        rate_s_per_day: g.rate_s_per_day,
+        other_arrangements: g.others.iter().map(going_train_json).collect(),
+    }
 }
 
 /// Write a going-train search as one JSON document.
@@ -187,28 +224,13 @@ pub fn write_going(p: &GoingPlan, w: &mut dyn Write) -> Result<(), RenderError> 
         }),
         great_wheel: p.great.as_ref().map(|g| part_json(g, s.from_turns_per_hour.to_f64())),
         count: p.count,
+        gear_set_count: p.gear_set_count,
         complete: p.complete,
         convention: CONVENTION,
         train_runs:
             "input = centre arbor (once an hour), output = escape arbor; wheels drive pinions, so i < 1; \
                      great_wheel: input = great wheel, output = centre arbor",
-        trains: p
-            .trains
-            .iter()
-            .map(|g| GoingTrainJson {
-                train: train_json(&g.train, &g.cycloidal),
-                cycloidal: cycloidal_json(&g.cycloidal),
-                arbors: arbor_names(g.train.stages.len(), "centre")
-                    .into_iter()
-                    .zip(&g.arbor_turns_per_hour)
-                    .map(|(arbor, v)| ArborJson { arbor, turns_per_hour: *v })
-                    .collect(),
-                seconds_arbor: g
-                    .seconds_arbor
-                    .map(|k| arbor_names(g.train.stages.len(), "centre")[k].clone()),
-                rate_s_per_day: g.rate_s_per_day,
-            })
-            .collect(),
+        trains: p.trains.iter().map(going_train_json).collect(),
     };
     write_json(&doc, w)
 }
@@ -226,6 +248,8 @@ struct MotionTrainJson {
     stage_names: Vec<NamesJson>,
     #[serde(skip_serializing_if = "Option::is_none")]
     cycloidal: Option<Vec<CycloidalJson>>,
+    #[serde(skip_serializing_if = "Vec::is_empty")]
+    other_arrangements: Vec<MotionTrainJson>,
 }
 
 #[derive(Serialize)]
@@ -238,10 +262,32 @@ struct MotionDoc {
     allow_undercut: bool,
     min_contact_ratio: f64,
     count: u64,
+    gear_set_count: Option<u64>,
     complete: bool,
     convention: &'static str,
     train_runs: &'static str,
     trains: Vec<MotionTrainJson>,
+}
+
+/// One motion-work train with its set's arrangements (`n`) and its others under it.
+fn motion_train_json(
+    p: &MotionPlan,
+    t: &Train,
+    pairs: &[CycloidalMesh],
+    n: u64,
+    others: Vec<MotionTrainJson>,
+) -> MotionTrainJson {
+    MotionTrainJson {
+        train: TrainJson { arrangements: Some(n), ..train_json(t, pairs) },
+        cycloidal: cycloidal_json(pairs),
+        stage_names: (0..t.stages.len())
+            .map(|k| {
+                let (driver, driven) = stage_names(k, p.is_hour_motion_work(t));
+                NamesJson { driver, driven }
+            })
+            .collect(),
+        other_arrangements: others,
+    }
 }
 
 /// Write a motion-work search as one JSON document.
@@ -261,23 +307,20 @@ pub fn write_motion(p: &MotionPlan, w: &mut dyn Write) -> Result<(), RenderError
         allow_undercut: s.allow_undercut,
         min_contact_ratio: s.min_contact_ratio,
         count: p.count,
+        gear_set_count: p.gear_set_count,
         complete: p.complete,
         convention: CONVENTION,
         train_runs:
             "input = minute (cannon) arbor or the arbor given, output = hand; pinions drive wheels, so i > 1",
-        trains: p
-            .trains
-            .iter()
-            .enumerate()
-            .map(|(k, t)| MotionTrainJson {
-                train: train_json(t, p.cycloidal.get(k).map_or(&[][..], |v| &v[..])),
-                cycloidal: cycloidal_json(p.cycloidal.get(k).map_or(&[][..], |v| &v[..])),
-                stage_names: (0..t.stages.len())
-                    .map(|k| {
-                        let (driver, driven) = stage_names(k, p.is_hour_motion_work(t));
-                        NamesJson { driver, driven }
-                    })
-                    .collect(),
+        trains: (0..p.trains.len())
+            .map(|k| {
+                let n = p.arrangements_of(k);
+                let pairs = p.cycloidal.get(k).map_or(&[][..], |v| &v[..]);
+                let others = p
+                    .others_of(k)
+                    .iter()
+                    .map(|a| motion_train_json(p, &a.train, &a.cycloidal, n, Vec::new()));
+                motion_train_json(p, &p.trains[k], pairs, n, others.collect())
             })
             .collect(),
     };
@@ -347,7 +390,11 @@ pub fn write_astro(p: &AstroPlan, w: &mut dyn Write) -> Result<(), RenderError> 
             .trains
             .iter()
             .map(|a| AstroTrainJson {
-                train: TrainJson { arrangements: Some(a.arrangements), ..TrainJson::from_train(&a.train) },
+                train: TrainJson {
+                    arrangements: Some(a.arrangements),
+                    other_arrangements: a.others.iter().map(TrainJson::from_train).collect(),
+                    ..TrainJson::from_train(&a.train)
+                },
                 period_days: a.period_days,
                 drift_days_per_year: a.drift_days_per_year,
                 days_to_one_day: a.days_to_one_day,

@@ -198,7 +198,7 @@ pub struct AstroSpec {
     pub pool: Pool,
     /// Stage counts.
     pub stages: IntRange,
-    /// Trains to list.
+    /// Gear sets to list, each by its first arrangement.
     pub limit: usize,
 }
 
@@ -210,6 +210,9 @@ pub struct AstroTrain {
     /// How many arrangements of its wheels and pinions into stages give the dial (this one
     /// among them).
     pub arrangements: u64,
+    /// The set's other arrangements, in stage order, when every arrangement was asked for;
+    /// else empty. They give the same dial, drift and days to a day out.
+    pub others: Vec<Train>,
     /// The dial's period with this train, days.
     pub period_days: f64,
     /// Drift, days per year: positive when the dial runs ahead.
@@ -313,11 +316,9 @@ impl AstroSpec {
     pub fn problem(&self) -> Result<Problem> {
         let r = self.ratio();
         let target = Target::exact(self.period.name.clone(), r, self.tolerance);
-        let mut p =
-            clock_problem(target, self.pool.clone(), self.stages, StageLimits::default(), self.limit)?;
-        // One entry per gear set: the same wheels paired differently make the same dial.
-        p.gear_sets = true;
-        Ok(p)
+        // One entry per gear set (as every clock train): the same wheels paired differently make
+        // the same dial.
+        clock_problem(target, self.pool.clone(), self.stages, StageLimits::default(), self.limit)
     }
 
     /// Search, and list the convergents.
@@ -325,13 +326,13 @@ impl AstroSpec {
         let problem = self.problem()?;
         let found = search(&problem, crate::trades::ENGINE, options);
         let per_turn = 1.0 / self.from.turns_per_day() as f64;
-        let arrangements: Vec<u64> = found.arrangements.iter().map(|a| a.count).collect();
+        let mut sets = found.arrangements.into_iter();
         let (gear_set_count, count, complete) = (found.gear_set_count, found.count, found.complete);
         let trains = found
             .trains
             .into_iter()
-            .enumerate()
-            .map(|(n, train)| {
+            .map(|train| {
+                let set = sets.next();
                 let e = train.error.to_f64();
                 let drift = drift_days_per_day(e);
                 let digits = self.period.supported_digits(e);
@@ -341,7 +342,8 @@ impl AstroSpec {
                     days_to_one_day: (drift != 0.0).then(|| round_significant(1.0 / drift.abs(), digits)),
                     significant_digits: digits,
                     train,
-                    arrangements: arrangements.get(n).copied().unwrap_or(1),
+                    arrangements: set.as_ref().map_or(1, |a| a.count),
+                    others: set.map_or(Vec::new(), |a| a.others),
                 }
             })
             .collect();

@@ -71,7 +71,7 @@ pub struct GoingSpec {
     pub rate_tolerance_s_per_day: Ratio,
     /// The meshes to check, if any.
     pub meshes: Option<MeshCheck>,
-    /// Trains to list.
+    /// Gear sets to list, each by its first arrangement.
     pub limit: usize,
 }
 
@@ -113,6 +113,12 @@ pub struct GoingTrain {
     pub seconds_arbor: Option<usize>,
     /// The cycloidal pair of every stage, when the meshes were checked in that form.
     pub cycloidal: Vec<CycloidalMesh>,
+    /// How many arrangements of its wheels and pinions into stages make a going train (this one
+    /// among them).
+    pub arrangements: u64,
+    /// The set's other arrangements, in stage order, when every arrangement was asked for
+    /// (each with no others of its own); else empty.
+    pub others: Vec<GoingTrain>,
 }
 
 /// The result of a going-train search.
@@ -131,9 +137,11 @@ pub struct GoingPlan {
     pub run: Option<RunFigures>,
     /// Trains meeting every constraint.
     pub count: u64,
+    /// The gear sets those trains are made of; `None` when they were not counted.
+    pub gear_set_count: Option<u64>,
     /// False when interrupted.
     pub complete: bool,
-    /// The best trains.
+    /// The best gear sets, each by its first arrangement in stage order.
     pub trains: Vec<GoingTrain>,
 }
 
@@ -234,21 +242,34 @@ impl GoingSpec {
             None => None,
         };
         let cycloidal = self.meshes.is_some_and(|m| m.tooth_form == ToothForm::Cycloidal);
+        let exact = self.needed_ratio().1;
+        let going = |train: Train, arrangements: u64, others: Vec<GoingTrain>| -> Result<GoingTrain> {
+            let mut speeds = arbor_speeds(&train, 1.0);
+            // The escape arbor's speed is the pendulum's; the centre arbor's follows.
+            let scale = escape / speeds[speeds.len() - 1];
+            speeds.iter_mut().for_each(|s| *s *= scale);
+            Ok(GoingTrain {
+                seconds_arbor: seconds_arbor(&train, exact),
+                rate_s_per_day: train.error.to_f64() * SECONDS_PER_DAY,
+                arbor_turns_per_hour: speeds,
+                cycloidal: if cycloidal { super::cycloidal_pairs(&train)? } else { Vec::new() },
+                train,
+                arrangements,
+                others,
+            })
+        };
         let trains = found
             .trains
             .into_iter()
-            .map(|train| {
-                let mut speeds = arbor_speeds(&train, 1.0);
-                // The escape arbor's speed is the pendulum's; the centre arbor's follows.
-                let scale = escape / speeds[speeds.len() - 1];
-                speeds.iter_mut().for_each(|s| *s *= scale);
-                Ok(GoingTrain {
-                    seconds_arbor: seconds_arbor(&train, self.needed_ratio().1),
-                    rate_s_per_day: train.error.to_f64() * SECONDS_PER_DAY,
-                    arbor_turns_per_hour: speeds,
-                    cycloidal: if cycloidal { super::cycloidal_pairs(&train)? } else { Vec::new() },
-                    train,
-                })
+            .enumerate()
+            .map(|(n, train)| {
+                let set = found.arrangements.get(n);
+                let others = set
+                    .map_or(&[][..], |a| &a.others[..])
+                    .iter()
+                    .map(|t| going(t.clone(), set.map_or(1, |a| a.count), Vec::new()))
+                    .collect::<Result<Vec<_>>>()?;
+                going(train, set.map_or(1, |a| a.count), others)
             })
             .collect::<Result<Vec<_>>>()?;
         Ok(GoingPlan {
@@ -258,6 +279,7 @@ impl GoingSpec {
             great,
             run: self.run_figures(),
             count: found.count,
+            gear_set_count: found.gear_set_count,
             complete: found.complete,
             trains,
         })

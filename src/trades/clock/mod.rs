@@ -13,6 +13,14 @@
 //! - [`astro`]: named periods, convergents, drift per year;
 //! - the output formats are in [`crate::report::clock`].
 //!
+//! Every command lists gear sets, not trains: the same wheels and pinions paired differently
+//! are one set, listed once by its first arrangement in stage order (stages from the first
+//! arbor in order of their ratio, so the steps of speed fall from the first arbor on), with how
+//! many arrangements it has. Only arrangements that pass the part's own checks count: each
+//! part of a train (great wheel to centre, centre to escape, each part of a striking train) is
+//! its own search between arbors of fixed speeds, so no arrangement moves a gear from one part
+//! to another, and a coaxial motion work counts only the pairings that are coaxial too.
+//!
 //! Direction of the ratio (ISO 1122-1, as everywhere in gearsieve): `i` = input turns per
 //! output turn. A going train is searched from the driving arbor (input) to the escape arbor
 //! (output) with the wheels driving the pinions, so it speeds up and `i < 1`; motion work and
@@ -37,6 +45,16 @@ use crate::numbers::range::IntRange;
 use crate::numbers::rational::Ratio;
 use crate::numbers::target::Target;
 
+/// One arrangement of a listed gear set's gears into stages: its train and, when the meshes
+/// were worked out in cycloidal form, the pair of every stage.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Arrangement {
+    /// The train, stages from the first arbor.
+    pub train: crate::model::train::Train,
+    /// The cycloidal pair of every stage; empty when not checked in that form.
+    pub cycloidal: Vec<crate::geometry::CycloidalMesh>,
+}
+
 /// Seconds in a mean solar day.
 pub const SECONDS_PER_DAY: f64 = 86_400.0;
 
@@ -47,7 +65,8 @@ pub fn approx_ratio(x: f64) -> Ratio {
     fit((x * scale).round().max(1.0) as u128, 1u128 << 50).0
 }
 
-/// A search problem for a clock train with the usual ranking (error, meshes, size).
+/// A search problem for a clock train with the usual ranking (error, meshes, size), listing
+/// gear sets.
 pub fn clock_problem(
     target: Target,
     pool: Pool,
@@ -61,6 +80,9 @@ pub fn clock_problem(
     let mut p = Problem::new(target, pool, stages, limits, None, DEFAULT_RANK.to_vec(), limit)?;
     // Clock wheels and pinions are cut cycloidal: gears on hand are judged in that form.
     p.tooth_form = crate::model::problem::ToothForm::Cycloidal;
+    // One entry per gear set: every arrangement of a set has the same ratio, so the ranking
+    // (error, meshes, size) ties and the first in stage order is the one listed.
+    p.gear_sets = true;
     Ok(p)
 }
 

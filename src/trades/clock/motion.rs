@@ -10,7 +10,7 @@
 //! distances agree. With involute teeth the stages are shifted to one centre distance instead,
 //! and small pinions, often undercut, are accepted unless asked otherwise (common practice).
 
-use super::clock_problem;
+use super::{clock_problem, Arrangement};
 use crate::engine::{search, RunOptions};
 use crate::error::{Error, Quantity, Result};
 use crate::geometry::{CycloidalMesh, MeshLimits};
@@ -94,7 +94,7 @@ pub struct MotionSpec {
     /// Least contact ratio of a mesh (transverse, for involute teeth; leaves in action, for
     /// cycloidal teeth).
     pub min_contact_ratio: f64,
-    /// Trains to list.
+    /// Gear sets to list, each by its first arrangement.
     pub limit: usize,
 }
 
@@ -107,11 +107,20 @@ pub struct MotionPlan {
     pub problem: Problem,
     /// Trains meeting every constraint.
     pub count: u64,
+    /// The gear sets those trains are made of; `None` when they were not counted.
+    pub gear_set_count: Option<u64>,
     /// False when interrupted.
     pub complete: bool,
-    /// The best trains, stages from the input arbor to the hand; with meshes worked out (an
-    /// involute stage's in its `mesh`), each stage at the module it is cut to.
+    /// The best gear sets, each by its first arrangement in stage order, stages from the input
+    /// arbor to the hand; with meshes worked out (an involute stage's in its `mesh`), each
+    /// stage at the module it is cut to.
     pub trains: Vec<Train>,
+    /// Each listed set's number of arrangements (its listed train among them); a coaxial
+    /// motion work counts only the coaxial ones.
+    pub arrangements: Vec<u64>,
+    /// Each listed set's other arrangements, in stage order, when every arrangement was asked
+    /// for; else empty lists.
+    pub others: Vec<Vec<Arrangement>>,
     /// Each train's cycloidal pairs, stage by stage (empty for involute teeth).
     pub cycloidal: Vec<Vec<CycloidalMesh>>,
 }
@@ -150,23 +159,35 @@ impl MotionSpec {
     pub fn plan(&self, options: &RunOptions) -> Result<MotionPlan> {
         let problem = self.problem()?;
         let found = search(&problem, crate::trades::ENGINE, options);
-        let mut trains = found.trains;
-        let mut cycloidal = Vec::new();
-        if self.tooth_form == ToothForm::Cycloidal {
-            for t in &mut trains {
+        let cycloidal = self.tooth_form == ToothForm::Cycloidal;
+        let arranged = |mut train: Train| -> Result<Arrangement> {
+            let mut pairs = Vec::new();
+            if cycloidal {
                 if self.coaxial && !self.pool.from_stock {
-                    module_per_pair(t);
+                    module_per_pair(&mut train);
                 }
-                cycloidal.push(super::cycloidal_pairs(t)?);
+                pairs = super::cycloidal_pairs(&train)?;
             }
-        }
+            Ok(Arrangement { train, cycloidal: pairs })
+        };
+        let listed = found.trains.into_iter().map(arranged).collect::<Result<Vec<_>>>()?;
+        let others = found
+            .arrangements
+            .iter()
+            .map(|a| a.others.iter().cloned().map(arranged).collect::<Result<Vec<_>>>())
+            .collect::<Result<Vec<_>>>()?;
+        let (trains, pairs): (Vec<Train>, Vec<Vec<CycloidalMesh>>) =
+            listed.into_iter().map(|a| (a.train, a.cycloidal)).unzip();
         Ok(MotionPlan {
             spec: self.clone(),
             problem,
             count: found.count,
+            gear_set_count: found.gear_set_count,
             complete: found.complete,
             trains,
-            cycloidal,
+            arrangements: found.arrangements.iter().map(|a| a.count).collect(),
+            others,
+            cycloidal: if cycloidal { pairs } else { Vec::new() },
         })
     }
 }
@@ -183,6 +204,16 @@ pub fn module_per_pair(train: &mut Train) {
 }
 
 impl MotionPlan {
+    /// The number of arrangements of listed set `k`.
+    pub fn arrangements_of(&self, k: usize) -> u64 {
+        self.arrangements.get(k).copied().unwrap_or(1)
+    }
+
+    /// The other arrangements of listed set `k`, empty when they were not asked for.
+    pub fn others_of(&self, k: usize) -> &[Arrangement] {
+        self.others.get(k).map_or(&[][..], |v| &v[..])
+    }
+
     /// True for the usual motion work: a coaxial two-stage 12:1 train.
     pub fn is_hour_motion_work(&self, train: &Train) -> bool {
         self.spec.coaxial && self.spec.ratio == Ratio::integer(12) && train.stages.len() == 2

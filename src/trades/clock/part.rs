@@ -5,7 +5,7 @@
 //! there by construction. Owns the part's search and its result; the arbor names are the
 //! caller's.
 
-use super::clock_problem;
+use super::{clock_problem, Arrangement};
 use crate::engine::{search, RunOptions};
 use crate::error::Result;
 use crate::geometry::MeshLimits;
@@ -92,16 +92,28 @@ impl Part {
         let problem = self.problem(pool, meshes, limit)?;
         let found = search(&problem, crate::trades::ENGINE, options);
         let cycloidal = meshes.is_some_and(|m| m.tooth_form == ToothForm::Cycloidal);
+        let arranged = |train: &Train| -> Result<Arrangement> {
+            let pairs = if cycloidal { super::cycloidal_pairs(train)? } else { Vec::new() };
+            Ok(Arrangement { train: train.clone(), cycloidal: pairs })
+        };
         let pairs = if cycloidal {
             found.trains.iter().map(super::cycloidal_pairs).collect::<Result<Vec<_>>>()?
         } else {
             Vec::new()
         };
+        let others = found
+            .arrangements
+            .iter()
+            .map(|a| a.others.iter().map(arranged).collect::<Result<Vec<_>>>())
+            .collect::<Result<Vec<_>>>()?;
         Ok(PartPlan {
             part: self.clone(),
             problem,
             count: found.count,
+            gear_set_count: found.gear_set_count,
             complete: found.complete,
+            arrangements: found.arrangements.iter().map(|a| a.count).collect(),
+            others,
             trains: found.trains,
             cycloidal: pairs,
         })
@@ -117,10 +129,18 @@ pub struct PartPlan {
     pub problem: Problem,
     /// Trains meeting every constraint.
     pub count: u64,
+    /// The gear sets those trains are made of; `None` when they were not counted.
+    pub gear_set_count: Option<u64>,
     /// False when interrupted.
     pub complete: bool,
-    /// The best trains, stages from the driving arbor.
+    /// The best gear sets, each by its first arrangement in stage order, stages from the
+    /// driving arbor.
     pub trains: Vec<Train>,
+    /// Each listed set's number of arrangements (its listed train among them).
+    pub arrangements: Vec<u64>,
+    /// Each listed set's other arrangements, in stage order, when every arrangement was asked
+    /// for ([`crate::engine::RunOptions::list_arrangements`]); else empty lists.
+    pub others: Vec<Vec<Arrangement>>,
     /// Each train's cycloidal pairs, when checked in that form.
     pub cycloidal: Vec<Vec<crate::geometry::CycloidalMesh>>,
 }
@@ -129,6 +149,16 @@ impl PartPlan {
     /// The cycloidal pairs of train `k`, empty when not checked in that form.
     pub fn pairs(&self, k: usize) -> &[crate::geometry::CycloidalMesh] {
         self.cycloidal.get(k).map_or(&[][..], |v| &v[..])
+    }
+
+    /// The number of arrangements of listed set `k`.
+    pub fn arrangements_of(&self, k: usize) -> u64 {
+        self.arrangements.get(k).copied().unwrap_or(1)
+    }
+
+    /// The other arrangements of listed set `k`, empty when they were not asked for.
+    pub fn others_of(&self, k: usize) -> &[Arrangement] {
+        self.others.get(k).map_or(&[][..], |v| &v[..])
     }
 }
 

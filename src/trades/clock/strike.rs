@@ -61,7 +61,7 @@ pub struct StrikeSpec {
     pub great_stages: IntRange,
     /// The meshes to check, if any.
     pub meshes: Option<MeshCheck>,
-    /// Trains to list per part.
+    /// Gear sets to list per part, each by its first arrangement.
     pub limit: usize,
 }
 
