@@ -6,6 +6,7 @@
 
 use super::json::Doc;
 use crate::model::pool::fmt_num;
+use crate::model::problem::TO_BUY_KEY;
 use crate::model::purchase::describe_to_buy;
 use crate::report::fields::{on_hand, TrainJson};
 use crate::report::words::{
@@ -39,7 +40,9 @@ pub fn document(doc: &Doc) -> Document {
         group_thousands(doc.stage_options as u64)
     ));
     d.blank();
-    let keys = doc.ranked_by.join(", then ");
+    let keys: Vec<&str> =
+        doc.ranked_by.iter().map(|k| if k == TO_BUY_KEY { "gears to buy" } else { k.as_str() }).collect();
+    let keys = keys.join(", then ");
     let status = if doc.complete { "" } else { "INCOMPLETE (interrupted): at least " };
     let listed = doc.trains.len();
     let by_set = doc.trains.iter().any(|t| t.arrangements.is_some());
