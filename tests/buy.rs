@@ -292,6 +292,23 @@ fn bad_input_names_the_flag() {
         assert_eq!(r.code, 2, "{args:?}: {}", r.stderr);
         assert!(r.stderr.contains(want), "{args:?}: {}", r.stderr);
     }
+    let r = gearsieve(&[
+        "thread",
+        "--lathe",
+        "catalogs/lathe/quillsby.lathe",
+        "--pitch",
+        "1.5mm",
+        "--buy",
+        "1",
+        "--buy-teeth",
+        "20..140",
+    ]);
+    assert_eq!(r.code, 2);
+    assert!(
+        r.stderr.contains("--buy-teeth: the guard closes over gears of at most 127 teeth"),
+        "{}",
+        r.stderr
+    );
     let r = gearsieve(&["search", "--ratio", "2", "--stock", NO127, "--buy-teeth", "20..30"]);
     assert_eq!(r.code, 2);
     assert!(r.stderr.contains("--buy <N>"), "{}", r.stderr);
@@ -340,4 +357,36 @@ fn merge_keeps_what_to_buy() {
     assert_eq!(a, b, "merged parts print what one run prints");
     assert!(b["trains"][0]["to_buy"].is_array());
     std::fs::remove_dir_all(&dir).ok();
+}
+
+#[test]
+fn every_arrangement_of_a_gear_set_needs_the_same_gears_bought() {
+    let (code, v) = json(&[
+        "search",
+        "--ratio",
+        "127/60",
+        "--tol",
+        "0",
+        "--stock",
+        NO127,
+        "--stages",
+        "2",
+        "--buy",
+        "1",
+        "--buy-teeth",
+        "100..127",
+        "--limit",
+        "15",
+        "--arrangements",
+    ]);
+    assert_eq!(code, 0);
+    let mut others = 0;
+    for t in v["trains"].as_array().unwrap() {
+        for o in t["other_arrangements"].as_array().into_iter().flatten() {
+            assert_eq!(o["to_buy"], t["to_buy"], "{t}");
+            others += 1;
+        }
+    }
+    assert!(others > 0, "some gear set has several arrangements");
+    assert_eq!(v["trains"][0]["to_buy"][0]["teeth"], 127, "exact only with the 127 bought");
 }
