@@ -322,6 +322,12 @@ pub enum Quantity {
     ShaftMargin,
     /// A reducer's smallest ratio of one stage.
     MinStageRatio,
+    /// How many gears not on hand a train may use (gears to buy).
+    BuyCount,
+    /// The tooth counts of gears that may be bought.
+    BuyTeeth,
+    /// The module of gears that may be bought, mm.
+    BuyModule,
 }
 
 impl Quantity {
@@ -401,6 +407,9 @@ impl Quantity {
             Quantity::BallDiameter => "the ball diameter",
             Quantity::ShaftMargin => "the margin between a gear and another shaft",
             Quantity::MinStageRatio => "the smallest stage ratio",
+            Quantity::BuyCount => "the number of gears to buy",
+            Quantity::BuyTeeth => "the teeth of gears to buy",
+            Quantity::BuyModule => "the module of the gears to buy",
         }
     }
 }

@@ -84,6 +84,9 @@ pub fn flag_for(quantity: Quantity) -> &'static str {
         Quantity::BallDiameter => "--balls",
         Quantity::ShaftMargin => "--shaft-margin",
         Quantity::MinStageRatio => "--min-stage-ratio",
+        Quantity::BuyCount => "--buy",
+        Quantity::BuyTeeth => "--buy-teeth",
+        Quantity::BuyModule => "--buy-module",
     }
 }
 
@@ -312,6 +315,9 @@ mod tests {
             Quantity::BallDiameter,
             Quantity::ShaftMargin,
             Quantity::MinStageRatio,
+            Quantity::BuyCount,
+            Quantity::BuyTeeth,
+            Quantity::BuyModule,
         ];
         for q in all {
             assert!(options.iter().any(|o| o == flag_for(q)), "{q}: {} is no option", flag_for(q));

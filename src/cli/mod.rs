@@ -4,6 +4,7 @@
 //! worker threads, formats, writing output safely.
 
 mod args;
+mod buy;
 mod clock;
 mod draw;
 mod flags;

@@ -20,6 +20,7 @@ use gearsieve::report::{RenderError, Report};
 use gearsieve::{EngineChoice, Error, Problem, Quantity, RunOptions, StageLimits};
 
 use super::args::{load_stock, number, FormatArg, PrintArgs, ToothFormArg};
+use super::buy::BuyArgs;
 use super::flags::refuse;
 use super::hints;
 use super::progress::Bar;
@@ -161,6 +162,8 @@ pub struct SearchArgs {
     #[arg(long, value_enum, default_value = "fast")]
     pub engine: EngineArg,
     #[command(flatten)]
+    pub buy: BuyArgs,
+    #[command(flatten)]
     pub print: PrintArgs,
 }
 
@@ -228,8 +231,25 @@ impl TryFrom<SearchArgs> for SearchJob {
             DirectionArg::Opposite => Direction::Opposite,
         });
         let rank = parse_rank(&a.rank)?;
+        let purchase = a.buy.purchase(&pool, None, "--stock FILE")?;
         let mut problem = Problem::new(target, pool, stages, limits, direction, rank, a.limit)?;
         problem.pareto = a.pareto;
+        if let Some(purchase) = purchase {
+            if a.pareto {
+                return Err(refuse(
+                    "--buy",
+                    "ranks trains by the gears they need bought first; it does not go with --pareto",
+                ));
+            }
+            if a.limit == 0 {
+                return Err(refuse(
+                    "--limit",
+                    "0 streams every train without ranking; it does not go with --buy, which lists the \
+                     trains needing fewest gears bought first",
+                ));
+            }
+            problem = problem.with_purchase(purchase)?;
+        }
         // A listing shows gear sets; a stream hands out every train.
         problem.gear_sets = a.limit > 0;
         if a.limit == 0 {

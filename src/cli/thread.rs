@@ -9,7 +9,7 @@ use clap::{ArgGroup, Args};
 use gearsieve::model::catalog::CatalogueDefaults;
 use gearsieve::model::pool::{check_module, Pool, MAX_STAGES, MAX_TEETH, MIN_TEETH};
 use gearsieve::numbers::length::{parse_length, LengthUnit};
-use gearsieve::numbers::range::{parse_int_range, parse_length_range};
+use gearsieve::numbers::range::{parse_int_range, parse_length_range, IntRange};
 use gearsieve::numbers::rational::Ratio;
 use gearsieve::numbers::target::{parse_ratio, parse_tolerance};
 use gearsieve::report::thread::{ChartReport, ThreadReport};
@@ -21,10 +21,13 @@ use gearsieve::trades::thread::lathe_file::{load_lathe, LatheFile};
 use gearsieve::trades::thread::machine::{parse_gearbox, Machine};
 use gearsieve::trades::thread::pitch::{parse_leadscrew, parse_pitch};
 use gearsieve::trades::thread::series::{built_in, load_list, SeriesEntry};
-use gearsieve::trades::thread::{Equipment, Lathe, Rejected, ThreadPlan, ThreadSpec, MAX_TOLERANCE};
+use gearsieve::trades::thread::{
+    Equipment, Lathe, Rejected, ThreadPlan, ThreadSpec, MAX_TOLERANCE, USUAL_CHANGE_GEARS,
+};
 use gearsieve::{Error, Problem, Quantity, RunOptions};
 
 use super::args::{load_stock, number, PrintArgs};
+use super::buy::BuyArgs;
 use super::flags::refuse;
 use super::hints;
 use super::run::{self, either, Job, Outlook, Print, Words};
@@ -109,6 +112,8 @@ pub struct ThreadArgs {
     /// Setups to list; all are counted.
     #[arg(long, value_name = "K", default_value_t = 10)]
     pub limit: usize,
+    #[command(flatten)]
+    pub buy: BuyArgs,
     #[command(flatten)]
     pub lathe: LatheArgs,
 }
@@ -315,7 +320,16 @@ impl Job for ThreadJob {
 
 /// Run `gearsieve thread`.
 pub fn run_thread(args: ThreadArgs) -> anyhow::Result<i32> {
-    let lathe = lathe(&args.lathe, args.limit)?;
+    let mut lathe = lathe(&args.lathe, args.limit)?;
+    // Gears to buy default to the gears on hand's range widened to the usual change gears, as
+    // far as the guard closes over them.
+    let usual = USUAL_CHANGE_GEARS;
+    let widen = IntRange { hi: lathe.equipment.largest_teeth.map_or(usual.hi, |z| z.min(usual.hi)), ..usual };
+    if let Some(p) =
+        args.buy.purchase(&lathe.pool, Some(widen), "--stock FILE or a --lathe file that lists them")?
+    {
+        lathe = lathe.buying(p)?;
+    }
     let starts = args.starts.unwrap_or(1);
     if starts == 0 {
         return Err(refuse("--starts", "a thread has at least one start"));

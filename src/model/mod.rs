@@ -5,5 +5,6 @@ pub mod catalog;
 pub mod gearset;
 pub mod pool;
 pub mod problem;
+pub mod purchase;
 pub mod rank;
 pub mod train;

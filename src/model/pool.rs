@@ -246,9 +246,16 @@ impl Pool {
                 "no gears in stock".into()
             }));
         }
-        // Gears of one tooth count made differently sort by shift, then tip, so the order never
-        // depends on the order of the rows.
-        gears.sort_by(|a, b| {
+        let mut pool = Pool { groups, gears, from_stock: true, rings_left_out };
+        pool.sort_kinds();
+        pool.check_can_mesh(place)?;
+        Ok(pool)
+    }
+
+    /// Sort the kinds by group, then teeth; gears of one tooth count made differently by shift,
+    /// then tip, so the order never depends on the order of the rows.
+    pub fn sort_kinds(&mut self) {
+        self.gears.sort_by(|a, b| {
             let key =
                 |k: &GearKind| k.made.map(|m| (m.shift, m.tip_diameter_mm.unwrap_or(f64::NEG_INFINITY)));
             (a.group, a.teeth).cmp(&(b.group, b.teeth)).then_with(|| match (key(a), key(b)) {
@@ -256,9 +263,6 @@ impl Pool {
                 (x, y) => x.is_some().cmp(&y.is_some()),
             })
         });
-        let pool = Pool { groups, gears, from_stock: true, rings_left_out };
-        pool.check_can_mesh(place)?;
-        Ok(pool)
     }
 
     /// Refuse a pool in which no two gears of different tooth counts share a mesh group; `place`

@@ -8,6 +8,7 @@ use std::sync::Arc;
 use crate::error::{Error, Quantity, Result};
 use crate::geometry::{CycloidalLimits, MeshLimits, RackProfile};
 use crate::model::pool::{Pool, MAX_STAGES};
+use crate::model::purchase::Purchase;
 use crate::model::rank::RankKey;
 use crate::model::train::{Direction, Train};
 use crate::numbers::range::{FloatRange, IntRange, RatioRange};
@@ -172,6 +173,9 @@ pub struct Problem {
     /// ranking), with the number of gear sets counted beside the number of trains. Off by
     /// default (set after [`Problem::new`]).
     pub gear_sets: bool,
+    /// Gears that may be bought beyond those on hand (set with [`Problem::with_purchase`]):
+    /// the pool then holds them too, and every train's gears to buy are counted.
+    pub buy: Option<Purchase>,
 }
 
 impl Problem {
@@ -212,6 +216,7 @@ impl Problem {
             equal_teeth_stages: false,
             tooth_form: ToothForm::Involute,
             gear_sets: false,
+            buy: None,
         };
         if p.stage_counts().is_empty() {
             return Err(Error::value(
@@ -270,6 +275,40 @@ impl Problem {
         Ok(self)
     }
 }
+
+impl Problem {
+    /// Let trains use gears bought as well as those on hand: the pool becomes the purchase's
+    /// ([`Purchase::pool`]), a train is kept only if it needs at most [`Purchase::most`] gears
+    /// bought (besides any train check already set), and trains rank first by how many gears
+    /// they need bought (the extra key `to_buy`), then by the ranking already set. The pool must
+    /// be the purchase's gears on hand; the problem must not have an extra key of its own.
+    pub fn with_purchase(mut self, purchase: Purchase) -> Result<Problem> {
+        if self.pool != purchase.on_hand {
+            return Err(Error::problem("gears to buy must be added to the gears the search draws from"));
+        }
+        if self.extra_key.is_some() || self.rank.contains(&RankKey::Extra) {
+            return Err(Error::problem(
+                "a search with its own extra ranking key cannot also count gears to buy",
+            ));
+        }
+        self.pool = purchase.pool()?;
+        let own = self.train_check.take();
+        let most = purchase.most;
+        let counted = Arc::new(purchase.clone());
+        let check = Arc::clone(&counted);
+        self.train_check = Some(TrainCheck::new(move |t: &Train| {
+            check.count(t) <= most && own.as_ref().is_none_or(|c| (c.0)(t))
+        }));
+        self.extra_key = Some(ExtraKey::new(TO_BUY_KEY, move |t: &Train| f64::from(counted.count(t))));
+        self.rank.insert(0, RankKey::Extra);
+        self.buy = Some(purchase);
+        Ok(self)
+    }
+}
+
+/// The name of the extra ranking key of a search with gears to buy: the number of gears a train
+/// needs bought.
+pub const TO_BUY_KEY: &str = "to_buy";
 
 /// Check a least transverse contact ratio, the same wherever one is asked for (a search's mesh
 /// checks, a mesh check, a motion work). Errors name [`Quantity::ContactRatio`].

@@ -6,6 +6,7 @@
 
 use serde::{Deserialize, Serialize};
 
+use crate::model::purchase::ToBuy;
 use crate::model::train::{Direction, Train};
 
 /// `v` to `decimals` places without trailing zeros, and `0` rather than `-0`.
@@ -236,6 +237,10 @@ pub struct TrainJson {
     /// first.
     #[serde(default, skip_serializing_if = "Vec::is_empty")]
     pub other_arrangements: Vec<TrainJson>,
+    /// In a search with gears to buy: the gears this train needs bought, by tooth count (empty
+    /// when every gear is on hand).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub to_buy: Option<Vec<ToBuy>>,
 }
 
 /// One stage as JSON.
@@ -354,6 +359,7 @@ impl TrainJson {
                 .collect(),
             arrangements: None,
             other_arrangements: Vec::new(),
+            to_buy: None,
         }
     }
 }

@@ -1,7 +1,8 @@
 //! The CSV format of a search: a header, then one row per listed train, best first. A row is
 //! `rank`, the train's own columns ([`crate::report::fields::TRAIN_HEADER`]), for a listing of
 //! gear sets `arrangements` (how many the set has) and `arrangement` (1 for the set's best, 2…
-//! for the others under it, when asked for, with the set's rank), and the stage columns of
+//! for the others under it, when asked for, with the set's rank), with gears to buy
+//! `to_buy_count` and `to_buy` (`1 × 127`, or `nothing`), and the stage columns of
 //! [`crate::report::fields::StageColumns`], up to the most stages the search allowed, so every
 //! row has the same columns; with `--explain` over worked-out meshes each stage's gear data
 //! ([`crate::report::gear_data::csv_header`]) follows. [`Layout`] also serves the streaming mode, where the first column
@@ -11,6 +12,7 @@ use std::io::{self, Write};
 
 use super::json::Doc;
 use crate::model::problem::Problem;
+use crate::model::purchase::describe_to_buy;
 use crate::report::fields::{train_cells, StageColumns, TrainJson, TRAIN_HEADER};
 use crate::report::gear_data;
 
@@ -73,14 +75,21 @@ impl Layout {
 /// The gear-set columns, after the train's own.
 const SET_HEADER: [&str; 2] = ["arrangements", "arrangement"];
 
+/// The columns of a search with gears to buy, after the gear-set columns: how many gears the
+/// train needs bought, and which (`1 × 40, 1 × 127`, or `nothing`).
+const BUY_HEADER: [&str; 2] = ["to_buy_count", "to_buy"];
+
 /// Write the search as CSV.
 pub fn write(doc: &Doc, w: &mut dyn Write) -> io::Result<()> {
     let layout = Layout::of_doc(doc);
     let by_set = doc.trains.iter().any(|t| t.arrangements.is_some());
     let mut out = ::csv::Writer::from_writer(w);
     let mut head = layout.header("rank");
+    let at = 1 + TRAIN_HEADER.len();
+    if doc.buy.is_some() {
+        head.splice(at..at, BUY_HEADER.iter().map(|s| s.to_string()));
+    }
     if by_set {
-        let at = 1 + TRAIN_HEADER.len();
         head.splice(at..at, SET_HEADER.iter().map(|s| s.to_string()));
     }
     out.write_record(head)?;
@@ -88,8 +97,12 @@ pub fn write(doc: &Doc, w: &mut dyn Write) -> io::Result<()> {
         let listed = std::iter::once(t).chain(&t.other_arrangements);
         for (j, a) in listed.enumerate() {
             let mut row = layout.row(i as u64 + 1, a);
+            let at = 1 + TRAIN_HEADER.len();
+            if let Some(b) = &a.to_buy {
+                let count: u32 = b.iter().map(|x| x.count).sum();
+                row.splice(at..at, [count.to_string(), describe_to_buy(b)]);
+            }
             if by_set {
-                let at = 1 + TRAIN_HEADER.len();
                 let set = [t.arrangements.map_or(String::new(), |n| n.to_string()), (j + 1).to_string()];
                 row.splice(at..at, set);
             }

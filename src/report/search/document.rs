@@ -1,11 +1,13 @@
 //! A search laid out for people: a short header saying what was searched, the counts of trains
-//! and gear sets, the best gear sets in columns (each by its best arrangement, with how many
-//! arrangements it has, and the others under it when asked), the mesh geometry and the reasons for leaving pairings out when asked,
+//! and gear sets, the best gear sets in columns (each by its best arrangement, with the gears it
+//! needs bought when gears may be bought, with how many arrangements it has, and the others under it when asked), the mesh geometry and the reasons for leaving pairings out when asked,
 //! and the convention and caution as a footer. Made from the search's JSON document, so a
 //! merged split search reads exactly as one run.
 
 use super::json::Doc;
 use crate::model::pool::fmt_num;
+use crate::model::problem::TO_BUY_KEY;
+use crate::model::purchase::describe_to_buy;
 use crate::report::fields::{on_hand, TrainJson};
 use crate::report::words::{
     describe_error_f64, describe_tolerance, group_thousands, plain_words, CAUTION, CONVENTION,
@@ -28,6 +30,9 @@ pub fn document(doc: &Doc) -> Document {
         ));
     }
     d.line(format!("Gears: {}", doc.gears));
+    if let Some(b) = &doc.buy {
+        d.line(format!("To buy: {b}; fewest to buy first"));
+    }
     let counts: Vec<String> = doc.stage_counts.iter().map(|n| n.to_string()).collect();
     d.line(format!(
         "Stages: {} ({} allowed stage pairings)",
@@ -35,7 +40,9 @@ pub fn document(doc: &Doc) -> Document {
         group_thousands(doc.stage_options as u64)
     ));
     d.blank();
-    let keys = doc.ranked_by.join(", then ");
+    let keys: Vec<&str> =
+        doc.ranked_by.iter().map(|k| if k == TO_BUY_KEY { "gears to buy" } else { k.as_str() }).collect();
+    let keys = keys.join(", then ");
     let status = if doc.complete { "" } else { "INCOMPLETE (interrupted): at least " };
     let listed = doc.trains.len();
     let by_set = doc.trains.iter().any(|t| t.arrangements.is_some());
@@ -93,6 +100,9 @@ pub fn document(doc: &Doc) -> Document {
                 tr.direction.as_str().to_string(),
                 tr.size.to_string(),
             ];
+            if let Some(b) = &tr.to_buy {
+                cells.push(describe_to_buy(b));
+            }
             if by_set {
                 cells.push(tr.arrangements.map_or(String::new(), |a| a.to_string()));
             }
@@ -110,11 +120,17 @@ pub fn document(doc: &Doc) -> Document {
         } else {
             "stages: driver→driven (reference centre distance mm)"
         };
-        let (head, right): (Vec<&str>, &[usize]) = if by_set {
-            (vec!["#", "ratio", "error", "direction", "size", "arrangements", stages], &[0, 2, 4, 5])
-        } else {
-            (vec!["#", "ratio", "error", "direction", "size", stages], &[0, 2, 4])
-        };
+        let mut head = vec!["#", "ratio", "error", "direction", "size"];
+        let mut right = vec![0, 2, 4];
+        if doc.buy.is_some() {
+            head.push("to buy");
+        }
+        if by_set {
+            right.push(head.len());
+            head.push("arrangements");
+        }
+        head.push(stages);
+        let right = right.as_slice();
         d.table(Table::new(&head, right).with_rows(rows));
     }
     on_hand(&doc.trains, &mut d);

@@ -12,11 +12,14 @@
 //!              "stages": [{"driver": z, "driven": z, "module_mm": mm,
 //!                          "pressure_angle_deg": deg, "reference_centre_distance_mm": mm,
 //!                          …}],
-//!              "other_arrangements": [<train>, …]}]}
+//!              "to_buy": [{"teeth": z, "module_mm": mm, "count": n}, …],
+//!              "other_arrangements": [<train>, …]}],
+//!  "buy": "<the gears that may be bought>"}
 //! ```
 //! Field names and meanings are stable within a `schema_version`; fields may be added. The
 //! trains listed are gear sets, one each (its best arrangement), with the number of its
-//! arrangements; `other_arrangements` only when every arrangement was asked for. The
+//! arrangements; `other_arrangements` only when every arrangement was asked for; `buy` and each
+//! train's `to_buy` only when gears may be bought. The
 //! document is the whole of a search's result: the table, Markdown and CSV formats are made
 //! from it, and it reads back into [`Doc`] so that `gearsieve merge` can combine the parts of a
 //! split search and print exactly what one run prints, in any format. With a limit of 0 the
@@ -77,6 +80,10 @@ pub struct Doc {
     /// What the mesh checks left out.
     #[serde(default, skip_serializing_if = "Vec::is_empty")]
     pub rejected: Vec<RejectionJson>,
+    /// The gears that may be bought, in words, when trains may use gears not on hand; each
+    /// listed train then says which it needs bought (`to_buy`).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub buy: Option<String>,
     /// The gear sets listed, best first, each as its best arrangement.
     pub trains: Vec<TrainJson>,
 }
@@ -122,7 +129,7 @@ pub fn doc(report: &SearchReport) -> Doc {
     Doc {
         schema_version: SCHEMA_VERSION,
         target: target_json(p),
-        gears: p.pool.describe(),
+        gears: p.buy.as_ref().map_or_else(|| p.pool.describe(), |b| b.on_hand.describe()),
         stage_counts: p.stage_counts(),
         stage_options: report.outcome.stage_options,
         mesh_checks: p.mesh.is_some(),
@@ -149,8 +156,9 @@ pub fn doc(report: &SearchReport) -> Doc {
             .iter()
             .map(|r| RejectionJson { kind: r.kind.clone(), count: r.count, example: r.example.clone() })
             .collect(),
+        buy: p.buy.as_ref().map(|b| b.describe()),
         trains: {
-            let mut trains = listed(report.outcome);
+            let mut trains = listed(p, report.outcome);
             if report.explain {
                 for (t, view) in report.outcome.trains.iter().zip(trains.iter_mut()) {
                     add_gear_data(p, t, view);
@@ -177,12 +185,17 @@ fn add_gear_data(p: &crate::model::problem::Problem, t: &crate::model::train::Tr
     }
 }
 
-/// The listed trains, each with its gear set's arrangements when the search listed gear sets.
-fn listed(outcome: &crate::engine::Outcome) -> Vec<TrainJson> {
-    let mut trains: Vec<TrainJson> = outcome.trains.iter().map(TrainJson::from_train).collect();
+/// The listed trains, each with its gear set's arrangements when the search listed gear sets,
+/// and the gears it needs bought when the search may buy gears.
+fn listed(p: &crate::model::problem::Problem, outcome: &crate::engine::Outcome) -> Vec<TrainJson> {
+    let view = |t: &crate::model::train::Train| TrainJson {
+        to_buy: p.buy.as_ref().map(|b| b.to_buy(t)),
+        ..TrainJson::from_train(t)
+    };
+    let mut trains: Vec<TrainJson> = outcome.trains.iter().map(view).collect();
     for (t, a) in trains.iter_mut().zip(&outcome.arrangements) {
         t.arrangements = Some(a.count);
-        t.other_arrangements = a.others.iter().map(TrainJson::from_train).collect();
+        t.other_arrangements = a.others.iter().map(view).collect();
     }
     trains
 }

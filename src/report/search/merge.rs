@@ -9,7 +9,8 @@ use std::cmp::Ordering;
 
 use crate::engine::{Shard, COAXIAL_MISFIT_KIND};
 use crate::error::{Error, Message, Quantity, Result};
-use crate::model::rank::{compare, dominates, parse_rank, Ranked};
+use crate::model::problem::TO_BUY_KEY;
+use crate::model::rank::{compare, dominates, parse_rank, RankKey, Ranked};
 use crate::numbers::rational::{Ratio, RelError};
 use crate::numbers::target::parse_ratio;
 use crate::report::fields::TrainJson;
@@ -62,6 +63,10 @@ impl Ranked for Listed {
     }
     fn span_mm(&self) -> f64 {
         self.json.span_mm
+    }
+    /// The gears to buy, the only extra key a search document names (`to_buy`).
+    fn extra(&self) -> f64 {
+        self.json.to_buy.as_ref().map_or(0.0, |b| f64::from(b.iter().map(|x| x.count).sum::<u32>()))
     }
     fn cmp_stages(&self, other: &Self) -> Ordering {
         for (a, b) in self.stages.iter().zip(&other.stages) {
@@ -126,10 +131,11 @@ pub fn merge(docs: Vec<(String, Doc)>) -> Result<Doc> {
             && d.ranked_by == first.ranked_by
             && d.limit == first.limit
             && d.pareto_size.is_some() == first.pareto_size.is_some()
-            && d.convention == first.convention;
+            && d.convention == first.convention
+            && d.buy == first.buy;
         if !same {
             return Err(Error::problem(format!(
-                "{name}: asks a different question from {first_name} (target, tolerance, ranking, limit or Pareto mode differ)"
+                "{name}: asks a different question from {first_name} (target, tolerance, ranking, limit, Pareto mode or gears to buy differ)"
             )));
         }
     }
@@ -139,7 +145,13 @@ pub fn merge(docs: Vec<(String, Doc)>) -> Result<Doc> {
     let target =
         parse_ratio(&first.target.exact, Quantity::TargetRatio).map_err(|e| in_file(&first_name, e))?;
     let names: Vec<String> = first.ranked_by.clone();
-    let keys = parse_rank(&names.join(",")).map_err(|e| in_file(&first_name, e))?;
+    // A search with gears to buy ranks first by them (its extra key); the rest are the user's.
+    let buying = first.buy.is_some() && names.first().is_some_and(|k| k == TO_BUY_KEY);
+    let user = if buying { &names[1..] } else { &names[..] };
+    let mut keys = parse_rank(&user.join(",")).map_err(|e| in_file(&first_name, e))?;
+    if buying {
+        keys.insert(0, RankKey::Extra);
+    }
     let mut rejected = first.rejected.clone();
     for r in rejected.iter_mut().filter(|r| r.kind == COAXIAL_MISFIT_KIND) {
         r.count = docs

@@ -6,6 +6,7 @@ use std::io::{self, Write};
 
 use super::document::banjo_cell;
 use super::{ChartReport, ThreadReport};
+use crate::model::purchase::describe_to_buy;
 use crate::report::fields::{decimals, mm, on_hand_summary, small, StageColumns, TrainJson};
 use crate::trades::thread::pitch::Pitch;
 use crate::trades::thread::{Lathe, Setup};
@@ -48,6 +49,9 @@ fn stage_columns(lathe: &Lathe) -> StageColumns {
 fn header(first: &[&str], lathe: &Lathe) -> Vec<String> {
     let mut head: Vec<String> = first.iter().chain(SETUP_COLUMNS.iter()).map(|s| s.to_string()).collect();
     head.push("stud_mesh_inner".into());
+    if lathe.buy.is_some() {
+        head.extend(["to_buy_count".to_string(), "to_buy".to_string()]);
+    }
     head.extend(stage_columns(lathe).header());
     head
 }
@@ -92,6 +96,9 @@ fn setup_fields(s: &Setup, pitch: &Pitch, lathe: &Lathe) -> Vec<String> {
         on_hand_summary(&mounted),
         s.fit.stud_mesh_inner.map_or(String::new(), |b| b.to_string()),
     ]);
+    if let Some(b) = &s.to_buy {
+        row.extend([s.to_buy_count().to_string(), describe_to_buy(b)]);
+    }
     // The stages as they sit on the machine, stud first (the setup's train is in that order
     // already), an idler as two.
     row.extend(stage_columns(lathe).cells(&mounted));

@@ -4,6 +4,7 @@
 
 use super::{ChartReport, ThreadReport};
 use crate::model::pool::fmt_num;
+use crate::model::purchase::describe_to_buy;
 use crate::model::train::standard_centre_distance_mm;
 use crate::report::fields::{on_hand, on_hand_summary, TrainJson, ON_HAND_HEADING};
 use crate::report::words::{describe_error, describe_tolerance, group_thousands, THREAD_CAUTION};
@@ -32,6 +33,9 @@ fn header(d: &mut Document, lathe: &Lathe, feed: bool) {
         None => d.line(format!("Lathe: {}", describe_machine(lathe))),
     }
     d.line(format!("Gears: {}", lathe.pool.describe()));
+    if let Some(b) = &lathe.buy {
+        d.line(format!("To buy: {}; fewest to buy first", b.describe()));
+    }
     if let Some(largest) = e.largest_teeth {
         let left: Vec<String> = e.left_out.iter().map(|z| z.to_string()).collect();
         let left = if left.is_empty() {
@@ -232,6 +236,9 @@ fn setup_cells(s: &Setup, lathe: &Lathe, pitch: &Pitch) -> Vec<String> {
         lead,
         banjo_cell(s),
     ];
+    if let Some(b) = &s.to_buy {
+        cells.push(describe_to_buy(b));
+    }
     if let Some(dial) = &lathe.equipment.dial {
         cells.push(match &s.engagement {
             _ if s.feed => "not needed: a feed cuts no groove".to_string(),
@@ -244,6 +251,9 @@ fn setup_cells(s: &Setup, lathe: &Lathe, pitch: &Pitch) -> Vec<String> {
 
 fn setup_head(lathe: &Lathe) -> Vec<String> {
     let mut head: Vec<String> = SETUP_HEAD.iter().map(|s| s.to_string()).collect();
+    if lathe.buy.is_some() {
+        head.push("to buy".into());
+    }
     if lathe.equipment.dial.is_some() {
         head.push("dial".into());
     }
@@ -289,13 +299,14 @@ pub fn thread(r: &ThreadReport) -> Document {
         0 => d.line(format!("{status}No setup {verb} {} within the tolerance from these gears.", t.pitch)),
         1 => d.line(format!("{status}1 setup {verb} it:")),
         n => d.line(format!(
-            "{status}{} setups {verbs} it; {} by pitch error, then meshes, then size:",
+            "{status}{} setups {verbs} it; {} by {}pitch error, then meshes, then size:",
             group_thousands(n),
             if p.setups.len() as u64 == n {
                 "all listed".to_string()
             } else {
                 format!("the best {} listed", p.setups.len())
-            }
+            },
+            if r.lathe.buy.is_some() { "gears to buy, then " } else { "" }
         )),
     }
     if !p.setups.is_empty() {
@@ -332,10 +343,18 @@ pub fn thread(r: &ThreadReport) -> Document {
                 let stages: Vec<String> =
                     x.train.stages.iter().map(|s| format!("{}→{}", s.driver.teeth, s.driven.teeth)).collect();
                 let pos = x.position.as_ref().map_or(String::new(), |p| format!(" (gearbox {})", p.name));
+                let buy = match &x.to_buy {
+                    Some(b) if !b.is_empty() => format!(", to buy {}", describe_to_buy(b)),
+                    _ => String::new(),
+                };
                 d.item(
                     1,
                     false,
-                    format!("{}{pos}, pitch error {}:", stages.join(" "), describe_error(&x.pitch_error)),
+                    format!(
+                        "{}{pos}, pitch error {}{buy}:",
+                        stages.join(" "),
+                        describe_error(&x.pitch_error)
+                    ),
                 );
                 for why in &x.reasons {
                     d.item(2, true, why.clone());

@@ -16,7 +16,8 @@
 //!                 "dial": "any line"|…|null}|null}
 //! ```
 //! A thread document is `{"schema_version", "thread", "machine", "banjo", "tolerance", "count", "complete",
-//! "convention", "caution", "trains": [setup…], "rejected"?}`; a chart document is `{"schema_version", "series",
+//! "convention", "caution", "buy"?, "trains": [setup…], "rejected"?}`, with `buy` (the gears that
+//! may be bought) and each setup's `to_buy` only when gears may be bought; a chart document is `{"schema_version", "series",
 //! "machine", "banjo", "tolerance", "complete", "caution", "rows": [{"thread", "pitch",
 //! "reachable", "count", "setup", "nearest"}]}`. Stages run from the stud to the leadscrew.
 
@@ -122,6 +123,7 @@ impl SetupJson {
         // Every mesh the machine has: an idler is two stages, stud → idler → leadscrew.
         let mut train = TrainJson::from_train(&s.mounted_train());
         train.error = s.pitch_error.to_f64();
+        train.to_buy = s.to_buy.clone();
         SetupJson {
             train,
             gearbox_position: s.position.as_ref().map(|p| p.name.clone()),
@@ -262,6 +264,8 @@ struct ThreadDoc {
     complete: bool,
     convention: &'static str,
     caution: &'static str,
+    #[serde(skip_serializing_if = "Option::is_none")]
+    buy: Option<String>,
     trains: Vec<SetupJson>,
     #[serde(skip_serializing_if = "Option::is_none")]
     rejected: Option<Vec<RejectedJson>>,
@@ -287,6 +291,7 @@ pub fn write_thread(r: &ThreadReport, w: &mut dyn Write) -> Result<(), RenderErr
         complete: r.plan.complete,
         convention: CONVENTION,
         caution: THREAD_CAUTION,
+        buy: r.lathe.buy.as_ref().map(|b| b.describe()),
         trains: r
             .plan
             .setups
@@ -298,6 +303,7 @@ pub fn write_thread(r: &ThreadReport, w: &mut dyn Write) -> Result<(), RenderErr
                 .map(|x| {
                     let mut train = TrainJson::from_train(&x.train);
                     train.error = x.pitch_error.to_f64();
+                    train.to_buy = x.to_buy.clone();
                     RejectedJson {
                         train,
                         gearbox_position: x.position.as_ref().map(|p| p.name.clone()),

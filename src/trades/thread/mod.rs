@@ -32,6 +32,7 @@ use crate::error::{Error, Quantity, Result};
 use crate::geometry::on_hand_defects;
 use crate::model::pool::Pool;
 use crate::model::problem::{Problem, StageLimits, ToothForm, TrainCheck, DEFAULT_SHIFT_SUM};
+use crate::model::purchase::{Purchase, ToBuy};
 use crate::model::rank::DEFAULT_RANK;
 use crate::model::train::{Gear, Stage, Train};
 use crate::numbers::range::IntRange;
@@ -49,6 +50,10 @@ pub const MAX_TOLERANCE: Ratio = match Ratio::from_parts(1, 10) {
     Some(r) => r,
     None => panic!("1/10 is reduced"),
 };
+
+/// The tooth counts change gears are commonly sold in for a lathe, 20 to 127 (common practice:
+/// sets run from 20 teeth up, and 127 is the transposing gear between inch and metric).
+pub const USUAL_CHANGE_GEARS: IntRange = IntRange { lo: 20, hi: 127 };
 
 /// Tolerance used to find the nearest reachable pitch when none is within tolerance.
 const NEAREST_TOLERANCE: Ratio = match Ratio::from_parts(1, 3) {
@@ -91,6 +96,8 @@ pub struct Lathe {
     pub limit: usize,
     /// What else is known of the machine: its name, guard, tumbler reverse, thread dial.
     pub equipment: Equipment,
+    /// Gears that may be bought beyond those on hand (set with [`Lathe::buying`]).
+    pub buy: Option<Purchase>,
 }
 
 /// What a lathe file may say of a machine beyond its drive and gears.
@@ -130,7 +137,16 @@ impl Lathe {
         // Problem::new checks the stage range; check it here too so the error comes early.
         let probe = Target::exact("1", Ratio::integer(1), Ratio::integer(0));
         Problem::new(probe, pool.clone(), stages, StageLimits::default(), None, DEFAULT_RANK.to_vec(), 1)?;
-        Ok(Lathe { machine, pool, banjo, stages, tolerance, limit, equipment: Equipment::default() })
+        Ok(Lathe {
+            machine,
+            pool,
+            banjo,
+            stages,
+            tolerance,
+            limit,
+            equipment: Equipment::default(),
+            buy: None,
+        })
     }
 
     /// The lathe with `equipment`: gears larger than the guard allows are left out (and listed
@@ -158,6 +174,29 @@ impl Lathe {
             equipment.left_out = left_out;
         }
         self.equipment = equipment;
+        Ok(self)
+    }
+
+    /// The lathe with gears that may be bought: setups may use up to [`Purchase::most`] gears
+    /// not on hand, each setup says which, and fewer to buy rank first. Call after
+    /// [`Lathe::equipped`]: the purchase adds to the gears left on hand, and a gear larger than
+    /// the guard allows cannot be bought (errors name [`Quantity::BuyTeeth`]). An idler is always
+    /// a gear on hand.
+    pub fn buying(mut self, purchase: Purchase) -> Result<Lathe> {
+        if purchase.on_hand != self.pool {
+            return Err(Error::problem("gears to buy must be added to the lathe's gears on hand"));
+        }
+        if let Some(largest) = self.equipment.largest_teeth.filter(|&z| purchase.teeth.hi > z) {
+            return Err(Error::value(
+                Quantity::BuyTeeth,
+                format!(
+                    "the guard closes over gears of at most {largest} teeth, so a gear of {} cannot be used; \
+                     give at most {largest}",
+                    purchase.teeth.hi
+                ),
+            ));
+        }
+        self.buy = Some(purchase);
         Ok(self)
     }
 
@@ -190,6 +229,8 @@ pub struct Setup {
     /// Where the half-nuts may be closed again (on the lathe's dial when it has one); `None`
     /// when the spindle turns per leadscrew turn are not exact (a worm's π).
     pub engagement: Option<Engagement>,
+    /// With gears to buy: the gears this setup needs bought (empty when all are on hand).
+    pub to_buy: Option<Vec<ToBuy>>,
 }
 
 impl Setup {
@@ -242,6 +283,11 @@ impl Setup {
         let from_idler =
             Stage { on_hand_defects: judged(&idler, &s.driven), driver: idler, mesh: None, ..s.clone() };
         Train { stages: vec![to_idler, from_idler], ..self.train.clone() }
+    }
+
+    /// How many gears the setup needs bought (0 when all are on hand or none may be bought).
+    pub fn to_buy_count(&self) -> u32 {
+        self.to_buy.as_ref().map_or(0, |b| b.iter().map(|x| x.count).sum())
     }
 
     /// Meshes on the machine, the idler's two included.
@@ -324,7 +370,8 @@ pub struct ThreadPlan {
     pub thread: ThreadSpec,
     /// Setups meeting every constraint (a lower bound when `complete` is false).
     pub count: u64,
-    /// The best, smallest pitch error first, then fewest meshes, then fewest teeth.
+    /// The best: fewest gears to buy first (when gears may be bought), then smallest pitch error,
+    /// fewest meshes, fewest teeth.
     pub setups: Vec<Setup>,
     /// False when the search was interrupted.
     pub complete: bool,
@@ -343,9 +390,12 @@ fn widened(t: Ratio) -> Ratio {
     Ratio::new(t.num() as u128, (t.den() - t.num()) as u128).unwrap_or(t)
 }
 
+/// Fewest gears to buy first (every setup listed is within the tolerance), then smallest pitch
+/// error, fewest meshes, fewest teeth.
 fn by_quality(a: &Setup, b: &Setup) -> Ordering {
-    a.pitch_error
-        .cmp_abs(&b.pitch_error)
+    a.to_buy_count()
+        .cmp(&b.to_buy_count())
+        .then(a.pitch_error.cmp_abs(&b.pitch_error))
         .then(a.meshes().cmp(&b.meshes()))
         .then(a.train.size().cmp(&b.train.size()))
 }
@@ -366,12 +416,16 @@ impl Lathe {
         // cuts the leadscrew's own pitch) or on a compound stud they are an ordinary setup.
         p.equal_teeth_stages = true;
         let banjo = if geometry { self.banjo.clone() } else { None };
+        // The banjo's idler comes from the gears on hand, never from those bought.
         let pool = self.pool.clone();
         p.train_check = Some(TrainCheck::new(move |t: &Train| {
             pitch_error(t.ratio, need).within(tolerance)
                 && banjo.as_ref().is_none_or(|b| b.fit(t, &pool).is_ok())
         }));
-        Ok(p)
+        match &self.buy {
+            Some(b) => p.with_purchase(b.clone()),
+            None => Ok(p),
+        }
     }
 
     fn setup(
@@ -393,6 +447,7 @@ impl Lathe {
         let turns = self.spindle_per_leadscrew(train.ratio_from_teeth(), position);
         let engagement = turns.exact.then(|| engagement(turns.value, self.equipment.dial.as_ref()));
         Setup {
+            to_buy: self.buy.as_ref().map(|b| b.to_buy(&train)),
             feed: thread.feed,
             engagement,
             pitch_error: pitch_error(train.ratio, need),
@@ -484,6 +539,7 @@ impl Lathe {
             for t in search(&problem, crate::trades::ENGINE, options).trains {
                 if let Err(reasons) = banjo.fit(&t, &self.pool) {
                     out.push(Rejected {
+                        to_buy: self.buy.as_ref().map(|b| b.to_buy(&t)),
                         pitch_error: pitch_error(t.ratio, need),
                         train: t,
                         position: position.cloned(),
@@ -492,7 +548,14 @@ impl Lathe {
                 }
             }
         }
-        out.sort_by(|a, b| a.pitch_error.cmp_abs(&b.pitch_error).then(a.train.size().cmp(&b.train.size())));
+        out.sort_by(|a, b| {
+            let bought =
+                |r: &Rejected| r.to_buy.as_ref().map_or(0, |b| b.iter().map(|x| x.count).sum::<u32>());
+            bought(a)
+                .cmp(&bought(b))
+                .then(a.pitch_error.cmp_abs(&b.pitch_error))
+                .then(a.train.size().cmp(&b.train.size()))
+        });
         out.truncate(self.limit);
         Ok(out)
     }
@@ -509,6 +572,8 @@ pub struct Rejected {
     pub pitch_error: RelError,
     /// Why each arrangement failed.
     pub reasons: Vec<String>,
+    /// With gears to buy: the gears the train needs bought.
+    pub to_buy: Option<Vec<ToBuy>>,
 }
 
 #[cfg(test)]

@@ -1,0 +1,318 @@
+//! Gears that may be bought: a search over the gears on hand where a train may also use up to
+//! `most` new gears of a range of tooth counts in one mesh group, and, for each train, which
+//! gears to buy. Owns the extended pool and the count; the search itself is the engine's, run
+//! through the problem's train check and extra key ([`crate::model::problem::Problem::with_purchase`]).
+//!
+//! A gear bought is a new standard gear (cut with no shift, full tip). A tooth count already on
+//! hand, cut standard, in the buy group is one kind: buying more of it raises its quantity, so a
+//! train is found once whichever of its gears came from the shelf. For a train, the gears to buy
+//! are, per kind, `max(0, used − on hand)`, and their sum is at most `most`. Gears on hand made
+//! otherwise (with a shift) are their own kinds and are never bought.
+
+use serde::{Deserialize, Serialize};
+
+use crate::error::{Error, Quantity, Result};
+use crate::model::pool::{describe_group, fmt_num, AsMade, GearKind, MeshGroup, Pool};
+use crate::model::train::Train;
+use crate::numbers::range::IntRange;
+
+/// What may be bought, and the gears on hand it adds to.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Purchase {
+    /// Most gears a train may use that are not on hand.
+    pub most: u32,
+    /// The tooth counts that may be bought.
+    pub teeth: IntRange,
+    /// The module and pressure angle of the gears bought (a mesh group of the gears on hand).
+    pub group: MeshGroup,
+    /// The gears on hand, before anything is bought.
+    pub on_hand: Pool,
+}
+
+/// One kind of gear a train needs bought.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct ToBuy {
+    /// Tooth count.
+    pub teeth: u32,
+    /// Module, mm.
+    pub module_mm: f64,
+    /// How many to buy.
+    pub count: u32,
+}
+
+/// A gear cut standard: no shift, the full tip of its teeth.
+fn standard(made: &Option<AsMade>) -> bool {
+    made.is_some_and(|m| m.same_as(&AsMade::default()))
+}
+
+impl Purchase {
+    /// Up to `most` gears of `teeth` (default: the least to the most teeth on hand in that
+    /// module) in the module `module_mm` (default: the one module on hand) added to `on_hand`.
+    /// Errors name [`Quantity::BuyCount`] when nothing is on hand to add to or `most` is 0,
+    /// [`Quantity::BuyModule`] when the module is not on hand or must be said.
+    pub fn new(
+        on_hand: Pool,
+        most: u32,
+        teeth: Option<IntRange>,
+        module_mm: Option<f64>,
+    ) -> Result<Purchase> {
+        if !on_hand.from_stock {
+            return Err(Error::value(
+                Quantity::BuyCount,
+                "gears are bought to add to gears on hand; give the gears on hand",
+            ));
+        }
+        if most == 0 {
+            return Err(Error::value(Quantity::BuyCount, "wanted 1 or more gears to buy"));
+        }
+        let modules = || {
+            let mut m: Vec<String> = Vec::new();
+            for g in &on_hand.groups {
+                let v = fmt_num(g.module_mm);
+                if !m.contains(&v) {
+                    m.push(v);
+                }
+            }
+            m.join(", ")
+        };
+        let groups: Vec<&MeshGroup> = match module_mm {
+            Some(m) => {
+                on_hand.groups.iter().filter(|g| (g.module_mm - m).abs() <= 1e-9 * g.module_mm).collect()
+            }
+            None => on_hand.groups.iter().collect(),
+        };
+        let group = match (groups.as_slice(), module_mm) {
+            ([g], _) => (*g).clone(),
+            ([], Some(m)) => {
+                return Err(Error::value(
+                    Quantity::BuyModule,
+                    format!(
+                        "no gear on hand is of module {} mm, so nothing bought could mesh with them; the \
+                         gears on hand are of module {} mm",
+                        fmt_num(m),
+                        modules()
+                    ),
+                ))
+            }
+            (many, None)
+                if many.iter().any(|g| (g.module_mm - many[0].module_mm).abs() > 1e-9 * g.module_mm) =>
+            {
+                return Err(Error::value(
+                    Quantity::BuyModule,
+                    format!(
+                        "the gears on hand are of modules {} mm; say which the gears to buy are of",
+                        modules()
+                    ),
+                ))
+            }
+            (many, _) => {
+                let angles: Vec<String> =
+                    many.iter().map(|g| format!("{}°", fmt_num(g.pressure_angle_deg))).collect();
+                return Err(Error::value(
+                    Quantity::BuyModule,
+                    format!(
+                        "the gears on hand of module {} mm come in pressure angles {}, and gears are \
+                         bought in one; keep only the catalogues of one",
+                        fmt_num(many[0].module_mm),
+                        angles.join(", ")
+                    ),
+                ));
+            }
+        };
+        let index = on_hand.groups.iter().position(|g| *g == group).unwrap_or(0);
+        let teeth = match teeth {
+            Some(t) => t,
+            None => {
+                let in_group = on_hand.gears.iter().filter(|k| k.group == index).map(|k| k.teeth);
+                let lo = in_group.clone().min().unwrap_or(0);
+                IntRange { lo, hi: in_group.max().unwrap_or(lo) }
+            }
+        };
+        Ok(Purchase { most, teeth, group, on_hand })
+    }
+
+    /// The index of the buy group in the gears on hand.
+    fn group_index(&self) -> usize {
+        self.on_hand.groups.iter().position(|g| *g == self.group).unwrap_or(0)
+    }
+
+    /// Standard gears of `teeth` on hand in the buy group.
+    pub fn on_hand_of(&self, teeth: u32) -> u32 {
+        let group = self.group_index();
+        self.on_hand
+            .gears
+            .iter()
+            .filter(|k| k.group == group && k.teeth == teeth && standard(&k.made))
+            .map(|k| k.quantity.unwrap_or(0))
+            .sum()
+    }
+
+    /// The pool a search draws from: the gears on hand, with `most` more of every tooth count
+    /// that may be bought (a kind on hand cut standard grows; any other is a new kind). Errors
+    /// name [`Quantity::BuyCount`] when a quantity would pass `u32`.
+    pub fn pool(&self) -> Result<Pool> {
+        let mut pool = self.on_hand.clone();
+        let group = self.group_index();
+        for teeth in self.teeth.lo..=self.teeth.hi {
+            let kind =
+                pool.gears.iter_mut().find(|k| k.group == group && k.teeth == teeth && standard(&k.made));
+            match kind {
+                Some(k) => {
+                    let q = k.quantity.unwrap_or(0).checked_add(self.most).ok_or_else(|| {
+                        Error::value(
+                            Quantity::BuyCount,
+                            format!("{} more {teeth}-tooth gears is too many", self.most),
+                        )
+                    })?;
+                    k.quantity = Some(q);
+                }
+                None => pool.gears.push(GearKind {
+                    teeth,
+                    group,
+                    quantity: Some(self.most),
+                    labels: Vec::new(),
+                    made: Some(AsMade::default()),
+                }),
+            }
+        }
+        pool.sort_kinds();
+        Ok(pool)
+    }
+
+    /// The gears `train` needs bought, by tooth count: for each tooth count of the buy range
+    /// the train uses in the buy group cut standard, how many more than are on hand.
+    pub fn to_buy(&self, train: &Train) -> Vec<ToBuy> {
+        let mut used: Vec<(u32, u32)> = Vec::new();
+        for s in &train.stages {
+            if !self.group.meshes_with(s.module_mm, s.pressure_angle_deg) {
+                continue;
+            }
+            for g in [&s.driver, &s.driven] {
+                if self.teeth.contains(g.teeth) && standard(&g.made) {
+                    match used.iter_mut().find(|u| u.0 == g.teeth) {
+                        Some(u) => u.1 += 1,
+                        None => used.push((g.teeth, 1)),
+                    }
+                }
+            }
+        }
+        used.sort_unstable();
+        used.into_iter()
+            .filter_map(|(teeth, n)| {
+                let count = n.saturating_sub(self.on_hand_of(teeth));
+                (count > 0).then_some(ToBuy { teeth, module_mm: self.group.module_mm, count })
+            })
+            .collect()
+    }
+
+    /// How many gears `train` needs bought.
+    pub fn count(&self, train: &Train) -> u32 {
+        self.to_buy(train).iter().map(|b| b.count).sum()
+    }
+
+    /// One line for reports, e.g. `up to 1 gear of 20..127 teeth, module 1.5 mm, 20°, cut
+    /// standard`.
+    pub fn describe(&self) -> String {
+        format!(
+            "up to {} gear{} of {} teeth, {}, cut standard",
+            self.most,
+            if self.most == 1 { "" } else { "s" },
+            self.teeth,
+            describe_group(&self.group)
+        )
+    }
+}
+
+/// `2 × 127, 1 × 40` or `nothing`: a train's gears to buy in words.
+pub fn describe_to_buy(to_buy: &[ToBuy]) -> String {
+    if to_buy.is_empty() {
+        return "nothing".into();
+    }
+    to_buy.iter().map(|b| format!("{} × {}", b.count, b.teeth)).collect::<Vec<_>>().join(", ")
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::model::pool::StockGear;
+    use crate::model::train::{Gear, Stage};
+    use crate::numbers::rational::{Ratio, RelError};
+
+    fn shelf(gears: &[(u32, u32)]) -> Pool {
+        let stock: Vec<StockGear> = gears.iter().map(|&(t, q)| StockGear::on_hand(t, 1.5, 20.0, q)).collect();
+        Pool::from_stock(&stock, "t").unwrap()
+    }
+
+    fn train(pairs: &[(u32, u32)]) -> Train {
+        let standard = |teeth| Gear { teeth, labels: Vec::new(), made: Some(AsMade::default()) };
+        let stages: Vec<Stage> = pairs
+            .iter()
+            .map(|&(a, b)| Stage {
+                driver: standard(a),
+                driven: standard(b),
+                ..Stage::plain(a, b, 1.5, 20.0)
+            })
+            .collect();
+        let r = Ratio::integer(1);
+        Train { stages, ratio: r, error: RelError::of(1, 1, r) }
+    }
+
+    #[test]
+    fn buying_more_of_a_gear_on_hand_raises_its_quantity() {
+        let p =
+            Purchase::new(shelf(&[(20, 1), (40, 2)]), 2, Some(IntRange { lo: 38, hi: 41 }), None).unwrap();
+        let pool = p.pool().unwrap();
+        let q = |t: u32| pool.gears.iter().filter(|k| k.teeth == t).map(|k| k.quantity).collect::<Vec<_>>();
+        assert_eq!(q(40), vec![Some(4)], "one kind, two on hand and two that may be bought");
+        assert_eq!(q(39), vec![Some(2)]);
+        assert_eq!(q(20), vec![Some(1)], "outside the buy range, untouched");
+        assert_eq!(pool.gears.len(), 5);
+        assert!(pool.gears.windows(2).all(|w| w[0].teeth < w[1].teeth), "still sorted");
+    }
+
+    #[test]
+    fn to_buy_is_what_the_train_uses_beyond_the_shelf() {
+        let p =
+            Purchase::new(shelf(&[(20, 1), (40, 2)]), 3, Some(IntRange { lo: 20, hi: 127 }), None).unwrap();
+        assert_eq!(p.count(&train(&[(20, 40)])), 0);
+        // Three 40s used, two on hand; a 127 not on hand at all.
+        let b = p.to_buy(&train(&[(40, 127), (40, 40)]));
+        assert_eq!(
+            b,
+            vec![
+                ToBuy { teeth: 40, module_mm: 1.5, count: 1 },
+                ToBuy { teeth: 127, module_mm: 1.5, count: 1 }
+            ]
+        );
+        assert_eq!(describe_to_buy(&b), "1 × 40, 1 × 127");
+        assert_eq!(p.count(&train(&[(20, 127), (20, 127)])), 3);
+    }
+
+    #[test]
+    fn the_module_must_be_on_hand_and_said_when_several_are() {
+        let mixed = Pool::from_stock(
+            &[
+                StockGear::on_hand(20, 1.5, 20.0, 1),
+                StockGear::on_hand(40, 1.5, 20.0, 1),
+                StockGear::on_hand(20, 2.0, 20.0, 1),
+                StockGear::on_hand(30, 2.0, 20.0, 1),
+            ],
+            "t",
+        )
+        .unwrap();
+        let e = Purchase::new(mixed.clone(), 1, None, None).unwrap_err().to_string();
+        assert_eq!(
+            e,
+            "the module of the gears to buy: the gears on hand are of modules 1.5, 2 mm; say which the \
+             gears to buy are of"
+        );
+        let e = Purchase::new(mixed.clone(), 1, None, Some(1.0)).unwrap_err().to_string();
+        assert!(e.contains("no gear on hand is of module 1 mm"), "{e}");
+        let p = Purchase::new(mixed, 1, None, Some(2.0)).unwrap();
+        assert_eq!(p.teeth, IntRange { lo: 20, hi: 30 }, "defaults to the teeth on hand in that module");
+        assert_eq!(p.describe(), "up to 1 gear of 20..30 teeth, module 2 mm, 20°, cut standard");
+        let cut = Pool::to_cut(IntRange { lo: 20, hi: 40 }, 1.0, 20.0, None).unwrap();
+        assert!(Purchase::new(cut, 1, None, None).is_err());
+        assert!(Purchase::new(shelf(&[(20, 1), (40, 1)]), 0, None, None).is_err());
+    }
+}
