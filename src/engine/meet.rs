@@ -557,3 +557,62 @@ pub fn applies(space: &SearchSpace, n: usize) -> bool {
         && !space.needs_coaxial_fit()
 }
 
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    /// Ratios a/b of 12..40 teeth, folded into distinct values by hand.
+    fn values() -> DistinctRatios {
+        let mut all: Vec<(u64, u64)> = Vec::new();
+        for p in 12..=40u64 {
+            for q in 12..=40u64 {
+                let g = crate::numbers::rational::gcd(p as u128, q as u128) as u64;
+                if p != q {
+                    all.push((p / g, q / g));
+                }
+            }
+        }
+        all.sort_by(|x, y| (x.0 * y.1).cmp(&(y.0 * x.1)));
+        all.dedup();
+        let n = all.len();
+        DistinctRatios {
+            value: all.iter().map(|&(p, q)| p as f64 / q as f64).collect(),
+            num: all.iter().map(|&(p, _)| p).collect(),
+            den: all.iter().map(|&(_, q)| q).collect(),
+            start: (0..n as u32).collect(),
+            len: vec![1; n],
+            min_size: vec![0; n],
+            min_span: vec![0.0; n],
+        }
+    }
+
+    #[test]
+    fn the_table_keeps_exactly_the_last_pairs_that_can_fit_and_finds_every_window() {
+        let v = values();
+        for (lo, hi) in [(7.9, 8.1), (0.2, 0.21), (1.0, 1.0), (20.0, 30.0)] {
+            let table = PairTable::new(&v, lo, hi).expect("a small table fits");
+            assert_eq!(table.len(), PairTable::size(&v, lo, hi));
+            let (floor, ceiling) = PairTable::bounds(&v, lo, hi);
+            let mut wanted: Vec<(usize, usize)> = Vec::new();
+            for c in 0..v.count() {
+                for d in c..v.count() {
+                    let product = v.value[c] * v.value[d];
+                    if product >= floor && product <= ceiling {
+                        wanted.push((c, d));
+                    }
+                }
+            }
+            let mut kept: Vec<(usize, usize)> =
+                table.keys.iter().map(|&k| ((k >> 16) as u16 as usize, k as u16 as usize)).collect();
+            assert!(table.keys.windows(2).all(|w| w[0] < w[1]), "sorted, no repeats");
+            kept.sort_unstable();
+            assert_eq!(kept, wanted, "window {lo}..{hi}");
+            // Every look-up through the index agrees with a binary search of the whole table.
+            for step in 0..2000 {
+                let x = 0.01 * 1.005f64.powi(step);
+                let key = (((x * (1.0 - F32_MARGIN)) as f32).to_bits() as u64) << 32;
+                assert_eq!(table.first_from(x), table.keys.partition_point(|&k| k < key), "{x}");
+            }
+        }
+    }
+}
