@@ -237,8 +237,9 @@ fn meet_engine_matches_the_reference_on_four_stages() {
 /// and ceiling hi/least² both bind), tolerances from 0.1 ppm to 0.1%, error-first and other
 /// rankings, small and large limits, top-K and Pareto, trains and gear sets.
 fn four_stage_near_strategy() -> impl Strategy<Value = Problem> {
-    let target = ((6u64..40, 6u64..40), (6u64..40, 6u64..40), prop_oneof![Just(1u128), Just(10), 1u128..10_000])
-        .prop_map(|((a, b), (c, d), tol)| (a * b, c * d, tol));
+    let target =
+        ((6u64..40, 6u64..40), (6u64..40, 6u64..40), prop_oneof![Just(1u128), Just(10), 1u128..10_000])
+            .prop_map(|((a, b), (c, d), tol)| (a * b, c * d, tol));
     let rank = prop_oneof![
         3 => Just(DEFAULT_RANK.to_vec()),
         1 => Just(vec![RankKey::Size, RankKey::Error]),
