@@ -418,8 +418,8 @@ impl MeetRun<'_, '_> {
             let va = v[a];
             let from = a + v[a..].partition_point(|&x| va * x < below || va * x * vmax * vmax * widen < lo);
             let to = a + v[a..].partition_point(|&x| va * x < above && va * x * x * x <= hi * widen);
-            for b in from..to.max(from) {
-                firsts.push((((va * v[b]) as f32).to_bits() as u64) << 32 | (a as u64) << 16 | b as u64);
+            for (b, &vb) in v.iter().enumerate().take(to).skip(from) {
+                firsts.push((((va * vb) as f32).to_bits() as u64) << 32 | (a as u64) << 16 | b as u64);
             }
         }
         firsts.sort_unstable();
