@@ -59,6 +59,18 @@ fn benches(c: &mut Criterion) {
         // Burnside's repeat terms (the ignored test in tests/engines.rs).
         b.iter(|| assert_eq!(search(&exact, EngineChoice::Auto, &RunOptions::default()).count, 4_011_513_973))
     });
+
+    // A near target over four stages: the meet engine's table of last pairs and its slices of
+    // first pairs. The count is the one the earlier engine (a table of every pair) printed for
+    // the same search, with the same best 20.
+    let four = problem("29.530588", "1ppm", (12, 150), (4, 4));
+    g.bench_function("fast (meet) 4 stages 12..150 29.530588 1ppm", |b| {
+        b.iter(|| {
+            let out = search(&four, EngineChoice::Auto, &RunOptions::default());
+            assert_eq!(out.count, 397_803_297);
+            assert_eq!(out.trains.len(), 20);
+        })
+    });
     g.finish();
 }
 

@@ -230,6 +230,46 @@ fn meet_engine_matches_the_reference_on_four_stages() {
     }
 }
 
+/// Near targets over four stages of gears to be cut: the meet engine's problems, where it
+/// tables only the last pairs of values, cuts the first pairs into slices of their product,
+/// counts sequences surely inside the tolerance without the exact test and passes over those
+/// surely worse than one already refused. Targets above and below 1 (so the table's floor √lo
+/// and ceiling hi/least² both bind), tolerances from 0.1 ppm to 0.1%, error-first and other
+/// rankings, small and large limits, top-K and Pareto, trains and gear sets.
+fn four_stage_near_strategy() -> impl Strategy<Value = Problem> {
+    let target =
+        ((6u64..40, 6u64..40), (6u64..40, 6u64..40), prop_oneof![Just(1u128), Just(10), 1u128..10_000])
+            .prop_map(|((a, b), (c, d), tol)| (a * b, c * d, tol));
+    let rank = prop_oneof![
+        3 => Just(DEFAULT_RANK.to_vec()),
+        1 => Just(vec![RankKey::Size, RankKey::Error]),
+        1 => Just(vec![RankKey::Error, RankKey::Span]),
+    ];
+    (target, 6u32..24, 3u32..8, 3..5u32, rank, prop_oneof![Just(1usize), 0usize..40], any::<(bool, bool)>())
+        .prop_filter_map("a problem", |((n, d, tol), lo, w, least, rank, limit, (pareto, sets))| {
+            let tol = Ratio::new(tol, 10_000_000)?;
+            let target = Target::exact(format!("{n}/{d}"), Ratio::new(n as u128, d as u128)?, tol);
+            let pool = Pool::to_cut(IntRange { lo, hi: lo + w }, 1.0, 20.0, None).ok()?;
+            let stages = IntRange { lo: least, hi: 4 };
+            let mut p = Problem::new(target, pool, stages, StageLimits::default(), None, rank, limit).ok()?;
+            p.pareto = pareto;
+            p.gear_sets = sets;
+            Some(p)
+        })
+}
+
+proptest! {
+    #![proptest_config(ProptestConfig { cases: 150, ..ProptestConfig::default() })]
+
+    /// The meet engine's four stages give the exhaustive engine's count and listing.
+    #[test]
+    fn meet_engine_equals_exhaustive_on_four_stages(p in four_stage_near_strategy()) {
+        let fast = run(&p, EngineChoice::Auto);
+        let slow = run(&p, EngineChoice::Exhaustive);
+        prop_assert_eq!(fast, slow);
+    }
+}
+
 /// Exact targets over gears to be cut with only tooth-count limits per stage: the problems the
 /// factor engine takes. Targets are ratios of products of tooth counts from the range (so
 /// trains hit them), now and then 1, or with a prime no gear carries (so none does).

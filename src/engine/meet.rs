@@ -4,9 +4,13 @@
 //! its distinct ratios ("values"), each with the contiguous run of stages that make it. A train
 //! of `n ≤ 4` stages is then a non-decreasing sequence of values whose product lies in the
 //! window: single values for `n = 1`, a value and a binary-searched partner for `n = 2`, two
-//! values and a binary-searched third for `n = 3`, and for `n = 4` a pair of values against a
-//! table of all value pairs sorted by product, the window found by binary search. The canonical order (the last
-//! value of the left part is at most the first of the right part) keeps each sequence once.
+//! values and a binary-searched third for `n = 3`. For `n = 4` the first pair of values is
+//! looped over and the last pair looked up in a table sorted by product; since `a ≤ b ≤ c ≤ d`
+//! the last pair's product is at least √lo, so only those pairs are tabled (a tenth of all pairs
+//! for a target near 30, which is what keeps four stages of 150 or 200 tooth counts in memory),
+//! and the window of each first pair is found through an index of buckets of products. The
+//! canonical order (the last value of the first part at most the first of the second) keeps
+//! each sequence once.
 //!
 //! A sequence within tolerance stands for every choice of stages from its values; they all share
 //! the ratio, so they are counted at once by multiset combinations. They are only spelt out
@@ -22,19 +26,21 @@ use super::setcount::SetCounter;
 use super::space::SearchSpace;
 use super::tally::Tally;
 use crate::model::pool::MAX_STAGES;
-use crate::model::rank::Candidate;
+use crate::model::rank::{Candidate, RankKey};
 use crate::numbers::rational::RelError;
 
 /// Most memory the pair table may take, bytes; beyond it the sieve is used instead.
 pub const PAIR_TABLE_BUDGET_BYTES: usize = 1 << 30;
 
-/// Relative widening of the single-precision pair products, far above their rounding error.
-const F32_MARGIN: f64 = 1e-6;
+/// Relative widening of the single-precision pair products: the product and the bound it is
+/// compared with are each rounded to `f32` once (within 2⁻²⁴ ≈ 6·10⁻⁸), so this is about twice
+/// what the two roundings can cost together.
+const F32_MARGIN: f64 = 2.5e-7;
 
-/// Distinct ratios of the left side handled per unit of work for `n ≤ 3`.
+/// First values handled per unit of work for `n ≤ 3`.
 pub const VALUES_PER_UNIT: usize = 16;
-/// Pairs of the left side handled per unit of work for `n = 4`.
-pub const PAIRS_PER_UNIT: usize = 1 << 16;
+/// Units of work for `n = 4`: slices of the first pair's product, equal in its logarithm.
+pub const PRODUCT_SLICES: usize = 512;
 
 /// The distinct stage ratios of a search space.
 pub struct DistinctRatios {
@@ -100,62 +106,110 @@ impl DistinctRatios {
     }
 }
 
-/// A pair of values `a ≤ b` with its product in single precision.
-#[derive(Clone, Copy)]
-struct Pair {
-    product: f32,
-    a: u16,
-    b: u16,
-}
-
-/// All value pairs `a ≤ b`, sorted by product.
+/// The pairs of values `c ≤ d` that can end a four-stage train, sorted by product. The two
+/// values of a train's first pair are each at most those of its last pair, so the last pair's
+/// product is at least the first's and at least √lo; and at most hi over the least value
+/// squared. Only those pairs are kept (about a tenth of all pairs for a target near 30), each as
+/// one `u64`: the bits of the product in single precision (positive, so ordered as integers),
+/// then `c` and `d` as 16 bits each. Sorting the keys sorts by product, then `c`, then `d`.
 pub struct PairTable {
-    pairs: Vec<Pair>,
+    keys: Vec<u64>,
+    /// Where each bucket of keys starts (and, last, the number of keys): a key's bucket is its
+    /// product's bits above `least_bits`, shifted right by `shift`, so that a bucket holds two
+    /// keys on average and a window is found with one look-up instead of a binary search over
+    /// the whole table.
+    index: Vec<u32>,
+    least_bits: u32,
+    shift: u32,
 }
 
 impl PairTable {
-    /// Would the table for `d` distinct values fit the memory budget?
-    pub fn fits(d: usize) -> bool {
-        let n = d * (d + 1) / 2;
-        d <= u16::MAX as usize && n.saturating_mul(std::mem::size_of::<Pair>()) <= PAIR_TABLE_BUDGET_BYTES
+    /// The products a last pair may have for the window `[lo, hi]`, widened for the rounding
+    /// to single precision.
+    fn bounds(values: &DistinctRatios, lo: f64, hi: f64) -> (f64, f64) {
+        let least = values.value.first().copied().unwrap_or(1.0);
+        (lo.sqrt() * (1.0 - F32_MARGIN), hi / (least * least) * (1.0 + F32_MARGIN))
     }
 
-    /// Build the table, or `None` when it would exceed the memory budget.
-    pub fn new(values: &DistinctRatios) -> Option<PairTable> {
-        let d = values.count();
-        if !PairTable::fits(d) {
+    /// The last value `d ≥ c` of each pair `(c, d)` the table keeps, as a range of value ids.
+    fn partners(values: &DistinctRatios, c: usize, floor: f64, ceiling: f64) -> std::ops::Range<usize> {
+        let v = &values.value;
+        let from = c + v[c..].partition_point(|&x| v[c] * x < floor);
+        from..from.max(c + v[c..].partition_point(|&x| v[c] * x <= ceiling))
+    }
+
+    /// The number of pairs the table for the window `[lo, hi]` would hold.
+    pub fn size(values: &DistinctRatios, lo: f64, hi: f64) -> usize {
+        let (floor, ceiling) = PairTable::bounds(values, lo, hi);
+        (0..values.count()).map(|c| PairTable::partners(values, c, floor, ceiling).len()).sum()
+    }
+
+    /// Would the table for the window `[lo, hi]` fit the memory budget?
+    pub fn fits(values: &DistinctRatios, lo: f64, hi: f64) -> bool {
+        values.count() <= 1 << 16
+            && PairTable::size(values, lo, hi).saturating_mul(std::mem::size_of::<u64>())
+                <= PAIR_TABLE_BUDGET_BYTES
+    }
+
+    /// Build the table for the window `[lo, hi]`, or `None` when it would exceed the budget.
+    pub fn new(values: &DistinctRatios, lo: f64, hi: f64) -> Option<PairTable> {
+        if !PairTable::fits(values, lo, hi) {
             return None;
         }
-        let mut pairs: Vec<Pair> = (0..d)
-            .into_par_iter()
-            .flat_map_iter(|a| {
-                let va = values.value[a];
-                (a..d).map(move |b| Pair { product: (va * values.value[b]) as f32, a: a as u16, b: b as u16 })
-            })
-            .collect();
-        pairs.par_sort_unstable_by(|x, y| {
-            x.product.total_cmp(&y.product).then(x.a.cmp(&y.a)).then(x.b.cmp(&y.b))
-        });
-        Some(PairTable { pairs })
+        let (floor, ceiling) = PairTable::bounds(values, lo, hi);
+        let v = &values.value;
+        let mut keys = Vec::with_capacity(PairTable::size(values, lo, hi));
+        for c in 0..values.count() {
+            for d in PairTable::partners(values, c, floor, ceiling) {
+                let product = (v[c] * v[d]) as f32;
+                keys.push((product.to_bits() as u64) << 32 | (c as u64) << 16 | d as u64);
+            }
+        }
+        keys.par_sort_unstable();
+        let product_bits = |k: u64| (k >> 32) as u32;
+        let least_bits = keys.first().map_or(0, |&k| product_bits(k));
+        let spread = keys.last().map_or(0, |&k| product_bits(k) - least_bits);
+        let mut shift = 0;
+        while shift < 31 && (spread >> shift) as usize > keys.len() / 2 {
+            shift += 1;
+        }
+        let mut index = vec![0u32; (spread >> shift) as usize + 2];
+        for &k in &keys {
+            index[((product_bits(k) - least_bits) >> shift) as usize + 1] += 1;
+        }
+        for b in 1..index.len() {
+            index[b] += index[b - 1];
+        }
+        Some(PairTable { keys, index, least_bits, shift })
     }
 
     /// Number of pairs.
     pub fn len(&self) -> usize {
-        self.pairs.len()
+        self.keys.len()
     }
 
     /// True when empty.
     pub fn is_empty(&self) -> bool {
-        self.pairs.is_empty()
+        self.keys.is_empty()
     }
 
-    /// Index range of pairs whose product may lie in `[lo, hi]`.
-    fn window(&self, lo: f64, hi: f64) -> std::ops::Range<usize> {
-        let lo32 = (lo * (1.0 - F32_MARGIN)) as f32;
-        let hi32 = (hi * (1.0 + F32_MARGIN)) as f32;
-        let from = self.pairs.partition_point(|p| p.product < lo32);
-        let to = from + self.pairs[from..].partition_point(|p| p.product <= hi32);
-        from..to
+    /// The first key of a product at least `lo` (widened): its bucket from the index, then a
+    /// binary search inside the bucket.
+    fn first_from(&self, lo: f64) -> usize {
+        let bits = ((lo * (1.0 - F32_MARGIN)) as f32).to_bits();
+        let Some(past) = bits.checked_sub(self.least_bits) else { return 0 };
+        let bucket = (past >> self.shift) as usize;
+        if bucket + 1 >= self.index.len() {
+            return self.keys.len();
+        }
+        let (from, to) = (self.index[bucket] as usize, self.index[bucket + 1] as usize);
+        let key = (bits as u64) << 32;
+        from + self.keys[from..to].partition_point(|&k| k < key)
+    }
+
+    /// The largest key of a product at most `hi` (widened).
+    fn last_key(hi: f64) -> u64 {
+        (((hi * (1.0 + F32_MARGIN)) as f32).to_bits() as u64) << 32 | 0xFFFF_FFFF
     }
 }
 
@@ -174,7 +228,7 @@ impl BulkEngine for Meet {
             return None;
         }
         let ratios = DistinctRatios::new(space);
-        counts.retain(|&n| n <= 3 || PairTable::fits(ratios.count()));
+        counts.retain(|&n| n <= 3 || PairTable::fits(&ratios, space.lo, space.hi));
         let sets = if space.problem.gear_sets { SetCounter::new(space) } else { None };
         (!counts.is_empty())
             .then(|| Box::new(MeetPlan { counts, ratios, pairs: None, sets }) as Box<dyn BulkPlan>)
@@ -192,35 +246,30 @@ struct MeetPlan {
     sets: Option<SetCounter>,
 }
 
-impl MeetPlan {
-    /// Left-side entries for `n` stages (values for `n ≤ 3`, pairs for `n = 4`), and how many
-    /// a unit takes.
-    fn left_side(&self, n: usize) -> (usize, usize) {
-        if n == 4 {
-            (self.pairs.as_ref().map_or(0, PairTable::len), PAIRS_PER_UNIT)
-        } else {
-            (self.ratios.count(), VALUES_PER_UNIT)
-        }
-    }
-}
-
 impl BulkPlan for MeetPlan {
     fn stage_counts(&self) -> &[usize] {
         &self.counts
     }
 
-    fn cut(&mut self, _space: &SearchSpace, n: usize) -> usize {
+    fn cut(&mut self, space: &SearchSpace, n: usize) -> usize {
         if n == 4 && self.pairs.is_none() {
-            self.pairs = PairTable::new(&self.ratios);
+            self.pairs = PairTable::new(&self.ratios, space.lo, space.hi);
         }
-        let (len, step) = self.left_side(n);
-        len.div_ceil(step)
+        if n == 4 {
+            PRODUCT_SLICES
+        } else {
+            self.ratios.count().div_ceil(VALUES_PER_UNIT)
+        }
     }
 
     fn run(&self, space: &SearchSpace, n: usize, unit: usize, tally: &mut Tally, tick: &(dyn Fn() + Sync)) {
-        let (len, step) = self.left_side(n);
-        let run = MeetRun { space, ratios: &self.ratios, pairs: self.pairs.as_ref() };
-        run.left_entries(n, unit * step, ((unit + 1) * step).min(len), tally);
+        let run = MeetRun::new(space, &self.ratios, self.pairs.as_ref());
+        if n == 4 {
+            run.first_pairs(unit, tally);
+        } else {
+            let (len, step) = (self.ratios.count(), VALUES_PER_UNIT);
+            run.first_values(n, unit * step, ((unit + 1) * step).min(len), tally);
+        }
         // The gear sets of n stages are counted whole by the first unit (so once in a split
         // search); without a counter they are not counted at all.
         match &self.sets {
@@ -240,26 +289,61 @@ fn choose(n: u64, k: u64) -> u64 {
     (0..k).fold(1u64, |acc, i| acc * (n - i) / (i + 1))
 }
 
+/// How far a float can stray from the exact figure it stands for, relative: far above the
+/// rounding of a product of six values (about 10⁻¹⁵), far below any tolerance worth asking.
+const EXACT_MARGIN: f64 = 1e-9;
+
 /// Everything a unit needs.
 struct MeetRun<'a, 's> {
     space: &'a SearchSpace<'s>,
     ratios: &'a DistinctRatios,
     /// Needed for `n = 4`.
     pairs: Option<&'a PairTable>,
+    /// The target ratio in floating point.
+    ratio: f64,
+    /// Products strictly inside this window are within tolerance without the exact test.
+    surely_within: (f64, f64),
+    /// True when the listing is a top-K ranked by error first: then a sequence whose error is
+    /// surely larger than that of one the tally already refused cannot be listed either (the
+    /// tally's bound only tightens), and is counted without being judged.
+    error_first: bool,
+    /// The least float |error| of a sequence the tally refused (infinite before any).
+    refused_from: std::cell::Cell<f64>,
+}
+
+impl<'a, 's> MeetRun<'a, 's> {
+    fn new(space: &'a SearchSpace<'s>, ratios: &'a DistinctRatios, pairs: Option<&'a PairTable>) -> Self {
+        let p = space.problem;
+        let (ratio, tolerance) = (p.target.ratio.to_f64(), p.target.tolerance.to_f64());
+        let surely_within = (
+            ratio * (1.0 - tolerance) * (1.0 + EXACT_MARGIN),
+            ratio * (1.0 + tolerance) * (1.0 - EXACT_MARGIN),
+        );
+        let error_first = !p.pareto && p.rank.first() == Some(&RankKey::Error);
+        MeetRun {
+            space,
+            ratios,
+            pairs,
+            ratio,
+            surely_within,
+            error_first,
+            refused_from: std::cell::Cell::new(f64::INFINITY),
+        }
+    }
 }
 
 impl MeetRun<'_, '_> {
-    /// Every value sequence of `n` stages whose left side is one of the entries `from..to`.
+    /// Every value sequence of `n` stages whose first value is one of `from..to`.
     // The loop variables are value ids that go into the sequence, not just positions in `v`.
     #[allow(clippy::needless_range_loop)]
-    fn left_entries(&self, n: usize, from: usize, to: usize, tally: &mut Tally) {
+    fn first_values(&self, n: usize, from: usize, to: usize, tally: &mut Tally) {
         let v = &self.ratios.value;
         let (lo, hi) = (self.space.lo, self.space.hi);
         match n {
             1 => {
                 for a in from..to {
                     if (lo..=hi).contains(&v[a]) {
-                        self.accept(&[a], tally);
+                        self.accept(&[a], v[a], tally);
                     }
                 }
             }
@@ -273,7 +357,7 @@ impl MeetRun<'_, '_> {
                         if v[a] * v[b] > hi {
                             break;
                         }
-                        self.accept(&[a, b], tally);
+                        self.accept(&[a, b], v[a] * v[b], tally);
                     }
                 }
             }
@@ -296,45 +380,88 @@ impl MeetRun<'_, '_> {
                             if ab * v[c] > hi {
                                 break;
                             }
-                            self.accept(&[a, b, c], tally);
+                            self.accept(&[a, b, c], ab * v[c], tally);
                         }
                     }
                 }
             }
-            4 => {
-                let Some(pairs) = self.pairs else { return };
-                let root = hi.sqrt() * (1.0 + F32_MARGIN);
-                for left in &pairs.pairs[from..to] {
-                    let (a, b) = (left.a as usize, left.b as usize);
-                    let pl = v[a] * v[b];
-                    if pl > root {
-                        break;
-                    }
-                    for p in &pairs.pairs[pairs.window(lo / pl, hi / pl)] {
-                        let (c, d) = (p.a as usize, p.b as usize);
-                        if c >= b && (lo..=hi).contains(&(pl * v[c] * v[d])) {
-                            self.accept(&[a, b, c, d], tally);
-                        }
-                    }
-                }
-            }
-            _ => unreachable!("the meet engine takes 1 to 4 stages"),
+            _ => unreachable!("the meet engine takes 1 to 3 stages by first value"),
         }
     }
 
-    /// A value sequence inside the float window: decide it exactly, count its trains, and spell
-    /// them out if the best could be listed.
-    fn accept(&self, seq: &[usize], tally: &mut Tally) {
-        let vals = self.ratios;
-        let (mut p, mut q) = (1u64, 1u64);
-        for &x in seq {
-            p *= vals.num[x];
-            q *= vals.den[x];
+    /// Every four-stage value sequence whose first pair's product lies in slice `slice`. The
+    /// first pairs `a ≤ b` of the slice (pruned by the order `a ≤ b ≤ c ≤ d`: `a·b³ ≤ hi`) are
+    /// listed and sorted by product, so that their windows in the table of last pairs come in
+    /// order and each look-up finds the table's memory warm from the one before; the window is
+    /// found through the table's index and scanned while its products can still fit.
+    fn first_pairs(&self, slice: usize, tally: &mut Tally) {
+        let Some(pairs) = self.pairs else { return };
+        let v = &self.ratios.value;
+        let (lo, hi) = (self.space.lo, self.space.hi);
+        let (Some(&least), Some(&vmax)) = (v.first(), v.last()) else { return };
+        let widen = 1.0 + F32_MARGIN;
+        // The slices cut [least², √hi] (every first pair's product: a·b ≤ √(a·b³) ≤ √hi)
+        // evenly in the logarithm; the first and last reach out to 0 and infinity, so each
+        // pair falls in exactly one slice whatever the rounding.
+        let (from_product, to_product) = (least * least, (hi * widen).sqrt().max(least * least));
+        let bound = |k: usize| match k {
+            0 => 0.0,
+            k if k >= PRODUCT_SLICES => f64::INFINITY,
+            k => from_product * (to_product / from_product).powf(k as f64 / PRODUCT_SLICES as f64),
+        };
+        let (below, above) = (bound(slice), bound(slice + 1));
+        let mut firsts: Vec<u64> = Vec::new();
+        for a in 0..v.len() {
+            if v[a].powi(4) > hi * widen || v[a] * v[a] >= above {
+                break;
+            }
+            let va = v[a];
+            let from = a + v[a..].partition_point(|&x| va * x < below || va * x * vmax * vmax * widen < lo);
+            let to = a + v[a..].partition_point(|&x| va * x < above && va * x * x * x <= hi * widen);
+            for (b, &vb) in v.iter().enumerate().take(to).skip(from) {
+                firsts.push((((va * vb) as f32).to_bits() as u64) << 32 | (a as u64) << 16 | b as u64);
+            }
         }
-        let target = &self.space.problem.target;
-        let error = RelError::of(p, q, target.ratio);
-        if !error.within(target.tolerance) {
-            return;
+        firsts.sort_unstable();
+        for key in firsts {
+            let (a, b) = ((key >> 16) as u16 as usize, key as u16 as usize);
+            let pl = v[a] * v[b];
+            let last = PairTable::last_key(hi / pl);
+            for &key in &pairs.keys[pairs.first_from(lo / pl)..] {
+                if key > last {
+                    break;
+                }
+                let (c, d) = ((key >> 16) as u16 as usize, key as u16 as usize);
+                let product = pl * v[c] * v[d];
+                if c >= b && (lo..=hi).contains(&product) {
+                    self.accept(&[a, b, c, d], product, tally);
+                }
+            }
+        }
+    }
+
+    /// A value sequence inside the float window (`product` its values' product in floating
+    /// point): decide it exactly, count its trains, and spell them out if the best could be
+    /// listed. The exact test is skipped only where the float is surely inside the tolerance,
+    /// and the listing's test only where the error surely exceeds one already refused.
+    fn accept(&self, seq: &[usize], product: f64, tally: &mut Tally) {
+        let vals = self.ratios;
+        let exact = || {
+            let (mut p, mut q) = (1u64, 1u64);
+            for &x in seq {
+                p *= vals.num[x];
+                q *= vals.den[x];
+            }
+            RelError::of(p, q, self.space.problem.target.ratio)
+        };
+        let (inner_lo, inner_hi) = self.surely_within;
+        let mut error = None;
+        if !(product > inner_lo && product < inner_hi) {
+            let e = exact();
+            if !e.within(self.space.problem.target.tolerance) {
+                return;
+            }
+            error = Some(e);
         }
         // Runs of equal values: (value, uses).
         let mut runs: [(usize, u32); MAX_STAGES] = [(0, 0); MAX_STAGES];
@@ -351,15 +478,22 @@ impl MeetRun<'_, '_> {
         let count: u64 =
             runs.iter().map(|&(x, k)| choose(vals.len[x] as u64 + k as u64 - 1, k as u64)).product();
         tally.add_count(count);
+        let float_error = (product - self.ratio).abs() / self.ratio;
+        if self.error_first && float_error > self.refused_from.get() + EXACT_MARGIN * 1e-3 {
+            return;
+        }
         let best = Candidate {
             stages: [0; MAX_STAGES],
             len: seq.len() as u8,
-            error,
+            error: error.unwrap_or_else(exact),
             size: runs.iter().map(|&(x, k)| k * vals.min_size[x]).sum(),
             span_mm: runs.iter().map(|&(x, _)| vals.min_span[x]).fold(0.0, f64::max),
             extra: 0.0,
         };
         if !tally.could_accept(&best) {
+            if self.error_first {
+                self.refused_from.set(self.refused_from.get().min(float_error));
+            }
             return;
         }
         let mut idx = [0u32; MAX_STAGES];
@@ -421,4 +555,64 @@ pub fn applies(space: &SearchSpace, n: usize) -> bool {
         && p.extra_key.is_none()
         && p.pool.groups.len() == 1
         && !space.needs_coaxial_fit()
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    /// Ratios a/b of 12..40 teeth, folded into distinct values by hand.
+    fn values() -> DistinctRatios {
+        let mut all: Vec<(u64, u64)> = Vec::new();
+        for p in 12..=40u64 {
+            for q in 12..=40u64 {
+                let g = crate::numbers::rational::gcd(p as u128, q as u128) as u64;
+                if p != q {
+                    all.push((p / g, q / g));
+                }
+            }
+        }
+        all.sort_by(|x, y| (x.0 * y.1).cmp(&(y.0 * x.1)));
+        all.dedup();
+        let n = all.len();
+        DistinctRatios {
+            value: all.iter().map(|&(p, q)| p as f64 / q as f64).collect(),
+            num: all.iter().map(|&(p, _)| p).collect(),
+            den: all.iter().map(|&(_, q)| q).collect(),
+            start: (0..n as u32).collect(),
+            len: vec![1; n],
+            min_size: vec![0; n],
+            min_span: vec![0.0; n],
+        }
+    }
+
+    #[test]
+    fn the_table_keeps_exactly_the_last_pairs_that_can_fit_and_finds_every_window() {
+        let v = values();
+        for (lo, hi) in [(7.9, 8.1), (0.2, 0.21), (1.0, 1.0), (20.0, 30.0)] {
+            let table = PairTable::new(&v, lo, hi).expect("a small table fits");
+            assert_eq!(table.len(), PairTable::size(&v, lo, hi));
+            let (floor, ceiling) = PairTable::bounds(&v, lo, hi);
+            let mut wanted: Vec<(usize, usize)> = Vec::new();
+            for c in 0..v.count() {
+                for d in c..v.count() {
+                    let product = v.value[c] * v.value[d];
+                    if product >= floor && product <= ceiling {
+                        wanted.push((c, d));
+                    }
+                }
+            }
+            let mut kept: Vec<(usize, usize)> =
+                table.keys.iter().map(|&k| ((k >> 16) as u16 as usize, k as u16 as usize)).collect();
+            assert!(table.keys.windows(2).all(|w| w[0] < w[1]), "sorted, no repeats");
+            kept.sort_unstable();
+            assert_eq!(kept, wanted, "window {lo}..{hi}");
+            // Every look-up through the index agrees with a binary search of the whole table.
+            for step in 0..2000 {
+                let x = 0.01 * 1.005f64.powi(step);
+                let key = (((x * (1.0 - F32_MARGIN)) as f32).to_bits() as u64) << 32;
+                assert_eq!(table.first_from(x), table.keys.partition_point(|&k| k < key), "{x}");
+            }
+        }
+    }
 }
