@@ -29,8 +29,10 @@ fn path(parts: &[&str]) -> PathBuf {
 fn demo_lathe(catalogue: Option<&str>, tolerance: Ratio) -> Lathe {
     let file = load_lathe(&path(&["catalogs", "lathe", "brackenfold.lathe"])).unwrap();
     let stock = match catalogue {
-        Some(c) => load(&path(&["catalogs", c]), CatalogueDefaults { module_mm: None, pressure_angle_deg: 20.0 })
-            .unwrap(),
+        Some(c) => {
+            load(&path(&["catalogs", c]), CatalogueDefaults { module_mm: None, pressure_angle_deg: 20.0 })
+                .unwrap()
+        }
         None => file.stock(None, None).unwrap().unwrap(),
     };
     let pool = Pool::from_stock(&stock, "bench").unwrap();
@@ -54,7 +56,8 @@ fn demo_lathe(catalogue: Option<&str>, tolerance: Ratio) -> Lathe {
 
 fn bench(c: &mut Criterion) {
     let series = built_in("iso-coarse").unwrap();
-    let purchase = Purchase { most: 2, teeth: IntRange { lo: 20, hi: 127 }, module_mm: 1.5, pressure_angle_deg: 20.0 };
+    let purchase =
+        Purchase { most: 2, teeth: IntRange { lo: 20, hi: 127 }, module_mm: 1.5, pressure_angle_deg: 20.0 };
     let mut group = c.benchmark_group("chart_buy");
     group.sample_size(10);
 

@@ -39,7 +39,10 @@ fn lathe(on_hand: &[(u32, u32)], extra: &[u32], shop: &Shop) -> Lathe {
         gearbox: shop
             .gearbox
             .iter()
-            .map(|&(name, n, d)| GearboxPosition { name: name.into(), ratio: Ratio::from_parts(n, d).unwrap() })
+            .map(|&(name, n, d)| GearboxPosition {
+                name: name.into(),
+                ratio: Ratio::from_parts(n, d).unwrap(),
+            })
             .collect(),
     };
     Lathe::new(machine, pool, shop.banjo.clone(), shop.stages, shop.tolerance, 1).unwrap()
@@ -84,9 +87,15 @@ fn baskets(teeth: IntRange, most: usize) -> Vec<Vec<u32>> {
 
 /// Brute force: every basket's gains by the plain chart; a choice is listed when every gear in
 /// it adds a thread; ranked by gains, then fewest gears, then teeth.
-fn brute_force(on_hand: &[(u32, u32)], teeth: IntRange, most: usize, shop: &Shop) -> (Vec<usize>, Vec<(Vec<u32>, Vec<usize>)>) {
+fn brute_force(
+    on_hand: &[(u32, u32)],
+    teeth: IntRange,
+    most: usize,
+    shop: &Shop,
+) -> (Vec<usize>, Vec<(Vec<u32>, Vec<usize>)>) {
     let base = reached(on_hand, &[], shop);
-    let gains = |b: &[u32]| -> BTreeSet<usize> { reached(on_hand, b, shop).difference(&base).copied().collect() };
+    let gains =
+        |b: &[u32]| -> BTreeSet<usize> { reached(on_hand, b, shop).difference(&base).copied().collect() };
     let all = baskets(teeth, most);
     let mut choices = Vec::new();
     for b in &all {
@@ -109,7 +118,8 @@ fn brute_force(on_hand: &[(u32, u32)], teeth: IntRange, most: usize, shop: &Shop
 
 fn fast(on_hand: &[(u32, u32)], teeth: IntRange, most: usize, shop: &Shop) -> BuyChart {
     let purchase = Purchase { most, teeth, module_mm: MODULE, pressure_angle_deg: 20.0 };
-    buy_chart(&lathe(on_hand, &[], shop), &shop.series, &purchase, usize::MAX, &RunOptions::default()).unwrap()
+    buy_chart(&lathe(on_hand, &[], shop), &shop.series, &purchase, usize::MAX, &RunOptions::default())
+        .unwrap()
 }
 
 fn check(on_hand: &[(u32, u32)], teeth: IntRange, most: usize, shop: &Shop) -> BuyChart {
@@ -190,8 +200,19 @@ proptest! {
 #[test]
 fn chart_buy_1_names_the_127_for_metric_threads_from_an_inch_leadscrew() {
     let args = [
-        "chart", "--leadscrew", "8tpi", "--stock", "catalogs/lathe-change-gears-no127.csv", "--banjo",
-        "catalogs/lathe/brackenfold.banjo", "--series", "iso-coarse", "--tol", "0", "--buy", "1",
+        "chart",
+        "--leadscrew",
+        "8tpi",
+        "--stock",
+        "catalogs/lathe-change-gears-no127.csv",
+        "--banjo",
+        "catalogs/lathe/brackenfold.banjo",
+        "--series",
+        "iso-coarse",
+        "--tol",
+        "0",
+        "--buy",
+        "1",
     ];
     let (code, v) = json(&args);
     assert_eq!(code, 0);
@@ -221,7 +242,15 @@ fn chart_buy_refuses_what_it_cannot_do() {
         assert!(r.stderr.contains(flag), "{a:?}: {}", r.stderr);
         assert_flags_named_once(&r.stderr);
     }
-    let r = gearsieve(&["chart", "--lathe", "catalogs/lathe/brackenfold.lathe", "--series", "iso-coarse", "--buy-teeth", "20..30"]);
+    let r = gearsieve(&[
+        "chart",
+        "--lathe",
+        "catalogs/lathe/brackenfold.lathe",
+        "--series",
+        "iso-coarse",
+        "--buy-teeth",
+        "20..30",
+    ]);
     assert_ne!(r.code, 0);
     assert!(r.stderr.contains("--buy"), "{}", r.stderr);
 }

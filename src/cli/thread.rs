@@ -409,14 +409,20 @@ impl Job for BuyJob {
 
     fn words(&self, found: &BuyChart) -> Words {
         let first = if found.rows.iter().all(|r| r.on_hand) {
-            format!("every thread of {} is cut within the tolerance from the gears on hand; nothing to buy.", self.name)
+            format!(
+                "every thread of {} is cut within the tolerance from the gears on hand; nothing to buy.",
+                self.name
+            )
         } else {
             format!(
                 "no choice of up to {} gears of {} teeth makes another thread of {} cuttable.",
                 self.purchase.most, self.purchase.teeth, self.name
             )
         };
-        Words { interrupted: Some("the choices above weigh only the threads done".into()), nothing: Some(first) }
+        Words {
+            interrupted: Some("the choices above weigh only the threads done".into()),
+            nothing: Some(first),
+        }
     }
 
     fn shows_progress(&self) -> bool {
@@ -436,7 +442,9 @@ fn purchase(args: &ChartArgs, most: usize, lathe: &Lathe) -> anyhow::Result<Purc
         if teeth.hi > largest {
             return Err(refuse(
                 "--buy-teeth",
-                format!("the guard closes over gears of at most {largest} teeth; give a range up to {largest}"),
+                format!(
+                    "the guard closes over gears of at most {largest} teeth; give a range up to {largest}"
+                ),
             ));
         }
     }
@@ -459,7 +467,8 @@ fn purchase(args: &ChartArgs, most: usize, lathe: &Lathe) -> anyhow::Result<Purc
     let on_hand = lathe.pool.groups.iter().find(|g| (g.module_mm - module_mm).abs() <= 1e-9 * module_mm);
     let pressure_angle_deg =
         args.lathe.pressure_angle.or(on_hand.map(|g| g.pressure_angle_deg)).unwrap_or(20.0);
-    check_pressure_angle(pressure_angle_deg, &|e| Error::problem(e)).map_err(|e| refuse("--pressure-angle", e))?;
+    check_pressure_angle(pressure_angle_deg, &|e| Error::problem(e))
+        .map_err(|e| refuse("--pressure-angle", e))?;
     Ok(Purchase { most, teeth, module_mm, pressure_angle_deg })
 }
 
@@ -470,7 +479,12 @@ pub fn run_chart(args: ChartArgs) -> anyhow::Result<i32> {
             None => 10,
             Some(t) => match t.trim().parse::<usize>() {
                 Ok(k) if k > 0 => k,
-                _ => return Err(refuse("--limit", format!("give how many choices to list, at least 1; found \"{t}\""))),
+                _ => {
+                    return Err(refuse(
+                        "--limit",
+                        format!("give how many choices to list, at least 1; found \"{t}\""),
+                    ))
+                }
             },
         };
         let lathe = lathe(&args.lathe, 1)?;

@@ -206,18 +206,20 @@ struct Shop<'a> {
 impl<'a> Shop<'a> {
     fn new(lathe: &'a Lathe, purchase: &Purchase) -> Shop<'a> {
         let mut groups = lathe.pool.groups.clone();
-        let offer_group =
-            match groups.iter().position(|g| g.meshes_with(purchase.module_mm, purchase.pressure_angle_deg)) {
-                Some(i) => i,
-                None => {
-                    groups.push(MeshGroup {
-                        module_mm: purchase.module_mm,
-                        pressure_angle_deg: purchase.pressure_angle_deg,
-                        diametral_pitch: None,
-                    });
-                    groups.len() - 1
-                }
-            };
+        let offer_group = match groups
+            .iter()
+            .position(|g| g.meshes_with(purchase.module_mm, purchase.pressure_angle_deg))
+        {
+            Some(i) => i,
+            None => {
+                groups.push(MeshGroup {
+                    module_mm: purchase.module_mm,
+                    pressure_angle_deg: purchase.pressure_angle_deg,
+                    diametral_pitch: None,
+                });
+                groups.len() - 1
+            }
+        };
         let mut on_hand: HashMap<(usize, u32), u32> = HashMap::new();
         for g in &lathe.pool.gears {
             // Gears to cut (no quantity) are as many as wanted: never bought.
@@ -247,7 +249,9 @@ impl<'a> Shop<'a> {
                 }
             }
         }
-        pairs.sort_by(|p, q| p.ratio.total_cmp(&q.ratio).then((p.driver, p.driven).cmp(&(q.driver, q.driven))));
+        pairs.sort_by(|p, q| {
+            p.ratio.total_cmp(&q.ratio).then((p.driver, p.driven).cmp(&(q.driver, q.driven)))
+        });
         shop.pairs = pairs;
         shop
     }
@@ -532,7 +536,11 @@ fn best_choices(rows: &[BuyRow], most: usize, limit: usize) -> (Vec<BuyChoice>, 
     });
     let total = choices.len();
     choices.sort_by(|a, b| {
-        b.gains.len().cmp(&a.gains.len()).then(a.basket.len().cmp(&b.basket.len())).then(a.basket.cmp(&b.basket))
+        b.gains
+            .len()
+            .cmp(&a.gains.len())
+            .then(a.basket.len().cmp(&b.basket.len()))
+            .then(a.basket.cmp(&b.basket))
     });
     choices.truncate(limit);
     (choices, total)
