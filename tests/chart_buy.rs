@@ -85,6 +85,9 @@ fn baskets(teeth: IntRange, most: usize) -> Vec<Vec<u32>> {
     out
 }
 
+/// A choice: the teeth to buy and the rows it gains.
+type Choice = (Vec<u32>, Vec<usize>);
+
 /// Brute force: every basket's gains by the plain chart; a choice is listed when every gear in
 /// it adds a thread; ranked by gains, then fewest gears, then teeth.
 fn brute_force(
@@ -92,7 +95,7 @@ fn brute_force(
     teeth: IntRange,
     most: usize,
     shop: &Shop,
-) -> (Vec<usize>, Vec<(Vec<u32>, Vec<usize>)>) {
+) -> (Vec<usize>, Vec<Choice>) {
     let base = reached(on_hand, &[], shop);
     let gains =
         |b: &[u32]| -> BTreeSet<usize> { reached(on_hand, b, shop).difference(&base).copied().collect() };
@@ -127,7 +130,7 @@ fn check(on_hand: &[(u32, u32)], teeth: IntRange, most: usize, shop: &Shop) -> B
     let got = fast(on_hand, teeth, most, shop);
     let on: Vec<usize> = got.rows.iter().enumerate().filter(|(_, r)| r.on_hand).map(|(k, _)| k).collect();
     assert_eq!(on, base, "threads cut from the gears on hand");
-    let listed: Vec<(Vec<u32>, Vec<usize>)> =
+    let listed: Vec<Choice> =
         got.choices.iter().map(|c| (c.basket.teeth().to_vec(), c.gains.clone())).collect();
     assert_eq!(listed, expected, "choices and their gains");
     assert_eq!(got.choice_count, expected.len());

@@ -302,9 +302,10 @@ impl<'a> Shop<'a> {
             self.ratio(stages).is_some_and(|r| pitch_error(r, need).within(self.lathe.tolerance))
         };
         let from = |x: f64| self.pairs.partition_point(|p| p.ratio < x);
+        let upto = |x: f64| self.pairs.partition_point(|p| p.ratio <= x);
         let stages = self.lathe.stages;
         if stages.contains(1) {
-            for p in &self.pairs[from(lo)..from(hi.next_up())] {
+            for p in &self.pairs[from(lo)..upto(hi)] {
                 let s = [(p.driver, p.driven), (0, 0)];
                 if within(&s[..1]) {
                     if let Some(basket) = self.basket(&[p.driver, p.driven]) {
@@ -315,7 +316,7 @@ impl<'a> Shop<'a> {
         }
         if stages.contains(2) {
             for (i, p) in self.pairs.iter().enumerate() {
-                let (a, b) = (from(lo / p.ratio).max(i), from((hi / p.ratio).next_up()));
+                let (a, b) = (from(lo / p.ratio).max(i), upto(hi / p.ratio));
                 for q in self.pairs.get(a..b).unwrap_or(&[]) {
                     let s = [(p.driver, p.driven), (q.driver, q.driven)];
                     let Some(basket) = self.basket(&[p.driver, p.driven, q.driver, q.driven]) else {
