@@ -46,3 +46,21 @@ for hi in 150 200 300 400; do
     run_case "scaling, exact 127/120: teeth 12..$hi, 4 stages" --ratio 127/120 --teeth 12..$hi --stages 4 --long
 done
 run_case "scaling, exact 127/120: teeth 12..160, 5 stages" --ratio 127/120 --teeth 12..160 --stages 5 --long
+
+# `chart --buy`: the time of the whole command; the count is the choices that gain a thread.
+run_chart_case() {
+    local label=$1; shift
+    local times=() rss=0 count=""
+    for _ in $(seq "$REPEAT"); do
+        local out
+        out=$( { /usr/bin/time -f "TIME %e %M" "$BIN" chart --quiet --format json "$@" > /tmp/gearsieve-figures.json; } 2>&1 | grep '^TIME' || true)
+        times+=("$(echo "$out" | awk '{print $2}')")
+        local m; m=$(echo "$out" | awk '{print $3}')
+        (( m > rss )) && rss=$m
+        count=$(python3 -c 'import json;print(json.load(open("/tmp/gearsieve-figures.json"))["choice_count"])')
+    done
+    local median; median=$(printf '%s\n' "${times[@]}" | sort -g | awk '{a[NR]=$1} END {print a[int((NR+1)/2)]}')
+    printf '| %s | `%s` | %s s | %d MiB | %s |\n' "$label" "$*" "$median" $(( rss / 1024 )) "$count"
+}
+run_chart_case "chart --buy 2, metric coarse, demo lathe" --lathe catalogs/lathe/brackenfold.lathe --series iso-coarse --buy 2
+run_chart_case "chart --buy 2, metric coarse, demo lathe without its 127, exact" --lathe catalogs/lathe/brackenfold.lathe --stock catalogs/lathe-change-gears-no127.csv --series iso-coarse --tol 0 --buy 2

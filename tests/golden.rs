@@ -157,6 +157,10 @@ const CASES: &[(&str, &[&str])] = &[
         ],
     ),
     (
+        "chart-buy",
+        &["chart", "--lathe", "catalogs/lathe/quillsby.lathe", "--series", "unc", "--tol", "0", "--buy", "2"],
+    ),
+    (
         "clock-going",
         &[
             "clock",

@@ -7,15 +7,16 @@ use std::path::PathBuf;
 
 use clap::{ArgGroup, Args};
 use gearsieve::model::catalog::CatalogueDefaults;
-use gearsieve::model::pool::{check_module, Pool, MAX_STAGES, MAX_TEETH, MIN_TEETH};
+use gearsieve::model::pool::{check_module, check_pressure_angle, Pool, MAX_STAGES, MAX_TEETH, MIN_TEETH};
 use gearsieve::numbers::length::{parse_length, LengthUnit};
 use gearsieve::numbers::range::{parse_int_range, parse_length_range, IntRange};
 use gearsieve::numbers::rational::Ratio;
 use gearsieve::numbers::target::{parse_ratio, parse_tolerance};
-use gearsieve::report::thread::{ChartReport, ThreadReport};
+use gearsieve::report::thread::{BuyChartReport, ChartReport, ThreadReport};
 use gearsieve::report::Report;
 use gearsieve::trades::thread::banjo::{load_banjo, Banjo};
 use gearsieve::trades::thread::chart::{chart, Chart};
+use gearsieve::trades::thread::chart_buy::{buy_chart, BuyChart, Purchase, MOST_TO_BUY};
 use gearsieve::trades::thread::feed::parse_feed;
 use gearsieve::trades::thread::lathe_file::{load_lathe, LatheFile};
 use gearsieve::trades::thread::machine::{parse_gearbox, Machine};
@@ -28,7 +29,7 @@ use gearsieve::{Error, Problem, Quantity, RunOptions};
 
 use super::args::{load_stock, number, PrintArgs};
 use super::buy::BuyArgs;
-use super::flags::refuse;
+use super::flags::{flag_for, refuse};
 use super::hints;
 use super::run::{self, either, Job, Outlook, Print, Words};
 
@@ -130,9 +131,22 @@ pub struct ChartArgs {
     /// A list file instead: one thread a line, LABEL, PITCH or just PITCH.
     #[arg(long, value_name = "FILE")]
     pub list: Option<PathBuf>,
-    /// Not for charts, which list one setup per thread; taken only to say so.
-    #[arg(long, value_name = "K", hide = true, allow_hyphen_values = true)]
+    /// With --buy, how many choices to list (default 10; all are counted). Not for a plain
+    /// chart, which lists one setup per thread.
+    #[arg(long, value_name = "K", allow_hyphen_values = true)]
     pub limit: Option<String>,
+    /// Which N gears (1 to 3), added to the gears on hand, make the most threads of the series
+    /// cuttable within the tolerance: the best choices with the threads each gains (setups of
+    /// one and two stages).
+    #[arg(long, value_name = "N")]
+    pub buy: Option<usize>,
+    /// With --buy, the tooth counts on offer, LO..HI (default 20..127).
+    #[arg(long, value_name = "LO..HI", requires = "buy")]
+    pub buy_teeth: Option<String>,
+    /// With --buy, the module of the gears to buy, mm (default: the module of the gears on
+    /// hand); the pressure angle is --pressure-angle's (default 20).
+    #[arg(long, value_name = "MM", requires = "buy", allow_negative_numbers = true, value_parser = number)]
+    pub buy_module: Option<f64>,
     #[command(flatten)]
     pub lathe: LatheArgs,
 }
@@ -387,8 +401,112 @@ impl Job for ChartJob {
     }
 }
 
+/// A validated search for the gears to buy for a chart.
+struct BuyJob {
+    lathe: Lathe,
+    name: String,
+    series: Vec<SeriesEntry>,
+    purchase: Purchase,
+    limit: usize,
+}
+
+impl Job for BuyJob {
+    type Found = BuyChart;
+
+    fn search(&self, options: &RunOptions) -> anyhow::Result<BuyChart> {
+        Ok(buy_chart(&self.lathe, &self.series, &self.purchase, self.limit, options)?)
+    }
+
+    fn report<'a>(&'a self, found: &'a BuyChart) -> Box<dyn Report + 'a> {
+        Box::new(BuyChartReport { lathe: &self.lathe, series: &self.name, chart: found })
+    }
+
+    fn words(&self, found: &BuyChart) -> Words {
+        let first = if found.rows.iter().all(|r| r.on_hand) {
+            format!(
+                "every thread of {} is cut within the tolerance from the gears on hand; nothing to buy.",
+                self.name
+            )
+        } else {
+            format!(
+                "no choice of up to {} gears of {} teeth makes another thread of {} cuttable.",
+                self.purchase.most, self.purchase.teeth, self.name
+            )
+        };
+        Words {
+            interrupted: Some("the choices above weigh only the threads done".into()),
+            nothing: Some(first),
+        }
+    }
+
+    fn shows_progress(&self) -> bool {
+        false
+    }
+}
+
+/// The gears on offer that `--buy`, `--buy-teeth` and `--buy-module` describe, for `lathe`.
+fn purchase(args: &ChartArgs, most: usize, lathe: &Lathe) -> anyhow::Result<Purchase> {
+    if most == 0 || most > MOST_TO_BUY {
+        return Err(refuse("--buy", format!("give how many gears to buy, 1 to {MOST_TO_BUY}; found {most}")));
+    }
+    let text = args.buy_teeth.as_deref().unwrap_or("20..127");
+    let teeth = parse_int_range(text, Quantity::ToothRange, "buy-teeth", MIN_TEETH, MAX_TEETH)
+        .map_err(|e| refuse("--buy-teeth", e.detail().render(flag_for)))?;
+    if let Some(largest) = lathe.equipment.largest_teeth {
+        if teeth.hi > largest {
+            return Err(refuse(
+                "--buy-teeth",
+                format!(
+                    "the guard closes over gears of at most {largest} teeth; give a range up to {largest}"
+                ),
+            ));
+        }
+    }
+    let module_mm = match args.buy_module {
+        Some(m) => check_module(m, &|e| Error::problem(e)).map_err(|e| refuse("--buy-module", e))?,
+        None => match lathe.pool.groups.as_slice() {
+            [g] => g.module_mm,
+            _ => {
+                return Err(refuse(
+                    "--buy-module",
+                    "the gears on hand come in several modules; name the module of the gears to buy",
+                ))
+            }
+        },
+    };
+    if lathe.stages.hi > 2 {
+        return Err(refuse("--buy", "works out setups of one and two stages; give --stages 1..2 or less"));
+    }
+    // Gears bought to mesh with those on hand: their pressure angle unless one is given.
+    let on_hand = lathe.pool.groups.iter().find(|g| (g.module_mm - module_mm).abs() <= 1e-9 * module_mm);
+    let pressure_angle_deg =
+        args.lathe.pressure_angle.or(on_hand.map(|g| g.pressure_angle_deg)).unwrap_or(20.0);
+    check_pressure_angle(pressure_angle_deg, &|e| Error::problem(e))
+        .map_err(|e| refuse("--pressure-angle", e))?;
+    Ok(Purchase { most, teeth, module_mm, pressure_angle_deg })
+}
+
 /// Run `gearsieve chart`.
 pub fn run_chart(args: ChartArgs) -> anyhow::Result<i32> {
+    if let Some(most) = args.buy {
+        let limit = match args.limit.as_deref() {
+            None => 10,
+            Some(t) => match t.trim().parse::<usize>() {
+                Ok(k) if k > 0 => k,
+                _ => {
+                    return Err(refuse(
+                        "--limit",
+                        format!("give how many choices to list, at least 1; found \"{t}\""),
+                    ))
+                }
+            },
+        };
+        let lathe = lathe(&args.lathe, 1)?;
+        let purchase = purchase(&args, most, &lathe)?;
+        let (name, series) = series_of(&args)?;
+        let job = BuyJob { lathe, name, series, purchase, limit };
+        return run::run(&job, &Print::from(&args.lathe.print));
+    }
     if args.limit.is_some() {
         return Err(refuse(
             "--limit",
@@ -398,10 +516,15 @@ pub fn run_chart(args: ChartArgs) -> anyhow::Result<i32> {
     }
     // A chart lists one setup per thread.
     let lathe = lathe(&args.lathe, 1)?;
-    let (name, series): (String, Vec<SeriesEntry>) = match (&args.series, &args.list) {
+    let (name, series) = series_of(&args)?;
+    run::run(&ChartJob { lathe, name, series, long: args.lathe.long }, &Print::from(&args.lathe.print))
+}
+
+/// The series a chart's flags name, with its name or file.
+fn series_of(args: &ChartArgs) -> anyhow::Result<(String, Vec<SeriesEntry>)> {
+    Ok(match (&args.series, &args.list) {
         (Some(s), _) => (s.clone(), built_in(s)?),
         (None, Some(f)) => (f.display().to_string(), load_list(f)?),
         (None, None) => return Err(anyhow::anyhow!("give --series NAME or --list FILE")),
-    };
-    run::run(&ChartJob { lathe, name, series, long: args.lathe.long }, &Print::from(&args.lathe.print))
+    })
 }

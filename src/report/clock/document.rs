@@ -98,7 +98,13 @@ pub fn whole_train(names: &[String], first: &Train, then: &Train) -> String {
 /// `from_turns_per_hour` gives the first arbor's speed for a going train; without it (a striking
 /// train, which runs only while it strikes) each arbor's turns per turn of the first are shown.
 pub fn part_table(d: &mut Document, g: &PartPlan, from_turns_per_hour: Option<f64>) {
-    d.line(listing_line(g.count, g.gear_set_count, g.trains.len(), g.complete, "by error, then meshes, then size"));
+    d.line(listing_line(
+        g.count,
+        g.gear_set_count,
+        g.trains.len(),
+        g.complete,
+        "by error, then meshes, then size",
+    ));
     if g.trains.is_empty() {
         return;
     }

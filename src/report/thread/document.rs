@@ -26,7 +26,7 @@ pub fn describe_machine(lathe: &Lathe) -> String {
 }
 
 /// The lathe, its gears and banjo, and the tolerance (of the feed, for a feed).
-fn header(d: &mut Document, lathe: &Lathe, feed: bool) {
+pub(super) fn header(d: &mut Document, lathe: &Lathe, feed: bool) {
     let e = &lathe.equipment;
     match &e.name {
         Some(name) => d.line(format!("Lathe: {name}: {}", describe_machine(lathe))),

@@ -172,7 +172,7 @@ impl SetupJson {
 }
 
 #[derive(Serialize)]
-struct MachineJson {
+pub(super) struct MachineJson {
     name: Option<String>,
     leadscrew: String,
     leadscrew_mm: f64,
@@ -199,14 +199,14 @@ struct GearboxJson {
 }
 
 #[derive(Serialize)]
-struct BanjoJson {
+pub(super) struct BanjoJson {
     stud_to_leadscrew_mm: f64,
     intermediate_stud_from_leadscrew_mm: [f64; 2],
     slots_mm: Vec<[f64; 2]>,
     shaft_diameter_mm: f64,
 }
 
-fn machine(l: &Lathe) -> MachineJson {
+pub(super) fn machine(l: &Lathe) -> MachineJson {
     let e = &l.equipment;
     MachineJson {
         name: e.name.clone(),
@@ -228,7 +228,7 @@ fn machine(l: &Lathe) -> MachineJson {
     }
 }
 
-fn banjo(l: &Lathe) -> Option<BanjoJson> {
+pub(super) fn banjo(l: &Lathe) -> Option<BanjoJson> {
     l.banjo.as_ref().map(|b| BanjoJson {
         stud_to_leadscrew_mm: b.stud_to_leadscrew_mm,
         intermediate_stud_from_leadscrew_mm: [b.slots[0].lo, b.slots[0].hi],

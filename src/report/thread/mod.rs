@@ -1,5 +1,6 @@
 //! Thread setups (`gearsieve thread`) and thread charts (`gearsieve chart`) in every format.
 
+pub mod chart_buy;
 pub mod csv;
 pub mod document;
 pub mod json;
@@ -10,6 +11,8 @@ use std::io::Write;
 use super::{Completion, Document, Drawing, RenderError, Report};
 use crate::trades::thread::chart::Chart;
 use crate::trades::thread::{Lathe, Rejected, ThreadPlan};
+
+pub use chart_buy::BuyChartReport;
 
 /// A thread search, ready to print.
 pub struct ThreadReport<'a> {

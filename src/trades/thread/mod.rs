@@ -10,6 +10,7 @@
 //! - [`feed`]: turning feeds, searched like a thread;
 //! - [`dial`]: which thread-dial lines are safe to engage at;
 //! - [`chart`]: the best setup for every thread of a series;
+//! - [`chart_buy`]: which gears to buy so that a chart has the most threads;
 //! - the output formats for setups and charts are in [`crate::report::thread`].
 //!
 //! The hand of the thread is set by the tumbler reverse (common practice), so a setup's output
@@ -17,6 +18,7 @@
 
 pub mod banjo;
 pub mod chart;
+pub mod chart_buy;
 pub mod dial;
 pub mod feed;
 pub mod lathe_file;
