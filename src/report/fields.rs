@@ -187,19 +187,20 @@ pub fn train_cells(train: &TrainJson) -> Vec<String> {
 }
 
 /// The heading over the notes on gears on hand that would not run well as they are made.
-pub const ON_HAND_HEADING: &str =
-    "Gears on hand as they are made (they cannot be re-cut; judged mounted tight):";
+const ON_HAND_HEADING: &str = "Gears on hand as they are made (they cannot be re-cut; judged mounted tight):";
 
 /// The trains whose gears on hand, as they are made, would not run well: gears on hand cannot
 /// be re-cut, so this is said on every listing, whether or not meshes were checked.
 pub fn on_hand(trains: &[TrainJson], d: &mut crate::report::Document) {
-    let notes: Vec<String> = trains
-        .iter()
-        .enumerate()
-        .map(|(i, t)| (i, on_hand_summary(t)))
-        .filter(|(_, s)| !s.is_empty())
-        .map(|(i, s)| format!("#{}: {s}", i + 1))
-        .collect();
+    on_hand_notes(trains.iter().enumerate().map(|(i, t)| (format!("#{}", i + 1), on_hand_summary(t))), d);
+}
+
+/// The notes on gears on hand that would not run well as they are made, under one heading:
+/// each `(tag, summary)` as `tag: summary`, those with an empty summary left out; nothing when
+/// every summary is empty.
+pub fn on_hand_notes(notes: impl IntoIterator<Item = (String, String)>, d: &mut crate::report::Document) {
+    let notes: Vec<String> =
+        notes.into_iter().filter(|(_, s)| !s.is_empty()).map(|(tag, s)| format!("{tag}: {s}")).collect();
     if notes.is_empty() {
         return;
     }

@@ -5,7 +5,7 @@
 //! gears.
 
 use crate::model::pool::fmt_num;
-use crate::report::fields::{decimals, mm, shift, ON_HAND_HEADING};
+use crate::report::fields::{decimals, mm, on_hand_notes, shift};
 use crate::report::words::{
     count_line, describe_error, describe_tolerance, group_thousands, PLANETARY_CONVENTION,
 };
@@ -190,21 +190,9 @@ fn designs(r: &PlanetaryReport, d: &mut Document) {
     let right: Vec<usize> = heads.iter().enumerate().filter(|(_, h)| h.1).map(|(i, _)| i).collect();
     let names: Vec<&str> = heads.iter().map(|h| h.0).collect();
     d.table(Table::new(&names, &right).with_rows(rows));
-    let notes: Vec<String> = r
-        .outcome
-        .designs
-        .iter()
-        .enumerate()
-        .filter(|(_, design)| !design.on_hand_defects.is_empty())
-        .map(|(i, design)| format!("#{}: {}", i + 1, on_hand_cell(design)))
-        .collect();
-    if !notes.is_empty() {
-        d.blank();
-        d.line(ON_HAND_HEADING);
-        for n in notes {
-            d.line(format!("  {n}"));
-        }
-    }
+    let notes =
+        r.outcome.designs.iter().enumerate().map(|(i, design)| (format!("#{}", i + 1), on_hand_cell(design)));
+    on_hand_notes(notes, d);
 }
 
 /// What is wrong with a design's gears on hand as they are made, in one line; empty when

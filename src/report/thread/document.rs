@@ -6,7 +6,7 @@ use super::{ChartReport, ThreadReport};
 use crate::model::pool::fmt_num;
 use crate::model::purchase::describe_to_buy;
 use crate::model::train::standard_centre_distance_mm;
-use crate::report::fields::{on_hand, on_hand_summary, TrainJson, ON_HAND_HEADING};
+use crate::report::fields::{on_hand, on_hand_notes, on_hand_summary, TrainJson};
 use crate::report::words::{describe_error, describe_tolerance, group_thousands, THREAD_CAUTION};
 use crate::report::{Document, Table};
 use crate::trades::thread::banjo::{MAX_PLACED_STAGES, NO_BANJO};
@@ -420,22 +420,11 @@ pub fn chart(r: &ChartReport) -> Document {
         })
         .collect();
     d.table(Table::new(&head, &[3, 4, 6]).with_rows(rows));
-    let notes: Vec<String> = c
-        .rows
-        .iter()
-        .filter_map(|row| {
-            let s = row.best.as_ref().or(row.nearest.as_ref())?;
-            let summary = on_hand_summary(&TrainJson::from_train(&s.mounted_train()));
-            (!summary.is_empty()).then(|| format!("{}: {summary}", row.label))
-        })
-        .collect();
-    if !notes.is_empty() {
-        d.blank();
-        d.line(ON_HAND_HEADING);
-        for n in notes {
-            d.line(format!("  {n}"));
-        }
-    }
+    let notes = c.rows.iter().filter_map(|row| {
+        let s = row.best.as_ref().or(row.nearest.as_ref())?;
+        Some((row.label.clone(), on_hand_summary(&TrainJson::from_train(&s.mounted_train()))))
+    });
+    on_hand_notes(notes, &mut d);
     let mut bases = Bases::default();
     for row in &c.rows {
         bases.add(&row.thread.pitch);
