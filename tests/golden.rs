@@ -131,6 +131,19 @@ const CASES: &[(&str, &[&str])] = &[
         ],
     ),
     (
+        "thread-arrangements",
+        &[
+            "thread",
+            "--lathe",
+            "catalogs/lathe/brackenfold.lathe",
+            "--pitch",
+            "1.25mm",
+            "--limit",
+            "3",
+            "--arrangements",
+        ],
+    ),
+    (
         "thread-lathe-feed",
         &[
             "thread",

@@ -242,8 +242,12 @@ fn gearbox_positions_are_named() {
         "csv",
     ]);
     assert_eq!(r.code, 0);
-    assert!(r.stdout.starts_with("rank,gearbox_position,stud,idler,leadscrew"), "{}", r.stdout);
-    assert!(r.stdout.lines().skip(1).all(|l| l.split(',').nth(1).is_some_and(|p| p == "A" || p == "B")));
+    assert!(
+        r.stdout.starts_with("rank,arrangements,arrangement,gearbox_position,stud,idler,leadscrew"),
+        "{}",
+        r.stdout
+    );
+    assert!(r.stdout.lines().skip(1).all(|l| l.split(',').nth(3).is_some_and(|p| p == "A" || p == "B")));
 }
 
 #[test]
@@ -1082,4 +1086,82 @@ fn gears_on_hand_that_would_not_run_are_named_in_every_format() {
     assert!(stages[0]["on_hand_defects"][0].as_str().unwrap().contains("12-tooth pinion would be undercut"));
     // 30 → 24 runs: neither gear is undercut nor pointed, and their contact ratio is ample.
     assert!(stages[1].get("on_hand_defects").is_none_or(|d| d.as_array().unwrap().is_empty()), "{stages:?}");
+}
+
+proptest! {
+    #![proptest_config(ProptestConfig::with_cases(48))]
+
+    /// `thread` lists gear sets: every listed setup is its set's best arrangement, and the set
+    /// count and each set's arrangements equal a brute-force grouping of every setup the plain
+    /// searches (one train per arrangement, the banjo checked) find, by gearbox position and the
+    /// multisets of stud-side (driver) and leadscrew-side (driven) teeth.
+    #[test]
+    fn thread_listings_are_gear_sets_grouped_as_a_brute_force_groups_them(
+        screw in prop::sample::select(vec!["8tpi", "3mm", "6mm"]),
+        thread in prop::sample::select(vec!["0.75mm", "1mm", "1.25mm", "1.5mm", "2mm", "11tpi", "13tpi", "20tpi"]),
+        // Change-gear tooth counts of the usual kind (common practice), so that most cases cut the
+        // thread somehow.
+        teeth in prop::collection::btree_set(prop::sample::select(vec![
+            20u32, 24, 25, 30, 32, 35, 36, 40, 44, 45, 48, 50, 55, 60, 63, 64, 65, 70, 72, 75, 80, 100, 120, 127,
+        ]), 6..12),
+        twice in prop::collection::btree_set(prop::sample::select(vec![20u32, 25, 30, 40, 50, 60]), 0..3),
+        gearbox in prop::option::of(prop::sample::select(vec![vec![(1u64, 2u64), (1, 1), (2, 1)]])),
+        banjo in any::<bool>(),
+        tol_ppm in prop::sample::select(vec![0u64, 1000, 5000]),
+    ) {
+        use std::collections::BTreeMap;
+        let machine = Machine {
+            leadscrew: parse_leadscrew(screw).unwrap(),
+            stud_ratio: Ratio::integer(1),
+            gearbox: gearbox.unwrap_or_default().into_iter().enumerate().map(|(i, (n, d))| {
+                GearboxPosition { name: format!("P{i}"), ratio: Ratio::new(n as u128, d as u128).unwrap() }
+            }).collect(),
+        };
+        let banjo = banjo.then(|| Banjo {
+            stud_to_leadscrew_mm: 120.0,
+            slots: vec![FloatRange { lo: 45.0, hi: 160.0 }],
+            shaft_diameter_mm: 20.0,
+        });
+        let stock: Vec<StockGear> =
+            teeth.iter().map(|&t| StockGear::on_hand(t, 1.5, 20.0, if twice.contains(&t) { 2 } else { 1 })).collect();
+        let Ok(pool) = Pool::from_stock(&stock, "random") else { return Ok(()); };
+        let tol = Ratio::new(tol_ppm as u128, 1_000_000).unwrap();
+        let lathe = Lathe::new(machine.clone(), pool, banjo, IntRange { lo: 1, hi: 2 }, tol, 100_000).unwrap();
+        let spec = ThreadSpec::thread(parse_pitch(thread).unwrap(), 1);
+        let plan = lathe.plan(&spec, &RunOptions::default()).unwrap();
+
+        // The brute force: every train of every position's problem, not grouped.
+        let key = |position: &Option<String>, t: &gearsieve::model::train::Train| {
+            let mut drivers: Vec<u32> = t.stages.iter().map(|s| s.driver.teeth).collect();
+            let mut driven: Vec<u32> = t.stages.iter().map(|s| s.driven.teeth).collect();
+            drivers.sort();
+            driven.sort();
+            (position.clone(), drivers, driven)
+        };
+        let mut groups: BTreeMap<(Option<String>, Vec<u32>, Vec<u32>), u64> = BTreeMap::new();
+        let names: Vec<Option<String>> = if machine.gearbox.is_empty() {
+            vec![None]
+        } else {
+            machine.gearbox.iter().map(|p| Some(p.name.clone())).collect()
+        };
+        let problems = lathe.problems(&spec, false).unwrap();
+        prop_assert_eq!(problems.len(), names.len());
+        let mut trains = 0u64;
+        for (name, problem) in names.iter().zip(&problems) {
+            prop_assert!(!problem.gear_sets);
+            let found = gearsieve::engine::search(problem, gearsieve::EngineChoice::Exhaustive, &RunOptions::default());
+            prop_assert_eq!(found.count as usize, found.trains.len());
+            trains += found.count;
+            for t in &found.trains {
+                *groups.entry(key(name, t)).or_default() += 1;
+            }
+        }
+        prop_assert_eq!(plan.count, trains);
+        prop_assert_eq!(plan.gear_set_count, Some(groups.len() as u64));
+        prop_assert_eq!(plan.setups.len(), groups.len());
+        for s in &plan.setups {
+            let name = s.position.as_ref().map(|p| p.name.clone());
+            prop_assert_eq!(Some(&s.arrangements), groups.get(&key(&name, &s.train)), "{:?}", s.train);
+        }
+    }
 }

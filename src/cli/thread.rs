@@ -110,9 +110,14 @@ pub struct ThreadArgs {
     /// Also list trains that cut the thread but cannot be set up on the banjo, and why.
     #[arg(long)]
     pub explain: bool,
-    /// Setups to list; all are counted.
+    /// Setups to list, each gear set once by its best arrangement on the machine; every setup
+    /// and gear set is counted.
     #[arg(long, value_name = "K", default_value_t = 10)]
     pub limit: usize,
+    /// List every arrangement of each gear set under it (the other ways of pairing its gears
+    /// into stages that cut the thread and fit the machine), not only the best.
+    #[arg(long)]
+    pub arrangements: bool,
     #[command(flatten)]
     pub buy: BuyArgs,
     #[command(flatten)]
@@ -297,6 +302,8 @@ struct ThreadJob {
     lathe: Lathe,
     spec: ThreadSpec,
     explain: bool,
+    /// `--arrangements`: list every arrangement of each gear set.
+    arrangements: bool,
     /// `--long`: run whatever the forecast.
     long: bool,
 }
@@ -305,7 +312,8 @@ impl Job for ThreadJob {
     type Found = (ThreadPlan, Option<Vec<Rejected>>);
 
     fn search(&self, options: &RunOptions) -> anyhow::Result<Self::Found> {
-        let plan = self.lathe.plan(&self.spec, options)?;
+        let listing = RunOptions { list_arrangements: self.arrangements, ..*options };
+        let plan = self.lathe.plan(&self.spec, &listing)?;
         let rejected = if self.explain { Some(self.lathe.explain(&self.spec, options)?) } else { None };
         Ok((plan, rejected))
     }
@@ -353,7 +361,13 @@ pub fn run_thread(args: ThreadArgs) -> anyhow::Result<i32> {
         (None, Some(f)) => ThreadSpec::feed(parse_feed(f)?),
         (None, None) => return Err(anyhow::anyhow!("give --pitch PITCH or --feed LENGTH")),
     };
-    let job = ThreadJob { lathe, spec, explain: args.explain, long: args.lathe.long };
+    let job = ThreadJob {
+        lathe,
+        spec,
+        explain: args.explain,
+        arrangements: args.arrangements,
+        long: args.lathe.long,
+    };
     run::run(&job, &Print::from(&args.lathe.print))
 }
 

@@ -108,11 +108,14 @@ fn setup_fields(s: &Setup, pitch: &Pitch, lathe: &Lathe) -> Vec<String> {
 /// Write a thread search as CSV.
 pub fn write_thread(r: &ThreadReport, w: &mut dyn Write) -> io::Result<()> {
     let mut out = ::csv::Writer::from_writer(w);
-    out.write_record(header(&["rank"], r.lathe))?;
+    out.write_record(header(&["rank", "arrangements", "arrangement"], r.lathe))?;
     for (i, s) in r.plan.setups.iter().enumerate() {
-        let mut row = vec![(i + 1).to_string()];
-        row.extend(setup_fields(s, &r.plan.thread.pitch, r.lathe));
-        out.write_record(&row)?;
+        // The listed arrangement is 1; the others, when asked for, follow as 2, 3, …
+        for (k, a) in std::iter::once(s).chain(&s.others).enumerate() {
+            let mut row = vec![(i + 1).to_string(), s.arrangements.to_string(), (k + 1).to_string()];
+            row.extend(setup_fields(a, &r.plan.thread.pitch, r.lathe));
+            out.write_record(&row)?;
+        }
     }
     out.flush()
 }

@@ -98,6 +98,13 @@ fn footer(d: &mut Document, lathe: &Lathe, bases: Bases) {
     lines.push("intermediate: driven, driver (the pair keyed together on one stud), stud side first; none: a simple train".into());
     lines.push("idler: the gear between the stud and leadscrew gears of a simple train; any: no banjo chose one; none: no idler".into());
     lines.push("meshes: meshes on the machine and the way the leadscrew turns against the stud".into());
+    if bases.sets {
+        lines.push(
+            "arrangements: the ways this setup's gears pair up into stages that cut the thread and fit the \
+             machine, this one among them (the same gears, each other arrangement meshing them differently)"
+                .into(),
+        );
+    }
     if lathe.banjo.is_some() {
         lines.push("on the banjo, where the setup sits (distances are mm from the leadscrew axis):".into());
         lines.push("  direct mesh: the stud gear meshes the leadscrew gear, no idler".into());
@@ -144,6 +151,8 @@ struct Bases {
     feed: bool,
     tpi: bool,
     pitch: bool,
+    /// The listing is of gear sets (a thread search), with a column of arrangements.
+    sets: bool,
     inch_lead: bool,
     metric_lead: bool,
 }
@@ -295,10 +304,25 @@ pub fn thread(r: &ThreadReport) -> Document {
     let p = r.plan;
     let status = if p.complete { "" } else { "INCOMPLETE (interrupted): at least " };
     let (verb, verbs) = if t.feed { ("gives", "give") } else { ("cuts", "cut") };
-    match p.count {
-        0 => d.line(format!("{status}No setup {verb} {} within the tolerance from these gears.", t.pitch)),
-        1 => d.line(format!("{status}1 setup {verb} it:")),
-        n => d.line(format!(
+    let order = if r.lathe.buy.is_some() { "gears to buy, then " } else { "" };
+    match (p.count, p.gear_set_count) {
+        (0, _) => {
+            d.line(format!("{status}No setup {verb} {} within the tolerance from these gears.", t.pitch))
+        }
+        (1, _) => d.line(format!("{status}1 setup {verb} it:")),
+        (n, Some(sets)) => d.line(format!(
+            "{status}{} setups {verbs} it, made of {} gear set{}; {} listed by {order}pitch error, then \
+             meshes, then size, each by its best arrangement on the machine:",
+            group_thousands(n),
+            group_thousands(sets),
+            if sets == 1 { "" } else { "s" },
+            if p.setups.len() as u64 == sets {
+                "all".to_string()
+            } else {
+                format!("the best {}", p.setups.len())
+            },
+        )),
+        (n, None) => d.line(format!(
             "{status}{} setups {verbs} it; {} by {}pitch error, then meshes, then size:",
             group_thousands(n),
             if p.setups.len() as u64 == n {
@@ -306,7 +330,7 @@ pub fn thread(r: &ThreadReport) -> Document {
             } else {
                 format!("the best {} listed", p.setups.len())
             },
-            if r.lathe.buy.is_some() { "gears to buy, then " } else { "" }
+            order
         )),
     }
     if !p.setups.is_empty() {
@@ -316,17 +340,24 @@ pub fn thread(r: &ThreadReport) -> Document {
         if t.feed {
             head[7] = "feed cut".to_string();
         }
+        head.push("arrangements".to_string());
         let rows: Vec<Vec<String>> = p
             .setups
             .iter()
             .enumerate()
-            .map(|(i, s)| {
-                let mut row = vec![(i + 1).to_string()];
-                row.extend(setup_cells(s, r.lathe, &t.pitch));
-                row
+            .flat_map(|(i, s)| {
+                // The other arrangements, when asked for, under their set as `1.2`, `1.3`, …
+                std::iter::once(s).chain(&s.others).enumerate().map(move |(k, a)| {
+                    let mut row =
+                        vec![if k == 0 { (i + 1).to_string() } else { format!("{}.{}", i + 1, k + 1) }];
+                    row.extend(setup_cells(a, r.lathe, &t.pitch));
+                    row.push(if k == 0 { s.arrangements.to_string() } else { String::new() });
+                    row
+                })
             })
             .collect();
-        d.table(Table::new(&head, &[0, 2, 3, 5]).with_rows(rows));
+        let right = [0, 2, 3, 5, head.len() - 1];
+        d.table(Table::new(&head, &right).with_rows(rows));
         let mounted: Vec<TrainJson> =
             p.setups.iter().map(|s| TrainJson::from_train(&s.mounted_train())).collect();
         on_hand(&mounted, &mut d);
@@ -370,6 +401,7 @@ pub fn thread(r: &ThreadReport) -> Document {
     } else {
         bases.add(&t.pitch);
     }
+    bases.sets = !p.setups.is_empty();
     footer(&mut d, r.lathe, bases);
     d
 }

@@ -124,6 +124,13 @@ impl SetupJson {
         let mut train = TrainJson::from_train(&s.mounted_train());
         train.error = s.pitch_error.to_f64();
         train.to_buy = s.to_buy.clone();
+        train.arrangements = Some(s.arrangements);
+        // The other arrangements as the machine would have them, each with its pitch error.
+        train.other_arrangements = s
+            .others
+            .iter()
+            .map(|o| TrainJson { error: o.pitch_error.to_f64(), ..TrainJson::from_train(&o.mounted_train()) })
+            .collect();
         SetupJson {
             train,
             gearbox_position: s.position.as_ref().map(|p| p.name.clone()),
@@ -261,6 +268,7 @@ struct ThreadDoc {
     banjo: Option<BanjoJson>,
     tolerance: f64,
     count: u64,
+    gear_set_count: Option<u64>,
     complete: bool,
     convention: &'static str,
     caution: &'static str,
@@ -288,6 +296,7 @@ pub fn write_thread(r: &ThreadReport, w: &mut dyn Write) -> Result<(), RenderErr
         banjo: banjo(r.lathe),
         tolerance: r.lathe.tolerance.to_f64(),
         count: r.plan.count,
+        gear_set_count: r.plan.gear_set_count,
         complete: r.plan.complete,
         convention: CONVENTION,
         caution: THREAD_CAUTION,

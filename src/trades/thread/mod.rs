@@ -233,6 +233,12 @@ pub struct Setup {
     pub engagement: Option<Engagement>,
     /// With gears to buy: the gears this setup needs bought (empty when all are on hand).
     pub to_buy: Option<Vec<ToBuy>>,
+    /// How many arrangements of this setup's gear set (its stud-side and leadscrew-side gears
+    /// paired another way) cut the thread and fit the banjo, this one among them.
+    pub arrangements: u64,
+    /// The other arrangements, best first, when they were asked for
+    /// ([`RunOptions::list_arrangements`]); empty otherwise.
+    pub others: Vec<Setup>,
 }
 
 impl Setup {
@@ -372,6 +378,9 @@ pub struct ThreadPlan {
     pub thread: ThreadSpec,
     /// Setups meeting every constraint (a lower bound when `complete` is false).
     pub count: u64,
+    /// The gear sets those setups are made of (each listed once, by its best arrangement), when
+    /// counted.
+    pub gear_set_count: Option<u64>,
     /// The best: fewest gears to buy first (when gears may be bought), then smallest pitch error,
     /// fewest meshes, fewest teeth.
     pub setups: Vec<Setup>,
@@ -449,6 +458,8 @@ impl Lathe {
         let turns = self.spindle_per_leadscrew(train.ratio_from_teeth(), position);
         let engagement = turns.exact.then(|| engagement(turns.value, self.equipment.dial.as_ref()));
         Setup {
+            arrangements: 1,
+            others: Vec::new(),
             to_buy: self.buy.as_ref().map(|b| b.to_buy(&train)),
             feed: thread.feed,
             engagement,
@@ -503,15 +514,30 @@ impl Lathe {
         options: &RunOptions,
     ) -> Result<ThreadPlan> {
         let (mut count, mut complete, mut setups) = (0, true, Vec::new());
-        for (position, need, problem) in self.searches(thread, tolerance, limit, true)? {
+        let mut gear_set_count = Some(0);
+        for (position, need, mut problem) in self.searches(thread, tolerance, limit, true)? {
+            // Each gear set once, by its best arrangement among those the banjo takes; a set
+            // used at two gearbox positions is two setups.
+            problem.gear_sets = true;
             let found = search(&problem, crate::trades::ENGINE, options);
             count += found.count;
+            gear_set_count = gear_set_count.zip(found.gear_set_count).map(|(a, b)| a + b);
             complete &= found.complete;
-            setups.extend(found.trains.into_iter().map(|t| self.setup(thread, t, position, need)));
+            let sets = found.arrangements;
+            setups.extend(found.trains.into_iter().enumerate().map(|(n, t)| {
+                let set = sets.get(n);
+                Setup {
+                    arrangements: set.map_or(1, |a| a.count),
+                    others: set.map_or_else(Vec::new, |a| {
+                        a.others.iter().map(|o| self.setup(thread, o.clone(), position, need)).collect()
+                    }),
+                    ..self.setup(thread, t, position, need)
+                }
+            }));
         }
         setups.sort_by(by_quality);
         setups.truncate(limit);
-        Ok(ThreadPlan { thread: thread.clone(), count, setups, complete })
+        Ok(ThreadPlan { thread: thread.clone(), count, gear_set_count, setups, complete })
     }
 
     /// The best setups for `thread` within the tolerance, across every gearbox position.
