@@ -1138,7 +1138,9 @@ proptest! {
             driven.sort();
             (position.clone(), drivers, driven)
         };
-        let mut groups: BTreeMap<(Option<String>, Vec<u32>, Vec<u32>), u64> = BTreeMap::new();
+        // (gearbox position, drivers, driven) → arrangements.
+        type SetKey = (Option<String>, Vec<u32>, Vec<u32>);
+        let mut groups: BTreeMap<SetKey, u64> = BTreeMap::new();
         let names: Vec<Option<String>> = if machine.gearbox.is_empty() {
             vec![None]
         } else {
