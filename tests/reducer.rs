@@ -469,3 +469,65 @@ fn gears_on_hand_meet_a_housing_within_the_centre_tolerance_given() {
     let alpha_w = (40.0 * 20f64.to_radians().cos() / 40.05).acos().to_degrees();
     assert!((s["working_pressure_angle_deg"].as_f64().unwrap() - alpha_w).abs() < 1e-9, "{s}");
 }
+
+/// `--arrangements` lists the other arrangements of each gear set: as many as the set has less
+/// the listed one, each the same gears (the same multisets of pinions and of gears) paired
+/// another way, with the same ratio; in CSV as rows numbered within their set.
+#[test]
+fn arrangements_lists_the_other_pairings_of_each_gear_set() {
+    let args = [
+        "reducer",
+        "--ratio",
+        "12",
+        "--stages",
+        "2",
+        "--modules",
+        "1",
+        "--max-teeth",
+        "80",
+        "--tol",
+        "0",
+        "--limit",
+        "4",
+        "--arrangements",
+    ];
+    let (code, v) = json(&args);
+    assert_eq!(code, 0, "{v}");
+    let sorted = |t: &Value, side: &str| {
+        let mut z: Vec<u64> = stages(t).iter().map(|s| s[side].as_u64().unwrap()).collect();
+        z.sort();
+        z
+    };
+    let pairs = |t: &Value| {
+        let mut p: Vec<(u64, u64)> = stages(t)
+            .iter()
+            .map(|s| (s["driver"].as_u64().unwrap(), s["driven"].as_u64().unwrap()))
+            .collect();
+        p.sort();
+        p
+    };
+    let mut several = 0;
+    for t in trains(&v) {
+        let others = t["other_arrangements"].as_array().cloned().unwrap_or_default();
+        assert_eq!(others.len() as u64 + 1, t["arrangements"].as_u64().unwrap(), "{t}");
+        several += usize::from(!others.is_empty());
+        for o in &others {
+            assert_eq!(o["ratio"], t["ratio"]);
+            assert_eq!(
+                (sorted(o, "driver"), sorted(o, "driven")),
+                (sorted(t, "driver"), sorted(t, "driven"))
+            );
+            assert_ne!(pairs(o), pairs(t), "another pairing, not the same one again");
+        }
+    }
+    assert!(several > 0, "some set has more than one arrangement: {v}");
+    let mut csv_args = args.to_vec();
+    csv_args.extend(["--format", "csv"]);
+    let csv = gearsieve(&csv_args);
+    let rows: Vec<Vec<String>> = ::csv::Reader::from_reader(csv.stdout.as_bytes())
+        .records()
+        .map(|r| r.unwrap().iter().map(String::from).collect())
+        .collect();
+    let total: u64 = trains(&v).iter().map(|t| t["arrangements"].as_u64().unwrap()).sum();
+    assert_eq!(rows.len() as u64, total);
+}

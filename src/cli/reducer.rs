@@ -137,6 +137,10 @@ pub struct ReducerArgs {
     /// Trains to list; all are counted.
     #[arg(long, value_name = "K", default_value_t = 5)]
     pub limit: usize,
+    /// List every arrangement of each gear set under it (the other ways of pairing its pinions
+    /// with its gears into stages that meet every constraint), not only the best.
+    #[arg(long)]
+    pub arrangements: bool,
     /// Run even when the search is forecast to take more than an hour.
     #[arg(long)]
     pub long: bool,
@@ -283,6 +287,8 @@ impl TryFrom<&ReducerArgs> for ReducerSpec {
 /// A validated reducer search.
 struct ReducerJob {
     spec: ReducerSpec,
+    /// `--arrangements`: list every arrangement of each gear set.
+    arrangements: bool,
     /// `--long`: run whatever the forecast.
     long: bool,
 }
@@ -298,7 +304,7 @@ impl Job for ReducerJob {
     type Found = ReducerPlan;
 
     fn search(&self, options: &RunOptions) -> anyhow::Result<ReducerPlan> {
-        Ok(self.spec.plan(options)?)
+        Ok(self.spec.plan(&RunOptions { list_arrangements: self.arrangements, ..*options })?)
     }
 
     fn report<'a>(&'a self, found: &'a ReducerPlan) -> Box<dyn Report + 'a> {
@@ -390,6 +396,7 @@ impl Job for ReducerJob {
 
 /// Run `gearsieve reducer`.
 pub fn run(args: ReducerArgs) -> anyhow::Result<i32> {
-    let job = ReducerJob { spec: ReducerSpec::try_from(&args)?, long: args.long };
+    let job =
+        ReducerJob { spec: ReducerSpec::try_from(&args)?, arrangements: args.arrangements, long: args.long };
     run::run(&job, &Print::from(&args.print))
 }

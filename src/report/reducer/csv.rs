@@ -35,6 +35,7 @@ pub fn write(p: &ReducerPlan, w: &mut dyn Write) -> io::Result<()> {
             "centre_distance_sum_mm",
             "output_rpm",
             "arrangements",
+            "arrangement",
         ]
         .map(String::from),
     );
@@ -58,6 +59,7 @@ pub fn write(p: &ReducerPlan, w: &mut dyn Write) -> io::Result<()> {
             mm(centre_distance_sum_mm(t)),
             p.spec.input_rpm.map_or(String::new(), |rpm| decimals(rpm / t.ratio.to_f64(), 3)),
             p.arrangements.get(n).map_or(String::new(), u64::to_string),
+            "1".to_string(),
         ]);
         row.extend(stages.cells(&view));
         row.extend(
@@ -80,7 +82,30 @@ pub fn write(p: &ReducerPlan, w: &mut dyn Write) -> io::Result<()> {
             row.extend(gear_data::csv_cells(pair.map(|p| &p.gears[0])));
             row.extend(gear_data::csv_cells(pair.map(|p| &p.gears[1])));
         }
+        let width = row.len();
         c.write_record(&row)?;
+        // The other arrangements, when asked for: the train's own columns, the shop's left empty
+        // (the gear data of the listed arrangement is what the shop cuts).
+        for (k, o) in p.others.get(n).into_iter().flatten().enumerate() {
+            let view = TrainJson::from_train(o);
+            let mut row = vec![(n + 1).to_string()];
+            row.extend(train_cells(&view));
+            row.extend([
+                figure(spread(o)),
+                non_hunting(o).to_string(),
+                mm(largest_tip_mm(o)),
+                mm(centre_distance_sum_mm(o)),
+                p.spec.input_rpm.map_or(String::new(), |rpm| decimals(rpm / o.ratio.to_f64(), 3)),
+                p.arrangements.get(n).map_or(String::new(), u64::to_string),
+                (k + 2).to_string(),
+            ]);
+            row.extend(stages.cells(&view));
+            row.extend(
+                (0..n_stages).map(|j| o.stages.get(j).map_or(String::new(), |s| is_hunting(s).to_string())),
+            );
+            row.resize(width, String::new());
+            c.write_record(&row)?;
+        }
     }
     c.flush()
 }

@@ -210,6 +210,42 @@ pub fn document(p: &ReducerPlan) -> Document {
                 fmt_num(centre_distance_sum_mm(t))
             ),
         );
+        for (k, o) in p.others.get(n).into_iter().flatten().enumerate() {
+            let stages: Vec<String> = o
+                .stages
+                .iter()
+                .map(|st| {
+                    let (x, a) = match &st.mesh {
+                        Some(m) => {
+                            (format!(" x {:+.3}/{:+.3}", m.shift[0], m.shift[1]), m.centre_distance_mm)
+                        }
+                        None => (String::new(), st.centre_distance_mm()),
+                    };
+                    format!(
+                        "m{} {}→{} ({} mm{x})",
+                        fmt_num(st.module_mm),
+                        st.driver.teeth,
+                        st.driven.teeth,
+                        fmt_num(a)
+                    )
+                })
+                .collect();
+            d.item(
+                1,
+                false,
+                format!(
+                    "arrangement {}.{}: {}; balance {:.3}; {} non-hunting pair{}; envelope {} mm, centres add up to {} mm",
+                    n + 1,
+                    k + 2,
+                    stages.join("  "),
+                    spread(o),
+                    non_hunting(o),
+                    if non_hunting(o) == 1 { "" } else { "s" },
+                    fmt_num(largest_tip_mm(o)),
+                    fmt_num(centre_distance_sum_mm(o))
+                ),
+            );
+        }
         if let Some(shop) = p.shop.get(n) {
             shop_section(p, shop, &mut d);
         }

@@ -110,7 +110,14 @@ pub fn write(p: &ReducerPlan, w: &mut dyn Write) -> Result<(), RenderError> {
             .zip(&p.shop)
             .enumerate()
             .map(|(n, (t, shop))| ReducerTrainJson {
-                train: TrainJson { arrangements: p.arrangements.get(n).copied(), ..TrainJson::from_train(t) },
+                train: TrainJson {
+                    arrangements: p.arrangements.get(n).copied(),
+                    other_arrangements: p
+                        .others
+                        .get(n)
+                        .map_or_else(Vec::new, |o| o.iter().map(TrainJson::from_train).collect()),
+                    ..TrainJson::from_train(t)
+                },
                 hunting: t.stages.iter().map(is_hunting).collect(),
                 non_hunting_pairs: non_hunting(t),
                 balance: spread(t),

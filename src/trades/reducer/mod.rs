@@ -126,6 +126,10 @@ pub struct ReducerPlan {
     pub arrangements: Vec<u64>,
     /// Each listed train made ready for the shop, in the order of `trains`.
     pub shop: Vec<TrainShop>,
+    /// The other arrangements of each listed train's gears, best first, arranged in the housing
+    /// like the listed one, when they were asked for ([`RunOptions::list_arrangements`]); in the
+    /// order of `trains`, empty lists otherwise.
+    pub others: Vec<Vec<Train>>,
 }
 
 /// Largest tip diameter of a train, mm (from the meshes; `m·(z + 2)` for a stage without one).
@@ -340,14 +344,12 @@ impl ReducerSpec {
         let problem = self.problem()?;
         let found = search(&problem, crate::trades::ENGINE, options);
         let places = self.places();
-        let trains: Vec<Train> = found
-            .trains
-            .iter()
-            .map(|t| match places.arrange(t) {
-                Some((order, meshes)) => arranged(t, &order, &meshes),
-                None => t.clone(),
-            })
-            .collect();
+        let place = |t: &Train| match places.arrange(t) {
+            Some((order, meshes)) => arranged(t, &order, &meshes),
+            None => t.clone(),
+        };
+        let trains: Vec<Train> = found.trains.iter().map(place).collect();
+        let others = found.arrangements.iter().map(|a| a.others.iter().map(place).collect()).collect();
         let shop = trains.iter().map(|t| self.shop.shop(t)).collect();
         Ok(ReducerPlan {
             spec: self.clone(),
@@ -358,6 +360,7 @@ impl ReducerSpec {
             arrangements: found.arrangements.iter().map(|a| a.count).collect(),
             trains,
             shop,
+            others,
         })
     }
 }
