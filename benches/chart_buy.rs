@@ -11,7 +11,7 @@ use gearsieve::model::catalog::{load, CatalogueDefaults};
 use gearsieve::model::pool::Pool;
 use gearsieve::numbers::range::IntRange;
 use gearsieve::numbers::rational::Ratio;
-use gearsieve::trades::thread::chart_buy::{buy_chart, Purchase};
+use gearsieve::trades::thread::chart_buy::{buy_chart, Offer};
 use gearsieve::trades::thread::lathe_file::load_lathe;
 use gearsieve::trades::thread::machine::Machine;
 use gearsieve::trades::thread::series::built_in;
@@ -57,7 +57,7 @@ fn demo_lathe(catalogue: Option<&str>, tolerance: Ratio) -> Lathe {
 fn bench(c: &mut Criterion) {
     let series = built_in("iso-coarse").unwrap();
     let purchase =
-        Purchase { most: 2, teeth: IntRange { lo: 20, hi: 127 }, module_mm: 1.5, pressure_angle_deg: 20.0 };
+        Offer { most: 2, teeth: IntRange { lo: 20, hi: 127 }, module_mm: 1.5, pressure_angle_deg: 20.0 };
     let mut group = c.benchmark_group("chart_buy");
     group.sample_size(10);
 

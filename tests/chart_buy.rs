@@ -12,7 +12,7 @@ use gearsieve::numbers::range::IntRange;
 use gearsieve::numbers::rational::Ratio;
 use gearsieve::trades::thread::banjo::{load_banjo, Banjo};
 use gearsieve::trades::thread::chart::chart;
-use gearsieve::trades::thread::chart_buy::{buy_chart, BuyChart, Purchase};
+use gearsieve::trades::thread::chart_buy::{buy_chart, BuyChart, Offer};
 use gearsieve::trades::thread::machine::{GearboxPosition, Machine};
 use gearsieve::trades::thread::pitch::{parse_leadscrew, parse_pitch};
 use gearsieve::trades::thread::series::SeriesEntry;
@@ -120,7 +120,7 @@ fn brute_force(
 }
 
 fn fast(on_hand: &[(u32, u32)], teeth: IntRange, most: usize, shop: &Shop) -> BuyChart {
-    let purchase = Purchase { most, teeth, module_mm: MODULE, pressure_angle_deg: 20.0 };
+    let purchase = Offer { most, teeth, module_mm: MODULE, pressure_angle_deg: 20.0 };
     buy_chart(&lathe(on_hand, &[], shop), &shop.series, &purchase, usize::MAX, &RunOptions::default())
         .unwrap()
 }

@@ -16,7 +16,7 @@ use gearsieve::report::thread::{BuyChartReport, ChartReport, ThreadReport};
 use gearsieve::report::Report;
 use gearsieve::trades::thread::banjo::{load_banjo, Banjo};
 use gearsieve::trades::thread::chart::{chart, Chart};
-use gearsieve::trades::thread::chart_buy::{buy_chart, BuyChart, Purchase, MOST_TO_BUY};
+use gearsieve::trades::thread::chart_buy::{buy_chart, BuyChart, Offer, MOST_TO_BUY};
 use gearsieve::trades::thread::feed::parse_feed;
 use gearsieve::trades::thread::lathe_file::{load_lathe, LatheFile};
 use gearsieve::trades::thread::machine::{parse_gearbox, Machine};
@@ -420,7 +420,7 @@ struct BuyJob {
     lathe: Lathe,
     name: String,
     series: Vec<SeriesEntry>,
-    purchase: Purchase,
+    purchase: Offer,
     limit: usize,
 }
 
@@ -459,7 +459,7 @@ impl Job for BuyJob {
 }
 
 /// The gears on offer that `--buy`, `--buy-teeth` and `--buy-module` describe, for `lathe`.
-fn purchase(args: &ChartArgs, most: usize, lathe: &Lathe) -> anyhow::Result<Purchase> {
+fn purchase(args: &ChartArgs, most: usize, lathe: &Lathe) -> anyhow::Result<Offer> {
     if most == 0 || most > MOST_TO_BUY {
         return Err(refuse("--buy", format!("give how many gears to buy, 1 to {MOST_TO_BUY}; found {most}")));
     }
@@ -497,7 +497,7 @@ fn purchase(args: &ChartArgs, most: usize, lathe: &Lathe) -> anyhow::Result<Purc
         args.lathe.pressure_angle.or(on_hand.map(|g| g.pressure_angle_deg)).unwrap_or(20.0);
     check_pressure_angle(pressure_angle_deg, &|e| Error::problem(e))
         .map_err(|e| refuse("--pressure-angle", e))?;
-    Ok(Purchase { most, teeth, module_mm, pressure_angle_deg })
+    Ok(Offer { most, teeth, module_mm, pressure_angle_deg })
 }
 
 /// Run `gearsieve chart`.

@@ -40,6 +40,11 @@ pub struct ToBuy {
     pub count: u32,
 }
 
+/// The index of `group` among the mesh groups of `on_hand` (it is one of them by construction).
+fn group_index(on_hand: &Pool, group: &MeshGroup) -> usize {
+    on_hand.groups.iter().position(|g| g == group).unwrap_or(0)
+}
+
 /// A gear cut standard: no shift, the full tip of its teeth.
 fn standard(made: &Option<AsMade>) -> bool {
     made.is_some_and(|m| m.same_as(&AsMade::default()))
@@ -119,7 +124,7 @@ impl Purchase {
                 ));
             }
         };
-        let index = on_hand.groups.iter().position(|g| *g == group).unwrap_or(0);
+        let index = group_index(&on_hand, &group);
         let teeth = match teeth {
             Some(t) => t,
             None => {
@@ -131,14 +136,9 @@ impl Purchase {
         Ok(Purchase { most, teeth, group, on_hand })
     }
 
-    /// The index of the buy group in the gears on hand.
-    fn group_index(&self) -> usize {
-        self.on_hand.groups.iter().position(|g| *g == self.group).unwrap_or(0)
-    }
-
     /// Standard gears of `teeth` on hand in the buy group.
     pub fn on_hand_of(&self, teeth: u32) -> u32 {
-        let group = self.group_index();
+        let group = group_index(&self.on_hand, &self.group);
         self.on_hand
             .gears
             .iter()
@@ -152,7 +152,7 @@ impl Purchase {
     /// name [`Quantity::BuyCount`] when a quantity would pass `u32`.
     pub fn pool(&self) -> Result<Pool> {
         let mut pool = self.on_hand.clone();
-        let group = self.group_index();
+        let group = group_index(&self.on_hand, &self.group);
         for teeth in self.teeth.lo..=self.teeth.hi {
             let kind =
                 pool.gears.iter_mut().find(|k| k.group == group && k.teeth == teeth && standard(&k.made));

@@ -7,6 +7,7 @@
 
 use std::io::{self, Write};
 
+use crate::model::train::Train;
 use crate::report::fields::{decimals, figure, mm, train_cells, StageColumns, TrainJson, TRAIN_HEADER};
 use crate::report::gear_data;
 use crate::trades::reducer::hunting::{is_hunting, non_hunting, spread};
@@ -48,7 +49,8 @@ pub fn write(p: &ReducerPlan, w: &mut dyn Write) -> io::Result<()> {
         head.extend(gear_data::csv_header(&format!("stage{k}_driven_")));
     }
     c.write_record(&head)?;
-    for (n, t) in p.trains.iter().enumerate() {
+    // The columns every arrangement has: rank, the train, the reducer's figures, the stages.
+    let train_row = |n: usize, t: &Train, arrangement: usize| {
         let view = TrainJson::from_train(t);
         let mut row = vec![(n + 1).to_string()];
         row.extend(train_cells(&view));
@@ -59,12 +61,16 @@ pub fn write(p: &ReducerPlan, w: &mut dyn Write) -> io::Result<()> {
             mm(centre_distance_sum_mm(t)),
             p.spec.input_rpm.map_or(String::new(), |rpm| decimals(rpm / t.ratio.to_f64(), 3)),
             p.arrangements.get(n).map_or(String::new(), u64::to_string),
-            "1".to_string(),
+            arrangement.to_string(),
         ]);
         row.extend(stages.cells(&view));
         row.extend(
             (0..n_stages).map(|k| t.stages.get(k).map_or(String::new(), |s| is_hunting(s).to_string())),
         );
+        row
+    };
+    for (n, t) in p.trains.iter().enumerate() {
+        let mut row = train_row(n, t, 1);
         let shop = p.shop.get(n);
         row.push(shop.and_then(|s| s.tightest).map_or(String::new(), |c| mm(c.gap_mm)));
         for k in 0..n_stages {
@@ -87,22 +93,7 @@ pub fn write(p: &ReducerPlan, w: &mut dyn Write) -> io::Result<()> {
         // The other arrangements, when asked for: the train's own columns, the shop's left empty
         // (the gear data of the listed arrangement is what the shop cuts).
         for (k, o) in p.others.get(n).into_iter().flatten().enumerate() {
-            let view = TrainJson::from_train(o);
-            let mut row = vec![(n + 1).to_string()];
-            row.extend(train_cells(&view));
-            row.extend([
-                figure(spread(o)),
-                non_hunting(o).to_string(),
-                mm(largest_tip_mm(o)),
-                mm(centre_distance_sum_mm(o)),
-                p.spec.input_rpm.map_or(String::new(), |rpm| decimals(rpm / o.ratio.to_f64(), 3)),
-                p.arrangements.get(n).map_or(String::new(), u64::to_string),
-                (k + 2).to_string(),
-            ]);
-            row.extend(stages.cells(&view));
-            row.extend(
-                (0..n_stages).map(|j| o.stages.get(j).map_or(String::new(), |s| is_hunting(s).to_string())),
-            );
+            let mut row = train_row(n, o, k + 2);
             row.resize(width, String::new());
             c.write_record(&row)?;
         }

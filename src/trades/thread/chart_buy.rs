@@ -33,7 +33,7 @@ pub const MOST_TO_BUY: usize = 3;
 /// The gears that may be bought: up to `most` of them, of any tooth count in `teeth`, cut
 /// standard in one module and pressure angle.
 #[derive(Debug, Clone, PartialEq)]
-pub struct Purchase {
+pub struct Offer {
     /// How many gears a choice may buy, 1 to [`MOST_TO_BUY`].
     pub most: usize,
     /// The tooth counts on offer.
@@ -141,7 +141,7 @@ pub struct BuyChoice {
 #[derive(Debug, Clone, PartialEq)]
 pub struct BuyChart {
     /// The gears on offer.
-    pub purchase: Purchase,
+    pub purchase: Offer,
     /// The series' threads in order (fewer when interrupted).
     pub rows: Vec<BuyRow>,
     /// The best choices: most threads gained, then fewest gears, then smallest teeth. A choice
@@ -204,7 +204,7 @@ struct Shop<'a> {
 }
 
 impl<'a> Shop<'a> {
-    fn new(lathe: &'a Lathe, purchase: &Purchase) -> Shop<'a> {
+    fn new(lathe: &'a Lathe, purchase: &Offer) -> Shop<'a> {
         let mut groups = lathe.pool.groups.clone();
         let offer_group = match groups
             .iter()
@@ -428,7 +428,7 @@ impl<'a> Shop<'a> {
 
 /// Check `purchase` against the lathe: a count of 1 to [`MOST_TO_BUY`], tooth counts the guard
 /// closes over, setups of at most two stages.
-fn check(lathe: &Lathe, purchase: &Purchase) -> Result<()> {
+fn check(lathe: &Lathe, purchase: &Offer) -> Result<()> {
     if purchase.most == 0 || purchase.most > MOST_TO_BUY {
         return Err(Error::problem(format!(
             "the gears to buy: choices of 1 to {MOST_TO_BUY} gears are worked out, not {}",
@@ -465,7 +465,7 @@ fn check(lathe: &Lathe, purchase: &Purchase) -> Result<()> {
 pub fn buy_chart(
     lathe: &Lathe,
     series: &[SeriesEntry],
-    purchase: &Purchase,
+    purchase: &Offer,
     limit: usize,
     options: &RunOptions,
 ) -> Result<BuyChart> {
