@@ -90,26 +90,38 @@ pub fn count_line(count: u64, listed: usize, complete: bool, what: &str, order: 
 }
 
 /// `651 trains, made of 344 gear sets; the best 4 listed ORDER, each by …`: the count line of
-/// a listing of gear sets, each shown by `each` (its best or first arrangement). For a count
-/// of trains above zero; [`count_line`] says the rest.
+/// a listing of gear sets, each shown by `each` (its best or first arrangement). `sets` is
+/// `None` when the search counted trains in bulk without their gear sets; the line says so.
+/// For a count of trains above zero; [`count_line`] says the rest.
 pub fn set_count_line(
     count: u64,
-    sets: u64,
+    sets: Option<u64>,
     listed: usize,
     complete: bool,
     order: &str,
     each: &str,
 ) -> String {
+    let made_of = match sets {
+        Some(sets) => {
+            format!(", made of {} gear set{}", group_thousands(sets), if sets == 1 { "" } else { "s" })
+        }
+        None => NOT_COUNTED.to_string(),
+    };
+    let which = match sets {
+        Some(sets) if listed as u64 == sets => "all".to_string(),
+        Some(_) => format!("the best {listed}"),
+        None => format!("the best {listed} gear set{}", if listed == 1 { "" } else { "s" }),
+    };
     format!(
-        "{}{} train{}, made of {} gear set{}; {} listed {order}, each by {each}:",
+        "{}{} train{}{made_of}; {which} listed {order}, each by {each}:",
         if complete { "" } else { "INCOMPLETE (interrupted): at least " },
         group_thousands(count),
         if count == 1 { "" } else { "s" },
-        group_thousands(sets),
-        if sets == 1 { "" } else { "s" },
-        if listed as u64 == sets { "all".to_string() } else { format!("the best {listed}") },
     )
 }
+
+/// What a count line says of gear sets a search did not count.
+pub const NOT_COUNTED: &str = " (their gear sets are not counted: this search counts trains in bulk)";
 
 /// An identifier such as `ShiftSumOutOfRange` in plain words: `shift sum out of range`.
 pub fn plain_words(id: &str) -> String {
