@@ -196,13 +196,13 @@ proptest! {
 /// unsplit run's.
 fn shards_merge(p: &Problem, parts: u32) -> Result<(), TestCaseError> {
     use gearsieve::engine::Shard;
-    use gearsieve::report::search::{json, SearchReport};
+    use gearsieve::report::search::{view, SearchReport};
     let doc_of = |shard: Option<Shard>| {
         let o = search(p, EngineChoice::Auto, &RunOptions { shard, ..RunOptions::default() });
-        json::doc(&SearchReport { problem: p, outcome: &o, explain: false, shard })
+        view::doc(&SearchReport { problem: p, outcome: &o, explain: false, shard })
     };
     let whole = doc_of(None);
-    let docs: Vec<(String, json::Doc)> =
+    let docs: Vec<(String, gearsieve::report::search::json::Doc)> =
         (1..=parts).map(|i| (format!("part{i}"), doc_of(Some(Shard { index: i, count: parts })))).collect();
     prop_assert_eq!(docs.iter().map(|(_, d)| d.count).sum::<u64>(), whole.count);
     prop_assert_eq!(gearsieve::report::search::merge::merge(docs).unwrap(), whole);

@@ -12,7 +12,7 @@ use gearsieve::model::train::Train;
 use gearsieve::numbers::range::{IntRange, RatioRange};
 use gearsieve::numbers::rational::Ratio;
 use gearsieve::numbers::target::Target;
-use gearsieve::report::search::{json, merge::merge, SearchReport};
+use gearsieve::report::search::{merge::merge, view, SearchReport};
 use gearsieve::{search, EngineChoice, Outcome, Problem, RunOptions, StageLimits};
 use proptest::prelude::*;
 
@@ -163,10 +163,10 @@ proptest! {
             let mut q = p.clone();
             q.gear_sets = true;
             let o = search(&q, EngineChoice::Auto, &RunOptions { shard, ..RunOptions::default() });
-            json::doc(&SearchReport { problem: &q, outcome: &o, explain: false, shard })
+            view::doc(&SearchReport { problem: &q, outcome: &o, explain: false, shard })
         };
         let whole = doc_of(None);
-        let docs: Vec<(String, json::Doc)> =
+        let docs: Vec<(String, gearsieve::report::search::json::Doc)> =
             (1..=parts).map(|i| (format!("part{i}"), doc_of(Some(Shard { index: i, count: parts })))).collect();
         let merged = merge(docs).map_err(|e| TestCaseError::fail(e.to_string()))?;
         prop_assert_eq!(merged, whole);
