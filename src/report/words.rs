@@ -42,12 +42,16 @@ pub fn describe_error(e: &RelError) -> String {
     describe_error_f64(e.to_f64())
 }
 
-/// A relative error read back from JSON, for people: `exact` only when it is zero.
+/// A relative error read back from JSON, for people: `exact` only when it is zero; below a
+/// thousandth of a ppm in the exponent form (`+3.39e-5 ppm`).
 pub fn describe_error_f64(v: f64) -> String {
     if v == 0.0 {
         return "exact".to_string();
     }
-    if v.abs() < 1e-3 {
+    if v.abs() < 1e-9 {
+        // Three decimals of a ppm would read as +0.000: an astronomical train's error is shown.
+        format!("{:+.2e} ppm", v * 1e6)
+    } else if v.abs() < 1e-3 {
         format!("{:+.3} ppm", v * 1e6)
     } else {
         format!("{:+.4}%", v * 100.0)
@@ -151,5 +155,15 @@ mod tests {
     fn identifiers_in_plain_words() {
         assert_eq!(plain_words("ShiftSumOutOfRange"), "shift sum out of range");
         assert_eq!(plain_words("NotCoaxial"), "not coaxial");
+    }
+
+    #[test]
+    fn errors_for_people_keep_a_figure_however_small() {
+        assert_eq!(describe_error_f64(0.0), "exact");
+        assert_eq!(describe_error_f64(0.0123), "+1.2300%");
+        assert_eq!(describe_error_f64(-2.5e-6), "-2.500 ppm");
+        // 42795375/1449188 against a synodic month of 29.530588853 d: 3.4e-11.
+        assert_eq!(describe_error_f64(3.39e-11), "+3.39e-5 ppm");
+        assert_eq!(describe_error_f64(-1.0e-10), "-1.00e-4 ppm");
     }
 }
