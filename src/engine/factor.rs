@@ -12,8 +12,12 @@
 //! lemma over the permutations of the `n` places: a permutation of cycle type λ fixes the
 //! tuples that repeat one stage along each cycle, whose products are `∏ t_c^{l_c}`. The sum
 //! runs over the `k` whose primes are all at most the largest tooth count, up to the largest
-//! `k` the tooth range allows, cut into parts that run in parallel. Every count is a whole
-//! number held exactly.
+//! `k` the tooth range allows, by classes: a prime whose square passes every tooth count is
+//! carried by one gear at most, and primes with the same multiples among the allowed teeth
+//! (not dividing the target) can be swapped in every tooth count, so `k` that differ only in
+//! which of such alike primes carry which exponents have equal terms. One `k` of each class is
+//! counted, times the number of `k` in the class (see `FactorTables::k_classes`); the classes
+//! are cut into parts that run in parallel. Every count is a whole number held exactly.
 //!
 //! Gear sets are counted on the same `k`: a gear set is a multiset of `n` driven teeth with
 //! product `k·p` and one of `n` drivers with product `k·q` (Burnside's lemma on each side alone
