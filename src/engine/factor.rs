@@ -297,7 +297,7 @@ impl FactorTables {
         smooth.sort_unstable();
         let mut out = Vec::new();
         let mut walk = ClassWalk { classes: &self.classes, smooth: &smooth, k_hi, out: &mut out };
-        walk.from_class(0, 1, 1, n as u32);
+        walk.take_classes(0, 1, 1, n as u32);
         out
     }
 
@@ -655,7 +655,7 @@ struct ClassWalk<'a> {
 impl ClassWalk<'_> {
     /// Every class of `k` that takes its large primes from `classes[from..]` on top of `value`
     /// (which stands for `ways` choices of primes), with at most `left` more of them.
-    fn from_class(&mut self, from: usize, value: u64, ways: u64, left: u32) {
+    fn take_classes(&mut self, from: usize, value: u64, ways: u64, left: u32) {
         let fits = self.smooth.partition_point(|&s| s <= self.k_hi / value);
         self.out.extend(self.smooth[..fits].iter().map(|&s| (value * s, ways)));
         if left == 0 {
@@ -694,7 +694,7 @@ impl ClassWalk<'_> {
             }
             exps[i] = e;
             let chosen = &exps[..=i];
-            self.from_class(j + 1, v, ways * placements(class.len() as u64, chosen), left - e);
+            self.take_classes(j + 1, v, ways * placements(class.len() as u64, chosen), left - e);
             if i + 1 < class.len() && i + 1 < MAX_STAGES {
                 self.within(j, i + 1, e, v, ways, left - e, exps);
             }
