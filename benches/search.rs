@@ -74,5 +74,21 @@ fn benches(c: &mut Criterion) {
     g.finish();
 }
 
-criterion_group!(search_benches, benches);
+/// Exact targets over five stages: the factor engine's count by classes of k. The count is the
+/// one the earlier engine (a term for every k) printed for the same search, with the same best 20.
+fn five_stage_benches(c: &mut Criterion) {
+    let mut g = c.benchmark_group("search five stages");
+    g.sample_size(10);
+    let exact = problem("127/120", "0", (12, 160), (5, 5));
+    g.bench_function("fast (factor) 5 stages 12..160 127/120 exact", |b| {
+        b.iter(|| {
+            let out = search(&exact, EngineChoice::Auto, &RunOptions::default());
+            assert_eq!(out.count, 1_297_738_801_453);
+            assert_eq!(out.trains.len(), 20);
+        })
+    });
+    g.finish();
+}
+
+criterion_group!(search_benches, benches, five_stage_benches);
 criterion_main!(search_benches);

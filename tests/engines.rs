@@ -357,6 +357,31 @@ fn factor_engine_equals_exhaustive_on_five_and_six_stages() {
     }
 }
 
+/// Five stages over a range where several primes play alike (13, 17, 19 and 23 are each carried
+/// only by a gear of their own teeth), so the factor engine's classes of `k` stand for many `k`
+/// each, with a prime repeated or several of a class together: held to the sieve, which walks
+/// the stages.
+#[test]
+fn factor_engine_agrees_with_the_sieve_on_five_stages_where_primes_play_alike() {
+    for ratio in ["1", "23/19", "26/17"] {
+        let pool = Pool::to_cut(IntRange { lo: 10, hi: 24 }, 1.0, 20.0, None).unwrap();
+        let target = Target::parse(ratio, "0").unwrap();
+        let p = Problem::new(
+            target,
+            pool,
+            IntRange { lo: 5, hi: 5 },
+            StageLimits::default(),
+            None,
+            DEFAULT_RANK.to_vec(),
+            20,
+        )
+        .unwrap();
+        let sieve = run(&p, EngineChoice::Sieve);
+        assert!(sieve.count > 1000, "{ratio}: {}", sieve.count);
+        assert_eq!(run(&p, EngineChoice::Auto), sieve, "{ratio}");
+    }
+}
+
 /// The factor engine against the sieve, an engine that finds each train by walking stages, on
 /// four stages over a range too wide for the exhaustive reference in a test.
 #[test]
