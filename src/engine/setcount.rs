@@ -131,12 +131,17 @@ impl SetCounter {
         }
     }
 
-    /// The exact tests of a driven product against a driver product: too low, too high.
-    fn edges(&self, q: u64, p: u64) -> impl Fn(u64, u64) -> (bool, bool) + Sync + '_ {
-        move |dq, dp| {
-            let e = RelError::of(p * dp, q * dq, self.target);
-            let out = !e.within(self.tolerance);
-            (out && e.sign < 0, out && e.sign > 0)
+    /// The tests of a driven product against a driver product, for multipliers `q` and `p`.
+    fn edges(&self, q: u64, p: u64) -> Edges<'_> {
+        let float = |r: Ratio| r.num() as f64 / r.den() as f64;
+        let (target, tolerance) = (float(self.target), float(self.tolerance));
+        let per_driver = q as f64 * target / p as f64;
+        Edges {
+            counter: self,
+            q,
+            p,
+            low: per_driver * (1.0 - tolerance),
+            high: per_driver * (1.0 + tolerance),
         }
     }
 
@@ -148,16 +153,16 @@ impl SetCounter {
             // Along the driven list the ratio rises.
             for &w in drivers {
                 let w = w.wide();
-                let from = driven.partition_point(|x| edges(w, x.wide()).0);
-                let to = from + driven[from..].partition_point(|x| !edges(w, x.wide()).1);
+                let from = driven.partition_point(|x| edges.below(w, x.wide()));
+                let to = from + driven[from..].partition_point(|x| !edges.above(w, x.wide()));
                 total += (to - from) as u64;
             }
         } else {
             // Along the driver list the ratio falls.
             for &w in driven {
                 let w = w.wide();
-                let from = drivers.partition_point(|x| edges(x.wide(), w).1);
-                let to = from + drivers[from..].partition_point(|x| !edges(x.wide(), w).0);
+                let from = drivers.partition_point(|x| edges.above(x.wide(), w));
+                let to = from + drivers[from..].partition_point(|x| !edges.below(x.wide(), w));
                 total += (to - from) as u64;
             }
         }
@@ -173,18 +178,18 @@ impl SetCounter {
             .par_chunks(SLICE)
             .map(|slice| {
                 let first = slice[0].wide();
-                let mut from = driven.partition_point(|x| edges(first, x.wide()).0);
-                let mut to = from + driven[from..].partition_point(|x| !edges(first, x.wide()).1);
+                let mut from = driven.partition_point(|x| edges.below(first, x.wide()));
+                let mut to = from + driven[from..].partition_point(|x| !edges.above(first, x.wide()));
                 let mut total = 0u64;
                 let mut last = first;
                 for &w in slice {
                     let w = w.wide();
                     if w != last {
-                        while from < driven.len() && edges(w, driven[from].wide()).0 {
+                        while from < driven.len() && edges.below(w, driven[from].wide()) {
                             from += 1;
                         }
                         to = to.max(from);
-                        while to < driven.len() && !edges(w, driven[to].wide()).1 {
+                        while to < driven.len() && !edges.above(w, driven[to].wide()) {
                             to += 1;
                         }
                         last = w;
@@ -194,6 +199,55 @@ impl SetCounter {
                 total
             })
             .sum()
+    }
+}
+
+/// Is `p·P / (q·Q)` below or above the target's tolerance band: decided by floats where the
+/// driven product `P` is far from the band's edge (a relative margin of 10⁻⁹, far above the
+/// rounding of a few products), exactly by cross-multiplication near it.
+struct Edges<'a> {
+    counter: &'a SetCounter,
+    q: u64,
+    p: u64,
+    /// The band's edges for `P` per unit of `Q`, as floats.
+    low: f64,
+    high: f64,
+}
+
+impl Edges<'_> {
+    /// The exact error of the pair.
+    fn error(&self, dq: u64, dp: u64) -> RelError {
+        RelError::of(self.p * dp, self.q * dq, self.counter.target)
+    }
+
+    /// Is driven product `dp` too small for driver product `dq`?
+    fn below(&self, dq: u64, dp: u64) -> bool {
+        let edge = dq as f64 * self.low;
+        let margin = edge.abs() * 1e-9;
+        let x = dp as f64;
+        if x < edge - margin {
+            return true;
+        }
+        if x > edge + margin {
+            return false;
+        }
+        let e = self.error(dq, dp);
+        e.sign < 0 && !e.within(self.counter.tolerance)
+    }
+
+    /// Is driven product `dp` too large for driver product `dq`?
+    fn above(&self, dq: u64, dp: u64) -> bool {
+        let edge = dq as f64 * self.high;
+        let margin = edge.abs() * 1e-9;
+        let x = dp as f64;
+        if x > edge + margin {
+            return true;
+        }
+        if x < edge - margin {
+            return false;
+        }
+        let e = self.error(dq, dp);
+        e.sign > 0 && !e.within(self.counter.tolerance)
     }
 }
 
@@ -230,21 +284,60 @@ fn multiset_count(s: u64, k: u64) -> u64 {
 }
 
 /// The product of every multiset of `k` members of `teeth`, one entry a multiset, sorted.
+/// Long lists are sorted in two steps: the products are counted into buckets by their leading
+/// bits, listed again straight into their buckets, and each bucket is sorted on its own (in
+/// parallel, each small enough to stay in cache).
 fn products<T: Product>(teeth: &[u32], k: usize) -> Vec<T> {
+    const BUCKET_BITS: u32 = 16;
     let members: Vec<u64> = teeth.iter().map(|&t| t as u64).collect();
-    let mut all = Vec::with_capacity(multiset_count(members.len() as u64, k as u64) as usize);
-    fn walk<T: Product>(members: &[u64], k: usize, from: usize, product: u64, out: &mut Vec<T>) {
-        if k == 0 {
-            out.push(T::narrow(product));
-            return;
-        }
-        for i in from..members.len() {
-            walk(members, k - 1, i, product * members[i], out);
-        }
+    let len = multiset_count(members.len() as u64, k as u64) as usize;
+    let largest = members.iter().copied().max().unwrap_or(1).pow(k as u32);
+    let shift = (u64::BITS - largest.leading_zeros()).saturating_sub(BUCKET_BITS);
+    if len < 1 << BUCKET_BITS || shift == 0 {
+        let mut all = Vec::with_capacity(len);
+        each_product(&members, k, 0, 1, &mut |x| all.push(T::narrow(x)));
+        all.sort_unstable();
+        return all;
     }
-    walk(&members, k, 0, 1, &mut all);
-    all.par_sort_unstable();
+    let mut starts = vec![0usize; (largest >> shift) as usize + 2];
+    each_product(&members, k, 0, 1, &mut |x| starts[(x >> shift) as usize + 1] += 1);
+    for b in 1..starts.len() {
+        starts[b] += starts[b - 1];
+    }
+    let mut all = vec![T::narrow(0); len];
+    let mut next = starts.clone();
+    each_product(&members, k, 0, 1, &mut |x| {
+        let slot = &mut next[(x >> shift) as usize];
+        all[*slot] = T::narrow(x);
+        *slot += 1;
+    });
+    let mut buckets = Vec::with_capacity(starts.len());
+    let mut rest = &mut all[..];
+    for pair in starts.windows(2) {
+        let (bucket, tail) = rest.split_at_mut(pair[1] - pair[0]);
+        buckets.push(bucket);
+        rest = tail;
+    }
+    buckets.par_iter_mut().with_min_len(64).for_each(|b| b.sort_unstable());
     all
+}
+
+/// Call `visit` with the product of every multiset of `k` members of `members[from..]`, times
+/// `product`.
+fn each_product(members: &[u64], k: usize, from: usize, product: u64, visit: &mut dyn FnMut(u64)) {
+    if k == 0 {
+        visit(product);
+        return;
+    }
+    if k == 1 {
+        for &m in &members[from..] {
+            visit(product * m);
+        }
+        return;
+    }
+    for i in from..members.len() {
+        each_product(members, k - 1, i, product * members[i], visit);
+    }
 }
 
 #[cfg(test)]
@@ -262,6 +355,19 @@ mod tests {
         assert_eq!(products::<u32>(&[2, 3, 4], 2), vec![4, 6, 8, 9, 12, 16]);
         assert_eq!(products::<u64>(&[2, 4, 8], 2), vec![4, 8, 16, 16, 32, 64]);
         assert_eq!(products::<u32>(&[5], 0), vec![1]);
+    }
+
+    #[test]
+    fn long_lists_are_sorted_through_buckets() {
+        // 49 tooth counts taken 4: C(52, 4) = 270,725 multisets, past the plain sort.
+        let teeth: Vec<u32> = (12..=60).collect();
+        let listed = products::<u32>(&teeth, 4);
+        let mut plain = Vec::new();
+        each_product(&teeth.iter().map(|&t| t as u64).collect::<Vec<_>>(), 4, 0, 1, &mut |x| plain.push(x));
+        plain.sort_unstable();
+        assert_eq!(listed.len(), 270_725);
+        assert_eq!(listed.iter().map(|&x| x as u64).collect::<Vec<_>>(), plain);
+        assert_eq!(products::<u64>(&teeth, 4).into_iter().map(|x| x as u32).collect::<Vec<_>>(), listed);
     }
 
     fn counter(drivers: &[u32], driven: &[u32], target: (u64, u64), tol_ppm: u64) -> SetCounter {
