@@ -75,8 +75,9 @@ impl SetCounter {
     fn count_as<T: Product>(&self, n: usize) -> Option<u64> {
         // One list serves both sides when they allow the same teeth.
         let shared = self.drivers == self.driven;
-        let listed =
-            |teeth: &[u32]| (0..=n).fold(0u64, |all, k| all.saturating_add(multiset_count(teeth.len() as u64, k as u64)));
+        let listed = |teeth: &[u32]| {
+            (0..=n).fold(0u64, |all, k| all.saturating_add(multiset_count(teeth.len() as u64, k as u64)))
+        };
         let mut entries = listed(&self.drivers);
         if !shared {
             entries = entries.saturating_add(listed(&self.driven));
@@ -423,7 +424,9 @@ mod tests {
             let q: u64 = a.iter().map(|&t| t as u64).product();
             for b in multisets(&c.driven, n) {
                 let p: u64 = b.iter().map(|&t| t as u64).product();
-                if RelError::of(p, q, c.target).within(c.tolerance) && pairs_without_one_to_one(&a, &mut b.clone(), 0) {
+                if RelError::of(p, q, c.target).within(c.tolerance)
+                    && pairs_without_one_to_one(&a, &mut b.clone(), 0)
+                {
                     sets += 1;
                 }
             }
