@@ -50,7 +50,7 @@ use super::tally::Tally;
 use crate::model::pool::MAX_STAGES;
 use crate::model::rank::Candidate;
 use crate::numbers::rational::RelError;
-use crate::numbers::smooth::{primes_up_to, Factored, SmoothPart, ToothSet};
+use crate::numbers::smooth::{for_each_smooth, primes_up_to, Factored, ToothSet};
 
 /// Largest tooth count for which five- and six-stage trains are counted here: the table of
 /// ordered triples has (teeth)³ entries, 66 MB at this bound.
@@ -511,7 +511,7 @@ impl FactorTables {
         while from <= k_hi {
             // (k, its largest prime), ascending.
             let mut ks: Vec<(u64, u64)> = Vec::new();
-            SmoothPart::ALL.for_each(&self.primes, from, cap, &mut |k| {
+            for_each_smooth(&self.primes, from, cap, &mut |k| {
                 ks.push((k.value(), k.largest_prime()));
                 true
             });

@@ -223,32 +223,28 @@ impl Edges<'_> {
 
     /// Is driven product `dp` too small for driver product `dq`?
     fn below(&self, dq: u64, dp: u64) -> bool {
-        let edge = dq as f64 * self.low;
-        let margin = edge.abs() * 1e-9;
-        let x = dp as f64;
-        if x < edge - margin {
-            return true;
-        }
-        if x > edge + margin {
-            return false;
-        }
-        let e = self.error(dq, dp);
-        e.sign < 0 && !e.within(self.counter.tolerance)
+        self.outside(dq, dp, self.low, -1)
     }
 
     /// Is driven product `dp` too large for driver product `dq`?
     fn above(&self, dq: u64, dp: u64) -> bool {
-        let edge = dq as f64 * self.high;
+        self.outside(dq, dp, self.high, 1)
+    }
+
+    /// Is the pair past the band's edge `edge_per_driver·dq` on the side `sign` (−1 below, +1
+    /// above)? By floats away from the edge, exactly near it.
+    fn outside(&self, dq: u64, dp: u64, edge_per_driver: f64, sign: i8) -> bool {
+        let edge = dq as f64 * edge_per_driver;
         let margin = edge.abs() * 1e-9;
-        let x = dp as f64;
-        if x > edge + margin {
+        let past = (dp as f64 - edge) * sign as f64;
+        if past > margin {
             return true;
         }
-        if x < edge - margin {
+        if past < -margin {
             return false;
         }
         let e = self.error(dq, dp);
-        e.sign > 0 && !e.within(self.counter.tolerance)
+        e.sign == sign && !e.within(self.counter.tolerance)
     }
 }
 

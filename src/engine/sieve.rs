@@ -119,11 +119,8 @@ impl Stock {
         for g in [s.driver as usize, s.driven as usize] {
             self.used[g] += 1;
             ok &= gears[g].quantity.is_none_or(|q| self.used[g] <= q);
-            if let Some(b) = &space.budget {
-                // One more of a kind bought once those on hand are all in use.
-                if b.on_hand[g].is_some_and(|h| self.used[g] > h) {
-                    self.bought += 1;
-                }
+            if space.budget.as_ref().is_some_and(|b| b.is_bought(g, self.used[g])) {
+                self.bought += 1;
             }
         }
         ok && space.budget.as_ref().is_none_or(|b| self.bought <= b.most)
@@ -133,10 +130,8 @@ impl Stock {
         if self.active {
             let s = &space.stages[i];
             for g in [s.driver as usize, s.driven as usize] {
-                if let Some(b) = &space.budget {
-                    if b.on_hand[g].is_some_and(|h| self.used[g] > h) {
-                        self.bought -= 1;
-                    }
+                if space.budget.as_ref().is_some_and(|b| b.is_bought(g, self.used[g])) {
+                    self.bought -= 1;
                 }
                 self.used[g] -= 1;
             }

@@ -237,26 +237,7 @@ impl Purchase {
             .collect();
         Budget { most: self.most, on_hand }
     }
-}
 
-/// The gears to buy counted per kind of a search's pool, for pruning a search as it goes.
-#[derive(Debug, Clone, PartialEq)]
-pub struct Budget {
-    /// Most gears a train may need bought.
-    pub most: u32,
-    /// Per kind of the pool: how many are on hand when that kind may be bought, `None` for a
-    /// kind never bought. A train using `n` of a kind with `Some(h)` buys
-    /// [`bought_beyond`]`(n, h)` of it, the count [`Purchase::to_buy`] gives.
-    pub on_hand: Vec<Option<u32>>,
-}
-
-/// Gears to buy when `used` of a kind are needed and `on_hand` are on the shelf:
-/// `max(0, used − on hand)`. The one to-buy rule of every search with gears to buy.
-pub fn bought_beyond(used: u32, on_hand: u32) -> u32 {
-    used.saturating_sub(on_hand)
-}
-
-impl Purchase {
     /// One line for reports, e.g. `up to 1 gear of 20..127 teeth, module 1.5 mm, 20°, cut
     /// standard`.
     pub fn describe(&self) -> String {
@@ -276,6 +257,31 @@ pub fn describe_to_buy(to_buy: &[ToBuy]) -> String {
         return "nothing".into();
     }
     to_buy.iter().map(|b| format!("{} × {}", b.count, b.teeth)).collect::<Vec<_>>().join(", ")
+}
+
+/// The gears to buy counted per kind of a search's pool, for pruning a search as it goes.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Budget {
+    /// Most gears a train may need bought.
+    pub most: u32,
+    /// Per kind of the pool: how many are on hand when that kind may be bought, `None` for a
+    /// kind never bought. A train using `n` of a kind with `Some(h)` buys
+    /// [`bought_beyond`]`(n, h)` of it, the count [`Purchase::to_buy`] gives.
+    pub on_hand: Vec<Option<u32>>,
+}
+
+impl Budget {
+    /// Is the `nth` gear of kind `kind` in use (counting from 1) one bought? Those on hand are
+    /// used first, so the gears bought of a kind are [`bought_beyond`]`(used, on hand)`.
+    pub fn is_bought(&self, kind: usize, nth: u32) -> bool {
+        self.on_hand[kind].is_some_and(|h| nth > h)
+    }
+}
+
+/// Gears to buy when `used` of a kind are needed and `on_hand` are on the shelf:
+/// `max(0, used − on hand)`. The one to-buy rule of every search with gears to buy.
+pub fn bought_beyond(used: u32, on_hand: u32) -> u32 {
+    used.saturating_sub(on_hand)
 }
 
 #[cfg(test)]

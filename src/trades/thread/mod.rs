@@ -430,7 +430,7 @@ impl Lathe {
         // cuts the leadscrew's own pitch) or on a compound stud they are an ordinary setup.
         p.equal_teeth_stages = true;
         let banjo = if geometry { self.banjo.clone() } else { None };
-        let buy = self.buy.as_ref().map(|b| b.pool().map(|pool| (b.clone(), pool))).transpose()?;
+        let buy = self.buying_pool()?;
         let (pool, bought) = (self.pool.clone(), buy.clone());
         p.train_check = Some(TrainCheck::new(move |t: &Train| {
             pitch_error(t.ratio, need).within(tolerance)
@@ -452,6 +452,12 @@ impl Lathe {
         Ok(p)
     }
 
+    /// With gears to buy, the purchase and the pool it makes (the gears on hand and those on
+    /// offer), which a banjo may take a bought idler from.
+    fn buying_pool(&self) -> Result<Option<(Purchase, Pool)>> {
+        self.buy.as_ref().map(|b| b.pool().map(|pool| (b.clone(), pool))).transpose()
+    }
+
     fn setup(
         &self,
         thread: &ThreadSpec,
@@ -459,7 +465,7 @@ impl Lathe {
         position: Option<&GearboxPosition>,
         need: Ratio,
     ) -> Setup {
-        let buy = self.buy.as_ref().and_then(|b| b.pool().ok().map(|pool| (b.clone(), pool)));
+        let buy = self.buying_pool().ok().flatten();
         let fit = match &self.banjo {
             // The search kept only trains the banjo takes, so a refusal here cannot happen.
             Some(b) => fit_buying(b, &train, &self.pool, buy.as_ref())
@@ -576,7 +582,7 @@ impl Lathe {
         let Some(banjo) = &self.banjo else {
             return Ok(Vec::new());
         };
-        let buy = self.buy.as_ref().map(|b| b.pool().map(|pool| (b.clone(), pool))).transpose()?;
+        let buy = self.buying_pool()?;
         let mut out = Vec::new();
         // Ratio-only searches, then keep what the banjo refuses.
         for (position, need, problem) in self.searches(thread, self.tolerance, self.explain_limit(), false)? {
