@@ -56,3 +56,5 @@ run_chart_case "chart --buy 2, metric coarse, demo lathe" --lathe catalogs/lathe
 run_chart_case "chart --buy 2, metric coarse, demo lathe without its 127, exact" --lathe catalogs/lathe/brackenfold.lathe --stock catalogs/lathe-change-gears-no127.csv --series iso-coarse --tol 0 --buy 2
 # A trade's search on the bulk engines: the astronomical clock's moon-phase train.
 run_command "clock astro, synodic month, 4 stages, 1 ppm (default teeth 8..150)" "clock astro" count --period synodic-month --tol 1ppm --stages 4
+# A reducer in a fixed housing: stages that mesh in no place are left out before the search.
+run_command "reducer, 3 stages, modules 1/1.5/2, housing 50/70/100 mm, 0.5%" reducer count --ratio 37.5 --modules 1,1.5,2 --stages 3 --centre-distances 50,70,100 --tol 0.5%

@@ -128,6 +128,26 @@ pub struct SearchSpace<'p> {
 /// ratios, far below any tolerance worth asking for. Exact checks decide after it.
 const FLOAT_MARGIN: f64 = 1e-9;
 
+/// A stage of the table as a train lists it: its gears with their labels and as made, its
+/// mesh group, and its mesh (`mesh`, a coaxial train's own, else the table's).
+fn listed_stage(problem: &Problem, s: &StageDef, mesh: Option<MeshGeometry>) -> Stage {
+    let pool = &problem.pool;
+    let gear = |k: u32| {
+        let g = &pool.gears[k as usize];
+        Gear { teeth: g.teeth, labels: g.labels.clone(), made: g.made }
+    };
+    let group = &pool.groups[pool.gears[s.driver as usize].group];
+    Stage {
+        driver: gear(s.driver),
+        driven: gear(s.driven),
+        module_mm: group.module_mm,
+        pressure_angle_deg: group.pressure_angle_deg,
+        diametral_pitch: group.diametral_pitch,
+        mesh: mesh.or(s.mesh),
+        on_hand_defects: s.made_defects.clone(),
+    }
+}
+
 impl<'p> SearchSpace<'p> {
     /// Build the stage table for `problem`.
     pub fn new(problem: &'p Problem, cancel: Option<&'p AtomicBool>) -> SearchSpace<'p> {
@@ -178,7 +198,7 @@ impl<'p> SearchSpace<'p> {
                         }
                     }
                 };
-                stages.push(StageDef {
+                let def = StageDef {
                     driver: i as u32,
                     driven: j as u32,
                     driver_teeth: a.teeth,
@@ -196,7 +216,22 @@ impl<'p> SearchSpace<'p> {
                             &(DEFAULT_SHIFT_SUM.0..=DEFAULT_SHIFT_SUM.1),
                         )
                     },
-                });
+                };
+                if let Some(check) = &problem.stage_check {
+                    if !(check.check)(&listed_stage(problem, &def, None)) {
+                        let kind = check.kind.to_string();
+                        match rejected.iter_mut().find(|r| r.kind == kind) {
+                            Some(r) => r.count += 1,
+                            None => rejected.push(Rejection {
+                                kind,
+                                count: 1,
+                                example: format!("{}→{}", a.teeth, b.teeth),
+                            }),
+                        }
+                        continue;
+                    }
+                }
+                stages.push(def);
             }
         }
         stages.sort_by(|x, y| {
@@ -430,28 +465,13 @@ impl<'p> SearchSpace<'p> {
 
     /// Turn a candidate into a full train for reporting.
     pub fn train(&self, c: &Candidate) -> Train {
-        let pool = &self.problem.pool;
         let coaxial = if self.needs_coaxial_fit() { self.coaxial_meshes(c.stage_indices()) } else { None };
-        let gear = |k: u32| {
-            let g = &pool.gears[k as usize];
-            Gear { teeth: g.teeth, labels: g.labels.clone(), made: g.made }
-        };
         let mut stages: Vec<Stage> = c
             .stage_indices()
             .iter()
             .enumerate()
             .map(|(n, &i)| {
-                let s = &self.stages[i as usize];
-                let group = &pool.groups[pool.gears[s.driver as usize].group];
-                Stage {
-                    driver: gear(s.driver),
-                    driven: gear(s.driven),
-                    module_mm: group.module_mm,
-                    pressure_angle_deg: group.pressure_angle_deg,
-                    diametral_pitch: group.diametral_pitch,
-                    mesh: coaxial.as_ref().map(|m| m[n]).or(s.mesh),
-                    on_hand_defects: s.made_defects.clone(),
-                }
+                listed_stage(self.problem, &self.stages[i as usize], coaxial.as_ref().map(|m| m[n]))
             })
             .collect();
         // Shown finer module first (toward the input, as reducers are built), then in table

@@ -10,7 +10,7 @@ use crate::geometry::{CycloidalLimits, MeshLimits, RackProfile};
 use crate::model::pool::{Pool, MAX_STAGES};
 use crate::model::purchase::Purchase;
 use crate::model::rank::RankKey;
-use crate::model::train::{Direction, Train};
+use crate::model::train::{Direction, Stage, Train};
 use crate::numbers::range::{FloatRange, IntRange, RatioRange};
 use crate::numbers::target::Target;
 
@@ -25,6 +25,38 @@ impl TrainCheck {
     /// Wrap a predicate.
     pub fn new(f: impl Fn(&Train) -> bool + Send + Sync + 'static) -> TrainCheck {
         TrainCheck(Arc::new(f))
+    }
+}
+
+/// A per-stage requirement beyond the [`StageLimits`] (a reducer's housing: the stage must
+/// mesh in some place of its module). Called once per allowed pairing while the stage table is
+/// built, with the stage as the search would list it (its worked-out mesh when meshes are
+/// checked); `false` leaves the pairing out of every train. Must be a pure function of the
+/// stage.
+#[derive(Clone)]
+pub struct StageCheck {
+    /// The kind of rejection a pairing it leaves out counts as (e.g. `FitsNoPlace`).
+    pub kind: &'static str,
+    /// The predicate.
+    pub check: Arc<dyn Fn(&Stage) -> bool + Send + Sync>,
+}
+
+impl StageCheck {
+    /// Wrap a predicate whose refusals count as rejections of kind `kind`.
+    pub fn new(kind: &'static str, f: impl Fn(&Stage) -> bool + Send + Sync + 'static) -> StageCheck {
+        StageCheck { kind, check: Arc::new(f) }
+    }
+}
+
+impl fmt::Debug for StageCheck {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        write!(f, "StageCheck({})", self.kind)
+    }
+}
+
+impl PartialEq for StageCheck {
+    fn eq(&self, other: &Self) -> bool {
+        self.kind == other.kind && Arc::ptr_eq(&self.check, &other.check)
     }
 }
 
@@ -154,6 +186,9 @@ pub struct Problem {
     pub limit: usize,
     /// Extra train-level requirement, if any (set after [`Problem::new`]).
     pub train_check: Option<TrainCheck>,
+    /// Extra per-stage requirement, if any, judged once per stage while the stage table is
+    /// built (set after [`Problem::new`]).
+    pub stage_check: Option<StageCheck>,
     /// Mesh geometry rules, if meshes are to be worked out and checked (set with
     /// [`Problem::with_mesh_rules`]).
     pub mesh: Option<MeshRules>,
@@ -210,6 +245,7 @@ impl Problem {
             rank,
             limit,
             train_check: None,
+            stage_check: None,
             mesh: None,
             pareto: false,
             extra_key: None,

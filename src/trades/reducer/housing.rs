@@ -50,6 +50,12 @@ impl Places {
         check_mesh(&mesh, &self.rules.limits).is_empty().then_some(mesh)
     }
 
+    /// Does `stage` mesh in one of the first `places` places? A stage that fits none can be in
+    /// no train of that many stages.
+    pub fn fits_some_place(&self, stage: &Stage, places: usize) -> bool {
+        (0..places).any(|k| self.mesh(stage, k).is_some())
+    }
+
     /// The first order of the train's stages (input to output) that fits every place, with
     /// each stage's mesh; `None` when no order fits. Orders are tried from the train's own
     /// (finer module first, then ascending stage ratio), so the result is deterministic.

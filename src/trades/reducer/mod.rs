@@ -27,9 +27,9 @@ use std::sync::Arc;
 use crate::engine::{search, RunOptions};
 use crate::error::{Error, Message, Quantity, Result};
 use crate::model::pool::{Pool, StockGear, MAX_STAGES};
-use crate::model::problem::{ExtraKey, MeshRules, Problem, StageLimits, TrainCheck};
+use crate::model::problem::{ExtraKey, MeshRules, Problem, StageCheck, StageLimits, TrainCheck};
 use crate::model::rank::RankKey;
-use crate::model::train::Train;
+use crate::model::train::{Stage, Train};
 use crate::numbers::range::{FloatRange, IntRange, RatioRange};
 use crate::numbers::rational::Ratio;
 use crate::numbers::target::Target;
@@ -319,6 +319,13 @@ impl ReducerSpec {
             p = p.with_mesh_rules(places.rules.clone())?;
         }
         let places = Arc::new(places);
+        if !self.centre_distances_mm.is_empty() {
+            // A stage that meshes in no place of its module at the housing's distance is left
+            // out of the stage table once, rather than train by train.
+            let (places, most) = (places.clone(), stages.hi as usize);
+            p.stage_check =
+                Some(StageCheck::new("FitsNoPlace", move |s: &Stage| places.fits_some_place(s, most)));
+        }
         let require = self.hunting == Hunting::Require;
         let shop = self.shop;
         p.train_check = Some(TrainCheck::new(move |t: &Train| {
@@ -396,6 +403,33 @@ mod tests {
                 rack: crate::geometry::RackProfile::default(),
             },
         }
+    }
+
+    #[test]
+    fn leaving_out_stages_that_fit_no_place_changes_no_result() {
+        // Two places of a fixed housing, modules 1 and 1.5: the stage check must only shrink the
+        // stage table, never the trains found (held to the search without it).
+        let mut s = spec(&[1.0, 1.5], IntRange { lo: 17, hi: 60 });
+        s.ratio = Ratio::integer(8);
+        s.ratio_text = "8".into();
+        s.tolerance = Ratio::new(2, 100).unwrap();
+        s.centre_distances_mm = vec![40.0, 60.0];
+        s.limit = 50;
+        let with = s.problem().unwrap();
+        let without = Problem { stage_check: None, ..with.clone() };
+        assert!(with.stage_check.is_some());
+        let (a, b) =
+            (crate::engine::SearchSpace::new(&with, None), crate::engine::SearchSpace::new(&without, None));
+        assert!(a.stages.len() * 4 < b.stages.len(), "{} of {} stages kept", a.stages.len(), b.stages.len());
+        assert!(a.rejections().iter().any(|r| r.kind == "FitsNoPlace"));
+        let options = RunOptions::default();
+        let (x, y) = (
+            search(&with, crate::engine::EngineChoice::Sieve, &options),
+            search(&without, crate::engine::EngineChoice::Sieve, &options),
+        );
+        assert!(x.count > 5, "{} trains", x.count);
+        assert_eq!((x.count, x.gear_set_count), (y.count, y.gear_set_count));
+        assert_eq!(x.trains, y.trains);
     }
 
     #[test]
