@@ -56,6 +56,14 @@ pub struct Rejection {
     pub example: String,
 }
 
+/// Count one pairing left out for `kind`, the first of a kind giving the example.
+fn count_rejection(rejected: &mut Vec<Rejection>, kind: String, example: impl FnOnce() -> String) {
+    match rejected.iter_mut().find(|r| r.kind == kind) {
+        Some(r) => r.count += 1,
+        None => rejected.push(Rejection { kind, count: 1, example: example() }),
+    }
+}
+
 fn defect_kind(d: &MeshDefect) -> String {
     let dbg = format!("{d:?}");
     dbg.split([' ', '{', '(']).next().unwrap_or("").to_string()
@@ -186,13 +194,7 @@ impl<'p> SearchSpace<'p> {
                         match stage_mesh(rules, &pool.groups[a.group], [a.teeth, b.teeth], [a.made, b.made]) {
                             Ok(m) => m,
                             Err(d) => {
-                                let kind = defect_kind(&d);
-                                match rejected.iter_mut().find(|r| r.kind == kind) {
-                                    Some(r) => r.count += 1,
-                                    None => {
-                                        rejected.push(Rejection { kind, count: 1, example: d.to_string() })
-                                    }
-                                }
+                                count_rejection(&mut rejected, defect_kind(&d), || d.to_string());
                                 continue;
                             }
                         }
@@ -217,19 +219,14 @@ impl<'p> SearchSpace<'p> {
                         )
                     },
                 };
-                if let Some(check) = &problem.stage_check {
-                    if !(check.check)(&listed_stage(problem, &def, None)) {
-                        let kind = check.kind.to_string();
-                        match rejected.iter_mut().find(|r| r.kind == kind) {
-                            Some(r) => r.count += 1,
-                            None => rejected.push(Rejection {
-                                kind,
-                                count: 1,
-                                example: format!("{}→{}", a.teeth, b.teeth),
-                            }),
-                        }
-                        continue;
-                    }
+                let listed = (!problem.stage_checks.is_empty()).then(|| listed_stage(problem, &def, None));
+                let refused =
+                    listed.as_ref().and_then(|st| problem.stage_checks.iter().find(|c| !(c.check)(st)));
+                if let Some(check) = refused {
+                    count_rejection(&mut rejected, check.kind.to_string(), || {
+                        format!("{}→{}", a.teeth, b.teeth)
+                    });
+                    continue;
                 }
                 stages.push(def);
             }

@@ -186,9 +186,9 @@ pub struct Problem {
     pub limit: usize,
     /// Extra train-level requirement, if any (set after [`Problem::new`]).
     pub train_check: Option<TrainCheck>,
-    /// Extra per-stage requirement, if any, judged once per stage while the stage table is
-    /// built (set after [`Problem::new`]).
-    pub stage_check: Option<StageCheck>,
+    /// Extra per-stage requirements, each judged once per stage while the stage table is built
+    /// (set after [`Problem::new`]).
+    pub stage_checks: Vec<StageCheck>,
     /// Mesh geometry rules, if meshes are to be worked out and checked (set with
     /// [`Problem::with_mesh_rules`]).
     pub mesh: Option<MeshRules>,
@@ -245,7 +245,7 @@ impl Problem {
             rank,
             limit,
             train_check: None,
-            stage_check: None,
+            stage_checks: Vec::new(),
             mesh: None,
             pareto: false,
             extra_key: None,

@@ -323,10 +323,13 @@ impl ReducerSpec {
             // A stage that meshes in no place of its module at the housing's distance is left
             // out of the stage table once, rather than train by train.
             let (places, most) = (places.clone(), stages.hi as usize);
-            p.stage_check =
-                Some(StageCheck::new("FitsNoPlace", move |s: &Stage| places.fits_some_place(s, most)));
+            p.stage_checks
+                .push(StageCheck::new("FitsNoPlace", move |s: &Stage| places.fits_some_place(s, most)));
         }
         let require = self.hunting == Hunting::Require;
+        if require {
+            p.stage_checks.push(StageCheck::new("NotHunting", hunting::is_hunting));
+        }
         let shop = self.shop;
         p.train_check = Some(TrainCheck::new(move |t: &Train| {
             (!require || hunting::non_hunting(t) == 0)
@@ -416,8 +419,8 @@ mod tests {
         s.centre_distances_mm = vec![40.0, 60.0];
         s.limit = 50;
         let with = s.problem().unwrap();
-        let without = Problem { stage_check: None, ..with.clone() };
-        assert!(with.stage_check.is_some());
+        let without = Problem { stage_checks: Vec::new(), ..with.clone() };
+        assert_eq!(with.stage_checks.len(), 1);
         let (a, b) =
             (crate::engine::SearchSpace::new(&with, None), crate::engine::SearchSpace::new(&without, None));
         assert!(a.stages.len() * 4 < b.stages.len(), "{} of {} stages kept", a.stages.len(), b.stages.len());
