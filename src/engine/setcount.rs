@@ -183,7 +183,25 @@ impl SetCounter {
     /// [`SetCounter::count`] when only some pairings are stages, with products held as `P` and
     /// multisets packed into `I` (`bits` a member), which must hold the largest of each.
     fn count_matched<P: Product, I: Product>(&self, n: usize, stage: &[bool], bits: u32) -> Option<u64> {
-        let shared = self.drivers == self.driven;
+        // A side's multisets whose product meets no product of the other side's within
+        // tolerance are left out (by floats widened well past their rounding: the sweep
+        // decides exactly).
+        let float = |r: Ratio| r.num() as f64 / r.den() as f64;
+        let (target, tolerance) = (float(self.target), float(self.tolerance));
+        let (low, high) =
+            (target * (1.0 - tolerance) * (1.0 - 1e-9), target * (1.0 + tolerance) * (1.0 + 1e-9));
+        let extremes = |teeth: &[u32]| {
+            let power = |t: Option<&u32>| (t.copied().unwrap_or(1) as f64).powi(n as i32);
+            (power(teeth.first()), power(teeth.last()))
+        };
+        let ((least_q, most_q), (least_p, most_p)) = (extremes(&self.drivers), extremes(&self.driven));
+        let to_u64 = |x: f64| if x >= u64::MAX as f64 { u64::MAX } else { x.max(0.0) as u64 };
+        // A tolerance of 100 % or more leaves no least ratio.
+        let most_per_driven = if low > 0.0 { most_p / low } else { f64::INFINITY };
+        let keep_drivers = (to_u64((least_p / high).floor()), to_u64(most_per_driven.ceil()));
+        let keep_driven = (to_u64((least_q * low).floor()), to_u64((most_q * high).ceil()));
+        // One list serves both sides when they allow the same teeth and keep the same.
+        let shared = self.drivers == self.driven && keep_drivers == keep_driven;
         let mut entries = multiset_count(self.drivers.len() as u64, n as u64);
         if !shared {
             entries = entries.saturating_add(multiset_count(self.driven.len() as u64, n as u64));
@@ -191,8 +209,9 @@ impl SetCounter {
         if entries.saturating_mul(std::mem::size_of::<(P, I)>() as u64) > PRODUCT_BYTES_BUDGET {
             return None;
         }
-        let drivers = member_sets::<P, I>(&self.drivers, n, bits);
-        let driven_own = if shared { Vec::new() } else { member_sets::<P, I>(&self.driven, n, bits) };
+        let drivers = member_sets::<P, I>(&self.drivers, n, bits, keep_drivers);
+        let driven_own =
+            if shared { Vec::new() } else { member_sets::<P, I>(&self.driven, n, bits, keep_driven) };
         let driven = if shared { &drivers } else { &driven_own };
         let matcher = Matcher { stage, width: self.driven.len(), n, bits };
         let edges = self.edges(1, 1);
@@ -444,38 +463,45 @@ fn multiset_count(s: u64, k: u64) -> u64 {
 /// The product of every multiset of `k` members of `teeth`, one entry a multiset, sorted.
 fn products<T: Product>(teeth: &[u32], k: usize) -> Vec<T> {
     let members: Vec<u64> = teeth.iter().map(|&t| t as u64).collect();
-    by_product(&members, k, T::narrow(0), &|visit| {
+    let largest = members.iter().copied().max().unwrap_or(1).pow(k as u32);
+    by_product(multiset_count(members.len() as u64, k as u64), largest, T::narrow(0), &|visit| {
         each_product(&members, k, 0, 1, &mut |x| visit(x, T::narrow(x)))
     })
 }
 
-/// Every multiset of `k` members of `teeth` as (product, the members' places in `teeth`
-/// packed `bits` a member, the first lowest), sorted.
-fn member_sets<P: Product, I: Product>(teeth: &[u32], k: usize, bits: u32) -> Vec<(P, I)> {
+/// Every multiset of `k` members of `teeth` whose product is within `keep` (inclusive) as
+/// (product, the members' places in `teeth` packed `bits` a member, the first lowest), sorted.
+fn member_sets<P: Product, I: Product>(teeth: &[u32], k: usize, bits: u32, keep: (u64, u64)) -> Vec<(P, I)> {
     let members: Vec<u64> = teeth.iter().map(|&t| t as u64).collect();
-    by_product(&members, k, (P::narrow(0), I::narrow(0)), &|visit| {
-        each_member_set(&members, k, 0, 1, 0, 0, bits, &mut |x, packed| {
-            visit(x, (P::narrow(x), I::narrow(packed)))
-        })
-    })
+    let largest = members.iter().copied().max().unwrap_or(1).pow(k as u32).min(keep.1);
+    by_product(
+        multiset_count(members.len() as u64, k as u64),
+        largest,
+        (P::narrow(0), I::narrow(0)),
+        &|visit| {
+            each_member_set(&members, k, 0, 1, 0, 0, bits, &mut |x, packed| {
+                if (keep.0..=keep.1).contains(&x) {
+                    visit(x, (P::narrow(x), I::narrow(packed)))
+                }
+            })
+        },
+    )
 }
 
-/// The entries `each` lists, one for every multiset of `k` of `members`, each with its
-/// product, sorted. Long lists are sorted in two steps: the entries are counted into buckets by
-/// the leading bits of their products, listed again straight into their buckets, and each
-/// bucket is sorted on its own (in parallel, each small enough to stay in cache).
+/// The entries `each` lists (at most `most`, each with its product, at most `largest`),
+/// sorted. Long lists are sorted in two steps: the entries are counted into buckets by the
+/// leading bits of their products, listed again straight into their buckets, and each bucket
+/// is sorted on its own (in parallel, each small enough to stay in cache).
 fn by_product<E: Copy + Ord + Send>(
-    members: &[u64],
-    k: usize,
+    most: u64,
+    largest: u64,
     zero: E,
     each: &dyn Fn(&mut dyn FnMut(u64, E)),
 ) -> Vec<E> {
     const BUCKET_BITS: u32 = 16;
-    let len = multiset_count(members.len() as u64, k as u64) as usize;
-    let largest = members.iter().copied().max().unwrap_or(1).pow(k as u32);
     let shift = (u64::BITS - largest.leading_zeros()).saturating_sub(BUCKET_BITS);
-    if len < 1 << BUCKET_BITS || shift == 0 {
-        let mut all = Vec::with_capacity(len);
+    if most < 1 << BUCKET_BITS || shift == 0 {
+        let mut all = Vec::with_capacity(most as usize);
         each(&mut |_, e| all.push(e));
         all.sort_unstable();
         return all;
@@ -485,7 +511,7 @@ fn by_product<E: Copy + Ord + Send>(
     for b in 1..starts.len() {
         starts[b] += starts[b - 1];
     }
-    let mut all = vec![zero; len];
+    let mut all = vec![zero; starts[starts.len() - 1]];
     let mut next = starts.clone();
     each(&mut |x, e| {
         let slot = &mut next[(x >> shift) as usize];
@@ -572,6 +598,26 @@ mod tests {
         assert_eq!(listed.len(), 270_725);
         assert_eq!(listed.iter().map(|&x| x as u64).collect::<Vec<_>>(), plain);
         assert_eq!(products::<u64>(&teeth, 4).into_iter().map(|x| x as u32).collect::<Vec<_>>(), listed);
+    }
+
+    #[test]
+    fn long_lists_of_members_keep_their_range() {
+        // 270,725 multisets of four of 12..60, past the plain sort; those of product within
+        // 2·10⁶..5·10⁶ kept, each with its members packed six bits a place.
+        let teeth: Vec<u32> = (12..=60).collect();
+        let keep = (2_000_000, 5_000_000);
+        let listed = member_sets::<u32, u32>(&teeth, 4, 6, keep);
+        let mut plain = Vec::new();
+        for (a, b, c, d) in multisets(&teeth, 4).iter().map(|m| (m[0], m[1], m[2], m[3])) {
+            let x = a * b * c * d;
+            let place = |t: u32| t - 12;
+            if (keep.0..=keep.1).contains(&(x as u64)) {
+                plain.push((x, place(a) | place(b) << 6 | place(c) << 12 | place(d) << 18));
+            }
+        }
+        plain.sort_unstable();
+        assert!(plain.len() > 1 << 16 && plain.len() < 270_725);
+        assert_eq!(listed, plain);
     }
 
     fn counter(drivers: &[u32], driven: &[u32], target: (u64, u64), tol_ppm: u64) -> SetCounter {
