@@ -488,16 +488,14 @@ fn member_sets<P: Product, I: Product>(teeth: &[u32], k: usize, bits: u32, keep:
     )
 }
 
+/// Where a listing of entries hands each, with its product.
+type Visit<'a, E> = &'a mut dyn FnMut(u64, E);
+
 /// The entries `each` lists (at most `most`, each with its product, at most `largest`),
 /// sorted. Long lists are sorted in two steps: the entries are counted into buckets by the
 /// leading bits of their products, listed again straight into their buckets, and each bucket
 /// is sorted on its own (in parallel, each small enough to stay in cache).
-fn by_product<E: Copy + Ord + Send>(
-    most: u64,
-    largest: u64,
-    zero: E,
-    each: &dyn Fn(&mut dyn FnMut(u64, E)),
-) -> Vec<E> {
+fn by_product<E: Copy + Ord + Send>(most: u64, largest: u64, zero: E, each: &dyn Fn(Visit<'_, E>)) -> Vec<E> {
     const BUCKET_BITS: u32 = 16;
     let shift = (u64::BITS - largest.leading_zeros()).saturating_sub(BUCKET_BITS);
     if most < 1 << BUCKET_BITS || shift == 0 {
