@@ -5,7 +5,8 @@
 use criterion::{criterion_group, criterion_main, Criterion};
 use gearsieve::model::pool::Pool;
 use gearsieve::model::rank::DEFAULT_RANK;
-use gearsieve::numbers::range::IntRange;
+use gearsieve::numbers::range::{IntRange, RatioRange};
+use gearsieve::numbers::rational::Ratio;
 use gearsieve::numbers::target::Target;
 use gearsieve::{search, EngineChoice, Problem, RunOptions, StageLimits};
 
@@ -120,6 +121,28 @@ fn gear_set_benches(c: &mut Criterion) {
             let out = search(&four, EngineChoice::Auto, &RunOptions::default());
             assert_eq!(out.count, 397_803_297);
             assert_eq!(out.gear_set_count, Some(18_689_573));
+        })
+    });
+
+    // The same search with every stage between 1:1 and 6:1: only some pairings are stages, so
+    // each pair of multisets within tolerance is tested for a matching into stages. The counts
+    // are the ones this counter printed; it is held to brute forces on small spaces (its unit
+    // tests and tests/gear_sets.rs).
+    let limits = StageLimits {
+        stage_ratio: Some(RatioRange { lo: Ratio::new(1, 1), hi: Ratio::new(6, 1) }),
+        ..StageLimits::default()
+    };
+    let pool = Pool::to_cut(IntRange { lo: 12, hi: 150 }, 1.0, 20.0, None).expect("pool");
+    let target = Target::parse("29.530588", "1ppm").expect("target");
+    let stages = IntRange { lo: 4, hi: 4 };
+    let banded =
+        Problem::new(target, pool, stages, limits, None, DEFAULT_RANK.to_vec(), 20).expect("problem");
+    let banded = with_sets(&banded);
+    g.bench_function("fast (meet) 4 stages 12..150 29.530588 1ppm stage ratio 1..6, gear sets", |b| {
+        b.iter(|| {
+            let out = search(&banded, EngineChoice::Auto, &RunOptions::default());
+            assert_eq!(out.count, 129_404_884);
+            assert_eq!(out.gear_set_count, Some(14_769_270));
         })
     });
     g.finish();

@@ -9,7 +9,7 @@ use gearsieve::engine::Shard;
 use gearsieve::model::pool::{Pool, StockGear};
 use gearsieve::model::rank::{RankKey, DEFAULT_RANK};
 use gearsieve::model::train::Train;
-use gearsieve::numbers::range::{IntRange, RatioRange};
+use gearsieve::numbers::range::{FloatRange, IntRange, RatioRange};
 use gearsieve::numbers::rational::Ratio;
 use gearsieve::numbers::target::Target;
 use gearsieve::report::search::{merge::merge, view, SearchReport};
@@ -87,25 +87,37 @@ fn problem_strategy() -> impl Strategy<Value = Problem> {
             hi: Some(Ratio::new(b as u128 + 1, 2).unwrap()),
         }),
     );
+    // A range of centre distances (standard, m·(z1 + z2)/2: 6 to 45 mm here) leaves out the
+    // pairings of too few or too many teeth between them; 1:1 stages are sometimes allowed.
+    let distance = proptest::option::weighted(
+        0.3,
+        (12u32..30, 0u32..20).prop_map(|(lo, w)| FloatRange { lo: lo as f64, hi: (lo + w) as f64 }),
+    );
     let rank = prop_oneof![
         Just(DEFAULT_RANK.to_vec()),
         Just(vec![RankKey::Size, RankKey::Error]),
         Just(vec![RankKey::Span])
     ];
-    (target, pool, stages, ratio, rank, 1usize..8, any::<bool>()).prop_filter_map(
-        "a valid problem",
-        |((n, d, tol_ppm), pool, stages, ratio, rank, limit, pareto)| {
-            let target = Target::exact(
-                format!("{n}/{d}"),
-                Ratio::new(n as u128, d as u128)?,
-                Ratio::new(tol_ppm as u128 * 50, 1_000_000)?,
-            );
-            let limits = StageLimits { stage_ratio: ratio, ..StageLimits::default() };
-            let mut p = Problem::new(target, pool, stages, limits, None, rank, limit).ok()?;
-            p.pareto = pareto;
-            Some(p)
-        },
-    )
+    (target, pool, stages, (ratio, distance, prop::bool::weighted(0.2)), rank, 1usize..8, any::<bool>())
+        .prop_filter_map(
+            "a valid problem",
+            |((n, d, tol_ppm), pool, stages, (ratio, distance, equal_teeth), rank, limit, pareto)| {
+                let target = Target::exact(
+                    format!("{n}/{d}"),
+                    Ratio::new(n as u128, d as u128)?,
+                    Ratio::new(tol_ppm as u128 * 50, 1_000_000)?,
+                );
+                let limits = StageLimits {
+                    stage_ratio: ratio,
+                    centre_distance_mm: distance,
+                    ..StageLimits::default()
+                };
+                let mut p = Problem::new(target, pool, stages, limits, None, rank, limit).ok()?;
+                p.pareto = pareto;
+                p.equal_teeth_stages = equal_teeth;
+                Some(p)
+            },
+        )
 }
 
 proptest! {
@@ -136,12 +148,9 @@ proptest! {
         for choice in [EngineChoice::Exhaustive, EngineChoice::Sieve, EngineChoice::Auto] {
             let o = by_sets(&p, choice, true, None);
             prop_assert_eq!(o.count, all.len() as u64, "{:?}", choice);
-            // A bulk engine that cannot count gear sets (the meet engine when a stage-ratio
-            // limit leaves pairings out) says so rather than guess; every other count is exact.
-            let may_not_count = choice == EngineChoice::Auto && p.limits.stage_ratio.is_some() && !p.pool.from_stock;
-            if !may_not_count || o.gear_set_count.is_some() {
-                prop_assert_eq!(o.gear_set_count, Some(groups.len() as u64), "{:?}", choice);
-            }
+            // Every engine counts the gear sets exactly, the meet engine's counter too when
+            // stage-ratio or centre-distance limits leave pairings out.
+            prop_assert_eq!(o.gear_set_count, Some(groups.len() as u64), "{:?}", choice);
             if p.pareto {
                 prop_assert_eq!(o.pareto_size, Some(listed.len()), "{:?}", choice);
             }

@@ -1,44 +1,67 @@
-//! Gear sets counted in bulk by meeting in the middle, for the meet engine: when every pairing
-//! of an allowed driver with an allowed driven gear of other teeth is a stage, a gear set of
-//! `n` stages is a multiset of `n` drivers and one of `n` driven gears whose products make a
-//! ratio within tolerance, less the pairs no pairing of which avoids a 1:1 stage (by Hall's
-//! theorem: a tooth count carried `a` times by the drivers and `b` times by the driven gears
-//! with `a + b > n`). Each side's multisets are listed as bare products (`u32` where the
-//! largest fits, else `u64`), one entry a multiset, sorted; the pairs within tolerance are
-//! counted by a monotone sweep of both lists (as the driver product rises, the window of driven
-//! products within tolerance moves only forward) with the exact test at its edges, or, when
-//! one list is much the shorter, by binary searches from it. It owns only this count; which
-//! problems it applies to is asked of it.
+//! Gear sets counted in bulk by meeting in the middle, for the meet engine. A gear set of `n`
+//! stages is a multiset of `n` allowed drivers and one of `n` allowed driven gears whose
+//! products make a ratio within tolerance and which can be paired into `n` stages.
+//!
+//! When every pairing of an allowed driver with an allowed driven gear of other teeth is a
+//! stage, the sets are the pairs of multisets within tolerance less those no pairing of which
+//! avoids a 1:1 stage (by Hall's theorem: a tooth count carried `a` times by the drivers and
+//! `b` times by the driven gears with `a + b > n`); when 1:1 stages are allowed too, none is
+//! taken away. Each side's multisets are then listed as bare products (`u32` where the largest
+//! fits, else `u64`), one entry a multiset, sorted; the pairs within tolerance are counted by a
+//! monotone sweep of both lists (as the driver product rises, the window of driven products
+//! within tolerance moves only forward) with the exact test at its edges, or, when one list is
+//! much the shorter, by binary searches from it.
+//!
+//! When only some pairings are stages (a stage-ratio limit, a centre-distance range, mesh
+//! checks), each entry carries its multiset too (the members' places in the side's list of
+//! teeth, packed into a `u32` or `u64`), and every pair within tolerance that the sweep passes
+//! is tested: it is a gear set when its drivers and driven gears can be matched one to one
+//! into stages (a perfect matching in the bipartite graph of allowed pairings, found by trying
+//! the driven gears left for each driver in turn; `n` is at most six). It owns only this
+//! count; which problems it applies to is asked of it.
 
 use rayon::prelude::*;
 
 use super::space::SearchSpace;
+use crate::model::pool::MAX_STAGES;
 use crate::numbers::rational::{Ratio, RelError};
 
 /// Most bytes the listed products may take, both sides and every size of multiset together
 /// (sorting is in place, so this is the count's peak): beyond it the gear sets are not
 /// counted. Four stages of 12..200 teeth take about 0.2 GiB (one list of 55 million `u32`
-/// serving both sides); the budget reaches about 320 tooth counts a side.
+/// serving both sides); the budget reaches about 320 tooth counts a side. When only some
+/// pairings are stages each entry carries its packed multiset too (twice the bytes for four
+/// stages of up to 256 tooth counts: 12..150 takes 0.13 GiB).
 pub const PRODUCT_BYTES_BUDGET: u64 = 1 << 30;
 
-/// The allowed teeth of each side, when every pairing of other teeth is a stage.
+/// The allowed teeth of each side and which pairings of them are stages.
 pub struct SetCounter {
     drivers: Vec<u32>,
     driven: Vec<u32>,
     target: Ratio,
     tolerance: Ratio,
+    pairings: Pairings,
+}
+
+/// Which pairings of an allowed driver with an allowed driven gear are stages.
+enum Pairings {
+    /// Every one.
+    All,
+    /// Every one of other teeth.
+    AllButEqual,
+    /// Some: `stage[i * driven.len() + j]` for `drivers[i]` with `driven[j]`.
+    Some(Vec<bool>),
 }
 
 impl SetCounter {
-    /// Prepare for `space`, or `None` when some pairing of other teeth is not a stage (a
-    /// per-stage ratio, distance or mesh limit), the gears come from stock or in several mesh
-    /// groups, or a train check decides trains.
+    /// Prepare for `space`, or `None` when the gears come from stock or in several mesh
+    /// groups, a train check decides trains, or the train needs a common centre distance
+    /// found for it (then a pairing's being a stage depends on the other stages).
     pub fn new(space: &SearchSpace) -> Option<SetCounter> {
         let p = space.problem;
         if p.pool.from_stock
             || p.pool.groups.len() != 1
             || p.train_check.is_some()
-            || p.equal_teeth_stages
             || space.needs_coaxial_fit()
         {
             return None;
@@ -49,34 +72,68 @@ impl SetCounter {
         drivers.dedup();
         driven.sort_unstable();
         driven.dedup();
-        let both = drivers.iter().filter(|t| driven.binary_search(t).is_ok()).count();
-        // The stages are a subset of these pairings; as many of them means all of them.
-        if space.stages.len() != drivers.len() * driven.len() - both {
-            return None;
+        // One mesh group: a stage is named by its two tooth counts.
+        let mut stage = vec![false; drivers.len() * driven.len()];
+        for s in &space.stages {
+            let i = drivers.binary_search(&s.driver_teeth).ok()?;
+            let j = driven.binary_search(&s.driven_teeth).ok()?;
+            stage[i * driven.len() + j] = true;
         }
-        Some(SetCounter { drivers, driven, target: p.target.ratio, tolerance: p.target.tolerance })
+        let pairings = if stage.iter().all(|&x| x) {
+            Pairings::All
+        } else if drivers
+            .iter()
+            .enumerate()
+            .all(|(i, a)| driven.iter().enumerate().all(|(j, b)| stage[i * driven.len() + j] == (a != b)))
+        {
+            Pairings::AllButEqual
+        } else {
+            Pairings::Some(stage)
+        };
+        Some(SetCounter { drivers, driven, target: p.target.ratio, tolerance: p.target.tolerance, pairings })
     }
 
-    /// The gear sets of `n` stages, or `None` when the products of a side's multisets would
-    /// not fit [`PRODUCT_BYTES_BUDGET`] (or `u64`).
+    /// The gear sets of `n` stages, or `None` when the lists of a side's multisets would not
+    /// fit [`PRODUCT_BYTES_BUDGET`] (or their products `u64`).
     pub fn count(&self, n: usize) -> Option<u64> {
         let largest = self.drivers.iter().chain(&self.driven).copied().max().unwrap_or(1) as u128;
         let largest_product = largest.checked_pow(n as u32)?;
-        if largest_product <= u32::MAX as u128 {
-            self.count_as::<u32>(n)
-        } else if largest_product <= u64::MAX as u128 {
-            self.count_as::<u64>(n)
-        } else {
-            None
+        let narrow = largest_product <= u32::MAX as u128;
+        if !narrow && largest_product > u64::MAX as u128 {
+            return None;
+        }
+        match &self.pairings {
+            Pairings::All | Pairings::AllButEqual if narrow => self.count_as::<u32>(n),
+            Pairings::All | Pairings::AllButEqual => self.count_as::<u64>(n),
+            Pairings::Some(stage) => {
+                // Bits a member's place takes in a packed multiset.
+                let places = self.drivers.len().max(self.driven.len()) as u32;
+                let bits = (u32::BITS - places.saturating_sub(1).leading_zeros()).max(1);
+                let packed = bits.checked_mul(n as u32)?;
+                match (narrow, packed <= u32::BITS) {
+                    (true, true) => self.count_matched::<u32, u32>(n, stage, bits),
+                    (true, false) if packed <= u64::BITS => self.count_matched::<u32, u64>(n, stage, bits),
+                    (false, true) => self.count_matched::<u64, u32>(n, stage, bits),
+                    (false, false) if packed <= u64::BITS => self.count_matched::<u64, u64>(n, stage, bits),
+                    _ => None,
+                }
+            }
         }
     }
 
-    /// [`SetCounter::count`] with products held as `T`, which must hold the largest.
+    /// [`SetCounter::count`] when every pairing (of other teeth, or every one) is a stage,
+    /// with products held as `T`, which must hold the largest.
     fn count_as<T: Product>(&self, n: usize) -> Option<u64> {
-        // One list serves both sides when they allow the same teeth.
+        // One list serves both sides when they allow the same teeth. Hall's exclusions need
+        // the smaller multisets too.
         let shared = self.drivers == self.driven;
+        let smallest = match self.pairings {
+            Pairings::AllButEqual => 0,
+            _ => n,
+        };
         let listed = |teeth: &[u32]| {
-            (0..=n).fold(0u64, |all, k| all.saturating_add(multiset_count(teeth.len() as u64, k as u64)))
+            (smallest..=n)
+                .fold(0u64, |all, k| all.saturating_add(multiset_count(teeth.len() as u64, k as u64)))
         };
         let mut entries = listed(&self.drivers);
         if !shared {
@@ -85,12 +142,17 @@ impl SetCounter {
         if entries.saturating_mul(std::mem::size_of::<T>() as u64) > PRODUCT_BYTES_BUDGET {
             return None;
         }
-        // Each side's multisets of 0 to n members, by product.
-        let drivers: Vec<Vec<T>> = (0..=n).map(|k| products::<T>(&self.drivers, k)).collect();
-        let driven_own: Vec<Vec<T>> =
-            if shared { Vec::new() } else { (0..=n).map(|k| products::<T>(&self.driven, k)).collect() };
+        // Each side's multisets of `smallest` to n members, by product (none below).
+        let list = |teeth: &[u32]| -> Vec<Vec<T>> {
+            (0..=n).map(|k| if k < smallest { Vec::new() } else { products::<T>(teeth, k) }).collect()
+        };
+        let drivers = list(&self.drivers);
+        let driven_own = if shared { Vec::new() } else { list(&self.driven) };
         let driven = if shared { &drivers } else { &driven_own };
         let mut sets = self.pairs_within(&drivers[n], &driven[n], 1, 1) as i128;
+        if smallest == n {
+            return u64::try_from(sets).ok();
+        }
         // Less the pairs that no pairing without a 1:1 stage turns into a train: t carried
         // exactly a times by the drivers and b times by the driven gears, a + b > n. The rest
         // of each side holds no t: those of r members, less those holding t again (r − 1
@@ -116,6 +178,72 @@ impl SetCounter {
             }
         }
         u64::try_from(sets).ok()
+    }
+
+    /// [`SetCounter::count`] when only some pairings are stages, with products held as `P` and
+    /// multisets packed into `I` (`bits` a member), which must hold the largest of each.
+    fn count_matched<P: Product, I: Product>(&self, n: usize, stage: &[bool], bits: u32) -> Option<u64> {
+        // A side's multisets whose product meets no product of the other side's within
+        // tolerance are left out (by floats widened well past their rounding: the sweep
+        // decides exactly).
+        let float = |r: Ratio| r.num() as f64 / r.den() as f64;
+        let (target, tolerance) = (float(self.target), float(self.tolerance));
+        let (low, high) =
+            (target * (1.0 - tolerance) * (1.0 - 1e-9), target * (1.0 + tolerance) * (1.0 + 1e-9));
+        let extremes = |teeth: &[u32]| {
+            let power = |t: Option<&u32>| (t.copied().unwrap_or(1) as f64).powi(n as i32);
+            (power(teeth.first()), power(teeth.last()))
+        };
+        let ((least_q, most_q), (least_p, most_p)) = (extremes(&self.drivers), extremes(&self.driven));
+        let to_u64 = |x: f64| if x >= u64::MAX as f64 { u64::MAX } else { x.max(0.0) as u64 };
+        // A tolerance of 100 % or more leaves no least ratio.
+        let most_per_driven = if low > 0.0 { most_p / low } else { f64::INFINITY };
+        let keep_drivers = (to_u64((least_p / high).floor()), to_u64(most_per_driven.ceil()));
+        let keep_driven = (to_u64((least_q * low).floor()), to_u64((most_q * high).ceil()));
+        // One list serves both sides when they allow the same teeth and keep the same.
+        let shared = self.drivers == self.driven && keep_drivers == keep_driven;
+        let mut entries = multiset_count(self.drivers.len() as u64, n as u64);
+        if !shared {
+            entries = entries.saturating_add(multiset_count(self.driven.len() as u64, n as u64));
+        }
+        if entries.saturating_mul(std::mem::size_of::<(P, I)>() as u64) > PRODUCT_BYTES_BUDGET {
+            return None;
+        }
+        let drivers = member_sets::<P, I>(&self.drivers, n, bits, keep_drivers);
+        let driven_own =
+            if shared { Vec::new() } else { member_sets::<P, I>(&self.driven, n, bits, keep_driven) };
+        let driven = if shared { &drivers } else { &driven_own };
+        let matcher = Matcher { stage, width: self.driven.len(), n, bits };
+        let edges = self.edges(1, 1);
+        const SLICE: usize = 1 << 14;
+        let sets = drivers
+            .par_chunks(SLICE)
+            .map(|slice| {
+                let first = slice[0].0.wide();
+                let mut from = driven.partition_point(|x| edges.below(first, x.0.wide()));
+                let mut to = from + driven[from..].partition_point(|x| !edges.above(first, x.0.wide()));
+                let mut last = first;
+                let mut sets = 0u64;
+                for &(w, a) in slice {
+                    let w = w.wide();
+                    if w != last {
+                        while from < driven.len() && edges.below(w, driven[from].0.wide()) {
+                            from += 1;
+                        }
+                        to = to.max(from);
+                        while to < driven.len() && !edges.above(w, driven[to].0.wide()) {
+                            to += 1;
+                        }
+                        last = w;
+                    }
+                    let a = a.wide();
+                    sets +=
+                        driven[from..to].iter().filter(|&&(_, b)| matcher.pairs(a, b.wide())).count() as u64;
+                }
+                sets
+            })
+            .sum();
+        Some(sets)
     }
 
     /// The pairs (driver product `q·Q`, driven product `p·P`) of the two sorted lists whose
@@ -203,6 +331,58 @@ impl SetCounter {
     }
 }
 
+/// Can a packed multiset of drivers be matched one to one with a packed multiset of driven
+/// gears into stages?
+struct Matcher<'a> {
+    /// `stage[i * width + j]`: is driver place `i` with driven place `j` a stage?
+    stage: &'a [bool],
+    width: usize,
+    /// Members of each multiset.
+    n: usize,
+    /// Bits a member's place takes.
+    bits: u32,
+}
+
+impl Matcher<'_> {
+    /// Do the `n` drivers packed in `a` and the `n` driven gears packed in `b` pair into
+    /// stages?
+    fn pairs(&self, a: u64, b: u64) -> bool {
+        let mask = (1u64 << self.bits) - 1;
+        let mut driven = [0usize; MAX_STAGES];
+        for (k, place) in driven.iter_mut().enumerate().take(self.n) {
+            *place = (b >> (k as u32 * self.bits) & mask) as usize;
+        }
+        // For each driver, the driven gears (by position in `b`) it may mesh with.
+        let mut partners = [0u8; MAX_STAGES];
+        for (k, row) in partners.iter_mut().enumerate().take(self.n) {
+            let i = (a >> (k as u32 * self.bits) & mask) as usize;
+            let cells = &self.stage[i * self.width..(i + 1) * self.width];
+            for (j, &place) in driven[..self.n].iter().enumerate() {
+                *row |= (cells[place] as u8) << j;
+            }
+            if *row == 0 {
+                return false;
+            }
+        }
+        match_from(&partners[..self.n], 0)
+    }
+}
+
+/// Can each driver, from the first of `partners` on, take one of its partners (a bit a driven
+/// gear) not already in `used`, all different?
+fn match_from(partners: &[u8], used: u8) -> bool {
+    let Some((&first, rest)) = partners.split_first() else { return true };
+    let mut free = first & !used;
+    while free != 0 {
+        let pick = free & free.wrapping_neg();
+        if match_from(rest, used | pick) {
+            return true;
+        }
+        free &= free - 1;
+    }
+    false
+}
+
 /// Is `p·P / (q·Q)` below or above the target's tolerance band: decided by floats where the
 /// driven product `P` is far from the band's edge (a relative margin of 10⁻⁹, far above the
 /// rounding of a few products), exactly by cross-multiplication near it.
@@ -281,31 +461,59 @@ fn multiset_count(s: u64, k: u64) -> u64 {
 }
 
 /// The product of every multiset of `k` members of `teeth`, one entry a multiset, sorted.
-/// Long lists are sorted in two steps: the products are counted into buckets by their leading
-/// bits, listed again straight into their buckets, and each bucket is sorted on its own (in
-/// parallel, each small enough to stay in cache).
 fn products<T: Product>(teeth: &[u32], k: usize) -> Vec<T> {
-    const BUCKET_BITS: u32 = 16;
     let members: Vec<u64> = teeth.iter().map(|&t| t as u64).collect();
-    let len = multiset_count(members.len() as u64, k as u64) as usize;
     let largest = members.iter().copied().max().unwrap_or(1).pow(k as u32);
+    by_product(multiset_count(members.len() as u64, k as u64), largest, T::narrow(0), &|visit| {
+        each_product(&members, k, 0, 1, &mut |x| visit(x, T::narrow(x)))
+    })
+}
+
+/// Every multiset of `k` members of `teeth` whose product is within `keep` (inclusive) as
+/// (product, the members' places in `teeth` packed `bits` a member, the first lowest), sorted.
+fn member_sets<P: Product, I: Product>(teeth: &[u32], k: usize, bits: u32, keep: (u64, u64)) -> Vec<(P, I)> {
+    let members: Vec<u64> = teeth.iter().map(|&t| t as u64).collect();
+    let largest = members.iter().copied().max().unwrap_or(1).pow(k as u32).min(keep.1);
+    by_product(
+        multiset_count(members.len() as u64, k as u64),
+        largest,
+        (P::narrow(0), I::narrow(0)),
+        &|visit| {
+            each_member_set(&members, k, 0, 1, 0, 0, bits, &mut |x, packed| {
+                if (keep.0..=keep.1).contains(&x) {
+                    visit(x, (P::narrow(x), I::narrow(packed)))
+                }
+            })
+        },
+    )
+}
+
+/// Where a listing of entries hands each, with its product.
+type Visit<'a, E> = &'a mut dyn FnMut(u64, E);
+
+/// The entries `each` lists (at most `most`, each with its product, at most `largest`),
+/// sorted. Long lists are sorted in two steps: the entries are counted into buckets by the
+/// leading bits of their products, listed again straight into their buckets, and each bucket
+/// is sorted on its own (in parallel, each small enough to stay in cache).
+fn by_product<E: Copy + Ord + Send>(most: u64, largest: u64, zero: E, each: &dyn Fn(Visit<'_, E>)) -> Vec<E> {
+    const BUCKET_BITS: u32 = 16;
     let shift = (u64::BITS - largest.leading_zeros()).saturating_sub(BUCKET_BITS);
-    if len < 1 << BUCKET_BITS || shift == 0 {
-        let mut all = Vec::with_capacity(len);
-        each_product(&members, k, 0, 1, &mut |x| all.push(T::narrow(x)));
+    if most < 1 << BUCKET_BITS || shift == 0 {
+        let mut all = Vec::with_capacity(most as usize);
+        each(&mut |_, e| all.push(e));
         all.sort_unstable();
         return all;
     }
     let mut starts = vec![0usize; (largest >> shift) as usize + 2];
-    each_product(&members, k, 0, 1, &mut |x| starts[(x >> shift) as usize + 1] += 1);
+    each(&mut |x, _| starts[(x >> shift) as usize + 1] += 1);
     for b in 1..starts.len() {
         starts[b] += starts[b - 1];
     }
-    let mut all = vec![T::narrow(0); len];
+    let mut all = vec![zero; starts[starts.len() - 1]];
     let mut next = starts.clone();
-    each_product(&members, k, 0, 1, &mut |x| {
+    each(&mut |x, e| {
         let slot = &mut next[(x >> shift) as usize];
-        all[*slot] = T::narrow(x);
+        all[*slot] = e;
         *slot += 1;
     });
     let mut buckets = Vec::with_capacity(starts.len());
@@ -317,6 +525,29 @@ fn products<T: Product>(teeth: &[u32], k: usize) -> Vec<T> {
     }
     buckets.par_iter_mut().with_min_len(64).for_each(|b| b.sort_unstable());
     all
+}
+
+/// Call `visit` with the product (times `product`) and the packed places (after `packed`, of
+/// which `at` are filled) of every multiset of `k` members of `members[from..]`.
+#[allow(clippy::too_many_arguments)]
+fn each_member_set(
+    members: &[u64],
+    k: usize,
+    from: usize,
+    product: u64,
+    packed: u64,
+    at: u32,
+    bits: u32,
+    visit: &mut dyn FnMut(u64, u64),
+) {
+    if k == 0 {
+        visit(product, packed);
+        return;
+    }
+    for i in from..members.len() {
+        let packed = packed | (i as u64) << (at * bits);
+        each_member_set(members, k - 1, i, product * members[i], packed, at + 1, bits, visit);
+    }
 }
 
 /// Call `visit` with the product of every multiset of `k` members of `members[from..]`, times
@@ -367,6 +598,26 @@ mod tests {
         assert_eq!(products::<u64>(&teeth, 4).into_iter().map(|x| x as u32).collect::<Vec<_>>(), listed);
     }
 
+    #[test]
+    fn long_lists_of_members_keep_their_range() {
+        // 270,725 multisets of four of 12..60, past the plain sort; those of product within
+        // 2·10⁶..5·10⁶ kept, each with its members packed six bits a place.
+        let teeth: Vec<u32> = (12..=60).collect();
+        let keep = (2_000_000, 5_000_000);
+        let listed = member_sets::<u32, u32>(&teeth, 4, 6, keep);
+        let mut plain = Vec::new();
+        for (a, b, c, d) in multisets(&teeth, 4).iter().map(|m| (m[0], m[1], m[2], m[3])) {
+            let x = a * b * c * d;
+            let place = |t: u32| t - 12;
+            if (keep.0..=keep.1).contains(&(x as u64)) {
+                plain.push((x, place(a) | place(b) << 6 | place(c) << 12 | place(d) << 18));
+            }
+        }
+        plain.sort_unstable();
+        assert!(plain.len() > 1 << 16 && plain.len() < 270_725);
+        assert_eq!(listed, plain);
+    }
+
     fn counter(drivers: &[u32], driven: &[u32], target: (u64, u64), tol_ppm: u64) -> SetCounter {
         let mut drivers = drivers.to_vec();
         let mut driven = driven.to_vec();
@@ -379,7 +630,60 @@ mod tests {
             driven,
             target: Ratio::new(target.0 as u128, target.1 as u128).unwrap(),
             tolerance: Ratio::new(tol_ppm as u128, 1_000_000).unwrap(),
+            pairings: Pairings::AllButEqual,
         }
+    }
+
+    /// Some ordering of `driven` meets `drivers` in stages only (`stage(a, b)`): tried one by
+    /// one.
+    fn pairs_into_stages(
+        drivers: &[u32],
+        driven: &mut Vec<u32>,
+        from: usize,
+        stage: &dyn Fn(u32, u32) -> bool,
+    ) -> bool {
+        if from == driven.len() {
+            return true;
+        }
+        for i in from..driven.len() {
+            driven.swap(from, i);
+            let ok =
+                stage(drivers[from], driven[from]) && pairs_into_stages(drivers, driven, from + 1, stage);
+            driven.swap(from, i);
+            if ok {
+                return true;
+            }
+        }
+        false
+    }
+
+    /// The brute force with only some pairings stages.
+    fn by_hand_with(c: &SetCounter, n: usize, stage: &dyn Fn(u32, u32) -> bool) -> u64 {
+        let mut sets = 0;
+        for a in multisets(&c.drivers, n) {
+            let q: u64 = a.iter().map(|&t| t as u64).product();
+            for b in multisets(&c.driven, n) {
+                let p: u64 = b.iter().map(|&t| t as u64).product();
+                if RelError::of(p, q, c.target).within(c.tolerance)
+                    && pairs_into_stages(&a, &mut b.clone(), 0, stage)
+                {
+                    sets += 1;
+                }
+            }
+        }
+        sets
+    }
+
+    /// `c` with the pairings `stage` allows.
+    fn with_stages(mut c: SetCounter, stage: &dyn Fn(u32, u32) -> bool) -> SetCounter {
+        let table = c
+            .drivers
+            .iter()
+            .flat_map(|&a| c.driven.iter().map(move |&b| (a, b)))
+            .map(|(a, b)| stage(a, b))
+            .collect();
+        c.pairings = Pairings::Some(table);
+        c
     }
 
     /// Every multiset of `k` members of `teeth`, each sorted.
@@ -463,6 +767,43 @@ mod tests {
             prop_assert_eq!(c.count(n), Some(want));
             prop_assert_eq!(c.count_as::<u32>(n), Some(want));
             prop_assert_eq!(c.count_as::<u64>(n), Some(want));
+        }
+
+        /// Some pairings stages (a band of stage ratios, and pairings left out at random): the
+        /// matched count against the brute force, both widths of product and of packing; with
+        /// every pairing of other teeth a stage, it equals Hall's count.
+        #[test]
+        fn matched_counts_equal_the_brute_force(
+            lo in 6u32..20,
+            widths in (1u32..6, 1u32..6),
+            shift in 0u32..3,
+            n in 1usize..=5,
+            target in ((6u64..20, 6u64..20), (6u64..20, 6u64..20)),
+            tol_ppm in prop_oneof![Just(0u64), 1u64..50_000],
+            band in (1u32..4, 1u32..4),
+            holes in prop::collection::vec(any::<bool>(), 36),
+            equal_allowed in any::<bool>(),
+        ) {
+            let drivers: Vec<u32> = (lo..lo + widths.0).collect();
+            let driven: Vec<u32> = (lo + shift..lo + shift + widths.1).collect();
+            let ((a, b), (d, e)) = target;
+            let c = counter(&drivers, &driven, (a * b, d * e), tol_ppm);
+            let stage = |x: u32, y: u32| {
+                let hole = holes[((x * 7 + y * 13) % 36) as usize] && x % 3 == 0;
+                (x != y || equal_allowed) && !hole && y * band.0 >= x && y <= x * (band.1 + 1)
+            };
+            let want = by_hand_with(&c, n, &stage);
+            let c = with_stages(c, &stage);
+            let Pairings::Some(table) = &c.pairings else { unreachable!() };
+            for bits in [3u32, 4] {
+                prop_assert_eq!(c.count_matched::<u32, u32>(n, table, bits), Some(want));
+                prop_assert_eq!(c.count_matched::<u64, u64>(n, table, bits), Some(want));
+            }
+            prop_assert_eq!(c.count(n), Some(want));
+            let by_hall = counter(&drivers, &driven, (a * b, d * e), tol_ppm);
+            let other_teeth = with_stages(counter(&drivers, &driven, (a * b, d * e), tol_ppm), &|x, y| x != y);
+            let Pairings::Some(table) = &other_teeth.pairings else { unreachable!() };
+            prop_assert_eq!(other_teeth.count_matched::<u32, u32>(n, table, 4), by_hall.count_as::<u32>(n));
         }
 
         /// The sweep and the binary searches find the same pairs, either list the shorter.

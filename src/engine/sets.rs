@@ -5,8 +5,10 @@
 //! whichever unit of work finds that arrangement, whatever the thread count or shard. It owns
 //! no ranking (the tally's stores keep one entry per set) and no bulk count (each bulk engine
 //! counts its own sets or says it cannot).
-
-use std::collections::HashMap;
+//!
+//! Every train a stage engine finds is tested, so the test must cost little beside finding it:
+//! pairings are looked up in a dense table of drivers by driven gears, and the canonical test
+//! walks the train's own stages, trying only pairings of lesser stage index.
 
 use super::space::SearchSpace;
 use crate::model::gearset::{GearSet, SetOf};
@@ -18,14 +20,14 @@ pub struct SetTools {
     /// The gear set of a candidate.
     pub set_of: SetOf,
     /// Stage-table index of each (driver kind, driven kind) pairing that is a stage.
-    stage_of: HashMap<(u32, u32), u32>,
+    stage_of: StageTable,
 }
 
 impl SetTools {
     /// Prepare for `space`.
     pub fn new(space: &SearchSpace) -> SetTools {
         let kinds: Vec<(u32, u32)> = space.stages.iter().map(|s| (s.driver, s.driven)).collect();
-        let stage_of = kinds.iter().enumerate().map(|(i, &k)| (k, i as u32)).collect();
+        let stage_of = StageTable::new(&kinds);
         SetTools { set_of: SetOf::new(kinds), stage_of }
     }
 
@@ -35,8 +37,8 @@ impl SetTools {
         set.for_each_pairing(&mut |pairs| {
             let mut idx = [0u32; MAX_STAGES];
             for (slot, p) in idx.iter_mut().zip(pairs) {
-                match self.stage_of.get(p) {
-                    Some(&i) => *slot = i,
+                match self.stage_of.get(p.0, p.1) {
+                    Some(i) => *slot = i,
                     None => return,
                 }
             }
@@ -51,10 +53,9 @@ impl SetTools {
     pub fn is_canonical(&self, space: &SearchSpace, c: &Candidate) -> bool {
         let idx = c.stage_indices();
         if !space.needs_coaxial_fit() && space.problem.train_check.is_none() {
-            // Every pairing into stages satisfies the problem as `c` does: the first one can be
-            // built directly.
-            let first = self.first_staged_pairing(&self.set_of.of(c.stage_indices()));
-            return first.as_ref().is_some_and(|f| &f[..idx.len()] == idx);
+            // Every pairing into stages satisfies the problem as `c` does: `c` is canonical when
+            // it is the first staged pairing of its gears.
+            return self.is_first_staged_pairing(idx);
         }
         let mut canonical = true;
         self.for_each_staged_pairing(&self.set_of.of(c.stage_indices()), &mut |other| {
@@ -65,41 +66,55 @@ impl SetTools {
         canonical
     }
 
-    /// The pairing of `set` into stages whose sorted stage sequence comes first, built stage by
-    /// stage: each time the pairing of least stage index that leaves the rest able to pair into
-    /// stages. (Its least stage comes first in any pairing; a pair of lesser index left for later
-    /// could have been taken first, so the sequence built is sorted and the least.)
-    fn first_staged_pairing(&self, set: &GearSet) -> Option<[u32; MAX_STAGES]> {
-        let n = set.len as usize;
-        let (mut drivers, mut driven) = (set.drivers, set.driven);
-        let mut out = [0u32; MAX_STAGES];
-        for (step, slot) in out.iter_mut().enumerate().take(n) {
+    /// Is the sorted stage sequence `idx` the first of the pairings of its gears into stages?
+    /// The first is built stage by stage, each time taking the pairing of least stage index
+    /// that leaves the rest able to pair into stages. (Its least stage comes first in any
+    /// pairing; a pair of lesser index left for later could have been taken first, so the
+    /// sequence built is sorted and the least.) `idx` itself leaves its own rest pairable, so
+    /// the first takes `idx`'s stage at each step unless a pairing of lesser index also does:
+    /// only those are tried, and the walk stays on `idx`'s own gears.
+    fn is_first_staged_pairing(&self, idx: &[u32]) -> bool {
+        let n = idx.len();
+        let (mut drivers, mut driven) = ([0u32; MAX_STAGES], [0u32; MAX_STAGES]);
+        // The gears of `idx`, each side ascending: a few members, sorted by insertion.
+        for (k, &s) in idx.iter().enumerate() {
+            let (a, b) = self.set_of.stage(s);
+            insert_sorted(&mut drivers[..=k], a);
+            insert_sorted(&mut driven[..=k], b);
+        }
+        for (step, &own) in idx.iter().enumerate() {
             let left = n - step;
-            let mut best: Option<(u32, usize, usize)> = None;
+            let (own_driver, own_driven) = self.set_of.stage(own);
             for i in 0..left {
                 if i > 0 && drivers[i] == drivers[i - 1] {
                     continue;
                 }
+                let row = self.stage_of.row(drivers[i]);
                 for j in 0..left {
                     if j > 0 && driven[j] == driven[j - 1] {
                         continue;
                     }
-                    let Some(&s) = self.stage_of.get(&(drivers[i], driven[j])) else { continue };
-                    if best.is_some_and(|(b, _, _)| b <= s) {
-                        continue;
-                    }
-                    let (d, r) = (without(&drivers[..left], i), without(&driven[..left], j));
-                    if self.can_pair(&d[..left - 1], &r[..left - 1]) {
-                        best = Some((s, i, j));
+                    let Some(s) = StageTable::at(row, driven[j]) else { continue };
+                    if s < own
+                        && self.can_pair(
+                            &without(&drivers[..left], i)[..left - 1],
+                            &without(&driven[..left], j)[..left - 1],
+                        )
+                    {
+                        return false;
                     }
                 }
             }
-            let (s, i, j) = best?;
-            *slot = s;
+            let (Some(i), Some(j)) = (
+                drivers[..left].iter().position(|&d| d == own_driver),
+                driven[..left].iter().position(|&r| r == own_driven),
+            ) else {
+                return false;
+            };
             drivers = without(&drivers[..left], i);
             driven = without(&driven[..left], j);
         }
-        Some(out)
+        true
     }
 
     /// Can the drivers `d` and driven gears `r` (each ascending, as many) pair into stages?
@@ -107,7 +122,7 @@ impl SetTools {
         let Some((&first, rest)) = d.split_first() else { return true };
         (0..r.len()).any(|j| {
             (j == 0 || r[j] != r[j - 1])
-                && self.stage_of.contains_key(&(first, r[j]))
+                && self.stage_of.get(first, r[j]).is_some()
                 && self.can_pair(rest, &without(r, j)[..r.len() - 1])
         })
     }
@@ -123,6 +138,89 @@ impl SetTools {
         all.sort_by(|a, b| compare(keys, a, b));
         all
     }
+}
+
+/// The stage-table index of every (driver kind, driven kind) pairing, dense: a row per kind
+/// that drives some stage, a column per kind that is driven in some stage. Four bytes a
+/// pairing of a driver with a driven gear, little beside the stage table itself, and a lookup
+/// is two loads rather than a hash.
+struct StageTable {
+    /// Row of each pool kind as a driver, or `NONE`.
+    row_of: Vec<u32>,
+    /// Column of each pool kind as a driven gear, or `NONE`.
+    column_of: Vec<u32>,
+    /// Columns per row.
+    width: usize,
+    /// Stage index of each (row, column), or `NONE`.
+    cells: Vec<u32>,
+}
+
+/// No row, column or stage.
+const NONE: u32 = u32::MAX;
+
+impl StageTable {
+    fn new(kinds: &[(u32, u32)]) -> StageTable {
+        let len = kinds.iter().map(|&(a, b)| a.max(b) as usize + 1).max().unwrap_or(0);
+        let (mut row_of, mut column_of) = (vec![NONE; len], vec![NONE; len]);
+        let (mut rows, mut width) = (0u32, 0u32);
+        for &(a, b) in kinds {
+            if row_of[a as usize] == NONE {
+                row_of[a as usize] = rows;
+                rows += 1;
+            }
+            if column_of[b as usize] == NONE {
+                column_of[b as usize] = width;
+                width += 1;
+            }
+        }
+        let width = width as usize;
+        let mut cells = vec![NONE; rows as usize * width];
+        for (i, &(a, b)) in kinds.iter().enumerate() {
+            cells[row_of[a as usize] as usize * width + column_of[b as usize] as usize] = i as u32;
+        }
+        StageTable { row_of, column_of, width, cells }
+    }
+
+    /// The stage index of driver kind `a` with driven kind `b`, if that pairing is a stage.
+    fn get(&self, a: u32, b: u32) -> Option<u32> {
+        Self::at(self.row(a), b)
+    }
+
+    /// The row of driver kind `a`: the cells and the column of each kind (empty when `a`
+    /// drives no stage).
+    fn row(&self, a: u32) -> Row<'_> {
+        match self.row_of.get(a as usize) {
+            Some(&r) if r != NONE => {
+                let from = r as usize * self.width;
+                Row { cells: &self.cells[from..from + self.width], column_of: &self.column_of }
+            }
+            _ => Row { cells: &[], column_of: &self.column_of },
+        }
+    }
+
+    /// The stage index of the pairing of `row`'s driver with driven kind `b`, if a stage.
+    fn at(row: Row<'_>, b: u32) -> Option<u32> {
+        let c = *row.column_of.get(b as usize)?;
+        row.cells.get(c as usize).copied().filter(|&s| s != NONE)
+    }
+}
+
+/// One driver's row of a [`StageTable`].
+#[derive(Clone, Copy)]
+struct Row<'a> {
+    cells: &'a [u32],
+    column_of: &'a [u32],
+}
+
+/// Put `x` in the last place of `list` and move it down to keep `list` ascending (the rest of
+/// it is).
+fn insert_sorted(list: &mut [u32], x: u32) {
+    let mut at = list.len() - 1;
+    while at > 0 && list[at - 1] > x {
+        list[at] = list[at - 1];
+        at -= 1;
+    }
+    list[at] = x;
 }
 
 /// `list` without its member at `at`, in order, in a fixed array.
