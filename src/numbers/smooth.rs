@@ -312,16 +312,33 @@ impl ToothSet {
         match powers.first() {
             None => (n.value == 1) as u64,
             Some(&l) if l >= 2 => {
+                // The `c` members raised to the same power `l` count by their product `y`
+                // (`y^l` divides n): as many tuples as the ordered `c`-tuples with product `y`,
+                // which the tables give at once for up to three members.
+                let c = powers.iter().take_while(|&&x| x == l).count();
+                let c = if c == 3 && self.triples.is_empty() { 1 } else { c as u32 };
+                let rest = &powers[c as usize..];
+                let pow = |x: u64| x.checked_pow(c).unwrap_or(u64::MAX);
                 let mut total = 0;
-                n.root_part(l).for_each_divisor(self.lo, self.hi, &mut |t| {
-                    if self.contains(t) {
-                        // t divides the root part, so t^l divides n.
-                        total += self.ordered_products(&n.div_pow(t, l), &powers[1..]);
+                n.root_part(l).for_each_divisor(pow(self.lo), pow(self.hi), &mut |y| {
+                    let ways = self.ordered_of_value(y, c);
+                    if ways > 0 {
+                        // y divides the root part, so y^l divides n.
+                        total += ways * self.ordered_products(&n.div_pow(y, l), rest);
                     }
                 });
                 total
             }
             Some(_) => self.ordered_ones(n, powers.len() as u32),
+        }
+    }
+
+    /// Ordered `c`-tuples of members with product `y`, for `c` of 1, 2 or 3 (3 with triples).
+    fn ordered_of_value(&self, y: u64, c: u32) -> u64 {
+        match c {
+            1 => self.contains(y) as u64,
+            2 => self.pairs.get(y as usize).copied().unwrap_or(0) as u64,
+            _ => self.triples.get(y as usize).copied().unwrap_or(0) as u64,
         }
     }
 
@@ -340,6 +357,7 @@ impl ToothSet {
             0 => total = (v == 1) as u64,
             1 => total = self.contains(v) as u64,
             2 => total = pairs(v),
+            3 if !self.triples.is_empty() => total = triples(v),
             3 => n.for_each_divisor(lo.max(v.div_ceil(hi * hi)), hi.min(v / (lo * lo)), &mut |d| {
                 if self.member[d as usize] {
                     total += pairs(v / d);
@@ -356,9 +374,16 @@ impl ToothSet {
             5 => {
                 let (a, b) = (lo * lo, hi * hi);
                 let c = hi * hi * hi;
+                // The table of triples is large and read at scattered places: the places are
+                // gathered first and read in a tight loop, so that the reads overlap.
+                let mut batch = Batch::new();
                 n.for_each_divisor(a.max(v.div_ceil(c)), b.min(v / (lo * lo * lo)), &mut |d| {
-                    total += pairs(d) * triples(v / d)
-                })
+                    let two = pairs(d);
+                    if two > 0 {
+                        batch.push(two, v / d, &mut |w, x| total += w * triples(x));
+                    }
+                });
+                batch.flush(&mut |w, x| total += w * triples(x));
             }
             6 => {
                 let (a, b) = (lo * lo * lo, hi * hi * hi);
@@ -370,6 +395,40 @@ impl ToothSet {
             _ => unreachable!("products of at most six members are counted"),
         }
         total
+    }
+}
+
+/// Weighted places in a table, read a batch at a time: reads that do not wait for one another
+/// can be in flight together, which a walk that reads as it goes does not allow.
+struct Batch {
+    len: usize,
+    weights: [u64; Batch::SIZE],
+    places: [u64; Batch::SIZE],
+}
+
+impl Batch {
+    const SIZE: usize = 64;
+
+    fn new() -> Batch {
+        Batch { len: 0, weights: [0; Batch::SIZE], places: [0; Batch::SIZE] }
+    }
+
+    /// Add `(weight, place)`, handing the batch to `read` first when it is full.
+    fn push(&mut self, weight: u64, place: u64, read: &mut impl FnMut(u64, u64)) {
+        if self.len == Batch::SIZE {
+            self.flush(read);
+        }
+        self.weights[self.len] = weight;
+        self.places[self.len] = place;
+        self.len += 1;
+    }
+
+    /// Hand every entry to `read` and empty the batch.
+    fn flush(&mut self, read: &mut impl FnMut(u64, u64)) {
+        for i in 0..self.len {
+            read(self.weights[i], self.places[i]);
+        }
+        self.len = 0;
     }
 }
 
