@@ -8,6 +8,8 @@
 /// Most distinct primes a `u64` can have: the product of the first 16 primes passes 2⁶⁴.
 const MAX_PRIMES: usize = 15;
 
+use std::sync::Arc;
+
 /// The primes up to `n`, ascending.
 pub fn primes_up_to(n: u32) -> Vec<u32> {
     let n = n as usize;
@@ -246,6 +248,9 @@ fn walk_smooth(
     go
 }
 
+/// Most members for which [`ToothSet::new`] builds the table of triples: 255² fits 16 bits.
+pub const MAX_MEMBERS_FOR_TRIPLES: usize = 255;
+
 /// A set of tooth counts with tables that count ordered products of its members.
 #[derive(Debug, Clone)]
 pub struct ToothSet {
@@ -255,12 +260,16 @@ pub struct ToothSet {
     /// `pairs[x]`: ordered pairs of members whose product is `x`, for `x ≤ hi²`.
     pairs: Vec<u32>,
     /// `triples[x]`: ordered triples with product `x`, for `x ≤ hi³` (empty when not built).
-    triples: Vec<u32>,
+    /// A triple is fixed by its first two members, so a count is at most members², which
+    /// 16 bits hold for at most [`MAX_MEMBERS_FOR_TRIPLES`] members; the narrow entries keep the
+    /// table (read at scattered places) half as large in the caches. Clones share it.
+    triples: Arc<[u16]>,
 }
 
 impl ToothSet {
     /// The set of `members` (non-empty, each at least 1). `with_triples` builds the table that
-    /// products of five and six members need (`hi³` entries).
+    /// products of five and six members need (`hi³` entries), when there are at most
+    /// [`MAX_MEMBERS_FOR_TRIPLES`] members (see [`ToothSet::supports`]).
     pub fn new(members: &[u32], with_triples: bool) -> ToothSet {
         let lo = members.iter().copied().min().unwrap_or(1).max(1) as u64;
         let hi = members.iter().copied().max().unwrap_or(1) as u64;
@@ -275,15 +284,17 @@ impl ToothSet {
             }
         }
         let mut triples = Vec::new();
-        if with_triples {
-            triples = vec![0u32; (hi * hi * hi) as usize + 1];
+        let distinct = member.iter().filter(|&&m| m).count();
+        if with_triples && distinct <= MAX_MEMBERS_FOR_TRIPLES {
+            triples = vec![0u16; (hi * hi * hi) as usize + 1];
             for (x, &c) in pairs.iter().enumerate().filter(|(_, &c)| c > 0) {
                 for &t in members {
-                    triples[x * t as usize] += c;
+                    // c ≤ members, and the sum over t stays within members² (see the field).
+                    triples[x * t as usize] += c as u16;
                 }
             }
         }
-        ToothSet { lo, hi, member, pairs, triples }
+        ToothSet { lo, hi, member, pairs, triples: triples.into() }
     }
 
     /// Smallest member.
@@ -518,6 +529,20 @@ mod tests {
         });
         got.sort_unstable();
         assert_eq!(got, want);
+    }
+
+    #[test]
+    fn triples_are_built_only_where_sixteen_bits_hold_them() {
+        // 1..=255 gives the largest counts the bound allows; debug builds would stop on an
+        // overflow of a 16-bit entry while the table is built.
+        let few: Vec<u32> = (1..=255).collect();
+        let set = ToothSet::new(&few, true);
+        assert!(set.supports(6));
+        let f = Factored::of(2 * 3 * 4 * 5 * 6 * 8, &primes_up_to(255)).unwrap();
+        assert_eq!(set.ordered_products(&f, &[1, 1, 1]), brute(&few, f.value(), &[1, 1, 1]));
+        let many: Vec<u32> = (1..=256).collect();
+        let set = ToothSet::new(&many, true);
+        assert!(set.supports(4) && !set.supports(5), "no table of triples past 255 members");
     }
 
     /// Brute force: tuples of members with the weighted product.
