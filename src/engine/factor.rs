@@ -191,9 +191,13 @@ impl FactorTables {
         let small: Vec<u32> = primes.iter().copied().filter(|&r| r as u64 * r as u64 <= widest).collect();
         let pinned = (ratio.num(), ratio.den());
         let classes = prime_classes(&primes[small.len()..], &driven, &driver, pinned);
+        let driven_set = ToothSet::new(&driven, six);
+        // Most searches allow the same teeth on both sides: one set then serves both, and its
+        // large table sits in the caches once.
+        let driver_set = if driver == driven { driven_set.clone() } else { ToothSet::new(&driver, six) };
         Some(FactorTables {
-            driven: ToothSet::new(&driven, six),
-            driver: ToothSet::new(&driver, six),
+            driven: driven_set,
+            driver: driver_set,
             both: both as i128,
             parts,
             primes,

@@ -8,6 +8,8 @@
 /// Most distinct primes a `u64` can have: the product of the first 16 primes passes 2⁶⁴.
 const MAX_PRIMES: usize = 15;
 
+use std::sync::Arc;
+
 /// The primes up to `n`, ascending.
 pub fn primes_up_to(n: u32) -> Vec<u32> {
     let n = n as usize;
@@ -246,6 +248,9 @@ fn walk_smooth(
     go
 }
 
+/// Most members for which [`ToothSet::new`] builds the table of triples: 255² fits 16 bits.
+pub const MAX_MEMBERS_FOR_TRIPLES: usize = 255;
+
 /// A set of tooth counts with tables that count ordered products of its members.
 #[derive(Debug, Clone)]
 pub struct ToothSet {
@@ -255,12 +260,16 @@ pub struct ToothSet {
     /// `pairs[x]`: ordered pairs of members whose product is `x`, for `x ≤ hi²`.
     pairs: Vec<u32>,
     /// `triples[x]`: ordered triples with product `x`, for `x ≤ hi³` (empty when not built).
-    triples: Vec<u32>,
+    /// A triple is fixed by its first two members, so a count is at most members², which
+    /// 16 bits hold for at most [`MAX_MEMBERS_FOR_TRIPLES`] members; the narrow entries keep the
+    /// table (read at scattered places) half as large in the caches. Clones share it.
+    triples: Arc<[u16]>,
 }
 
 impl ToothSet {
     /// The set of `members` (non-empty, each at least 1). `with_triples` builds the table that
-    /// products of five and six members need (`hi³` entries).
+    /// products of five and six members need (`hi³` entries), when there are at most
+    /// [`MAX_MEMBERS_FOR_TRIPLES`] members (see [`ToothSet::supports`]).
     pub fn new(members: &[u32], with_triples: bool) -> ToothSet {
         let lo = members.iter().copied().min().unwrap_or(1).max(1) as u64;
         let hi = members.iter().copied().max().unwrap_or(1) as u64;
@@ -275,15 +284,17 @@ impl ToothSet {
             }
         }
         let mut triples = Vec::new();
-        if with_triples {
-            triples = vec![0u32; (hi * hi * hi) as usize + 1];
+        let distinct = member.iter().filter(|&&m| m).count();
+        if with_triples && distinct <= MAX_MEMBERS_FOR_TRIPLES {
+            triples = vec![0u16; (hi * hi * hi) as usize + 1];
             for (x, &c) in pairs.iter().enumerate().filter(|(_, &c)| c > 0) {
                 for &t in members {
-                    triples[x * t as usize] += c;
+                    // c ≤ members, and the sum over t stays within members² (see the field).
+                    triples[x * t as usize] += c as u16;
                 }
             }
         }
-        ToothSet { lo, hi, member, pairs, triples }
+        ToothSet { lo, hi, member, pairs, triples: triples.into() }
     }
 
     /// Smallest member.
@@ -312,16 +323,33 @@ impl ToothSet {
         match powers.first() {
             None => (n.value == 1) as u64,
             Some(&l) if l >= 2 => {
+                // The `c` members raised to the same power `l` count by their product `y`
+                // (`y^l` divides n): as many tuples as the ordered `c`-tuples with product `y`,
+                // which the tables give at once for up to three members.
+                let c = powers.iter().take_while(|&&x| x == l).count();
+                let c = if c == 3 && self.triples.is_empty() { 1 } else { c as u32 };
+                let rest = &powers[c as usize..];
+                let pow = |x: u64| x.checked_pow(c).unwrap_or(u64::MAX);
                 let mut total = 0;
-                n.root_part(l).for_each_divisor(self.lo, self.hi, &mut |t| {
-                    if self.contains(t) {
-                        // t divides the root part, so t^l divides n.
-                        total += self.ordered_products(&n.div_pow(t, l), &powers[1..]);
+                n.root_part(l).for_each_divisor(pow(self.lo), pow(self.hi), &mut |y| {
+                    let ways = self.ordered_of_value(y, c);
+                    if ways > 0 {
+                        // y divides the root part, so y^l divides n.
+                        total += ways * self.ordered_products(&n.div_pow(y, l), rest);
                     }
                 });
                 total
             }
             Some(_) => self.ordered_ones(n, powers.len() as u32),
+        }
+    }
+
+    /// Ordered `c`-tuples of members with product `y`, for `c` of 1, 2 or 3 (3 with triples).
+    fn ordered_of_value(&self, y: u64, c: u32) -> u64 {
+        match c {
+            1 => self.contains(y) as u64,
+            2 => self.pairs.get(y as usize).copied().unwrap_or(0) as u64,
+            _ => self.triples.get(y as usize).copied().unwrap_or(0) as u64,
         }
     }
 
@@ -340,6 +368,7 @@ impl ToothSet {
             0 => total = (v == 1) as u64,
             1 => total = self.contains(v) as u64,
             2 => total = pairs(v),
+            3 if !self.triples.is_empty() => total = triples(v),
             3 => n.for_each_divisor(lo.max(v.div_ceil(hi * hi)), hi.min(v / (lo * lo)), &mut |d| {
                 if self.member[d as usize] {
                     total += pairs(v / d);
@@ -356,9 +385,16 @@ impl ToothSet {
             5 => {
                 let (a, b) = (lo * lo, hi * hi);
                 let c = hi * hi * hi;
+                // The table of triples is large and read at scattered places: the places are
+                // gathered first and read in a tight loop, so that the reads overlap.
+                let mut batch = Batch::new();
                 n.for_each_divisor(a.max(v.div_ceil(c)), b.min(v / (lo * lo * lo)), &mut |d| {
-                    total += pairs(d) * triples(v / d)
-                })
+                    let two = pairs(d);
+                    if two > 0 {
+                        batch.push(two, v / d, &mut |w, x| total += w * triples(x));
+                    }
+                });
+                batch.flush(&mut |w, x| total += w * triples(x));
             }
             6 => {
                 let (a, b) = (lo * lo * lo, hi * hi * hi);
@@ -370,6 +406,40 @@ impl ToothSet {
             _ => unreachable!("products of at most six members are counted"),
         }
         total
+    }
+}
+
+/// Weighted places in a table, read a batch at a time: reads that do not wait for one another
+/// can be in flight together, which a walk that reads as it goes does not allow.
+struct Batch {
+    len: usize,
+    weights: [u64; Batch::SIZE],
+    places: [u64; Batch::SIZE],
+}
+
+impl Batch {
+    const SIZE: usize = 64;
+
+    fn new() -> Batch {
+        Batch { len: 0, weights: [0; Batch::SIZE], places: [0; Batch::SIZE] }
+    }
+
+    /// Add `(weight, place)`, handing the batch to `read` first when it is full.
+    fn push(&mut self, weight: u64, place: u64, read: &mut impl FnMut(u64, u64)) {
+        if self.len == Batch::SIZE {
+            self.flush(read);
+        }
+        self.weights[self.len] = weight;
+        self.places[self.len] = place;
+        self.len += 1;
+    }
+
+    /// Hand every entry to `read` and empty the batch.
+    fn flush(&mut self, read: &mut impl FnMut(u64, u64)) {
+        for i in 0..self.len {
+            read(self.weights[i], self.places[i]);
+        }
+        self.len = 0;
     }
 }
 
@@ -459,6 +529,20 @@ mod tests {
         });
         got.sort_unstable();
         assert_eq!(got, want);
+    }
+
+    #[test]
+    fn triples_are_built_only_where_sixteen_bits_hold_them() {
+        // 1..=255 gives the largest counts the bound allows; debug builds would stop on an
+        // overflow of a 16-bit entry while the table is built.
+        let few: Vec<u32> = (1..=255).collect();
+        let set = ToothSet::new(&few, true);
+        assert!(set.supports(6));
+        let f = Factored::of(2 * 3 * 4 * 5 * 6 * 8, &primes_up_to(255)).unwrap();
+        assert_eq!(set.ordered_products(&f, &[1, 1, 1]), brute(&few, f.value(), &[1, 1, 1]));
+        let many: Vec<u32> = (1..=256).collect();
+        let set = ToothSet::new(&many, true);
+        assert!(set.supports(4) && !set.supports(5), "no table of triples past 255 members");
     }
 
     /// Brute force: tuples of members with the weighted product.
