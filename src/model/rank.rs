@@ -203,6 +203,11 @@ impl TopK {
         if self.k == 0 {
             return;
         }
+        // Worse than k entries already kept (k different gear sets, when sets are kept), it can
+        // never enter: entries only get better.
+        if self.worst.as_ref().is_some_and(|w| compare(&self.keys, &c, w) == Ordering::Greater) {
+            return;
+        }
         self.held.push(c);
         if self.held.len() >= 2 * self.k.max(16) {
             self.shrink();
