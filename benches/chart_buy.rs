@@ -9,9 +9,10 @@ use std::path::PathBuf;
 use criterion::{criterion_group, criterion_main, Criterion};
 use gearsieve::model::catalog::{load, CatalogueDefaults};
 use gearsieve::model::pool::Pool;
+use gearsieve::model::purchase::Purchase;
 use gearsieve::numbers::range::IntRange;
 use gearsieve::numbers::rational::Ratio;
-use gearsieve::trades::thread::chart_buy::{buy_chart, Offer};
+use gearsieve::trades::thread::chart_buy::buy_chart;
 use gearsieve::trades::thread::lathe_file::load_lathe;
 use gearsieve::trades::thread::machine::Machine;
 use gearsieve::trades::thread::series::built_in;
@@ -56,12 +57,14 @@ fn demo_lathe(catalogue: Option<&str>, tolerance: Ratio) -> Lathe {
 
 fn bench(c: &mut Criterion) {
     let series = built_in("iso-coarse").unwrap();
-    let purchase =
-        Offer { most: 2, teeth: IntRange { lo: 20, hi: 127 }, module_mm: 1.5, pressure_angle_deg: 20.0 };
+    let offer = |lathe: &Lathe| {
+        Purchase::new(lathe.pool.clone(), 2, Some(IntRange { lo: 20, hi: 127 }), None).unwrap()
+    };
     let mut group = c.benchmark_group("chart_buy");
     group.sample_size(10);
 
     let own = demo_lathe(None, Ratio::from_parts(1, 1000).unwrap());
+    let purchase = offer(&own);
     group.bench_function("buy 2, iso-coarse, demo lathe, 0.1%", |b| {
         b.iter(|| {
             let found = buy_chart(&own, &series, &purchase, 10, &RunOptions::default()).unwrap();
@@ -70,6 +73,7 @@ fn bench(c: &mut Criterion) {
     });
 
     let no127 = demo_lathe(Some("lathe-change-gears-no127.csv"), Ratio::integer(0));
+    let purchase = offer(&no127);
     group.bench_function("buy 2, iso-coarse, demo lathe without its 127, exact", |b| {
         b.iter(|| {
             let found = buy_chart(&no127, &series, &purchase, 10, &RunOptions::default()).unwrap();

@@ -7,22 +7,25 @@ set -euo pipefail
 cd "$(dirname "$0")/.."
 REPEAT=${1:-3}
 cargo build --release --quiet
-BIN=target/release/gearsieve
+BIN=${CARGO_TARGET_DIR:-target}/release/gearsieve
 
-run_case() {
-    local label=$1; shift
+# One command timed REPEAT times: its label, the subcommand (words, unquoted), the JSON key that holds its count,
+# then its arguments.
+run_command() {
+    local label=$1 command=$2 key=$3; shift 3
     local times=() rss=0 count=""
     for _ in $(seq "$REPEAT"); do
         local out
-        out=$( { /usr/bin/time -f "TIME %e %M" "$BIN" search --quiet --format json "$@" > /tmp/gearsieve-figures.json; } 2>&1 | grep '^TIME' || true)
+        out=$( { /usr/bin/time -f "TIME %e %M" "$BIN" $command --quiet --format json "$@" > /tmp/gearsieve-figures.json; } 2>&1 | grep '^TIME' || true)
         times+=("$(echo "$out" | awk '{print $2}')")
         local m; m=$(echo "$out" | awk '{print $3}')
         (( m > rss )) && rss=$m
-        count=$(python3 -c 'import json;print(json.load(open("/tmp/gearsieve-figures.json"))["count"])')
+        count=$(python3 -c "import json;print(json.load(open('/tmp/gearsieve-figures.json'))['$key'])")
     done
     local median; median=$(printf '%s\n' "${times[@]}" | sort -g | awk '{a[NR]=$1} END {print a[int((NR+1)/2)]}')
     printf '| %s | `%s` | %s s | %d MiB | %s |\n' "$label" "$*" "$median" $(( rss / 1024 )) "$count"
 }
+run_case() { local label=$1; shift; run_command "$label" search count "$@"; }
 
 echo "| case | arguments | median wall | peak RSS | count |"
 echo "|---|---|---|---|---|"
@@ -51,19 +54,8 @@ done
 run_case "scaling, exact 127/120: teeth 12..160, 5 stages" --ratio 127/120 --teeth 12..160 --stages 5 --long
 
 # `chart --buy`: the time of the whole command; the count is the choices that gain a thread.
-run_chart_case() {
-    local label=$1; shift
-    local times=() rss=0 count=""
-    for _ in $(seq "$REPEAT"); do
-        local out
-        out=$( { /usr/bin/time -f "TIME %e %M" "$BIN" chart --quiet --format json "$@" > /tmp/gearsieve-figures.json; } 2>&1 | grep '^TIME' || true)
-        times+=("$(echo "$out" | awk '{print $2}')")
-        local m; m=$(echo "$out" | awk '{print $3}')
-        (( m > rss )) && rss=$m
-        count=$(python3 -c 'import json;print(json.load(open("/tmp/gearsieve-figures.json"))["choice_count"])')
-    done
-    local median; median=$(printf '%s\n' "${times[@]}" | sort -g | awk '{a[NR]=$1} END {print a[int((NR+1)/2)]}')
-    printf '| %s | `%s` | %s s | %d MiB | %s |\n' "$label" "$*" "$median" $(( rss / 1024 )) "$count"
-}
+run_chart_case() { local label=$1; shift; run_command "$label" chart choice_count "$@"; }
 run_chart_case "chart --buy 2, metric coarse, demo lathe" --lathe catalogs/lathe/brackenfold.lathe --series iso-coarse --buy 2
 run_chart_case "chart --buy 2, metric coarse, demo lathe without its 127, exact" --lathe catalogs/lathe/brackenfold.lathe --stock catalogs/lathe-change-gears-no127.csv --series iso-coarse --tol 0 --buy 2
+# A trade's search on the bulk engines: the astronomical clock's moon-phase train.
+run_command "clock astro, synodic month, 4 stages, 1 ppm (default teeth 8..150)" "clock astro" count --period synodic-month --tol 1ppm --stages 4

@@ -74,6 +74,22 @@ fn benches(c: &mut Criterion) {
     g.finish();
 }
 
+/// Exact targets over five stages: the factor engine's count by classes of k. The count is the
+/// one the earlier engine (a term for every k) printed for the same search, with the same best 20.
+fn five_stage_benches(c: &mut Criterion) {
+    let mut g = c.benchmark_group("search five stages");
+    g.sample_size(10);
+    let exact = problem("127/120", "0", (12, 160), (5, 5));
+    g.bench_function("fast (factor) 5 stages 12..160 127/120 exact", |b| {
+        b.iter(|| {
+            let out = search(&exact, EngineChoice::Auto, &RunOptions::default());
+            assert_eq!(out.count, 1_297_738_801_453);
+            assert_eq!(out.trains.len(), 20);
+        })
+    });
+    g.finish();
+}
+
 /// Near targets over five stages on the meet engine: prefixes of three values grown in order,
 /// the last pair from its table.
 fn deep_benches(c: &mut Criterion) {
@@ -93,5 +109,40 @@ fn deep_benches(c: &mut Criterion) {
     g.finish();
 }
 
-criterion_group!(search_benches, benches, deep_benches);
+/// Listing gear sets against listing trains, on the same searches.
+fn gear_set_benches(c: &mut Criterion) {
+    let mut g = c.benchmark_group("gear sets");
+    g.sample_size(10);
+    let with_sets = |p: &Problem| Problem { gear_sets: true, ..p.clone() };
+
+    // The sieve counts a set by its canonical arrangement, tested on every train it finds.
+    let three = problem("37.5", "10ppm", (12, 150), (3, 3));
+    let three_sets = with_sets(&three);
+    let trains = search(&three, EngineChoice::Sieve, &RunOptions::default()).count;
+    g.bench_function("sieve 3 stages 12..150 10ppm, trains", |b| {
+        b.iter(|| assert_eq!(search(&three, EngineChoice::Sieve, &RunOptions::default()).count, trains))
+    });
+    g.bench_function("sieve 3 stages 12..150 10ppm, gear sets", |b| {
+        b.iter(|| {
+            let out = search(&three_sets, EngineChoice::Sieve, &RunOptions::default());
+            assert_eq!(out.count, trains);
+            assert!(out.gear_set_count.is_some_and(|s| s > 0 && s < trains));
+        })
+    });
+
+    // The meet engine's set counter over each side's 16 million multisets of four teeth. The
+    // set count is the one this counter printed; the counter is held to brute forces on small
+    // spaces (its unit tests and tests/gear_sets.rs).
+    let four = with_sets(&problem("29.530588", "1ppm", (12, 150), (4, 4)));
+    g.bench_function("fast (meet) 4 stages 12..150 29.530588 1ppm, gear sets", |b| {
+        b.iter(|| {
+            let out = search(&four, EngineChoice::Auto, &RunOptions::default());
+            assert_eq!(out.count, 397_803_297);
+            assert_eq!(out.gear_set_count, Some(18_689_573));
+        })
+    });
+    g.finish();
+}
+
+criterion_group!(search_benches, benches, five_stage_benches, deep_benches, gear_set_benches);
 criterion_main!(search_benches);

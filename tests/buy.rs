@@ -1,14 +1,15 @@
 //! Gears to buy (`--buy N`): on small random catalogues the trains found with up to N gears
 //! bought, and the number each needs, equal a brute force that adds every multiset of up to N
 //! gears of the buy range to the catalogue, runs the plain exhaustive search on each, and takes
-//! for each train the fewest gears added that make it; the real binary on the shipped catalogue
-//! without the 127-tooth gear names the 127; bad input names the flag.
+//! for each train the fewest gears added that make it (the sieve, which prunes on the budget, on
+//! its own too); a lathe whose shelf has no idler that reaches buys one; the real binary on the
+//! shipped catalogue without the 127-tooth gear names the 127; bad input names the flag.
 
 mod common;
 
 use std::collections::BTreeMap;
 
-use common::{gearsieve, json};
+use common::{gearsieve, json, temp_catalogue};
 use gearsieve::model::pool::{Pool, StockGear};
 use gearsieve::model::purchase::Purchase;
 use gearsieve::model::rank::DEFAULT_RANK;
@@ -109,6 +110,13 @@ proptest! {
         let want = brute(&shelf, range, most, target, tol, stages);
         prop_assert_eq!(&got, &want);
         prop_assert_eq!(found.count, want.len() as u64);
+        // The sieve alone, which cuts a branch once its gears bought pass the budget, finds the
+        // same trains (the default may hand exact targets to a bulk engine).
+        let sieved = search(&all, EngineChoice::Sieve, &RunOptions::default());
+        let by_sieve: BTreeMap<Vec<(u32, u32)>, u32> =
+            sieved.trains.iter().map(|t| (key(t), purchase.count(t))).collect();
+        prop_assert_eq!(&by_sieve, &want);
+        prop_assert_eq!(sieved.count, want.len() as u64);
         // Listed fewest to buy first, and a short list is the head of the whole one.
         let counts: Vec<u32> = found.trains.iter().map(|t| purchase.count(t)).collect();
         prop_assert!(counts.windows(2).all(|w| w[0] <= w[1]), "{:?}", counts);
@@ -216,6 +224,70 @@ fn thread_names_the_127_for_a_metric_pitch_on_an_inch_leadscrew() {
     let csv = gearsieve(&[&with[..], &["--format", "csv"]].concat());
     let head = csv.stdout.lines().next().unwrap();
     assert!(head.contains(",to_buy_count,to_buy,"), "{head}");
+}
+
+#[test]
+fn thread_buys_the_idler_a_shelf_lacks() {
+    // 20 → 40 from an 8 tpi leadscrew cuts 16 tpi (3.175 × 20/40 = 1.5875 mm, worked by hand).
+    // The stud and leadscrew gears sit 120 mm apart, so a simple train needs an idler, and the
+    // only spare gear on this shelf, a 25, reaches 1.5 × (20 + 25)/2 + 1.5 × (25 + 40)/2 = 82.5 mm,
+    // short of 120.
+    let (_dir, shelf) = temp_catalogue(
+        "shelf.csv",
+        b"teeth,module,pressure_angle,quantity\n20,1.5,20,1\n25,1.5,20,1\n40,1.5,20,1\n",
+    );
+    let args = [
+        "thread",
+        "--pitch",
+        "16tpi",
+        "--leadscrew",
+        "8tpi",
+        "--stock",
+        &shelf,
+        "--banjo",
+        "catalogs/lathe/brackenfold.banjo",
+        "--stages",
+        "1",
+        "--tol",
+        "0",
+    ];
+    assert_eq!(gearsieve(&args).code, 1, "no idler on the shelf reaches");
+    let mut with = args.to_vec();
+    with.extend(["--buy", "1", "--buy-teeth", "20..127", "--limit", "50"]);
+    let (code, v) = json(&with);
+    assert_eq!(code, 0);
+    let setups = v["trains"].as_array().unwrap();
+    let teeth_at = |s: &serde_json::Value, at: &str| {
+        s["positions"]
+            .as_array()
+            .unwrap()
+            .iter()
+            .find(|p| p["position"] == at)
+            .map(|p| p["teeth"].as_u64().unwrap())
+    };
+    let through_bought: Vec<&serde_json::Value> = setups
+        .iter()
+        .filter(|s| teeth_at(s, "stud") == Some(20) && teeth_at(s, "leadscrew") == Some(40))
+        .collect();
+    assert_eq!(through_bought.len(), 1, "{setups:?}");
+    let s = through_bought[0];
+    let idler = teeth_at(s, "idler").expect("set up through an idler");
+    assert!(![20, 25, 40].contains(&idler), "the idler is not one of the shelf's: {s}");
+    assert_eq!(s["to_buy"], serde_json::json!([{"teeth": idler, "module_mm": 1.5, "count": 1}]), "{s}");
+    // Every setup through an idler the shelf cannot spare names it among the gears to buy,
+    // and none needs more than the one gear allowed.
+    for s in setups {
+        let bought: Vec<u64> =
+            s["to_buy"].as_array().unwrap().iter().map(|b| b["teeth"].as_u64().unwrap()).collect();
+        let count: u64 = s["to_buy"].as_array().unwrap().iter().map(|b| b["count"].as_u64().unwrap()).sum();
+        assert!(count <= 1, "{s}");
+        if let Some(z) = teeth_at(s, "idler") {
+            let on_shelf_spare = [20, 25, 40].contains(&z)
+                && teeth_at(s, "stud") != Some(z)
+                && teeth_at(s, "leadscrew") != Some(z);
+            assert!(on_shelf_spare || bought.contains(&z), "idler {z} not on hand and not bought: {s}");
+        }
+    }
 }
 
 #[test]

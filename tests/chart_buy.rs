@@ -8,11 +8,12 @@ use common::*;
 use std::collections::BTreeSet;
 
 use gearsieve::model::pool::{Pool, StockGear};
+use gearsieve::model::purchase::Purchase;
 use gearsieve::numbers::range::IntRange;
 use gearsieve::numbers::rational::Ratio;
 use gearsieve::trades::thread::banjo::{load_banjo, Banjo};
 use gearsieve::trades::thread::chart::chart;
-use gearsieve::trades::thread::chart_buy::{buy_chart, BuyChart, Offer};
+use gearsieve::trades::thread::chart_buy::{buy_chart, BuyChart};
 use gearsieve::trades::thread::machine::{GearboxPosition, Machine};
 use gearsieve::trades::thread::pitch::{parse_leadscrew, parse_pitch};
 use gearsieve::trades::thread::series::SeriesEntry;
@@ -120,9 +121,9 @@ fn brute_force(
 }
 
 fn fast(on_hand: &[(u32, u32)], teeth: IntRange, most: usize, shop: &Shop) -> BuyChart {
-    let purchase = Offer { most, teeth, module_mm: MODULE, pressure_angle_deg: 20.0 };
-    buy_chart(&lathe(on_hand, &[], shop), &shop.series, &purchase, usize::MAX, &RunOptions::default())
-        .unwrap()
+    let lathe = lathe(on_hand, &[], shop);
+    let purchase = Purchase::new(lathe.pool.clone(), most as u32, Some(teeth), Some(MODULE)).unwrap();
+    buy_chart(&lathe, &shop.series, &purchase, usize::MAX, &RunOptions::default()).unwrap()
 }
 
 fn check(on_hand: &[(u32, u32)], teeth: IntRange, most: usize, shop: &Shop) -> BuyChart {

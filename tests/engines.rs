@@ -196,13 +196,13 @@ proptest! {
 /// unsplit run's.
 fn shards_merge(p: &Problem, parts: u32) -> Result<(), TestCaseError> {
     use gearsieve::engine::Shard;
-    use gearsieve::report::search::{json, SearchReport};
+    use gearsieve::report::search::{view, SearchReport};
     let doc_of = |shard: Option<Shard>| {
         let o = search(p, EngineChoice::Auto, &RunOptions { shard, ..RunOptions::default() });
-        json::doc(&SearchReport { problem: p, outcome: &o, explain: false, shard })
+        view::doc(&SearchReport { problem: p, outcome: &o, explain: false, shard })
     };
     let whole = doc_of(None);
-    let docs: Vec<(String, json::Doc)> =
+    let docs: Vec<(String, gearsieve::report::search::json::Doc)> =
         (1..=parts).map(|i| (format!("part{i}"), doc_of(Some(Shard { index: i, count: parts })))).collect();
     prop_assert_eq!(docs.iter().map(|(_, d)| d.count).sum::<u64>(), whole.count);
     prop_assert_eq!(gearsieve::report::search::merge::merge(docs).unwrap(), whole);
@@ -393,6 +393,31 @@ fn factor_engine_equals_exhaustive_on_five_and_six_stages() {
         let slow = run(&p, EngineChoice::Exhaustive);
         assert!(slow.count > 0, "{ratio}: {}", slow.count);
         assert_eq!(run(&p, EngineChoice::Auto), slow, "{ratio}");
+    }
+}
+
+/// Five stages over a range where several primes play alike (13, 17, 19 and 23 are each carried
+/// only by a gear of their own teeth), so the factor engine's classes of `k` stand for many `k`
+/// each, with a prime repeated or several of a class together: held to the sieve, which walks
+/// the stages.
+#[test]
+fn factor_engine_agrees_with_the_sieve_on_five_stages_where_primes_play_alike() {
+    for ratio in ["1", "23/19", "26/17"] {
+        let pool = Pool::to_cut(IntRange { lo: 10, hi: 24 }, 1.0, 20.0, None).unwrap();
+        let target = Target::parse(ratio, "0").unwrap();
+        let p = Problem::new(
+            target,
+            pool,
+            IntRange { lo: 5, hi: 5 },
+            StageLimits::default(),
+            None,
+            DEFAULT_RANK.to_vec(),
+            20,
+        )
+        .unwrap();
+        let sieve = run(&p, EngineChoice::Sieve);
+        assert!(sieve.count > 1000, "{ratio}: {}", sieve.count);
+        assert_eq!(run(&p, EngineChoice::Auto), sieve, "{ratio}");
     }
 }
 

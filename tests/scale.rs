@@ -360,3 +360,24 @@ fn a_part_that_holds_no_train_is_not_a_failure() {
     };
     assert_eq!(merged.stdout, whole.stdout);
 }
+
+/// A part says before it starts what it will take and what the whole search would take on one
+/// machine, so a scheduler's parts can be sized.
+#[test]
+fn a_part_forecasts_its_own_time_and_the_whole_search() {
+    let run = gearsieve(&[
+        "search", "--ratio", "37.5", "--tol", "10ppm", "--teeth", "12..90", "--stages", "3", "--engine",
+        "sieve", "--shard", "1/2", "--format", "json",
+    ]);
+    assert_eq!(run.code, 0, "{}", run.stderr);
+    let line = run.stderr.lines().find(|l| l.starts_with("gearsieve: part 1/2: ")).unwrap_or_else(|| {
+        panic!("no forecast line for the part in:\n{}", run.stderr);
+    });
+    assert!(line.contains(" on ") && line.contains("; the whole search "), "{line}");
+    // Quiet parts say nothing.
+    let quiet = gearsieve(&[
+        "search", "--ratio", "37.5", "--tol", "10ppm", "--teeth", "12..90", "--stages", "3", "--engine",
+        "sieve", "--shard", "1/2", "--format", "json", "--quiet",
+    ]);
+    assert!(!quiet.stderr.contains("gearsieve: part"), "{}", quiet.stderr);
+}

@@ -161,13 +161,15 @@ pub fn forecast(outlook: Option<Outlook<'_>>, print: &Print) -> anyhow::Result<(
         // The remedy names --long; the message is about the search, so it leads with that.
         return Err(anyhow::anyhow!("this search would take {what}; {}", either(&ways)));
     }
-    if wall > NOTE_ABOVE_S && !print.quiet {
-        eprintln!("gearsieve: this search will take {what}; Ctrl-C stops it and prints the best so far");
-    } else if let Some(s) = o.shard.filter(|_| !print.quiet) {
+    if print.quiet {
+        return Ok(());
+    }
+    let stop = "Ctrl-C stops it and prints the best so far";
+    if let Some(s) = o.shard {
         // A scheduler's log shows what each part will take, so the parts can be sized.
         let whole = (one_thread + split) / threads as f64;
         eprintln!(
-            "gearsieve: part {s}: {}{} on {threads} thread{}; the whole search {} on one machine{}",
+            "gearsieve: part {s}: {}{} on {threads} thread{}; the whole search {} on one machine{}{}",
             if wall < 1.0 {
                 ""
             } else if at_least {
@@ -178,8 +180,11 @@ pub fn forecast(outlook: Option<Outlook<'_>>, print: &Print) -> anyhow::Result<(
             human_duration(wall),
             if threads == 1 { "" } else { "s" },
             human_duration(whole),
-            if one_thread > 0.0 { " (some of the work cannot be split, and every part does it)" } else { "" }
+            if one_thread > 0.0 { " (some of the work cannot be split, and every part does it)" } else { "" },
+            if wall > NOTE_ABOVE_S { format!("; {stop}") } else { String::new() },
         );
+    } else if wall > NOTE_ABOVE_S {
+        eprintln!("gearsieve: this search will take {what}; {stop}");
     }
     Ok(())
 }

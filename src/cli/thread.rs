@@ -7,7 +7,8 @@ use std::path::PathBuf;
 
 use clap::{ArgGroup, Args};
 use gearsieve::model::catalog::CatalogueDefaults;
-use gearsieve::model::pool::{check_module, check_pressure_angle, Pool, MAX_STAGES, MAX_TEETH, MIN_TEETH};
+use gearsieve::model::pool::{check_module, Pool, MAX_STAGES, MAX_TEETH, MIN_TEETH};
+use gearsieve::model::purchase::Purchase;
 use gearsieve::numbers::length::{parse_length, LengthUnit};
 use gearsieve::numbers::range::{parse_int_range, parse_length_range, IntRange};
 use gearsieve::numbers::rational::Ratio;
@@ -16,7 +17,7 @@ use gearsieve::report::thread::{BuyChartReport, ChartReport, ThreadReport};
 use gearsieve::report::Report;
 use gearsieve::trades::thread::banjo::{load_banjo, Banjo};
 use gearsieve::trades::thread::chart::{chart, Chart};
-use gearsieve::trades::thread::chart_buy::{buy_chart, BuyChart, Offer, MOST_TO_BUY};
+use gearsieve::trades::thread::chart_buy::{buy_chart, BuyChart, MOST_TO_BUY};
 use gearsieve::trades::thread::feed::parse_feed;
 use gearsieve::trades::thread::lathe_file::{load_lathe, LatheFile};
 use gearsieve::trades::thread::machine::{parse_gearbox, Machine};
@@ -148,8 +149,8 @@ pub struct ChartArgs {
     /// With --buy, the tooth counts on offer, LO..HI (default 20..127).
     #[arg(long, value_name = "LO..HI", requires = "buy")]
     pub buy_teeth: Option<String>,
-    /// With --buy, the module of the gears to buy, mm (default: the module of the gears on
-    /// hand); the pressure angle is --pressure-angle's (default 20).
+    /// With --buy, the module of the gears to buy, mm: one the gears on hand come in [default:
+    /// theirs, when they all share one]; the gears bought take that module's pressure angle.
     #[arg(long, value_name = "MM", requires = "buy", allow_negative_numbers = true, value_parser = number)]
     pub buy_module: Option<f64>,
     #[command(flatten)]
@@ -420,7 +421,7 @@ struct BuyJob {
     lathe: Lathe,
     name: String,
     series: Vec<SeriesEntry>,
-    purchase: Offer,
+    purchase: Purchase,
     limit: usize,
 }
 
@@ -458,8 +459,9 @@ impl Job for BuyJob {
     }
 }
 
-/// The gears on offer that `--buy`, `--buy-teeth` and `--buy-module` describe, for `lathe`.
-fn purchase(args: &ChartArgs, most: usize, lathe: &Lathe) -> anyhow::Result<Offer> {
+/// The gears on offer that `--buy`, `--buy-teeth` and `--buy-module` describe, for `lathe`: the
+/// same purchase as `thread --buy` makes, added to the lathe's gears on hand.
+fn purchase(args: &ChartArgs, most: usize, lathe: &Lathe) -> anyhow::Result<Purchase> {
     if most == 0 || most > MOST_TO_BUY {
         return Err(refuse("--buy", format!("give how many gears to buy, 1 to {MOST_TO_BUY}; found {most}")));
     }
@@ -476,28 +478,15 @@ fn purchase(args: &ChartArgs, most: usize, lathe: &Lathe) -> anyhow::Result<Offe
             ));
         }
     }
-    let module_mm = match args.buy_module {
-        Some(m) => check_module(m, &|e| Error::problem(e)).map_err(|e| refuse("--buy-module", e))?,
-        None => match lathe.pool.groups.as_slice() {
-            [g] => g.module_mm,
-            _ => {
-                return Err(refuse(
-                    "--buy-module",
-                    "the gears on hand come in several modules; name the module of the gears to buy",
-                ))
-            }
-        },
-    };
+    if let Some(m) = args.buy_module {
+        check_module(m, &|e| Error::problem(e)).map_err(|e| refuse("--buy-module", e))?;
+    }
     if lathe.stages.hi > 2 {
         return Err(refuse("--buy", "works out setups of one and two stages; give --stages 1..2 or less"));
     }
-    // Gears bought to mesh with those on hand: their pressure angle unless one is given.
-    let on_hand = lathe.pool.groups.iter().find(|g| (g.module_mm - module_mm).abs() <= 1e-9 * module_mm);
-    let pressure_angle_deg =
-        args.lathe.pressure_angle.or(on_hand.map(|g| g.pressure_angle_deg)).unwrap_or(20.0);
-    check_pressure_angle(pressure_angle_deg, &|e| Error::problem(e))
-        .map_err(|e| refuse("--pressure-angle", e))?;
-    Ok(Offer { most, teeth, module_mm, pressure_angle_deg })
+    // Gears bought mesh with those on hand: their module and pressure angle.
+    let most = u32::try_from(most).unwrap_or(u32::MAX);
+    Ok(Purchase::new(lathe.pool.clone(), most, Some(teeth), args.buy_module)?)
 }
 
 /// Run `gearsieve chart`.

@@ -12,8 +12,12 @@
 //! lemma over the permutations of the `n` places: a permutation of cycle type λ fixes the
 //! tuples that repeat one stage along each cycle, whose products are `∏ t_c^{l_c}`. The sum
 //! runs over the `k` whose primes are all at most the largest tooth count, up to the largest
-//! `k` the tooth range allows, cut into parts that run in parallel. Every count is a whole
-//! number held exactly.
+//! `k` the tooth range allows, by classes: a prime whose square passes every tooth count is
+//! carried by one gear at most, and primes with the same multiples among the allowed teeth
+//! (not dividing the target) can be swapped in every tooth count, so `k` that differ only in
+//! which of such alike primes carry which exponents have equal terms. One `k` of each class is
+//! counted, times the number of `k` in the class (see `FactorTables::k_classes`); the classes
+//! are cut into parts that run in parallel. Every count is a whole number held exactly.
 //!
 //! Gear sets are counted on the same `k`: a gear set is a multiset of `n` driven teeth with
 //! product `k·p` and one of `n` drivers with product `k·q` (Burnside's lemma on each side alone
@@ -46,9 +50,7 @@ use super::tally::Tally;
 use crate::model::pool::MAX_STAGES;
 use crate::model::rank::Candidate;
 use crate::numbers::rational::RelError;
-use crate::numbers::smooth::{
-    estimate_smooth_sum, primes_up_to, smooth_parts, Factored, SmoothPart, ToothSet,
-};
+use crate::numbers::smooth::{for_each_smooth, primes_up_to, Factored, ToothSet};
 
 /// Largest tooth count for which five- and six-stage trains are counted here: the table of
 /// ordered triples has (teeth)³ entries, 66 MB at this bound.
@@ -58,9 +60,9 @@ pub const MAX_TEETH_FOR_SIX_STAGES: u32 = 255;
 /// out number far fewer.
 const MAX_TERMS: usize = 64;
 
-/// Most values of `k` in one part of the sum: parts are tasks for the parallel pool and ticks
+/// Most classes of `k` in one part of the sum: parts are tasks for the parallel pool and ticks
 /// of the progress bar.
-const PART_SIZE: u64 = 1 << 14;
+const PART_SIZE: usize = 1 << 12;
 
 /// How many values of `k` pass between two looks at the stop flag.
 const CANCEL_EVERY: u32 = 1 << 10;
@@ -135,6 +137,12 @@ pub struct FactorTables {
     parts: Option<(Factored, Factored)>,
     /// The primes `k` may have: those up to the smaller of the largest driver and driven.
     primes: Vec<u32>,
+    /// The primes of `primes` whose square is at most the largest tooth count: a gear may carry
+    /// any number of them.
+    small: Vec<u32>,
+    /// The other primes of `primes` that some gear on each side carries, in classes of primes
+    /// that play alike (see [`prime_classes`]), each ascending, by least prime ascending.
+    classes: Vec<Vec<u64>>,
     /// Stage-table index of each (driver, driven) pairing, at `driver·(hi_driven + 1) + driven`.
     index: Vec<u32>,
     module_mm: f64,
@@ -178,12 +186,19 @@ impl FactorTables {
         let ratio = problem.target.ratio;
         let parts = Factored::of(ratio.num(), &primes_up_to(hi_driven as u32))
             .zip(Factored::of(ratio.den(), &primes_up_to(hi_driver as u32)));
+        let primes = primes_up_to(hi_driven.min(hi_driver) as u32);
+        let widest = hi_driven.max(hi_driver) as u64;
+        let small: Vec<u32> = primes.iter().copied().filter(|&r| r as u64 * r as u64 <= widest).collect();
+        let pinned = (ratio.num(), ratio.den());
+        let classes = prime_classes(&primes[small.len()..], &driven, &driver, pinned);
         Some(FactorTables {
             driven: ToothSet::new(&driven, six),
             driver: ToothSet::new(&driver, six),
             both: both as i128,
             parts,
-            primes: primes_up_to(hi_driven.min(hi_driver) as u32),
+            primes,
+            small,
+            classes,
             index,
             module_mm: pool.groups[0].module_mm,
         })
@@ -248,34 +263,61 @@ impl FactorTables {
                 terms.push(Term { powers, coef, perms, k_lo, k_hi });
             }
         }
-        let k_lo = terms.iter().map(|t| t.k_lo).min().unwrap_or(1);
         let k_hi = terms.iter().map(|t| t.k_hi).max().unwrap_or(0);
-        let parts =
-            if terms.is_empty() || !cut { Vec::new() } else { smooth_parts(&self.primes, k_hi, PART_SIZE) };
+        let keys = if terms.is_empty() || !cut { Vec::new() } else { self.k_classes(n, k_hi) };
         // Multisets of m teeth, m ≤ n, on one side: Burnside's lemma over the permutations of m.
         let multisets = sets.then(|| (0..=n).map(multiset_terms).collect());
-        BurnsideSum { n, constant, terms, k_lo, k_hi, parts, multisets }
+        BurnsideSum { n, constant, terms, k_hi, keys, multisets }
     }
 
-    /// Burnside's sum over one part of the `k`, and the gear sets of that part when the sum
-    /// counts them, or `None` when the search was stopped.
-    pub fn part_sum(&self, space: &SearchSpace, burnside: &BurnsideSum, part: usize) -> Option<(i128, i128)> {
-        if space.cancelled() {
-            return None;
-        }
-        let (mut sum, mut sets) = (0i128, 0i128);
-        let mut seen = 0u32;
-        let done = burnside.parts[part].for_each(&self.primes, burnside.k_lo, burnside.k_hi, &mut |k| {
-            seen += 1;
-            if seen % CANCEL_EVERY == 0 && space.cancelled() {
-                return false;
+    /// One class of `k` for every way the primes of `k` can play, each with how many `k` up
+    /// to `k_hi` it stands for: `(least k of the class, how many)`.
+    ///
+    /// A prime `r` with `r² >` every tooth count is carried by one gear at most, as `r·c` with
+    /// `c < r`; two such primes with the same cofactors `c` on each side (and neither dividing
+    /// the target) can be swapped in every tooth count without changing which are allowed, so
+    /// swapping them in `k` changes no count of the sum. So what matters of `k` is its product
+    /// of small primes and, class by class of [`prime_classes`], the exponents its primes of
+    /// that class carry, not which primes carry them. A class of `k` fixes those; it stands for
+    /// the ways to give the exponents to distinct primes of each class, and is stood for by the
+    /// least `k` (largest exponents on least primes). A `k` of more than `n` such primes (with
+    /// their exponents) needs more than `n` gears, and is left out; so is a class whose least
+    /// `k` passes `k_hi` (every `k` of it does too).
+    fn k_classes(&self, n: usize, k_hi: u64) -> Vec<(u64, u64)> {
+        let mut smooth = vec![1u64];
+        for &r in &self.small {
+            for i in 0..smooth.len() {
+                let mut x = smooth[i];
+                while let Some(y) = x.checked_mul(r as u64).filter(|&y| y <= k_hi) {
+                    smooth.push(y);
+                    x = y;
+                }
             }
-            let (t, g) = self.k_sums(burnside, k);
-            sum += t;
-            sets += g;
-            true
-        });
-        done.then_some((sum, sets))
+        }
+        smooth.sort_unstable();
+        let mut out = Vec::new();
+        let mut walk = ClassWalk { classes: &self.classes, smooth: &smooth, k_hi, out: &mut out };
+        walk.take_classes(0, 1, 1, n as u32);
+        out
+    }
+
+    /// Burnside's sum over one part of the classes of `k`, and the gear sets of that part when
+    /// the sum counts them, or `None` when the search was stopped.
+    pub fn part_sum(&self, space: &SearchSpace, burnside: &BurnsideSum, part: usize) -> Option<(i128, i128)> {
+        let (mut sum, mut sets) = (0i128, 0i128);
+        let start = part * PART_SIZE;
+        let chunk =
+            &burnside.keys[start.min(burnside.keys.len())..(start + PART_SIZE).min(burnside.keys.len())];
+        for (i, &(k, ways)) in chunk.iter().enumerate() {
+            if i as u32 % CANCEL_EVERY == 0 && space.cancelled() {
+                return None;
+            }
+            let Some(k) = Factored::of(k, &self.primes) else { continue };
+            let (t, g) = self.k_sums(burnside, &k);
+            sum += t * ways as i128;
+            sets += g * ways as i128;
+        }
+        Some((sum, sets))
     }
 
     /// Burnside's sum for one `k`: every term's ordered products on both sides; and the gear
@@ -287,9 +329,9 @@ impl FactorTables {
         let Some((p, q)) = &self.parts else { return (0, 0) };
         // k is within the largest term's bound, so the products fit.
         let (Some(driven), Some(driver)) = (k.mul(p), k.mul(q)) else { return (0, 0) };
-        // The driven side first: when no multiset of driven teeth has the product (the all-ones
-        // shape counts every tuple, so it is 0 exactly then), neither trains nor sets need the
-        // drivers.
+        // The driven side first: when no term has driven tuples of this k, neither trains nor
+        // sets need the drivers. (A term with stages taken out counts trains of another k, so
+        // one term's zero says nothing of the others.)
         let mut driven_counts = [0u64; MAX_TERMS];
         let mut any_driven = false;
         for (a, t) in driven_counts.iter_mut().zip(&burnside.terms) {
@@ -385,8 +427,9 @@ impl FactorTables {
         out
     }
 
-    /// Forecast the seconds one thread needs for [`FactorTables::count`] on `burnside`: Knuth's probe
-    /// estimate of the time to evaluate every `k`, each probed `k` timed, probing for about
+    /// Forecast the seconds one thread needs for [`FactorTables::count`] on `burnside`: the
+    /// classes of `k` are listed (as the count lists them), and the mean time of a class,
+    /// timed on classes drawn from a fixed seed, is scaled to all of them; probing lasts about
     /// `budget`, or less once a few hundred probes agree that it is quick.
     pub fn forecast_seconds(&self, burnside: &BurnsideSum, budget: std::time::Duration) -> f64 {
         /// Below this many seconds a count is quick, and the forecast need not be sharp.
@@ -395,16 +438,32 @@ impl FactorTables {
             return 0.0;
         }
         let start = std::time::Instant::now();
-        let mut keep_going =
-            |probes: usize, seconds: f64| start.elapsed() < budget && (probes < 500 || seconds > QUICK_S);
-        estimate_smooth_sum(&self.primes, burnside.k_hi, &mut keep_going, &mut |k| {
-            if k.value() < burnside.k_lo {
-                return 0.0;
-            }
+        let keys = self.k_classes(burnside.n, burnside.k_hi);
+        let listing = start.elapsed().as_secs_f64();
+        if keys.is_empty() {
+            return listing;
+        }
+        let mut seed = 0x9e37_79b9_7f4a_7c15u64;
+        let (mut probes, mut spent) = (0usize, 0.0f64);
+        let estimate = |probes: usize, spent: f64| listing + spent / probes as f64 * keys.len() as f64;
+        while probes == 0
+            || (probes < keys.len()
+                && start.elapsed() < budget
+                && (probes < 500 || estimate(probes, spent) > QUICK_S))
+        {
+            // xorshift64*: plenty for drawing classes.
+            seed ^= seed >> 12;
+            seed ^= seed << 25;
+            seed ^= seed >> 27;
+            let (k, _) = keys[(seed.wrapping_mul(0x2545_f491_4f6c_dd1d) % keys.len() as u64) as usize];
             let t = std::time::Instant::now();
-            std::hint::black_box(self.k_sums(burnside, k));
-            t.elapsed().as_secs_f64()
-        })
+            if let Some(k) = Factored::of(k, &self.primes) {
+                std::hint::black_box(self.k_sums(burnside, &k));
+            }
+            spent += t.elapsed().as_secs_f64();
+            probes += 1;
+        }
+        estimate(probes, spent)
     }
 
     /// The number of trains of `burnside` that hit the target, with the number of gear sets
@@ -418,7 +477,7 @@ impl FactorTables {
     ) -> Option<(u64, Option<u64>)> {
         let n = burnside.n;
         // The parts differ in size, so each is its own task.
-        let sums: Vec<Option<(i128, i128)>> = (0..burnside.parts.len())
+        let sums: Vec<Option<(i128, i128)>> = (0..burnside.keys.len().div_ceil(PART_SIZE))
             .into_par_iter()
             .with_max_len(1)
             .map(|i| {
@@ -452,7 +511,7 @@ impl FactorTables {
         while from <= k_hi {
             // (k, its largest prime), ascending.
             let mut ks: Vec<(u64, u64)> = Vec::new();
-            SmoothPart::ALL.for_each(&self.primes, from, cap, &mut |k| {
+            for_each_smooth(&self.primes, from, cap, &mut |k| {
                 ks.push((k.value(), k.largest_prime()));
                 true
             });
@@ -584,15 +643,88 @@ struct Term {
     k_hi: u64,
 }
 
+/// The walk of [`FactorTables::k_classes`] over the classes of `k`.
+struct ClassWalk<'a> {
+    classes: &'a [Vec<u64>],
+    /// The products of small primes up to `k_hi`, ascending.
+    smooth: &'a [u64],
+    k_hi: u64,
+    out: &'a mut Vec<(u64, u64)>,
+}
+
+impl ClassWalk<'_> {
+    /// Every class of `k` that takes its large primes from `classes[from..]` on top of `value`
+    /// (which stands for `ways` choices of primes), with at most `left` more of them.
+    fn take_classes(&mut self, from: usize, value: u64, ways: u64, left: u32) {
+        let fits = self.smooth.partition_point(|&s| s <= self.k_hi / value);
+        self.out.extend(self.smooth[..fits].iter().map(|&s| (value * s, ways)));
+        if left == 0 {
+            return;
+        }
+        for j in from..self.classes.len() {
+            // Classes come least prime ascending: when one does not fit, no later one does.
+            if value.checked_mul(self.classes[j][0]).is_none_or(|x| x > self.k_hi) {
+                break;
+            }
+            let mut exps = [0u32; MAX_STAGES];
+            self.within(j, 0, left, value, ways, left, &mut exps);
+        }
+    }
+
+    /// Give the `i`-th prime of class `j` an exponent of at most `most` (exponents descending
+    /// along the class), then go on within the class or to the next classes.
+    #[allow(clippy::too_many_arguments)]
+    fn within(
+        &mut self,
+        j: usize,
+        i: usize,
+        most: u32,
+        value: u64,
+        ways: u64,
+        left: u32,
+        exps: &mut [u32; MAX_STAGES],
+    ) {
+        let class = &self.classes[j];
+        let r = class[i];
+        let mut v = value;
+        for e in 1..=most.min(left) {
+            match v.checked_mul(r).filter(|&x| x <= self.k_hi) {
+                Some(x) => v = x,
+                None => return,
+            }
+            exps[i] = e;
+            let chosen = &exps[..=i];
+            self.take_classes(j + 1, v, ways * placements(class.len() as u64, chosen), left - e);
+            if i + 1 < class.len() && i + 1 < MAX_STAGES {
+                self.within(j, i + 1, e, v, ways, left - e, exps);
+            }
+        }
+        exps[i] = 0;
+    }
+}
+
+/// The ways to give the exponents `exps` (descending) to distinct primes of a class of `size`:
+/// `size·(size − 1)⋯` for each exponent, over the orders of equal exponents.
+fn placements(size: u64, exps: &[u32]) -> u64 {
+    let mut ways = 1u64;
+    let mut run = 0u64;
+    for (i, &e) in exps.iter().enumerate() {
+        ways *= size - i as u64;
+        run = if i > 0 && exps[i - 1] == e { run + 1 } else { 1 };
+        ways /= run;
+    }
+    ways
+}
+
 /// Burnside's sum over `k` that counts one stage count's trains, cut into parts (see
 /// [`FactorTables::burnside_sum`]).
 pub struct BurnsideSum {
     n: usize,
     constant: i128,
     terms: Vec<Term>,
-    k_lo: u64,
     k_hi: u64,
-    parts: Vec<SmoothPart>,
+    /// The classes of `k` the sum visits: (least `k` of the class, how many `k` it stands for).
+    keys: Vec<(u64, u64)>,
     /// For counting gear sets: Burnside's terms for multisets of `m` teeth, `m` = 0 to `n`.
     multisets: Option<Vec<MultisetTerms>>,
 }
@@ -605,7 +737,7 @@ impl BurnsideSum {
 
     /// Progress ticks of a run: one per part and one for the listing.
     pub fn ticks(&self) -> u64 {
-        self.parts.len() as u64 + 1
+        self.keys.len().div_ceil(PART_SIZE) as u64 + 1
     }
 }
 
@@ -757,6 +889,29 @@ fn cycle_terms(n: usize, both: i128) -> Vec<(Vec<u32>, i128)> {
         }
     }
     terms.into_iter().filter(|(_, c)| *c != 0).collect()
+}
+
+/// The classes of the `large` primes (each with a square above every tooth count, so carried by
+/// one gear at most, as `r·c` with `c < r`): primes with the same cofactors `c` among the
+/// `driven` teeth and among the `driver` teeth play alike, unless one divides a part of the
+/// target (`pinned`), which is a class alone. A prime no gear on one side carries divides no
+/// `k` of a train (`k` divides both products) and is left out. The primes of each class,
+/// each ascending, by least prime ascending.
+fn prime_classes(large: &[u32], driven: &[u32], driver: &[u32], pinned: (u64, u64)) -> Vec<Vec<u64>> {
+    let cofactors =
+        |r: u32, side: &[u32]| -> Vec<u32> { side.iter().filter(|&&t| t % r == 0).map(|&t| t / r).collect() };
+    let mut classes: BTreeMap<(Vec<u32>, Vec<u32>, u32), Vec<u64>> = BTreeMap::new();
+    for &r in large {
+        let (on_driven, on_driver) = (cofactors(r, driven), cofactors(r, driver));
+        if on_driven.is_empty() || on_driver.is_empty() {
+            continue;
+        }
+        let alone = if pinned.0 % r as u64 == 0 || pinned.1 % r as u64 == 0 { r } else { 0 };
+        classes.entry((on_driven, on_driver, alone)).or_default().push(r as u64);
+    }
+    let mut out: Vec<Vec<u64>> = classes.into_values().collect();
+    out.sort_unstable();
+    out
 }
 
 /// The partitions of `n` into parts of at most `max`, each descending.

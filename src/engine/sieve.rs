@@ -87,20 +87,28 @@ impl Walk<'_, '_> {
     }
 }
 
-/// Gears in use along the current path, for stock pools; a no-op for gears to be cut.
+/// Gears in use along the current path, for stock pools; a no-op for gears to be cut. With
+/// gears to buy it also counts the gears bought so far (per kind, beyond those on hand), so a
+/// path that needs more than the budget is cut before it is extended: every later stage only
+/// adds gears.
 struct Stock {
     used: Vec<u32>,
     active: bool,
+    bought: u32,
 }
 
 impl Stock {
     fn new(space: &SearchSpace) -> Stock {
         let active = space.problem.pool.from_stock;
-        Stock { used: if active { vec![0; space.problem.pool.gears.len()] } else { Vec::new() }, active }
+        Stock {
+            used: if active { vec![0; space.problem.pool.gears.len()] } else { Vec::new() },
+            active,
+            bought: 0,
+        }
     }
 
-    /// Use the gears of stage `i`; false if the stock runs out (the use is recorded anyway and
-    /// must be undone with [`Stock::give`]).
+    /// Use the gears of stage `i`; false if the stock runs out or the budget of gears to buy is
+    /// passed (the use is recorded anyway and must be undone with [`Stock::give`]).
     fn take(&mut self, space: &SearchSpace, i: usize) -> bool {
         if !self.active {
             return true;
@@ -111,15 +119,22 @@ impl Stock {
         for g in [s.driver as usize, s.driven as usize] {
             self.used[g] += 1;
             ok &= gears[g].quantity.is_none_or(|q| self.used[g] <= q);
+            if space.budget.as_ref().is_some_and(|b| b.is_bought(g, self.used[g])) {
+                self.bought += 1;
+            }
         }
-        ok
+        ok && space.budget.as_ref().is_none_or(|b| self.bought <= b.most)
     }
 
     fn give(&mut self, space: &SearchSpace, i: usize) {
         if self.active {
             let s = &space.stages[i];
-            self.used[s.driver as usize] -= 1;
-            self.used[s.driven as usize] -= 1;
+            for g in [s.driver as usize, s.driven as usize] {
+                if space.budget.as_ref().is_some_and(|b| b.is_bought(g, self.used[g])) {
+                    self.bought -= 1;
+                }
+                self.used[g] -= 1;
+            }
         }
     }
 }

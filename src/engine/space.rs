@@ -16,6 +16,7 @@ use crate::geometry::{
 };
 use crate::model::pool::{MeshGroup, MAX_STAGES};
 use crate::model::problem::{MeshRules, Problem, ToothForm, DEFAULT_SHIFT_SUM};
+use crate::model::purchase::Budget;
 use crate::model::rank::Candidate;
 use crate::model::train::{Gear, Stage, Train};
 use crate::numbers::rational::{Ratio, RelError};
@@ -112,6 +113,9 @@ pub struct SearchSpace<'p> {
     pub hi: f64,
     /// Stage pairings left out by the mesh checks, by kind, most first.
     pub rejected: Vec<Rejection>,
+    /// With gears to buy, the budget per kind of the pool, for engines that prune on it (the
+    /// train check holds every engine to it anyway).
+    pub budget: Option<Budget>,
     coaxial_misfits: AtomicU64,
     /// The first train (by stage indices) that found no common centre distance, and why.
     first_misfit: Mutex<Option<(Vec<u32>, String)>>,
@@ -221,6 +225,7 @@ impl<'p> SearchSpace<'p> {
             lo: r * (1.0 - t) * (1.0 - FLOAT_MARGIN),
             hi: r * (1.0 + t) * (1.0 + FLOAT_MARGIN),
             rejected,
+            budget: problem.buy.as_ref().map(|b| b.budget(pool)),
             coaxial_misfits: AtomicU64::new(0),
             first_misfit: Mutex::new(None),
             windows,

@@ -182,24 +182,37 @@ impl Purchase {
     /// The gears `train` needs bought, by tooth count: for each tooth count of the buy range
     /// the train uses in the buy group cut standard, how many more than are on hand.
     pub fn to_buy(&self, train: &Train) -> Vec<ToBuy> {
+        self.to_buy_with_idler(train, None)
+    }
+
+    /// [`Purchase::to_buy`] for `train` set up through an idler of `idler` teeth (a standard gear
+    /// of the train's module, as a lathe's banjo takes it), which counts like any gear used: one
+    /// spare on hand costs nothing, else it is one more to buy.
+    pub fn to_buy_with_idler(&self, train: &Train, idler: Option<u32>) -> Vec<ToBuy> {
         let mut used: Vec<(u32, u32)> = Vec::new();
+        let mut add = |teeth: u32| match used.iter_mut().find(|u| u.0 == teeth) {
+            Some(u) => u.1 += 1,
+            None => used.push((teeth, 1)),
+        };
         for s in &train.stages {
             if !self.group.meshes_with(s.module_mm, s.pressure_angle_deg) {
                 continue;
             }
             for g in [&s.driver, &s.driven] {
                 if self.teeth.contains(g.teeth) && standard(&g.made) {
-                    match used.iter_mut().find(|u| u.0 == g.teeth) {
-                        Some(u) => u.1 += 1,
-                        None => used.push((g.teeth, 1)),
-                    }
+                    add(g.teeth);
                 }
             }
+        }
+        let in_group =
+            train.stages.first().is_some_and(|s| self.group.meshes_with(s.module_mm, s.pressure_angle_deg));
+        if let Some(z) = idler.filter(|&z| in_group && self.teeth.contains(z)) {
+            add(z);
         }
         used.sort_unstable();
         used.into_iter()
             .filter_map(|(teeth, n)| {
-                let count = n.saturating_sub(self.on_hand_of(teeth));
+                let count = bought_beyond(n, self.on_hand_of(teeth));
                 (count > 0).then_some(ToBuy { teeth, module_mm: self.group.module_mm, count })
             })
             .collect()
@@ -208,6 +221,21 @@ impl Purchase {
     /// How many gears `train` needs bought.
     pub fn count(&self, train: &Train) -> u32 {
         self.to_buy(train).iter().map(|b| b.count).sum()
+    }
+
+    /// The budget a depth-first search over `pool` (the pool [`Purchase::pool`] made) can
+    /// prune on: for each kind, how many are on hand when gears of that kind may be bought.
+    pub fn budget(&self, pool: &Pool) -> Budget {
+        let group = pool.groups.iter().position(|g| g == &self.group);
+        let on_hand = pool
+            .gears
+            .iter()
+            .map(|k| {
+                (Some(k.group) == group && self.teeth.contains(k.teeth) && standard(&k.made))
+                    .then(|| self.on_hand_of(k.teeth))
+            })
+            .collect();
+        Budget { most: self.most, on_hand }
     }
 
     /// One line for reports, e.g. `up to 1 gear of 20..127 teeth, module 1.5 mm, 20°, cut
@@ -229,6 +257,31 @@ pub fn describe_to_buy(to_buy: &[ToBuy]) -> String {
         return "nothing".into();
     }
     to_buy.iter().map(|b| format!("{} × {}", b.count, b.teeth)).collect::<Vec<_>>().join(", ")
+}
+
+/// The gears to buy counted per kind of a search's pool, for pruning a search as it goes.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Budget {
+    /// Most gears a train may need bought.
+    pub most: u32,
+    /// Per kind of the pool: how many are on hand when that kind may be bought, `None` for a
+    /// kind never bought. A train using `n` of a kind with `Some(h)` buys
+    /// [`bought_beyond`]`(n, h)` of it, the count [`Purchase::to_buy`] gives.
+    pub on_hand: Vec<Option<u32>>,
+}
+
+impl Budget {
+    /// Is the `nth` gear of kind `kind` in use (counting from 1) one bought? Those on hand are
+    /// used first, so the gears bought of a kind are [`bought_beyond`]`(used, on hand)`.
+    pub fn is_bought(&self, kind: usize, nth: u32) -> bool {
+        self.on_hand[kind].is_some_and(|h| nth > h)
+    }
+}
+
+/// Gears to buy when `used` of a kind are needed and `on_hand` are on the shelf:
+/// `max(0, used − on hand)`. The one to-buy rule of every search with gears to buy.
+pub fn bought_beyond(used: u32, on_hand: u32) -> u32 {
+    used.saturating_sub(on_hand)
 }
 
 #[cfg(test)]
@@ -286,6 +339,38 @@ mod tests {
         );
         assert_eq!(describe_to_buy(&b), "1 × 40, 1 × 127");
         assert_eq!(p.count(&train(&[(20, 127), (20, 127)])), 3);
+    }
+
+    #[test]
+    fn an_idler_is_bought_only_when_none_is_spare() {
+        let p =
+            Purchase::new(shelf(&[(20, 1), (40, 2)]), 2, Some(IntRange { lo: 20, hi: 127 }), None).unwrap();
+        // A second 40 is spare for 20 → 40; a 50 is not on hand; a third 40 is not either.
+        assert_eq!(p.to_buy_with_idler(&train(&[(20, 40)]), Some(40)), vec![]);
+        assert_eq!(
+            p.to_buy_with_idler(&train(&[(20, 40)]), Some(50)),
+            vec![ToBuy { teeth: 50, module_mm: 1.5, count: 1 }]
+        );
+        assert_eq!(
+            p.to_buy_with_idler(&train(&[(40, 40)]), Some(40)),
+            vec![ToBuy { teeth: 40, module_mm: 1.5, count: 1 }]
+        );
+        assert_eq!(p.to_buy_with_idler(&train(&[(20, 40)]), None), p.to_buy(&train(&[(20, 40)])));
+    }
+
+    #[test]
+    fn the_budget_counts_per_kind_of_the_pool() {
+        let p =
+            Purchase::new(shelf(&[(20, 1), (40, 2), (90, 1)]), 2, Some(IntRange { lo: 39, hi: 41 }), None)
+                .unwrap();
+        let pool = p.pool().unwrap();
+        let b = p.budget(&pool);
+        let by_teeth: Vec<(u32, Option<u32>)> =
+            pool.gears.iter().map(|k| k.teeth).zip(b.on_hand.clone()).collect();
+        assert_eq!(by_teeth, vec![(20, None), (39, Some(0)), (40, Some(2)), (41, Some(0)), (90, None)]);
+        assert_eq!(b.most, 2);
+        assert_eq!(bought_beyond(3, 2), 1);
+        assert_eq!(bought_beyond(1, 2), 0);
     }
 
     #[test]

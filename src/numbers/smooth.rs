@@ -193,45 +193,6 @@ impl Factored {
     }
 }
 
-/// One part of the smooth numbers up to a bound: `base` times every product of powers of
-/// `primes[next..]` (and `base` itself when `with_base`).
-#[derive(Debug, Clone, Copy)]
-pub struct SmoothPart {
-    base: Factored,
-    next: usize,
-    with_base: bool,
-}
-
-/// The numbers `1..=hi` whose prime factors all lie in `primes` (ascending), cut into disjoint
-/// parts of at most `most` numbers each (a part that cannot be cut further may hold more), in
-/// a fixed order. A part is cut into its base and its children when a count of its numbers,
-/// stopped at `most + 1`, finds too many; so cutting costs about one pass over the numbers.
-pub fn smooth_parts(primes: &[u32], hi: u64, most: u64) -> Vec<SmoothPart> {
-    let mut parts = Vec::new();
-    let mut pending = vec![SmoothPart::ALL];
-    while let Some(part) = pending.pop() {
-        let mut seen = 0u64;
-        let small = part.for_each(primes, 1, hi, &mut |_| {
-            seen += 1;
-            seen <= most
-        });
-        let splittable =
-            part.next < primes.len() && part.base.value.saturating_mul(primes[part.next] as u64) <= hi;
-        if small || !splittable {
-            parts.push(part);
-            continue;
-        }
-        if part.with_base {
-            parts.push(SmoothPart { next: primes.len(), ..part });
-        }
-        for_each_child(primes, part.base, part.next, hi, &mut |child, next| {
-            pending.push(SmoothPart { base: child, next, with_base: true });
-        });
-    }
-    parts.sort_by_key(|part| (part.base.value, part.next, part.with_base));
-    parts
-}
-
 /// `base·p^e` for every prime `p` of `primes[next..]` and `e ≥ 1` within `hi`, with the index
 /// after `p`.
 fn for_each_child(primes: &[u32], base: Factored, next: usize, hi: u64, f: &mut impl FnMut(Factored, usize)) {
@@ -256,18 +217,13 @@ fn for_each_child(primes: &[u32], base: Factored, next: usize, hi: u64, f: &mut 
     }
 }
 
-impl SmoothPart {
-    /// The whole: every number.
-    pub const ALL: SmoothPart = SmoothPart { base: Factored::ONE, next: 0, with_base: true };
-
-    /// Call `f` on every number of this part within `lo..=hi` (with `hi` the bound the parts
-    /// were cut for, or less). Stops early when `f` returns false; returns false then.
-    pub fn for_each(&self, primes: &[u32], lo: u64, hi: u64, f: &mut impl FnMut(&Factored) -> bool) -> bool {
-        if self.with_base && self.base.value >= lo && self.base.value <= hi && !f(&self.base) {
-            return false;
-        }
-        walk_smooth(primes, self.base, self.next, lo, hi, f)
+/// Call `f` on every number within `lo..=hi` whose prime factors all lie in `primes`
+/// (ascending), 1 included. Stops early when `f` returns false; returns false then.
+pub fn for_each_smooth(primes: &[u32], lo: u64, hi: u64, f: &mut impl FnMut(&Factored) -> bool) -> bool {
+    if lo <= 1 && hi >= 1 && !f(&Factored::ONE) {
+        return false;
     }
+    walk_smooth(primes, Factored::ONE, 0, lo, hi, f)
 }
 
 fn walk_smooth(
@@ -288,45 +244,6 @@ fn walk_smooth(
         }
     });
     go
-}
-
-/// Knuth's random-probe estimate of `Σ f(k)` over the numbers `1..=hi` whose primes all lie in
-/// `primes`: each probe walks down the tree the smooth numbers form (a child multiplies in a
-/// power of a prime after the last one used) choosing children uniformly, and weighs `f` of each
-/// number on its path by the product of the branching counts above it. The mean over probes is
-/// an unbiased estimate. Probes go on while `keep_going(probes so far, estimate so far)` says so
-/// (at least one is made); the choices come from a fixed seed, so the estimate is repeatable.
-pub fn estimate_smooth_sum(
-    primes: &[u32],
-    hi: u64,
-    keep_going: &mut dyn FnMut(usize, f64) -> bool,
-    f: &mut dyn FnMut(&Factored) -> f64,
-) -> f64 {
-    let mut seed = 0x9e37_79b9_7f4a_7c15u64;
-    let mut children: Vec<(Factored, usize)> = Vec::new();
-    let (mut total, mut done) = (0.0, 0usize);
-    while done == 0 || keep_going(done, total / done as f64) {
-        let (mut node, mut next, mut weight) = (Factored::ONE, 0usize, 1.0f64);
-        let mut sum = 0.0;
-        loop {
-            sum += weight * f(&node);
-            children.clear();
-            for_each_child(primes, node, next, hi, &mut |c, after| children.push((c, after)));
-            if children.is_empty() {
-                break;
-            }
-            // xorshift64*: plenty for choosing among children.
-            seed ^= seed >> 12;
-            seed ^= seed << 25;
-            seed ^= seed >> 27;
-            let r = seed.wrapping_mul(0x2545_f491_4f6c_dd1d);
-            weight *= children.len() as f64;
-            (node, next) = children[(r % children.len() as u64) as usize];
-        }
-        total += sum;
-        done += 1;
-    }
-    total / done as f64
 }
 
 /// A set of tooth counts with tables that count ordered products of its members.
@@ -530,48 +447,18 @@ mod tests {
     }
 
     #[test]
-    fn smooth_parts_cover_the_smooth_numbers_once() {
+    fn the_smooth_numbers_are_walked_once() {
         let primes = primes_up_to(7);
         let want: Vec<u64> =
             (1..=5000u64).filter(|&k| Factored::of(k, &primes).is_some() && k >= 30).collect();
-        for most in [1, 5, 64, 10_000] {
-            let mut got = Vec::new();
-            let parts = smooth_parts(&primes, 5000, most);
-            for part in &parts {
-                let mut size = 0;
-                part.for_each(&primes, 1, 5000, &mut |_| {
-                    size += 1;
-                    true
-                });
-                assert!(
-                    size <= most || part.next >= primes.len(),
-                    "a part of {size} numbers, at most {most} wanted"
-                );
-            }
-            for part in parts {
-                part.for_each(&primes, 30, 5000, &mut |k| {
-                    assert_eq!(Factored::of(k.value(), &primes).as_ref(), Some(k));
-                    got.push(k.value());
-                    true
-                });
-            }
-            got.sort_unstable();
-            assert_eq!(got, want, "parts of at most {most}");
-        }
-    }
-
-    #[test]
-    fn probe_estimate_is_near_the_true_count() {
-        let primes = primes_up_to(50);
-        let hi = 2_000_000u64;
-        let truth = (1..=hi).filter(|&k| Factored::of(k, &primes).is_some()).count() as f64;
-        let est = estimate_smooth_sum(&primes, hi, &mut |done, _| done < 200_000, &mut |_| 1.0);
-        assert!((est / truth - 1.0).abs() < 0.1, "estimate {est}, truth {truth}");
-        // Summing k itself, too.
-        let truth_sum: f64 = (1..=hi).filter(|&k| Factored::of(k, &primes).is_some()).map(|k| k as f64).sum();
-        let est_sum =
-            estimate_smooth_sum(&primes, hi, &mut |done, _| done < 200_000, &mut |k| k.value() as f64);
-        assert!((est_sum / truth_sum - 1.0).abs() < 0.15, "estimate {est_sum}, truth {truth_sum}");
+        let mut got = Vec::new();
+        for_each_smooth(&primes, 30, 5000, &mut |k| {
+            assert_eq!(Factored::of(k.value(), &primes).as_ref(), Some(k));
+            got.push(k.value());
+            true
+        });
+        got.sort_unstable();
+        assert_eq!(got, want);
     }
 
     /// Brute force: tuples of members with the weighted product.

@@ -42,12 +42,16 @@ pub fn describe_error(e: &RelError) -> String {
     describe_error_f64(e.to_f64())
 }
 
-/// A relative error read back from JSON, for people: `exact` only when it is zero.
+/// A relative error read back from JSON, for people: `exact` only when it is zero; below a
+/// thousandth of a ppm in the exponent form (`+3.39e-5 ppm`).
 pub fn describe_error_f64(v: f64) -> String {
     if v == 0.0 {
         return "exact".to_string();
     }
-    if v.abs() < 1e-3 {
+    if v.abs() < 1e-9 {
+        // Three decimals of a ppm would read as +0.000: an astronomical train's error is shown.
+        format!("{:+.2e} ppm", v * 1e6)
+    } else if v.abs() < 1e-3 {
         format!("{:+.3} ppm", v * 1e6)
     } else {
         format!("{:+.4}%", v * 100.0)
@@ -90,26 +94,38 @@ pub fn count_line(count: u64, listed: usize, complete: bool, what: &str, order: 
 }
 
 /// `651 trains, made of 344 gear sets; the best 4 listed ORDER, each by …`: the count line of
-/// a listing of gear sets, each shown by `each` (its best or first arrangement). For a count
-/// of trains above zero; [`count_line`] says the rest.
+/// a listing of gear sets, each shown by `each` (its best or first arrangement). `sets` is
+/// `None` when the search counted trains in bulk without their gear sets; the line says so.
+/// For a count of trains above zero; [`count_line`] says the rest.
 pub fn set_count_line(
     count: u64,
-    sets: u64,
+    sets: Option<u64>,
     listed: usize,
     complete: bool,
     order: &str,
     each: &str,
 ) -> String {
+    let made_of = match sets {
+        Some(sets) => {
+            format!(", made of {} gear set{}", group_thousands(sets), if sets == 1 { "" } else { "s" })
+        }
+        None => NOT_COUNTED.to_string(),
+    };
+    let which = match sets {
+        Some(sets) if listed as u64 == sets => "all".to_string(),
+        Some(_) => format!("the best {listed}"),
+        None => format!("the best {listed} gear set{}", if listed == 1 { "" } else { "s" }),
+    };
     format!(
-        "{}{} train{}, made of {} gear set{}; {} listed {order}, each by {each}:",
+        "{}{} train{}{made_of}; {which} listed {order}, each by {each}:",
         if complete { "" } else { "INCOMPLETE (interrupted): at least " },
         group_thousands(count),
         if count == 1 { "" } else { "s" },
-        group_thousands(sets),
-        if sets == 1 { "" } else { "s" },
-        if listed as u64 == sets { "all".to_string() } else { format!("the best {listed}") },
     )
 }
+
+/// What a count line says of gear sets a search did not count.
+pub const NOT_COUNTED: &str = " (their gear sets are not counted: this search counts trains in bulk)";
 
 /// An identifier such as `ShiftSumOutOfRange` in plain words: `shift sum out of range`.
 pub fn plain_words(id: &str) -> String {
@@ -139,5 +155,15 @@ mod tests {
     fn identifiers_in_plain_words() {
         assert_eq!(plain_words("ShiftSumOutOfRange"), "shift sum out of range");
         assert_eq!(plain_words("NotCoaxial"), "not coaxial");
+    }
+
+    #[test]
+    fn errors_for_people_keep_a_figure_however_small() {
+        assert_eq!(describe_error_f64(0.0), "exact");
+        assert_eq!(describe_error_f64(0.0123), "+1.2300%");
+        assert_eq!(describe_error_f64(-2.5e-6), "-2.500 ppm");
+        // 42795375/1449188 against a synodic month of 29.530588853 d: 3.4e-11.
+        assert_eq!(describe_error_f64(3.39e-11), "+3.39e-5 ppm");
+        assert_eq!(describe_error_f64(-1.0e-10), "-1.00e-4 ppm");
     }
 }

@@ -8,6 +8,8 @@ pub mod thread;
 
 use crate::engine::EngineChoice;
 
-/// The engine every trade searches with: the sieve takes the train checks, per-stage limits and
-/// stock the trades use. A forecast of a trade's search weighs its problems with this engine.
-pub const ENGINE: EngineChoice = EngineChoice::Sieve;
+/// The engines every trade searches with: the bulk engines take what they can (a trade's search
+/// over gears to be cut with no train check of its own, such as an astronomical clock train),
+/// the sieve the rest (stock, train checks, ranking keys of the trade's own). A forecast of a
+/// trade's search weighs its problems with this lineup.
+pub const ENGINE: EngineChoice = EngineChoice::Auto;

@@ -35,9 +35,10 @@ pub const SETS_NOTE: [&str; 2] = [
 
 /// The count line of a clock listing: trains and the gear sets they are made of, when counted.
 pub fn listing_line(count: u64, sets: Option<u64>, listed: usize, complete: bool, order: &str) -> String {
-    match sets.filter(|_| count > 0) {
-        Some(sets) => set_count_line(count, sets, listed, complete, order, EACH_SET),
-        None => count_line(count, listed, complete, "train", order),
+    // A clock search lists gear sets; one that counted trains in bulk may not have counted them.
+    match count {
+        0 => count_line(count, listed, complete, "train", order),
+        _ => set_count_line(count, sets, listed, complete, order, EACH_SET),
     }
 }
 

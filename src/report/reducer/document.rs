@@ -129,7 +129,7 @@ pub fn document(p: &ReducerPlan) -> Document {
     match p.gear_set_count.filter(|_| p.count > 0) {
         Some(sets) => d.line(crate::report::words::set_count_line(
             p.count,
-            sets,
+            Some(sets),
             p.trains.len(),
             p.complete,
             "best first",

@@ -50,7 +50,7 @@ pub fn document(doc: &Doc) -> Document {
     let made_of = match doc.gear_set_count {
         Some(1) => ", made of 1 gear set".to_string(),
         Some(n) => format!(", made of {} gear sets", group_thousands(n)),
-        None if by_set => " (their gear sets are not counted: this search counts trains in bulk)".to_string(),
+        None if by_set => crate::report::words::NOT_COUNTED.to_string(),
         None => String::new(),
     };
     let (one, many) = if by_set { ("gear set", "gear sets") } else { ("train", "trains") };

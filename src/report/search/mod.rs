@@ -7,6 +7,7 @@ pub mod document;
 pub mod json;
 pub mod merge;
 pub mod stream;
+pub mod view;
 
 use std::io::Write;
 
@@ -30,7 +31,7 @@ pub struct SearchReport<'a> {
 impl SearchReport<'_> {
     /// The search's JSON document: the whole result, from which every format is made.
     pub fn doc(&self) -> json::Doc {
-        json::doc(self)
+        view::doc(self)
     }
 }
 

@@ -6,7 +6,8 @@
 use std::io::{self, Write};
 
 use super::csv::Layout;
-use super::json::{target_json, write_line, Summary};
+use super::json::{write_line, Summary};
+use super::view::target_json;
 use crate::engine::Outcome;
 use crate::model::problem::Problem;
 use crate::model::train::Train;

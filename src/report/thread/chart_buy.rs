@@ -69,8 +69,8 @@ impl Report for BuyChartReport<'_> {
             p.most,
             if p.most == 1 { "" } else { "s" },
             p.teeth,
-            fmt_num(p.module_mm),
-            fmt_num(p.pressure_angle_deg)
+            fmt_num(p.group.module_mm),
+            fmt_num(p.group.pressure_angle_deg)
         ));
         d.blank();
         let status = if c.complete { "" } else { "INCOMPLETE (interrupted): " };
@@ -142,8 +142,8 @@ impl Report for BuyChartReport<'_> {
             buy: OfferJson {
                 most: p.most,
                 teeth: [p.teeth.lo, p.teeth.hi],
-                module_mm: p.module_mm,
-                pressure_angle_deg: p.pressure_angle_deg,
+                module_mm: p.group.module_mm,
+                pressure_angle_deg: p.group.pressure_angle_deg,
             },
             on_hand: self.on_hand(),
             choice_count: c.choice_count,
@@ -180,7 +180,7 @@ fn write_csv(r: &BuyChartReport, w: &mut dyn Write) -> io::Result<()> {
 
 #[derive(Serialize)]
 struct OfferJson {
-    most: usize,
+    most: u32,
     teeth: [u32; 2],
     module_mm: f64,
     pressure_angle_deg: f64,

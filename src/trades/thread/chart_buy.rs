@@ -2,7 +2,8 @@
 //! hand, make the most threads of a series cuttable within the tolerance, each with the threads
 //! it gains. Owns the enumeration of the lathe's setups over the gears on hand and the gears
 //! that may be bought, and the scoring of every choice; the chart itself is [`super::chart`]'s,
-//! and the banjo's judgement [`super::banjo`]'s.
+//! the banjo's judgement [`super::banjo`]'s, and what may be bought and how a setup's gears to
+//! buy are counted [`crate::model::purchase`]'s (the same as `thread --buy`).
 //!
 //! A thread is cuttable with a basket `S` of bought gears when some setup within tolerance that
 //! the banjo takes uses, beyond the gears on hand, a multiset of gears contained in `S` (the
@@ -23,26 +24,12 @@ use super::{pitch_error, Lathe, ThreadSpec};
 use crate::engine::RunOptions;
 use crate::error::{Error, Quantity, Result};
 use crate::model::pool::{GearKind, MeshGroup, Pool, MAX_TEETH, MIN_TEETH};
+use crate::model::purchase::{bought_beyond, Purchase};
 use crate::model::train::{Stage, Train};
-use crate::numbers::range::IntRange;
 use crate::numbers::rational::{Ratio, RelError};
 
 /// Most gears a choice may buy: the choices are enumerated exactly up to this many.
 pub const MOST_TO_BUY: usize = 3;
-
-/// The gears that may be bought: up to `most` of them, of any tooth count in `teeth`, cut
-/// standard in one module and pressure angle.
-#[derive(Debug, Clone, PartialEq)]
-pub struct Offer {
-    /// How many gears a choice may buy, 1 to [`MOST_TO_BUY`].
-    pub most: usize,
-    /// The tooth counts on offer.
-    pub teeth: IntRange,
-    /// Their module, mm.
-    pub module_mm: f64,
-    /// Their pressure angle, degrees.
-    pub pressure_angle_deg: f64,
-}
 
 /// Up to [`MOST_TO_BUY`] gears bought, tooth counts ascending (a multiset: a count may repeat).
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Hash, PartialOrd, Ord, Default)]
@@ -140,8 +127,8 @@ pub struct BuyChoice {
 /// What buying gears does for a chart.
 #[derive(Debug, Clone, PartialEq)]
 pub struct BuyChart {
-    /// The gears on offer.
-    pub purchase: Offer,
+    /// The gears on offer (the same model as `thread --buy`'s).
+    pub purchase: Purchase,
     /// The series' threads in order (fewer when interrupted).
     pub rows: Vec<BuyRow>,
     /// The best choices: most threads gained, then fewest gears, then smallest teeth. A choice
@@ -204,22 +191,10 @@ struct Shop<'a> {
 }
 
 impl<'a> Shop<'a> {
-    fn new(lathe: &'a Lathe, purchase: &Offer) -> Shop<'a> {
-        let mut groups = lathe.pool.groups.clone();
-        let offer_group = match groups
-            .iter()
-            .position(|g| g.meshes_with(purchase.module_mm, purchase.pressure_angle_deg))
-        {
-            Some(i) => i,
-            None => {
-                groups.push(MeshGroup {
-                    module_mm: purchase.module_mm,
-                    pressure_angle_deg: purchase.pressure_angle_deg,
-                    diametral_pitch: None,
-                });
-                groups.len() - 1
-            }
-        };
+    fn new(lathe: &'a Lathe, purchase: &Purchase) -> Shop<'a> {
+        let groups = lathe.pool.groups.clone();
+        // The purchase was made from the lathe's gears on hand ([`check`]), so its group is one.
+        let offer_group = groups.iter().position(|g| g == &purchase.group).unwrap_or(0);
         let mut on_hand: HashMap<(usize, u32), u32> = HashMap::new();
         for g in &lathe.pool.gears {
             // Gears to cut (no quantity) are as many as wanted: never bought.
@@ -240,7 +215,8 @@ impl<'a> Shop<'a> {
                 offered: group == offer_group && purchase.teeth.contains(teeth),
             })
             .collect();
-        let mut shop = Shop { lathe, groups, kinds, pairs: Vec::new(), offer_group, most: purchase.most };
+        let most = purchase.most as usize;
+        let mut shop = Shop { lathe, groups, kinds, pairs: Vec::new(), offer_group, most };
         let mut pairs = Vec::new();
         for (a, ka) in shop.kinds.iter().enumerate() {
             for (b, kb) in shop.kinds.iter().enumerate() {
@@ -266,7 +242,7 @@ impl<'a> Shop<'a> {
         while k < used.len() {
             let run = used[k..].iter().take_while(|&&u| u == used[k]).count() as u32;
             let kind = &self.kinds[used[k]];
-            let extra = run.saturating_sub(kind.on_hand);
+            let extra = bought_beyond(run, kind.on_hand);
             if extra > 0 {
                 if !kind.offered {
                     return None;
@@ -428,8 +404,11 @@ impl<'a> Shop<'a> {
 
 /// Check `purchase` against the lathe: a count of 1 to [`MOST_TO_BUY`], tooth counts the guard
 /// closes over, setups of at most two stages.
-fn check(lathe: &Lathe, purchase: &Offer) -> Result<()> {
-    if purchase.most == 0 || purchase.most > MOST_TO_BUY {
+fn check(lathe: &Lathe, purchase: &Purchase) -> Result<()> {
+    if purchase.on_hand != lathe.pool {
+        return Err(Error::problem("gears to buy must be added to the lathe's gears on hand"));
+    }
+    if purchase.most == 0 || purchase.most as usize > MOST_TO_BUY {
         return Err(Error::problem(format!(
             "the gears to buy: choices of 1 to {MOST_TO_BUY} gears are worked out, not {}",
             purchase.most
@@ -465,7 +444,7 @@ fn check(lathe: &Lathe, purchase: &Offer) -> Result<()> {
 pub fn buy_chart(
     lathe: &Lathe,
     series: &[SeriesEntry],
-    purchase: &Offer,
+    purchase: &Purchase,
     limit: usize,
     options: &RunOptions,
 ) -> Result<BuyChart> {
@@ -487,7 +466,7 @@ pub fn buy_chart(
         .collect();
     let complete = done.iter().all(Option::is_some);
     let rows: Vec<BuyRow> = done.into_iter().map_while(|r| r).collect();
-    let (choices, choice_count) = best_choices(&rows, purchase.most, limit);
+    let (choices, choice_count) = best_choices(&rows, purchase.most as usize, limit);
     Ok(BuyChart { purchase: purchase.clone(), rows, choices, choice_count, complete })
 }
 

@@ -33,7 +33,9 @@ use crate::engine::{search, RunOptions};
 use crate::error::{Error, Quantity, Result};
 use crate::geometry::on_hand_defects;
 use crate::model::pool::Pool;
-use crate::model::problem::{Problem, StageLimits, ToothForm, TrainCheck, DEFAULT_SHIFT_SUM};
+use crate::model::problem::{
+    ExtraKey, Problem, StageLimits, ToothForm, TrainCheck, DEFAULT_SHIFT_SUM, TO_BUY_KEY,
+};
 use crate::model::purchase::{Purchase, ToBuy};
 use crate::model::rank::DEFAULT_RANK;
 use crate::model::train::{Gear, Stage, Train};
@@ -182,8 +184,9 @@ impl Lathe {
     /// The lathe with gears that may be bought: setups may use up to [`Purchase::most`] gears
     /// not on hand, each setup says which, and fewer to buy rank first. Call after
     /// [`Lathe::equipped`]: the purchase adds to the gears left on hand, and a gear larger than
-    /// the guard allows cannot be bought (errors name [`Quantity::BuyTeeth`]). An idler is always
-    /// a gear on hand.
+    /// the guard allows cannot be bought (errors name [`Quantity::BuyTeeth`]). An idler comes
+    /// from the gears on hand when one serves, else it may be bought within the budget, and
+    /// then it is named among the gears to buy.
     pub fn buying(mut self, purchase: Purchase) -> Result<Lathe> {
         if purchase.on_hand != self.pool {
             return Err(Error::problem("gears to buy must be added to the lathe's gears on hand"));
@@ -427,16 +430,32 @@ impl Lathe {
         // cuts the leadscrew's own pitch) or on a compound stud they are an ordinary setup.
         p.equal_teeth_stages = true;
         let banjo = if geometry { self.banjo.clone() } else { None };
-        // The banjo's idler comes from the gears on hand, never from those bought.
-        let pool = self.pool.clone();
+        let buy = self.buying_pool()?;
+        let (pool, bought) = (self.pool.clone(), buy.clone());
         p.train_check = Some(TrainCheck::new(move |t: &Train| {
             pitch_error(t.ratio, need).within(tolerance)
-                && banjo.as_ref().is_none_or(|b| b.fit(t, &pool).is_ok())
+                && banjo.as_ref().is_none_or(|b| fit_buying(b, t, &pool, bought.as_ref()).is_ok())
         }));
-        match &self.buy {
-            Some(b) => p.with_purchase(b.clone()),
-            None => Ok(p),
+        let Some((purchase, _)) = &buy else {
+            return Ok(p);
+        };
+        let mut p = p.with_purchase(purchase.clone())?;
+        if let (true, Some(banjo)) = (geometry, self.banjo.clone()) {
+            // A bought idler is a gear bought: the ranking counts it with the train's own.
+            let pool = self.pool.clone();
+            p.extra_key = Some(ExtraKey::new(TO_BUY_KEY, move |t: &Train| {
+                let Some((purchase, _)) = &buy else { return 0.0 };
+                let idler = fit_buying(&banjo, t, &pool, buy.as_ref()).ok().and_then(|f| f.idler);
+                f64::from(purchase.to_buy_with_idler(t, idler).iter().map(|b| b.count).sum::<u32>())
+            }));
         }
+        Ok(p)
+    }
+
+    /// With gears to buy, the purchase and the pool it makes (the gears on hand and those on
+    /// offer), which a banjo may take a bought idler from.
+    fn buying_pool(&self) -> Result<Option<(Purchase, Pool)>> {
+        self.buy.as_ref().map(|b| b.pool().map(|pool| (b.clone(), pool))).transpose()
     }
 
     fn setup(
@@ -446,9 +465,11 @@ impl Lathe {
         position: Option<&GearboxPosition>,
         need: Ratio,
     ) -> Setup {
+        let buy = self.buying_pool().ok().flatten();
         let fit = match &self.banjo {
             // The search kept only trains the banjo takes, so a refusal here cannot happen.
-            Some(b) => b.fit(&train, &self.pool).unwrap_or_else(|why| Fit::unchecked(&train, why.join("; "))),
+            Some(b) => fit_buying(b, &train, &self.pool, buy.as_ref())
+                .unwrap_or_else(|why| Fit::unchecked(&train, why.join("; "))),
             None => Fit::unchecked(&train, banjo::NO_BANJO),
         };
         let stages = fit.order.iter().map(|&k| train.stages[k].clone()).collect();
@@ -460,7 +481,7 @@ impl Lathe {
         Setup {
             arrangements: 1,
             others: Vec::new(),
-            to_buy: self.buy.as_ref().map(|b| b.to_buy(&train)),
+            to_buy: self.buy.as_ref().map(|b| b.to_buy_with_idler(&train, fit.idler)),
             feed: thread.feed,
             engagement,
             pitch_error: pitch_error(train.ratio, need),
@@ -561,11 +582,12 @@ impl Lathe {
         let Some(banjo) = &self.banjo else {
             return Ok(Vec::new());
         };
+        let buy = self.buying_pool()?;
         let mut out = Vec::new();
         // Ratio-only searches, then keep what the banjo refuses.
         for (position, need, problem) in self.searches(thread, self.tolerance, self.explain_limit(), false)? {
             for t in search(&problem, crate::trades::ENGINE, options).trains {
-                if let Err(reasons) = banjo.fit(&t, &self.pool) {
+                if let Err(reasons) = fit_buying(banjo, &t, &self.pool, buy.as_ref()) {
                     out.push(Rejected {
                         to_buy: self.buy.as_ref().map(|b| b.to_buy(&t)),
                         pitch_error: pitch_error(t.ratio, need),
@@ -586,6 +608,28 @@ impl Lathe {
         });
         out.truncate(self.limit);
         Ok(out)
+    }
+}
+
+/// Place `train` on `banjo`, a simple train through an idler from the gears `on_hand` first;
+/// failing that, when gears may be bought (`buy`: the purchase and the pool it makes) and the
+/// train leaves room in the budget, through an idler bought (one more gear of a tooth count on
+/// offer, counted by [`Purchase::to_buy_with_idler`]). The rule is the same as `chart --buy`'s.
+fn fit_buying(
+    banjo: &Banjo,
+    train: &Train,
+    on_hand: &Pool,
+    buy: Option<&(Purchase, Pool)>,
+) -> std::result::Result<Fit, Vec<String>> {
+    let own = banjo.fit(train, on_hand);
+    match (own, buy) {
+        (Err(_), Some((purchase, pool)))
+            if train.stages.len() == 1 && purchase.count(train) < purchase.most =>
+        {
+            // Every spare on hand failed above, so an idler found now is one bought.
+            banjo.fit(train, pool)
+        }
+        (own, _) => own,
     }
 }
 
