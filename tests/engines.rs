@@ -309,6 +309,37 @@ proptest! {
     }
 }
 
+/// Five stages of 10..120 teeth near 365.2422 at 1 ppm: the meet engine takes them, and its
+/// forecast (random descents through its prefixes, timed) sees that they run for many minutes,
+/// where it used to take every meet search as quick. Twelve to sixty teeth over five stages, a
+/// space about a hundredth the size (its prefixes of three values counted apart: 465 million
+/// against billions), is forecast well below it.
+#[test]
+fn meet_engine_forecasts_its_long_five_stage_searches() {
+    let five = |lo, hi, ratio: &str| {
+        let pool = Pool::to_cut(IntRange { lo, hi }, 1.0, 20.0, None).unwrap();
+        let target = Target::parse(ratio, "1ppm").unwrap();
+        Problem::new(
+            target,
+            pool,
+            IntRange { lo: 5, hi: 5 },
+            StageLimits::default(),
+            None,
+            DEFAULT_RANK.to_vec(),
+            20,
+        )
+        .unwrap()
+    };
+    let budget = std::time::Duration::from_secs(1);
+    let long = gearsieve::engine::estimate(&five(10, 120, "365.2422"), EngineChoice::Auto, budget);
+    let long_s = long.seconds_one_thread.expect("five meet stages are forecast");
+    assert!(long_s > 60.0, "forecast {long_s} s");
+    assert!(long.shardable, "its units are first values, which a split search shares out");
+    let short = gearsieve::engine::estimate(&five(12, 60, "29.530588"), EngineChoice::Auto, budget);
+    let short_s = short.seconds_one_thread.expect("five meet stages are forecast");
+    assert!(short_s > 0.0 && short_s * 20.0 < long_s, "forecasts {short_s} s and {long_s} s");
+}
+
 /// Exact targets over gears to be cut with only tooth-count limits per stage: the problems the
 /// factor engine takes. Targets are ratios of products of tooth counts from the range (so
 /// trains hit them), now and then 1, or with a prime no gear carries (so none does).

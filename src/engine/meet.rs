@@ -22,6 +22,8 @@
 //! every choice of stages is as valid as any other; anything else goes to the sieve. The gear
 //! sets are counted apart, by the set counter, where every pairing of other teeth is a stage.
 
+use std::time::{Duration, Instant};
+
 use rayon::prelude::*;
 
 use super::kinds::{BulkEngine, BulkPlan};
@@ -291,6 +293,71 @@ impl BulkPlan for MeetPlan {
         }
         tick();
     }
+
+    /// Five and six stages: their prefixes are many more than their units, and a unit's cost
+    /// falls steeply with its first value, so the table alone does not bound it.
+    fn forecast_counts(&self) -> &[usize] {
+        &self.counts[self.counts.partition_point(|&n| n < 5)..]
+    }
+
+    fn forecast_splits(&self) -> bool {
+        true
+    }
+
+    /// The table is built (and its time counted), then the prefixes are sampled by random
+    /// descents (Knuth's estimate of a search tree's size): each descent picks one value at
+    /// random among those allowed at each position down to the last but one of the prefix,
+    /// weighs itself by the product of the numbers of choices, and times the real work under
+    /// it (the last value of the prefix by loop, its look-ups in the table, the trains met,
+    /// into a scratch tally). The weighted mean time over the descents, an unbiased estimate of
+    /// the whole walk, is added to the table's.
+    fn forecast_seconds(&self, space: &SearchSpace, n: usize, budget: Duration) -> f64 {
+        /// Descents at most; past them the estimate is sharp enough.
+        const MOST_DESCENTS: usize = 1 << 16;
+        let start = Instant::now();
+        let Some(table) = PairTable::new(&self.ratios, space.lo, space.hi, n) else { return 0.0 };
+        let built = start.elapsed().as_secs_f64();
+        let run = MeetRun::new(space, &self.ratios, Some(&table));
+        let v = &self.ratios.value;
+        let firsts = v.partition_point(|&x| x.powi(n as i32) <= space.hi * (1.0 + F32_MARGIN));
+        if firsts == 0 {
+            return built;
+        }
+        let mut tally = Tally::new(space.problem, None);
+        let mut seed = 0x9e37_79b9_7f4a_7c15u64;
+        let mut pick = |choices: usize| {
+            // xorshift64*: plenty for drawing values.
+            seed ^= seed >> 12;
+            seed ^= seed << 25;
+            seed ^= seed >> 27;
+            (seed.wrapping_mul(0x2545_f491_4f6c_dd1d) >> 11) as usize % choices
+        };
+        let (mut descents, mut weighted) = (0usize, 0.0f64);
+        while descents == 0 || (descents < MOST_DESCENTS && start.elapsed() < budget) {
+            descents += 1;
+            let mut seq = [0usize; MAX_STAGES];
+            seq[0] = pick(firsts);
+            let (mut weight, mut product) = (firsts as f64, v[seq[0]]);
+            let mut k = 1;
+            while k < n - 3 {
+                let (from, to) = run.next_values(n, k, product, seq[k - 1]);
+                if from == to {
+                    break;
+                }
+                seq[k] = from + pick(to - from);
+                weight *= (to - from) as f64;
+                product *= v[seq[k]];
+                k += 1;
+            }
+            if k < n - 3 {
+                continue;
+            }
+            let timed = Instant::now();
+            run.grow(n, k, product, &mut seq, &table, &mut tally);
+            weighted += weight * timed.elapsed().as_secs_f64();
+        }
+        built + weighted / descents as f64
+    }
 }
 
 /// Binomial coefficient for small arguments.
@@ -517,9 +584,9 @@ impl MeetRun<'_, '_> {
             return;
         }
         let (from, to) = self.next_values(n, k, product, seq[k - 1]);
-        for x in from..to {
+        for (x, &vx) in v.iter().enumerate().take(to).skip(from) {
             seq[k] = x;
-            self.grow(n, k + 1, product * v[x], seq, pairs, tally);
+            self.grow(n, k + 1, product * vx, seq, pairs, tally);
         }
     }
 
