@@ -91,6 +91,25 @@ fn five_stage_benches(c: &mut Criterion) {
     g.finish();
 }
 
+/// Near targets over five stages on the meet engine: prefixes of three values grown in order,
+/// the last pair from its table.
+fn deep_benches(c: &mut Criterion) {
+    let mut g = c.benchmark_group("deep");
+    g.sample_size(10);
+    // The count is the one the meet engine printed for `search --ratio 29.530588 --tol 1ppm
+    // --teeth 12..60 --stages 5`; smaller spaces of five and six stages are held to the
+    // exhaustive engine by `meet_engine_equals_exhaustive_on_five_and_six_stages`.
+    let five = problem("29.530588", "1ppm", (12, 60), (5, 5));
+    g.bench_function("fast (meet) 5 stages 12..60 29.530588 1ppm", |b| {
+        b.iter(|| {
+            let out = search(&five, EngineChoice::Auto, &RunOptions::default());
+            assert_eq!(out.count, 11_252_487);
+            assert_eq!(out.trains.len(), 20);
+        })
+    });
+    g.finish();
+}
+
 /// Listing gear sets against listing trains, on the same searches.
 fn gear_set_benches(c: &mut Criterion) {
     let mut g = c.benchmark_group("gear sets");
@@ -148,5 +167,5 @@ fn gear_set_benches(c: &mut Criterion) {
     g.finish();
 }
 
-criterion_group!(search_benches, benches, five_stage_benches, gear_set_benches);
+criterion_group!(search_benches, benches, five_stage_benches, deep_benches, gear_set_benches);
 criterion_main!(search_benches);

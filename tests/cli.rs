@@ -425,3 +425,26 @@ fn output_into_a_missing_folder_says_which_folder() {
         "gearsieve: --output /no/such/dir/x.csv: there is no folder /no/such/dir; create it first or give another path"
     );
 }
+
+/// Six stages of 12..80 teeth at 0.1 ppm go to the meet engine, whose forecast of its prefixes
+/// of four values runs to days on two threads: the search is refused without --long, as the
+/// sieve's long searches are, instead of starting work it would not finish.
+#[test]
+fn a_six_stage_meet_search_that_would_run_for_hours_needs_long() {
+    let r = gearsieve(&[
+        "search",
+        "--ratio",
+        "29.530588",
+        "--tol",
+        "0.1ppm",
+        "--teeth",
+        "12..80",
+        "--stages",
+        "6",
+        "--threads",
+        "2",
+    ]);
+    assert_eq!(r.code, 2, "{}", r.stderr);
+    assert!(r.stderr.contains("--long") && r.stderr.contains("hours"), "{}", r.stderr);
+    assert!(r.stdout.is_empty());
+}

@@ -270,6 +270,76 @@ proptest! {
     }
 }
 
+/// Near targets over five and six stages of a few tooth counts: small enough for the exhaustive
+/// engine, taken by the meet engine's prefixes and pair table. Targets are products of three
+/// ratios of teeth near the range, so that some trains fall inside.
+fn five_and_six_stage_near_strategy() -> impl Strategy<Value = Problem> {
+    let side = (6u64..30, 6u64..30, 6u64..30).prop_map(|(a, b, c)| a * b * c);
+    let target = (side.clone(), side, prop_oneof![Just(1u128), Just(30), 1u128..20_000]);
+    let rank = prop_oneof![
+        3 => Just(DEFAULT_RANK.to_vec()),
+        1 => Just(vec![RankKey::Size, RankKey::Error]),
+        1 => Just(vec![RankKey::Error, RankKey::Span]),
+    ];
+    let stages = (5u32..=6)
+        .prop_flat_map(|most| (4u32..=most).prop_map(move |least| IntRange { lo: least, hi: most }));
+    (target, 6u32..20, 2u32..5, stages, rank, prop_oneof![Just(1usize), 0usize..30], any::<(bool, bool)>())
+        .prop_filter_map("a problem", |((n, d, tol), lo, w, stages, rank, limit, (pareto, sets))| {
+            let tol = Ratio::new(tol, 10_000_000)?;
+            let target = Target::exact(format!("{n}/{d}"), Ratio::new(n as u128, d as u128)?, tol);
+            // Six stages over five tooth counts would be slow for the exhaustive engine.
+            let w = if stages.hi == 6 { w.min(3) } else { w };
+            let pool = Pool::to_cut(IntRange { lo, hi: lo + w }, 1.0, 20.0, None).ok()?;
+            let mut p = Problem::new(target, pool, stages, StageLimits::default(), None, rank, limit).ok()?;
+            p.pareto = pareto;
+            p.gear_sets = sets;
+            Some(p)
+        })
+}
+
+proptest! {
+    #![proptest_config(ProptestConfig { cases: 80, ..ProptestConfig::default() })]
+
+    /// The meet engine's five and six stages give the exhaustive engine's count and listing.
+    #[test]
+    fn meet_engine_equals_exhaustive_on_five_and_six_stages(p in five_and_six_stage_near_strategy()) {
+        let fast = run(&p, EngineChoice::Auto);
+        let slow = run(&p, EngineChoice::Exhaustive);
+        prop_assert_eq!(fast, slow);
+    }
+}
+
+/// Five stages of 10..120 teeth near 365.2422 at 1 ppm: the meet engine takes them, and its
+/// forecast (random descents through its prefixes, timed) sees that they run for many minutes,
+/// where it used to take every meet search as quick. Twelve to sixty teeth over five stages, a
+/// space about a hundredth the size (its prefixes of three values counted apart: 465 million
+/// against billions), is forecast well below it.
+#[test]
+fn meet_engine_forecasts_its_long_five_stage_searches() {
+    let five = |lo, hi, ratio: &str| {
+        let pool = Pool::to_cut(IntRange { lo, hi }, 1.0, 20.0, None).unwrap();
+        let target = Target::parse(ratio, "1ppm").unwrap();
+        Problem::new(
+            target,
+            pool,
+            IntRange { lo: 5, hi: 5 },
+            StageLimits::default(),
+            None,
+            DEFAULT_RANK.to_vec(),
+            20,
+        )
+        .unwrap()
+    };
+    let budget = std::time::Duration::from_secs(1);
+    let long = gearsieve::engine::estimate(&five(10, 120, "365.2422"), EngineChoice::Auto, budget);
+    let long_s = long.seconds_one_thread.expect("five meet stages are forecast");
+    assert!(long_s > 60.0, "forecast {long_s} s");
+    assert!(long.shardable, "its units are first values, which a split search shares out");
+    let short = gearsieve::engine::estimate(&five(12, 60, "29.530588"), EngineChoice::Auto, budget);
+    let short_s = short.seconds_one_thread.expect("five meet stages are forecast");
+    assert!(short_s > 0.0 && short_s * 20.0 < long_s, "forecasts {short_s} s and {long_s} s");
+}
+
 /// Exact targets over gears to be cut with only tooth-count limits per stage: the problems the
 /// factor engine takes. Targets are ratios of products of tooth counts from the range (so
 /// trains hit them), now and then 1, or with a prime no gear carries (so none does).

@@ -1,6 +1,6 @@
 //! The forecast of a search's cost, made before it runs: a timed sample of the units that
-//! engines propose one by one, and the bulk engines' own estimates of work they cannot cut
-//! into units. It runs nothing to completion and keeps no trains.
+//! engines propose one by one, and the bulk engines' own estimates of work their tables do not
+//! bound. It runs nothing to completion and keeps no trains.
 
 use std::sync::atomic::{AtomicBool, Ordering as AtomicOrdering};
 use std::time::Duration;
@@ -16,16 +16,16 @@ use crate::model::problem::Problem;
 pub struct Estimate {
     /// Stage combinations in the whole space (before any pruning), summed over stage counts.
     pub combinations: f64,
-    /// Units of work: those of the stage engine, and the stage counts a bulk engine forecasts
-    /// as one (the factor engine's counts).
+    /// Units of work forecast: those of the stage engine, and the stage counts a bulk engine
+    /// forecasts itself (the factor engine's counts, the meet engine's five and six stages).
     pub units: usize,
     /// Projected time on one thread, seconds; `None` when the search is sure to be quick (the
-    /// meet engine covers every stage count, or the space is small).
+    /// meet engine covers every stage count up to four, or the space is small).
     pub seconds_one_thread: Option<f64>,
     /// True when a sampled unit was cut short by the budget: the time is then a lower bound.
     pub at_least: bool,
-    /// True when most of the time goes to work that a split search (a shard) splits; the factor engine's
-    /// count of one stage count is a single unit.
+    /// True when most of the time goes to work that a split search (a shard) splits; the factor
+    /// engine's count of one stage count is a single unit.
     pub shardable: bool,
 }
 
@@ -36,8 +36,9 @@ fn multisets(s: usize, n: usize) -> f64 {
 
 /// Forecast a search on this thread for at most about `budget`: a timed sample of the units
 /// the stage engine would run, and the bulk engines' own estimates of the stage counts they
-/// cannot cut into units (the factor engine's probe estimate of its counts). The meet engine's
-/// cost is bounded by its table and is not forecast.
+/// forecast themselves (the factor engine's probe estimate of its counts, the meet engine's
+/// random descents through its prefixes of five and six stages). The meet engine's cost up to
+/// four stages is bounded by its tables and is not forecast.
 pub fn estimate(problem: &Problem, choice: EngineChoice, budget: Duration) -> Estimate {
     let space = SearchSpace::new(problem, None);
     let counts = problem.stage_counts();
@@ -45,16 +46,16 @@ pub fn estimate(problem: &Problem, choice: EngineChoice, budget: Duration) -> Es
     let assigned = assign(problem, &space, choice.lineup());
     let proposed: Vec<(usize, usize)> =
         assigned.stage_counts.iter().flat_map(|&n| (0..space.stages.len()).map(move |f| (n, f))).collect();
-    let unsplit_work: Vec<(&dyn BulkPlan, usize)> = assigned
+    let bulk_work: Vec<(&dyn BulkPlan, usize)> = assigned
         .bulk
         .iter()
         .flat_map(|b| b.forecast_counts().iter().map(move |&n| (b.as_ref(), n)))
         .collect();
-    let units = proposed.len() + unsplit_work.len();
+    let units = proposed.len() + bulk_work.len();
     if units == 0 || combinations < 1e8 {
         return Estimate { combinations, units, seconds_one_thread: None, at_least: false, shardable: true };
     }
-    let share = budget / (!proposed.is_empty() as u32 + !unsplit_work.is_empty() as u32);
+    let share = budget / (!proposed.is_empty() as u32 + !bulk_work.is_empty() as u32);
     let mut seconds = 0.0;
     let mut at_least = false;
     if !proposed.is_empty() {
@@ -72,8 +73,12 @@ pub fn estimate(problem: &Problem, choice: EngineChoice, budget: Duration) -> Es
         at_least |= cut;
     }
     let mut unsplit = 0.0;
-    for &(plan, n) in &unsplit_work {
-        unsplit += plan.forecast_seconds(&space, n, share / unsplit_work.len() as u32);
+    for &(plan, n) in &bulk_work {
+        let s = plan.forecast_seconds(&space, n, share / bulk_work.len() as u32);
+        match plan.forecast_splits() {
+            true => seconds += s,
+            false => unsplit += s,
+        }
     }
     Estimate {
         combinations,

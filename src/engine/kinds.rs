@@ -68,6 +68,12 @@ pub trait BulkPlan: Sync {
         &[]
     }
 
+    /// True when the work of [`BulkPlan::forecast_counts`] is cut into many units, so that a
+    /// split search (a shard) splits it; false when each stage count is one unit.
+    fn forecast_splits(&self) -> bool {
+        false
+    }
+
     /// Seconds one thread needs for the `n`-stage trains (one of
     /// [`BulkPlan::forecast_counts`]), estimated in about `budget`.
     fn forecast_seconds(&self, _space: &SearchSpace, _n: usize, _budget: Duration) -> f64 {

@@ -2,14 +2,17 @@
 //!
 //! Many stages share one ratio (12→24, 13→26, …). The engine first folds the stage table into
 //! its distinct ratios ("values"), each with the contiguous run of stages that make it. A train
-//! of `n ≤ 4` stages is then a non-decreasing sequence of values whose product lies in the
+//! of `n ≤ 6` stages is then a non-decreasing sequence of values whose product lies in the
 //! window: single values for `n = 1`, a value and a binary-searched partner for `n = 2`, two
 //! values and a binary-searched third for `n = 3`. For `n = 4` the first pair of values is
 //! looped over and the last pair looked up in a table sorted by product; since `a ≤ b ≤ c ≤ d`
 //! the last pair's product is at least √lo, so only those pairs are tabled (a tenth of all pairs
 //! for a target near 30, which is what keeps four stages of 150 or 200 tooth counts in memory),
-//! and the window of each first pair is found through an index of buckets of products. The
-//! canonical order (the last value of the first part at most the first of the second) keeps
+//! and the window of each first pair is found through an index of buckets of products. For
+//! `n = 5` and `6` the first `n − 2` values are grown by loop, pruned by what the values still
+//! to come can reach, and the last pair looked up the same way; the last pair holds the two
+//! largest values, so its product is at least lo^(2/n) and each stage count has its own table.
+//! The canonical order (the last value of the first part at most the first of the second) keeps
 //! each sequence once.
 //!
 //! A sequence within tolerance stands for every choice of stages from its values; they all share
@@ -18,6 +21,8 @@
 //! the listing. It applies to gears to be cut with no train-level check or extra key, where
 //! every choice of stages is as valid as any other; anything else goes to the sieve. The gear
 //! sets are counted apart, by the set counter, where every pairing of other teeth is a stage.
+
+use std::time::{Duration, Instant};
 
 use rayon::prelude::*;
 
@@ -124,11 +129,14 @@ pub struct PairTable {
 }
 
 impl PairTable {
-    /// The products a last pair may have for the window `[lo, hi]`, widened for the rounding
-    /// to single precision.
-    fn bounds(values: &DistinctRatios, lo: f64, hi: f64) -> (f64, f64) {
+    /// The products the last pair of an `n`-stage train may have for the window `[lo, hi]`,
+    /// widened for the rounding to single precision. The last pair holds the two largest of
+    /// the `n` values, so its product is at least the train's to the power `2/n`; the other
+    /// `n − 2` values are each at least the least value.
+    fn bounds(values: &DistinctRatios, lo: f64, hi: f64, n: usize) -> (f64, f64) {
         let least = values.value.first().copied().unwrap_or(1.0);
-        (lo.sqrt() * (1.0 - F32_MARGIN), hi / (least * least) * (1.0 + F32_MARGIN))
+        let floor = lo.powf(2.0 / n as f64);
+        (floor * (1.0 - F32_MARGIN), hi / least.powi(n as i32 - 2) * (1.0 + F32_MARGIN))
     }
 
     /// The last value `d ≥ c` of each pair `(c, d)` the table keeps, as a range of value ids.
@@ -138,27 +146,28 @@ impl PairTable {
         from..from.max(c + v[c..].partition_point(|&x| v[c] * x <= ceiling))
     }
 
-    /// The number of pairs the table for the window `[lo, hi]` would hold.
-    pub fn size(values: &DistinctRatios, lo: f64, hi: f64) -> usize {
-        let (floor, ceiling) = PairTable::bounds(values, lo, hi);
+    /// The number of pairs the table of `n`-stage trains for the window `[lo, hi]` would hold.
+    pub fn size(values: &DistinctRatios, lo: f64, hi: f64, n: usize) -> usize {
+        let (floor, ceiling) = PairTable::bounds(values, lo, hi, n);
         (0..values.count()).map(|c| PairTable::partners(values, c, floor, ceiling).len()).sum()
     }
 
-    /// Would the table for the window `[lo, hi]` fit the memory budget?
-    pub fn fits(values: &DistinctRatios, lo: f64, hi: f64) -> bool {
+    /// Would the table of `n`-stage trains for the window `[lo, hi]` fit the memory budget?
+    pub fn fits(values: &DistinctRatios, lo: f64, hi: f64, n: usize) -> bool {
         values.count() <= 1 << 16
-            && PairTable::size(values, lo, hi).saturating_mul(std::mem::size_of::<u64>())
+            && PairTable::size(values, lo, hi, n).saturating_mul(std::mem::size_of::<u64>())
                 <= PAIR_TABLE_BUDGET_BYTES
     }
 
-    /// Build the table for the window `[lo, hi]`, or `None` when it would exceed the budget.
-    pub fn new(values: &DistinctRatios, lo: f64, hi: f64) -> Option<PairTable> {
-        if !PairTable::fits(values, lo, hi) {
+    /// Build the table of `n`-stage trains (`n ≥ 4`) for the window `[lo, hi]`, or `None`
+    /// when it would exceed the budget.
+    pub fn new(values: &DistinctRatios, lo: f64, hi: f64, n: usize) -> Option<PairTable> {
+        if !PairTable::fits(values, lo, hi, n) {
             return None;
         }
-        let (floor, ceiling) = PairTable::bounds(values, lo, hi);
+        let (floor, ceiling) = PairTable::bounds(values, lo, hi, n);
         let v = &values.value;
-        let mut keys = Vec::with_capacity(PairTable::size(values, lo, hi));
+        let mut keys = Vec::with_capacity(PairTable::size(values, lo, hi, n));
         for c in 0..values.count() {
             for d in PairTable::partners(values, c, floor, ceiling) {
                 let product = (v[c] * v[d]) as f32;
@@ -221,17 +230,17 @@ impl BulkEngine for Meet {
         "meet"
     }
 
-    /// Four stages only when the pair table fits its memory budget.
+    /// Four to six stages only when their pair table fits its memory budget.
     fn plan(&self, space: &SearchSpace, counts: &[usize]) -> Option<Box<dyn BulkPlan>> {
         let mut counts: Vec<usize> = counts.iter().copied().filter(|&n| applies(space, n)).collect();
         if counts.is_empty() {
             return None;
         }
         let ratios = DistinctRatios::new(space);
-        counts.retain(|&n| n <= 3 || PairTable::fits(&ratios, space.lo, space.hi));
+        counts.retain(|&n| n <= 3 || PairTable::fits(&ratios, space.lo, space.hi, n));
         let sets = if space.problem.gear_sets { SetCounter::new(space) } else { None };
-        (!counts.is_empty())
-            .then(|| Box::new(MeetPlan { counts, ratios, pairs: None, sets }) as Box<dyn BulkPlan>)
+        let pairs = std::array::from_fn(|_| None);
+        (!counts.is_empty()).then(|| Box::new(MeetPlan { counts, ratios, pairs, sets }) as Box<dyn BulkPlan>)
     }
 }
 
@@ -239,8 +248,8 @@ impl BulkEngine for Meet {
 struct MeetPlan {
     counts: Vec<usize>,
     ratios: DistinctRatios,
-    /// Built when four stages are cut.
-    pairs: Option<PairTable>,
+    /// The pair table of each stage count from four up, built when that count is cut.
+    pairs: [Option<PairTable>; MAX_STAGES + 1],
     /// Counts the gear sets, when the search lists them and every pairing of other teeth is a
     /// stage.
     sets: Option<SetCounter>,
@@ -252,20 +261,22 @@ impl BulkPlan for MeetPlan {
     }
 
     fn cut(&mut self, space: &SearchSpace, n: usize) -> usize {
-        if n == 4 && self.pairs.is_none() {
-            self.pairs = PairTable::new(&self.ratios, space.lo, space.hi);
+        if n >= 4 && self.pairs[n].is_none() {
+            self.pairs[n] = PairTable::new(&self.ratios, space.lo, space.hi, n);
         }
-        if n == 4 {
-            PRODUCT_SLICES
-        } else {
-            self.ratios.count().div_ceil(VALUES_PER_UNIT)
+        match n {
+            4 => PRODUCT_SLICES,
+            5.. => self.ratios.count(),
+            _ => self.ratios.count().div_ceil(VALUES_PER_UNIT),
         }
     }
 
     fn run(&self, space: &SearchSpace, n: usize, unit: usize, tally: &mut Tally, tick: &(dyn Fn() + Sync)) {
-        let run = MeetRun::new(space, &self.ratios, self.pairs.as_ref());
+        let run = MeetRun::new(space, &self.ratios, self.pairs.get(n).and_then(Option::as_ref));
         if n == 4 {
             run.first_pairs(unit, tally);
+        } else if n >= 5 {
+            run.prefixes(n, unit, tally);
         } else {
             let (len, step) = (self.ratios.count(), VALUES_PER_UNIT);
             run.first_values(n, unit * step, ((unit + 1) * step).min(len), tally);
@@ -282,6 +293,71 @@ impl BulkPlan for MeetPlan {
         }
         tick();
     }
+
+    /// Five and six stages: their prefixes are many more than their units, and a unit's cost
+    /// falls steeply with its first value, so the table alone does not bound it.
+    fn forecast_counts(&self) -> &[usize] {
+        &self.counts[self.counts.partition_point(|&n| n < 5)..]
+    }
+
+    fn forecast_splits(&self) -> bool {
+        true
+    }
+
+    /// The table is built (and its time counted), then the prefixes are sampled by random
+    /// descents (Knuth's estimate of a search tree's size): each descent picks one value at
+    /// random among those allowed at each position down to the last but one of the prefix,
+    /// weighs itself by the product of the numbers of choices, and times the real work under
+    /// it (the last value of the prefix by loop, its look-ups in the table, the trains met,
+    /// into a scratch tally). The weighted mean time over the descents, an unbiased estimate of
+    /// the whole walk, is added to the table's.
+    fn forecast_seconds(&self, space: &SearchSpace, n: usize, budget: Duration) -> f64 {
+        /// Descents at most; past them the estimate is sharp enough.
+        const MOST_DESCENTS: usize = 1 << 16;
+        let start = Instant::now();
+        let Some(table) = PairTable::new(&self.ratios, space.lo, space.hi, n) else { return 0.0 };
+        let built = start.elapsed().as_secs_f64();
+        let run = MeetRun::new(space, &self.ratios, Some(&table));
+        let v = &self.ratios.value;
+        let firsts = v.partition_point(|&x| x.powi(n as i32) <= space.hi * (1.0 + F32_MARGIN));
+        if firsts == 0 {
+            return built;
+        }
+        let mut tally = Tally::new(space.problem, None);
+        let mut seed = 0x9e37_79b9_7f4a_7c15u64;
+        let mut pick = |choices: usize| {
+            // xorshift64*: plenty for drawing values.
+            seed ^= seed >> 12;
+            seed ^= seed << 25;
+            seed ^= seed >> 27;
+            (seed.wrapping_mul(0x2545_f491_4f6c_dd1d) >> 11) as usize % choices
+        };
+        let (mut descents, mut weighted) = (0usize, 0.0f64);
+        while descents == 0 || (descents < MOST_DESCENTS && start.elapsed() < budget) {
+            descents += 1;
+            let mut seq = [0usize; MAX_STAGES];
+            seq[0] = pick(firsts);
+            let (mut weight, mut product) = (firsts as f64, v[seq[0]]);
+            let mut k = 1;
+            while k < n - 3 {
+                let (from, to) = run.next_values(n, k, product, seq[k - 1]);
+                if from == to {
+                    break;
+                }
+                seq[k] = from + pick(to - from);
+                weight *= (to - from) as f64;
+                product *= v[seq[k]];
+                k += 1;
+            }
+            if k < n - 3 {
+                continue;
+            }
+            let timed = Instant::now();
+            run.grow(n, k, product, &mut seq, &table, &mut tally);
+            weighted += weight * timed.elapsed().as_secs_f64();
+        }
+        built + weighted / descents as f64
+    }
 }
 
 /// Binomial coefficient for small arguments.
@@ -297,7 +373,7 @@ const EXACT_MARGIN: f64 = 1e-9;
 struct MeetRun<'a, 's> {
     space: &'a SearchSpace<'s>,
     ratios: &'a DistinctRatios,
-    /// Needed for `n = 4`.
+    /// The pair table of the stage count run, needed from `n = 4` up.
     pairs: Option<&'a PairTable>,
     /// The target ratio in floating point.
     ratio: f64,
@@ -440,6 +516,80 @@ impl MeetRun<'_, '_> {
         }
     }
 
+    /// Every `n`-stage value sequence (`n ≥ 5`) whose first value is `a`. The prefixes of
+    /// `n − 2` values are grown in non-decreasing order, pruned as they grow: with `x` the
+    /// value just chosen and `r` values still to come, the prefix's product times `x^r` must not
+    /// pass `hi` and times `vmax^r` must reach `lo`. Each complete prefix's window in the table
+    /// of last pairs is scanned for pairs `(c, d)` whose `c` is at least the prefix's last
+    /// value. Prefixes that differ only in their last value come in ascending product, so their
+    /// windows sweep the table in order (no sorting needed to keep its memory warm).
+    fn prefixes(&self, n: usize, a: usize, tally: &mut Tally) {
+        let Some(pairs) = self.pairs else { return };
+        let v = &self.ratios.value;
+        if a >= v.len() || v[a].powi(n as i32) > self.space.hi * (1.0 + F32_MARGIN) {
+            return;
+        }
+        let mut seq = [0usize; MAX_STAGES];
+        seq[0] = a;
+        let (from, to) = self.next_values(n, 1, v[a], a);
+        for b in from..to {
+            if self.space.cancelled() {
+                return;
+            }
+            seq[1] = b;
+            self.grow(n, 2, v[a] * v[b], &mut seq, pairs, tally);
+        }
+    }
+
+    /// The value ids that may stand at position `k` of an `n`-stage sequence after a prefix of
+    /// product `product` whose last value is `last`.
+    fn next_values(&self, n: usize, k: usize, product: f64, last: usize) -> (usize, usize) {
+        let v = &self.ratios.value;
+        let widen = 1.0 + F32_MARGIN;
+        let (lo, hi) = (self.space.lo / widen, self.space.hi * widen);
+        let vmax = v.last().copied().unwrap_or(0.0);
+        let rest = (n - k - 1) as i32;
+        let from = last + v[last..].partition_point(|&x| product * x * vmax.powi(rest) < lo);
+        let to = last + v[last..].partition_point(|&x| product * x.powi(rest + 1) <= hi);
+        (from, to.max(from))
+    }
+
+    /// Extend the prefix `seq[..k]` (of product `product`) to `n − 2` values and meet each
+    /// complete prefix with its last pairs from the table.
+    fn grow(
+        &self,
+        n: usize,
+        k: usize,
+        product: f64,
+        seq: &mut [usize; MAX_STAGES],
+        pairs: &PairTable,
+        tally: &mut Tally,
+    ) {
+        let v = &self.ratios.value;
+        let (lo, hi) = (self.space.lo, self.space.hi);
+        if k == n - 2 {
+            let last = PairTable::last_key(hi / product);
+            for &key in &pairs.keys[pairs.first_from(lo / product)..] {
+                if key > last {
+                    break;
+                }
+                let (c, d) = ((key >> 16) as u16 as usize, key as u16 as usize);
+                let whole = product * v[c] * v[d];
+                if c >= seq[k - 1] && (lo..=hi).contains(&whole) {
+                    seq[k] = c;
+                    seq[k + 1] = d;
+                    self.accept(&seq[..n], whole, tally);
+                }
+            }
+            return;
+        }
+        let (from, to) = self.next_values(n, k, product, seq[k - 1]);
+        for (x, &vx) in v.iter().enumerate().take(to).skip(from) {
+            seq[k] = x;
+            self.grow(n, k + 1, product * vx, seq, pairs, tally);
+        }
+    }
+
     /// A value sequence inside the float window (`product` its values' product in floating
     /// point): decide it exactly, count its trains, and spell them out if the best could be
     /// listed. The exact test is skipped only where the float is surely inside the tolerance,
@@ -549,7 +699,7 @@ impl MeetRun<'_, '_> {
 /// Can the meet engine take `n`-stage trains of this space?
 pub fn applies(space: &SearchSpace, n: usize) -> bool {
     let p = space.problem;
-    (1..=4).contains(&n)
+    (1..=MAX_STAGES).contains(&n)
         && !p.pool.from_stock
         && p.train_check.is_none()
         && p.extra_key.is_none()
@@ -589,10 +739,10 @@ mod tests {
     #[test]
     fn the_table_keeps_exactly_the_last_pairs_that_can_fit_and_finds_every_window() {
         let v = values();
-        for (lo, hi) in [(7.9, 8.1), (0.2, 0.21), (1.0, 1.0), (20.0, 30.0)] {
-            let table = PairTable::new(&v, lo, hi).expect("a small table fits");
-            assert_eq!(table.len(), PairTable::size(&v, lo, hi));
-            let (floor, ceiling) = PairTable::bounds(&v, lo, hi);
+        for (lo, hi, n) in [(7.9, 8.1, 4), (0.2, 0.21, 5), (1.0, 1.0, 6), (20.0, 30.0, 4), (20.0, 30.0, 6)] {
+            let table = PairTable::new(&v, lo, hi, n).expect("a small table fits");
+            assert_eq!(table.len(), PairTable::size(&v, lo, hi, n));
+            let (floor, ceiling) = PairTable::bounds(&v, lo, hi, n);
             let mut wanted: Vec<(usize, usize)> = Vec::new();
             for c in 0..v.count() {
                 for d in c..v.count() {
@@ -606,7 +756,7 @@ mod tests {
                 table.keys.iter().map(|&k| ((k >> 16) as u16 as usize, k as u16 as usize)).collect();
             assert!(table.keys.windows(2).all(|w| w[0] < w[1]), "sorted, no repeats");
             kept.sort_unstable();
-            assert_eq!(kept, wanted, "window {lo}..{hi}");
+            assert_eq!(kept, wanted, "window {lo}..{hi}, {n} stages");
             // Every look-up through the index agrees with a binary search of the whole table.
             for step in 0..2000 {
                 let x = 0.01 * 1.005f64.powi(step);
