@@ -568,6 +568,8 @@ impl MeetRun<'_, '_> {
         let v = &self.ratios.value;
         let (lo, hi) = (self.space.lo, self.space.hi);
         if k == n - 2 {
+            // The same window walk as four stages', written out on purpose: a shared iterator
+            // (slice, take_while, map) measured 1.34 times slower on five stages of 12..60.
             let last = PairTable::last_key(hi / product);
             for &key in &pairs.keys[pairs.first_from(lo / product)..] {
                 if key > last {
