@@ -219,14 +219,14 @@ impl<'p> SearchSpace<'p> {
                         )
                     },
                 };
-                let listed = (!problem.stage_checks.is_empty()).then(|| listed_stage(problem, &def, None));
-                let refused =
-                    listed.as_ref().and_then(|st| problem.stage_checks.iter().find(|c| !(c.check)(st)));
-                if let Some(check) = refused {
-                    count_rejection(&mut rejected, check.kind.to_string(), || {
-                        format!("{}→{}", a.teeth, b.teeth)
-                    });
-                    continue;
+                if !problem.stage_checks.is_empty() {
+                    let listed = listed_stage(problem, &def, None);
+                    if let Some(check) = problem.stage_checks.iter().find(|c| !(c.check)(&listed)) {
+                        count_rejection(&mut rejected, check.kind.to_string(), || {
+                            format!("{}→{}", a.teeth, b.teeth)
+                        });
+                        continue;
+                    }
                 }
                 stages.push(def);
             }

@@ -326,17 +326,16 @@ impl ReducerSpec {
             p.stage_checks
                 .push(StageCheck::new("FitsNoPlace", move |s: &Stage| places.fits_some_place(s, most)));
         }
-        let require = self.hunting == Hunting::Require;
-        if require {
+        if self.hunting == Hunting::Require {
+            // Every stage left is a hunting pair, so no train needs the test again.
             p.stage_checks.push(StageCheck::new("NotHunting", hunting::is_hunting));
         }
         let shop = self.shop;
         p.train_check = Some(TrainCheck::new(move |t: &Train| {
-            (!require || hunting::non_hunting(t) == 0)
-                && places.arrange(t).is_some_and(|(order, meshes)| {
-                    // Housed as arranged: the fit depends on which stage sits where.
-                    shop.shaft_diameter_mm.is_none() || shop.fits(&arranged(t, &order, &meshes))
-                })
+            places.arrange(t).is_some_and(|(order, meshes)| {
+                // Housed as arranged: the fit depends on which stage sits where.
+                shop.shaft_diameter_mm.is_none() || shop.fits(&arranged(t, &order, &meshes))
+            })
         }));
         let prefer = self.hunting == Hunting::Prefer;
         p.extra_key = Some(match self.priority {
