@@ -223,6 +223,8 @@ pub enum Quantity {
     RankKeys,
     /// How many results to list.
     Limit,
+    /// How a search counts its trains: all of them, or only those met on the way to the best.
+    CountMode,
     /// A reducer's input speed, rpm.
     InputSpeed,
     /// A reducer's output speed, rpm.
@@ -358,6 +360,7 @@ impl Quantity {
             Quantity::PressureAngle => "the pressure angle",
             Quantity::RankKeys => "the ranking keys",
             Quantity::Limit => "the number of results to list",
+            Quantity::CountMode => "the way trains are counted",
             Quantity::InputSpeed => "the input speed",
             Quantity::OutputSpeed => "the output speed",
             Quantity::ThreadPitch => "the thread pitch",

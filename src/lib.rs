@@ -42,4 +42,4 @@ pub mod trades;
 
 pub use engine::{search, EngineChoice, Outcome, RunOptions};
 pub use error::{Error, Message, Quantity, Result};
-pub use model::problem::{ExtraKey, MeshRules, Problem, StageLimits, ToothForm, TrainCheck};
+pub use model::problem::{CountMode, ExtraKey, MeshRules, Problem, StageLimits, ToothForm, TrainCheck};

@@ -17,7 +17,7 @@ use gearsieve::numbers::target::Target;
 use gearsieve::report::search::stream::Stream;
 use gearsieve::report::search::SearchReport;
 use gearsieve::report::{RenderError, Report};
-use gearsieve::{EngineChoice, Error, Problem, Quantity, RunOptions, StageLimits};
+use gearsieve::{CountMode, EngineChoice, Error, Problem, Quantity, RunOptions, StageLimits};
 
 use super::args::{load_stock, number, FormatArg, PrintArgs, ToothFormArg};
 use super::buy::BuyArgs;
@@ -45,6 +45,26 @@ pub enum EngineArg {
     Sieve,
     /// Every combination (slow reference).
     Exhaustive,
+}
+
+/// The count flag.
+#[derive(Clone, Copy, Debug, PartialEq, Eq, ValueEnum)]
+pub enum CountArg {
+    /// Count every train and gear set.
+    Exact,
+    /// List the same proven best, but count only the trains met on the way to it: near targets
+    /// over four to six stages of gears to be cut then take seconds where counting every train
+    /// would take hours; the counts are marked as lower bounds.
+    LowerBound,
+}
+
+impl From<CountArg> for CountMode {
+    fn from(c: CountArg) -> CountMode {
+        match c {
+            CountArg::Exact => CountMode::Exact,
+            CountArg::LowerBound => CountMode::LowerBound,
+        }
+    }
 }
 
 /// The direction flag.
@@ -151,6 +171,12 @@ pub struct SearchArgs {
     /// once (the first K of it by --rank).
     #[arg(long)]
     pub pareto: bool,
+    /// How to count the trains: every one (exact), or only those met on the way to the listed
+    /// best, which stay the proven best (lower-bound: for near targets over four to six stages,
+    /// where counting all would take far longer than finding the best; needs --rank led by
+    /// error, no --pareto and a --limit above 0).
+    #[arg(long, value_enum, value_name = "HOW", default_value = "exact")]
+    pub count: CountArg,
     /// Run even when the search is forecast to take more than an hour.
     #[arg(long)]
     pub long: bool,
@@ -252,6 +278,7 @@ impl TryFrom<SearchArgs> for SearchJob {
         }
         // A listing shows gear sets; a stream hands out every train.
         problem.gear_sets = a.limit > 0;
+        problem = problem.with_count(a.count.into())?;
         if a.limit == 0 {
             if a.arrangements {
                 return Err(refuse("--limit", "0 streams every train; it does not go with --arrangements"));

@@ -19,7 +19,7 @@ use crate::model::problem::Problem;
 /// the Pareto front) and counting all.
 pub fn search(problem: &Problem, choice: EngineChoice, options: &RunOptions) -> Outcome {
     let space = SearchSpace::new(problem, options.cancel);
-    let plan = plan(problem, &space, choice.lineup(), options.shard);
+    let plan = plan(problem, &space, choice.lineup_for(problem.count), options.shard);
     let total = plan.ticks;
     let done = AtomicU64::new(0);
     let tick = || {
@@ -30,7 +30,7 @@ pub fn search(problem: &Problem, choice: EngineChoice, options: &RunOptions) -> 
     };
     let sets = problem.gear_sets.then(|| SetTools::new(&space));
     let set_of = sets.as_ref().map(|s| &s.set_of);
-    let tally = plan
+    let mut tally = plan
         .units
         .par_iter()
         .with_max_len(1)
@@ -59,7 +59,9 @@ pub fn search(problem: &Problem, choice: EngineChoice, options: &RunOptions) -> 
             },
         )
         .reduce(|| Tally::new(problem, set_of), Tally::merge);
+    tally.settle_met();
     let gear_set_count = tally.set_count().known();
+    let counted_all = tally.counted_all();
     let (count, best, pareto_size) = tally.into_ranked(problem, options.shard.is_some());
     let arrangements = match &sets {
         None => Vec::new(),
@@ -81,6 +83,7 @@ pub fn search(problem: &Problem, choice: EngineChoice, options: &RunOptions) -> 
         trains: best.iter().map(|c| space.train(c)).collect(),
         arrangements,
         pareto_size,
+        counted_all,
         complete: !space.cancelled(),
         stage_options: space.stages.len(),
         rejected: space.rejections(),

@@ -43,7 +43,7 @@ pub fn estimate(problem: &Problem, choice: EngineChoice, budget: Duration) -> Es
     let space = SearchSpace::new(problem, None);
     let counts = problem.stage_counts();
     let combinations = counts.iter().map(|&n| multisets(space.stages.len(), n)).sum();
-    let assigned = assign(problem, &space, choice.lineup());
+    let assigned = assign(problem, &space, choice.lineup_for(problem.count));
     let proposed: Vec<(usize, usize)> =
         assigned.stage_counts.iter().flat_map(|&n| (0..space.stages.len()).map(move |f| (n, f))).collect();
     let bulk_work: Vec<(&dyn BulkPlan, usize)> = assigned

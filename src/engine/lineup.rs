@@ -9,10 +9,17 @@ use super::factor::Factor;
 use super::kinds::{BulkEngine, StageEngine};
 use super::meet::Meet;
 use super::sieve::Sieve;
+use super::window::Window;
+use crate::model::problem::CountMode;
 
 /// The bulk engines [`EngineChoice::Auto`] asks, in order, before the sieve takes the rest.
 /// A new bulk engine is registered by one line here.
 const AUTO_BULK: &[&dyn BulkEngine] = &[&Factor, &Meet];
+
+/// The bulk engines [`EngineChoice::Auto`] asks when only the listing need be exact
+/// ([`CountMode::LowerBound`]): the window engine takes the near targets of four stages and
+/// more before the meet engine, which would count every train.
+const LOWER_BOUND_BULK: &[&dyn BulkEngine] = &[&Factor, &Window, &Meet];
 
 /// Which engines a search may use.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
@@ -47,6 +54,15 @@ impl EngineChoice {
         }
     }
 
+    /// The engines this choice lets a search counted as `count` asks: a lower-bound count lets
+    /// the fast engines leave trains uncounted; the sieve and the exhaustive engine count all.
+    pub(crate) fn lineup_for(self, count: CountMode) -> Lineup {
+        match (self, count) {
+            (EngineChoice::Auto, CountMode::LowerBound) => Lineup { bulk: LOWER_BOUND_BULK, stage: &Sieve },
+            _ => self.lineup(),
+        }
+    }
+
     /// The choice [`super::search_each`] in effect runs: streaming visits every train, so the
     /// bulk engines give way to the lineup's stage engine. Forecast a stream with this one.
     pub fn streaming(self) -> EngineChoice {
@@ -75,6 +91,11 @@ mod tests {
         let lineup = EngineChoice::Auto.lineup();
         let names: Vec<&str> = lineup.bulk.iter().map(|e| e.name()).collect();
         assert_eq!(names, ["factor", "meet"]);
+        let lower: Vec<&str> =
+            EngineChoice::Auto.lineup_for(CountMode::LowerBound).bulk.iter().map(|e| e.name()).collect();
+        assert_eq!(lower, ["factor", "window", "meet"]);
+        let sieve = EngineChoice::Sieve.lineup_for(CountMode::LowerBound);
+        assert!(sieve.bulk.is_empty());
         assert_eq!(lineup.stage.name(), "sieve");
         assert!(EngineChoice::Sieve.lineup().bulk.is_empty());
         assert_eq!(EngineChoice::Exhaustive.lineup().stage.name(), "exhaustive");

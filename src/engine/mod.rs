@@ -40,6 +40,7 @@ pub mod sieve;
 mod space;
 mod stream;
 mod tally;
+pub mod window;
 
 pub use driver::search;
 pub use forecast::{estimate, Estimate};

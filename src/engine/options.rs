@@ -47,6 +47,10 @@ pub struct Outcome {
     /// Size of the Pareto front (of gear sets, for a problem that lists them), for a Pareto
     /// search.
     pub pareto_size: Option<usize>,
+    /// False when an engine left trains uncounted on purpose, the problem asking only for a
+    /// lower-bound count ([`crate::model::problem::CountMode::LowerBound`]): `count` and
+    /// `gear_set_count` are then lower bounds, while the listing is still the proven best.
+    pub counted_all: bool,
     /// False when the search was interrupted.
     pub complete: bool,
     /// Stages allowed by the per-stage limits (the size of the stage table).

@@ -33,7 +33,7 @@ impl SetTools {
 
     /// Call `visit` with every pairing of `set` whose pairs are all stages, as sorted
     /// stage-table indices (not yet judged).
-    fn for_each_staged_pairing(&self, set: &GearSet, visit: &mut dyn FnMut(&[u32])) {
+    pub(crate) fn for_each_staged_pairing(&self, set: &GearSet, visit: &mut dyn FnMut(&[u32])) {
         set.for_each_pairing(&mut |pairs| {
             let mut idx = [0u32; MAX_STAGES];
             for (slot, p) in idx.iter_mut().zip(pairs) {

@@ -65,6 +65,7 @@ pub fn search_each<E>(
         trains: Vec::new(),
         arrangements: Vec::new(),
         pareto_size: None,
+        counted_all: true,
         complete: !space.cancelled(),
         stage_options: space.stages.len(),
         rejected: space.rejections(),

@@ -8,11 +8,19 @@
 use crate::model::gearset::SetOf;
 use crate::model::problem::Problem;
 use crate::model::rank::{Candidate, ParetoFront, TopK};
+use crate::numbers::rational::RelError;
 
 /// The counts and the best trains of a search (or of one worker's share of it).
 pub struct Tally {
     kept: Kept,
     sets: SetCount,
+    /// False once an engine has left trains uncounted on purpose (a lower-bound count).
+    counted_all: bool,
+    /// Gear sets (or trains) met by an engine that narrows its window as it goes, with their
+    /// trains, counted only once the search is over and only within the error of the K-th best
+    /// ([`Tally::settle_met`]): what such an engine meets beyond it depends on the timing of
+    /// the threads, what it meets within it does not.
+    met: Vec<(RelError, u64)>,
 }
 
 /// The count of gear sets a tally keeps.
@@ -53,7 +61,7 @@ impl Tally {
             (false, Some(s)) => Kept::Top(TopK::by_set(problem.limit, &problem.rank, s.clone())),
         };
         let sets = if sets.is_some() { SetCount::Counted(0) } else { SetCount::Off };
-        Tally { kept, sets }
+        Tally { kept, sets, counted_all: true, met: Vec::new() }
     }
 
     /// Does this tally count gear sets?
@@ -122,7 +130,56 @@ impl Tally {
             (SetCount::Off, SetCount::Off) => SetCount::Off,
             _ => SetCount::Unknown,
         };
-        Tally { kept, sets }
+        let mut met = self.met;
+        met.extend(other.met);
+        Tally { kept, sets, counted_all: self.counted_all && other.counted_all, met }
+    }
+
+    /// Note a gear set (or, for a listing of trains, a train) met with `trains` satisfying
+    /// arrangements of error `error`, each already offered with [`Tally::push_uncounted`]; it
+    /// is counted by [`Tally::settle_met`].
+    pub fn add_met(&mut self, error: RelError, trains: u64) {
+        self.met.push((error, trains));
+    }
+
+    /// Count what [`Tally::add_met`] noted that lies within the error of the K-th best kept
+    /// (all of it when fewer are kept): every train within that error was met, whatever the
+    /// threads did, so the count is the same on every run. What lies beyond it is dropped, and
+    /// the count is then a lower bound. Called once, on the whole search's tally.
+    pub(crate) fn settle_met(&mut self) {
+        if self.met.is_empty() {
+            return;
+        }
+        let bound = self.error_bound();
+        for (error, trains) in std::mem::take(&mut self.met) {
+            if bound.is_none_or(|b| error.cmp_abs(&b) != std::cmp::Ordering::Greater) {
+                self.add_count(trains);
+                self.add_sets(1);
+            } else {
+                self.counted_all = false;
+            }
+        }
+    }
+
+    /// Say that some trains (and their gear sets) satisfying the problem were not counted: the
+    /// counts are then lower bounds. The listing must stay the proven best.
+    pub fn count_not_all(&mut self) {
+        self.counted_all = false;
+    }
+
+    /// True unless an engine left trains uncounted ([`Tally::count_not_all`]).
+    pub(crate) fn counted_all(&self) -> bool {
+        self.counted_all
+    }
+
+    /// For a top-K led by the error, once K are kept: the |error| of the K-th best (see
+    /// [`TopK::error_bound`]); `None` before then, for a Pareto front, or when the error does
+    /// not lead the ranking.
+    pub fn error_bound(&mut self) -> Option<RelError> {
+        match &mut self.kept {
+            Kept::Top(t) => t.error_bound(),
+            Kept::Front(_) => None,
+        }
     }
 
     /// The count of gear sets.

@@ -211,6 +211,22 @@ pub struct Problem {
     /// Gears that may be bought beyond those on hand (set with [`Problem::with_purchase`]):
     /// the pool then holds them too, and every train's gears to buy are counted.
     pub buy: Option<Purchase>,
+    /// Whether every train must be counted, or only the listing must be the proven best (set
+    /// with [`Problem::with_count`]).
+    pub count: CountMode,
+}
+
+/// How a search counts the trains that satisfy a problem.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Default)]
+pub enum CountMode {
+    /// Every train (and gear set) is counted exactly.
+    #[default]
+    Exact,
+    /// The listing is the proven best, but only the trains met on the way to it need be
+    /// counted: where an engine can list the best without meeting every train (near targets
+    /// over four to six stages), the count is a lower bound, and the outcome says so. Needs a
+    /// ranking led by the error, a limit, and no Pareto front.
+    LowerBound,
 }
 
 impl Problem {
@@ -253,6 +269,7 @@ impl Problem {
             tooth_form: ToothForm::Involute,
             gear_sets: false,
             buy: None,
+            count: CountMode::Exact,
         };
         if p.stage_counts().is_empty() {
             return Err(Error::value(
@@ -266,6 +283,30 @@ impl Problem {
             ));
         }
         Ok(p)
+    }
+
+    /// Set how trains are counted; a lower-bound count needs a listing ranked by error first,
+    /// with a limit and without a Pareto front (errors name [`Quantity::CountMode`]).
+    pub fn with_count(mut self, mode: CountMode) -> Result<Problem> {
+        if mode == CountMode::LowerBound {
+            let why = if self.pareto {
+                Some("a Pareto front is not a best K: it needs every train")
+            } else if self.limit == 0 {
+                Some("a listing of every train needs every train counted")
+            } else if self.rank.first() != Some(&RankKey::Error) {
+                Some("the ranking must be led by the error (the window narrows on it)")
+            } else {
+                None
+            };
+            if let Some(why) = why {
+                return Err(Error::value(
+                    Quantity::CountMode,
+                    format!("a lower-bound count cannot serve here: {why}"),
+                ));
+            }
+        }
+        self.count = mode;
+        Ok(self)
     }
 
     /// The stage counts searched, ascending, after the direction and coaxial requirements.

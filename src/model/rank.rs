@@ -233,6 +233,20 @@ impl TopK {
         self.count += n;
     }
 
+    /// For a ranking led by the error, once `k` entries are kept (`k` gear sets, when sets are
+    /// kept): the |error| of the k-th best, which nothing worse can pass to enter. `None` before
+    /// then, or when the error does not lead.
+    pub fn error_bound(&mut self) -> Option<RelError> {
+        if self.k == 0 || self.keys.first() != Some(&RankKey::Error) || self.held.len() < self.k {
+            return None;
+        }
+        self.shrink();
+        if self.held.len() < self.k {
+            return None;
+        }
+        self.held.iter().map(|c| c.error).max_by(|a, b| a.cmp_abs(b))
+    }
+
     /// Could a candidate no better than `best` on every key and tie-break (its stages aside)
     /// enter the best `k`? False only when `best` ranks after the kept worst before the stages
     /// are compared.

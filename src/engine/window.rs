@@ -1,0 +1,400 @@
+//! The window engine: the best trains of a near target over four to six stages, found without
+//! counting them all, by walking one side's gears and factoring the other side's product in a
+//! window that narrows as better trains are found.
+//!
+//! A train's ratio is P/Q, P the product of its driven teeth and Q that of its drivers. The
+//! engine walks every multiset of `n` tooth counts of one side (the drivers when the target is
+//! at least 1, so the side with the smaller product), pruned by what the other side's `n` gears
+//! can reach. For each, the other side's product lies in a window around the target times the
+//! walked product; every whole number in that window is factored into `n` tooth counts of the
+//! other side (by trial division, ascending). Each pair of multisets so found is a gear set; its
+//! pairings into stages are judged one by one, like any engine's candidates.
+//!
+//! The window is the tolerance at first. Once a unit of work holds the listing's K best (gear
+//! sets, or trains), it narrows to the error of the K-th, so the window soon holds no whole
+//! number for most walked products and the work falls to the walk itself. Every train within
+//! the final window of its unit is met, and that window is at least the error of the K-th best
+//! of the whole search, so the listing is the proven best; the trains farther out are not all
+//! met, and the count is then a lower bound (the tally is told so). Each unit starts afresh,
+//! so what it meets, and so the count, does not depend on the thread count.
+//!
+//! It serves a listing ranked by error first, with a limit and no Pareto front, over gears to
+//! be cut in one mesh group; the lineup asks it only when the problem asks for a lower-bound
+//! count ([`crate::model::problem::CountMode::LowerBound`]).
+
+use std::sync::atomic::{AtomicU64, Ordering};
+
+use super::kinds::{BulkEngine, BulkPlan};
+use super::sets::SetTools;
+use super::space::SearchSpace;
+use super::tally::Tally;
+use crate::model::gearset::GearSet;
+use crate::model::pool::MAX_STAGES;
+use crate::model::rank::RankKey;
+use crate::numbers::smooth::primes_up_to;
+
+/// The least stage count the engine takes: below it the meet engine counts every train as fast.
+pub const MIN_STAGES: usize = 4;
+
+/// Relative widening of the floating-point window: far above the rounding of the target times
+/// a product of tooth counts (each exact below 2⁵³; about 2·10⁻¹⁶ together).
+/// Whole numbers it lets in by excess are refused by the exact judge.
+const FLOAT_MARGIN: f64 = 1e-14;
+
+/// Walked products between looks at the stop flag.
+const LEAVES_PER_LOOK: u64 = 1 << 16;
+
+/// The window engine.
+pub struct Window;
+
+/// Does the window engine serve `n`-stage trains of `space`?
+pub fn applies(space: &SearchSpace, n: usize) -> bool {
+    let p = space.problem;
+    (MIN_STAGES..=MAX_STAGES).contains(&n)
+        && !p.pool.from_stock
+        && p.pool.groups.len() == 1
+        && !p.pareto
+        && p.limit > 0
+        && p.rank.first() == Some(&RankKey::Error)
+        && !p.target.tolerance.is_zero()
+}
+
+impl BulkEngine for Window {
+    fn name(&self) -> &'static str {
+        "window"
+    }
+
+    fn plan(&self, space: &SearchSpace, counts: &[usize]) -> Option<Box<dyn BulkPlan>> {
+        let counts: Vec<usize> = counts.iter().copied().filter(|&n| applies(space, n)).collect();
+        if counts.is_empty() {
+            return None;
+        }
+        let (drivers, driven) = Side::both(space)?;
+        let target = space.problem.target.ratio.to_f64();
+        let walk_drivers = target >= 1.0;
+        let (walk, other, centre) = match walk_drivers {
+            true => (drivers, driven, target),
+            false => (driven, drivers, 1.0 / target),
+        };
+        let tolerance = space.problem.target.tolerance.to_f64();
+        let shared_window = AtomicU64::new(tolerance.to_bits());
+        Some(Box::new(WindowPlan {
+            counts,
+            walk,
+            other,
+            walk_drivers,
+            centre,
+            tolerance,
+            tools: None,
+            shared_window,
+        }))
+    }
+}
+
+/// The tooth counts one side of the stages may have, ascending, with the pool kind of each.
+struct Side {
+    teeth: Vec<u64>,
+    kind: Vec<u32>,
+    /// Each tooth count to the powers 0 to six, for bounds.
+    powers: Vec<[f64; MAX_STAGES + 1]>,
+    /// Each tooth count as a divisor.
+    divisors: Vec<Divisor>,
+    /// The odd primes up to the largest tooth count, as divisors.
+    odd_primes: Vec<Divisor>,
+}
+
+impl Side {
+    /// The drivers' and the driven gears' sides of the stage table; `None` when a tooth count
+    /// stands for more than one kind on a side (the engine names gears by their teeth).
+    fn both(space: &SearchSpace) -> Option<(Side, Side)> {
+        let mut drivers: Vec<(u64, u32)> =
+            space.stages.iter().map(|s| (s.driver_teeth as u64, s.driver)).collect();
+        let mut driven: Vec<(u64, u32)> =
+            space.stages.iter().map(|s| (s.driven_teeth as u64, s.driven)).collect();
+        let side = |list: &mut Vec<(u64, u32)>| -> Option<Side> {
+            list.sort_unstable();
+            list.dedup();
+            if list.windows(2).any(|w| w[0].0 == w[1].0) {
+                return None;
+            }
+            let teeth: Vec<u64> = list.iter().map(|x| x.0).collect();
+            let most = *teeth.last()? as u32;
+            Some(Side {
+                powers: teeth.iter().map(|&t| std::array::from_fn(|k| (t as f64).powi(k as i32))).collect(),
+                divisors: teeth.iter().map(|&t| Divisor::new(t)).collect(),
+                odd_primes: primes_up_to(most).into_iter().skip(1).map(|p| Divisor::new(p as u64)).collect(),
+                kind: list.iter().map(|x| x.1).collect(),
+                teeth,
+            })
+        };
+        Some((side(&mut drivers)?, side(&mut driven)?))
+    }
+
+    /// The product of `n` of the largest tooth count (as `f64`, for bounds).
+    fn most(&self, n: usize) -> f64 {
+        self.powers.last().map_or(0.0, |p| p[n])
+    }
+
+    /// The product of `n` of the least tooth count.
+    fn least(&self, n: usize) -> f64 {
+        self.powers.first().map_or(0.0, |p| p[n])
+    }
+
+    /// Are all the prime factors of `x` at most the largest tooth count? (Else no product of
+    /// this side's teeth makes it.)
+    fn is_smooth(&self, x: u64) -> bool {
+        let mut x = x >> x.trailing_zeros();
+        for p in &self.odd_primes {
+            if x == 1 {
+                return true;
+            }
+            while let Some(q) = p.divide(x) {
+                x = q;
+            }
+        }
+        x == 1
+    }
+}
+
+/// A divisor tested by multiplication rather than division: `t = 2^shift · odd`, and `t`
+/// divides `x` exactly when the low `shift` bits of `x` are zero and `(x >> shift)` times the
+/// inverse of `odd` modulo 2⁶⁴ is at most `(2⁶⁴ − 1) / odd` (that product is then the
+/// quotient).
+#[derive(Debug, Clone, Copy)]
+struct Divisor {
+    shift: u32,
+    inverse: u64,
+    most: u64,
+}
+
+impl Divisor {
+    fn new(t: u64) -> Divisor {
+        let shift = t.trailing_zeros();
+        let odd = t >> shift;
+        // Newton's iteration doubles the correct low bits: 3 (any odd number is its own
+        // inverse modulo 8), 6, 12, 24, 48, 96.
+        let mut inverse = odd;
+        for _ in 0..5 {
+            inverse = inverse.wrapping_mul(2u64.wrapping_sub(odd.wrapping_mul(inverse)));
+        }
+        Divisor { shift, inverse, most: u64::MAX / odd }
+    }
+
+    /// `x / t` when `t` divides `x` (`x > 0`).
+    fn divide(&self, x: u64) -> Option<u64> {
+        if x.trailing_zeros() < self.shift {
+            return None;
+        }
+        let q = (x >> self.shift).wrapping_mul(self.inverse);
+        (q <= self.most).then_some(q)
+    }
+}
+
+/// The window engine's share of one search.
+struct WindowPlan {
+    counts: Vec<usize>,
+    /// The side walked and the side factored.
+    walk: Side,
+    other: Side,
+    /// True when the walked side is the drivers'.
+    walk_drivers: bool,
+    /// The other side's product over the walked side's, at the target.
+    centre: f64,
+    /// The tolerance, relative.
+    tolerance: f64,
+    /// The stage of each pairing, built when the first stage count is cut.
+    tools: Option<SetTools>,
+    /// The narrowest window any unit has reached, as the bits of a positive `f64` (ordered as
+    /// integers): every unit narrows to it as soon as it looks.
+    shared_window: AtomicU64,
+}
+
+impl BulkPlan for WindowPlan {
+    fn stage_counts(&self) -> &[usize] {
+        &self.counts
+    }
+
+    /// One unit per first (least) tooth count of the walked side.
+    fn cut(&mut self, space: &SearchSpace, _n: usize) -> usize {
+        if self.tools.is_none() {
+            self.tools = Some(SetTools::new(space));
+        }
+        self.walk.teeth.len()
+    }
+
+    fn run(&self, space: &SearchSpace, n: usize, unit: usize, tally: &mut Tally, tick: &(dyn Fn() + Sync)) {
+        let Some(tools) = &self.tools else { return };
+        let mut walk = Walk {
+            plan: self,
+            space,
+            tools,
+            n,
+            tally,
+            walked: [0; MAX_STAGES],
+            factors: [0; MAX_STAGES],
+            window: self.tolerance,
+            leaves: 0,
+            most_walked: self.other.most(n) / (self.centre * (1.0 - self.tolerance)) * (1.0 + FLOAT_MARGIN),
+            least_walked: self.other.least(n) / (self.centre * (1.0 + 2.0 * self.tolerance))
+                * (1.0 - FLOAT_MARGIN),
+            powers: std::array::from_fn(|k| self.other.most(k)),
+            walk_powers: std::array::from_fn(|k| self.walk.most(k)),
+        };
+        walk.walked[0] = unit;
+        walk.descend(1, self.walk.teeth[unit]);
+        if walk.window < self.tolerance {
+            walk.tally.count_not_all();
+        }
+        tick();
+    }
+}
+
+/// One unit's walk: the walked side's multiset so far, the window and the trains met.
+struct Walk<'a, 's> {
+    plan: &'a WindowPlan,
+    space: &'a SearchSpace<'s>,
+    tools: &'a SetTools,
+    n: usize,
+    /// The worker's tally: its K-th best narrows the window.
+    tally: &'a mut Tally,
+    /// Positions in the walked side's teeth of the multiset so far, ascending.
+    walked: [usize; MAX_STAGES],
+    /// Positions in the other side's teeth of the factors so far, ascending.
+    factors: [usize; MAX_STAGES],
+    /// The relative error a train must not pass to be listed: the tolerance, then the K-th best.
+    window: f64,
+    leaves: u64,
+    /// Bounds on the walked product for the other side to reach the target.
+    most_walked: f64,
+    least_walked: f64,
+    /// The other side's largest tooth count to the power of `k`, for `k` up to six.
+    powers: [f64; MAX_STAGES + 1],
+    /// The walked side's largest tooth count to the power of `k`.
+    walk_powers: [f64; MAX_STAGES + 1],
+}
+
+impl Walk<'_, '_> {
+    /// Add the walked side's member `k` on (the first `k` are chosen, their product `w`).
+    fn descend(&mut self, k: usize, w: u64) {
+        if k == self.n {
+            self.leaf(w);
+            return;
+        }
+        let left = self.n - k;
+        let side = &self.plan.walk;
+        for j in self.walked[k - 1]..side.teeth.len() {
+            let t = side.teeth[j];
+            // The least product from here on grows with `t`, the largest cannot fall short.
+            if w as f64 * side.powers[j][left] > self.most_walked {
+                break;
+            }
+            if (w * t) as f64 * self.walk_powers[left - 1] < self.least_walked {
+                continue;
+            }
+            if self.space.cancelled() {
+                return;
+            }
+            self.walked[k] = j;
+            self.descend(k + 1, w * t);
+        }
+    }
+
+    /// Factor every whole number of the window around the walked product `w`.
+    fn leaf(&mut self, w: u64) {
+        self.leaves += 1;
+        if self.leaves % LEAVES_PER_LOOK == 0 && self.space.cancelled() {
+            return;
+        }
+        self.window = self.window.min(f64::from_bits(self.plan.shared_window.load(Ordering::Relaxed)));
+        let c = self.plan.centre * w as f64;
+        let mut o = 1u64;
+        loop {
+            // The window narrows as trains are met: its ends are worked out again each time.
+            let (lo, hi) = self.ends(c);
+            o = o.max(lo);
+            if o > hi {
+                return;
+            }
+            self.factor(0, o, 0);
+            o += 1;
+        }
+    }
+
+    /// The whole numbers the other side's product may be, around `c`: |e| ≤ window about
+    /// either side's product is (1 ± window)·c, or c/(1 ∓ window), within c·window·(1 + 2·window).
+    fn ends(&self, c: f64) -> (u64, u64) {
+        let half = c * (self.window * (1.0 + 2.0 * self.window) + FLOAT_MARGIN);
+        ((c - half).ceil().max(1.0) as u64, (c + half).floor().max(0.0) as u64)
+    }
+
+    /// Narrow the window to the worker's K-th best, once it holds K, and tell the other units.
+    fn narrow(&mut self) {
+        if let Some(e) = self.tally.error_bound() {
+            let e = e.to_f64().abs();
+            if e < self.window {
+                self.window = e;
+                self.plan.shared_window.fetch_min(e.to_bits(), Ordering::Relaxed);
+            }
+        }
+    }
+
+    /// Factor `o` into the other side's members `k..n`, each at least the member at `from`.
+    fn factor(&mut self, k: usize, o: u64, from: usize) {
+        let side = &self.plan.other;
+        let teeth = &side.teeth;
+        let left = self.n - k;
+        if k == 0 && !side.is_smooth(o) {
+            return;
+        }
+        if left == 1 {
+            if let Ok(j) = teeth[from..].binary_search(&o) {
+                self.factors[k] = from + j;
+                self.gear_set();
+            }
+            return;
+        }
+        // The rest must be reached by `left − 1` members at most the largest: `t ≥ o / most`.
+        let least = o as f64 / self.powers[left - 1];
+        let start = from + teeth[from..].partition_point(|&t| (t as f64) < least * (1.0 - FLOAT_MARGIN));
+        for j in start..teeth.len() {
+            if side.powers[j][left] > o as f64 * (1.0 + FLOAT_MARGIN) {
+                break;
+            }
+            if let Some(rest) = side.divisors[j].divide(o) {
+                self.factors[k] = j;
+                self.factor(k + 1, rest, j);
+            }
+        }
+    }
+
+    /// Judge every pairing into stages of the gear set found (walked members and factors).
+    fn gear_set(&mut self) {
+        let n = self.n;
+        let (walk, other) = (&self.plan.walk, &self.plan.other);
+        let walked = self.walked[..n].iter().map(|&j| walk.kind[j]);
+        let factored = self.factors[..n].iter().map(|&j| other.kind[j]);
+        let set = match self.plan.walk_drivers {
+            true => GearSet::of_pairs(walked.zip(factored)),
+            false => GearSet::of_pairs(factored.zip(walked)),
+        };
+        let (space, tally) = (self.space, &mut *self.tally);
+        let (mut trains, mut error) = (0u64, None);
+        let by_train = !space.problem.gear_sets;
+        self.tools.for_each_staged_pairing(&set, &mut |idx| {
+            if let Some(c) = space.judge(idx) {
+                tally.push_uncounted(c);
+                trains += 1;
+                error = Some(c.error);
+                if by_train {
+                    tally.add_met(c.error, 1);
+                }
+            }
+        });
+        if let (Some(error), false) = (error, by_train) {
+            tally.add_met(error, trains);
+        }
+        if trains > 0 {
+            self.narrow();
+        }
+    }
+}
