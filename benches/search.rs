@@ -8,7 +8,7 @@ use gearsieve::model::rank::DEFAULT_RANK;
 use gearsieve::numbers::range::{IntRange, RatioRange};
 use gearsieve::numbers::rational::Ratio;
 use gearsieve::numbers::target::Target;
-use gearsieve::{search, EngineChoice, Problem, RunOptions, StageLimits};
+use gearsieve::{search, CountMode, EngineChoice, Problem, RunOptions, StageLimits};
 
 fn problem(ratio: &str, tol: &str, teeth: (u32, u32), stages: (u32, u32)) -> Problem {
     let pool = Pool::to_cut(IntRange { lo: teeth.0, hi: teeth.1 }, 1.0, 20.0, None).expect("pool");
@@ -100,11 +100,35 @@ fn deep_benches(c: &mut Criterion) {
     // --teeth 12..60 --stages 5`; smaller spaces of five and six stages are held to the
     // exhaustive engine by `meet_engine_equals_exhaustive_on_five_and_six_stages`.
     let five = problem("29.530588", "1ppm", (12, 60), (5, 5));
+    let counted = search(&five, EngineChoice::Auto, &RunOptions::default());
     g.bench_function("fast (meet) 5 stages 12..60 29.530588 1ppm", |b| {
         b.iter(|| {
             let out = search(&five, EngineChoice::Auto, &RunOptions::default());
             assert_eq!(out.count, 11_252_487);
             assert_eq!(out.trains.len(), 20);
+        })
+    });
+    // The same listing without counting every train (the window engine), side by side.
+    let five_best = five.clone().with_count(CountMode::LowerBound).expect("lower bound");
+    g.bench_function("fast (window) 5 stages 12..60 29.530588 1ppm, lower-bound count", |b| {
+        b.iter(|| {
+            let out = search(&five_best, EngineChoice::Auto, &RunOptions::default());
+            assert_eq!(out.trains, counted.trains);
+            assert!(!out.counted_all && out.count < counted.count);
+        })
+    });
+    // Five stages of 10..120 near 365.2422, which the meet engine forecasts at half an hour:
+    // the best train is the one `search --count lower-bound` printed (checked by hand:
+    // 31·31·31·11·11 drivers, 47·58·72·78·86 driven, -3.19e-12).
+    let year = problem("365.2422", "1ppm", (10, 120), (5, 5))
+        .with_count(CountMode::LowerBound)
+        .expect("lower bound");
+    g.bench_function("fast (window) 5 stages 10..120 365.2422 1ppm, lower-bound count", |b| {
+        b.iter(|| {
+            let out = search(&year, EngineChoice::Auto, &RunOptions::default());
+            assert_eq!(out.trains.len(), 20);
+            assert_eq!(out.trains[0].ratio.to_string(), "1316592576/3604711");
+            assert!(!out.counted_all);
         })
     });
     g.finish();

@@ -495,6 +495,7 @@ impl<S> ClockJob<S> {
             shard: None,
             narrow,
             can_shard: false,
+            can_count_less: false,
         }
     }
 }
@@ -723,6 +724,7 @@ impl Job for ClockJob<StrikeSpec> {
             shard: None,
             narrow: vec!["narrower --wheels or --pinions".into()],
             can_shard: false,
+            can_count_less: false,
         }))
     }
 }

@@ -390,6 +390,7 @@ impl Job for ReducerJob {
             shard: None,
             narrow,
             can_shard: false,
+            can_count_less: false,
         }))
     }
 }

@@ -103,6 +103,8 @@ pub struct Outlook<'a> {
     pub narrow: Vec<String>,
     /// Whether `--shard` can split this command's search.
     pub can_shard: bool,
+    /// Whether `--count lower-bound` would spare this search counting every train.
+    pub can_count_less: bool,
 }
 
 /// Forecast searches longer than this (wall seconds) are refused without `--long`.
@@ -151,6 +153,11 @@ pub fn forecast(outlook: Option<Outlook<'_>>, print: &Print) -> anyhow::Result<(
     );
     if wall > REFUSE_ABOVE_S && !o.long {
         let mut ways = Vec::new();
+        if o.can_count_less {
+            ways.push(
+                "list the proven best without counting every train with --count lower-bound".to_string(),
+            );
+        }
         if !o.narrow.is_empty() {
             ways.push(format!("narrow it ({})", o.narrow.join(", ")));
         }

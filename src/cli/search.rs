@@ -395,6 +395,8 @@ impl Job for SearchJob {
             shard: self.shard,
             narrow: hints::narrow_search(&self.problem),
             can_shard: true,
+            can_count_less: self.problem.count == CountMode::Exact
+                && gearsieve::engine::window::would_serve(&self.problem),
         }))
     }
 

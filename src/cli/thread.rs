@@ -283,6 +283,7 @@ fn lathe_outlook<'a>(problems: Vec<Problem>, lathe: &Lathe, long: bool) -> Outlo
         shard: None,
         narrow: narrow_lathe(lathe),
         can_shard: false,
+        can_count_less: false,
     }
 }
 

@@ -20,7 +20,7 @@
 //!
 //! It serves a listing ranked by error first, with a limit and no Pareto front, over gears to
 //! be cut in one mesh group; the lineup asks it only when the problem asks for a lower-bound
-//! count ([`crate::model::problem::CountMode::LowerBound`]).
+//! count ([`CountMode::LowerBound`]).
 
 use std::sync::atomic::{AtomicU64, Ordering};
 
@@ -30,6 +30,9 @@ use super::space::SearchSpace;
 use super::tally::Tally;
 use crate::model::gearset::GearSet;
 use crate::model::pool::MAX_STAGES;
+#[cfg(doc)]
+use crate::model::problem::CountMode;
+use crate::model::problem::Problem;
 use crate::model::rank::RankKey;
 use crate::numbers::smooth::primes_up_to;
 
@@ -47,11 +50,24 @@ const LEAVES_PER_LOOK: u64 = 1 << 16;
 /// The window engine.
 pub struct Window;
 
-/// Does the window engine serve `n`-stage trains of `space`?
+/// Does the window engine serve `n`-stage trains of `space`? (A coaxial train without a fixed
+/// distance is fitted train by train, and the trains that do not fit are counted as they are
+/// met: the sieve keeps that count whole.)
 pub fn applies(space: &SearchSpace, n: usize) -> bool {
-    let p = space.problem;
-    (MIN_STAGES..=MAX_STAGES).contains(&n)
-        && !p.pool.from_stock
+    (MIN_STAGES..=MAX_STAGES).contains(&n) && suits(space.problem) && !space.needs_coaxial_fit()
+}
+
+/// Could a lower-bound count of `problem` ([`CountMode::LowerBound`]) spare it counting some of
+/// its trains: would the window engine take one of its stage counts? Asked before a long search,
+/// to offer it.
+pub fn would_serve(problem: &Problem) -> bool {
+    let fitted = problem.mesh.as_ref().is_some_and(|m| m.coaxial && m.centre_distance_mm.is_none());
+    problem.stage_counts().iter().any(|&n| n >= MIN_STAGES) && suits(problem) && !fitted
+}
+
+/// What the engine needs of a problem beyond its stage count.
+fn suits(p: &Problem) -> bool {
+    !p.pool.from_stock
         && p.pool.groups.len() == 1
         && !p.pareto
         && p.limit > 0

@@ -4,7 +4,7 @@
 //! and the convention and caution as a footer. Made from the search's JSON document, so a
 //! merged split search reads exactly as one run.
 
-use super::json::Doc;
+use super::json::{CountKind, Doc};
 use crate::model::pool::fmt_num;
 use crate::model::problem::TO_BUY_KEY;
 use crate::model::purchase::describe_to_buy;
@@ -43,16 +43,31 @@ pub fn document(doc: &Doc) -> Document {
     let keys: Vec<&str> =
         doc.ranked_by.iter().map(|k| if k == TO_BUY_KEY { "gears to buy" } else { k.as_str() }).collect();
     let keys = keys.join(", then ");
-    let status = if doc.complete { "" } else { "INCOMPLETE (interrupted): at least " };
+    let lower = doc.count_kind == CountKind::LowerBound;
+    let status = match (doc.complete, lower) {
+        (false, _) => "INCOMPLETE (interrupted): at least ",
+        (true, true) => "At least ",
+        (true, false) => "",
+    };
     let listed = doc.trains.len();
     let by_set = doc.trains.iter().any(|t| t.arrangements.is_some());
     // What the trains are made of, and what is listed: gear sets when the search listed them.
-    let made_of = match doc.gear_set_count {
-        Some(1) => ", made of 1 gear set".to_string(),
-        Some(n) => format!(", made of {} gear sets", group_thousands(n)),
+    let some = if lower { "at least " } else { "" };
+    let mut made_of = match doc.gear_set_count {
+        Some(1) => format!(", made of {some}1 gear set"),
+        Some(n) => format!(", made of {some}{} gear sets", group_thousands(n)),
         None if by_set => crate::report::words::NOT_COUNTED.to_string(),
         None => String::new(),
     };
+    if let (true, Some(within)) = (lower, doc.counted_within) {
+        let reach = match within {
+            0.0 => "every train that hits the target exactly".to_string(),
+            w => format!("every train within {} of the target", describe_error_f64(w).replacen('+', "±", 1)),
+        };
+        made_of.push_str(&format!(
+            " ({reach}, as close as the last listed, counted; farther ones not all: --count lower-bound)"
+        ));
+    }
     let (one, many) = if by_set { ("gear set", "gear sets") } else { ("train", "trains") };
     let each = if by_set { ", each by its best arrangement" } else { "" };
     if let Some(front) = doc.pareto_size.filter(|_| doc.count > 0) {
@@ -76,7 +91,7 @@ pub fn document(doc: &Doc) -> Document {
             n => d.line(format!(
                 "{status}{} trains meet every constraint{made_of}; {} by {keys}{each}:",
                 group_thousands(n),
-                if listed as u64 == all {
+                if listed as u64 == all && !lower {
                     "all listed".to_string()
                 } else {
                     format!("the best {listed} {} listed", if listed == 1 { one } else { many })

@@ -6,7 +6,8 @@
 //!  "target": {"ratio": "<as given>", "value": f64, "tolerance": f64, "exact": "p/q"},
 //!  "gears": "<the gears searched>", "stage_counts": [n, …], "stage_options": n,
 //!  "mesh_checks": bool, "mixed_modules": bool,
-//!  "count": n, "gear_set_count": n|null, "complete": bool, "convention": "…", "ranked_by": ["error", …], "limit": k,
+//!  "count": n, "gear_set_count": n|null, "count_kind": "exact"|"lower_bound",
+//!  "counted_within": f64 (lower bounds only), "complete": bool, "convention": "…", "ranked_by": ["error", …], "limit": k,
 //!  "trains": [{"ratio": "p/q", "value": f64, "error": signed i/R − 1, "meshes": n,
 //!              "direction": "same"|"opposite", "size": n, "span_mm": mm, "arrangements": n,
 //!              "stages": [{"driver": z, "driven": z, "module_mm": mm,
@@ -32,6 +33,17 @@ use serde::{Deserialize, Serialize};
 
 use crate::report::fields::{TargetJson, TrainJson};
 
+/// Whether a search's counts are exact or lower bounds.
+#[derive(Serialize, Deserialize, Debug, Clone, Copy, PartialEq, Eq, Default)]
+#[serde(rename_all = "snake_case")]
+pub enum CountKind {
+    /// Every train meeting the constraints was counted.
+    #[default]
+    Exact,
+    /// Only the trains met on the way to the listed best were counted.
+    LowerBound,
+}
+
 /// The whole JSON document of a search.
 #[derive(Serialize, Deserialize, Debug, Clone, PartialEq)]
 pub struct Doc {
@@ -55,6 +67,15 @@ pub struct Doc {
     /// when an engine counted trains in bulk without their gear sets.
     #[serde(default)]
     pub gear_set_count: Option<u64>,
+    /// `exact` when every train meeting the constraints was counted; `lower_bound` when the
+    /// search counted only the trains it met on the way to the listed best (`--count
+    /// lower-bound`): `count` and `gear_set_count` are then lower bounds.
+    #[serde(default)]
+    pub count_kind: CountKind,
+    /// With a lower-bound count: the |relative error| within which every train was counted, the
+    /// error of the last listed (for a merge of parts, the least of the parts').
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub counted_within: Option<f64>,
     /// False when interrupted.
     pub complete: bool,
     /// The ratio convention in words.

@@ -14,7 +14,7 @@ use crate::model::rank::{compare, dominates, parse_rank, RankKey, Ranked};
 use crate::numbers::rational::{Ratio, RelError};
 use crate::numbers::target::parse_ratio;
 use crate::report::fields::TrainJson;
-use crate::report::search::json::Doc;
+use crate::report::search::json::{CountKind, Doc};
 
 /// A listed train with the keys the ranking needs, recomputed exactly from its JSON.
 struct Listed {
@@ -160,7 +160,9 @@ pub fn merge(docs: Vec<(String, Doc)>) -> Result<Doc> {
             .map(|x| x.count)
             .sum();
     }
-    let (mut count, mut complete) = (0u64, true);
+    let (mut count, mut complete, mut count_kind) = (0u64, true, CountKind::Exact);
+    // Every train within the narrowest of the parts' bands was counted in every part.
+    let mut counted_within: Option<f64> = None;
     let mut gear_set_count = Some(0u64);
     let by_set = docs.iter().any(|(_, d)| d.trains.iter().any(|t| t.arrangements.is_some()));
     let mut all = Vec::new();
@@ -168,6 +170,11 @@ pub fn merge(docs: Vec<(String, Doc)>) -> Result<Doc> {
         count += d.count;
         gear_set_count = gear_set_count.zip(d.gear_set_count).map(|(a, b)| a + b);
         complete &= d.complete;
+        if d.count_kind == CountKind::LowerBound {
+            count_kind = CountKind::LowerBound;
+            let within = d.counted_within.unwrap_or(0.0);
+            counted_within = Some(counted_within.map_or(within, |c| c.min(within)));
+        }
         for t in d.trains {
             all.push(listed(t, target, &name)?);
         }
@@ -193,6 +200,8 @@ pub fn merge(docs: Vec<(String, Doc)>) -> Result<Doc> {
     Ok(Doc {
         count,
         gear_set_count,
+        count_kind,
+        counted_within,
         complete,
         pareto_size,
         shard: None,

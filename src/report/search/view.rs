@@ -4,7 +4,7 @@
 //! gear data. This is where the presentation gathers what it shows; the formats
 //! (`json.rs`, `csv.rs`, `document.rs`) only write it.
 
-use super::json::{Doc, RejectionJson};
+use super::json::{CountKind, Doc, RejectionJson};
 use super::SearchReport;
 use crate::geometry::allowance::BacklashChoice;
 use crate::geometry::measure::pair_data;
@@ -37,6 +37,14 @@ pub fn doc(report: &SearchReport) -> Doc {
         mixed_modules: p.pool.groups.len() > 1,
         count: report.outcome.count,
         gear_set_count: report.outcome.gear_set_count,
+        count_kind: match report.outcome.counted_all {
+            true => CountKind::Exact,
+            false => CountKind::LowerBound,
+        },
+        // Every train within the error of the last listed was counted.
+        counted_within: (!report.outcome.counted_all)
+            .then(|| report.outcome.trains.last().map(|t| t.error.to_f64().abs()))
+            .flatten(),
         complete: report.outcome.complete,
         convention: CONVENTION.to_string(),
         ranked_by: p
