@@ -446,5 +446,11 @@ fn a_six_stage_meet_search_that_would_run_for_hours_needs_long() {
     ]);
     assert_eq!(r.code, 2, "{}", r.stderr);
     assert!(r.stderr.contains("--long") && r.stderr.contains("hours"), "{}", r.stderr);
+    // What it takes to list the best without counting every train is offered first.
+    assert!(
+        r.stderr.contains("list the proven best without counting every train with --count lower-bound"),
+        "{}",
+        r.stderr
+    );
     assert!(r.stdout.is_empty());
 }

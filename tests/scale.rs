@@ -31,6 +31,49 @@ fn merging_the_parts_prints_what_one_run_prints() {
     assert_eq!(merged.stdout, whole.stdout);
 }
 
+/// The parts of a search counted as a lower bound merge into the same listing as one run, still
+/// marked a lower bound, and counted at least as far as the one run.
+#[test]
+fn parts_of_a_lower_bound_count_merge_into_the_same_listing() {
+    let args = [
+        "search",
+        "--ratio",
+        "29.530588",
+        "--tol",
+        "10ppm",
+        "--teeth",
+        "12..40",
+        "--stages",
+        "5",
+        "--count",
+        "lower-bound",
+        "--format",
+        "json",
+    ];
+    let whole = gearsieve(&args);
+    assert_eq!(whole.code, 0, "{}", whole.stderr);
+    let dir = tempfile::tempdir().unwrap();
+    let mut files = Vec::new();
+    for i in 1..=3 {
+        let part = gearsieve(&[&args[..], &["--shard", &format!("{i}/3")]].concat());
+        assert_eq!(part.code, 0, "{}", part.stderr);
+        files.push(write(&dir, &format!("part{i}.json"), &part.stdout));
+    }
+    let mut merge_args = vec!["merge", "--format", "json"];
+    merge_args.extend(files.iter().map(String::as_str));
+    let merged = gearsieve(&merge_args);
+    assert_eq!(merged.code, 0, "{}", merged.stderr);
+    let (one, parts): (serde_json::Value, serde_json::Value) =
+        (serde_json::from_str(&whole.stdout).unwrap(), serde_json::from_str(&merged.stdout).unwrap());
+    assert_eq!(one["trains"], parts["trains"]);
+    assert_eq!(parts["count_kind"], "lower_bound");
+    assert_eq!(one["count_kind"], "lower_bound");
+    let within = |v: &serde_json::Value| v["counted_within"].as_f64().unwrap();
+    // Each part holds at most the best K of the whole, so its K-th is no closer than the whole's.
+    assert!(within(&parts) >= within(&one), "{} vs {}", within(&parts), within(&one));
+    assert!(parts["count"].as_u64().unwrap() >= one["count"].as_u64().unwrap());
+}
+
 #[test]
 fn merge_refuses_incomplete_or_mismatched_parts() {
     let dir = tempfile::tempdir().unwrap();

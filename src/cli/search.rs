@@ -36,10 +36,11 @@ pub enum EngineArg {
     /// Per stage count, the first engine that takes it: the factor engine for exact targets
     /// (--tol 0) over gears to be cut when every pairing of allowed teeth is a stage (no
     /// --stage-ratio, --centre-distance or mesh check leaves one out), up to four stages (six
-    /// when no gear has more than 255 teeth); then meet-in-the-middle over distinct stage
-    /// ratios for gears to be cut, up to four stages (four only while its pair table fits in
+    /// when no gear has more than 255 teeth); with --count lower-bound, the window engine for
+    /// near targets of four to six stages; then meet-in-the-middle over distinct stage ratios
+    /// for gears to be cut, up to six stages (four to six only while its pair table fits in
     /// 1 GiB); the sieve for the rest (gears on hand, --coaxial without a fixed centre
-    /// distance, more stages) and for --limit 0.
+    /// distance) and for --limit 0.
     Fast,
     /// Depth-first with ratio bounds, for every case.
     Sieve,
