@@ -426,6 +426,31 @@ fn output_into_a_missing_folder_says_which_folder() {
     );
 }
 
+/// A lower-bound count walks one side's multisets whatever the window: six stages of 12..200
+/// teeth are forecast at hours from a sample of that walk, and refused without --long.
+#[test]
+fn a_lower_bound_search_that_would_walk_for_hours_needs_long() {
+    let r = gearsieve(&[
+        "search",
+        "--ratio",
+        "29.530588",
+        "--tol",
+        "0.1ppm",
+        "--teeth",
+        "12..200",
+        "--stages",
+        "6",
+        "--count",
+        "lower-bound",
+        "--threads",
+        "2",
+    ]);
+    assert_eq!(r.code, 2, "{}", r.stderr);
+    assert!(r.stderr.contains("--long") && r.stderr.contains("hours"), "{}", r.stderr);
+    assert!(!r.stderr.contains("--count lower-bound"), "already given: {}", r.stderr);
+    assert!(r.stdout.is_empty());
+}
+
 /// Six stages of 12..80 teeth at 0.1 ppm go to the meet engine, whose forecast of its prefixes
 /// of four values runs to days on two threads: the search is refused without --long, as the
 /// sieve's long searches are, instead of starting work it would not finish.

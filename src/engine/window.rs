@@ -23,6 +23,7 @@
 //! count ([`CountMode::LowerBound`]).
 
 use std::sync::atomic::{AtomicU64, Ordering};
+use std::time::{Duration, Instant};
 
 use super::kinds::{BulkEngine, BulkPlan};
 use super::sets::SetTools;
@@ -240,28 +241,71 @@ impl BulkPlan for WindowPlan {
 
     fn run(&self, space: &SearchSpace, n: usize, unit: usize, tally: &mut Tally, tick: &(dyn Fn() + Sync)) {
         let Some(tools) = &self.tools else { return };
-        let mut walk = Walk {
-            plan: self,
-            space,
-            tools,
-            n,
-            tally,
-            walked: [0; MAX_STAGES],
-            factors: [0; MAX_STAGES],
-            window: self.tolerance,
-            leaves: 0,
-            most_walked: self.other.most(n) / (self.centre * (1.0 - self.tolerance)) * (1.0 + FLOAT_MARGIN),
-            least_walked: self.other.least(n) / (self.centre * (1.0 + 2.0 * self.tolerance))
-                * (1.0 - FLOAT_MARGIN),
-            powers: std::array::from_fn(|k| self.other.most(k)),
-            walk_powers: std::array::from_fn(|k| self.walk.most(k)),
-        };
-        walk.walked[0] = unit;
-        walk.descend(1, self.walk.teeth[unit]);
+        let mut walk = Walk::new(self, space, tools, n, tally, self.tolerance);
+        if walk.choices(0, 1, 0).contains(&unit) {
+            walk.walked[0] = unit;
+            walk.descend(1, self.walk.teeth[unit]);
+        }
         if walk.window < self.tolerance {
             walk.tally.count_not_all();
         }
         tick();
+    }
+
+    fn forecast_counts(&self) -> &[usize] {
+        &self.counts
+    }
+
+    fn forecast_splits(&self) -> bool {
+        true
+    }
+
+    /// The walk of the multisets, sampled by random descents (Knuth's estimate of a search
+    /// tree's size): each descent picks one member at random among those the bounds allow at
+    /// each position but the last, weighs itself by the product of the numbers of choices, and
+    /// times the real loop over the last member, with a window of nothing (the walk alone:
+    /// what the narrowed window adds, the factoring of the few whole numbers left in it, is not
+    /// counted, so this is a least figure).
+    fn forecast_seconds(&self, space: &SearchSpace, n: usize, budget: Duration) -> f64 {
+        /// Descents at most; past them the estimate is sharp enough.
+        const MOST_DESCENTS: usize = 1 << 16;
+        let start = Instant::now();
+        let tools = SetTools::new(space);
+        let mut scratch = Tally::new(space.problem, None);
+        let mut walk = Walk::new(self, space, &tools, n, &mut scratch, 0.0);
+        let mut seed = 0x9e37_79b9_7f4a_7c15u64;
+        let mut pick = |choices: usize| {
+            // xorshift64*: plenty for drawing members.
+            seed ^= seed >> 12;
+            seed ^= seed << 25;
+            seed ^= seed >> 27;
+            (seed.wrapping_mul(0x2545_f491_4f6c_dd1d) >> 11) as usize % choices
+        };
+        let (mut descents, mut weighted) = (0usize, 0.0f64);
+        while descents == 0 || (descents < MOST_DESCENTS && start.elapsed() < budget) {
+            descents += 1;
+            let (mut weight, mut w, mut from) = (1.0f64, 1u64, 0usize);
+            let mut k = 0;
+            while k < n - 1 {
+                let range = walk.choices(k, w, from);
+                if range.is_empty() {
+                    break;
+                }
+                let j = range.start + pick(range.len());
+                weight *= range.len() as f64;
+                walk.walked[k] = j;
+                w *= self.walk.teeth[j];
+                from = j;
+                k += 1;
+            }
+            if k < n - 1 {
+                continue;
+            }
+            let timed = Instant::now();
+            walk.descend(n - 1, w);
+            weighted += weight * timed.elapsed().as_secs_f64();
+        }
+        weighted / descents as f64
     }
 }
 
@@ -289,29 +333,63 @@ struct Walk<'a, 's> {
     walk_powers: [f64; MAX_STAGES + 1],
 }
 
+impl<'a, 's> Walk<'a, 's> {
+    /// A walk of `n`-stage trains into `tally`, the window at first `window`.
+    fn new(
+        plan: &'a WindowPlan,
+        space: &'a SearchSpace<'s>,
+        tools: &'a SetTools,
+        n: usize,
+        tally: &'a mut Tally,
+        window: f64,
+    ) -> Self {
+        let (centre, tolerance) = (plan.centre, plan.tolerance);
+        Walk {
+            plan,
+            space,
+            tools,
+            n,
+            tally,
+            walked: [0; MAX_STAGES],
+            factors: [0; MAX_STAGES],
+            window,
+            leaves: 0,
+            most_walked: plan.other.most(n) / (centre * (1.0 - tolerance)) * (1.0 + FLOAT_MARGIN),
+            least_walked: plan.other.least(n) / (centre * (1.0 + 2.0 * tolerance)) * (1.0 - FLOAT_MARGIN),
+            powers: std::array::from_fn(|k| plan.other.most(k)),
+            walk_powers: std::array::from_fn(|k| plan.walk.most(k)),
+        }
+    }
+}
+
 impl Walk<'_, '_> {
+    /// The positions the walked side's member `k` may take (the first `k` chosen, their
+    /// product `w`, the last at position `from`): the least product from there on must not pass
+    /// what the other side can reach, and the largest must reach what it needs. Both bounds
+    /// move one way with the member, so the positions allowed are one run.
+    fn choices(&self, k: usize, w: u64, from: usize) -> std::ops::Range<usize> {
+        let left = self.n - k;
+        let side = &self.plan.walk;
+        let w = w as f64;
+        let end = from + side.powers[from..].partition_point(|p| w * p[left] <= self.most_walked);
+        let start = from
+            + side.powers[from..end]
+                .partition_point(|p| w * p[1] * self.walk_powers[left - 1] < self.least_walked);
+        start..end
+    }
+
     /// Add the walked side's member `k` on (the first `k` are chosen, their product `w`).
     fn descend(&mut self, k: usize, w: u64) {
         if k == self.n {
             self.leaf(w);
             return;
         }
-        let left = self.n - k;
-        let side = &self.plan.walk;
-        for j in self.walked[k - 1]..side.teeth.len() {
-            let t = side.teeth[j];
-            // The least product from here on grows with `t`, the largest cannot fall short.
-            if w as f64 * side.powers[j][left] > self.most_walked {
-                break;
-            }
-            if (w * t) as f64 * self.walk_powers[left - 1] < self.least_walked {
-                continue;
-            }
+        for j in self.choices(k, w, self.walked[k - 1]) {
             if self.space.cancelled() {
                 return;
             }
             self.walked[k] = j;
-            self.descend(k + 1, w * t);
+            self.descend(k + 1, w * self.plan.walk.teeth[j]);
         }
     }
 
@@ -411,6 +489,64 @@ impl Walk<'_, '_> {
         }
         if trains > 0 {
             self.narrow();
+        }
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn a_divisor_by_multiplication_agrees_with_the_remainder() {
+        let mut x = 0x2545_f491_4f6c_dd1du64;
+        for t in 1..=400u64 {
+            let d = Divisor::new(t);
+            for k in 0..200u64 {
+                // Multiples, their neighbours, and large numbers near the top of the range.
+                x ^= x << 13;
+                x ^= x >> 7;
+                x ^= x << 17;
+                for v in [t * (k + 1), t * (k + 1) + 1, t * (k + 1) - 1, x.max(1), u64::MAX - k] {
+                    if v == 0 {
+                        continue;
+                    }
+                    let want = (v % t == 0).then(|| v / t);
+                    assert_eq!(d.divide(v), want, "{v} / {t}");
+                }
+            }
+        }
+    }
+
+    #[test]
+    fn smoothness_is_having_no_prime_factor_above_the_largest_tooth() {
+        let side = |most: u64| Side {
+            teeth: vec![most],
+            kind: vec![0],
+            powers: vec![[0.0; MAX_STAGES + 1]],
+            divisors: vec![Divisor::new(most)],
+            odd_primes: primes_up_to(most as u32)
+                .into_iter()
+                .skip(1)
+                .map(|p| Divisor::new(p as u64))
+                .collect(),
+        };
+        let largest_prime = |mut v: u64| {
+            let (mut p, mut big) = (2, 1);
+            while p * p <= v {
+                while v % p == 0 {
+                    v /= p;
+                    big = p;
+                }
+                p += 1;
+            }
+            big.max(v)
+        };
+        for most in [12u64, 40, 80, 127] {
+            let s = side(most);
+            for v in (1..20_000u64).chain([2u64.pow(40) * 3 * 79, 127 * 113 * 1024, 131 * 2]) {
+                assert_eq!(s.is_smooth(v), largest_prime(v) <= most, "{v} over teeth up to {most}");
+            }
         }
     }
 }
