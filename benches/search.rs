@@ -88,6 +88,28 @@ fn five_stage_benches(c: &mut Criterion) {
             assert_eq!(out.trains.len(), 20);
         })
     });
+    // The same search as `search --ratio 127/120 --teeth 12..160 --stages 5`, which lists gear
+    // sets: both counts and the best 20 sets are the ones the engine printed before its
+    // divisors were read from one list per side (sizes of the 20, and the best set's stages).
+    let exact_sets = Problem { gear_sets: true, ..exact.clone() };
+    g.bench_function("fast (factor) 5 stages 12..160 127/120 exact, gear sets", |b| {
+        b.iter(|| {
+            let out = search(&exact_sets, EngineChoice::Auto, &RunOptions::default());
+            assert_eq!(out.count, 1_297_738_801_453);
+            assert_eq!(out.gear_set_count, Some(13_526_417_998));
+            let sizes: Vec<u32> = out.trains.iter().map(|t| t.size()).collect();
+            assert_eq!(
+                sizes,
+                [
+                    271, 272, 272, 273, 273, 273, 274, 274, 274, 274, 275, 275, 275, 275, 276, 276, 276, 276,
+                    276, 276
+                ]
+            );
+            let best: Vec<(u32, u32)> =
+                out.trains[0].stages.iter().map(|s| (s.driver.teeth, s.driven.teeth)).collect();
+            assert_eq!(best, [(24, 12), (20, 12), (18, 12), (18, 12), (16, 127)]);
+        })
+    });
     g.finish();
 }
 

@@ -50,7 +50,7 @@ use super::tally::Tally;
 use crate::model::pool::MAX_STAGES;
 use crate::model::rank::Candidate;
 use crate::numbers::rational::RelError;
-use crate::numbers::smooth::{for_each_smooth, primes_up_to, Factored, ToothSet};
+use crate::numbers::smooth::{for_each_smooth, primes_up_to, Divisors, Factored, ToothSet};
 
 /// Largest tooth count for which five- and six-stage trains are counted here: the table of
 /// ordered triples has (teeth)³ entries, 66 MB at this bound.
@@ -309,6 +309,7 @@ impl FactorTables {
     /// the sum counts them, or `None` when the search was stopped.
     pub fn part_sum(&self, space: &SearchSpace, burnside: &BurnsideSum, part: usize) -> Option<(i128, i128)> {
         let (mut sum, mut sets) = (0i128, 0i128);
+        let mut lists = SideDivisors::default();
         let start = part * PART_SIZE;
         let chunk =
             &burnside.keys[start.min(burnside.keys.len())..(start + PART_SIZE).min(burnside.keys.len())];
@@ -317,7 +318,7 @@ impl FactorTables {
                 return None;
             }
             let Some(k) = Factored::of(k, &self.primes) else { continue };
-            let (t, g) = self.k_sums(burnside, &k);
+            let (t, g) = self.k_sums(burnside, &k, &mut lists);
             sum += t * ways as i128;
             sets += g * ways as i128;
         }
@@ -328,8 +329,9 @@ impl FactorTables {
     /// sets of that `k` when the sum counts them (0 otherwise): pairs of a multiset of driven
     /// teeth with product `k·p` and one of drivers with product `k·q` that some pairing without
     /// a 1:1 stage turns into a train. The multisets are counted from the same ordered products
-    /// (the terms of the shapes of all `n` places), so counting gear sets adds little.
-    fn k_sums(&self, burnside: &BurnsideSum, k: &Factored) -> (i128, i128) {
+    /// (the terms of the shapes of all `n` places), so counting gear sets adds little. The
+    /// divisors of each side's product are listed once in `lists` for every shape.
+    fn k_sums(&self, burnside: &BurnsideSum, k: &Factored, lists: &mut SideDivisors) -> (i128, i128) {
         let Some((p, q)) = &self.parts else { return (0, 0) };
         // k is within the largest term's bound, so the products fit.
         let (Some(driven), Some(driver)) = (k.mul(p), k.mul(q)) else { return (0, 0) };
@@ -340,7 +342,7 @@ impl FactorTables {
         let mut any_driven = false;
         for (a, t) in driven_counts.iter_mut().zip(&burnside.terms) {
             if (t.k_lo..=t.k_hi).contains(&k.value()) {
-                *a = self.driven.ordered_products(&driven, &t.powers);
+                *a = self.driven.ordered_products_in(&driven, &t.powers, &mut lists.driven);
                 any_driven |= *a > 0;
             }
         }
@@ -356,7 +358,7 @@ impl FactorTables {
             if a == 0 && whole.is_none() {
                 continue;
             }
-            let b = self.driver.ordered_products(&driver, &t.powers) as i128;
+            let b = self.driver.ordered_products_in(&driver, &t.powers, &mut lists.driver) as i128;
             sum += t.coef * a as i128 * b;
             if let Some(perms) = whole {
                 driven_sets += perms * a as i128;
@@ -436,8 +438,10 @@ impl FactorTables {
     /// timed on classes drawn from a fixed seed, is scaled to all of them; probing lasts about
     /// `budget`, or less once a few hundred probes agree that it is quick.
     pub fn forecast_seconds(&self, burnside: &BurnsideSum, budget: std::time::Duration) -> f64 {
-        /// Below this many seconds a count is quick, and the forecast need not be sharp.
-        const QUICK_S: f64 = 5.0;
+        /// Below this many seconds (one thread) a count is quick, and the forecast need not be
+        /// sharp: it is half the shortest forecast a command acts on (a note past 30 s), so an
+        /// estimate from a few hundred probes that is off by half still leads to the same.
+        const QUICK_S: f64 = 15.0;
         if burnside.terms.is_empty() {
             return 0.0;
         }
@@ -462,7 +466,7 @@ impl FactorTables {
             let (k, _) = keys[(seed.wrapping_mul(0x2545_f491_4f6c_dd1d) % keys.len() as u64) as usize];
             let t = std::time::Instant::now();
             if let Some(k) = Factored::of(k, &self.primes) {
-                std::hint::black_box(self.k_sums(burnside, &k));
+                std::hint::black_box(self.k_sums(burnside, &k, &mut SideDivisors::default()));
             }
             spent += t.elapsed().as_secs_f64();
             probes += 1;
@@ -633,6 +637,13 @@ impl FactorTables {
             left[j].1 += 1;
         }
     }
+}
+
+/// The divisors of the driven and the driver product of one `k`, listed once for every shape.
+#[derive(Default)]
+struct SideDivisors {
+    driven: Divisors,
+    driver: Divisors,
 }
 
 /// One term of Burnside's sum: tuples constant on cycles of these lengths, with the range of

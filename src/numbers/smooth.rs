@@ -320,6 +320,12 @@ impl ToothSet {
     /// The number of tuples `(t₁, …, t_m)` of members with `∏ t_c^{powers[c]} = n`; `powers`
     /// sorted descending, their sum at most 4 (6 with triples).
     pub fn ordered_products(&self, n: &Factored, powers: &[u32]) -> u64 {
+        self.ordered_products_in(n, powers, &mut Divisors::new())
+    }
+
+    /// [`ToothSet::ordered_products`], listing divisors in `divisors`: asked about the same
+    /// number for several shapes in a row, it lists them once.
+    pub fn ordered_products_in(&self, n: &Factored, powers: &[u32], divisors: &mut Divisors) -> u64 {
         match powers.first() {
             None => (n.value == 1) as u64,
             Some(&l) if l >= 2 => {
@@ -330,31 +336,43 @@ impl ToothSet {
                 let c = if c == 3 && self.triples.is_empty() { 1 } else { c as u32 };
                 let rest = &powers[c as usize..];
                 let pow = |x: u64| x.checked_pow(c).unwrap_or(u64::MAX);
+                // Up to three single members are counted from the tables by their product
+                // alone, which needs no factorisation of it.
+                let by_value = rest.iter().all(|&x| x == 1)
+                    && (rest.len() <= 2 || (rest.len() == 3 && !self.triples.is_empty()));
                 let mut total = 0;
                 n.root_part(l).for_each_divisor(pow(self.lo), pow(self.hi), &mut |y| {
                     let ways = self.ordered_of_value(y, c);
                     if ways > 0 {
                         // y divides the root part, so y^l divides n.
-                        total += ways * self.ordered_products(&n.div_pow(y, l), rest);
+                        total += ways
+                            * if by_value {
+                                self.ordered_of_value(n.value / y.pow(l), rest.len() as u32)
+                            } else {
+                                self.ordered_products_in(&n.div_pow(y, l), rest, divisors)
+                            };
                     }
                 });
                 total
             }
-            Some(_) => self.ordered_ones(n, powers.len() as u32),
+            Some(_) => self.ordered_ones(n, powers.len() as u32, divisors),
         }
     }
 
-    /// Ordered `c`-tuples of members with product `y`, for `c` of 1, 2 or 3 (3 with triples).
+    /// Ordered `c`-tuples of members with product `y`, for `c` of 0 to 3 (3 with triples).
     fn ordered_of_value(&self, y: u64, c: u32) -> u64 {
         match c {
+            0 => (y == 1) as u64,
             1 => self.contains(y) as u64,
             2 => self.pairs.get(y as usize).copied().unwrap_or(0) as u64,
             _ => self.triples.get(y as usize).copied().unwrap_or(0) as u64,
         }
     }
 
-    /// Ordered `m`-tuples of members with product `n`.
-    fn ordered_ones(&self, n: &Factored, m: u32) -> u64 {
+    /// Ordered `m`-tuples of members with product `n`. Four to six members split the product
+    /// into a divisor and its cofactor, read from the list of every divisor of `n` (cheaper
+    /// than a walk that prunes, and the cofactor comes without a division).
+    fn ordered_ones(&self, n: &Factored, m: u32, divisors: &mut Divisors) -> u64 {
         let v = n.value;
         let (lo, hi) = (self.lo, self.hi);
         let pow = |x: u64, e: u32| x.checked_pow(e).unwrap_or(u64::MAX);
@@ -363,45 +381,50 @@ impl ToothSet {
         }
         let pairs = |x: u64| self.pairs.get(x as usize).copied().unwrap_or(0) as u64;
         let triples = |x: u64| self.triples.get(x as usize).copied().unwrap_or(0) as u64;
+        // Products of two (three) members lie within these bounds, which the tables cover.
+        let (two_lo, two_hi) = (lo * lo, hi * hi);
+        let (three_lo, three_hi) = (two_lo * lo, two_hi * hi);
         let mut total = 0u64;
         match m {
             0 => total = (v == 1) as u64,
             1 => total = self.contains(v) as u64,
             2 => total = pairs(v),
             3 if !self.triples.is_empty() => total = triples(v),
-            3 => n.for_each_divisor(lo.max(v.div_ceil(hi * hi)), hi.min(v / (lo * lo)), &mut |d| {
+            3 => n.for_each_divisor(lo.max(v.div_ceil(two_hi)), hi.min(v / two_lo), &mut |d| {
                 if self.member[d as usize] {
                     total += pairs(v / d);
                 }
             }),
             4 => {
-                // Split into two pairs; each unordered split d·(v/d) with d < v/d counts twice.
-                let (a, b) = (lo * lo, hi * hi);
-                n.for_each_divisor(a.max(v.div_ceil(b)), b.min(v / a).min(isqrt(v)), &mut |d| {
-                    let e = v / d;
-                    total += if d < e { 2 * pairs(d) * pairs(e) } else { pairs(d) * pairs(e) };
-                })
+                // Two pairs; each unordered split d·e with d < e counts twice.
+                let list = divisors.of(n);
+                for (&d, &e) in list.iter().zip(list.iter().rev()) {
+                    if (two_lo..=two_hi).contains(&d) && (d..=two_hi).contains(&e) {
+                        let w = self.pairs[d as usize] as u64 * self.pairs[e as usize] as u64;
+                        total += if d < e { 2 * w } else { w };
+                    }
+                }
             }
             5 => {
-                let (a, b) = (lo * lo, hi * hi);
-                let c = hi * hi * hi;
-                // The table of triples is large and read at scattered places: the places are
-                // gathered first and read in a tight loop, so that the reads overlap.
-                let mut batch = Batch::new();
-                n.for_each_divisor(a.max(v.div_ceil(c)), b.min(v / (lo * lo * lo)), &mut |d| {
-                    let two = pairs(d);
-                    if two > 0 {
-                        batch.push(two, v / d, &mut |w, x| total += w * triples(x));
+                let list = divisors.of(n);
+                for (&d, &e) in list.iter().zip(list.iter().rev()) {
+                    if (two_lo..=two_hi).contains(&d) && (three_lo..=three_hi).contains(&e) {
+                        let w = self.pairs[d as usize];
+                        // The table of triples is large: read it only where a pair is.
+                        if w > 0 {
+                            total += w as u64 * self.triples[e as usize] as u64;
+                        }
                     }
-                });
-                batch.flush(&mut |w, x| total += w * triples(x));
+                }
             }
             6 => {
-                let (a, b) = (lo * lo * lo, hi * hi * hi);
-                n.for_each_divisor(a.max(v.div_ceil(b)), b.min(v / a).min(isqrt(v)), &mut |d| {
-                    let e = v / d;
-                    total += if d < e { 2 * triples(d) * triples(e) } else { triples(d) * triples(e) };
-                })
+                let list = divisors.of(n);
+                for (&d, &e) in list.iter().zip(list.iter().rev()) {
+                    if (three_lo..=three_hi).contains(&d) && (d..=three_hi).contains(&e) {
+                        let w = self.triples[d as usize] as u64 * self.triples[e as usize] as u64;
+                        total += if d < e { 2 * w } else { w };
+                    }
+                }
             }
             _ => unreachable!("products of at most six members are counted"),
         }
@@ -409,51 +432,45 @@ impl ToothSet {
     }
 }
 
-/// Weighted places in a table, read a batch at a time: reads that do not wait for one another
-/// can be in flight together, which a walk that reads as it goes does not allow.
-struct Batch {
-    len: usize,
-    weights: [u64; Batch::SIZE],
-    places: [u64; Batch::SIZE],
+/// Every divisor of one number, listed once and read by several counts of it.
+#[derive(Debug, Default)]
+pub struct Divisors {
+    /// The number listed (0 before any).
+    of: u64,
+    /// Its divisors, ordered by their exponents read as a mixed-radix number (the first
+    /// prime's exponent the lowest digit): the divisors at `i` and `len − 1 − i` then have
+    /// complementary exponents, and multiply to the number.
+    list: Vec<u64>,
 }
 
-impl Batch {
-    const SIZE: usize = 64;
-
-    fn new() -> Batch {
-        Batch { len: 0, weights: [0; Batch::SIZE], places: [0; Batch::SIZE] }
+impl Divisors {
+    /// An empty list, to be filled when first asked.
+    pub fn new() -> Divisors {
+        Divisors::default()
     }
 
-    /// Add `(weight, place)`, handing the batch to `read` first when it is full.
-    fn push(&mut self, weight: u64, place: u64, read: &mut impl FnMut(u64, u64)) {
-        if self.len == Batch::SIZE {
-            self.flush(read);
+    /// The divisors of `n`, listed anew unless `n` was the number last asked for.
+    pub fn of(&mut self, n: &Factored) -> &[u64] {
+        if self.of != n.value {
+            let len = n.powers().map(|(_, e)| e as usize + 1).product();
+            self.list.clear();
+            self.list.resize(len, 1);
+            // The divisors of the primes before p fill `block` places; each further block of
+            // as many is the one before times p.
+            let mut block = 1;
+            for (p, e) in n.powers() {
+                for a in 1..=e as usize {
+                    let (done, rest) = self.list.split_at_mut(a * block);
+                    for (x, &y) in rest[..block].iter_mut().zip(&done[(a - 1) * block..]) {
+                        *x = y * p as u64;
+                    }
+                }
+                block *= e as usize + 1;
+            }
+            self.of = n.value;
         }
-        self.weights[self.len] = weight;
-        self.places[self.len] = place;
-        self.len += 1;
+        &self.list
     }
-
-    /// Hand every entry to `read` and empty the batch.
-    fn flush(&mut self, read: &mut impl FnMut(u64, u64)) {
-        for i in 0..self.len {
-            read(self.weights[i], self.places[i]);
-        }
-        self.len = 0;
-    }
-}
-
-/// The largest `r` with `r² ≤ n`.
-fn isqrt(n: u64) -> u64 {
-    let mut r = (n as f64).sqrt() as u64;
-    let square = |r: u64| r as u128 * r as u128;
-    while square(r) > n as u128 {
-        r -= 1;
-    }
-    while square(r + 1) <= n as u128 {
-        r += 1;
-    }
-    r
 }
 
 #[cfg(test)]
@@ -468,10 +485,21 @@ mod tests {
     }
 
     #[test]
-    fn integer_square_roots() {
-        for n in [0u64, 1, 2, 3, 4, 15, 16, 17, 10u64.pow(12), 10u64.pow(12) - 1, u64::MAX] {
-            let r = isqrt(n) as u128;
-            assert!(r * r <= n as u128 && (r + 1) * (r + 1) > n as u128, "isqrt({n}) = {r}");
+    fn divisors_are_listed_opposite_their_cofactors() {
+        let primes = primes_up_to(130);
+        let mut divisors = Divisors::new();
+        for n in [1u64, 2, 12, 360, 720_720, 127 * 120, 2 * 3 * 5 * 7 * 11 * 13 * 17 * 19 * 23, 1 << 40, 12] {
+            let f = Factored::of(n, &primes).unwrap();
+            let list = divisors.of(&f).to_vec();
+            for (&d, &e) in list.iter().zip(list.iter().rev()) {
+                assert_eq!(d * e, n, "{d} and {e} in the list of {n}");
+            }
+            let mut sorted = list.clone();
+            sorted.sort_unstable();
+            let mut want = Vec::new();
+            f.for_each_divisor(1, u64::MAX, &mut |d| want.push(d));
+            want.sort_unstable();
+            assert_eq!(sorted, want, "every divisor of {n} once");
         }
     }
 
@@ -579,10 +607,19 @@ mod tests {
             &[3, 2, 1],
             &[2, 2, 1, 1],
         ];
+        // One list of divisors carried from number to number and shape to shape, as the
+        // factor engine carries it.
+        let mut shared = Divisors::new();
         for n in 1..=5000u64 {
             let Some(f) = Factored::of(n, &primes) else { continue };
             for powers in shapes {
-                assert_eq!(set.ordered_products(&f, powers), brute(&members, n, powers), "{n} as {powers:?}");
+                let want = brute(&members, n, powers);
+                assert_eq!(set.ordered_products(&f, powers), want, "{n} as {powers:?}");
+                assert_eq!(
+                    set.ordered_products_in(&f, powers, &mut shared),
+                    want,
+                    "{n} as {powers:?}, shared"
+                );
             }
         }
         // A product of six members near the top of the range.
