@@ -426,8 +426,9 @@ fn output_into_a_missing_folder_says_which_folder() {
     );
 }
 
-/// A lower-bound count walks one side's multisets whatever the window: six stages of 12..200
-/// teeth are forecast at hours from a sample of that walk, and refused without --long.
+/// A lower-bound count walks one side's multisets whatever the window: six stages of 12..300
+/// teeth are forecast at many hours from a sample of that walk (12..200: one to three hours, too
+/// near the line for a test), and refused without --long.
 #[test]
 fn a_lower_bound_search_that_would_walk_for_hours_needs_long() {
     let r = gearsieve(&[
@@ -437,7 +438,7 @@ fn a_lower_bound_search_that_would_walk_for_hours_needs_long() {
         "--tol",
         "0.1ppm",
         "--teeth",
-        "12..200",
+        "12..300",
         "--stages",
         "6",
         "--count",
@@ -446,7 +447,7 @@ fn a_lower_bound_search_that_would_walk_for_hours_needs_long() {
         "2",
     ]);
     assert_eq!(r.code, 2, "{}", r.stderr);
-    assert!(r.stderr.contains("--long") && r.stderr.contains("hours"), "{}", r.stderr);
+    assert!(r.stderr.contains("would take") && r.stderr.contains("--long"), "{}", r.stderr);
     assert!(!r.stderr.contains("--count lower-bound"), "already given: {}", r.stderr);
     assert!(r.stdout.is_empty());
 }

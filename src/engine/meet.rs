@@ -26,6 +26,7 @@ use std::time::{Duration, Instant};
 
 use rayon::prelude::*;
 
+use super::forecast::Draws;
 use super::kinds::{BulkEngine, BulkPlan};
 use super::setcount::SetCounter;
 use super::space::SearchSpace;
@@ -324,19 +325,12 @@ impl BulkPlan for MeetPlan {
             return built;
         }
         let mut tally = Tally::new(space.problem, None);
-        let mut seed = 0x9e37_79b9_7f4a_7c15u64;
-        let mut pick = |choices: usize| {
-            // xorshift64*: plenty for drawing values.
-            seed ^= seed >> 12;
-            seed ^= seed << 25;
-            seed ^= seed >> 27;
-            (seed.wrapping_mul(0x2545_f491_4f6c_dd1d) >> 11) as usize % choices
-        };
+        let mut draws = Draws::new();
         let (mut descents, mut weighted) = (0usize, 0.0f64);
         while descents == 0 || (descents < MOST_DESCENTS && start.elapsed() < budget) {
             descents += 1;
             let mut seq = [0usize; MAX_STAGES];
-            seq[0] = pick(firsts);
+            seq[0] = draws.pick(firsts);
             let (mut weight, mut product) = (firsts as f64, v[seq[0]]);
             let mut k = 1;
             while k < n - 3 {
@@ -344,7 +338,7 @@ impl BulkPlan for MeetPlan {
                 if from == to {
                     break;
                 }
-                seq[k] = from + pick(to - from);
+                seq[k] = from + draws.pick(to - from);
                 weight *= (to - from) as f64;
                 product *= v[seq[k]];
                 k += 1;

@@ -137,7 +137,7 @@ impl Tally {
 
     /// Note a gear set (or, for a listing of trains, a train) met with `trains` satisfying
     /// arrangements of error `error`, each already offered with [`Tally::push_uncounted`]; it
-    /// is counted by [`Tally::settle_met`].
+    /// is counted once the whole search is over (`settle_met`).
     pub fn add_met(&mut self, error: RelError, trains: u64) {
         self.met.push((error, trains));
     }

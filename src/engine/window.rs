@@ -25,6 +25,7 @@
 use std::sync::atomic::{AtomicU64, Ordering};
 use std::time::{Duration, Instant};
 
+use super::forecast::Draws;
 use super::kinds::{BulkEngine, BulkPlan};
 use super::sets::SetTools;
 use super::space::SearchSpace;
@@ -273,14 +274,7 @@ impl BulkPlan for WindowPlan {
         let tools = SetTools::new(space);
         let mut scratch = Tally::new(space.problem, None);
         let mut walk = Walk::new(self, space, &tools, n, &mut scratch, 0.0);
-        let mut seed = 0x9e37_79b9_7f4a_7c15u64;
-        let mut pick = |choices: usize| {
-            // xorshift64*: plenty for drawing members.
-            seed ^= seed >> 12;
-            seed ^= seed << 25;
-            seed ^= seed >> 27;
-            (seed.wrapping_mul(0x2545_f491_4f6c_dd1d) >> 11) as usize % choices
-        };
+        let mut draws = Draws::new();
         let (mut descents, mut weighted) = (0usize, 0.0f64);
         while descents == 0 || (descents < MOST_DESCENTS && start.elapsed() < budget) {
             descents += 1;
@@ -291,7 +285,7 @@ impl BulkPlan for WindowPlan {
                 if range.is_empty() {
                     break;
                 }
-                let j = range.start + pick(range.len());
+                let j = range.start + draws.pick(range.len());
                 weight *= range.len() as f64;
                 walk.walked[k] = j;
                 w *= self.walk.teeth[j];
