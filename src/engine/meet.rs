@@ -26,7 +26,7 @@ use std::time::{Duration, Instant};
 
 use rayon::prelude::*;
 
-use super::forecast::Draws;
+use super::draws::Draws;
 use super::kinds::{BulkEngine, BulkPlan};
 use super::setcount::SetCounter;
 use super::space::SearchSpace;

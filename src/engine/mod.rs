@@ -23,8 +23,10 @@
 //! - `lineup.rs`: which engines a choice asks, in which order (where an engine is registered);
 //! - `plan.rs`: who takes which stage count, units of work, shards;
 //! - `options.rs`: how to run a search and what it reports;
-//! - `driver.rs`, `forecast.rs`, `stream.rs`: running, forecasting and streaming a search.
+//! - `driver.rs`, `forecast.rs`, `stream.rs`: running, forecasting and streaming a search;
+//!   `draws.rs`: the random draws the bulk engines' forecasts sample with.
 
+mod draws;
 mod driver;
 pub mod exhaustive;
 pub mod factor;

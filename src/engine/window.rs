@@ -25,7 +25,7 @@
 use std::sync::atomic::{AtomicU64, Ordering};
 use std::time::{Duration, Instant};
 
-use super::forecast::Draws;
+use super::draws::Draws;
 use super::kinds::{BulkEngine, BulkPlan};
 use super::sets::SetTools;
 use super::space::SearchSpace;
