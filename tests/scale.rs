@@ -235,7 +235,7 @@ fn interrupted_after(ms: u64, args: &[&str]) -> (Option<i32>, serde_json::Value,
 fn ctrl_c_stops_an_exact_count_and_keeps_what_was_done() {
     let (code, v, stderr) = interrupted_after(
         3000,
-        &["--ratio", "127/120", "--teeth", "12..160", "--stages", "3..5", "--long", "--limit", "5"],
+        &["--ratio", "127/120", "--teeth", "12..250", "--stages", "3..5", "--long", "--limit", "5"],
     );
     assert_eq!(code, Some(130), "{stderr}");
     assert_eq!(v["complete"], false);
