@@ -46,9 +46,6 @@ pub const MIN_STAGES: usize = 4;
 /// Whole numbers it lets in by excess are refused by the exact judge.
 const FLOAT_MARGIN: f64 = 1e-14;
 
-/// Walked products between looks at the stop flag.
-const LEAVES_PER_LOOK: u64 = 1 << 16;
-
 /// The window engine.
 pub struct Window;
 
@@ -317,14 +314,9 @@ struct Walk<'a, 's> {
     factors: [usize; MAX_STAGES],
     /// The relative error a train must not pass to be listed: the tolerance, then the K-th best.
     window: f64,
-    leaves: u64,
     /// Bounds on the walked product for the other side to reach the target.
     most_walked: f64,
     least_walked: f64,
-    /// The other side's largest tooth count to the power of `k`, for `k` up to six.
-    powers: [f64; MAX_STAGES + 1],
-    /// The walked side's largest tooth count to the power of `k`.
-    walk_powers: [f64; MAX_STAGES + 1],
 }
 
 impl<'a, 's> Walk<'a, 's> {
@@ -347,11 +339,8 @@ impl<'a, 's> Walk<'a, 's> {
             walked: [0; MAX_STAGES],
             factors: [0; MAX_STAGES],
             window,
-            leaves: 0,
             most_walked: plan.other.most(n) / (centre * (1.0 - tolerance)) * (1.0 + FLOAT_MARGIN),
             least_walked: plan.other.least(n) / (centre * (1.0 + 2.0 * tolerance)) * (1.0 - FLOAT_MARGIN),
-            powers: std::array::from_fn(|k| plan.other.most(k)),
-            walk_powers: std::array::from_fn(|k| plan.walk.most(k)),
         }
     }
 }
@@ -368,7 +357,7 @@ impl Walk<'_, '_> {
         let end = from + side.powers[from..].partition_point(|p| w * p[left] <= self.most_walked);
         let start = from
             + side.powers[from..end]
-                .partition_point(|p| w * p[1] * self.walk_powers[left - 1] < self.least_walked);
+                .partition_point(|p| w * p[1] * self.plan.walk.most(left - 1) < self.least_walked);
         start..end
     }
 
@@ -389,10 +378,6 @@ impl Walk<'_, '_> {
 
     /// Factor every whole number of the window around the walked product `w`.
     fn leaf(&mut self, w: u64) {
-        self.leaves += 1;
-        if self.leaves % LEAVES_PER_LOOK == 0 && self.space.cancelled() {
-            return;
-        }
         self.window = self.window.min(f64::from_bits(self.plan.shared_window.load(Ordering::Relaxed)));
         let c = self.plan.centre * w as f64;
         let mut o = 1u64;
@@ -442,7 +427,7 @@ impl Walk<'_, '_> {
             return;
         }
         // The rest must be reached by `left − 1` members at most the largest: `t ≥ o / most`.
-        let least = o as f64 / self.powers[left - 1];
+        let least = o as f64 / self.plan.other.most(left - 1);
         let start = from + teeth[from..].partition_point(|&t| (t as f64) < least * (1.0 - FLOAT_MARGIN));
         for j in start..teeth.len() {
             if side.powers[j][left] > o as f64 * (1.0 + FLOAT_MARGIN) {
