@@ -557,3 +557,90 @@ fn factor_count_of_127_over_120_on_four_stages_of_12_to_200() {
     assert_eq!(want, 4_011_513_973);
     assert_eq!(factor_count(12, 200, "127/120") as u128, want);
 }
+
+/// Problems the meet engine cannot count in bulk, where it judges every choice of stages of a
+/// sequence one by one: gears on hand with quantities (sometimes in two modules, so two mesh
+/// groups), a train check, an extra ranking key, gear sets or trains, over four to six stages of
+/// a few kinds (the exhaustive engine's reach); up to three stages they go to the sieve.
+fn judged_strategy() -> impl Strategy<Value = Problem> {
+    let target = ((6u64..40, 6u64..40), (6u64..40, 1u64..40), prop_oneof![1 => Just(0u64), 3 => 1u64..4000])
+        .prop_map(|((a, b), (c, e), tol)| (a * b, c * e, tol));
+    let deep = any::<bool>();
+    let stock =
+        prop::collection::vec((6u32..40, prop_oneof![3 => Just(1.0), 1 => Just(1.5)], 1u32..4), 4..14);
+    let cut = (6u32..30, 2u32..8);
+    let rank = prop_oneof![
+        Just(DEFAULT_RANK.to_vec()),
+        Just(vec![RankKey::Size, RankKey::Error]),
+        Just(vec![RankKey::Span]),
+    ];
+    // Which trade-like checks: 0 none, 1 a train check, 2 an extra key, 3 both; with gears to
+    // cut at least one, so that the engine judges one by one.
+    (target, deep, stock, cut, any::<bool>(), 0u8..4, rank, 1usize..8, any::<(bool, bool)>()).prop_filter_map(
+        "a problem the meet engine judges one by one",
+        |((n, d, tol_ppm), deep, stock, (lo, w), on_hand, checks, rank, limit, (sets, pareto))| {
+            let target = Target::exact(
+                format!("{n}/{d}"),
+                Ratio::new(n as u128, d as u128)?,
+                Ratio::new(tol_ppm as u128 * 50, 1_000_000)?,
+            );
+            let pool = if on_hand {
+                // Four stages over at most seven kinds, five and six over at most six, so the
+                // exhaustive engine finishes.
+                let take = if deep { 6 } else { 7 };
+                let gears: Vec<StockGear> = stock
+                    .into_iter()
+                    .take(take)
+                    .map(|(teeth, module_mm, quantity)| StockGear::on_hand(teeth, module_mm, 20.0, quantity))
+                    .collect();
+                Pool::from_stock(&gears, "random").ok()?
+            } else {
+                let w = if deep { w.min(2) } else { w.min(4) };
+                Pool::to_cut(IntRange { lo, hi: lo + w }, 1.0, 20.0, None).ok()?
+            };
+            let checks = if on_hand { checks } else { checks.max(1) };
+            let stages = if deep { IntRange { lo: 5, hi: 6 } } else { IntRange { lo: 4, hi: 4 } };
+            let mut p = Problem::new(target, pool, stages, StageLimits::default(), None, rank, limit).ok()?;
+            if checks & 1 == 1 {
+                // No stage's driven gear more than twice the smallest driver of the train.
+                p.train_check = Some(gearsieve::model::problem::TrainCheck::new(|t: &Train| {
+                    let least = t.stages.iter().map(|s| s.driver.teeth).min().unwrap_or(0);
+                    t.stages.iter().all(|s| s.driven.teeth <= 2 * least.max(1) + 10)
+                }));
+            }
+            if checks & 2 == 2 {
+                // The teeth of the first stage's driver, ranked after the rest.
+                p.extra_key = Some(gearsieve::model::problem::ExtraKey::new("first driver", |t: &Train| {
+                    t.stages.first().map_or(0.0, |s| s.driver.teeth as f64)
+                }));
+                p.rank.push(RankKey::Extra);
+            }
+            p.gear_sets = sets;
+            p.pareto = pareto && checks & 2 == 0;
+            Some(p)
+        },
+    )
+}
+
+proptest! {
+    #![proptest_config(ProptestConfig { cases: 120, ..ProptestConfig::default() })]
+
+    /// What the meet engine judges one by one (gears on hand, train checks, extra keys, several
+    /// mesh groups) it finds, counts and lists exactly as the exhaustive engine does, gear sets
+    /// and their arrangements included; and the meet engine, not the sieve, takes it.
+    #[test]
+    fn meet_engine_judges_one_by_one_as_the_exhaustive_engine(p in judged_strategy()) {
+        let space = gearsieve::engine::SearchSpace::new(&p, None);
+        prop_assert!(!gearsieve::engine::meet::counts_in_bulk(&space));
+        for n in p.stage_counts() {
+            prop_assert!(gearsieve::engine::meet::applies(&space, n));
+        }
+        let options = RunOptions { list_arrangements: true, ..RunOptions::default() };
+        let fast = search(&p, EngineChoice::Auto, &options);
+        let slow = search(&p, EngineChoice::Exhaustive, &options);
+        if std::env::var_os("GEARSIEVE_PROP_STATS").is_some() {
+            eprintln!("count {} sets {:?} stages {} stock {} n {}", slow.count, slow.gear_set_count, slow.stage_options, p.pool.from_stock, p.stages);
+        }
+        prop_assert_eq!(fast, slow);
+    }
+}

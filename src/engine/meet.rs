@@ -18,9 +18,15 @@
 //! A sequence within tolerance stands for every choice of stages from its values; they all share
 //! the ratio, so they are counted at once by multiset combinations. They are only spelt out
 //! (and judged one by one, like any engine's candidates) when the best of them could still enter
-//! the listing. It applies to gears to be cut with no train-level check or extra key, where
-//! every choice of stages is as valid as any other; anything else goes to the sieve. The gear
-//! sets are counted apart, by the set counter, where every pairing of other teeth is a stage.
+//! the listing. That holds for gears to be cut in one mesh group with no train-level check,
+//! extra key or coaxial fit, where every choice of stages is as valid as any other. Elsewhere
+//! (gears on hand with their quantities, a trade's train check such as a reducer's housing or a
+//! lathe's banjo, an extra ranking key, several mesh groups, a coaxial train) the engine still
+//! finds the sequences inside the window in bulk, but spells out every choice of stages of each
+//! and judges them one by one (`OneByOne`), as the sieve does at its leaves, counting gear sets
+//! by their canonical arrangement. Searches with gears to buy stay with the sieve, which prunes
+//! on the budget as it descends. The gear sets of bulk-counted searches are counted apart, by
+//! the set counter, where every pairing of other teeth is a stage.
 
 use std::time::{Duration, Instant};
 
@@ -29,6 +35,7 @@ use rayon::prelude::*;
 use super::draws::Draws;
 use super::kinds::{BulkEngine, BulkPlan};
 use super::setcount::SetCounter;
+use super::sets::SetTools;
 use super::space::SearchSpace;
 use super::tally::Tally;
 use crate::model::pool::MAX_STAGES;
@@ -239,9 +246,14 @@ impl BulkEngine for Meet {
         }
         let ratios = DistinctRatios::new(space);
         counts.retain(|&n| n <= 3 || PairTable::fits(&ratios, space.lo, space.hi, n));
-        let sets = if space.problem.gear_sets { SetCounter::new(space) } else { None };
+        let one_by_one = (!counts_in_bulk(space)).then(|| OneByOne::new(space));
+        let sets = match (&one_by_one, space.problem.gear_sets) {
+            (None, true) => SetCounter::new(space),
+            _ => None,
+        };
         let pairs = std::array::from_fn(|_| None);
-        (!counts.is_empty()).then(|| Box::new(MeetPlan { counts, ratios, pairs, sets }) as Box<dyn BulkPlan>)
+        (!counts.is_empty())
+            .then(|| Box::new(MeetPlan { counts, ratios, pairs, sets, one_by_one }) as Box<dyn BulkPlan>)
     }
 }
 
@@ -251,9 +263,27 @@ struct MeetPlan {
     ratios: DistinctRatios,
     /// The pair table of each stage count from four up, built when that count is cut.
     pairs: [Option<PairTable>; MAX_STAGES + 1],
-    /// Counts the gear sets, when the search lists them and every pairing of other teeth is a
-    /// stage.
+    /// Counts the gear sets, when the search lists them, its trains are counted in bulk and
+    /// every pairing of other teeth is a stage.
     sets: Option<SetCounter>,
+    /// Set when the choices of stages of a sequence must be judged one by one.
+    one_by_one: Option<OneByOne>,
+}
+
+/// Trains judged one by one, for a search where the choices of stages of one value sequence
+/// need not all satisfy it (gears on hand, a train check, a coaxial fit) or need not rank alike
+/// (an extra key, several mesh groups). Each choice is judged by [`SearchSpace::judge`] and
+/// counted if it satisfies; a gear set is counted by its canonical arrangement, as in a stage
+/// engine's run.
+struct OneByOne {
+    /// The gear-set view, when the search lists gear sets.
+    sets: Option<SetTools>,
+}
+
+impl OneByOne {
+    fn new(space: &SearchSpace) -> OneByOne {
+        OneByOne { sets: space.problem.gear_sets.then(|| SetTools::new(space)) }
+    }
 }
 
 impl BulkPlan for MeetPlan {
@@ -273,7 +303,8 @@ impl BulkPlan for MeetPlan {
     }
 
     fn run(&self, space: &SearchSpace, n: usize, unit: usize, tally: &mut Tally, tick: &(dyn Fn() + Sync)) {
-        let run = MeetRun::new(space, &self.ratios, self.pairs.get(n).and_then(Option::as_ref));
+        let pairs = self.pairs.get(n).and_then(Option::as_ref);
+        let run = MeetRun::new(space, &self.ratios, pairs, self.one_by_one.as_ref());
         if n == 4 {
             run.first_pairs(unit, tally);
         } else if n >= 5 {
@@ -283,8 +314,9 @@ impl BulkPlan for MeetPlan {
             run.first_values(n, unit * step, ((unit + 1) * step).min(len), tally);
         }
         // The gear sets of n stages are counted whole by the first unit (so once in a split
-        // search); without a counter they are not counted at all.
+        // search), or one by one with their trains; without either they are not counted at all.
         match &self.sets {
+            _ if self.one_by_one.is_some() => {}
             Some(counter) if unit == 0 => match counter.count(n) {
                 Some(sets) => tally.add_sets(sets),
                 None => tally.sets_not_counted(),
@@ -296,9 +328,12 @@ impl BulkPlan for MeetPlan {
     }
 
     /// Five and six stages: their prefixes are many more than their units, and a unit's cost
-    /// falls steeply with its first value, so the table alone does not bound it.
+    /// falls steeply with its first value, so the table alone does not bound it. Judging one by
+    /// one, four stages too: every train inside the tolerance is then built and judged, which
+    /// no table bounds (a loose tolerance lets billions through).
     fn forecast_counts(&self) -> &[usize] {
-        &self.counts[self.counts.partition_point(|&n| n < 5)..]
+        let from = if self.one_by_one.is_some() { 4 } else { 5 };
+        &self.counts[self.counts.partition_point(|&n| n < from)..]
     }
 
     fn forecast_splits(&self) -> bool {
@@ -311,14 +346,20 @@ impl BulkPlan for MeetPlan {
     /// weighs itself by the product of the numbers of choices, and times the real work under
     /// it (the last value of the prefix by loop, its look-ups in the table, the trains met,
     /// into a scratch tally). The weighted mean time over the descents, an unbiased estimate of
-    /// the whole walk, is added to the table's.
+    /// the whole walk, is added to the table's. Four stages descend the same way (a prefix of
+    /// two values). Once the estimate after many descents is a few seconds, it stops: nothing
+    /// is announced or refused below that.
     fn forecast_seconds(&self, space: &SearchSpace, n: usize, budget: Duration) -> f64 {
         /// Descents at most; past them the estimate is sharp enough.
         const MOST_DESCENTS: usize = 1 << 16;
+        /// Descents before an estimate may end the forecast early.
+        const FEWEST_DESCENTS: usize = 256;
+        /// An estimate below this, after the fewest descents, ends the forecast.
+        const QUICK_SECONDS: f64 = 5.0;
         let start = Instant::now();
         let Some(table) = PairTable::new(&self.ratios, space.lo, space.hi, n) else { return 0.0 };
         let built = start.elapsed().as_secs_f64();
-        let run = MeetRun::new(space, &self.ratios, Some(&table));
+        let run = MeetRun::new(space, &self.ratios, Some(&table), self.one_by_one.as_ref());
         let v = &self.ratios.value;
         let firsts = v.partition_point(|&x| x.powi(n as i32) <= space.hi * (1.0 + F32_MARGIN));
         if firsts == 0 {
@@ -328,12 +369,18 @@ impl BulkPlan for MeetPlan {
         let mut draws = Draws::new();
         let (mut descents, mut weighted) = (0usize, 0.0f64);
         while descents == 0 || (descents < MOST_DESCENTS && start.elapsed() < budget) {
+            if descents >= FEWEST_DESCENTS && built + weighted / (descents as f64) < QUICK_SECONDS {
+                break;
+            }
             descents += 1;
             let mut seq = [0usize; MAX_STAGES];
             seq[0] = draws.pick(firsts);
             let (mut weight, mut product) = (firsts as f64, v[seq[0]]);
             let mut k = 1;
-            while k < n - 3 {
+            // Down to the last but one value of the prefix (five and six stages), or to the
+            // whole prefix of two (four stages, where the last but one is the first).
+            let depth = (n - 3).max(2);
+            while k < depth {
                 let (from, to) = run.next_values(n, k, product, seq[k - 1]);
                 if from == to {
                     break;
@@ -343,7 +390,7 @@ impl BulkPlan for MeetPlan {
                 product *= v[seq[k]];
                 k += 1;
             }
-            if k < n - 3 {
+            if k < depth {
                 continue;
             }
             let timed = Instant::now();
@@ -379,10 +426,17 @@ struct MeetRun<'a, 's> {
     error_first: bool,
     /// The least float |error| of a sequence the tally refused (infinite before any).
     refused_from: std::cell::Cell<f64>,
+    /// Set when every choice of stages is judged and counted one by one.
+    one_by_one: Option<&'a OneByOne>,
 }
 
 impl<'a, 's> MeetRun<'a, 's> {
-    fn new(space: &'a SearchSpace<'s>, ratios: &'a DistinctRatios, pairs: Option<&'a PairTable>) -> Self {
+    fn new(
+        space: &'a SearchSpace<'s>,
+        ratios: &'a DistinctRatios,
+        pairs: Option<&'a PairTable>,
+        one_by_one: Option<&'a OneByOne>,
+    ) -> Self {
         let p = space.problem;
         let (ratio, tolerance) = (p.target.ratio.to_f64(), p.target.tolerance.to_f64());
         let surely_within = (
@@ -398,6 +452,7 @@ impl<'a, 's> MeetRun<'a, 's> {
             surely_within,
             error_first,
             refused_from: std::cell::Cell::new(f64::INFINITY),
+            one_by_one,
         }
     }
 }
@@ -621,6 +676,11 @@ impl MeetRun<'_, '_> {
             }
         }
         let runs = &runs[..nruns];
+        let mut idx = [0u32; MAX_STAGES];
+        if self.one_by_one.is_some() {
+            self.spell(runs, 0, 0, &mut idx, seq.len(), tally);
+            return;
+        }
         let count: u64 =
             runs.iter().map(|&(x, k)| choose(vals.len[x] as u64 + k as u64 - 1, k as u64)).product();
         tally.add_count(count);
@@ -642,7 +702,6 @@ impl MeetRun<'_, '_> {
             }
             return;
         }
-        let mut idx = [0u32; MAX_STAGES];
         self.spell(runs, 0, 0, &mut idx, seq.len(), tally);
     }
 
@@ -658,7 +717,15 @@ impl MeetRun<'_, '_> {
     ) {
         if r == runs.len() {
             if let Some(c) = self.space.judge(&idx[..n]) {
-                tally.push_uncounted(c);
+                match self.one_by_one {
+                    None => tally.push_uncounted(c),
+                    Some(each) => {
+                        tally.push(c);
+                        if each.sets.as_ref().is_some_and(|s| s.is_canonical(self.space, &c)) {
+                            tally.add_sets(1);
+                        }
+                    }
+                }
             }
             return;
         }
@@ -692,11 +759,19 @@ impl MeetRun<'_, '_> {
     }
 }
 
-/// Can the meet engine take `n`-stage trains of this space?
+/// Can the meet engine take `n`-stage trains of this space? Not with gears to buy, where the
+/// sieve prunes on the budget as it descends; and where trains are judged one by one, only
+/// from four stages up: up to three the sieve's leaves are the same trains, met a third
+/// faster (a three-stage reducer at its default tolerance, measured side by side).
 pub fn applies(space: &SearchSpace, n: usize) -> bool {
+    (1..=MAX_STAGES).contains(&n) && space.budget.is_none() && (n >= 4 || counts_in_bulk(space))
+}
+
+/// Does every choice of stages of a value sequence satisfy the problem, and rank as the best of
+/// them bounds it, so that a sequence's trains can be counted at once?
+pub fn counts_in_bulk(space: &SearchSpace) -> bool {
     let p = space.problem;
-    (1..=MAX_STAGES).contains(&n)
-        && !p.pool.from_stock
+    !p.pool.from_stock
         && p.train_check.is_none()
         && p.extra_key.is_none()
         && p.pool.groups.len() == 1
