@@ -872,6 +872,126 @@ fn an_astronomical_dial_lists_each_gear_set_once() {
     assert!(v["gear_set_count"].as_u64().unwrap() <= v["count"].as_u64().unwrap());
 }
 
+/// A lower-bound count of an astronomical train lists the same gear sets, arrangement for
+/// arrangement, as the exact count, and labels its counts: on 8..40 teeth over three and four
+/// stages at 10 ppm the exact count takes a fraction of a second, so both can be run.
+#[test]
+fn a_lower_bound_count_of_an_astronomical_train_lists_the_exact_count_s_best() {
+    let args = [
+        "clock",
+        "astro",
+        "--period",
+        "synodic-month",
+        "--tol",
+        "10ppm",
+        "--teeth",
+        "8..40",
+        "--stages",
+        "3..4",
+        "--limit",
+        "6",
+        "--arrangements",
+        "-q",
+    ];
+    let (code, exact) = json(&[&args[..], &["--count", "exact"]].concat());
+    assert_eq!(code, 0);
+    let (code, lower) = json(&[&args[..], &["--count", "lower-bound"]].concat());
+    assert_eq!(code, 0);
+    assert_eq!(exact["count_kind"], "exact");
+    assert!(exact.get("counted_within").is_none(), "{exact}");
+    assert_eq!(lower["count_kind"], "lower_bound");
+    // The same sets, each with the same arrangements (teeth, order, count).
+    assert_eq!(trains(&lower).len(), 6);
+    assert_eq!(trains(&lower), trains(&exact));
+    let count = |v: &Value, key: &str| v[key].as_u64().unwrap();
+    assert!(count(&lower, "count") <= count(&exact, "count"));
+    assert!(count(&lower, "gear_set_count") <= count(&exact, "gear_set_count"));
+    // The reach of the count is the last listed train's |error|.
+    let last = trains(&lower).last().unwrap()["error"].as_f64().unwrap().abs();
+    assert_eq!(lower["counted_within"].as_f64().unwrap(), last);
+    // Every train and gear set within that reach was counted: the exact count's full listing
+    // has no more of them. (Here the lower bounds, 50 trains of 15 sets, are above the 36 trains
+    // of 9 sets that listing has within the reach; both stay below the exact counts.)
+    let (code, all) = json(&[&args[..10], &["--limit", "10000", "-q"]].concat());
+    assert_eq!(code, 0);
+    assert_eq!(trains(&all).len() as u64, count(&exact, "gear_set_count"), "the whole listing");
+    let within: Vec<&Value> =
+        trains(&all).iter().filter(|t| t["error"].as_f64().unwrap().abs() <= last).collect();
+    assert!(within.len() as u64 <= count(&lower, "gear_set_count"));
+    let trains_within: u64 = within.iter().map(|t| t["arrangements"].as_u64().unwrap()).sum();
+    assert!(trains_within <= count(&lower, "count"));
+    // The table says the counts are lower bounds, and within which error.
+    let table = gearsieve(&[&args[..], &["--count", "lower-bound"]].concat());
+    assert_eq!(table.code, 0, "{}", table.stderr);
+    let expected = format!(
+        "At least {} trains, made of at least {} gear sets (every train within ±",
+        count(&lower, "count"),
+        count(&lower, "gear_set_count")
+    );
+    assert!(table.stdout.contains(&expected), "{}", table.stdout);
+    assert!(table.stdout.contains("farther ones not all: --count lower-bound)"), "{}", table.stdout);
+    let exact_table = gearsieve(&args);
+    assert!(!exact_table.stdout.contains("At least"), "{}", exact_table.stdout);
+}
+
+/// Six stages of 8..80 teeth at 0.1 ppm are forecast at many hours for an exact count (about
+/// 14 h on two threads of a release build): the refusal offers a lower-bound count, which the
+/// window engine serves, and comes at once instead of starting the search.
+#[test]
+fn a_long_astronomical_search_is_offered_a_lower_bound_count() {
+    let args = [
+        "clock",
+        "astro",
+        "--period",
+        "synodic-month",
+        "--tol",
+        "0.1ppm",
+        "--teeth",
+        "8..80",
+        "--stages",
+        "6",
+        "--threads",
+        "2",
+    ];
+    let start = std::time::Instant::now();
+    let r = gearsieve(&args);
+    assert_eq!(r.code, 2, "{}", r.stderr);
+    assert!(r.stderr.contains("would take") && r.stderr.contains("--long"), "{}", r.stderr);
+    assert!(
+        r.stderr.contains("list the proven best without counting every train with --count lower-bound"),
+        "{}",
+        r.stderr
+    );
+    assert!(r.stdout.is_empty());
+    // Refused from the forecast's short sample, not after searching (the forecast's budget is
+    // a second; the bound is loose for a busy machine).
+    assert!(start.elapsed() < std::time::Duration::from_secs(60), "{:?}", start.elapsed());
+}
+
+#[test]
+fn astro_count_refusals_name_the_flag() {
+    // A listing of every train is not offered by clock commands; with a lower-bound count the
+    // limit is still what is refused.
+    let r = gearsieve(&[
+        "clock",
+        "astro",
+        "--period",
+        "synodic-month",
+        "--stages",
+        "4",
+        "--count",
+        "lower-bound",
+        "--limit",
+        "0",
+    ]);
+    assert_eq!(r.code, 2, "{}", r.stderr);
+    assert_eq!(r.stderr.trim(), "gearsieve: --limit: list at least one train");
+    let r = gearsieve(&["clock", "astro", "--period", "synodic-month", "--count", "roughly"]);
+    assert_eq!(r.code, 2, "{}", r.stderr);
+    assert!(r.stderr.contains("--count") && r.stderr.contains("roughly"), "{}", r.stderr);
+    assert!(r.stderr.contains("exact") && r.stderr.contains("lower-bound"), "{}", r.stderr);
+}
+
 mod gear_sets {
     //! The clock's listed gear sets and their arrangement counts against a brute-force grouping
     //! of every train the exhaustive engine finds for the same problem listing trains: grouped

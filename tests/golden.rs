@@ -236,6 +236,25 @@ const CASES: &[(&str, &[&str])] = &[
     ("clock-strike", &["clock", "strike", "--check-meshes", "--limit", "2"]),
     ("clock-astro", &["clock", "astro", "--period", "synodic-month", "--tol", "10ppm", "--limit", "3"]),
     (
+        "clock-astro-lower-bound",
+        &[
+            "clock",
+            "astro",
+            "--period",
+            "synodic-month",
+            "--tol",
+            "10ppm",
+            "--teeth",
+            "8..40",
+            "--stages",
+            "4",
+            "--count",
+            "lower-bound",
+            "--limit",
+            "3",
+        ],
+    ),
+    (
         "reducer",
         &[
             "reducer",

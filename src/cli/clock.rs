@@ -25,12 +25,13 @@ use gearsieve::trades::clock::motion::{Dial, MotionPlan, MotionSpec};
 use gearsieve::trades::clock::part::MeshCheck;
 use gearsieve::trades::clock::strike::{StrikePlan, StrikeSpec};
 use gearsieve::trades::clock::{going, motion, strike};
-use gearsieve::{Error, Problem, Quantity, RunOptions};
+use gearsieve::{CountMode, Error, Problem, Quantity, RunOptions};
 
 use super::args::{load_stock, number, PrintArgs, ToothFormArg};
 use super::flags::refuse;
 use super::hints::{self, ExactBlocked, OutOfReach};
 use super::run::{self, Job, Outlook, Print, Words};
+use super::search::CountArg;
 
 /// Clock trains: the going train, the motion work, astronomical trains.
 #[derive(Args, Debug)]
@@ -67,7 +68,7 @@ pub struct ClockGears {
     #[arg(long, value_name = "N|A..B", allow_hyphen_values = true)]
     pub stages: Option<String>,
     /// Gear sets to list, each by its first arrangement in stage order; every train and gear
-    /// set is counted.
+    /// set is counted (unless astro's --count lower-bound).
     #[arg(long, value_name = "K", default_value_t = 10)]
     pub limit: usize,
     /// List every arrangement of each gear set under it (the ways of pairing its wheels with
@@ -264,6 +265,12 @@ pub struct AstroArgs {
     /// Teeth of the gears to cut, LO..HI.
     #[arg(long, value_name = "LO..HI", default_value = "8..150")]
     pub teeth: String,
+    /// How to count the trains: every one (exact), or only those met on the way to the listed
+    /// best, which stay the proven best (lower-bound: for four to six stages of gears to be cut
+    /// at a tolerance above 0, where counting all would take far longer than finding the best;
+    /// the counts are then marked as lower bounds).
+    #[arg(long, value_enum, value_name = "HOW", default_value = "exact")]
+    pub count: CountArg,
     #[command(flatten)]
     pub gears: ClockGears,
 }
@@ -463,6 +470,7 @@ impl TryFrom<&AstroArgs> for AstroSpec {
             pool: pool(&a.gears, teeth(&a.teeth, Quantity::ToothRange)?)?,
             stages: stages(&a.gears, "1..2")?,
             limit: a.gears.limit,
+            count_mode: a.count.into(),
         })
     }
 }
@@ -764,7 +772,12 @@ impl Job for ClockJob<AstroSpec> {
         if !s.tolerance.is_zero() {
             narrow.push("a tighter --tol".into());
         }
-        Ok(Some(self.outlook(s.problem()?, narrow)))
+        let problem = s.problem()?;
+        // As `search` does: a lower-bound count is offered where the window engine would list
+        // the same best without counting every train.
+        let can_count_less =
+            problem.count == CountMode::Exact && gearsieve::engine::window::would_serve(&problem);
+        Ok(Some(Outlook { can_count_less, ..self.outlook(problem, narrow) }))
     }
 }
 

@@ -5,7 +5,10 @@ use crate::geometry::CycloidalMesh;
 use crate::model::pool::fmt_num;
 use crate::model::problem::ToothForm;
 use crate::model::train::Train;
-use crate::report::words::{count_line, describe_error, describe_tolerance, set_count_line, CONVENTION};
+use crate::report::words::{
+    count_line, describe_error, describe_error_f64, describe_tolerance, group_thousands, set_count_line,
+    CONVENTION, NOT_COUNTED,
+};
 use crate::report::{Document, Table};
 use crate::trades::clock::astro::AstroPlan;
 use crate::trades::clock::beat::BeatSource;
@@ -39,6 +42,44 @@ pub fn listing_line(count: u64, sets: Option<u64>, listed: usize, complete: bool
     match count {
         0 => count_line(count, listed, complete, "train", order),
         _ => set_count_line(count, sets, listed, complete, order, EACH_SET),
+    }
+}
+
+/// The count line of a listing of gear sets whose counts are lower bounds (a search that
+/// counted only the trains it met on the way to the listed best): at least so many trains and
+/// gear sets, and within which |error| (`within`, the last listed train's) every train was
+/// counted, in the words of the search's table.
+pub fn lower_bound_line(
+    count: u64,
+    sets: Option<u64>,
+    listed: usize,
+    complete: bool,
+    within: Option<f64>,
+    order: &str,
+) -> String {
+    let status = if complete { "At least " } else { "INCOMPLETE (interrupted): at least " };
+    let plural =
+        |n: u64, what: &str| format!("{} {what}{}", group_thousands(n), if n == 1 { "" } else { "s" });
+    let mut made_of = match sets {
+        Some(n) => format!(", made of at least {}", plural(n, "gear set")),
+        None => NOT_COUNTED.to_string(),
+    };
+    if let Some(w) = within {
+        let reach = match w {
+            0.0 => "every train that hits the target exactly".to_string(),
+            w => format!("every train within {} of the target", describe_error_f64(w).replacen('+', "±", 1)),
+        };
+        made_of.push_str(&format!(
+            " ({reach}, as close as the last listed, counted; farther ones not all: --count lower-bound)"
+        ));
+    }
+    match count {
+        0 => format!("{status}no train meets every constraint."),
+        n => format!(
+            "{status}{}{made_of}; the best {} listed {order}, each by {EACH_SET}:",
+            plural(n, "train"),
+            plural(listed as u64, "gear set")
+        ),
     }
 }
 
@@ -561,13 +602,13 @@ pub fn astro(p: &AstroPlan) -> Document {
         describe_tolerance(s.tolerance.to_f64())
     ));
     d.blank();
-    d.line(listing_line(
-        p.count,
-        p.gear_set_count,
-        p.trains.len(),
-        p.complete,
-        "by error, then meshes, then size",
-    ));
+    let order = "by error, then meshes, then size";
+    if p.counted_all {
+        d.line(listing_line(p.count, p.gear_set_count, p.trains.len(), p.complete, order));
+    } else {
+        let within = p.counted_within.map(|e| e.to_f64().abs());
+        d.line(lower_bound_line(p.count, p.gear_set_count, p.trains.len(), p.complete, within, order));
+    }
     if !p.trains.is_empty() {
         let rows = set_rows(
             p.trains.len(),

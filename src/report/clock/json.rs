@@ -9,7 +9,9 @@
 //! ```
 //! A document is `{"schema_version", "clock_train": "going"|"motion"|"astro", …what was asked…, "count",
 //! "gear_set_count", "complete", "convention", "train_runs", "trains": […]}`; an astro document adds
-//! `"convergents"`. Each listed train is a gear set's first arrangement in stage order, with
+//! `"convergents"` and, after `gear_set_count`, `"count_kind"` (`"exact"`, or `"lower_bound"` when
+//! only the trains met on the way to the listed best were counted) with, for lower bounds only,
+//! `"counted_within"` (the |error| within which every train was counted). Each listed train is a gear set's first arrangement in stage order, with
 //! `"arrangements"` (how many its set has) and, when every arrangement was asked for,
 //! `"other_arrangements"` (the others, each in the same form). A striking train's parts, and a
 //! going train's `great_wheel`, carry their own `count`, `gear_set_count` and trains so.
@@ -23,6 +25,7 @@ use super::train_json;
 use crate::geometry::CycloidalMesh;
 use crate::model::train::Train;
 use crate::report::fields::{TargetJson, TrainJson};
+use crate::report::search::json::CountKind;
 use crate::report::words::CONVENTION;
 use crate::report::{write_json, RenderError, SCHEMA_VERSION};
 use crate::trades::clock::astro::AstroPlan;
@@ -357,6 +360,9 @@ struct AstroDoc {
     target: TargetJson,
     count: u64,
     gear_set_count: Option<u64>,
+    count_kind: CountKind,
+    #[serde(skip_serializing_if = "Option::is_none")]
+    counted_within: Option<f64>,
     complete: bool,
     convention: &'static str,
     train_runs: &'static str,
@@ -383,6 +389,8 @@ pub fn write_astro(p: &AstroPlan, w: &mut dyn Write) -> Result<(), RenderError> 
         },
         count: p.count,
         gear_set_count: p.gear_set_count,
+        count_kind: if p.counted_all { CountKind::Exact } else { CountKind::LowerBound },
+        counted_within: p.counted_within.map(|e| e.to_f64().abs()),
         complete: p.complete,
         convention: CONVENTION,
         train_runs: "input = daily or hourly arbor, output = dial turning once per period",

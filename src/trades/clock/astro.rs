@@ -8,12 +8,12 @@ use super::clock_problem;
 use crate::engine::{search, RunOptions};
 use crate::error::{Error, Quantity, Result};
 use crate::model::pool::Pool;
-use crate::model::problem::{Problem, StageLimits};
+use crate::model::problem::{CountMode, Problem, StageLimits};
 use crate::model::train::Train;
 use crate::numbers::exact::Exact;
 use crate::numbers::period::{period_wanted, read_period, TimeUnit};
 use crate::numbers::range::IntRange;
-use crate::numbers::rational::Ratio;
+use crate::numbers::rational::{Ratio, RelError};
 use crate::numbers::target::{parse_ratio, Target};
 
 /// Days in the year used for drift per year: the mean Gregorian calendar year, 365.2425 days.
@@ -200,6 +200,10 @@ pub struct AstroSpec {
     pub stages: IntRange,
     /// Gear sets to list, each by its first arrangement.
     pub limit: usize,
+    /// Whether every train must be counted, or only the listing must be the proven best
+    /// ([`CountMode::LowerBound`]: four to six stages then list their best without meeting every
+    /// train, and the counts are lower bounds).
+    pub count_mode: CountMode,
 }
 
 /// One train with its drift.
@@ -252,6 +256,13 @@ pub struct AstroPlan {
     pub gear_set_count: Option<u64>,
     /// False when interrupted.
     pub complete: bool,
+    /// False when the search counted only the trains it met on the way to the listed best
+    /// ([`CountMode::LowerBound`]): `count` and `gear_set_count` are then lower bounds, while
+    /// the listing is still the proven best.
+    pub counted_all: bool,
+    /// When not every train was counted: the error of the last listed train. Every train whose
+    /// |error| is at most its |error| was counted; farther ones not all.
+    pub counted_within: Option<RelError>,
     /// The best gear sets, each by its best arrangement.
     pub trains: Vec<AstroTrain>,
     /// The convergents of the ratio, up to the first whose parts pass 10⁶ or whose error lies
@@ -318,7 +329,8 @@ impl AstroSpec {
         let target = Target::exact(self.period.name.clone(), r, self.tolerance);
         // One entry per gear set (as every clock train): the same wheels paired differently make
         // the same dial.
-        clock_problem(target, self.pool.clone(), self.stages, StageLimits::default(), self.limit)
+        clock_problem(target, self.pool.clone(), self.stages, StageLimits::default(), self.limit)?
+            .with_count(self.count_mode)
     }
 
     /// Search, and list the convergents.
@@ -328,6 +340,10 @@ impl AstroSpec {
         let per_turn = 1.0 / self.from.turns_per_day() as f64;
         let mut sets = found.arrangements.into_iter();
         let (gear_set_count, count, complete) = (found.gear_set_count, found.count, found.complete);
+        let counted_all = found.counted_all;
+        // Every train within the error of the last listed was counted (the window engine's
+        // bound is the K-th best kept, the last listed).
+        let counted_within = (!counted_all).then(|| found.trains.last().map(|t| t.error)).flatten();
         let trains = found
             .trains
             .into_iter()
@@ -365,7 +381,17 @@ impl AstroSpec {
             }
         }
         let convergents = listed;
-        Ok(AstroPlan { spec: self.clone(), problem, count, gear_set_count, complete, trains, convergents })
+        Ok(AstroPlan {
+            spec: self.clone(),
+            problem,
+            count,
+            gear_set_count,
+            complete,
+            counted_all,
+            counted_within,
+            trains,
+            convergents,
+        })
     }
 }
 
